@@ -1,0 +1,5 @@
+export * from "./issue";
+export * from "./source";
+export * from "./measured";
+export * from "./patient";
+export * from "./sources";

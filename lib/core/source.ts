@@ -1,0 +1,46 @@
+/**
+ * Every equation, cut-off and method names its published source. A source is written once, in a
+ * registry of its layer (`lib/<layer>/sources.ts`), and referenced by id everywhere else.
+ */
+
+/**
+ * - confirmed: the number was seen in the primary text or its abstract;
+ * - secondary: seen only in a secondary reproduction (review table, later paper);
+ * - recalled: from memory, not yet seen in found text: verify before relying on it;
+ * - common-practice: a fact of the trade with no single published source.
+ */
+export type EvidenceStatus = "confirmed" | "secondary" | "recalled" | "common-practice";
+
+export interface Source {
+  /** Stable id, kebab-case: `<firstauthor>-<year>[-topic]`, e.g. `beaver-1986`. */
+  id: string;
+  /** Short citation as shown beside a number, e.g. "Beaver, Wasserman & Whipp 1986, J Appl Physiol 60:2020". */
+  citation: string;
+  status: EvidenceStatus;
+  doi?: string;
+  pmid?: string;
+  /** What exactly rests on this source and what is still unverified. */
+  note?: string;
+}
+
+/** Registry helper: checks ids are unique and match their keys (a programming mistake throws). */
+export function defineSources<const K extends string>(sources: Record<K, Omit<Source, "id">>): Record<K, Source> {
+  const out = {} as Record<K, Source>;
+  for (const key of Object.keys(sources) as K[]) {
+    out[key] = { id: key, ...sources[key] };
+  }
+  return out;
+}
+
+export function mergeSourceRegistries(...registries: Record<string, Source>[]): Record<string, Source> {
+  const merged: Record<string, Source> = {};
+  for (const reg of registries) {
+    for (const [id, src] of Object.entries(reg)) {
+      if (merged[id] && merged[id].citation !== src.citation) {
+        throw new Error(`source id ${id} is defined twice with different citations`);
+      }
+      merged[id] = src;
+    }
+  }
+  return merged;
+}

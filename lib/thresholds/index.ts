@@ -1,0 +1,2 @@
+export * from "./sources";
+export * from "./peak";

@@ -1,0 +1,13 @@
+/** Display formatting. Numbers are rounded only here, never inside the engine. */
+export function formatNumber(value: number | null | undefined, decimals = 0): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return "—";
+  return value.toFixed(decimals);
+}
+
+/** m:ss from seconds, e.g. 754 → "12:34". Negative times (rest before exercise) keep a minus sign. */
+export function formatClock(seconds: number): string {
+  const sign = seconds < 0 ? "-" : "";
+  const s = Math.round(Math.abs(seconds));
+  const m = Math.floor(s / 60);
+  return `${sign}${m}:${String(s % 60).padStart(2, "0")}`;
+}
