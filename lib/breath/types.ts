@@ -78,3 +78,23 @@ export interface BreathTable {
   /** Which canonical fields carry data in at least one row. */
   fields: (NumericField | "phase")[];
 }
+
+/** One blood lactate sample, by time and/or stage. */
+export interface LactateSample {
+  timeS?: number;
+  stage?: number;
+  /** Work rate at the sample (W), when known (stage protocols). */
+  workW?: number;
+  /** Treadmill speed at the sample (km/h), when known. */
+  speedKmh?: number;
+  lactateMmolL: number;
+}
+
+/** Arterial (or arterialised) blood gas sample at a time point. */
+export interface BloodGasSample {
+  timeS: number;
+  paO2MmHg?: number;
+  paCO2MmHg?: number;
+  /** Label as the lab wrote it, e.g. "rest", "peak". */
+  label?: string;
+}

@@ -1,1 +1,3 @@
+export * from "./types";
 export * from "./rollingTimeAverage";
+export * from "./conditionTable";

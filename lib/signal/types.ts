@@ -1,0 +1,49 @@
+import type { Issue } from "../core";
+import type { BreathRow, NumericField, Phase, TableShape } from "../breath";
+
+/** A span of the test in one phase. `source` says how it was found. */
+export interface PhaseSpan {
+  phase: Phase;
+  startS: number;
+  endS: number;
+  source: "markers" | "work-rate" | "speed" | "assumed";
+}
+
+/** A breath (or one value of it) set aside by artefact rejection, with the reason shown to the user. */
+export interface RemovedBreath {
+  /** Index in the imported table's rows. */
+  index: number;
+  timeS: number;
+  sourceRow?: number;
+  field: NumericField;
+  value: number;
+  reason: string;
+}
+
+/** How the series were averaged; recorded on every number derived from them. */
+export interface AveragingSpec {
+  kind: "none" | "time-bin" | "rolling-time" | "breath-count" | "middle-of-seven";
+  /** Window length for time-based kinds, seconds. */
+  seconds?: number;
+  /** Window length for breath-count kinds, breaths. */
+  breaths?: number;
+  /** Plain words, e.g. "30-s rolling time window". */
+  label: string;
+}
+
+/** The imported table after conditioning: what every measurement in lib/thresholds starts from. */
+export interface ConditionedTest {
+  shape: TableShape;
+  /** Artefacts removed, not averaged, time order. */
+  clean: BreathRow[];
+  removed: RemovedBreath[];
+  /** `clean` averaged according to `averaging`. */
+  averaged: BreathRow[];
+  averaging: AveragingSpec;
+  phases: PhaseSpan[];
+  /** The incremental (loaded) exercise phase, or null when it cannot be found. */
+  exercise: { startS: number; endS: number } | null;
+  /** Estimated ramp rate of the incremental phase (W/min), null without a work-rate signal. */
+  rampRateWPerMin: number | null;
+  issues: Issue[];
+}
