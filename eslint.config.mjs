@@ -15,7 +15,17 @@ export default tseslint.config(
     files: ["lib/**/*.ts"],
     ignores: ["lib/store/**", "lib/report/pdf/**"],
     rules: {
-      "no-restricted-imports": ["error", { patterns: [{ group: ["node:*", "fs", "path", "better-sqlite3"], message: "lib/ is pure: I/O belongs in lib/store, lib/report/pdf, cli/ or app/" }] }],
+      "no-restricted-imports": [
+        "error",
+        {
+          patterns: [
+            {
+              group: ["node:*", "fs", "path", "better-sqlite3"],
+              message: "lib/ is pure: I/O belongs in lib/store, lib/report/pdf, cli/ or app/",
+            },
+          ],
+        },
+      ],
     },
   },
 );

@@ -15,7 +15,19 @@ export const ALLOWED = {
   interpret: ["core", "units", "numeric", "predicted"],
   analysis: ["core", "units", "numeric", "breath", "signal", "thresholds", "predicted", "interpret", "synthetic"],
   report: ["core", "units", "numeric", "breath", "signal", "thresholds", "predicted", "interpret", "analysis"],
-  store: ["core", "units", "numeric", "breath", "signal", "thresholds", "predicted", "interpret", "analysis", "report", "synthetic"],
+  store: [
+    "core",
+    "units",
+    "numeric",
+    "breath",
+    "signal",
+    "thresholds",
+    "predicted",
+    "interpret",
+    "analysis",
+    "report",
+    "synthetic",
+  ],
 };
 
 const UI_PACKAGES = /^(react|react-dom|next)(\/|$)/;
@@ -35,7 +47,11 @@ export default {
     function check(node, spec) {
       if (typeof spec !== "string") return;
       if (UI_PACKAGES.test(spec)) {
-        context.report({ node, messageId: "layer", data: { msg: `lib/${from} must not import ${spec}: lib/ is pure TypeScript with no React or Next` } });
+        context.report({
+          node,
+          messageId: "layer",
+          data: { msg: `lib/${from} must not import ${spec}: lib/ is pure TypeScript with no React or Next` },
+        });
         return;
       }
       let target = null;
@@ -52,9 +68,19 @@ export default {
       if (to === from) return;
       const allowed = ALLOWED[from];
       if (!allowed) {
-        context.report({ node, messageId: "layer", data: { msg: `lib/${from} is not a known layer; add it to eslint-rules/layers.mjs` } });
+        context.report({
+          node,
+          messageId: "layer",
+          data: { msg: `lib/${from} is not a known layer; add it to eslint-rules/layers.mjs` },
+        });
       } else if (!allowed.includes(to)) {
-        context.report({ node, messageId: "layer", data: { msg: `lib/${from} may not import lib/${to} (layers import downwards only: ${from} → ${allowed.join(", ") || "nothing"})` } });
+        context.report({
+          node,
+          messageId: "layer",
+          data: {
+            msg: `lib/${from} may not import lib/${to} (layers import downwards only: ${from} → ${allowed.join(", ") || "nothing"})`,
+          },
+        });
       }
     }
     return {

@@ -1,0 +1,67 @@
+"use server";
+
+import { redirect } from "next/navigation";
+import { buildRecord } from "@/lib/analysis";
+import { getUploadBytes, saveTest, saveUpload } from "@/lib/store/tests";
+import { fieldErrors, testDetailsSchema } from "./schemas";
+
+export interface UploadState {
+  errors?: Record<string, string>;
+  /** The file is kept on the server even when the details need fixing. */
+  uploadId?: number;
+  fileName?: string;
+  values?: Record<string, string>;
+}
+
+const MAX_BYTES = 20 * 1024 * 1024;
+
+export async function uploadTest(_prev: UploadState, form: FormData): Promise<UploadState> {
+  const values: Record<string, string> = {};
+  for (const [k, v] of form.entries()) if (typeof v === "string") values[k] = v;
+
+  // 1. Keep the file first, whatever else is wrong, so nothing the user sent is lost.
+  let uploadId = values.uploadId ? Number(values.uploadId) : undefined;
+  let fileName = values.uploadFileName || undefined;
+  const file = form.get("file");
+  if (file instanceof File && file.size > 0) {
+    if (file.size > MAX_BYTES)
+      return { errors: { file: "The file is larger than 20 MB; export a shorter period or fewer columns." }, values };
+    const bytes = new Uint8Array(await file.arrayBuffer());
+    uploadId = saveUpload(file.name, bytes).id;
+    fileName = file.name;
+  }
+  if (!uploadId) return { errors: { file: "Choose a breath-by-breath or stage file to upload." }, values };
+
+  // 2. Validate the details; on failure the kept file is reused on the next submit.
+  const parsed = testDetailsSchema.safeParse(values);
+  if (!parsed.success) return { errors: fieldErrors(parsed.error), uploadId, fileName, values };
+  const d = parsed.data;
+
+  const stored = getUploadBytes(uploadId);
+  if (!stored) return { errors: { file: "The kept file could not be found; upload it again." }, values };
+  const bytes = new Uint8Array(stored.bytes);
+  const built = await buildRecord({
+    bytes,
+    fileName: stored.fileName,
+    patient: {
+      sex: d.sex === "" ? undefined : d.sex,
+      ageY: d.ageY,
+      heightCm: d.heightCm,
+      weightKg: d.weightKg,
+    },
+    ergometer: d.ergometer,
+    referral: d.referral,
+  });
+  if (built.record && (d.fev1L !== undefined || d.mvvLMin !== undefined)) {
+    built.record.spirometry = { fev1L: d.fev1L, mvvLMin: d.mvvLMin };
+  }
+  const id = saveTest({
+    uploadId,
+    label: d.label || stored.fileName,
+    record: built.record,
+    columns: built.columns,
+    issues: built.issues,
+    actor: "local user",
+  });
+  redirect(`/tests/${id}`);
+}

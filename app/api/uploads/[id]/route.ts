@@ -1,0 +1,18 @@
+import { getUploadBytes } from "@/lib/store/tests";
+
+export const dynamic = "force-dynamic";
+
+/** The original upload, byte for byte. */
+export async function GET(_req: Request, { params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const n = Number(id);
+  if (!Number.isInteger(n)) return new Response("Not found", { status: 404 });
+  const up = getUploadBytes(n);
+  if (!up) return new Response("Not found", { status: 404 });
+  return new Response(new Uint8Array(up.bytes), {
+    headers: {
+      "content-type": "application/octet-stream",
+      "content-disposition": `attachment; filename="${up.fileName.replace(/[^\w.\-]/g, "_")}"`,
+    },
+  });
+}

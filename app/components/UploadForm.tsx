@@ -1,0 +1,108 @@
+"use client";
+
+import { useActionState } from "react";
+import { uploadTest, type UploadState } from "../actions";
+
+const REFERRALS: [string, string][] = [
+  ["general", "General / unexplained breathlessness"],
+  ["heart-failure", "Heart failure assessment"],
+  ["pre-operative", "Pre-operative risk"],
+  ["lung-resection", "Lung resection work-up"],
+  ["pulmonary-hypertension", "Pulmonary hypertension"],
+  ["transplant", "Heart transplant listing"],
+  ["training", "Training prescription"],
+];
+
+export function UploadForm() {
+  const [state, action, pending] = useActionState<UploadState, FormData>(uploadTest, {});
+  const v = state.values ?? {};
+  const err = state.errors ?? {};
+  return (
+    <form action={action} className="stack" data-testid="upload-form">
+      <label>
+        Exercise test file (CSV, TSV, semicolon, XLSX)
+        <input type="file" name="file" data-testid="upload-file" accept=".csv,.tsv,.txt,.xlsx" />
+        {state.uploadId ? (
+          <span className="how" data-testid="upload-kept">
+            Kept on the server: {state.fileName}. Fix the fields below and submit again; you do not need to choose the file again.
+          </span>
+        ) : null}
+        {err.file ? <span className="sev-error">{err.file}</span> : null}
+      </label>
+      {state.uploadId ? <input type="hidden" name="uploadId" value={state.uploadId} /> : null}
+      {state.fileName ? <input type="hidden" name="uploadFileName" value={state.fileName} /> : null}
+      <label>
+        Label (anonymised case name)
+        <input name="label" defaultValue={v.label ?? ""} placeholder="e.g. Case 14, pre-op" />
+      </label>
+      <div className="row">
+        <label>
+          Sex
+          <select name="sex" defaultValue={v.sex ?? ""}>
+            <option value="">not given</option>
+            <option value="male">male</option>
+            <option value="female">female</option>
+          </select>
+        </label>
+        <label>
+          Age (years)
+          <input name="ageY" type="number" step="any" defaultValue={v.ageY ?? ""} size={5} />
+        </label>
+        <label>
+          Height (cm)
+          <input name="heightCm" type="number" step="any" defaultValue={v.heightCm ?? ""} size={5} />
+        </label>
+        <label>
+          Weight (kg)
+          <input name="weightKg" type="number" step="any" defaultValue={v.weightKg ?? ""} size={5} />
+        </label>
+      </div>
+      {["ageY", "heightCm", "weightKg", "sex"].map((k) =>
+        err[k] ? (
+          <span key={k} className="sev-error">
+            {err[k]}
+          </span>
+        ) : null,
+      )}
+      <div className="row">
+        <label>
+          Ergometer
+          <select name="ergometer" defaultValue={v.ergometer ?? "cycle"}>
+            <option value="cycle">cycle</option>
+            <option value="treadmill">treadmill</option>
+          </select>
+        </label>
+        <label>
+          Referral question
+          <select name="referral" defaultValue={v.referral ?? "general"}>
+            {REFERRALS.map(([value, text]) => (
+              <option key={value} value={value}>
+                {text}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label>
+          FEV1 (L)
+          <input name="fev1L" type="number" step="any" defaultValue={v.fev1L ?? ""} size={5} />
+        </label>
+        <label>
+          Measured MVV (L/min)
+          <input name="mvvLMin" type="number" step="any" defaultValue={v.mvvLMin ?? ""} size={5} />
+        </label>
+      </div>
+      {["fev1L", "mvvLMin"].map((k) =>
+        err[k] ? (
+          <span key={k} className="sev-error">
+            {err[k]}
+          </span>
+        ) : null,
+      )}
+      <div>
+        <button type="submit" disabled={pending} data-testid="upload-submit">
+          {pending ? "Reading the file…" : "Import and analyse"}
+        </button>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,50 @@
+import Link from "next/link";
+import { ensureDemoData } from "@/lib/store/seedDemo";
+import { listTests } from "@/lib/store/tests";
+import { UploadForm } from "./components/UploadForm";
+
+export const dynamic = "force-dynamic";
+
+export default async function RegisterPage() {
+  await ensureDemoData();
+  const tests = listTests();
+  return (
+    <>
+      <h1>Test register</h1>
+      <section className="panel">
+        <h2 style={{ marginTop: 0 }}>Import a test</h2>
+        <p className="how">
+          Breath-by-breath or stage data. Files whose header names carry their unit (
+          <code>time_s, vo2_ml_min, vco2_ml_min, ve_l_min, hr_bpm, work_w, …</code>) import without any mapping; other layouts are
+          recognised column by column and every decision is shown. The original file is always kept exactly as uploaded.
+        </p>
+        <UploadForm />
+      </section>
+      <section>
+        <h2>Tests</h2>
+        <table data-testid="test-list">
+          <thead>
+            <tr>
+              <th>Label</th>
+              <th>File</th>
+              <th>State</th>
+              <th>Imported</th>
+            </tr>
+          </thead>
+          <tbody>
+            {tests.map((t) => (
+              <tr key={t.id}>
+                <td>
+                  <Link href={`/tests/${t.id}`}>{t.label}</Link> {t.demo ? <span className="tag">invented demo</span> : null}
+                </td>
+                <td>{t.fileName}</td>
+                <td>{t.status === "imported" ? "imported" : "refused — see why"}</td>
+                <td>{t.createdAt.slice(0, 16).replace("T", " ")}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </section>
+    </>
+  );
+}

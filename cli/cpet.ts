@@ -1,0 +1,38 @@
+import { Command, CommanderError } from "commander";
+import { registerAnalyse } from "./analyse";
+
+/**
+ * The `cpet` command line. stdout carries only the requested output (JSON or a table);
+ * problems go to stderr as plain messages, never stack traces, with a non-zero exit.
+ */
+export function buildProgram(): Command {
+  const program = new Command();
+  program
+    .name("cpet")
+    .description(
+      "cpet-desk: analyse cardiopulmonary exercise tests (decision support; results must be reviewed by a qualified clinician)",
+    )
+    .showHelpAfterError()
+    .exitOverride();
+  registerAnalyse(program);
+  return program;
+}
+
+async function main(argv: string[]): Promise<number> {
+  const program = buildProgram();
+  try {
+    await program.parseAsync(argv);
+    return 0;
+  } catch (err) {
+    if (err instanceof CommanderError) return err.exitCode === 0 ? 0 : 2;
+    const message = err instanceof Error ? err.message : String(err);
+    process.stderr.write(`cpet: ${message}\n`);
+    return 1;
+  }
+}
+
+if (process.env.CPET_CLI_NO_MAIN !== "1") {
+  main(process.argv).then((code) => {
+    process.exitCode = code;
+  });
+}

@@ -1,0 +1,47 @@
+import { expect, test } from "@playwright/test";
+import { plainRampCsv } from "./fixtures/plain-ramp.csv";
+import { RegisterPage } from "./pages/RegisterPage";
+
+test("upload a plain-convention CSV and see duration and peak VO2 with the caution", async ({ page }) => {
+  const register = new RegisterPage(page);
+  await register.open();
+  await expect(page.getByTestId("clinical-caution")).toBeVisible();
+  await register.upload(
+    { name: "plain-ramp.csv", content: plainRampCsv() },
+    { label: "E2E plain ramp", weightKg: "80", sex: "male", ageY: "50", heightCm: "175" },
+  );
+  await page.waitForURL(/\/tests\/\d+/);
+  // Known by construction: highest 30-s average = 2500 mL/min; 2500 / 80 kg = 31.25 mL/kg/min.
+  await expect(page.getByTestId("peak-vo2")).toContainText("2500");
+  await expect(page.getByTestId("peak-vo2-kg")).toContainText("31.3");
+  await expect(page.getByTestId("peak-method")).toContainText("highest 30-s rolling average");
+  await expect(page.getByTestId("duration")).toContainText("11:00");
+  await expect(page.getByTestId("clinical-caution")).toContainText("qualified clinician");
+  await page.screenshot({ path: "reports/screenshots/upload-result.png", fullPage: true });
+});
+
+test("a file that cannot be used is refused with what to fix, and the original is kept", async ({ page }) => {
+  const register = new RegisterPage(page);
+  await register.open();
+  await register.upload({ name: "not-a-test.csv", content: "hello,world\n1,2\n" }, { label: "E2E broken" });
+  await page.waitForURL(/\/tests\/\d+/);
+  await expect(page.getByTestId("refused")).toBeVisible();
+  await expect(page.getByTestId("refused")).toContainText(/time/i);
+  const download = page.getByRole("link", { name: /original file/ });
+  await expect(download).toBeVisible();
+  const href = await download.getAttribute("href");
+  const res = await page.request.get(href!);
+  expect(await res.text()).toBe("hello,world\n1,2\n");
+});
+
+test("invalid details keep the uploaded file and explain the problem", async ({ page }) => {
+  const register = new RegisterPage(page);
+  await register.open();
+  await register.upload({ name: "plain-ramp.csv", content: plainRampCsv() }, { label: "E2E bad age", ageY: "400" });
+  await expect(page.getByTestId("upload-kept")).toContainText("plain-ramp.csv");
+  await expect(page.getByText("Age (years) must be at most 110")).toBeVisible();
+  await page.locator('[name="ageY"]').fill("50");
+  await page.getByTestId("upload-submit").click();
+  await page.waitForURL(/\/tests\/\d+/);
+  await expect(page.getByTestId("peak-vo2")).toContainText("2500");
+});

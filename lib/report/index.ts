@@ -1,0 +1,2 @@
+export * from "./cliJson";
+export * from "./caution";

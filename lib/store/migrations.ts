@@ -1,0 +1,62 @@
+/** Numbered migrations, named by intent. Never edit an applied one: add a new one. */
+export const MIGRATIONS: { id: number; name: string; sql: string }[] = [
+  {
+    id: 1,
+    name: "create_uploads_tests_analyses_reports",
+    sql: `
+      create table uploads (
+        id integer primary key,
+        file_name text not null,
+        sha256 text not null,
+        size_bytes integer not null,
+        bytes blob not null,
+        created_at text not null
+      );
+      create table tests (
+        id integer primary key,
+        upload_id integer references uploads(id),
+        label text not null,
+        status text not null check (status in ('imported', 'refused')),
+        record_json text,
+        import_json text not null,
+        demo integer not null default 0,
+        created_at text not null
+      );
+      create table analyses (
+        id integer primary key,
+        test_id integer not null references tests(id),
+        version integer not null,
+        settings_json text not null,
+        engine_version text not null,
+        note text,
+        created_by text,
+        created_at text not null,
+        unique (test_id, version)
+      );
+      create table reports (
+        id integer primary key,
+        test_id integer not null references tests(id),
+        analysis_id integer not null references analyses(id),
+        status text not null check (status in ('draft', 'signed')),
+        draft_json text not null,
+        signed_by text,
+        signed_at text,
+        created_at text not null
+      );
+      create table mapping_profiles (
+        id integer primary key,
+        name text not null unique,
+        mapping_json text not null,
+        created_at text not null
+      );
+      create table audit (
+        id integer primary key,
+        at text not null,
+        actor text,
+        action text not null,
+        test_id integer,
+        detail text
+      );
+    `,
+  },
+];

@@ -1,0 +1,200 @@
+import "server-only";
+import crypto from "node:crypto";
+import type { TestRecord } from "../analysis";
+import type { AnalysisSettings } from "../analysis";
+import type { ColumnDecision } from "../breath";
+import type { Issue } from "../core";
+import { getDb } from "./db";
+
+export interface StoredTestSummary {
+  id: number;
+  label: string;
+  status: "imported" | "refused";
+  demo: boolean;
+  createdAt: string;
+  fileName: string | null;
+}
+
+export interface StoredTest extends StoredTestSummary {
+  record: TestRecord | null;
+  importColumns: ColumnDecision[];
+  importIssues: Issue[];
+  uploadId: number | null;
+}
+
+const now = () => new Date().toISOString();
+
+/** Keep the original bytes exactly as uploaded; returns the upload id. */
+export function saveUpload(fileName: string, bytes: Uint8Array): { id: number; sha256: string } {
+  const sha256 = crypto.createHash("sha256").update(bytes).digest("hex");
+  const info = getDb()
+    .prepare("insert into uploads (file_name, sha256, size_bytes, bytes, created_at) values (?, ?, ?, ?, ?)")
+    .run(fileName, sha256, bytes.byteLength, Buffer.from(bytes), now());
+  return { id: Number(info.lastInsertRowid), sha256 };
+}
+
+export function getUploadBytes(uploadId: number): { fileName: string; bytes: Buffer } | null {
+  const row = getDb().prepare("select file_name, bytes from uploads where id = ?").get(uploadId) as
+    { file_name: string; bytes: Buffer } | undefined;
+  return row ? { fileName: row.file_name, bytes: row.bytes } : null;
+}
+
+export function saveTest(input: {
+  uploadId: number | null;
+  label: string;
+  record: TestRecord | null;
+  columns: ColumnDecision[];
+  issues: Issue[];
+  demo?: boolean;
+  actor?: string;
+}): number {
+  const db = getDb();
+  const info = db
+    .prepare(
+      "insert into tests (upload_id, label, status, record_json, import_json, demo, created_at) values (?, ?, ?, ?, ?, ?, ?)",
+    )
+    .run(
+      input.uploadId,
+      input.label,
+      input.record ? "imported" : "refused",
+      input.record ? JSON.stringify(input.record) : null,
+      JSON.stringify({ columns: input.columns, issues: input.issues }),
+      input.demo ? 1 : 0,
+      now(),
+    );
+  const id = Number(info.lastInsertRowid);
+  audit(input.actor ?? "system", input.record ? "test-imported" : "test-refused", id, input.label);
+  return id;
+}
+
+export function updateTestRecord(id: number, record: TestRecord, actor: string): void {
+  getDb().prepare("update tests set record_json = ? where id = ?").run(JSON.stringify(record), id);
+  audit(actor, "test-details-updated", id, null);
+}
+
+interface TestRow {
+  id: number;
+  label: string;
+  status: "imported" | "refused";
+  demo: number;
+  created_at: string;
+  file_name: string | null;
+  upload_id: number | null;
+  record_json: string | null;
+  import_json: string;
+}
+
+export function listTests(): StoredTestSummary[] {
+  const rows = getDb()
+    .prepare(
+      "select t.id, t.label, t.status, t.demo, t.created_at, u.file_name from tests t left join uploads u on u.id = t.upload_id order by t.demo asc, t.id desc",
+    )
+    .all() as TestRow[];
+  return rows.map((r) => ({
+    id: r.id,
+    label: r.label,
+    status: r.status,
+    demo: r.demo === 1,
+    createdAt: r.created_at,
+    fileName: r.file_name,
+  }));
+}
+
+export function getTest(id: number): StoredTest | null {
+  const r = getDb()
+    .prepare(
+      "select t.id, t.label, t.status, t.demo, t.created_at, t.upload_id, t.record_json, t.import_json, u.file_name from tests t left join uploads u on u.id = t.upload_id where t.id = ?",
+    )
+    .get(id) as TestRow | undefined;
+  if (!r) return null;
+  const imp = JSON.parse(r.import_json) as { columns: ColumnDecision[]; issues: Issue[] };
+  return {
+    id: r.id,
+    label: r.label,
+    status: r.status,
+    demo: r.demo === 1,
+    createdAt: r.created_at,
+    fileName: r.file_name,
+    uploadId: r.upload_id,
+    record: r.record_json ? (JSON.parse(r.record_json) as TestRecord) : null,
+    importColumns: imp.columns,
+    importIssues: imp.issues,
+  };
+}
+
+export function countTests(): number {
+  return (getDb().prepare("select count(*) as n from tests").get() as { n: number }).n;
+}
+
+/** Settings versions: an override or a changed choice is a new version; old ones are kept. */
+export function saveAnalysisVersion(
+  testId: number,
+  settings: AnalysisSettings,
+  engineVersion: string,
+  actor: string,
+  note?: string,
+): number {
+  const db = getDb();
+  const last = db.prepare("select max(version) as v from analyses where test_id = ?").get(testId) as { v: number | null };
+  const version = (last.v ?? 0) + 1;
+  db.prepare(
+    "insert into analyses (test_id, version, settings_json, engine_version, note, created_by, created_at) values (?, ?, ?, ?, ?, ?, ?)",
+  ).run(testId, version, JSON.stringify(settings), engineVersion, note ?? null, actor, now());
+  audit(actor, "analysis-version", testId, `v${version}${note ? `: ${note}` : ""}`);
+  return version;
+}
+
+export interface AnalysisVersion {
+  id: number;
+  version: number;
+  settings: AnalysisSettings;
+  engineVersion: string;
+  note: string | null;
+  createdBy: string | null;
+  createdAt: string;
+}
+
+export function listAnalysisVersions(testId: number): AnalysisVersion[] {
+  const rows = getDb()
+    .prepare(
+      "select id, version, settings_json, engine_version, note, created_by, created_at from analyses where test_id = ? order by version desc",
+    )
+    .all(testId) as {
+    id: number;
+    version: number;
+    settings_json: string;
+    engine_version: string;
+    note: string | null;
+    created_by: string | null;
+    created_at: string;
+  }[];
+  return rows.map((r) => ({
+    id: r.id,
+    version: r.version,
+    settings: JSON.parse(r.settings_json) as AnalysisSettings,
+    engineVersion: r.engine_version,
+    note: r.note,
+    createdBy: r.created_by,
+    createdAt: r.created_at,
+  }));
+}
+
+export function latestSettings(testId: number): { version: number; settings: AnalysisSettings; id: number } | null {
+  const v = listAnalysisVersions(testId)[0];
+  return v ? { version: v.version, settings: v.settings, id: v.id } : null;
+}
+
+export function audit(actor: string | null, action: string, testId: number | null, detail: string | null): void {
+  getDb()
+    .prepare("insert into audit (at, actor, action, test_id, detail) values (?, ?, ?, ?, ?)")
+    .run(now(), actor, action, testId, detail);
+}
+
+export function listAudit(testId: number): { at: string; actor: string | null; action: string; detail: string | null }[] {
+  return getDb().prepare("select at, actor, action, detail from audit where test_id = ? order by id desc").all(testId) as {
+    at: string;
+    actor: string | null;
+    action: string;
+    detail: string | null;
+  }[];
+}
