@@ -1,0 +1,25 @@
+/**
+ * Sample quantile by linear interpolation between order statistics (the common "type 7" definition,
+ * Hyndman & Fan 1996, Am Stat 50:361 — recalled citation; standard statistics).
+ * Non-finite values are skipped. Degenerate cases: no finite value → NaN.
+ *
+ * @param values any order; not modified
+ * @param p probability in [0, 1]
+ * @example quantile([1, 2, 3, 4], 0.5) // 2.5
+ */
+export function quantile(values: ArrayLike<number>, p: number): number {
+  if (!(p >= 0 && p <= 1)) throw new Error("quantile requires p in [0, 1]");
+  const sorted: number[] = [];
+  for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i])) sorted.push(values[i]);
+  if (sorted.length === 0) return NaN;
+  sorted.sort((a, b) => a - b);
+  const h = (sorted.length - 1) * p;
+  const lo = Math.floor(h);
+  const hi = Math.min(sorted.length - 1, lo + 1);
+  return sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo]);
+}
+
+/** Median (quantile 0.5) of the finite values; NaN when there are none. */
+export function median(values: ArrayLike<number>): number {
+  return quantile(values, 0.5);
+}

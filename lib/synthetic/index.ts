@@ -1,0 +1,6 @@
+export * from "./syntheticTypes";
+export * from "./sources";
+export * from "./generateSyntheticTest";
+export * from "./syntheticPresets";
+export * from "./syntheticBank";
+export * from "./breathTableToCsv";
