@@ -23,6 +23,11 @@ export interface BreathRow {
   phase?: Phase;
   stage?: number;
   lactateMmolL?: number;
+  /**
+   * Oxygen uptake per kg of body mass (mL/kg/min), kept when the file gives VO2 only per kg and no
+   * body mass was available to convert it to mL/min.
+   */
+  vo2MlKgMin?: number;
   /** 1-based line number in the uploaded file, for issues that point back at it. */
   sourceRow?: number;
 }
@@ -77,6 +82,8 @@ export interface BreathTable {
   rows: BreathRow[];
   /** Which canonical fields carry data in at least one row. */
   fields: (NumericField | "phase")[];
+  /** True when rows carry `vo2MlKgMin` (VO2 given per kg of body mass). */
+  vo2PerKg?: boolean;
 }
 
 /** One blood lactate sample, by time and/or stage. */
@@ -97,4 +104,35 @@ export interface BloodGasSample {
   paCO2MmHg?: number;
   /** Label as the lab wrote it, e.g. "rest", "peak". */
   label?: string;
+}
+
+/** A labelled moment in the record (event row or sparse marker cell), e.g. "start of exercise". */
+export interface MarkerEvent {
+  timeS: number;
+  label: string;
+  /** Phase the label names, when it names one. */
+  phase?: Phase;
+  /** 1-based line in the file. */
+  row?: number;
+}
+
+/** How the file was laid out, as detected on import (shown to the user, stored with the record). */
+export interface FileFormat {
+  /** csv (comma), semicolon, tsv (tab), pipe, whitespace (aligned columns) or xlsx. */
+  kind: "csv" | "semicolon" | "tsv" | "pipe" | "whitespace" | "xlsx";
+  /** Text encoding detected (xlsx: "xlsx"). */
+  encoding: "utf-8" | "utf-16le" | "utf-16be" | "windows-1252" | "xlsx";
+  decimalMark: "." | ",";
+  /** 1-based line (or sheet row) of the header. */
+  headerRow: number;
+  /** 1-based line of a units row directly under the header, or null. */
+  unitsRow: number | null;
+  /** Number of non-empty lines above the header (patient details, dates, "Key: value" lines). */
+  metadataLines: number;
+  /** "Key: value" pairs found above the header (keys as written). */
+  metadata: Record<string, string>;
+  /** How the time column was written. */
+  timeFormat: "seconds" | "minutes" | "milliseconds" | "m:ss" | "h:mm:ss" | "clock-of-day" | "stage-order" | "none";
+  /** Worksheet used (xlsx only). */
+  sheet?: string;
 }

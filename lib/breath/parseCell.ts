@@ -1,0 +1,62 @@
+import type { Cell } from "./parseDelimited";
+
+/** Cell texts that mean "no value" (common practice in exported tables). */
+const EMPTY_MARKERS = new Set(["-", "--", "---", ".", "na", "n/a", "nan", "null", "none", "—", "–", "*"]);
+
+const NUMBER_DOT = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
+const NUMBER_COMMA = /^[-+]?(\d+,?\d*|,\d+)([eE][-+]?\d+)?$/;
+const THOUSANDS_DOT = /^[-+]?\d{1,3}(,\d{3})+(\.\d+)?$/;
+const CLOCK = /^[-+]?\d{1,3}:\d{1,2}(:\d{1,2})?([.,]\d+)?$/;
+
+/** True when a cell holds nothing usable (empty or an empty marker such as "-" or "n/a"). */
+export function isBlankCell(cell: Cell): boolean {
+  return cell === null || (typeof cell === "string" && EMPTY_MARKERS.has(cell.trim().toLowerCase()));
+}
+
+/** True when a text cell looks like a number in either decimal convention, or a clock time. */
+export function looksNumeric(cell: Cell): boolean {
+  if (typeof cell === "number") return true;
+  if (cell === null) return false;
+  const s = cell.trim();
+  return NUMBER_DOT.test(s) || NUMBER_COMMA.test(s) || CLOCK.test(s);
+}
+
+/**
+ * Parse a numeric cell with the file's decimal mark. Returns NaN when the cell is not a number
+ * (blank cells give NaN too; tell them apart with `isBlankCell`).
+ */
+export function parseNumberCell(cell: Cell, decimalMark: "." | ","): number {
+  if (typeof cell === "number") return cell;
+  if (cell === null) return NaN;
+  let s = cell.trim();
+  if (decimalMark === ",") {
+    if (!NUMBER_COMMA.test(s)) return NaN;
+    s = s.replace(",", ".");
+  } else if (!NUMBER_DOT.test(s)) {
+    if (THOUSANDS_DOT.test(s)) s = s.replace(/,/g, "");
+    else return NaN;
+  }
+  const v = Number(s);
+  return Number.isFinite(v) ? v : NaN;
+}
+
+/**
+ * Parse a clock-style time: "m:ss", "mm:ss.s" (minutes may exceed 59) or "h:mm:ss(.s)".
+ * Returns seconds, or NaN when the text is not a clock time.
+ */
+export function parseClock(cell: Cell): number {
+  if (typeof cell !== "string") return NaN;
+  const s = cell.trim();
+  if (!CLOCK.test(s)) return NaN;
+  const negative = s.startsWith("-");
+  const parts = s.replace(/^[-+]/, "").replace(",", ".").split(":");
+  let seconds: number;
+  if (parts.length === 2) seconds = Number(parts[0]) * 60 + Number(parts[1]);
+  else seconds = Number(parts[0]) * 3600 + Number(parts[1]) * 60 + Number(parts[2]);
+  return negative ? -seconds : seconds;
+}
+
+/** True when a text cell is a clock time ("m:ss", "h:mm:ss"). */
+export function isClockCell(cell: Cell): boolean {
+  return typeof cell === "string" && CLOCK.test(cell.trim());
+}
