@@ -1,0 +1,89 @@
+import type { Issue, Source } from "../core";
+import type { ChartSpec } from "./charts/chartSpec";
+
+/**
+ * One row of a values table, already formatted for display (numbers are rounded only when they
+ * become a ReportRow). Empty optional fields are left out, not shown as "—".
+ */
+export interface ReportRow {
+  label: string;
+  /** Formatted value, or "not determinable". */
+  value: string;
+  unit: string;
+  /** Predicted value, formatted, same unit. */
+  predicted?: string;
+  /** Percent of predicted, formatted without the "%" sign. */
+  pctPredicted?: string;
+  /** Lower limit of normal, formatted, same unit. */
+  lln?: string;
+  /** Plain-words method label (from the value's provenance). */
+  method: string;
+  /** Ids of the sources the value rests on (resolved in `ReportModel.sources`). */
+  sourceIds: string[];
+  /** Why it is missing, or a reviewer's remark. */
+  note?: string;
+}
+
+/** An editable block of draft text; paragraphs are plain text (no markup). */
+export interface ReportSection {
+  /** Stable id, kebab-case, e.g. `summary`. */
+  id: string;
+  title: string;
+  paragraphs: string[];
+}
+
+/** One step of the interpretation path: which variable was compared with which cut-off, and the outcome. */
+export interface ReportPathStep {
+  step: number;
+  variable: string;
+  value: string;
+  cutoff: string;
+  outcome: string;
+  sourceIds: string[];
+}
+
+/** One published classification scheme applied (e.g. Weber class), its result and inputs. */
+export interface ReportScheme {
+  name: string;
+  category: string;
+  /** Ordinal severity within the scheme, 0 = least severe. */
+  severity: number;
+  /** Inputs used, formatted, e.g. "peak VO2 14.2 mL/kg/min". */
+  inputs: string[];
+  sourceIds: string[];
+}
+
+/**
+ * The report as pure display data: everything the page and the PDF show, already formatted. Built
+ * from an analysis result by `buildReportModel`; rendered by the report page and `renderReportPdf`.
+ */
+export interface ReportModel {
+  title: string;
+  /** Anonymised patient line, e.g. "male, 45 y, 178 cm, 78 kg". */
+  patientLine: string;
+  /** Test line, e.g. "cycle ergometer, ramp 25 W/min, 13:00 min:s". */
+  testLine: string;
+  /** Referral question in plain words. */
+  referral: string;
+  engineVersion: string;
+  status: "draft" | "signed";
+  signedBy?: string;
+  /** ISO 8601 time of signature. */
+  signedAt?: string;
+  /** Decision-support caution, shown on every page. */
+  caution: string;
+  /** Draft caution, shown while status is "draft". */
+  draftMark: string;
+  keyValues: ReportRow[];
+  thresholds: ReportRow[];
+  charts: ChartSpec[];
+  /** Editable draft text. */
+  sections: ReportSection[];
+  path: ReportPathStep[];
+  schemes: ReportScheme[];
+  issues: Issue[];
+  /** Only the sources cited by rows, path steps and schemes, in citation order. */
+  sources: Source[];
+  /** Methods used, one plain sentence each. */
+  methods: string[];
+}
