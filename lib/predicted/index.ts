@@ -1,6 +1,7 @@
 export * from "./quantities";
 export * from "./equationSchema";
 export * from "./checkEquationFile";
+export * from "./equationFiles";
 export * from "./equations";
 export * from "./bodySize";
 export * from "./convertPredictedUnit";
