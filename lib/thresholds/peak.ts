@@ -26,5 +26,9 @@ export function peakOverWindow(rows: readonly BreathRow[], field: NumericField, 
   if (windows.length === 0) return notDetermined(options.unit, provenance, `no ${windowS}-s window of ${field} data`);
   let best = windows[0];
   for (const w of windows) if (w.mean > best.mean) best = w;
-  return measured(best.mean, options.unit, { ...provenance, window: { startS: best.startS, endS: best.endS }, inputs: { breaths: best.count } });
+  return measured(best.mean, options.unit, {
+    ...provenance,
+    window: { startS: best.startS, endS: best.endS },
+    inputs: { breaths: best.count },
+  });
 }

@@ -1,0 +1,142 @@
+import { makeIssue, measured, notDetermined, type Issue, type Measured } from "../core";
+import { PrefixSums } from "../numeric/linearRegression";
+import type { ConditionedTest } from "../signal";
+import { exerciseSpan, pairedSeries, provenanceOf } from "./indexSeries";
+import type { ThresholdPoint } from "./valuesAtThreshold";
+import { lineIndexFromFit, type LineIndex } from "./veVco2Slope";
+
+export interface DVo2dWrOptions {
+  /** Start of the ramp excluded for the VO2 response lag, seconds (method detail recalled). Stage tables: 0. @default 60 */
+  lagS?: number;
+  vt1?: ThresholdPoint | null;
+  vt2?: ThresholdPoint | null;
+  /** End the fit at VT2 instead of end of exercise. @default false */
+  stopAtVt2?: boolean;
+  /** Flattening flag when the upper-segment slope is below this fraction of the lower one (implementation choice). @default 0.8 */
+  flatteningRatio?: number;
+}
+
+export interface DVo2dWrResult {
+  /** OLS of VO2 (mL/min) on work rate (W) over the ramp after the lag window. */
+  whole: LineIndex;
+  /** Lower and upper segments, split at VT1 when given, else at two-thirds of the fitted span. */
+  lower: LineIndex;
+  upper: LineIndex;
+  splitS: number | null;
+  splitBy: "vt1" | "two-thirds" | null;
+  /** Upper slope / lower slope. */
+  upperToLowerRatio: Measured;
+  /** true when the ratio is below `flatteningRatio`; null when not determinable. */
+  flattening: boolean | null;
+  /** Reference: 10.29 ± 1.01 mL/min/W in 54 normal men (Am J Cardiol 1987;59:669, confirmed). */
+  reference: { meanMlMinW: number; sdMlMinW: number; sourceId: string };
+  issues: Issue[];
+}
+
+/**
+ * ΔVO2/ΔWR: OLS slope of VO2 (mL/min) on work rate (W) during the incremental ramp, excluding its first
+ * `lagS` s for the VO2 response lag (recalled method detail; clinical-reference §5.5), with a linearity check
+ * (slope above vs below VT1, or last third vs earlier). Reference 10.29 ± 1.01 mL/min/W (Am J Cardiol
+ * 1987;59:669, confirmed). One prefix-sum pass: the three fits cost O(1) after O(n).
+ *
+ * Degenerate cases: no work-rate signal (treadmill) or no spread in work rate → not determinable.
+ */
+export function dVo2dWr(test: ConditionedTest, options: DVo2dWrOptions = {}): DVo2dWrResult {
+  const issues: Issue[] = [];
+  const stage = test.shape === "stage";
+  const lagS = stage ? 0 : (options.lagS ?? 60);
+  const flatteningRatio = options.flatteningRatio ?? 0.8;
+  const span = exerciseSpan(test);
+  const endS = span ? (options.stopAtVt2 && options.vt2 ? Math.min(span.endS, options.vt2.timeS) : span.endS) : 0;
+  const fitSpan = span ? { startS: span.startS + lagS, endS } : null;
+  const pairs = pairedSeries(test.clean, "workW", "vo2MlMin", fitSpan);
+  const sums = new PrefixSums(pairs.x, pairs.y);
+  const units = { slope: "mL/min/W", intercept: "mL/min" };
+  const minPoints = stage ? 3 : 10;
+  const sourceIds = ["hansen-1987-vo2-wr", "vo2-lag-exclusion"];
+  const averaging = stage ? "stage values" : "breath by breath (artefact-cleaned)";
+  const whole = lineIndexFromFit(
+    sums,
+    0,
+    pairs.x.length,
+    units,
+    provenanceOf(
+      "dvo2-dwr",
+      `ΔVO2/ΔWR: OLS of VO2 on work rate${lagS ? `, first ${lagS} s of the ramp excluded` : ""}`,
+      sourceIds,
+      {
+        window: fitSpan ?? undefined,
+        averaging,
+        inputs: { lagS },
+      },
+    ),
+    minPoints,
+  );
+  let splitS: number | null = null;
+  let splitBy: DVo2dWrResult["splitBy"] = null;
+  if (fitSpan && pairs.t.length > 0) {
+    if (options.vt1 && options.vt1.timeS > fitSpan.startS && options.vt1.timeS < fitSpan.endS) {
+      splitS = options.vt1.timeS;
+      splitBy = "vt1";
+    } else {
+      splitS = fitSpan.startS + (2 / 3) * (fitSpan.endS - fitSpan.startS);
+      splitBy = "two-thirds";
+    }
+  }
+  let k = 0;
+  if (splitS !== null) while (k < pairs.t.length && pairs.t[k] <= splitS) k++;
+  const segLabel = splitBy === "vt1" ? "VT1" : "two-thirds of the fitted span";
+  const lower = lineIndexFromFit(
+    sums,
+    0,
+    k,
+    units,
+    provenanceOf("dvo2-dwr-lower", `ΔVO2/ΔWR below ${segLabel}`, [...sourceIds, "implementation-choice"], {
+      window: fitSpan && splitS !== null ? { startS: fitSpan.startS, endS: splitS } : undefined,
+      averaging,
+    }),
+    minPoints,
+  );
+  const upper = lineIndexFromFit(
+    sums,
+    k,
+    pairs.x.length,
+    units,
+    provenanceOf("dvo2-dwr-upper", `ΔVO2/ΔWR above ${segLabel}`, [...sourceIds, "implementation-choice"], {
+      window: fitSpan && splitS !== null ? { startS: splitS, endS: fitSpan.endS } : undefined,
+      averaging,
+    }),
+    minPoints,
+  );
+  const ratioProv = provenanceOf(
+    "dvo2-dwr-linearity",
+    `upper/lower ΔVO2/ΔWR; flattening when below ${flatteningRatio}`,
+    ["implementation-choice"],
+    {
+      inputs: { flatteningRatio, lower: lower.slope.value, upper: upper.slope.value },
+    },
+  );
+  const ratio =
+    lower.slope.value !== null && upper.slope.value !== null && lower.slope.value > 0
+      ? measured(upper.slope.value / lower.slope.value, "1", ratioProv)
+      : notDetermined("1", ratioProv, "a segment slope is not determinable (or the lower slope is not positive)");
+  if (pairs.x.length === 0)
+    issues.push(
+      makeIssue(
+        "info",
+        "no-work-rate",
+        "No work-rate signal with VO2 in the ramp: ΔVO2/ΔWR not determinable (treadmill or missing column).",
+      ),
+    );
+  return {
+    whole,
+    lower,
+    upper,
+    splitS,
+    splitBy,
+    upperToLowerRatio: ratio,
+    flattening: ratio.value === null ? null : ratio.value < flatteningRatio,
+    reference: { meanMlMinW: 10.29, sdMlMinW: 1.01, sourceId: "hansen-1987-vo2-wr" },
+    issues,
+  };
+}

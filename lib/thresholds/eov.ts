@@ -1,0 +1,251 @@
+import { makeIssue, measured, notDetermined, type Issue, type Measured } from "../core";
+import { interpolateLinear } from "../numeric/interpolate";
+import type { ConditionedTest } from "../signal";
+import { fieldSeries, provenanceOf, restSpan, WindowMeans } from "./indexSeries";
+
+export interface EovOptions {
+  /** Resampling step, seconds. @default 1 */
+  stepS?: number;
+  /** Centred moving-average width applied before finding turning points, seconds (implementation choice). @default 15 */
+  smoothS?: number;
+  /** A turning point is confirmed once VE moves back by at least this much, L/min (implementation choice). @default 1 */
+  hysteresisLMin?: number;
+  /** Cycles shorter than this are treated as noise, seconds (implementation choice). @default 30 */
+  minCycleS?: number;
+  /** Fraction of exercise the Corrà/AHA pattern must persist for. @default 0.6 (AHA 2010; Corrà used ≥ 0.66) */
+  persistenceFraction?: number;
+}
+
+export interface EovCycle {
+  /** First nadir, s. */
+  startS: number;
+  /** Second nadir, s. */
+  endS: number;
+  peakS: number;
+  lengthS: number;
+  /** Peak minus the mean of the two adjacent nadirs, L/min. */
+  amplitudeLMin: number;
+}
+
+export interface EovDefinitionResult {
+  id: "leite-2003" | "corra-aha";
+  label: string;
+  sourceIds: string[];
+  /** null when not assessable (e.g. no resting VE for the Corrà/AHA rule). */
+  detected: boolean | null;
+  /** Cycles that satisfied the definition (the qualifying triple or run). */
+  cycles: EovCycle[];
+  detail: Measured;
+}
+
+export interface EovResult {
+  cycles: EovCycle[];
+  restingVeLMin: Measured;
+  definitions: EovDefinitionResult[];
+  issues: Issue[];
+}
+
+/** Sample standard deviation (n − 1). */
+function sampleSd(xs: number[]): number {
+  const m = xs.reduce((a, b) => a + b, 0) / xs.length;
+  return Math.sqrt(xs.reduce((a, b) => a + (b - m) ** 2, 0) / (xs.length - 1));
+}
+
+/**
+ * Exercise oscillatory ventilation. VE in exercise is resampled every `stepS` s, smoothed by a centred
+ * moving average (prefix sums), and turning points found in one pass with hysteresis. Cycle length = time
+ * between nadirs; amplitude = peak minus the mean of the adjacent nadirs (definitions as tabulated in
+ * Cardiology Research 2025, secondary). Two published rules:
+ * - Leite 2003 (secondary): ≥ 3 consecutive cycles whose lengths have SD within 20% of their mean, with mean
+ *   amplitude > 5 L/min;
+ * - Corrà / AHA 2010 (secondary): cycles with amplitude ≥ 15% of the mean resting VE persisting for ≥ 60%
+ *   of exercise (longest run of consecutive qualifying cycles, first to last nadir).
+ * Smoothing and hysteresis attenuate amplitudes a little (a 15-s average keeps 90% of a 60-s sine).
+ */
+export function eov(test: ConditionedTest, options: EovOptions = {}): EovResult {
+  const stepS = options.stepS ?? 1;
+  const smoothS = options.smoothS ?? 15;
+  const h = options.hysteresisLMin ?? 1;
+  const minCycleS = options.minCycleS ?? 30;
+  const persistence = options.persistenceFraction ?? 0.6;
+  const issues: Issue[] = [];
+  const ex = test.exercise;
+
+  const rest = restSpan(test);
+  const restProv = provenanceOf("rest-mean", "resting VE: mean over the rest phase", ["aha-2010-eov", "implementation-choice"], {
+    window: rest ?? undefined,
+  });
+  const restVe = rest ? new WindowMeans(fieldSeries(test.clean, "veLMin", rest)).mean(rest.startS, rest.endS).mean : NaN;
+  const restingVeLMin = Number.isFinite(restVe)
+    ? measured(restVe, "L/min", restProv)
+    : notDetermined("L/min", restProv, rest ? "no VE at rest" : "no rest phase marked");
+
+  const cycles: EovCycle[] = [];
+  const s = ex ? fieldSeries(test.clean, "veLMin", ex) : { t: [], v: [] };
+  const usable = ex && test.shape !== "stage" && s.t.length >= 10;
+  if (usable) {
+    // resample
+    const grid: number[] = [];
+    const val: number[] = [];
+    for (let t = s.t[0]; t <= s.t[s.t.length - 1] + 1e-9; t += stepS) {
+      grid.push(t);
+      val.push(interpolateLinear(s.t, s.v, Math.min(t, s.t[s.t.length - 1])));
+    }
+    // centred moving average by prefix sums
+    const half = Math.max(0, Math.floor(smoothS / stepS / 2));
+    const prefix = new Float64Array(val.length + 1);
+    for (let i = 0; i < val.length; i++) prefix[i + 1] = prefix[i] + val[i];
+    const sm = val.map((_, i) => {
+      const a = Math.max(0, i - half);
+      const b = Math.min(val.length - 1, i + half);
+      return (prefix[b + 1] - prefix[a]) / (b - a + 1);
+    });
+    // turning points with hysteresis (single pass)
+    const turns: { i: number; kind: "peak" | "nadir" }[] = [];
+    let dir: 0 | 1 | -1 = 0;
+    let cand = 0;
+    let lo = 0;
+    let hi = 0;
+    for (let i = 1; i < sm.length; i++) {
+      if (dir === 0) {
+        if (sm[i] < sm[lo]) lo = i;
+        if (sm[i] > sm[hi]) hi = i;
+        if (sm[i] - sm[lo] >= h) {
+          turns.push({ i: lo, kind: "nadir" });
+          dir = 1;
+          cand = i;
+        } else if (sm[hi] - sm[i] >= h) {
+          turns.push({ i: hi, kind: "peak" });
+          dir = -1;
+          cand = i;
+        }
+        continue;
+      }
+      if (dir === 1) {
+        if (sm[i] >= sm[cand]) cand = i;
+        else if (sm[cand] - sm[i] >= h) {
+          turns.push({ i: cand, kind: "peak" });
+          dir = -1;
+          cand = i;
+        }
+      } else {
+        if (sm[i] <= sm[cand]) cand = i;
+        else if (sm[i] - sm[cand] >= h) {
+          turns.push({ i: cand, kind: "nadir" });
+          dir = 1;
+          cand = i;
+        }
+      }
+    }
+    for (let k = 0; k + 2 < turns.length; k++) {
+      const [a, p, b] = [turns[k], turns[k + 1], turns[k + 2]];
+      if (a.kind !== "nadir" || p.kind !== "peak" || b.kind !== "nadir") continue;
+      const lengthS = grid[b.i] - grid[a.i];
+      if (lengthS < minCycleS) continue;
+      cycles.push({
+        startS: grid[a.i],
+        endS: grid[b.i],
+        peakS: grid[p.i],
+        lengthS,
+        amplitudeLMin: sm[p.i] - (sm[a.i] + sm[b.i]) / 2,
+      });
+    }
+  } else {
+    issues.push(
+      makeIssue(
+        "info",
+        "eov-not-assessable",
+        "Exercise oscillatory ventilation needs breath-by-breath VE in a known exercise phase.",
+      ),
+    );
+  }
+  const averaging = `VE resampled every ${stepS} s, ${smoothS}-s centred moving average, turning points with ${h} L/min hysteresis`;
+
+  // Leite 2003
+  let leiteCycles: EovCycle[] = [];
+  let leiteCv = NaN;
+  for (let k = 0; k + 2 < cycles.length; k++) {
+    const triple = cycles.slice(k, k + 3);
+    if (triple[0].endS !== triple[1].startS || triple[1].endS !== triple[2].startS) continue;
+    const lengths = triple.map((c) => c.lengthS);
+    const mean = lengths.reduce((a, b) => a + b, 0) / 3;
+    const cv = sampleSd(lengths) / mean;
+    const amp = triple.reduce((a, c) => a + c.amplitudeLMin, 0) / 3;
+    if (cv <= 0.2 && amp > 5) {
+      leiteCycles = triple;
+      leiteCv = cv;
+      break;
+    }
+  }
+  const leiteProv = provenanceOf(
+    "eov-leite-2003",
+    "EOV (Leite 2003): ≥3 regular cycles, SD of lengths ≤20% of mean, mean amplitude >5 L/min",
+    ["leite-2003", "eov-criteria-review-2025"],
+    {
+      window: ex ?? undefined,
+      averaging,
+      inputs: { cycles: cycles.length },
+    },
+  );
+  const leite: EovDefinitionResult = {
+    id: "leite-2003",
+    label: "Leite 2003",
+    sourceIds: leiteProv.sourceIds,
+    detected: usable ? leiteCycles.length === 3 : null,
+    cycles: leiteCycles,
+    detail: Number.isFinite(leiteCv)
+      ? measured(leiteCv, "1", {
+          ...leiteProv,
+          inputs: { ...leiteProv.inputs, note: "coefficient of variation of the qualifying cycle lengths" },
+        })
+      : notDetermined(
+          "1",
+          leiteProv,
+          usable ? "no three consecutive regular cycles with mean amplitude > 5 L/min" : "VE series not assessable",
+        ),
+  };
+
+  // Corrà / AHA
+  const corraProv = provenanceOf(
+    "eov-corra-aha",
+    `EOV (Corrà / AHA 2010): amplitude ≥15% of resting VE, persisting ≥${Math.round(persistence * 100)}% of exercise`,
+    ["corra-2006", "aha-2010-eov", "eov-criteria-review-2025"],
+    { window: ex ?? undefined, averaging, inputs: { restingVeLMin: restingVeLMin.value, persistenceFraction: persistence } },
+  );
+  let corra: EovDefinitionResult;
+  if (!usable || restingVeLMin.value === null || !ex) {
+    corra = {
+      id: "corra-aha",
+      label: "Corrà / AHA 2010",
+      sourceIds: corraProv.sourceIds,
+      detected: null,
+      cycles: [],
+      detail: notDetermined("1", corraProv, !usable ? "VE series not assessable" : "resting VE not available"),
+    };
+  } else {
+    const minAmp = 0.15 * restingVeLMin.value;
+    let bestRun: EovCycle[] = [];
+    let run: EovCycle[] = [];
+    for (const c of cycles) {
+      const ok = c.amplitudeLMin >= minAmp;
+      if (ok && run.length > 0 && run[run.length - 1].endS === c.startS) run.push(c);
+      else run = ok ? [c] : [];
+      const dur = (r: EovCycle[]) => (r.length ? r[r.length - 1].endS - r[0].startS : 0);
+      if (dur(run) > dur(bestRun)) bestRun = [...run];
+    }
+    const durS = bestRun.length ? bestRun[bestRun.length - 1].endS - bestRun[0].startS : 0;
+    const frac = durS / (ex.endS - ex.startS);
+    corra = {
+      id: "corra-aha",
+      label: "Corrà / AHA 2010",
+      sourceIds: corraProv.sourceIds,
+      detected: frac >= persistence,
+      cycles: bestRun,
+      detail: measured(frac, "1", {
+        ...corraProv,
+        inputs: { ...corraProv.inputs, minAmplitudeLMin: minAmp, oscillatingS: durS },
+      }),
+    };
+  }
+  return { cycles, restingVeLMin, definitions: [leite, corra], issues };
+}

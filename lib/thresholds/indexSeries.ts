@@ -1,0 +1,163 @@
+import type { BreathRow, NumericField } from "../breath";
+import type { Provenance } from "../core";
+import { interpolateLinear } from "../numeric/interpolate";
+import type { ConditionedTest } from "../signal";
+
+/** A time span in seconds from the start of the record (inclusive at both ends). */
+export interface TimeSpan {
+  startS: number;
+  endS: number;
+}
+
+/** Times and values of one field, rows lacking it skipped (missing-value policy: skip). */
+export interface FieldSeries {
+  t: number[];
+  v: number[];
+}
+
+/**
+ * The times and values of `field` in time order, optionally limited to `span`.
+ * Breaths lacking the field (or holding a non-finite value) are skipped.
+ */
+export function fieldSeries(rows: readonly BreathRow[], field: NumericField, span?: TimeSpan | null): FieldSeries {
+  const t: number[] = [];
+  const v: number[] = [];
+  for (const r of rows) {
+    if (span && (r.timeS < span.startS || r.timeS > span.endS)) continue;
+    const x = r[field];
+    if (typeof x === "number" && Number.isFinite(x)) {
+      t.push(r.timeS);
+      v.push(x);
+    }
+  }
+  return { t, v };
+}
+
+/** Paired values of two fields at the breaths that carry both, optionally limited to `span`. */
+export function pairedSeries(
+  rows: readonly BreathRow[],
+  xField: NumericField,
+  yField: NumericField,
+  span?: TimeSpan | null,
+): { t: number[]; x: number[]; y: number[] } {
+  const t: number[] = [];
+  const x: number[] = [];
+  const y: number[] = [];
+  for (const r of rows) {
+    if (span && (r.timeS < span.startS || r.timeS > span.endS)) continue;
+    const a = r[xField];
+    const b = r[yField];
+    if (typeof a === "number" && Number.isFinite(a) && typeof b === "number" && Number.isFinite(b)) {
+      t.push(r.timeS);
+      x.push(a);
+      y.push(b);
+    }
+  }
+  return { t, x, y };
+}
+
+/**
+ * Mean of a field over any time window in O(log n): prefix sums of the values plus binary search on time.
+ * Each breath counts once (breath values weighted equally, as in `rollingTimeAverage`).
+ */
+export class WindowMeans {
+  private readonly t: number[];
+  private readonly prefix: Float64Array;
+
+  constructor(series: FieldSeries) {
+    this.t = series.t;
+    this.prefix = new Float64Array(series.v.length + 1);
+    for (let i = 0; i < series.v.length; i++) this.prefix[i + 1] = this.prefix[i] + series.v[i];
+  }
+
+  /** Index of the first time ≥ s. */
+  private lowerBound(s: number): number {
+    let lo = 0;
+    let hi = this.t.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (this.t[mid] < s) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  }
+
+  /** Mean and count of the breaths with startS ≤ t ≤ endS; mean NaN when none. */
+  mean(startS: number, endS: number): { mean: number; count: number } {
+    const a = this.lowerBound(startS);
+    let b = this.lowerBound(endS);
+    while (b < this.t.length && this.t[b] <= endS) b++;
+    const count = Math.max(0, b - a);
+    return { mean: count > 0 ? (this.prefix[b] - this.prefix[a]) / count : NaN, count };
+  }
+}
+
+/** A window found by a rolling search, with its value. */
+export interface RollingExtreme {
+  value: number;
+  startS: number;
+  endS: number;
+}
+
+/**
+ * Highest (or lowest) value of `evaluate(startS, endS)` over time windows of `windowS` seconds ending at each
+ * of `ends` (window = [end − windowS, end]). Windows starting before `spanStartS` by more than 20% of the
+ * window are skipped (a window must be at least 80% covered, as in `rollingTimeAverage`). O(n log n).
+ */
+export function rollingExtreme(
+  ends: readonly number[],
+  windowS: number,
+  spanStartS: number,
+  evaluate: (startS: number, endS: number) => number,
+  kind: "max" | "min",
+): RollingExtreme | null {
+  let best: RollingExtreme | null = null;
+  for (const end of ends) {
+    if (end - spanStartS < 0.8 * windowS) continue;
+    const startS = end - windowS;
+    const value = evaluate(startS, end);
+    if (!Number.isFinite(value)) continue;
+    if (!best || (kind === "max" ? value > best.value : value < best.value))
+      best = { value, startS: Math.max(startS, spanStartS), endS: end };
+  }
+  return best;
+}
+
+/** Linear interpolation of a field at a time from the rows that carry it (NaN outside their time range). */
+export function valueAtTime(rows: readonly BreathRow[], field: NumericField, timeS: number): number {
+  const s = fieldSeries(rows, field);
+  return interpolateLinear(s.t, s.v, timeS);
+}
+
+/**
+ * The resting span: the last `rest` phase ending at or before the exercise start, or null.
+ * With `lastS`, only its final `lastS` seconds.
+ */
+export function restSpan(test: ConditionedTest, lastS?: number): TimeSpan | null {
+  const exStart = test.exercise?.startS ?? Infinity;
+  let best: TimeSpan | null = null;
+  for (const p of test.phases) if (p.phase === "rest" && p.endS <= exStart) best = { startS: p.startS, endS: p.endS };
+  if (!best) return null;
+  return lastS === undefined ? best : { startS: Math.max(best.startS, best.endS - lastS), endS: best.endS };
+}
+
+/** The exercise span, or the whole record when the exercise phase is unknown. */
+export function exerciseSpan(test: ConditionedTest): TimeSpan | null {
+  if (test.exercise) return test.exercise;
+  const rows = test.clean;
+  return rows.length > 0 ? { startS: rows[0].timeS, endS: rows[rows.length - 1].timeS } : null;
+}
+
+/** Provenance builder so every module writes the same shape. */
+export function provenanceOf(
+  method: string,
+  label: string,
+  sourceIds: string[],
+  extra: Omit<Provenance, "method" | "label" | "sourceIds"> = {},
+): Provenance {
+  const p: Provenance = { method, label, sourceIds };
+  if (extra.window) p.window = extra.window;
+  if (extra.inputs) p.inputs = extra.inputs;
+  if (extra.averaging) p.averaging = extra.averaging;
+  return p;
+}

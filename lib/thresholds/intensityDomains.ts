@@ -1,0 +1,87 @@
+import { makeIssue, type Issue, type Measured } from "../core";
+import type { PeakValues } from "./measurePeaks";
+import type { ValuesAtThreshold } from "./valuesAtThreshold";
+
+export type DomainId = "moderate" | "heavy" | "severe";
+
+/** A range on one variable; a null bound means open (below VT1 / up to peak not determinable). */
+export interface DomainRange {
+  lower: Measured | null;
+  upper: Measured | null;
+}
+
+export interface IntensityDomain {
+  id: DomainId;
+  label: string;
+  hrBpm: DomainRange;
+  workW: DomainRange;
+  speedKmh: DomainRange;
+}
+
+export interface IntensityDomainsResult {
+  domains: IntensityDomain[];
+  sourceIds: string[];
+  issues: Issue[];
+}
+
+/**
+ * Exercise-intensity domains for prescription (common practice in exercise physiology): moderate below VT1,
+ * heavy from VT1 to VT2, severe above VT2 (up to the peak values). Each domain gives its HR, work-rate and
+ * speed range from the values at VT1/VT2 and the peaks. Without VT1 or VT2 the domains that need it are
+ * left out, with an issue.
+ */
+export function intensityDomains(
+  atVt1: ValuesAtThreshold | null,
+  atVt2: ValuesAtThreshold | null,
+  peaks: PeakValues,
+): IntensityDomainsResult {
+  const issues: Issue[] = [];
+  const domains: IntensityDomain[] = [];
+  const usable = (m: Measured | undefined | null) => (m && m.value !== null ? m : null);
+  if (atVt1) {
+    domains.push({
+      id: "moderate",
+      label: "moderate (below VT1)",
+      hrBpm: { lower: null, upper: usable(atVt1.hrBpm) },
+      workW: { lower: null, upper: usable(atVt1.workW) },
+      speedKmh: { lower: null, upper: usable(atVt1.speedKmh) },
+    });
+  }
+  if (atVt1 && atVt2) {
+    domains.push({
+      id: "heavy",
+      label: "heavy (VT1 to VT2)",
+      hrBpm: { lower: usable(atVt1.hrBpm), upper: usable(atVt2.hrBpm) },
+      workW: { lower: usable(atVt1.workW), upper: usable(atVt2.workW) },
+      speedKmh: { lower: usable(atVt1.speedKmh), upper: usable(atVt2.speedKmh) },
+    });
+  }
+  if (atVt2) {
+    domains.push({
+      id: "severe",
+      label: "severe (above VT2)",
+      hrBpm: { lower: usable(atVt2.hrBpm), upper: usable(peaks.hrBpm) },
+      workW: { lower: usable(atVt2.workW), upper: usable(peaks.workW) },
+      speedKmh: { lower: usable(atVt2.speedKmh), upper: usable(peaks.speedKmh) },
+    });
+  }
+  if (!atVt1 || !atVt2) {
+    issues.push(
+      makeIssue(
+        "info",
+        "domains-incomplete",
+        `Intensity domains need both thresholds; ${!atVt1 && !atVt2 ? "VT1 and VT2 are" : !atVt1 ? "VT1 is" : "VT2 is"} not available.`,
+      ),
+    );
+  }
+  if (domains.length > 0 && (atVt1?.workW.value ?? atVt2?.workW.value) != null) {
+    issues.push(
+      makeIssue(
+        "info",
+        "ramp-work-rates",
+        "Work rates at the thresholds are read from the ramp; VO2 lags a ramp, so constant-load training at these work rates sits at a higher intensity than the threshold itself.",
+      ),
+    );
+  }
+  return { domains, sourceIds: ["intensity-domains"], issues };
+}

@@ -1,0 +1,111 @@
+import type { ConditionedTest } from "../signal";
+import { breathingReserve } from "./breathingReserve";
+import { dVo2dWr } from "./dVo2dWr";
+import { assessEffort, vo2FinalIncrease } from "./effortCriteria";
+import { eov } from "./eov";
+import { heartRateIndices } from "./heartRateIndices";
+import type { IndicesContext, IndicesResult } from "./indexTypes";
+import { intensityDomains } from "./intensityDomains";
+import { lactatePointsFromTest, lactateThresholds, type LactateThresholdsResult } from "./lactateThresholds";
+import { measurePeaks } from "./measurePeaks";
+import { o2Pulse } from "./o2Pulse";
+import { oues } from "./oues";
+import { spo2 } from "./spo2";
+import { valuesAtThreshold } from "./valuesAtThreshold";
+import { vdVt } from "./vdVt";
+import { veVco2Slope } from "./veVco2Slope";
+
+/**
+ * Measure every index of a conditioned test: peaks, effort criteria, VE/VCO2 slope and nadir, OUES,
+ * ΔVO2/ΔWR, O2 pulse trajectory, breathing reserve, heart-rate indices, SpO2, VD/VT, EOV, values at VT1/VT2,
+ * lactate thresholds and intensity domains. VT1/VT2 come in as inputs (time and VO2). Pure and
+ * deterministic; clinical data problems come back as issues, "not determinable" as values with a reason.
+ * Each module is a single pass with prefix sums, so the whole call suits interactive use.
+ */
+export function measureIndices(test: ConditionedTest, ctx: IndicesContext): IndicesResult {
+  const windowS = ctx.peakWindowS ?? 30;
+  const weightKg = ctx.patient.weightKg;
+  const vt1 = ctx.vt1 ?? null;
+  const vt2 = ctx.vt2 ?? null;
+  const peaks = measurePeaks(test, { windowS, weightKg, vt1 });
+  const atVt1 = vt1
+    ? valuesAtThreshold(test, vt1, { ...ctx.readAtTime, name: "VT1", weightKg, peakVo2MlMin: peaks.vo2MlMin.value })
+    : null;
+  const atVt2 = vt2
+    ? valuesAtThreshold(test, vt2, { ...ctx.readAtTime, name: "VT2", weightKg, peakVo2MlMin: peaks.vo2MlMin.value })
+    : null;
+  const br = breathingReserve(peaks.veLMin, ctx.spirometry, { mvvChoice: ctx.mvvChoice });
+  const hr = heartRateIndices(test, {
+    peakHr: peaks.hrBpm,
+    predictedHrMaxBpm: ctx.predictedHrMaxBpm,
+    predictedHrMaxEquationId: ctx.predictedHrMaxEquationId,
+    ageY: ctx.patient.ageY,
+    betaBlocker: ctx.patient.betaBlocker,
+  });
+  const plateau = vo2FinalIncrease(test, { windowS, weightKg });
+
+  let lactate: LactateThresholdsResult | null = null;
+  const lp = lactatePointsFromTest(test, ctx.lactate);
+  if (lp.points.length > 0) {
+    const axisVt = (a: typeof atVt1) => (a ? (lp.axis === "workW" ? a.workW.value : a.speedKmh.value) : null);
+    lactate = lactateThresholds(lp.points, lp.axis, { ...ctx.lactateOptions, vt1: axisVt(atVt1), vt2: axisVt(atVt2) });
+    lactate.issues.unshift(...lp.issues);
+  }
+  const lactatePeak = lp.points.length > 0 ? Math.max(...lp.points.map((p) => p.lactateMmolL)) : null;
+
+  const effort = assessEffort(
+    {
+      rerPeak: peaks.rerMax.value,
+      hrPercentPredicted: hr.percentPredicted.value,
+      hrReserveBpm: hr.reserveBpm.value,
+      veMvvPercent: br.veMvvPercent.value,
+      vo2FinalIncreaseMlKgMin: plateau.increaseMlKgMin.value,
+      vo2FinalIncreaseMlMin: plateau.increaseMlMin.value,
+      lactatePeakMmolL: lactatePeak,
+    },
+    ctx.effortSet,
+  );
+  const veVco2 = veVco2Slope(test, { vt1, vt2, nadirWindowS: windowS });
+  const ouesR = oues(test);
+  const dv = dVo2dWr(test, { vt1, vt2, lagS: ctx.dVo2dWrLagS });
+  const o2p = o2Pulse(test);
+  const sp = spo2(test, { windowS, definition: ctx.desaturationDefinition });
+  const vd = vdVt(test, ctx.bloodGases, ctx.readAtTime);
+  const ev = eov(test, ctx.eovDefinition);
+  const domains = intensityDomains(atVt1, atVt2, peaks);
+  const issues = [
+    ...peaks.issues,
+    ...(atVt1?.issues ?? []),
+    ...(atVt2?.issues ?? []),
+    ...br.issues,
+    ...hr.issues,
+    ...veVco2.issues,
+    ...ouesR.issues,
+    ...dv.issues,
+    ...o2p.issues,
+    ...sp.issues,
+    ...vd.issues,
+    ...ev.issues,
+    ...(lactate?.issues ?? []),
+    ...domains.issues,
+  ];
+  return {
+    peaks,
+    vo2FinalIncrease: plateau,
+    effort,
+    veVco2,
+    oues: ouesR,
+    dVo2dWr: dv,
+    o2Pulse: o2p,
+    breathingReserve: br,
+    heartRate: hr,
+    spo2: sp,
+    vdVt: vd.points,
+    eov: ev,
+    atVt1,
+    atVt2,
+    lactate,
+    domains,
+    issues,
+  };
+}

@@ -1,0 +1,245 @@
+import type { NumericField } from "../breath";
+import { makeIssue, measured, notDetermined, type Issue, type Measured, type Provenance } from "../core";
+import type { ConditionedTest } from "../signal";
+import { exerciseSpan, fieldSeries, provenanceOf, restSpan, rollingExtreme, WindowMeans, type TimeSpan } from "./indexSeries";
+import { readAtTime, type ThresholdPoint } from "./valuesAtThreshold";
+
+export interface MeasurePeaksOptions {
+  /** Averaging window for peak values, seconds. @default 30 */
+  windowS?: number;
+  /** Resting values are the mean of the last `restLastS` seconds of the rest phase. @default 60 */
+  restLastS?: number;
+  /** Body mass, kg, for per-kg values. */
+  weightKg?: number;
+  /** VT1, for PETCO2 at VT1. */
+  vt1?: ThresholdPoint | null;
+}
+
+export interface PeakValues {
+  windowS: number;
+  vo2MlMin: Measured;
+  vo2MlKgMin: Measured;
+  vco2MlMin: Measured;
+  veLMin: Measured;
+  /** RER over the peak-VO2 window (ratio of window means). */
+  rerAtPeakVo2: Measured;
+  /** Highest rolling-window RER during exercise. */
+  rerMax: Measured;
+  hrBpm: Measured;
+  /** Highest work rate reached in the exercise phase. */
+  workW: Measured;
+  speedKmh: Measured;
+  gradePct: Measured;
+  /** O2 pulse over the peak-VO2 window, mL/beat. */
+  o2PulseMlBeat: Measured;
+  petco2RestMmHg: Measured;
+  petco2AtVt1MmHg: Measured;
+  petco2PeakMmHg: Measured;
+  /** Highest exercise PETCO2 window minus resting PETCO2. */
+  petco2RiseMmHg: Measured;
+  spo2LowestPct: Measured;
+  testDurationS: Measured;
+  exerciseDurationS: Measured;
+  issues: Issue[];
+}
+
+/**
+ * Peak values over a named window: highest `windowS`-s rolling average of each variable in the exercise
+ * phase (common practice; Robergs, Dwyer & Astorino 2010 survey), ratios (RER, O2 pulse) as the ratio of
+ * window means over the same window. Work rate, speed and grade: the highest value reached. Resting
+ * values: mean of the last `restLastS` s of rest (implementation choice). Prefix sums: O(n log n).
+ *
+ * Degenerate cases: a variable absent, or no full window → "not determinable" with the reason.
+ */
+export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions = {}): PeakValues {
+  const windowS = options.windowS ?? 30;
+  const restLastS = options.restLastS ?? 60;
+  const issues: Issue[] = [];
+  const rows = test.clean;
+  const span = exerciseSpan(test);
+  if (!test.exercise)
+    issues.push(
+      makeIssue(
+        "warning",
+        "exercise-phase-unknown",
+        "The incremental exercise phase was not found; peak values use the whole record.",
+      ),
+    );
+  const stage = test.shape === "stage";
+  const averaging = stage ? "stage values" : `${windowS}-s rolling time window over breaths`;
+  const peakLabel = (what: string, word: string) =>
+    stage ? `${word} stage value of ${what}` : `${what}: ${word} ${windowS}-s rolling average in exercise`;
+  const peakProv = (what: string, kind: "max" | "min" = "max"): Provenance =>
+    provenanceOf(
+      `${kind === "max" ? "peak" : "lowest"}-${stage ? "stage" : `rolling-${windowS}s`}`,
+      peakLabel(what, kind === "max" ? "highest" : "lowest"),
+      ["peak-rolling-average"],
+      { averaging },
+    );
+
+  const means = new Map<NumericField, WindowMeans>();
+  const meansOf = (f: NumericField) => {
+    let m = means.get(f);
+    if (!m) {
+      m = new WindowMeans(fieldSeries(rows, f, span));
+      means.set(f, m);
+    }
+    return m;
+  };
+  const ends = (f: NumericField) => fieldSeries(rows, f, span).t;
+  const spanStart = span?.startS ?? 0;
+
+  const peakOf = (
+    f: NumericField,
+    unit: string,
+    what: string,
+    kind: "max" | "min" = "max",
+  ): { m: Measured; win: TimeSpan | null } => {
+    const prov = peakProv(what, kind);
+    if (!span) return { m: notDetermined(unit, prov, "no data"), win: null };
+    const best = rollingExtreme(ends(f), windowS, spanStart, (a, b) => meansOf(f).mean(a, b).mean, kind);
+    if (!best)
+      return { m: notDetermined(unit, prov, `no ${stage ? "stage" : `${windowS}-s window`} of ${what} in exercise`), win: null };
+    const win = { startS: best.startS, endS: best.endS };
+    return {
+      m: measured(best.value, unit, { ...prov, window: win, inputs: { breaths: meansOf(f).mean(win.startS, win.endS).count } }),
+      win,
+    };
+  };
+  const ratioOver = (
+    num: NumericField,
+    den: NumericField,
+    win: TimeSpan | null,
+    unit: string,
+    method: string,
+    label: string,
+    sourceIds: string[],
+    scale = 1,
+  ) => {
+    const prov = provenanceOf(method, label, sourceIds, { averaging, window: win ?? undefined });
+    if (!win) return notDetermined(unit, prov, "peak-VO2 window not determinable");
+    const v = (meansOf(num).mean(win.startS, win.endS).mean / meansOf(den).mean(win.startS, win.endS).mean) * scale;
+    return Number.isFinite(v)
+      ? measured(v, unit, prov)
+      : notDetermined(unit, prov, `no ${num} or ${den} data in the peak-VO2 window`);
+  };
+  const maxOf = (f: NumericField, unit: string, what: string) => {
+    const prov = provenanceOf("max-value", `${what}: highest value reached in exercise`, ["common-practice"]);
+    const s = fieldSeries(rows, f, span);
+    if (s.v.length === 0) return notDetermined(unit, prov, `no ${what} data`);
+    let k = 0;
+    for (let i = 1; i < s.v.length; i++) if (s.v[i] > s.v[k]) k = i;
+    return measured(s.v[k], unit, { ...prov, window: { startS: s.t[k], endS: s.t[k] } });
+  };
+
+  const vo2 = peakOf("vo2MlMin", "mL/min", "VO2");
+  const w = options.weightKg;
+  const vo2Kg =
+    vo2.m.value !== null && w && w > 0
+      ? measured(vo2.m.value / w, "mL/kg/min", { ...vo2.m.provenance, inputs: { ...vo2.m.provenance.inputs, weightKg: w } })
+      : notDetermined(
+          "mL/kg/min",
+          vo2.m.provenance,
+          vo2.m.value === null ? (vo2.m.reason ?? "peak VO2 not determinable") : "body mass not given",
+        );
+
+  const rerMaxProv = peakProv("RER");
+  const rerBest = span
+    ? rollingExtreme(
+        ends("vco2MlMin"),
+        windowS,
+        spanStart,
+        (a, b) => meansOf("vco2MlMin").mean(a, b).mean / meansOf("vo2MlMin").mean(a, b).mean,
+        "max",
+      )
+    : null;
+  const rerMax = rerBest
+    ? measured(rerBest.value, "1", { ...rerMaxProv, window: { startS: rerBest.startS, endS: rerBest.endS } })
+    : notDetermined("1", rerMaxProv, "no window with both VO2 and VCO2 in exercise");
+
+  // resting and peak PETCO2
+  const rest = restSpan(test, restLastS);
+  const restProv = provenanceOf(
+    "rest-mean",
+    `PETCO2: mean of the last ${restLastS} s of rest`,
+    ["implementation-choice", "guazzi-2012-petco2"],
+    {
+      window: rest ?? undefined,
+    },
+  );
+  const restPetco2 = rest ? new WindowMeans(fieldSeries(rows, "petco2MmHg", rest)).mean(rest.startS, rest.endS).mean : NaN;
+  const petco2Rest = Number.isFinite(restPetco2)
+    ? measured(restPetco2, "mmHg", restProv)
+    : notDetermined("mmHg", restProv, rest ? "no PETCO2 at rest" : "no rest phase marked");
+  const petco2Peak = peakOf("petco2MmHg", "mmHg", "PETCO2");
+  const riseProv = provenanceOf(
+    "petco2-rise",
+    "PETCO2 rise: highest exercise window minus resting mean",
+    ["implementation-choice", "guazzi-2012-petco2"],
+    {
+      inputs: { restMmHg: petco2Rest.value, peakMmHg: petco2Peak.m.value },
+    },
+  );
+  const petco2Rise =
+    petco2Rest.value !== null && petco2Peak.m.value !== null
+      ? measured(petco2Peak.m.value - petco2Rest.value, "mmHg", riseProv)
+      : notDetermined("mmHg", riseProv, petco2Rest.reason ?? petco2Peak.m.reason ?? "not determinable");
+  const vt1Prov = provenanceOf("at-vt1", "PETCO2 at VT1", ["common-practice"]);
+  const petco2AtVt1 = options.vt1
+    ? readAtTime(test, "petco2MmHg", options.vt1.timeS, "mmHg")
+    : notDetermined("mmHg", vt1Prov, "VT1 not given");
+
+  const durProv = (label: string) => provenanceOf("duration", label, ["common-practice"]);
+  const testDuration =
+    rows.length > 1
+      ? measured(rows[rows.length - 1].timeS - rows[0].timeS, "s", {
+          ...durProv("test duration: first to last row"),
+          window: { startS: rows[0].timeS, endS: rows[rows.length - 1].timeS },
+        })
+      : notDetermined("s", durProv("test duration"), "fewer than two rows");
+  const exerciseDuration = test.exercise
+    ? measured(test.exercise.endS - test.exercise.startS, "s", {
+        ...durProv("incremental exercise phase: start to end"),
+        window: test.exercise,
+      })
+    : notDetermined("s", durProv("exercise duration"), "the incremental exercise phase was not found");
+
+  return {
+    windowS,
+    vo2MlMin: vo2.m,
+    vo2MlKgMin: vo2Kg,
+    vco2MlMin: peakOf("vco2MlMin", "mL/min", "VCO2").m,
+    veLMin: peakOf("veLMin", "L/min", "VE").m,
+    rerAtPeakVo2: ratioOver(
+      "vco2MlMin",
+      "vo2MlMin",
+      vo2.win,
+      "1",
+      "rer-at-peak-vo2",
+      "RER over the peak-VO2 window (ratio of means)",
+      ["peak-rolling-average"],
+    ),
+    rerMax,
+    hrBpm: peakOf("hrBpm", "1/min", "HR").m,
+    workW: maxOf("workW", "W", "work rate"),
+    speedKmh: maxOf("speedKmh", "km/h", "speed"),
+    gradePct: maxOf("gradePct", "%", "grade"),
+    o2PulseMlBeat: ratioOver(
+      "vo2MlMin",
+      "hrBpm",
+      vo2.win,
+      "mL/beat",
+      "o2-pulse-at-peak-vo2",
+      "O2 pulse (VO2/HR) over the peak-VO2 window",
+      ["o2-pulse-definition", "peak-rolling-average"],
+    ),
+    petco2RestMmHg: petco2Rest,
+    petco2AtVt1MmHg: petco2AtVt1,
+    petco2PeakMmHg: petco2Peak.m,
+    petco2RiseMmHg: petco2Rise,
+    spo2LowestPct: peakOf("spo2Pct", "%", "SpO2", "min").m,
+    testDurationS: testDuration,
+    exerciseDurationS: exerciseDuration,
+    issues,
+  };
+}

@@ -1,0 +1,68 @@
+import { makeIssue, type Issue } from "../core";
+import { PrefixSums } from "../numeric/linearRegression";
+import type { ConditionedTest } from "../signal";
+import { exerciseSpan, pairedSeries, provenanceOf } from "./indexSeries";
+import { lineIndexFromFit, type LineIndex } from "./veVco2Slope";
+
+export interface OuesOptions {
+  /** Fractions of exercise duration (from its start) to fit over. @default [1, 0.9, 0.75] */
+  fractions?: number[];
+}
+
+export interface OuesFit extends LineIndex {
+  /** Fraction of exercise duration used. */
+  fraction: number;
+}
+
+export interface OuesResult {
+  fits: OuesFit[];
+  issues: Issue[];
+}
+
+/**
+ * Oxygen uptake efficiency slope (Baba et al. 1996 JACC, confirmed): VO2 (mL/min) = a·log10 VE (L/min) + b;
+ * OUES = a, in mL/min per log10(L/min), fitted over the first 100%, 90% and 75% of exercise duration.
+ * One prefix-sum pass; each fraction is a prefix range, O(1) after O(n).
+ *
+ * Degenerate cases: breaths with VE ≤ 0 are skipped; fewer than 10 breaths (3 stages) → not determinable.
+ */
+export function oues(test: ConditionedTest, options: OuesOptions = {}): OuesResult {
+  const fractions = options.fractions ?? [1, 0.9, 0.75];
+  const issues: Issue[] = [];
+  const span = exerciseSpan(test);
+  const raw = pairedSeries(test.clean, "veLMin", "vo2MlMin", span);
+  const t: number[] = [];
+  const x: number[] = [];
+  const y: number[] = [];
+  for (let i = 0; i < raw.x.length; i++) {
+    if (raw.x[i] > 0) {
+      t.push(raw.t[i]);
+      x.push(Math.log10(raw.x[i]));
+      y.push(raw.y[i]);
+    }
+  }
+  const sums = new PrefixSums(x, y);
+  const minPoints = test.shape === "stage" ? 3 : 10;
+  const fits = fractions.map((fraction): OuesFit => {
+    const endS = span ? span.startS + fraction * (span.endS - span.startS) : 0;
+    let k = 0;
+    while (k < t.length && t[k] <= endS) k++;
+    const prov = provenanceOf(
+      `oues-${Math.round(fraction * 100)}`,
+      `OUES: VO2 = a·log10(VE) + b over the first ${Math.round(fraction * 100)}% of exercise`,
+      ["baba-1996"],
+      {
+        window: span ? { startS: span.startS, endS } : undefined,
+        averaging: "breath by breath (artefact-cleaned)",
+        inputs: { fraction },
+      },
+    );
+    return {
+      fraction,
+      ...lineIndexFromFit(sums, 0, k, { slope: "mL/min per log10(L/min)", intercept: "mL/min" }, prov, minPoints),
+    };
+  });
+  if (x.length === 0)
+    issues.push(makeIssue("info", "no-ve-vo2", "No breaths with both VE and VO2 in exercise: OUES not determinable."));
+  return { fits, issues };
+}

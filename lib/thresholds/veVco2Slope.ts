@@ -1,0 +1,143 @@
+import { makeIssue, measured, notDetermined, type Issue, type Measured, type Provenance } from "../core";
+import { PrefixSums } from "../numeric/linearRegression";
+import type { ConditionedTest } from "../signal";
+import { exerciseSpan, fieldSeries, pairedSeries, provenanceOf, rollingExtreme, WindowMeans } from "./indexSeries";
+import { readAtTime, type ThresholdPoint } from "./valuesAtThreshold";
+
+/** A straight-line fit reported as three measured values. */
+export interface LineIndex {
+  slope: Measured;
+  intercept: Measured;
+  r2: Measured;
+  /** Breaths used. */
+  n: number;
+}
+
+export interface VeVco2Options {
+  /** Respiratory compensation point (VT2): end of the "to RCP" slope. */
+  vt2?: ThresholdPoint | null;
+  vt1?: ThresholdPoint | null;
+  /** Window for the lowest VE/VCO2, seconds. @default 30 */
+  nadirWindowS?: number;
+}
+
+export interface VeVco2Result {
+  /** OLS of VE (L/min) on VCO2 (L/min), start of exercise to VT2 (Ward 2021, secondary). */
+  slopeToVt2: LineIndex;
+  /** OLS of VE on VCO2 over the whole exercise phase (FRIEND reference method, confirmed). */
+  slopeWholeExercise: LineIndex;
+  /** Lowest rolling-window VE/VCO2 (ratio of window means) in exercise (Sun et al. 2002, confirmed). */
+  nadir: Measured;
+  atVt1: Measured;
+  issues: Issue[];
+}
+
+/** Report an OLS fit over indices [from, to) of prefix sums as a LineIndex with shared provenance. */
+export function lineIndexFromFit(
+  sums: PrefixSums,
+  from: number,
+  to: number,
+  units: { slope: string; intercept: string },
+  prov: Provenance,
+  minPoints: number,
+): LineIndex {
+  const n = to - from;
+  if (n < minPoints) {
+    const reason = `only ${Math.max(0, n)} points (need ${minPoints})`;
+    return {
+      slope: notDetermined(units.slope, prov, reason),
+      intercept: notDetermined(units.intercept, prov, reason),
+      r2: notDetermined("1", prov, reason),
+      n: Math.max(0, n),
+    };
+  }
+  const f = sums.fit(from, to);
+  const p = { ...prov, inputs: { ...prov.inputs, points: n } };
+  const reason = "the x values have no spread";
+  return {
+    slope: Number.isFinite(f.slope) ? measured(f.slope, units.slope, p) : notDetermined(units.slope, p, reason),
+    intercept: Number.isFinite(f.intercept)
+      ? measured(f.intercept, units.intercept, p)
+      : notDetermined(units.intercept, p, reason),
+    r2: Number.isFinite(f.r2) ? measured(f.r2, "1", p) : notDetermined("1", p, "r² undefined (no spread)"),
+    n,
+  };
+}
+
+/**
+ * VE/VCO2 slope (OLS of VE in L/min on VCO2 in L/min; clinical-reference §5.5) from the start of exercise to
+ * VT2 (Ward 2021, secondary) and over the whole exercise phase (FRIEND reference standards, confirmed;
+ * the two differ by about 4 units, Healthcare 2023, confirmed); lowest VE/VCO2 over a rolling window
+ * (Sun et al. 2002 AJRCCM, confirmed); VE/VCO2 at VT1. One prefix-sum pass: both slopes cost O(1) after O(n).
+ *
+ * Degenerate cases: fewer than 10 breaths in a range → not determinable; VT2 not given → the "to VT2" slope
+ * is not determinable.
+ */
+export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}): VeVco2Result {
+  const issues: Issue[] = [];
+  const span = exerciseSpan(test);
+  const nadirWindowS = options.nadirWindowS ?? 30;
+  const pairs = pairedSeries(test.clean, "vco2MlMin", "veLMin", span);
+  const x = pairs.x.map((v) => v / 1000);
+  const sums = new PrefixSums(x, pairs.y);
+  const units = { slope: "1", intercept: "L/min" };
+  const minPoints = test.shape === "stage" ? 3 : 10;
+  const wholeProv = provenanceOf(
+    "ve-vco2-slope-whole",
+    "VE/VCO2 slope: OLS of VE on VCO2, whole exercise phase",
+    ["friend-ve-vco2-slope", "healthcare-2023-slope-methods"],
+    {
+      window: span ?? undefined,
+      averaging: "breath by breath (artefact-cleaned)",
+    },
+  );
+  const slopeWholeExercise = lineIndexFromFit(sums, 0, x.length, units, wholeProv, minPoints);
+
+  const vt2 = options.vt2;
+  const toProv = provenanceOf(
+    "ve-vco2-slope-to-vt2",
+    "VE/VCO2 slope: OLS of VE on VCO2, start of exercise to VT2 (RCP)",
+    ["ward-2021", "healthcare-2023-slope-methods"],
+    {
+      window: span && vt2 ? { startS: span.startS, endS: vt2.timeS } : undefined,
+      averaging: "breath by breath (artefact-cleaned)",
+    },
+  );
+  let slopeToVt2: LineIndex;
+  if (!vt2) {
+    const reason = "VT2 (respiratory compensation point) not given";
+    slopeToVt2 = {
+      slope: notDetermined("1", toProv, reason),
+      intercept: notDetermined("L/min", toProv, reason),
+      r2: notDetermined("1", toProv, reason),
+      n: 0,
+    };
+  } else {
+    let k = 0;
+    while (k < pairs.t.length && pairs.t[k] <= vt2.timeS) k++;
+    slopeToVt2 = lineIndexFromFit(sums, 0, k, units, toProv, minPoints);
+  }
+
+  const nadirProv = provenanceOf(
+    `ve-vco2-nadir-${nadirWindowS}s`,
+    `lowest VE/VCO2: ratio of ${nadirWindowS}-s rolling window means in exercise`,
+    ["sun-2002"],
+    { averaging: `${nadirWindowS}-s rolling time window over breaths` },
+  );
+  const ve = new WindowMeans(fieldSeries(test.clean, "veLMin", span));
+  const vco2 = new WindowMeans(fieldSeries(test.clean, "vco2MlMin", span));
+  const best = span
+    ? rollingExtreme(pairs.t, nadirWindowS, span.startS, (a, b) => (1000 * ve.mean(a, b).mean) / vco2.mean(a, b).mean, "min")
+    : null;
+  const nadir = best
+    ? measured(best.value, "1", { ...nadirProv, window: { startS: best.startS, endS: best.endS } })
+    : notDetermined("1", nadirProv, "no window with VE and VCO2 in exercise");
+  const atVt1 = options.vt1
+    ? readAtTime(test, "veLMin", options.vt1.timeS, "1", { denominator: "vco2MlMin", scale: 1000 })
+    : notDetermined("1", provenanceOf("at-vt1", "VE/VCO2 at VT1", ["common-practice"]), "VT1 not given");
+  if (x.length === 0)
+    issues.push(
+      makeIssue("info", "no-ve-vco2", "No breaths with both VE and VCO2 in exercise: VE/VCO2 indices not determinable."),
+    );
+  return { slopeToVt2, slopeWholeExercise, nadir, atVt1, issues };
+}
