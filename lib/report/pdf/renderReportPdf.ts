@@ -1,0 +1,274 @@
+import "server-only";
+import pdfmake from "pdfmake";
+import type { Content, TableCell, TDocumentDefinitions } from "pdfmake/interfaces";
+import { renderChartSvg } from "../charts/renderChartSvg";
+import type { ReportModel, ReportRow } from "../reportModel";
+import { toWinAnsi } from "./toWinAnsi";
+
+/** The 14 standard PDF font names: pdfmake asks the local access policy about them too. */
+const STANDARD_FONTS = new Set([
+  "Helvetica",
+  "Helvetica-Bold",
+  "Helvetica-Oblique",
+  "Helvetica-BoldOblique",
+  "Times-Roman",
+  "Times-Bold",
+  "Times-Italic",
+  "Times-BoldItalic",
+  "Courier",
+  "Courier-Bold",
+  "Courier-Oblique",
+  "Courier-BoldOblique",
+  "Symbol",
+  "ZapfDingbats",
+]);
+
+pdfmake.setFonts({
+  Helvetica: { normal: "Helvetica", bold: "Helvetica-Bold", italics: "Helvetica-Oblique", bolditalics: "Helvetica-BoldOblique" },
+});
+pdfmake.setUrlAccessPolicy(() => false);
+pdfmake.setLocalAccessPolicy((p: string) => STANDARD_FONTS.has(p));
+
+/** A4 portrait content width with 40-pt side margins, pt. */
+const CONTENT_WIDTH = 595.28 - 80;
+const INK = "#1d232a";
+const MUTED = "#5d6166";
+const DRAFT_RED = "#a3241b";
+const RULE = "#c9c3b6";
+
+/** Map every string in a JSON-like value (the model is pure data) through `f`. */
+function mapStrings<T>(value: T, f: (s: string) => string): T {
+  if (typeof value === "string") return f(value) as T;
+  if (Array.isArray(value)) return value.map((v) => mapStrings(v, f)) as T;
+  if (value && typeof value === "object") {
+    const out: Record<string, unknown> = {};
+    for (const [k, v] of Object.entries(value)) out[k] = mapStrings(v, f);
+    return out as T;
+  }
+  return value;
+}
+
+function formatSignedAt(iso: string | undefined): string {
+  if (!iso) return "";
+  return `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
+}
+
+const heading = (text: string): Content => ({ text, style: "h2", margin: [0, 14, 0, 6] });
+
+const sourceRefs = (ids: string[], index: Map<string, number>): string =>
+  ids
+    .map((id) => index.get(id))
+    .filter((n): n is number => n !== undefined)
+    .map((n) => `[${n}]`)
+    .join(" ");
+
+function valuesTable(rows: ReportRow[], index: Map<string, number>): Content {
+  const head = ["Measure", "Value", "Unit", "Predicted", "% pred.", "LLN", "Method", "Sources"].map((t): TableCell => ({
+    text: t,
+    style: "th",
+  }));
+  const body: TableCell[][] = [head];
+  for (const r of rows) {
+    body.push([
+      { text: r.label, bold: true },
+      { text: r.value, alignment: "right" },
+      r.unit,
+      { text: r.predicted ?? "", alignment: "right" },
+      { text: r.pctPredicted ?? "", alignment: "right" },
+      { text: r.lln ?? "", alignment: "right" },
+      { text: r.note ? `${r.method}. ${r.note}` : r.method, color: MUTED },
+      { text: sourceRefs(r.sourceIds, index), color: MUTED },
+    ]);
+  }
+  return {
+    table: { headerRows: 1, widths: [78, 46, 44, 42, 34, 36, "*", 38], body },
+    layout: "lightHorizontalLines",
+    fontSize: 8.5,
+  };
+}
+
+/**
+ * Write the report as a PDF (A4, Helvetica, standard fonts not embedded) with pdfmake.
+ *
+ * Every page carries the clinical caution and page number in its footer; while the report is not
+ * signed every page also carries a DRAFT watermark and the draft caution in its header. Charts are
+ * the same SVG the page shows (`renderChartSvg`). All text is made WinAnsi-safe first (`toWinAnsi`).
+ * Sections: identification, key values, thresholds, charts, interpretation path, schemes, report
+ * text, data-quality issues, methods, sources (numbered, with evidence status), signature.
+ *
+ * @returns the PDF bytes (starts with "%PDF").
+ */
+export async function renderReportPdf(rawModel: ReportModel): Promise<Buffer> {
+  const model = mapStrings(rawModel, toWinAnsi);
+  const draft = model.status !== "signed";
+  const index = new Map(model.sources.map((s, i) => [s.id, i + 1]));
+  const statusLine = draft
+    ? "DRAFT - not signed"
+    : `Signed by ${model.signedBy ?? "(unknown)"} on ${formatSignedAt(model.signedAt)}`;
+
+  const content: Content[] = [
+    { text: model.title, style: "h1" },
+    { text: model.patientLine, margin: [0, 2, 0, 0] },
+    { text: model.testLine },
+    { text: `Referral question: ${model.referral}` },
+    { text: `Analysis engine version ${model.engineVersion}`, color: MUTED, fontSize: 8 },
+  ];
+  if (draft) {
+    content.push({
+      table: { widths: ["*"], body: [[{ text: model.draftMark, bold: true, color: DRAFT_RED, margin: [4, 3, 4, 3] }]] },
+      layout: {
+        hLineColor: () => DRAFT_RED,
+        vLineColor: () => DRAFT_RED,
+        hLineWidth: () => 1.2,
+        vLineWidth: () => 1.2,
+      },
+      margin: [0, 8, 0, 0],
+    });
+  }
+
+  content.push(heading("Key values"));
+  content.push(model.keyValues.length ? valuesTable(model.keyValues, index) : { text: "No values available.", color: MUTED });
+  content.push(heading("Thresholds"));
+  content.push(
+    model.thresholds.length
+      ? valuesTable(model.thresholds, index)
+      : { text: "No thresholds in this version of the analysis.", color: MUTED },
+  );
+
+  if (model.charts.length) {
+    content.push(heading("Charts"));
+    for (const spec of model.charts) {
+      content.push({
+        svg: renderChartSvg(spec, { width: CONTENT_WIDTH, height: 270, maxPointsPerSeries: 500 }),
+        width: CONTENT_WIDTH,
+        margin: [0, 4, 0, 10],
+        font: "Helvetica",
+      } as Content);
+    }
+  }
+
+  content.push(heading("Interpretation path"));
+  if (model.path.length) {
+    const body: TableCell[][] = [
+      ["Step", "Variable", "Value", "Cut-off", "Outcome", "Sources"].map((t): TableCell => ({ text: t, style: "th" })),
+      ...model.path.map((p): TableCell[] => [
+        String(p.step),
+        p.variable,
+        p.value,
+        p.cutoff,
+        p.outcome,
+        { text: sourceRefs(p.sourceIds, index), color: MUTED },
+      ]),
+    ];
+    content.push({
+      table: { headerRows: 1, widths: [24, 90, 60, 80, "*", 40], body },
+      layout: "lightHorizontalLines",
+      fontSize: 8.5,
+    });
+  } else content.push({ text: "No interpretation path in this version of the analysis.", color: MUTED });
+
+  content.push(heading("Classification schemes"));
+  if (model.schemes.length) {
+    const body: TableCell[][] = [
+      ["Scheme", "Category", "Severity", "Inputs", "Sources"].map((t): TableCell => ({ text: t, style: "th" })),
+      ...model.schemes.map((s): TableCell[] => [
+        { text: s.name, bold: true },
+        s.category,
+        String(s.severity),
+        s.inputs.join("; "),
+        { text: sourceRefs(s.sourceIds, index), color: MUTED },
+      ]),
+    ];
+    content.push({
+      table: { headerRows: 1, widths: [100, 90, 40, "*", 40], body },
+      layout: "lightHorizontalLines",
+      fontSize: 8.5,
+    });
+  } else content.push({ text: "No classification scheme in this version of the analysis.", color: MUTED });
+
+  content.push(heading(draft ? "Report text (draft)" : "Report text"));
+  for (const section of model.sections) {
+    content.push({ text: section.title, style: "h3", margin: [0, 6, 0, 2] });
+    for (const p of section.paragraphs) content.push({ text: p, margin: [0, 0, 0, 4] });
+  }
+
+  content.push(heading("Data quality"));
+  content.push(
+    model.issues.length
+      ? {
+          ul: model.issues.map((i) => ({
+            text: [{ text: `${i.severity}: `, bold: true }, i.message, { text: ` [${i.code}]`, color: MUTED }],
+          })),
+          fontSize: 8.5,
+        }
+      : { text: "No problems were found.", color: MUTED },
+  );
+
+  if (model.methods.length) {
+    content.push(heading("Methods"));
+    content.push({ ul: model.methods, fontSize: 8.5 });
+  }
+  content.push(heading("Sources"));
+  content.push(
+    model.sources.length
+      ? {
+          stack: model.sources.map((s, i) => ({
+            text: [`[${i + 1}] ${s.citation}`, { text: ` - evidence: ${s.status}`, color: MUTED }],
+            margin: [0, 0, 0, 2],
+          })),
+          fontSize: 8,
+        }
+      : { text: "No sources cited.", color: MUTED },
+  );
+
+  content.push(heading("Signature"));
+  content.push(
+    draft
+      ? { text: "Not signed.", bold: true, color: DRAFT_RED }
+      : { text: `Signed by ${model.signedBy ?? "(unknown)"} on ${formatSignedAt(model.signedAt)}.`, bold: true },
+  );
+
+  const doc: TDocumentDefinitions = {
+    pageSize: "A4",
+    pageMargins: [40, draft ? 74 : 54, 40, 52],
+    info: { title: model.title, creator: "cpet-desk", subject: draft ? "Draft CPET report" : "Signed CPET report" },
+    defaultStyle: { font: "Helvetica", fontSize: 9.5, color: INK, lineHeight: 1.15 },
+    styles: {
+      h1: { fontSize: 16, bold: true, margin: [0, 0, 0, 4] },
+      h2: { fontSize: 11.5, bold: true },
+      h3: { fontSize: 10, bold: true },
+      th: { bold: true, color: MUTED, fontSize: 8 },
+    },
+    ...(draft ? { watermark: { text: "DRAFT", color: DRAFT_RED, opacity: 0.1, bold: true, fontSize: 120 } } : {}),
+    header: (): Content => ({
+      margin: [40, 18, 40, 0],
+      stack: [
+        {
+          columns: [
+            { text: model.title, fontSize: 8.5, color: MUTED },
+            { text: statusLine, fontSize: 8.5, bold: true, alignment: "right", color: draft ? DRAFT_RED : INK },
+          ],
+        },
+        { canvas: [{ type: "line", x1: 0, y1: 3, x2: CONTENT_WIDTH, y2: 3, lineWidth: 0.5, lineColor: RULE }] },
+        ...(draft
+          ? [{ text: model.draftMark, fontSize: 8.5, bold: true, color: DRAFT_RED, margin: [0, 4, 0, 0] } as Content]
+          : []),
+      ],
+    }),
+    footer: (currentPage: number, pageCount: number): Content => ({
+      margin: [40, 8, 40, 0],
+      stack: [
+        { canvas: [{ type: "line", x1: 0, y1: 0, x2: CONTENT_WIDTH, y2: 0, lineWidth: 0.5, lineColor: RULE }] },
+        { text: model.caution, fontSize: 7.5, color: INK, margin: [0, 3, 0, 0] },
+        {
+          columns: [
+            { text: `cpet-desk, engine ${model.engineVersion}`, fontSize: 7, color: MUTED },
+            { text: `Page ${currentPage} of ${pageCount}`, fontSize: 7, color: MUTED, alignment: "right" },
+          ],
+        },
+      ],
+    }),
+    content,
+  };
+  return pdfmake.createPdf(doc).getBuffer();
+}

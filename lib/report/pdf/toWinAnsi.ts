@@ -1,0 +1,91 @@
+/**
+ * The characters beyond ASCII that the PDF standard fonts (Helvetica, WinAnsiEncoding = Windows code
+ * page 1252) can draw: Latin-1 0xA0-0xFF plus the cp1252 extras in 0x80-0x9F.
+ */
+const CP1252_EXTRAS = "€‚ƒ„…†‡ˆ‰Š‹ŒŽ‘’“”•–—˜™š›œžŸ";
+
+/** Whether one character (one code point) is drawable with WinAnsiEncoding. */
+export function isWinAnsi(char: string): boolean {
+  const code = char.codePointAt(0) ?? 0;
+  if (code === 0x0a || code === 0x09) return true;
+  if (code >= 0x20 && code <= 0x7e) return true;
+  if (code >= 0xa0 && code <= 0xff) return true;
+  return CP1252_EXTRAS.includes(char);
+}
+
+/** Readable ASCII stand-ins for characters the product's texts use that WinAnsi lacks. */
+const REPLACEMENTS: Record<string, string> = {
+  "≥": ">=",
+  "≤": "<=",
+  "≠": "!=",
+  "≈": "~",
+  "→": "->",
+  "←": "<-",
+  "↑": "up",
+  "↓": "down",
+  "−": "-",
+  "‐": "-",
+  "‑": "-",
+  "′": "'",
+  "″": '"',
+  "√": "sqrt",
+  "∞": "infinity",
+  "⋅": "·",
+  Δ: "delta",
+  δ: "delta",
+  α: "alpha",
+  β: "beta",
+  γ: "gamma",
+  λ: "lambda",
+  σ: "sigma",
+  τ: "tau",
+  μ: "µ",
+  "\u2009": " ",
+  "\u200a": " ",
+  "\u202f": " ",
+  "\u2002": " ",
+  "\u2003": " ",
+  "\u200b": "",
+  "✓": "yes",
+  "✗": "no",
+};
+
+const SUBSCRIPT_DIGITS = "₀₁₂₃₄₅₆₇₈₉";
+const SUPERSCRIPT_DIGITS = "⁰¹²³⁴⁵⁶⁷⁸⁹";
+
+/**
+ * Make text drawable with the PDF standard fonts (WinAnsi only): subscript digits become digits
+ * ("VO₂" → "VO2"), superscripts outside Latin-1 become "^n", named symbols become ASCII words or
+ * operators ("≥" → ">=", "Δ" → "delta"), accented letters outside cp1252 lose their accent
+ * (NFKD), and anything else becomes "?". Characters WinAnsi has (é, °, ±, µ, ², —, –, …) are kept.
+ */
+export function toWinAnsi(text: string): string {
+  let out = "";
+  const chars = [...text];
+  chars.forEach((ch, i) => {
+    if (isWinAnsi(ch)) {
+      out += ch;
+      return;
+    }
+    const sub = SUBSCRIPT_DIGITS.indexOf(ch);
+    if (sub >= 0) {
+      out += String(sub);
+      return;
+    }
+    const sup = SUPERSCRIPT_DIGITS.indexOf(ch);
+    if (sup >= 0) {
+      out += `^${sup}`;
+      return;
+    }
+    if (ch in REPLACEMENTS) {
+      const word = REPLACEMENTS[ch];
+      out += word;
+      // A symbol replaced by a word must not glue to what follows ("ΔVO2" → "delta VO2").
+      if (word.length > 1 && /[a-z]$/i.test(word) && /^[\p{L}\p{N}]/u.test(chars[i + 1] ?? "")) out += " ";
+      return;
+    }
+    const stripped = ch.normalize("NFKD").replace(/[\u0300-\u036f]/g, "");
+    out += [...stripped].every(isWinAnsi) && stripped.length > 0 ? stripped : "?";
+  });
+  return out;
+}

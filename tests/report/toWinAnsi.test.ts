@@ -1,0 +1,29 @@
+import { describe, expect, it } from "vitest";
+import { isWinAnsi, toWinAnsi } from "../../lib/report/pdf/toWinAnsi";
+
+// WinAnsiEncoding = Windows code page 1252 (PDF 1.7 reference, Annex D; common practice):
+// ASCII, Latin-1 0xA0-0xFF and the cp1252 extras such as — – … ‘ ’ “ ” € ™ •.
+describe("toWinAnsi", () => {
+  it("turns subscripts and symbols Helvetica cannot draw into readable ASCII", () => {
+    expect(toWinAnsi("VO₂ ≥ 80 % and VE/VCO₂ ≤ 34")).toBe("VO2 >= 80 % and VE/VCO2 <= 34");
+    expect(toWinAnsi("Δ VO2")).toBe("delta VO2");
+    expect(toWinAnsi("ΔVO2/ΔWR")).toBe("delta VO2/delta WR");
+    expect(toWinAnsi("−5 → 3")).toBe("-5 -> 3");
+    expect(toWinAnsi("10⁵")).toBe("10^5");
+    expect(toWinAnsi("μmol")).toBe("µmol");
+  });
+  it("keeps what WinAnsi has", () => {
+    const kept = "Dyspnée — 12 °C ± 2 µ ² ³ – … ‘q’ “q” € ™ • ·";
+    expect(toWinAnsi(kept)).toBe(kept);
+    for (const ch of kept) expect(isWinAnsi(ch)).toBe(true);
+  });
+  it("strips accents outside cp1252 and replaces anything else with ?", () => {
+    expect(toWinAnsi("Łódź")).toBe("?ódz"); // Ł has no decomposition → ?; ó is Latin-1, kept; ź → z
+    expect(toWinAnsi("心")).toBe("?");
+    expect(toWinAnsi("a\u202Fb")).toBe("a b");
+  });
+  it("output is always WinAnsi", () => {
+    const mixed = "VO₂ ≥ ≠ ≈ √ ∞ ★ 😀 Ω α β";
+    for (const ch of toWinAnsi(mixed)) expect(isWinAnsi(ch)).toBe(true);
+  });
+});
