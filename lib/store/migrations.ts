@@ -59,4 +59,22 @@ export const MIGRATIONS: { id: number; name: string; sql: string }[] = [
       );
     `,
   },
+  {
+    id: 2,
+    name: "make_signed_reports_immutable",
+    // A signed report never changes or disappears: a revision is a new draft row (lib/store/reports.ts).
+    sql: `
+      create trigger reports_signed_no_update before update on reports
+      when old.status = 'signed'
+      begin
+        select raise(abort, 'a signed report is immutable; save a new draft version instead');
+      end;
+      create trigger reports_signed_no_delete before delete on reports
+      when old.status = 'signed'
+      begin
+        select raise(abort, 'a signed report cannot be deleted');
+      end;
+      create index reports_by_test on reports (test_id, id);
+    `,
+  },
 ];

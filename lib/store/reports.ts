@@ -1,0 +1,153 @@
+import "server-only";
+import type { ReportSection } from "../report/reportModel";
+import { getDb } from "./db";
+import { audit } from "./tests";
+
+/**
+ * A stored report version: the editable text of one test's report for one analysis version, and its
+ * signature. A signed version is immutable (enforced by triggers, migration 2); revising it creates
+ * a new draft version, and the signed one stays.
+ */
+export interface StoredReport {
+  id: number;
+  testId: number;
+  analysisId: number;
+  /** 1-based version number among all report versions of the test, oldest first. */
+  version: number;
+  status: "draft" | "signed";
+  sections: ReportSection[];
+  signedBy: string | null;
+  /** ISO 8601 time of signature. */
+  signedAt: string | null;
+  /** The attestation text the signer confirmed. */
+  attestation: string | null;
+  createdAt: string;
+}
+
+/** JSON kept in `reports.draft_json`. */
+interface DraftJson {
+  sections: ReportSection[];
+  attestation?: string;
+}
+
+interface ReportRow {
+  id: number;
+  test_id: number;
+  analysis_id: number;
+  status: "draft" | "signed";
+  draft_json: string;
+  signed_by: string | null;
+  signed_at: string | null;
+  created_at: string;
+  version: number;
+}
+
+const now = () => new Date().toISOString();
+
+const SELECT = `select r.*, (select count(*) from reports o where o.test_id = r.test_id and o.id <= r.id) as version from reports r`;
+
+function toReport(row: ReportRow): StoredReport {
+  const json = JSON.parse(row.draft_json) as DraftJson;
+  return {
+    id: row.id,
+    testId: row.test_id,
+    analysisId: row.analysis_id,
+    version: row.version,
+    status: row.status,
+    sections: json.sections,
+    signedBy: row.signed_by,
+    signedAt: row.signed_at,
+    attestation: json.attestation ?? null,
+    createdAt: row.created_at,
+  };
+}
+
+function insertDraft(testId: number, analysisId: number, sections: ReportSection[]): number {
+  const info = getDb()
+    .prepare("insert into reports (test_id, analysis_id, status, draft_json, created_at) values (?, ?, 'draft', ?, ?)")
+    .run(testId, analysisId, JSON.stringify({ sections } satisfies DraftJson), now());
+  return Number(info.lastInsertRowid);
+}
+
+/** One report version by id, or null. */
+export function getReport(reportId: number): StoredReport | null {
+  const row = getDb().prepare(`${SELECT} where r.id = ?`).get(reportId) as ReportRow | undefined;
+  return row ? toReport(row) : null;
+}
+
+/** All report versions of a test, newest first. */
+export function listReports(testId: number): StoredReport[] {
+  return (getDb().prepare(`${SELECT} where r.test_id = ? order by r.id desc`).all(testId) as ReportRow[]).map(toReport);
+}
+
+/**
+ * The current report of a test for an analysis version: its newest report version (draft or
+ * signed). When there is none, a draft is created from `initialSections` (audit: `report-draft-created`).
+ */
+export function getOrCreateDraft(
+  testId: number,
+  analysisId: number,
+  initialSections: ReportSection[],
+  actor = "system",
+): StoredReport {
+  const db = getDb();
+  return db.transaction(() => {
+    const row = db
+      .prepare(`${SELECT} where r.test_id = ? and r.analysis_id = ? order by r.id desc limit 1`)
+      .get(testId, analysisId) as ReportRow | undefined;
+    if (row) return toReport(row);
+    const id = insertDraft(testId, analysisId, initialSections);
+    audit(actor, "report-draft-created", testId, `report ${id} for analysis ${analysisId}`);
+    return getReport(id)!;
+  })();
+}
+
+/**
+ * Save the editable text. A draft is updated in place; a signed version is left untouched and the
+ * text becomes a new draft version (same test and analysis). Returns the version that now holds the
+ * text, or null when `reportId` does not exist.
+ */
+export function saveDraft(reportId: number, sections: ReportSection[], actor: string): StoredReport | null {
+  const db = getDb();
+  return db.transaction(() => {
+    const current = getReport(reportId);
+    if (!current) return null;
+    if (current.status === "draft") {
+      db.prepare("update reports set draft_json = ? where id = ? and status = 'draft'").run(
+        JSON.stringify({ sections } satisfies DraftJson),
+        reportId,
+      );
+      audit(actor, "report-draft-saved", current.testId, `report ${reportId}`);
+      return getReport(reportId);
+    }
+    const id = insertDraft(current.testId, current.analysisId, sections);
+    audit(actor, "report-revised", current.testId, `new draft ${id} from signed report ${reportId}`);
+    return getReport(id);
+  })();
+}
+
+export type SignResult = { ok: true; report: StoredReport } | { ok: false; reason: string };
+
+/**
+ * Sign a draft: status becomes "signed" with the signer's name, the time and the attestation they
+ * confirmed; from then on the version is immutable. Signing a missing or already signed version is
+ * refused with a reason (audit: `report-signed`).
+ */
+export function signReport(reportId: number, signer: string, attestation: string): SignResult {
+  const db = getDb();
+  return db.transaction((): SignResult => {
+    const current = getReport(reportId);
+    if (!current) return { ok: false, reason: "This report version does not exist." };
+    if (current.status === "signed")
+      return { ok: false, reason: `This version was already signed by ${current.signedBy} on ${current.signedAt}.` };
+    const signedAt = now();
+    const info = db
+      .prepare(
+        "update reports set status = 'signed', signed_by = ?, signed_at = ?, draft_json = ? where id = ? and status = 'draft'",
+      )
+      .run(signer, signedAt, JSON.stringify({ sections: current.sections, attestation } satisfies DraftJson), reportId);
+    if (info.changes !== 1) return { ok: false, reason: "This version could not be signed; reload the page." };
+    audit(signer, "report-signed", current.testId, `report ${reportId} (version ${current.version}): ${attestation}`);
+    return { ok: true, report: getReport(reportId)! };
+  })();
+}
