@@ -1,0 +1,149 @@
+import { makeIssue, type Issue } from "../core";
+import { dedupeUses, evaluateCondition, type EvalContext } from "./evaluateCondition";
+import { unique, weakestStatus } from "./format";
+import { runGraph } from "./runGraph";
+import type { AxisData, BandData, SchemeData } from "./schema";
+import type { ChoiceUse, EffortResult, ReferralQuestion, SchemeAxisResult, SchemeResult } from "./types";
+
+export interface ApplySchemesOptions {
+  referral: ReferralQuestion;
+  addSchemes?: string[];
+  removeSchemes?: string[];
+}
+
+/** Which schemes apply: selected by the referral question (and by the choice that picks between alternative algorithms). */
+export function selectSchemes(ctx: EvalContext, options: ApplySchemesOptions): SchemeData[] {
+  const add = new Set(options.addSchemes ?? []);
+  const remove = new Set(options.removeSchemes ?? []);
+  return ctx.data.schemes.schemes.filter((s) => {
+    if (remove.has(s.id)) return false;
+    if (s.selectedBy && ctx.choices[s.selectedBy.choice].id !== s.selectedBy.option) return add.has(s.id);
+    return s.referrals.includes(options.referral) || add.has(s.id);
+  });
+}
+
+function evaluateAxis(
+  axis: AxisData,
+  bands: BandData[],
+  ctx: EvalContext,
+  effort: EffortResult,
+  uses: ChoiceUse[],
+  issues: Issue[],
+  schemeId: string,
+): SchemeAxisResult {
+  const base = {
+    axisId: axis.id,
+    label: axis.label,
+    sourceIds: axis.sourceIds,
+    status: axis.status,
+    inCombination: axis.inCombination ?? true,
+    ...(axis.population ? { population: axis.population } : {}),
+  };
+  if (axis.appliesWhen) {
+    const a = evaluateCondition(axis.appliesWhen, ctx);
+    uses.push(...a.choicesUsed);
+    if (a.outcome !== true) {
+      const reason = a.outcome === false ? `not applicable (${a.text})` : `applicability not assessable (${a.text})`;
+      return { ...base, inCombination: false, category: null, text: `${axis.label}: ${reason}`, reason };
+    }
+  }
+  if (axis.requiresMaximalEffort && !effort.peakConclusionsAllowed) {
+    const reason = "not assessable: maximal effort not demonstrated";
+    return { ...base, category: null, text: `${axis.label}: ${reason}`, reason };
+  }
+  const tried: string[] = [];
+  for (const b of bands) {
+    const r = evaluateCondition(b.when, ctx);
+    uses.push(...r.choicesUsed);
+    if (r.outcome === null) {
+      const reason = `not assessable (${r.text})`;
+      return { ...base, category: null, text: `${axis.label}: ${reason}`, reason };
+    }
+    if (r.outcome) {
+      return {
+        ...base,
+        sourceIds: unique([...axis.sourceIds, ...b.sourceIds]),
+        status: weakestStatus([axis.status, b.status]),
+        category: { key: b.key, label: b.label, severity: b.severity },
+        text: `${axis.label}: ${r.text} → ${b.label}`,
+      };
+    }
+    tried.push(r.text);
+  }
+  const reason = `value lies between the published bands (${tried.join("; ")})`;
+  issues.push(makeIssue("warning", "value-between-bands", `${axis.label}: ${reason}.`, { field: `${schemeId}.${axis.id}` }));
+  return { ...base, category: null, text: `${axis.label}: ${reason}`, reason };
+}
+
+/**
+ * Apply the published schemes the referral question selects (schemes.json). Each axis shows the
+ * patient's value, the band it falls in and its source; categories are neutral keys with an ordinal
+ * severity (0 = best). Graph schemes (lung resection) return their path through the algorithm.
+ */
+export function applySchemes(
+  ctx: EvalContext,
+  effort: EffortResult,
+  options: ApplySchemesOptions,
+): { schemes: SchemeResult[]; issues: Issue[] } {
+  const issues: Issue[] = [];
+  const bandSets = new Map(ctx.data.schemes.bandSets.map((b) => [b.id, b.bands]));
+  const schemes = selectSchemes(ctx, options).map((s): SchemeResult => {
+    const uses: ChoiceUse[] = [];
+    if (s.selectedBy) uses.push({ choiceId: s.selectedBy.choice, optionId: s.selectedBy.option });
+    if (s.kind === "graph") {
+      const path = runGraph(s.graph!, ctx);
+      for (const st of path.steps) for (const c of st.checks) uses.push(...c.choicesUsed);
+      const maxSeverity = Math.max(
+        0,
+        ...s.graph!.nodes.flatMap((n) => [...n.cases, n.otherwise, n.unknown]).map((b) => b.end?.severity ?? 0),
+      );
+      return {
+        schemeId: s.id,
+        name: s.name,
+        sourceIds: s.sourceIds,
+        status: s.status,
+        kind: "graph",
+        axes: [],
+        path,
+        overall: path.end ? { ...path.end, basis: "end of the algorithm" } : null,
+        maxSeverity,
+        notes: s.notes ?? [],
+        choicesUsed: dedupeUses(uses),
+      };
+    }
+    const axes = s.axes!.map((a) => evaluateAxis(a, a.bands ?? bandSets.get(a.bandSet!)!, ctx, effort, uses, issues, s.id));
+    const maxSeverity = Math.max(0, ...s.axes!.flatMap((a) => (a.bands ?? bandSets.get(a.bandSet!)!).map((b) => b.severity)));
+    let overall: SchemeResult["overall"] = null;
+    const comb = s.combination ?? { type: "none" as const };
+    let mode: string | null = comb.type === "worst" ? "worst" : null;
+    let basis = "worst of the graded variables";
+    if (comb.type === "choice") {
+      const opt = ctx.choices[comb.choice];
+      uses.push({ choiceId: comb.choice, optionId: opt.id });
+      mode = opt.mode!;
+      basis = opt.label;
+    }
+    if (mode === "worst") {
+      let worst: SchemeAxisResult | null = null;
+      for (const a of axes)
+        if (a.inCombination && a.category && (!worst || a.category.severity > worst.category!.severity)) worst = a;
+      if (worst) overall = { ...worst.category!, basis: `${basis} (${worst.label})` };
+    } else if (mode && mode.startsWith("axis:")) {
+      const a = axes.find((x) => `axis:${x.axisId}` === mode);
+      if (a?.category) overall = { ...a.category, basis };
+    }
+    return {
+      schemeId: s.id,
+      name: s.name,
+      sourceIds: s.sourceIds,
+      status: s.status,
+      kind: "bands",
+      axes,
+      overall,
+      maxSeverity,
+      notes: s.notes ?? [],
+      choicesUsed: dedupeUses(uses),
+    };
+  });
+  return { schemes, issues };
+}

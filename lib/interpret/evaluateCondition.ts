@@ -1,0 +1,191 @@
+import type { EvidenceStatus } from "../core";
+import type { InterpretationData } from "./interpretationData";
+import type { ChoiceOptionSchema, Condition } from "./schema";
+import type { ChoiceUse, ComparisonTrace, Outcome, PredictedEquationLabels, RuleResult } from "./types";
+import { variableInfo } from "./variables";
+import { OP_TEXT, formatCutoff, formatValue, unique, weakestStatus } from "./format";
+import type { z } from "zod";
+
+export type VarValue = number | string | boolean | null;
+export type ChoiceOption = z.infer<typeof ChoiceOptionSchema>;
+
+/** Everything a condition needs: the patient's variables, the data, and the lab's resolved choices. */
+export interface EvalContext {
+  vars: Readonly<Record<string, VarValue>>;
+  data: InterpretationData;
+  /** choice id → selected option. */
+  choices: Readonly<Record<string, ChoiceOption>>;
+  predicted: PredictedEquationLabels;
+  /** Memo of rule results (rules are pure functions of vars and choices). */
+  ruleCache: Map<string, RuleResult>;
+}
+
+export interface ConditionResult {
+  outcome: Outcome;
+  text: string;
+  comparisons: ComparisonTrace[];
+  choicesUsed: ChoiceUse[];
+}
+
+function chosen(ctx: EvalContext, choiceId: string, uses: ChoiceUse[]): ChoiceOption {
+  const opt = ctx.choices[choiceId];
+  if (!opt) throw new Error(`choice ${choiceId} was not resolved`);
+  uses.push({ choiceId, optionId: opt.id });
+  return opt;
+}
+
+const NEGATED: Record<string, string> = { "<": ">=", "<=": ">", ">": "<=", ">=": "<", "==": "!=", "!=": "==", in: "not in" };
+
+function compare(value: VarValue, op: string, cutoff: number | string | boolean | readonly string[]): boolean {
+  switch (op) {
+    case "<":
+      return (value as number) < (cutoff as number);
+    case "<=":
+      return (value as number) <= (cutoff as number);
+    case ">":
+      return (value as number) > (cutoff as number);
+    case ">=":
+      return (value as number) >= (cutoff as number);
+    case "==":
+      return value === cutoff;
+    case "!=":
+      return value !== cutoff;
+    case "in":
+      return (cutoff as readonly string[]).includes(String(value));
+    default:
+      throw new Error(`unknown operator ${op}`);
+  }
+}
+
+function comparisonText(
+  ctx: EvalContext,
+  variable: string,
+  value: VarValue,
+  op: string,
+  cutoff: ComparisonTrace["cutoff"],
+): string {
+  const info = variableInfo(variable);
+  const unit = info.unit ? ` ${info.unit}` : "";
+  const pred = info.predictedKey && ctx.predicted[info.predictedKey] ? ` (${ctx.predicted[info.predictedKey]})` : "";
+  if (value === null) return `${info.label}${unit ? ` (${info.unit})` : ""} not available`;
+  if (info.kind === "boolean") return `${info.label}: ${formatValue(variable, value)}`;
+  if (info.kind === "string") {
+    const c = Array.isArray(cutoff) ? cutoff.join(" / ") : String(cutoff);
+    return `${info.label} ${value} ${OP_TEXT[op]} ${c}`;
+  }
+  return `${info.label} ${formatValue(variable, value)}${unit}${pred} ${OP_TEXT[op]} ${formatCutoff(variable, cutoff as number)}${unit}`;
+}
+
+/**
+ * Evaluate a tri-state condition: true, false, or null when an input needed for the answer is missing.
+ * `all` is false if any part is false, else null if any part is null; `any` is true if any part is true,
+ * else null if any is null; `notTrue` reads null as "not true"; `atLeast n of` is decided as soon as
+ * the count of true parts (or of possible true parts) settles it.
+ */
+export function evaluateCondition(cond: Condition, ctx: EvalContext): ConditionResult {
+  const uses: ChoiceUse[] = [];
+  const comparisons: ComparisonTrace[] = [];
+  const sub = (c: Condition) => {
+    const r = evaluateCondition(c, ctx);
+    uses.push(...r.choicesUsed);
+    comparisons.push(...r.comparisons);
+    return r;
+  };
+  const done = (outcome: Outcome, text: string): ConditionResult => ({ outcome, text, comparisons, choicesUsed: uses });
+
+  if ("rule" in cond) {
+    const r = evaluateRule(cond.rule, ctx);
+    uses.push(...r.choicesUsed);
+    comparisons.push(...r.comparisons);
+    return done(r.outcome, r.outcome === null ? `${r.label}: not assessable` : r.outcome ? r.label : r.labelFalse);
+  }
+  if ("choice" in cond) {
+    const opt = chosen(ctx, cond.choice, uses);
+    const r = sub(opt.condition!);
+    return done(r.outcome, r.text);
+  }
+  if ("all" in cond || "any" in cond) {
+    const parts = ("all" in cond ? cond.all : cond.any).map(sub);
+    const isAll = "all" in cond;
+    const outs = parts.map((p) => p.outcome);
+    let outcome: Outcome;
+    if (isAll) outcome = outs.includes(false) ? false : outs.includes(null) ? null : true;
+    else outcome = outs.includes(true) ? true : outs.includes(null) ? null : false;
+    return done(outcome, parts.map((p) => p.text).join(isAll ? " and " : " or "));
+  }
+  if ("not" in cond) {
+    const r = sub(cond.not);
+    return done(r.outcome === null ? null : !r.outcome, `not (${r.text})`);
+  }
+  if ("notTrue" in cond) {
+    const r = sub(cond.notTrue);
+    return done(r.outcome !== true, `not (${r.text})`);
+  }
+  if ("atLeast" in cond) {
+    const parts = cond.of.map(sub);
+    const t = parts.filter((p) => p.outcome === true).length;
+    const u = parts.filter((p) => p.outcome === null).length;
+    const outcome: Outcome = t >= cond.atLeast ? true : t + u < cond.atLeast ? false : null;
+    return done(outcome, `at least ${cond.atLeast} of: ${parts.map((p) => p.text).join("; ")}`);
+  }
+  // comparison
+  const variable = typeof cond.var === "string" ? cond.var : chosen(ctx, cond.var.choice, uses).variable!;
+  let cutoff: ComparisonTrace["cutoff"];
+  if (cond.op === "in") cutoff = cond.values;
+  else if (typeof cond.value === "object") cutoff = chosen(ctx, cond.value.choice, uses).value!;
+  else cutoff = cond.value;
+  const raw = ctx.vars[variable];
+  const value: VarValue = raw === undefined || (typeof raw === "number" && !Number.isFinite(raw)) ? null : raw;
+  const outcome: Outcome = value === null ? null : compare(value, cond.op, cutoff);
+  // The text always states what is true of the patient: a failed comparison shows the negated operator.
+  const text = comparisonText(ctx, variable, value, outcome === false ? NEGATED[cond.op] : cond.op, cutoff);
+  const info = variableInfo(variable);
+  comparisons.push({ variable, label: info.label, unit: info.unit, value, op: cond.op, cutoff, outcome, text });
+  return done(outcome, text);
+}
+
+/** Evaluate a rule by id (memoised in the context): its finding, readable line, sources and status. */
+export function evaluateRule(ruleId: string, ctx: EvalContext): RuleResult {
+  const cached = ctx.ruleCache.get(ruleId);
+  if (cached) return cached;
+  const rule = ctx.data.ruleById.get(ruleId);
+  if (!rule) throw new Error(`unknown rule ${ruleId}`);
+  const r = evaluateCondition(rule.when, ctx);
+  const uses = dedupeUses(r.choicesUsed);
+  const options = uses.map((u) => ctx.choices[u.choiceId]);
+  const status: EvidenceStatus = weakestStatus([rule.status, ...options.map((o) => o.status)]);
+  const outcomeText = r.outcome === null ? "not assessable" : r.outcome ? rule.label : rule.labelFalse;
+  const result: RuleResult = {
+    ruleId,
+    outcome: r.outcome,
+    label: rule.label,
+    labelFalse: rule.labelFalse,
+    text: `${r.text} → ${outcomeText}`,
+    comparisons: r.comparisons,
+    sourceIds: unique([...rule.sourceIds, ...options.flatMap((o) => o.sourceIds)]),
+    status,
+    choicesUsed: uses,
+    ...(rule.note ? { note: rule.note } : {}),
+  };
+  ctx.ruleCache.set(ruleId, result);
+  return result;
+}
+
+export function dedupeUses(uses: readonly ChoiceUse[]): ChoiceUse[] {
+  const seen = new Map<string, ChoiceUse>();
+  for (const u of uses) seen.set(`${u.choiceId}:${u.optionId}`, u);
+  return [...seen.values()];
+}
+
+/** The variables a condition reads (through rules and the chosen options). */
+export function conditionVariables(cond: Condition, ctx: EvalContext, out: Set<string> = new Set()): Set<string> {
+  if ("rule" in cond) conditionVariables(ctx.data.ruleById.get(cond.rule)!.when, ctx, out);
+  else if ("choice" in cond) conditionVariables(ctx.choices[cond.choice].condition!, ctx, out);
+  else if ("all" in cond) cond.all.forEach((c) => conditionVariables(c, ctx, out));
+  else if ("any" in cond) cond.any.forEach((c) => conditionVariables(c, ctx, out));
+  else if ("not" in cond) conditionVariables(cond.not, ctx, out);
+  else if ("notTrue" in cond) conditionVariables(cond.notTrue, ctx, out);
+  else if ("atLeast" in cond) cond.of.forEach((c) => conditionVariables(c, ctx, out));
+  else out.add(typeof cond.var === "string" ? cond.var : ctx.choices[cond.var.choice].variable!);
+  return out;
+}

@@ -1,0 +1,46 @@
+import type { EvidenceStatus } from "../core";
+import { formatNumber } from "../units";
+import { variableInfo } from "./variables";
+
+const STRENGTH: Record<EvidenceStatus, number> = { recalled: 0, "common-practice": 1, secondary: 2, confirmed: 3 };
+
+/** The weakest of several evidence statuses (a conclusion is only as strong as its weakest input). */
+export function weakestStatus(statuses: readonly EvidenceStatus[]): EvidenceStatus {
+  let out: EvidenceStatus = "confirmed";
+  for (const s of statuses) if (STRENGTH[s] < STRENGTH[out]) out = s;
+  return out;
+}
+
+function literalDecimals(n: number): number {
+  const s = String(n);
+  const i = s.indexOf(".");
+  return i < 0 ? 0 : s.length - i - 1;
+}
+
+/** A variable's value for display, with the variable's decimals. */
+export function formatValue(variable: string, value: number | string | boolean | null | undefined): string {
+  if (value === null || value === undefined) return "not available";
+  if (typeof value === "boolean") return value ? "yes" : "no";
+  if (typeof value === "string") return value;
+  return formatNumber(value, variableInfo(variable).decimals ?? 0);
+}
+
+/** A cut-off for display: at least the variable's decimals, never fewer than the literal has. */
+export function formatCutoff(variable: string, cutoff: number): string {
+  return formatNumber(cutoff, Math.max(variableInfo(variable).decimals ?? 0, literalDecimals(cutoff)));
+}
+
+export const OP_TEXT: Record<string, string> = {
+  "<": "<",
+  "<=": "≤",
+  ">": ">",
+  ">=": "≥",
+  "==": "=",
+  "!=": "≠",
+  in: "in",
+  "not in": "not in",
+};
+
+export function unique<T>(items: readonly T[]): T[] {
+  return [...new Set(items)];
+}

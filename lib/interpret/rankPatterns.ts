@@ -1,0 +1,81 @@
+import { conditionVariables, evaluateRule, type EvalContext } from "./evaluateCondition";
+import type { EffortResult, PatternFeatureResult, PatternResult } from "./types";
+import { variableInfo } from "./variables";
+
+const LEVEL_RANK: Record<PatternResult["support"], number> = {
+  strong: 4,
+  moderate: 3,
+  weak: 2,
+  "not-supported": 1,
+  "not-assessable": 0,
+};
+
+/**
+ * Limitation patterns (patterns.json) with the evidence for and against each from this test, ranked
+ * by support. Never a single diagnosis: every pattern is worded "consistent with ...". When effort is
+ * not shown to be maximal, features resting on effort-dependent values are not assessable (except for
+ * patterns that describe effort itself).
+ */
+export function rankPatterns(ctx: EvalContext, effort: EffortResult): PatternResult[] {
+  const { supportLevels, patterns } = ctx.data.patterns;
+  const results = patterns.map((p): PatternResult => {
+    const features: PatternFeatureResult[] = p.features.map((f) => {
+      const rule = evaluateRule(f.rule, ctx);
+      const masked =
+        !effort.peakConclusionsAllowed &&
+        !p.usesEffortDependent &&
+        [...conditionVariables({ rule: f.rule }, ctx)].some((v) => variableInfo(v).effortDependent);
+      const evidence: PatternFeatureResult["evidence"] =
+        masked || rule.outcome === null ? "not-assessable" : rule.outcome === f.expect ? "for" : "against";
+      const text = masked ? `${rule.label}: not assessable (maximal effort not demonstrated)` : rule.text;
+      return { ruleId: f.rule, expected: f.expect, weight: f.weight, key: Boolean(f.key), evidence, text };
+    });
+    const forF = features.filter((f) => f.evidence === "for");
+    const against = features.filter((f) => f.evidence === "against");
+    const na = features.filter((f) => f.evidence === "not-assessable");
+    const wFor = forF.reduce((s, f) => s + f.weight, 0);
+    const wAgainst = against.reduce((s, f) => s + f.weight, 0);
+    const score = wFor + wAgainst > 0 ? wFor / (wFor + wAgainst) : null;
+    let support: PatternResult["support"];
+    if (score === null) support = "not-assessable";
+    else if (against.some((f) => f.key)) support = "not-supported";
+    else if (
+      score >= supportLevels.strong &&
+      forF.length >= supportLevels.minFor &&
+      features.filter((f) => f.key).every((f) => f.evidence === "for")
+    )
+      support = "strong";
+    else if (score >= supportLevels.moderate) support = "moderate";
+    else if (score > 0) support = "weak";
+    else support = "not-supported";
+    if (na.some((f) => f.key) && (support === "strong" || support === "moderate")) support = "weak";
+    const statement =
+      support === "not-assessable"
+        ? `Whether the findings are consistent with ${p.consistentWith} cannot be assessed from the data available.`
+        : support === "not-supported"
+          ? `The findings are not consistent with ${p.consistentWith}.`
+          : `The findings are consistent with ${p.consistentWith} (${support} support).`;
+    return {
+      patternId: p.id,
+      label: p.label,
+      statement,
+      support,
+      score,
+      for: forF,
+      against,
+      notAssessable: na,
+      sourceIds: p.sourceIds,
+      status: p.status,
+    };
+  });
+  return results
+    .map((r, i) => ({ r, i }))
+    .sort(
+      (a, b) =>
+        LEVEL_RANK[b.r.support] - LEVEL_RANK[a.r.support] ||
+        (b.r.score ?? -1) - (a.r.score ?? -1) ||
+        b.r.for.reduce((s, f) => s + f.weight, 0) - a.r.for.reduce((s, f) => s + f.weight, 0) ||
+        a.i - b.i,
+    )
+    .map((x) => x.r);
+}

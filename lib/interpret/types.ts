@@ -1,0 +1,326 @@
+import type { Ergometer, EvidenceStatus, Issue, Sex } from "../core";
+
+/** Why the test was requested; selects which published schemes are applied. */
+export type ReferralQuestion =
+  "general" | "heart-failure" | "pre-operative" | "lung-resection" | "pulmonary-hypertension" | "transplant" | "training";
+
+export const REFERRAL_QUESTIONS: readonly ReferralQuestion[] = [
+  "general",
+  "heart-failure",
+  "pre-operative",
+  "lung-resection",
+  "pulmonary-hypertension",
+  "transplant",
+  "training",
+];
+
+/** A number that may be missing: `null`/`undefined` = not measured or not determinable. */
+export type Maybe<T> = T | null | undefined;
+
+/**
+ * Flat record of measured values that interpretation reads. Canonical units are in each name.
+ * The analysis layer maps the measurement engine's results into this record; every field is optional.
+ */
+export interface InterpretValues {
+  /** Peak VO2, mL/min (highest averaged value at end-exercise). */
+  peakVo2MlMin?: Maybe<number>;
+  /** Peak VO2 per kg body weight, mL/kg/min. Derived from peakVo2MlMin / weightKg when missing. */
+  peakVo2MlKgMin?: Maybe<number>;
+  /** Peak VO2 as % of the predicted value (equation named in `predictedEquations.peakVo2`). */
+  peakVo2PctPred?: Maybe<number>;
+  /** Peak VO2 per kg lean body mass, mL/kg/min (ISHLT criterion when BMI >30). */
+  peakVo2LeanMlKgMin?: Maybe<number>;
+  /** Peak work rate, W. */
+  peakWorkW?: Maybe<number>;
+  /** VO2 plateau present at peak (by the lab's plateau definition). */
+  vo2Plateau?: Maybe<boolean>;
+  /** Whether VT1 (AT) was determined at all. */
+  vt1Determined?: Maybe<boolean>;
+  /** VO2 at VT1, mL/min. */
+  vt1Vo2MlMin?: Maybe<number>;
+  /** VO2 at VT1, mL/kg/min. Derived from vt1Vo2MlMin / weightKg when missing. */
+  vt1Vo2MlKgMin?: Maybe<number>;
+  /** VO2 at VT1 as % of predicted peak VO2. */
+  vt1PctPredPeakVo2?: Maybe<number>;
+  /** VO2 at VT1 as % of measured peak VO2. */
+  vt1PctPeak?: Maybe<number>;
+  /** Peak respiratory exchange ratio (dimensionless). */
+  peakRer?: Maybe<number>;
+  /** Peak heart rate, beats/min. */
+  peakHrBpm?: Maybe<number>;
+  /** Resting heart rate, beats/min. */
+  restHrBpm?: Maybe<number>;
+  /** Peak HR as % of predicted maximal HR (equation in `predictedEquations.hrMax`). */
+  hrPctPred?: Maybe<number>;
+  /** HR reserve = predicted maximal HR − peak HR, beats/min. */
+  hrReserveBpm?: Maybe<number>;
+  /** Chronotropic index (HRpeak − HRrest)/(HRpred − HRrest), dimensionless. */
+  chronotropicIndex?: Maybe<number>;
+  /** HR recovery 1 min after stopping = HRpeak − HR(1 min), beats/min. */
+  hrr1Bpm?: Maybe<number>;
+  /** Peak O2 pulse, mL/beat. */
+  o2PulsePeakMlBeat?: Maybe<number>;
+  /** Peak O2 pulse as % predicted. */
+  o2PulsePctPred?: Maybe<number>;
+  /** O2 pulse flat or falling in the late exercise phase. */
+  o2PulsePlateau?: Maybe<boolean>;
+  /** ΔVO2/ΔWR, mL/min/W (incremental phase). */
+  dVo2dWr?: Maybe<number>;
+  /** VE/VCO2 slope from start of exercise to RCP (dimensionless). */
+  veVco2SlopeToRcp?: Maybe<number>;
+  /** VE/VCO2 slope over the whole exercise phase (dimensionless). */
+  veVco2SlopeWhole?: Maybe<number>;
+  /** Lowest VE/VCO2 (dimensionless). */
+  veVco2Nadir?: Maybe<number>;
+  /** VE/VCO2 at VT1 (dimensionless). */
+  veVco2AtVt1?: Maybe<number>;
+  /** Resting PETCO2, mmHg. */
+  petco2RestMmHg?: Maybe<number>;
+  /** PETCO2 rise from rest to VT1, mmHg. */
+  petco2RiseMmHg?: Maybe<number>;
+  /** Oxygen uptake efficiency slope, mL/min per log10(L/min) (Baba 1996 form). */
+  oues?: Maybe<number>;
+  /** Exercise oscillatory ventilation present (by the definition the lab chose). */
+  eovPresent?: Maybe<boolean>;
+  /** Breathing reserve MVV − VEpeak, L/min. */
+  breathingReserveLMin?: Maybe<number>;
+  /** Breathing reserve as % of MVV = 100·(1 − VEpeak/MVV). */
+  breathingReservePct?: Maybe<number>;
+  /** Peak VE as % of MVV. */
+  veMvvPct?: Maybe<number>;
+  /** Peak breathing frequency, breaths/min. */
+  rrPeak?: Maybe<number>;
+  /** Resting SpO2, %. */
+  spo2RestPct?: Maybe<number>;
+  /** Fall of SpO2 from rest to its lowest exercise value, percentage points (positive = fall). */
+  spo2Fall?: Maybe<number>;
+  /** Lowest SpO2 during exercise, %. */
+  spo2Min?: Maybe<number>;
+  /** Arterial PO2 at peak, mmHg. */
+  paO2?: Maybe<number>;
+  /** Dead-space fraction VD/VT at peak (arterial PaCO2 based), dimensionless. */
+  vdvtPeak?: Maybe<number>;
+  /** FEV1, % predicted. */
+  fev1PctPred?: Maybe<number>;
+  /** DLCO, % predicted. */
+  dlcoPctPred?: Maybe<number>;
+  /** Functional lung segments to be resected (lung-resection referral). */
+  resectedSegments?: Maybe<number>;
+  /** Stair-climb height achieved, m (ACCP 2013 low-technology test). */
+  stairClimbM?: Maybe<number>;
+  /** Shuttle walk distance, m (ACCP 2013 low-technology test). */
+  shuttleWalkM?: Maybe<number>;
+  /** Known ischaemic heart disease (pre-operative schemes). */
+  ischaemicHeartDisease?: Maybe<boolean>;
+}
+
+export interface InterpretPatient {
+  sex?: Sex;
+  ageY?: Maybe<number>;
+  heightCm?: Maybe<number>;
+  weightKg?: Maybe<number>;
+  /** Body-mass index, kg/m². Derived from weight and height when missing. */
+  bmi?: Maybe<number>;
+  betaBlocker?: Maybe<boolean>;
+  /** Haemoglobin, g/dL. */
+  haemoglobinGDl?: Maybe<number>;
+}
+
+/** Short names of the reference equations behind % predicted values, shown beside them (e.g. "Hansen 1984"). */
+export interface PredictedEquationLabels {
+  peakVo2?: string;
+  hrMax?: string;
+  o2Pulse?: string;
+  mvv?: string;
+  fev1?: string;
+  dlco?: string;
+}
+
+export interface InterpretInput {
+  patient: InterpretPatient;
+  referral: ReferralQuestion;
+  ergometer?: Ergometer;
+  values: InterpretValues;
+  predictedEquations?: PredictedEquationLabels;
+}
+
+/** The lab's choices where published cut-offs disagree, and which schemes to add or drop. */
+export interface InterpretSettings {
+  /** choice id → option id (see `listCutoffChoices()`); unlisted choices take their documented default. */
+  choices?: Record<string, string>;
+  /** Scheme ids to apply in addition to those the referral question selects. */
+  addSchemes?: string[];
+  /** Scheme ids to leave out. */
+  removeSchemes?: string[];
+}
+
+export type Outcome = boolean | null;
+
+/** One comparison as evaluated: the patient's value against a cut-off. */
+export interface ComparisonTrace {
+  variable: string;
+  label: string;
+  unit: string;
+  value: number | string | boolean | null;
+  op: string;
+  cutoff: number | string | boolean | readonly string[];
+  outcome: Outcome;
+  text: string;
+}
+
+export interface ChoiceUse {
+  choiceId: string;
+  optionId: string;
+}
+
+export interface RuleResult {
+  ruleId: string;
+  /** true = finding present, false = absent, null = not assessable (input missing or effort inadequate). */
+  outcome: Outcome;
+  /** Label of the finding when present / absent. */
+  label: string;
+  labelFalse: string;
+  /** Readable line with the patient's values, e.g. "Peak VO2 62 % predicted (Hansen 1984) < 85 → reduced". */
+  text: string;
+  comparisons: ComparisonTrace[];
+  sourceIds: string[];
+  status: EvidenceStatus;
+  choicesUsed: ChoiceUse[];
+  note?: string;
+}
+
+export interface EffortResult {
+  /** Verdict key from effort.json, e.g. "maximal", "physiological-limit", "submaximal", "not-assessable". */
+  verdict: string;
+  label: string;
+  severity: number;
+  /** Whether conclusions from peak (effort-dependent) values may be drawn. */
+  peakConclusionsAllowed: boolean;
+  criteria: RuleResult[];
+  text: string;
+}
+
+export interface PathStep {
+  nodeId: string;
+  title: string;
+  checks: RuleResult[];
+  /** Outcome key of the branch taken, e.g. "reduced", "not-assessable". */
+  outcome: string;
+  /** Finding in plain words for this step. */
+  finding: string;
+  /** The step as one readable line. */
+  text: string;
+  sourceIds: string[];
+  status: EvidenceStatus;
+  next: string | null;
+}
+
+export interface GraphEnd {
+  key: string;
+  label: string;
+  severity: number;
+}
+
+export interface PathResult {
+  steps: PathStep[];
+  end: GraphEnd | null;
+}
+
+export interface PatternFeatureResult {
+  ruleId: string;
+  expected: boolean;
+  weight: number;
+  key: boolean;
+  /** "for" when the finding matches the pattern, "against" when it contradicts it, "not-assessable" otherwise. */
+  evidence: "for" | "against" | "not-assessable";
+  text: string;
+}
+
+export interface PatternResult {
+  patternId: string;
+  label: string;
+  /** Always "consistent with ..." wording, never a diagnosis. */
+  statement: string;
+  support: "strong" | "moderate" | "weak" | "not-supported" | "not-assessable";
+  /** Weighted share of assessable features that fit, 0..1 (null when nothing assessable). */
+  score: number | null;
+  for: PatternFeatureResult[];
+  against: PatternFeatureResult[];
+  notAssessable: PatternFeatureResult[];
+  sourceIds: string[];
+  status: EvidenceStatus;
+}
+
+export interface BandResult {
+  key: string;
+  label: string;
+  severity: number;
+}
+
+export interface SchemeAxisResult {
+  axisId: string;
+  label: string;
+  /** Null when not assessable or when the value falls between published bands. */
+  category: BandResult | null;
+  text: string;
+  reason?: string;
+  sourceIds: string[];
+  status: EvidenceStatus;
+  inCombination: boolean;
+  population?: string;
+}
+
+export interface SchemeResult {
+  schemeId: string;
+  name: string;
+  sourceIds: string[];
+  status: EvidenceStatus;
+  kind: "bands" | "graph";
+  axes: SchemeAxisResult[];
+  /** Graph schemes: the path through the algorithm. */
+  path?: PathResult;
+  overall: (BandResult & { basis: string }) | null;
+  /** Highest severity in this scheme (for ordering); number of levels is `maxSeverity + 1`. */
+  maxSeverity: number;
+  notes: string[];
+  choicesUsed: ChoiceUse[];
+}
+
+export interface CutoffChoiceOption {
+  id: string;
+  label: string;
+  sourceIds: string[];
+  status: EvidenceStatus;
+  note?: string;
+}
+
+export interface CutoffChoice {
+  id: string;
+  label: string;
+  description: string;
+  defaultOptionId: string;
+  options: CutoffChoiceOption[];
+}
+
+export interface SettingUsed {
+  choiceId: string;
+  label: string;
+  optionId: string;
+  optionLabel: string;
+  isDefault: boolean;
+  sourceIds: string[];
+  status: EvidenceStatus;
+}
+
+export interface Interpretation {
+  referral: ReferralQuestion;
+  effort: EffortResult;
+  path: PathResult;
+  patterns: PatternResult[];
+  schemes: SchemeResult[];
+  /** Every rule evaluated, by id (for the UI's "how was this found?"). */
+  rules: Record<string, RuleResult>;
+  issues: Issue[];
+  settingsUsed: SettingUsed[];
+  sourceIds: string[];
+}
