@@ -1,0 +1,42 @@
+import { describe, it, expect } from "vitest";
+import { measured, notDetermined } from "../../lib/core";
+import { breathingReserve } from "../../lib/thresholds/breathingReserve";
+
+const ve = (v: number) => measured(v, "L/min", { method: "test", label: "peak VE", sourceIds: [] });
+
+describe("breathing reserve", () => {
+  it("FEV1 3.2 L → MVV 128 (×40) or 112 (×35) L/min (clinical-reference §2 worked example)", () => {
+    expect(breathingReserve(ve(100), { fev1L: 3.2 }, { mvvChoice: "fev1x40" }).mvvLMin.value).toBeCloseTo(128, 9);
+    const r35 = breathingReserve(ve(100), { fev1L: 3.2 }, { mvvChoice: "fev1x35" });
+    expect(r35.mvvLMin.value).toBeCloseTo(112, 9);
+    expect(r35.mvvLMin.provenance.sourceIds).toEqual(["mvv-fev1x35", "otto-yanez-2020"]);
+  });
+
+  it("BR, BR% and VE/MVV by hand: MVV 128, VE 100 → 28 L/min, 21.875%, 78.125%", () => {
+    const r = breathingReserve(ve(100), { fev1L: 3.2 }, { mvvChoice: "fev1x40" });
+    expect(r.reserveLMin.value).toBeCloseTo(28, 9);
+    expect(r.reservePercent.value).toBeCloseTo(21.875, 9);
+    expect(r.veMvvPercent.value).toBeCloseTo(78.125, 9);
+  });
+
+  it("default: measured MVV when present; else FEV1 × 40 with an info issue; else not determinable", () => {
+    const m = breathingReserve(ve(100), { fev1L: 3.2, mvvLMin: 150 });
+    expect(m.mvvChoice).toBe("measured");
+    expect(m.mvvLMin.value).toBe(150);
+    expect(m.issues).toHaveLength(0);
+    const e = breathingReserve(ve(100), { fev1L: 3.2 });
+    expect(e.mvvChoice).toBe("fev1x40");
+    expect(e.issues.map((i) => i.code)).toEqual(["mvv-estimated"]);
+    const none = breathingReserve(ve(100), undefined);
+    expect(none.veMvvPercent.value).toBeNull();
+    expect(none.veMvvPercent.reason).toMatch(/no spirometry/);
+  });
+
+  it("peak VE not determinable → BR not determinable with its reason", () => {
+    const r = breathingReserve(notDetermined("L/min", { method: "x", label: "x", sourceIds: [] }, "no VE column"), {
+      mvvLMin: 120,
+    });
+    expect(r.reserveLMin.value).toBeNull();
+    expect(r.reserveLMin.reason).toBe("no VE column");
+  });
+});

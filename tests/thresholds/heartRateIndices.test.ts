@@ -1,0 +1,75 @@
+import { describe, it, expect } from "vitest";
+import { measured } from "../../lib/core";
+import { heartRateIndices } from "../../lib/thresholds/heartRateIndices";
+import { buildRows, EX_END_S, freezeTest, makeTest } from "./indicesFixture";
+
+const peak = (v: number) => measured(v, "1/min", { method: "test", label: "peak HR", sourceIds: [] });
+// Invented: rest 70 bpm; recovery HR falls from 150 at 780 s by `dropPerMin` bpm per minute.
+function withRecovery(dropPerMin: number) {
+  return makeTest(
+    buildRows((t, phase) => ({
+      hrBpm:
+        phase === "rest" ? 70 : phase === "exercise" ? 70 + ((t - 180) / 600) * 80 : 150 - (dropPerMin * (t - EX_END_S)) / 60,
+    })),
+  );
+}
+
+describe("heart-rate indices", () => {
+  it("chronotropic index exactly 0.80 is not impaired (Cole 1999: impaired < 0.80)", () => {
+    // (150 − 70)/(170 − 70) = 0.80
+    const r = heartRateIndices(freezeTest(withRecovery(12)), {
+      peakHr: peak(150),
+      predictedHrMaxBpm: 170,
+      predictedHrMaxEquationId: "jones-1985-hrmax",
+    });
+    expect(r.restingBpm.value).toBeCloseTo(70, 9);
+    expect(r.chronotropicIndex.value).toBeCloseTo(0.8, 12);
+    expect(r.chronotropicImpaired).toBe(false);
+    expect(r.reserveBpm.value).toBe(20);
+    expect(r.percentPredicted.value).toBeCloseTo((100 * 150) / 170, 9);
+    expect(r.predictedMaxBpm.provenance.sourceIds).toEqual(["jones-1985-hrmax"]);
+  });
+
+  it("chronotropic index 0.79 is impaired; on beta-blockers the recalled 0.62 cut-off applies", () => {
+    // (149 − 70)/(170 − 70) = 0.79
+    const r = heartRateIndices(withRecovery(12), { peakHr: peak(149), predictedHrMaxBpm: 170 });
+    expect(r.chronotropicImpaired).toBe(true);
+    const b = heartRateIndices(withRecovery(12), { peakHr: peak(149), predictedHrMaxBpm: 170, betaBlocker: true });
+    expect(b.chronotropicCutoff).toBe(0.62);
+    expect(b.chronotropicImpaired).toBe(false);
+    expect(b.chronotropicIndex.provenance.sourceIds).toContain("brubaker-kitzman-beta-blocker");
+  });
+
+  it("HR recovery exactly 12 bpm at 1 min is abnormal (Cole 1999: ≤ 12); 13 is not", () => {
+    const r = heartRateIndices(withRecovery(12), { peakHr: peak(150), predictedHrMaxBpm: 170 });
+    expect(r.recovery1MinBpm.value).toBeCloseTo(12, 9);
+    expect(r.recovery1MinAbnormal).toBe(true);
+    const s = heartRateIndices(withRecovery(13), { peakHr: peak(150), predictedHrMaxBpm: 170 });
+    expect(s.recovery1MinBpm.value).toBeCloseTo(13, 9);
+    expect(s.recovery1MinAbnormal).toBe(false);
+  });
+
+  it("HR recovery at 2 min: 21 bpm/min → 42 is abnormal (Cole 2000: ≤ 42); 22 bpm/min → 44 is not", () => {
+    expect(heartRateIndices(withRecovery(21), { peakHr: peak(150) }).recovery2MinAbnormal).toBe(true);
+    const r = heartRateIndices(withRecovery(22), { peakHr: peak(150) });
+    expect(r.recovery2MinBpm.value).toBeCloseTo(44, 9);
+    expect(r.recovery2MinAbnormal).toBe(false);
+  });
+
+  it("without an equation: 220 − age (Fox, as used by Cole 1999) with an info issue", () => {
+    const r = heartRateIndices(withRecovery(12), { peakHr: peak(150), ageY: 50 });
+    expect(r.predictedMaxBpm.value).toBe(170);
+    expect(r.issues.map((i) => i.code)).toContain("hrmax-default-equation");
+    const none = heartRateIndices(withRecovery(12), { peakHr: peak(150) });
+    expect(none.chronotropicIndex.value).toBeNull();
+    expect(none.chronotropicImpaired).toBeNull();
+  });
+
+  it("no recovery data → HR recovery not determinable", () => {
+    const t = withRecovery(12);
+    const cut = { ...t, clean: t.clean.filter((r) => r.timeS <= EX_END_S) };
+    const r = heartRateIndices(cut, { peakHr: peak(150), predictedHrMaxBpm: 170 });
+    expect(r.recovery1MinBpm.value).toBeNull();
+    expect(r.recovery1MinAbnormal).toBeNull();
+  });
+});

@@ -1,0 +1,72 @@
+import { describe, it, expect } from "vitest";
+import { measurePeaks } from "../../lib/thresholds/measurePeaks";
+import { freezeTest, standardRamp } from "./indicesFixture";
+
+// Invented ramp (see indicesFixture.standardRamp); answers by hand below.
+describe("measurePeaks on an invented ramp", () => {
+  const test = freezeTest(standardRamp());
+  const p = measurePeaks(test, { windowS: 30, weightKg: 70, vt1: { timeS: 420, vo2MlMin: 1480 } });
+
+  it("peak VO2 is the mean of the last 30-s window", () => {
+    // window [750, 780]: breaths 750..780 every 3 s (11), mean t = 765 → VO2 = 1000 + 2·585 = 2170
+    expect(p.vo2MlMin.value).toBeCloseTo(2170, 9);
+    expect(p.vo2MlMin.provenance.window).toEqual({ startS: 750, endS: 780 });
+    expect(p.vo2MlMin.provenance.sourceIds).toContain("peak-rolling-average");
+    // 2170 / 70 = 31.0
+    expect(p.vo2MlKgMin.value).toBeCloseTo(31, 9);
+  });
+
+  it("RER at the peak-VO2 window is the ratio of window means", () => {
+    // VCO2 = 1.2·VO2 − 300 → mean VCO2 = 1.2·2170 − 300 = 2304; 2304/2170 = 1.0617511...
+    expect(p.rerAtPeakVo2.value).toBeCloseTo(2304 / 2170, 9);
+    // RER = 1.2 − 300/meanVO2 rises with VO2, so the highest window is the last one
+    expect(p.rerMax.value).toBeCloseTo(2304 / 2170, 9);
+  });
+
+  it("HR, work, O2 pulse, VE, VCO2", () => {
+    // HR mean over the last window: 60 + 0.2·585 = 177
+    expect(p.hrBpm.value).toBeCloseTo(177, 9);
+    // highest work reached: (780 − 180)/3 = 200 W
+    expect(p.workW.value).toBe(200);
+    // O2 pulse = 2170/177 = 12.2598870...
+    expect(p.o2PulseMlBeat.value).toBeCloseTo(2170 / 177, 9);
+    expect(p.vco2MlMin.value).toBeCloseTo(2304, 9);
+    // VE = 25·2.304 + 3 = 60.6
+    expect(p.veLMin.value).toBeCloseTo(60.6, 9);
+    expect(p.speedKmh.value).toBeNull();
+    expect(p.speedKmh.reason).toMatch(/no speed/);
+  });
+
+  it("PETCO2 at rest, peak, rise and at VT1", () => {
+    expect(p.petco2RestMmHg.value).toBeCloseTo(36, 9);
+    // best window [465, 495] centred on the tent's top: mean |t − 480| = 2·(15+12+9+6+3)/11 = 90/11
+    // → 42 − 0.02·90/11 = 41.836363...
+    expect(p.petco2PeakMmHg.value).toBeCloseTo(42 - (0.02 * 90) / 11, 9);
+    expect(p.petco2RiseMmHg.value).toBeCloseTo(42 - (0.02 * 90) / 11 - 36, 9);
+    // at VT1 (420 s), centred 30-s window [405, 435]: symmetric on the rising limb → 42 − 0.02·60 = 40.8
+    expect(p.petco2AtVt1MmHg.value).toBeCloseTo(40.8, 9);
+  });
+
+  it("lowest SpO2 and durations", () => {
+    // lowest window is the last: 97 − 0.01·585 = 91.15
+    expect(p.spo2LowestPct.value).toBeCloseTo(91.15, 9);
+    expect(p.testDurationS.value).toBe(960);
+    expect(p.exerciseDurationS.value).toBe(600);
+  });
+
+  it("a longer window lowers the peak of a rising signal (60-s: mean t = 750 → 2140)", () => {
+    const p60 = measurePeaks(test, { windowS: 60 });
+    expect(p60.vo2MlMin.value).toBeCloseTo(2140, 9);
+    expect(p60.vo2MlMin.provenance.method).toBe("peak-rolling-60s");
+    expect(p60.vo2MlKgMin.value).toBeNull();
+    expect(p60.vo2MlKgMin.reason).toBe("body mass not given");
+  });
+
+  it("no exercise phase: whole record used, with a warning; empty test is not determinable", () => {
+    const q = measurePeaks({ ...standardRamp(), exercise: null });
+    expect(q.issues.map((i) => i.code)).toContain("exercise-phase-unknown");
+    const empty = measurePeaks({ ...standardRamp(), clean: [], averaged: [], exercise: null });
+    expect(empty.vo2MlMin.value).toBeNull();
+    expect(empty.testDurationS.value).toBeNull();
+  });
+});

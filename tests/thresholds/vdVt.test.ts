@@ -1,0 +1,36 @@
+import { describe, it, expect } from "vitest";
+import { vdVt } from "../../lib/thresholds/vdVt";
+import { buildRows, makeTest } from "./indicesFixture";
+
+// Invented: VE/VCO2 fixed at 30 (VCO2 1000 mL/min, VE 30 L/min).
+describe("VD/VT (Bohr-Enghoff form, recalled)", () => {
+  const test = makeTest(buildRows(() => ({ vco2MlMin: 1000, veLMin: 30 })));
+
+  it("PaCO2 40 mmHg, VE/VCO2 30 → 1 − 863/1200 = 0.280833…", () => {
+    const r = vdVt(test, [
+      { timeS: 120, paCO2MmHg: 40, label: "rest" },
+      { timeS: 700, paCO2MmHg: 35, label: "peak" },
+    ]);
+    expect(r.points).toHaveLength(2);
+    expect(r.points[0].veVco2.value).toBeCloseTo(30, 9);
+    expect(r.points[0].vdVt.value).toBeCloseTo(1 - 863 / 1200, 12);
+    // 1 − 863/(35·30) = 1 − 863/1050 = 0.178095…
+    expect(r.points[1].vdVt.value).toBeCloseTo(1 - 863 / 1050, 12);
+    expect(r.points[1].vdVt.provenance.sourceIds).toEqual(["bohr-enghoff", "hansen-1984"]);
+  });
+
+  it("samples without PaCO2 are skipped; non-positive PaCO2 raises a warning", () => {
+    const r = vdVt(test, [
+      { timeS: 100, paO2MmHg: 90 },
+      { timeS: 200, paCO2MmHg: 0 },
+    ]);
+    expect(r.points).toHaveLength(1);
+    expect(r.points[0].vdVt.value).toBeNull();
+    expect(r.issues.map((i) => i.code)).toEqual(["paco2-not-positive"]);
+  });
+
+  it("a sample outside the data → not determinable", () => {
+    const r = vdVt(test, [{ timeS: 5000, paCO2MmHg: 40 }]);
+    expect(r.points[0].vdVt.value).toBeNull();
+  });
+});

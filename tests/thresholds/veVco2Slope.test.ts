@@ -1,0 +1,61 @@
+import { describe, it, expect } from "vitest";
+import { veVco2Slope } from "../../lib/thresholds/veVco2Slope";
+import { buildRows, EX_START_S, freezeTest, makeTest } from "./indicesFixture";
+
+// Invented: VCO2 = 800 + 2·(t − 180) mL/min in exercise; VE = 25·VCO2(L) + 3 up to VT2 (600 s), then
+// 40 L/min per L/min steeper: VE = 25·VCO2 + 3 + 40·(VCO2 − VCO2(600)).
+const VT2_S = 600;
+const vco2At = (t: number) => 800 + 2 * (t - EX_START_S);
+function rampWithRcp() {
+  return makeTest(
+    buildRows((t, phase) => {
+      const vco2 = phase === "exercise" ? vco2At(t) : 300;
+      const l = vco2 / 1000;
+      const extra = phase === "exercise" && t > VT2_S ? 40 * (l - vco2At(VT2_S) / 1000) : 0;
+      return { vco2MlMin: vco2, vo2MlMin: vco2, veLMin: 25 * l + 3 + extra };
+    }),
+  );
+}
+
+describe("VE/VCO2 slope", () => {
+  const test = freezeTest(rampWithRcp());
+  const r = veVco2Slope(test, { vt1: { timeS: 420, vo2MlMin: 1280 }, vt2: { timeS: VT2_S, vo2MlMin: 1640 } });
+
+  it("to VT2: slope 25.00, intercept 3 L/min, r² 1 (by construction)", () => {
+    expect(r.slopeToVt2.slope.value).toBeCloseTo(25, 9);
+    expect(r.slopeToVt2.intercept.value).toBeCloseTo(3, 9);
+    expect(r.slopeToVt2.r2.value).toBeCloseTo(1, 12);
+    // breaths 180..600 every 3 s: 141
+    expect(r.slopeToVt2.n).toBe(141);
+    expect(r.slopeToVt2.slope.provenance.sourceIds).toContain("ward-2021");
+  });
+
+  it("whole exercise is steeper once the post-RCP breaths are included", () => {
+    expect(r.slopeWholeExercise.slope.value).toBeGreaterThan(25.5);
+    expect(r.slopeWholeExercise.r2.value).toBeLessThan(1);
+    expect(r.slopeWholeExercise.slope.provenance.sourceIds).toContain("friend-ve-vco2-slope");
+  });
+
+  it("lowest 30-s VE/VCO2 (Sun 2002) sits in the window ending at VT2", () => {
+    // ratio of means = 25 + 3/mean VCO2 (L) for windows before VT2; window [570, 600] mean VCO2 = vco2At(585) = 1610
+    expect(r.nadir.value).toBeCloseTo(25 + 3 / 1.61, 9);
+    expect(r.nadir.provenance.window).toEqual({ startS: 570, endS: 600 });
+  });
+
+  it("VE/VCO2 at VT1 (centred 30-s window on raw breaths): 25 + 3/1.28", () => {
+    expect(r.atVt1.value).toBeCloseTo(25 + 3 / 1.28, 9);
+  });
+
+  it("without VT2 the to-RCP slope is not determinable, with the reason", () => {
+    const q = veVco2Slope(test, {});
+    expect(q.slopeToVt2.slope.value).toBeNull();
+    expect(q.slopeToVt2.slope.reason).toMatch(/VT2/);
+    expect(q.atVt1.value).toBeNull();
+  });
+
+  it("no VE column → issues, nothing determinable", () => {
+    const q = veVco2Slope(makeTest(buildRows(() => ({ vco2MlMin: 1000 }))), {});
+    expect(q.slopeWholeExercise.slope.value).toBeNull();
+    expect(q.issues.map((i) => i.code)).toContain("no-ve-vco2");
+  });
+});
