@@ -7,3 +7,6 @@ export * from "./recogniseHeader";
 export * from "./inferColumnUnit";
 export * from "./phaseFromText";
 export * from "./importBreathFile";
+export * from "./importLactateFile";
+export * from "./importBloodGasFile";
+export * from "./parseSpirometry";

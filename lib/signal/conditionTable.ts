@@ -1,34 +1,51 @@
-import type { Issue } from "../core";
 import type { BreathTable } from "../breath";
-import type { AveragingSpec, ConditionedTest, PhaseSpan } from "./types";
+import { averageSeries, averagingLabel } from "./averageSeries";
+import { detectPhases, type PhaseOptions } from "./detectPhases";
+import { DEFAULT_ARTEFACT_RULE, DEFAULT_RER_LIMITS, rejectArtefacts } from "./rejectArtefacts";
+import type { ArtefactRule, AveragingSpec, ConditionedTest, ConditioningRecord } from "./types";
 
+/** Conditioning settings: plain data, stored with the analysis so the result can be reproduced. */
 export interface ConditioningSettings {
   /** @default { kind: "none", label: "breath by breath (no averaging)" } */
   averaging?: AveragingSpec;
+  /** Local-deviation artefact rule. @default k 4, 5 breaths each side, VO2/VCO2/VE, local mean */
+  artefacts?: Partial<ArtefactRule>;
+  /** RER screen. @default { min: 0.5, max: 2 } */
+  rer?: { min: number; max: number };
+  phases?: PhaseOptions;
 }
 
 /**
- * Condition an imported table: artefact rejection, averaging, phases.
- * First version: no artefact rejection or averaging; phases from the `phase` markers when present,
- * otherwise the whole record counts as exercise.
+ * Condition an imported table: artefact-breath rejection (`rejectArtefacts`), averaging
+ * (`averageSeries`) and phases with the ramp rate (`detectPhases`, on the clean, unaveraged breaths).
+ * Stage tables skip the local-deviation rule (stage means are not breaths) and are not averaged.
+ * The settings used are returned in `settings`. The input table is not mutated.
  */
 export function conditionTable(table: BreathTable, settings: ConditioningSettings = {}): ConditionedTest {
-  const issues: Issue[] = [];
-  const rows = table.rows;
-  const averaging = settings.averaging ?? { kind: "none", label: "breath by breath (no averaging)" };
-  const phases: PhaseSpan[] = [];
-  for (const r of rows) {
-    if (!r.phase) continue;
-    const last = phases[phases.length - 1];
-    if (last && last.phase === r.phase) last.endS = r.timeS;
-    else phases.push({ phase: r.phase, startS: r.timeS, endS: r.timeS, source: "markers" });
-  }
-  const ex = phases.filter((p) => p.phase === "exercise");
-  const exercise =
-    ex.length > 0
-      ? { startS: ex[0].startS, endS: ex[ex.length - 1].endS }
-      : rows.length > 0
-        ? { startS: rows[0].timeS, endS: rows[rows.length - 1].timeS }
-        : null;
-  return { shape: table.shape, clean: rows, removed: [], averaged: rows, averaging, phases, exercise, rampRateWPerMin: null, issues };
+  const requested = settings.averaging ?? { kind: "none", label: averagingLabel({ kind: "none" }) };
+  const averaging: AveragingSpec =
+    table.shape === "stage"
+      ? { kind: "none", label: "stage values (no averaging)" }
+      : { ...requested, label: requested.label || averagingLabel(requested) };
+  const record: ConditioningRecord = {
+    averaging,
+    artefacts: { ...DEFAULT_ARTEFACT_RULE, ...settings.artefacts },
+    rer: settings.rer ?? { ...DEFAULT_RER_LIMITS },
+  };
+  const art = rejectArtefacts(table.rows, { rule: record.artefacts, rer: record.rer, stageRows: table.shape === "stage" });
+  const averaged = averageSeries(art.clean, averaging);
+  const ph = detectPhases(art.clean, settings.phases);
+  return {
+    shape: table.shape,
+    clean: art.clean,
+    removed: art.removed,
+    averaged,
+    averaging,
+    phases: ph.phases,
+    exercise: ph.exercise,
+    rampRateWPerMin: ph.rampRateWPerMin,
+    rampRateR2: ph.rampRateR2,
+    issues: [...art.issues, ...ph.issues],
+    settings: record,
+  };
 }

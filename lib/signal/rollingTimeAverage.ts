@@ -17,7 +17,12 @@ export interface WindowAverage {
  * @param field canonical field to average
  * @param windowS window length in seconds @default 30
  */
-export function rollingTimeAverage(rows: readonly BreathRow[], field: NumericField, windowS = 30, minFraction = 0.8): WindowAverage[] {
+export function rollingTimeAverage(
+  rows: readonly BreathRow[],
+  field: NumericField,
+  windowS = 30,
+  minFraction = 0.8,
+): WindowAverage[] {
   const t: number[] = [];
   const v: number[] = [];
   for (const r of rows) {

@@ -31,6 +31,31 @@ export interface AveragingSpec {
   label: string;
 }
 
+/**
+ * Artefact-breath rule: a breath is set aside when a checked field lies more than `k` SD from the
+ * local mean (or median) of the `halfWindow` breaths on each side, excluding the breath itself.
+ */
+export interface ArtefactRule {
+  /** @default 4 */
+  k: number;
+  /** Breaths on each side. @default 5 */
+  halfWindow: number;
+  /** @default ["vo2MlMin", "vco2MlMin", "veLMin"] */
+  fields: NumericField[];
+  /** Centre of the local window. @default "mean" */
+  centre: "mean" | "median";
+  /** false turns the local-deviation rule off (RER and range screens still apply). @default true */
+  enabled: boolean;
+}
+
+/** Everything conditioning used, as plain data, so a result can be reproduced. */
+export interface ConditioningRecord {
+  averaging: AveragingSpec;
+  artefacts: ArtefactRule;
+  /** Breaths with RER outside [min, max] are set aside. @default { min: 0.5, max: 2 } */
+  rer: { min: number; max: number };
+}
+
 /** The imported table after conditioning: what every measurement in lib/thresholds starts from. */
 export interface ConditionedTest {
   shape: TableShape;
@@ -46,4 +71,8 @@ export interface ConditionedTest {
   /** Estimated ramp rate of the incremental phase (W/min), null without a work-rate signal. */
   rampRateWPerMin: number | null;
   issues: Issue[];
+  /** The settings actually used (defaults filled in). */
+  settings?: ConditioningRecord;
+  /** Coefficient of determination of the ramp-rate regression (null without one). */
+  rampRateR2?: number | null;
 }

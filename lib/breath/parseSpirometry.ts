@@ -1,0 +1,49 @@
+import { z } from "zod";
+import { makeIssue, type Issue, type Spirometry } from "../core";
+
+/**
+ * Plausible resting spirometry in canonical units (common practice; generous): FEV1 0.2–8 L,
+ * FVC 0.3–10 L, MVV 10–300 L/min, % predicted 5–200.
+ */
+export const spirometrySchema = z.object({
+  fev1L: z.number().min(0.2).max(8).optional(),
+  fvcL: z.number().min(0.3).max(10).optional(),
+  mvvLMin: z.number().min(10).max(300).optional(),
+  dlcoPctPred: z.number().min(5).max(200).optional(),
+  fev1PctPred: z.number().min(5).max(200).optional(),
+});
+
+/**
+ * Accept resting spirometry typed by a user or read from a record (numbers or numeric strings, decimal
+ * comma allowed). Each value that is missing a number or lies outside its plausible range is left out
+ * with a warning; FEV1 above FVC is flagged. Never throws.
+ */
+export function parseSpirometry(input: unknown): { spirometry: Spirometry | null; issues: Issue[] } {
+  const issues: Issue[] = [];
+  if (input === null || typeof input !== "object") return { spirometry: null, issues };
+  const out: Spirometry = {};
+  for (const [key, schema] of Object.entries(spirometrySchema.shape)) {
+    const raw = (input as Record<string, unknown>)[key];
+    if (raw === undefined || raw === null || raw === "") continue;
+    const num = typeof raw === "string" ? Number(raw.trim().replace(",", ".")) : raw;
+    const parsed = schema.safeParse(num);
+    if (parsed.success && parsed.data !== undefined) (out as Record<string, number>)[key] = parsed.data;
+    else
+      issues.push(
+        makeIssue(
+          "warning",
+          "spirometry-invalid",
+          `Spirometry value ${key} = ${String(raw)} is not a plausible number and was left out.`,
+          { field: key },
+        ),
+      );
+  }
+  if (out.fev1L !== undefined && out.fvcL !== undefined && out.fev1L > out.fvcL) {
+    issues.push(
+      makeIssue("warning", "spirometry-invalid", `FEV1 (${out.fev1L} L) is larger than FVC (${out.fvcL} L); check the values.`, {
+        field: "fev1L",
+      }),
+    );
+  }
+  return { spirometry: Object.keys(out).length > 0 ? out : null, issues };
+}

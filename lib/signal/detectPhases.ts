@@ -1,0 +1,196 @@
+import { makeIssue, type Issue } from "../core";
+import type { BreathRow } from "../breath";
+import { linearRegression } from "../numeric";
+import type { PhaseSpan } from "./types";
+
+export interface PhaseOptions {
+  /** Work rate at or below this counts as zero load (W). @default 1 */
+  zeroLoadW?: number;
+  /** Loads within this fraction of the peak count as constant. @default 0.03 */
+  constantFraction?: number;
+  /** Shortest constant low load that counts as a warm-up (s). @default 60 */
+  minWarmupS?: number;
+}
+
+export interface PhaseDetection {
+  phases: PhaseSpan[];
+  /** Incremental phase span, or null when it cannot be found. */
+  exercise: { startS: number; endS: number } | null;
+  /** OLS slope of work rate on time over the incremental phase, W/min; null without a work-rate signal. */
+  rampRateWPerMin: number | null;
+  rampRateR2: number | null;
+  issues: Issue[];
+}
+
+/**
+ * Find the phases of a test.
+ * - From phase markers when any row carries one: each run of breaths with the same marker is a span;
+ *   the exercise span runs from the first to the last "exercise" breath.
+ * - Otherwise from the work rate (or, on a treadmill, speed, then grade): rest = zero load before the
+ *   first loaded breath; warm-up = a first constant low load (≤ half the peak) lasting at least 60 s and,
+ *   in a step protocol, 1.5 times the usual step; incremental = from the first rise to the last breath at
+ *   peak load; recovery = after the peak load drops. Protocol shape as in the ERS statement (≥3 min
+ *   rest, ~3 min unloaded, 8–12 min incremental, ≥2–3 min recovery; Radtke et al. 2019, Eur Respir Rev
+ *   28:180101, confirmed); the detection rules themselves are common practice.
+ * - Ramp rate: OLS slope of work (W) on time (min) over the incremental phase (standard statistics);
+ *   for a step protocol this is the mean rate of the steps.
+ * Issues say when no phases could be found. O(n).
+ */
+export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions = {}): PhaseDetection {
+  const issues: Issue[] = [];
+  const none = (code: string, message: string): PhaseDetection => {
+    issues.push(makeIssue("warning", code, message));
+    return { phases: [], exercise: null, rampRateWPerMin: null, rampRateR2: null, issues };
+  };
+  if (rows.length < 2) return none("phases-not-found", "Too few rows to find the phases of the test.");
+  if (rows.some((r) => r.phase !== undefined)) return fromMarkers(rows, issues);
+
+  let source: PhaseSpan["source"] = "work-rate";
+  let signal: (number | undefined)[] = rows.map((r) => r.workW);
+  let zero = options.zeroLoadW ?? 1;
+  if (!signal.some((x) => x !== undefined && x > zero)) {
+    source = "speed";
+    signal = rows.map((r) => r.speedKmh);
+    zero = 0.1;
+    const speeds = signal.filter((x): x is number => x !== undefined);
+    const varies = speeds.length > 0 && Math.max(...speeds) - Math.min(...speeds) > zero;
+    if (!varies) {
+      const grades = rows.map((r) => r.gradePct);
+      if (grades.some((g) => g !== undefined && g > zero)) signal = grades;
+      else if (!speeds.some((s) => s > zero)) {
+        return none(
+          "phases-not-found",
+          "No phase markers and no work rate, speed or grade: the phases of the test could not be found. Add a phase column or a work-rate column.",
+        );
+      }
+    }
+  }
+  // carry the last known value forward over rows without one
+  const x = new Float64Array(rows.length);
+  let last = 0;
+  for (let i = 0; i < rows.length; i++) {
+    const v = signal[i];
+    if (v !== undefined && Number.isFinite(v)) last = v;
+    x[i] = last;
+  }
+  const t = rows.map((r) => r.timeS);
+  let peak = -Infinity;
+  for (const v of x) peak = Math.max(peak, v);
+  const tol = Math.max(zero, (options.constantFraction ?? 0.03) * peak);
+  let firstLoaded = -1;
+  for (let i = 0; i < x.length; i++) {
+    if (x[i] > zero) {
+      firstLoaded = i;
+      break;
+    }
+  }
+  if (firstLoaded < 0)
+    return none("phases-not-found", "The load never rises above zero; the phases of the test could not be found.");
+  let peakLast = firstLoaded;
+  for (let i = x.length - 1; i >= firstLoaded; i--) {
+    if (x[i] >= peak - tol) {
+      peakLast = i;
+      break;
+    }
+  }
+  // warm-up: first constant low load
+  let runEnd = firstLoaded;
+  while (runEnd + 1 <= peakLast && Math.abs(x[runEnd + 1] - x[firstLoaded]) <= tol) runEnd++;
+  const firstRunS = (runEnd + 1 < t.length ? t[runEnd + 1] : t[runEnd]) - t[firstLoaded];
+  const stepDurations: number[] = [];
+  let s0 = runEnd + 1;
+  for (let i = runEnd + 2; i <= peakLast + 1; i++) {
+    if (i > peakLast || Math.abs(x[i] - x[s0]) > tol) {
+      if (i <= peakLast) stepDurations.push(t[i] - t[s0]);
+      s0 = i;
+    }
+  }
+  stepDurations.sort((a, b) => a - b);
+  const typicalStep = stepDurations.length > 0 ? stepDurations[Math.floor(stepDurations.length / 2)] : 0;
+  const warmup =
+    runEnd < peakLast &&
+    x[firstLoaded] <= 0.5 * peak &&
+    firstRunS >= (options.minWarmupS ?? 60) &&
+    (typicalStep < 10 || firstRunS >= 1.5 * typicalStep);
+  const incStart = warmup ? runEnd + 1 : firstLoaded;
+  const phases: PhaseSpan[] = [];
+  if (firstLoaded > 0) phases.push({ phase: "rest", startS: t[0], endS: t[firstLoaded], source });
+  if (warmup) phases.push({ phase: "warmup", startS: t[firstLoaded], endS: t[incStart], source });
+  if (incStart >= peakLast) {
+    issues.push(
+      makeIssue(
+        "warning",
+        "no-incremental-phase",
+        "The load does not rise during the test (constant load?); no incremental phase was found.",
+      ),
+    );
+    phases.push({ phase: "exercise", startS: t[firstLoaded], endS: t[peakLast], source });
+    if (peakLast + 1 < t.length) phases.push({ phase: "recovery", startS: t[peakLast + 1], endS: t[t.length - 1], source });
+    return { phases, exercise: null, rampRateWPerMin: null, rampRateR2: null, issues };
+  }
+  phases.push({ phase: "exercise", startS: t[incStart], endS: t[peakLast], source });
+  if (peakLast + 1 < t.length) phases.push({ phase: "recovery", startS: t[peakLast + 1], endS: t[t.length - 1], source });
+  const { rate, r2 } = source === "work-rate" ? rampRate(rows, t[incStart], t[peakLast]) : { rate: null, r2: null };
+  if (source !== "work-rate")
+    issues.push(
+      makeIssue(
+        "info",
+        "ramp-rate-not-in-watts",
+        "Phases were found from treadmill speed or grade; a ramp rate in W/min cannot be given.",
+      ),
+    );
+  else if (r2 !== null && r2 < 0.8)
+    issues.push(
+      makeIssue(
+        "info",
+        "ramp-rate-irregular",
+        `Work rate rises irregularly during the incremental phase (R² ${r2.toFixed(2)}); the ramp rate is an average.`,
+      ),
+    );
+  issues.push(
+    makeIssue(
+      "info",
+      "phases-from-load",
+      `Phases were found from the ${source === "work-rate" ? "work rate" : "treadmill speed or grade"} (no phase markers in the file).`,
+    ),
+  );
+  return { phases, exercise: { startS: t[incStart], endS: t[peakLast] }, rampRateWPerMin: rate, rampRateR2: r2, issues };
+}
+
+function rampRate(rows: readonly BreathRow[], startS: number, endS: number): { rate: number | null; r2: number | null } {
+  const xs: number[] = [];
+  const ys: number[] = [];
+  for (const r of rows) {
+    if (r.timeS < startS || r.timeS > endS || r.workW === undefined) continue;
+    xs.push(r.timeS / 60);
+    ys.push(r.workW);
+  }
+  const fit = linearRegression(xs, ys);
+  return Number.isFinite(fit.slope) ? { rate: fit.slope, r2: Number.isFinite(fit.r2) ? fit.r2 : null } : { rate: null, r2: null };
+}
+
+function fromMarkers(rows: readonly BreathRow[], issues: Issue[]): PhaseDetection {
+  const phases: PhaseSpan[] = [];
+  for (const r of rows) {
+    if (!r.phase) continue;
+    const lastSpan = phases[phases.length - 1];
+    if (lastSpan && lastSpan.phase === r.phase) lastSpan.endS = r.timeS;
+    else phases.push({ phase: r.phase, startS: r.timeS, endS: r.timeS, source: "markers" });
+  }
+  const ex = phases.filter((p) => p.phase === "exercise");
+  if (ex.length === 0) {
+    issues.push(
+      makeIssue(
+        "warning",
+        "no-exercise-marker",
+        "The phase markers name no exercise phase; the incremental phase could not be found.",
+      ),
+    );
+    return { phases, exercise: null, rampRateWPerMin: null, rampRateR2: null, issues };
+  }
+  const exercise = { startS: ex[0].startS, endS: ex[ex.length - 1].endS };
+  const hasWork = rows.some((r) => r.workW !== undefined && r.timeS >= exercise.startS && r.timeS <= exercise.endS);
+  const { rate, r2 } = hasWork ? rampRate(rows, exercise.startS, exercise.endS) : { rate: null, r2: null };
+  issues.push(makeIssue("info", "phases-from-markers", "Phases were taken from the phase markers in the file."));
+  return { phases, exercise, rampRateWPerMin: rate, rampRateR2: r2, issues };
+}
