@@ -1,0 +1,106 @@
+import { describe, expect, it } from "vitest";
+import { assessWeightBasis, DEFAULT_LAB_SETTINGS, LabSettingsSchema, predictAll, resolveEquationId } from "../../lib/predicted";
+
+const man = Object.freeze({ sex: "male" as const, ageY: 50, heightCm: 175, weightKg: 80 });
+
+describe("predictAll", () => {
+  it("cycle: every lab quantity with its equation id; values match the hand calculations", () => {
+    const set = predictAll(man, "cycle", DEFAULT_LAB_SETTINGS, { spirometry: { fev1L: 3.2 } });
+    expect(set.equationIds).toEqual({
+      vo2PeakMlMin: "hansen-1984",
+      vo2PeakMlKgMin: "hansen-1984",
+      workMaxW: "jones-1985-wmax",
+      hrMaxBpm: "ers-2019-hrmax-cycle",
+      o2PulseMaxMlBeat: "o2pulse-derived",
+      veVco2NadirRatio: "sun-2002",
+      mvvLMin: "mvv-fev1x40",
+    });
+    for (const [q, pv] of Object.entries(set.values))
+      expect(pv?.equationId, q).toBe(set.equationIds[q as keyof typeof set.equationIds]);
+    expect(set.values.vo2PeakMlMin?.value).toBeCloseTo(2505.606, 3); // clinical-reference §1.2
+    expect(set.values.vo2PeakMlKgMin?.value).toBeCloseTo(2505.606 / 80, 6); // 31.32 mL/kg/min, §1.2
+    expect(set.values.workMaxW?.value).toBeCloseTo(200, 6); // 1224 kpm/min ÷ 6.12
+    expect(set.values.hrMaxBpm?.value).toBeCloseTo(168, 10); // 207 − 0.78·50
+    expect(set.values.o2PulseMaxMlBeat?.value).toBeCloseTo(2505.606 / 168, 6);
+    expect(set.values.veVco2NadirRatio?.value).toBeCloseTo(26.76, 10);
+    expect(set.values.mvvLMin?.value).toBeCloseTo(128, 10);
+    expect(set.body.predictedWeightKg).toBeCloseTo(77.55, 10);
+    expect(set.body.bmiKgM2).toBeCloseTo(80 / 1.75 ** 2, 10);
+  });
+
+  it("treadmill: FRIEND 2018 converted to mL/min with its LLN; no work-rate prediction; no MVV without FEV1", () => {
+    const set = predictAll(man, "treadmill");
+    // 36.734954 mL/kg/min × 80 = 2938.796; LLN (36.734954 − 1.645·6.6)·80 = 25.877954·80 = 2070.236
+    expect(set.values.vo2PeakMlMin?.value).toBeCloseTo(2938.796, 2);
+    expect(set.values.vo2PeakMlMin?.lln).toBeCloseTo(2070.236, 2);
+    expect(set.values.vo2PeakMlKgMin?.value).toBeCloseTo(36.734954, 5);
+    expect(set.values.workMaxW).toBeUndefined();
+    expect(set.values.mvvLMin).toBeUndefined();
+    expect(set.values.hrMaxBpm?.value).toBe(179); // 211 − 0.64·50
+  });
+
+  it("a lab choice is used; a performance estimate or a wrong quantity is refused with a warning", () => {
+    const set = predictAll(man, "cycle", {
+      equations: { vo2PeakMlMin: { cycle: "jones-1985" }, hrMaxBpm: { cycle: "friend-ergometry-2018" } },
+    });
+    expect(set.values.vo2PeakMlMin?.equationId).toBe("jones-1985");
+    expect(set.values.hrMaxBpm?.equationId).toBe("ers-2019-hrmax-cycle");
+    expect(set.issues.map((i) => i.code)).toContain("lab-equation-refused");
+    const perf = resolveEquationId("vo2PeakMlMin", "cycle", { equations: { vo2PeakMlMin: { cycle: "friend-ergometry-2018" } } });
+    expect(perf.equationId).toBe("hansen-1984");
+    expect(perf.issues[0].message).toMatch(/not a predicted normal/);
+  });
+
+  it("the O2 pulse follows the lab's VO2 and HR choices (Hansen ÷ (220 − A) = 14.74, clinical-reference §2)", () => {
+    const set = predictAll(man, "cycle", { equations: { hrMaxBpm: { cycle: "hrmax-220-age" } } });
+    expect(set.values.o2PulseMaxMlBeat?.value).toBeCloseTo(2505.606 / 170, 6);
+    expect(set.values.o2PulseMaxMlBeat?.usedEquationIds).toEqual(expect.arrayContaining(["hansen-1984", "hrmax-220-age"]));
+  });
+
+  it("default lab settings are valid settings data", () => {
+    expect(LabSettingsSchema.safeParse(DEFAULT_LAB_SETTINGS).success).toBe(true);
+    expect(LabSettingsSchema.safeParse({ equations: { vo2PeakMlMin: { rowing: "x" } } }).success).toBe(false);
+  });
+
+  it("obesity (BMI ≥ 30) adds a note with the prediction on predicted weight", () => {
+    const obese = { ...man, weightKg: 120 }; // BMI 120/1.75² = 39.2
+    const set = predictAll(obese, "cycle");
+    const note = set.issues.find((i) => i.code === "obesity-weight-basis");
+    expect(note?.severity).toBe("info");
+    // actual: 77.55·32.12 + 6·(120 − 77.55) = 2490.906 + 254.7 = 2745.606; on PW: 2490.906
+    expect(note?.message).toMatch(/2746 mL\/min on actual weight, 2491 mL\/min on predicted weight/);
+    expect(predictAll(man, "cycle").issues.some((i) => i.code === "obesity-weight-basis")).toBe(false);
+  });
+});
+
+describe("assessWeightBasis", () => {
+  it("flags when ideal weight changes the conclusion (obese man, Hansen cycle, 85% limit)", () => {
+    // Predictions as above: actual 2745.606, ideal 2490.906 mL/min. Measured 2200:
+    // 2200/2745.606 = 80.1% (reduced), 2200/2490.906 = 88.3% (not reduced) → conclusion changes.
+    const a = assessWeightBasis(2200, { ...man, weightKg: 120 }, "cycle");
+    expect(a.actual?.percentPredicted).toBeCloseTo((100 * 2200) / 2745.606, 6);
+    expect(a.ideal?.percentPredicted).toBeCloseTo((100 * 2200) / 2490.906, 6);
+    expect(a.actual?.measuredMlKgMin).toBeCloseTo(2200 / 120, 10);
+    expect(a.ideal?.measuredMlKgMin).toBeCloseTo(2200 / 77.55, 10);
+    expect(a.changesConclusion).toBe(true);
+    expect(a.issues.map((i) => i.code)).toEqual(["obesity-weight-basis", "weight-basis-changes-conclusion"]);
+  });
+
+  it("no flag when both bases agree", () => {
+    // 1800/2745.606 = 65.6%, 1800/2490.906 = 72.3%: reduced on both.
+    const a = assessWeightBasis(1800, { ...man, weightKg: 120 }, "cycle");
+    expect(a.changesConclusion).toBe(false);
+    expect(a.issues.map((i) => i.code)).toEqual(["obesity-weight-basis"]);
+  });
+
+  it("uses the LLN when the equation has one (FRIEND 2018 treadmill)", () => {
+    const a = assessWeightBasis(2500, { ...man, weightKg: 120 }, "treadmill");
+    expect(a.criterion).toMatch(/LLN/);
+  });
+
+  it("degenerate: no sex → no readings", () => {
+    const a = assessWeightBasis(2200, { ageY: 50, heightCm: 175, weightKg: 120 }, "cycle");
+    expect(a.actual).toBeUndefined();
+    expect(a.changesConclusion).toBe(false);
+  });
+});
