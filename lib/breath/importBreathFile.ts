@@ -1,6 +1,14 @@
 import { z } from "zod";
 import { makeIssue, type Issue } from "../core";
-import { CANONICAL_UNIT_OF, columnStats, factorToCanonical, guessUnitFromValues } from "./inferColumnUnit";
+import {
+  CANONICAL_UNIT_OF,
+  columnStats,
+  factorToCanonical,
+  guessUnitFromValues,
+  plausibleIn,
+  PLAUSIBLE_RANGE,
+  PLAUSIBLE_VO2_PER_KG,
+} from "./inferColumnUnit";
 import { columnMappingSchema, type ColumnMapping, type ColumnOverride } from "./mappingProfile";
 import { isBlankCell, isClockCell, parseClock, parseNumberCell } from "./parseCell";
 import type { Cell } from "./parseDelimited";
@@ -66,25 +74,6 @@ export interface ImportResult {
   /** Body mass used for per-kg columns, or null. */
   weight: { kg: number; from: "options" | "metadata" | "column" } | null;
 }
-
-/** Plausible physiological ranges in canonical units (common practice; generous on purpose). */
-export const PLAUSIBLE_RANGE: Partial<Record<NumericField, [number, number]>> = {
-  vo2MlMin: [50, 8000],
-  vco2MlMin: [30, 10000],
-  veLMin: [1, 300],
-  hrBpm: [25, 240],
-  workW: [0, 2500],
-  speedKmh: [0, 40],
-  gradePct: [-10, 40],
-  rrBrMin: [3, 90],
-  vtL: [0.1, 6],
-  peto2MmHg: [40, 150],
-  petco2MmHg: [10, 80],
-  spo2Pct: [50, 100],
-  lactateMmolL: [0.1, 30],
-};
-/** Plausible VO2 per kg, mL/kg/min (common practice). */
-export const PLAUSIBLE_VO2_PER_KG: [number, number] = [1, 100];
 
 const optionSchemas = {
   fileName: z.string(),
@@ -730,7 +719,7 @@ function decideColumn(
     }
   } else if (col.given) {
     unit = col.given.unit;
-    if (guess && guess.unit !== unit) {
+    if (guess && guess.unit !== unit && !plausibleIn(field, unit, stats) && plausibleIn(field, guess.unit, stats)) {
       const said = unit;
       unit = guess.unit;
       reason = `${by}; ${col.given.by} says ${said}, but ${guess.because}`;
@@ -744,7 +733,19 @@ function decideColumn(
           },
         ),
       );
-    } else reason = `${by}; unit ${labelOfUnit(unit, field)} from ${col.given.by}${guess ? " (values agree)" : ""}`;
+    } else {
+      reason = `${by}; unit ${labelOfUnit(unit, field)} from ${col.given.by}${plausibleIn(field, unit, stats) ? (guess || PLAUSIBLE_RANGE[field] ? " (values agree)" : "") : ""}`;
+      if (!plausibleIn(field, unit, stats)) {
+        issues.push(
+          makeIssue(
+            "warning",
+            "unit-doubtful",
+            `${FIELD_LABEL[field]} values in "${header}" are not plausible in ${labelOfUnit(unit, field)} as ${col.given.by} says; check the unit.`,
+            { column: header },
+          ),
+        );
+      }
+    }
   } else if (guess) {
     unit = guess.unit;
     reason = `${by}; no unit given, ${guess.because}`;
@@ -1125,12 +1126,19 @@ function dropDuplicateTimes(rows: BreathRow[], issues: Issue[]): BreathRow[] {
   return kept;
 }
 
+/**
+ * Sparse markers: each phase marker holds until the next one. Rows before the first marker are rest
+ * when the first marker starts warm-up or exercise.
+ */
 function applyMarkerPhases(rows: BreathRow[], events: readonly MarkerEvent[]): void {
   const marks = events.filter((e) => e.phase);
+  const before: Phase | undefined = marks[0]?.phase === "warmup" || marks[0]?.phase === "exercise" ? "rest" : undefined;
   let m = -1;
   for (const r of rows) {
     while (m + 1 < marks.length && marks[m + 1].timeS <= r.timeS) m++;
-    if (m >= 0 && r.phase === undefined) r.phase = marks[m].phase as Phase;
+    if (r.phase !== undefined) continue;
+    if (m >= 0) r.phase = marks[m].phase as Phase;
+    else if (before) r.phase = before;
   }
 }
 

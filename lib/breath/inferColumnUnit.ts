@@ -118,6 +118,51 @@ export function guessUnitFromValues(field: NumericField, s: ColumnStats, generic
   }
 }
 
+/**
+ * Plausible physiological ranges in canonical units (common practice; generous on purpose). Used to
+ * judge a unit (are the values plausible once converted?) and to set aside impossible values.
+ */
+export const PLAUSIBLE_RANGE: Partial<Record<NumericField, [number, number]>> = {
+  vo2MlMin: [50, 8000],
+  vco2MlMin: [30, 10000],
+  veLMin: [1, 300],
+  hrBpm: [25, 240],
+  workW: [0, 2500],
+  speedKmh: [0, 40],
+  gradePct: [-10, 40],
+  rrBrMin: [3, 90],
+  vtL: [0.1, 6],
+  peto2MmHg: [40, 150],
+  petco2MmHg: [10, 80],
+  spo2Pct: [50, 100],
+  lactateMmolL: [0.1, 30],
+};
+/** Plausible VO2 per kg, mL/kg/min (common practice). */
+export const PLAUSIBLE_VO2_PER_KG: [number, number] = [1, 100];
+/** Plausible R–R interval between heartbeats, ms (25–300 beats/min; common practice). */
+export const PLAUSIBLE_RR_INTERVAL_MS: [number, number] = [200, 2400];
+
+/**
+ * Whether the bulk of a column (its 5th–95th percentiles) is physiologically plausible when read in
+ * `unit`. Fields without a range, or units that cannot be converted, count as plausible.
+ */
+export function plausibleIn(field: NumericField, unit: string, s: ColumnStats): boolean {
+  if (s.n === 0) return true;
+  let range: [number, number] | undefined;
+  let factor = 1;
+  if (field === "vo2MlMin" && unit === "per-kg") range = PLAUSIBLE_VO2_PER_KG;
+  else if (field === "rrBrMin" && unit === "ms") range = PLAUSIBLE_RR_INTERVAL_MS;
+  else if (field === "workW" && unit === "km/h") range = PLAUSIBLE_RANGE.speedKmh;
+  else {
+    range = PLAUSIBLE_RANGE[field];
+    const f = factorToCanonical(field, unit);
+    if (f === undefined) return true;
+    factor = f;
+  }
+  if (!range) return true;
+  return s.low * factor >= range[0] && s.high * factor <= range[1];
+}
+
 /** Multiply-by factor from `unit` to the field's canonical unit (undefined when the unit is not known). */
 export function factorToCanonical(field: NumericField, unit: string): number | undefined {
   if (field === "stage") return 1;

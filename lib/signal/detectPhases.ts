@@ -112,7 +112,12 @@ export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions =
     x[firstLoaded] <= 0.5 * peak &&
     firstRunS >= (options.minWarmupS ?? 60) &&
     (typicalStep < 10 || firstRunS >= 1.5 * typicalStep);
-  const incStart = warmup ? runEnd + 1 : firstLoaded;
+  let incStart = warmup ? runEnd + 1 : firstLoaded;
+  if (warmup) {
+    // the rise began at the last breath still at the warm-up load (within a small tolerance)
+    const small = Math.max(zero, 0.005 * peak);
+    while (incStart - 1 > firstLoaded && x[incStart - 1] > x[firstLoaded] + small) incStart--;
+  }
   const phases: PhaseSpan[] = [];
   if (firstLoaded > 0) phases.push({ phase: "rest", startS: t[0], endS: t[firstLoaded], source });
   if (warmup) phases.push({ phase: "warmup", startS: t[firstLoaded], endS: t[incStart], source });

@@ -1,0 +1,119 @@
+import { readFileSync } from "node:fs";
+import { describe, expect, it } from "vitest";
+import { importBreathFile } from "../../lib/breath";
+import { conditionTable } from "../../lib/signal";
+
+const read = (path: string) => new Uint8Array(readFileSync(new URL(`../fixtures/open-data/${path}`, import.meta.url)));
+const csvRows = (path: string) =>
+  new TextDecoder()
+    .decode(read(path))
+    .trim()
+    .split("\n")
+    .slice(1)
+    .map((l) => l.split(","));
+
+describe("ACTES breath VO2 (ODC-By 1.0)", () => {
+  // Chabert C, Mongin D, Hermand E, Collado A, Hue O. Cardiorespiratory measurement from graded
+  // cycloergometer exercise testing (version 1.0.0). PhysioNet; 2022. https://doi.org/10.13026/2qs3-kh43.
+  // Licensed under the Open Data Commons Attribution License v1.0.
+  const summary = csvRows("actes/actes_tests_summary.csv");
+
+  it("actes_vo2_breaths_derived.csv: VO2 in L/min converted, negative rest times kept, phases and 15 W/min steps found", async () => {
+    for (const id of ["1", "3", "11"]) {
+      const r = await importBreathFile(read("actes/actes_vo2_breaths_derived.csv"), { select: { ID: id } });
+      expect(r.table).not.toBeNull();
+      const s = summary.find((x) => x[0] === id)!;
+      // summary columns: rest_s_before_t0 = s[8], exercise_s = s[9], step_W = s[12], VO2_max_breath_L_min = s[14]
+      expect(r.table!.rows[0].timeS).toBeCloseTo(-Number(s[8]), 0);
+      const maxVo2 = Math.max(...r.table!.rows.map((x) => x.vo2MlMin ?? 0));
+      expect(maxVo2).toBeCloseTo(Number(s[14]) * 1000, -1); // L/min × 1000 = mL/min
+      expect(r.columns.find((c) => c.header === "VO2_L_min")?.factor).toBe(1000);
+      const c = conditionTable(r.table!);
+      // protocol: 50 W warm-up from t = 0, then +15 W every minute (README) → ramp rate 15 ± 1 W/min
+      expect(c.rampRateWPerMin!).toBeGreaterThan(Number(s[12]) - 1);
+      expect(c.rampRateWPerMin!).toBeLessThan(Number(s[12]) + 1);
+      expect(c.phases.map((p) => p.phase)).toEqual(["rest", "warmup", "exercise", "recovery"]);
+      // exercise (loaded) ends at exercise_s after t = 0, within one breath (~3 s)
+      expect(Math.abs(c.exercise!.endS - Number(s[9]))).toBeLessThan(3);
+    }
+  });
+
+  it("a file with all 18 tests is refused until one test is selected", async () => {
+    const r = await importBreathFile(read("actes/actes_vo2_breaths_derived.csv"));
+    expect(r.table).toBeNull();
+    expect(r.issues.find((i) => i.code === "several-records")?.message).toMatch(/18 tests/);
+  });
+
+  it("actes_test_measure.csv: RR is the R–R interval (ms), not breathing; VO2 carried on every beat collapses to the breath series", async () => {
+    const r = await importBreathFile(read("actes/actes_test_measure.csv"), { select: { ID: "1" } });
+    const rr = r.columns.find((c) => c.header === "RR")!;
+    expect(rr.field).toBeNull();
+    expect(rr.unit).toMatch(/ms/);
+    expect(r.issues.map((i) => i.code)).toContain("rr-interval-not-breathing");
+    expect(r.issues.map((i) => i.code)).toContain("values-carried-forward");
+    expect(r.table!.fields).not.toContain("rrBrMin");
+    // the derived breath file was made the same way (one row per change of VO2): same row count and times
+    const derived = await importBreathFile(read("actes/actes_vo2_breaths_derived.csv"), { select: { ID: "1" } });
+    expect(r.table!.rows.length).toBe(derived.table!.rows.length);
+    expect(r.table!.rows.map((x) => x.timeS)).toEqual(derived.table!.rows.map((x) => x.timeS));
+  });
+});
+
+describe("Sylta 2016 cycling stages (CC0)", () => {
+  // Data from Sylta et al., Med Sci Sports Exerc 2016;48:2165–2174, as curated in the exscidata R package
+  // by D. Hammarström (CC0).
+  it("cyclingstudy_stages_long.csv: stage table of one occasion, units from the column names", async () => {
+    const r = await importBreathFile(read("sylta2016-cycling/cyclingstudy_stages_long.csv"), {
+      select: { subject: "1", timepoint: "pre" },
+      stageDurationS: 300,
+    });
+    expect(r.table?.shape).toBe("stage");
+    // subject 1, pre: loads 125, 175, 225, 250, 275 W with VO2 2309 … 4290 mL/min (first rows of the file)
+    expect(r.table!.rows.map((x) => x.workW)).toEqual([125, 175, 225, 250, 275]);
+    expect(r.table!.rows[0].vo2MlMin).toBe(2309);
+    expect(r.table!.rows[0].vco2MlMin).toBe(2113);
+    expect(r.table!.rows[0].lactateMmolL).toBe(1.5);
+    expect(r.table!.rows[4].timeS).toBe(4 * 300);
+    expect(r.issues.map((i) => i.code)).toContain("time-assumed-stage-order");
+    expect(r.weight).toEqual({ kg: 80.3, from: "column" });
+  });
+
+  it("without choosing the occasion the file is refused with the column to choose by", async () => {
+    const r = await importBreathFile(read("sylta2016-cycling/cyclingstudy_stages_long.csv"), { select: { subject: "1" } });
+    expect(r.table).toBeNull();
+    expect(r.issues.find((i) => i.code === "several-records")?.where?.column).toBe("timepoint");
+  });
+});
+
+describe("TCD graded tests (CC BY 4.0)", () => {
+  // Donne B, Fleming N, Campbell G, Ward T, Crampton D, Mahony N. Graded Incremental Test Data (Cycling,
+  // Running, Kayaking, Rowing): an open access dataset. Version 2. Zenodo; 2024.
+  // https://doi.org/10.5281/zenodo.10841412. CC BY 4.0. Changes: stage tables extracted to CSV and filtered
+  // (extraction by B. Cai, github.com/xcai66/Calibration-of-Heart-Rate-Reserve-for-Graded-Cycle-Ergometry);
+  // summary table added.
+  const tidy = csvRows("tcd-graded-tests/graded_tests_tidy.csv");
+
+  it("graded_tests_tidy.csv, a cycling test: VO2 per kg recognised; converted when the weight is given", async () => {
+    const file = tidy.find((x) => x[1] === "Cycling")![0];
+    const rows = tidy.filter((x) => x[0] === file);
+    const r = await importBreathFile(read("tcd-graded-tests/graded_tests_tidy.csv"), { select: { file }, weightKg: 70 });
+    expect(r.table?.shape).toBe("stage");
+    expect(r.columns.find((c) => c.header === "vo2")?.unit).toBe("mL/kg/min");
+    // columns: load = x[8], vo2 = x[10]; VO2 mL/min = vo2 (mL/kg/min) × 70 kg
+    expect(r.table!.rows.map((x) => x.workW)).toEqual(rows.map((x) => Number(x[8])));
+    expect(r.table!.rows[0].vo2MlMin).toBeCloseTo(Number(rows[0][10]) * 70, 6);
+  });
+
+  it("a running test: the load column holds speed in km/h, not watts", async () => {
+    const file = tidy.find((x) => x[1] === "Running")![0];
+    const r = await importBreathFile(read("tcd-graded-tests/graded_tests_tidy.csv"), { select: { file } });
+    expect(r.columns.find((c) => c.header === "load")?.field).toBe("speedKmh");
+    expect(r.issues.map((i) => i.code)).toEqual(expect.arrayContaining(["speed-in-load-column", "weight-needed"]));
+    // the user can overrule: treat "load" as watts
+    const forced = await importBreathFile(read("tcd-graded-tests/graded_tests_tidy.csv"), {
+      select: { file },
+      mapping: { load: { field: "workW", unit: "W" } },
+    });
+    expect(forced.columns.find((c) => c.header === "load")?.field).toBe("workW");
+  });
+});
