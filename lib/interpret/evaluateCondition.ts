@@ -80,7 +80,8 @@ function comparisonText(
  * Evaluate a tri-state condition: true, false, or null when an input needed for the answer is missing.
  * `all` is false if any part is false, else null if any part is null; `any` is true if any part is true,
  * else null if any is null; `notTrue` reads null as "not true"; `atLeast n of` is decided as soon as
- * the count of true parts (or of possible true parts) settles it.
+ * the count of true parts (or of possible true parts) settles it. Texts always state what is true of
+ * the patient (a failed comparison shows the negated operator), so `not` keeps its operand's text.
  */
 export function evaluateCondition(cond: Condition, ctx: EvalContext): ConditionResult {
   const uses: ChoiceUse[] = [];
@@ -115,11 +116,11 @@ export function evaluateCondition(cond: Condition, ctx: EvalContext): ConditionR
   }
   if ("not" in cond) {
     const r = sub(cond.not);
-    return done(r.outcome === null ? null : !r.outcome, `not (${r.text})`);
+    return done(r.outcome === null ? null : !r.outcome, r.text);
   }
   if ("notTrue" in cond) {
     const r = sub(cond.notTrue);
-    return done(r.outcome !== true, `not (${r.text})`);
+    return done(r.outcome !== true, r.text);
   }
   if ("atLeast" in cond) {
     const parts = cond.of.map(sub);

@@ -1,0 +1,221 @@
+import type { SerialComparison } from "./compareTests";
+import { formatValue, unique } from "./format";
+import type { InterpretInput, Interpretation, ReferralQuestion } from "./types";
+import { variableInfo, type VariableId } from "./variables";
+
+/** An intensity domain for exercise prescription (from the thresholds layer), all optional ranges. */
+export interface IntensityDomain {
+  name: string;
+  hrFromBpm?: number;
+  hrToBpm?: number;
+  workFromW?: number;
+  workToW?: number;
+}
+
+export interface DraftExtras {
+  testConduct?: { protocol?: string; exerciseDurationS?: number; reasonForStopping?: string; symptoms?: string; peakBorg?: number; notes?: string };
+  /** How VT1 / VT2 were found, in words (method, agreement, overrides). */
+  thresholdMethods?: { vt1?: string; vt2?: string };
+  /** VT2 (RCP) values, if found. */
+  vt2?: { vo2MlMin?: number; hrBpm?: number; workW?: number };
+  domains?: IntensityDomain[];
+  comparison?: SerialComparison;
+}
+
+export interface DraftSection {
+  id: string;
+  title: string;
+  paragraphs: string[];
+}
+
+export interface DraftReport {
+  status: "draft";
+  /** Shown at the top of every rendering. */
+  banner: string;
+  sections: DraftSection[];
+  caution: string;
+  sourceIds: string[];
+}
+
+export const DRAFT_BANNER = "DRAFT — not a final report until reviewed and signed by a qualified clinician";
+export const DRAFT_CAUTION =
+  "This text was composed automatically from measured values and published cut-offs. Results must be reviewed by a qualified clinician; local protocols and licensed practice prevail. Cut-offs marked as recalled have not been checked against the primary publication.";
+
+const REFERRAL_TEXT: Record<ReferralQuestion, string> = {
+  general: "Assessment of exercise capacity and of the cause of exercise limitation.",
+  "heart-failure": "Functional and prognostic assessment in heart failure.",
+  "pre-operative": "Pre-operative assessment of cardiopulmonary fitness and perioperative risk.",
+  "lung-resection": "Physiological assessment before lung resection.",
+  "pulmonary-hypertension": "Functional and risk assessment in pulmonary hypertension.",
+  transplant: "Assessment in the context of heart-transplant listing.",
+  training: "Assessment of fitness and intensity domains for exercise training.",
+};
+
+function sentenceCase(s: string): string {
+  return s.length ? s[0].toUpperCase() + s.slice(1) : s;
+}
+
+/**
+ * Compose a draft report from an interpretation: referral question, test conduct and effort, results
+ * against predicted, thresholds, the stepwise interpretation, limitation patterns, scheme results,
+ * exercise prescription from intensity domains, serial comparison and conclusion. Plain clinical
+ * English in editable sections (title + paragraphs); always `status: "draft"` with the draft banner.
+ * Wording is "consistent with", never a diagnosis.
+ */
+export function composeDraft(input: InterpretInput, interpretation: Interpretation, extras: DraftExtras = {}): DraftReport {
+  const v = input.values;
+  const pred = input.predictedEquations ?? {};
+  const val = (id: VariableId, x: number | null | undefined) => {
+    const info = variableInfo(id);
+    return `${formatValue(id, x ?? null)}${info.unit && x !== null && x !== undefined ? ` ${info.unit}` : ""}`;
+  };
+  const have = (x: unknown) => x !== null && x !== undefined;
+  const sections: DraftSection[] = [];
+
+  sections.push({ id: "referral", title: "Referral question", paragraphs: [REFERRAL_TEXT[interpretation.referral]] });
+
+  const conduct: string[] = [];
+  const tc = extras.testConduct;
+  if (tc) {
+    const bits: string[] = [];
+    if (tc.protocol) bits.push(`Protocol: ${tc.protocol}.`);
+    if (input.ergometer) bits.push(`Ergometer: ${input.ergometer}.`);
+    if (have(tc.exerciseDurationS)) bits.push(`Exercise lasted ${Math.floor(tc.exerciseDurationS! / 60)} min ${Math.round(tc.exerciseDurationS! % 60)} s.`);
+    if (tc.reasonForStopping) bits.push(`The test was stopped because of ${tc.reasonForStopping}.`);
+    if (tc.symptoms) bits.push(`Symptoms: ${tc.symptoms}.`);
+    if (have(tc.peakBorg)) bits.push(`Peak perceived exertion (Borg): ${tc.peakBorg}.`);
+    if (tc.notes) bits.push(tc.notes);
+    if (bits.length) conduct.push(bits.join(" "));
+  } else if (input.ergometer) conduct.push(`Ergometer: ${input.ergometer}.`);
+  const e = interpretation.effort;
+  conduct.push(`Effort: ${e.label}.`);
+  conduct.push(`Criteria: ${e.criteria.map((c) => c.text).join("; ")}.`);
+  if (!e.peakConclusionsAllowed) {
+    conduct.push(
+      "Because maximal effort was not demonstrated, peak values may understate capacity and no conclusion is drawn from them; only effort-independent variables (VE/VCO2 slope, OUES and VT1) are interpreted.",
+    );
+  }
+  sections.push({ id: "conduct", title: "Test conduct and effort", paragraphs: conduct });
+
+  const results: string[] = [];
+  if (have(v.peakVo2MlMin) || have(v.peakVo2PctPred)) {
+    const parts = [val("peakVo2MlMin", v.peakVo2MlMin)];
+    if (have(v.peakVo2MlKgMin)) parts.push(val("peakVo2MlKgMin", v.peakVo2MlKgMin));
+    if (have(v.peakVo2PctPred)) parts.push(`${formatValue("peakVo2PctPred", v.peakVo2PctPred)} % of predicted${pred.peakVo2 ? ` (${pred.peakVo2})` : ""}`);
+    results.push(`Peak VO2 ${parts.join(", ")}.`);
+  }
+  if (have(v.peakWorkW)) results.push(`Peak work rate ${val("peakWorkW", v.peakWorkW)}.`);
+  if (have(v.peakHrBpm)) {
+    results.push(
+      `Peak heart rate ${val("peakHrBpm", v.peakHrBpm)}${have(v.hrPctPred) ? ` (${formatValue("hrPctPred", v.hrPctPred)} % of predicted${pred.hrMax ? `, ${pred.hrMax}` : ""})` : ""}${have(v.hrr1Bpm) ? `; recovery at 1 min ${val("hrr1Bpm", v.hrr1Bpm)}` : ""}.`,
+    );
+  }
+  if (have(v.o2PulsePeakMlBeat)) {
+    results.push(
+      `Peak O2 pulse ${val("o2PulsePeakMlBeat", v.o2PulsePeakMlBeat)}${have(v.o2PulsePctPred) ? ` (${formatValue("o2PulsePctPred", v.o2PulsePctPred)} % of predicted)` : ""}${v.o2PulsePlateau ? ", flattening late in exercise" : ""}.`,
+    );
+  }
+  const slopes: string[] = [];
+  if (have(v.veVco2SlopeWhole)) slopes.push(`VE/VCO2 slope ${formatValue("veVco2SlopeWhole", v.veVco2SlopeWhole)} (whole exercise)`);
+  if (have(v.veVco2SlopeToRcp)) slopes.push(`${formatValue("veVco2SlopeToRcp", v.veVco2SlopeToRcp)} (to RCP)`);
+  if (have(v.veVco2Nadir)) slopes.push(`nadir VE/VCO2 ${formatValue("veVco2Nadir", v.veVco2Nadir)}`);
+  if (have(v.oues)) slopes.push(`OUES ${val("oues", v.oues)}`);
+  if (have(v.petco2RestMmHg)) slopes.push(`resting PETCO2 ${val("petco2RestMmHg", v.petco2RestMmHg)}`);
+  if (slopes.length) results.push(`Ventilatory efficiency: ${slopes.join(", ")}.`);
+  const vent: string[] = [];
+  if (have(v.veMvvPct)) vent.push(`peak VE ${formatValue("veMvvPct", v.veMvvPct)} % of MVV${pred.mvv ? ` (MVV: ${pred.mvv})` : ""}`);
+  if (have(v.breathingReserveLMin)) vent.push(`breathing reserve ${val("breathingReserveLMin", v.breathingReserveLMin)}`);
+  if (have(v.rrPeak)) vent.push(`peak breathing frequency ${val("rrPeak", v.rrPeak)}`);
+  if (vent.length) results.push(`Ventilation: ${vent.join(", ")}.`);
+  const gas: string[] = [];
+  if (have(v.spo2RestPct)) gas.push(`SpO2 at rest ${val("spo2RestPct", v.spo2RestPct)}`);
+  if (have(v.spo2Min)) gas.push(`lowest ${val("spo2Min", v.spo2Min)}`);
+  if (have(v.spo2Fall)) gas.push(`fall ${val("spo2Fall", v.spo2Fall)}`);
+  if (have(v.paO2)) gas.push(`peak PaO2 ${val("paO2", v.paO2)}`);
+  if (have(v.vdvtPeak)) gas.push(`peak VD/VT ${formatValue("vdvtPeak", v.vdvtPeak)}`);
+  if (gas.length) results.push(`Oxygenation and gas exchange: ${gas.join(", ")}.`);
+  if (!results.length) results.push("No peak values were available.");
+  sections.push({ id: "results", title: "Results against predicted", paragraphs: results });
+
+  const thr: string[] = [];
+  if (v.vt1Determined === false) thr.push("VT1 (anaerobic threshold) could not be determined.");
+  else if (have(v.vt1Vo2MlMin) || have(v.vt1Vo2MlKgMin)) {
+    const parts: string[] = [];
+    if (have(v.vt1Vo2MlMin)) parts.push(val("vt1Vo2MlMin", v.vt1Vo2MlMin));
+    if (have(v.vt1Vo2MlKgMin)) parts.push(val("vt1Vo2MlKgMin", v.vt1Vo2MlKgMin));
+    if (have(v.vt1PctPredPeakVo2)) parts.push(`${formatValue("vt1PctPredPeakVo2", v.vt1PctPredPeakVo2)} % of predicted peak VO2`);
+    thr.push(`VT1 at VO2 ${parts.join(", ")}.`);
+  } else thr.push("No VT1 value was supplied.");
+  if (extras.thresholdMethods?.vt1) thr.push(`VT1 was found by ${extras.thresholdMethods.vt1}.`);
+  if (extras.vt2?.vo2MlMin !== undefined) {
+    thr.push(
+      `VT2 (respiratory compensation point) at VO2 ${formatValue("vt1Vo2MlMin", extras.vt2.vo2MlMin)} mL/min${extras.vt2.hrBpm !== undefined ? `, heart rate ${extras.vt2.hrBpm} bpm` : ""}${extras.vt2.workW !== undefined ? `, ${extras.vt2.workW} W` : ""}.`,
+    );
+  }
+  if (extras.thresholdMethods?.vt2) thr.push(`VT2 was found by ${extras.thresholdMethods.vt2}.`);
+  sections.push({ id: "thresholds", title: "Thresholds and how they were found", paragraphs: thr });
+
+  sections.push({ id: "pathway", title: "Step-by-step interpretation", paragraphs: interpretation.path.steps.map((s) => `${s.title}: ${sentenceCase(s.finding)}.`) });
+
+  const supported = interpretation.patterns.filter((p) => p.support === "strong" || p.support === "moderate" || p.support === "weak");
+  const pat: string[] = [];
+  if (!supported.length) pat.push("No limitation pattern is supported by the data available.");
+  for (const p of supported.slice(0, 3)) {
+    const forText = p.for.map((f) => f.text.split(" → ").pop()).join("; ");
+    const againstText = p.against.map((f) => f.text.split(" → ").pop()).join("; ");
+    pat.push(`${p.statement} For: ${forText || "none"}.${againstText ? ` Against: ${againstText}.` : ""}`);
+  }
+  sections.push({ id: "patterns", title: "Limitation pattern", paragraphs: pat });
+
+  if (interpretation.schemes.length) {
+    const sch: string[] = [];
+    for (const s of interpretation.schemes) {
+      const overall = s.overall ? `${s.overall.label} (${s.overall.basis})` : "no overall category";
+      const details = s.kind === "graph" ? s.path!.steps.map((st) => `${st.title}: ${st.finding}`) : s.axes.map((a) => a.text);
+      sch.push(`${s.name}: ${overall}. ${details.join("; ")}.`);
+    }
+    sections.push({ id: "schemes", title: "Published schemes", paragraphs: sch });
+  }
+
+  const domains = extras.domains ?? [];
+  if (domains.length || interpretation.referral === "training") {
+    const rx: string[] = [];
+    if (!domains.length) rx.push("Intensity domains were not available; a prescription needs VT1 and VT2.");
+    for (const d of domains) {
+      const hr = d.hrFromBpm !== undefined || d.hrToBpm !== undefined ? `heart rate ${d.hrFromBpm ?? "…"}–${d.hrToBpm ?? "…"} bpm` : "";
+      const w = d.workFromW !== undefined || d.workToW !== undefined ? `work rate ${d.workFromW ?? "…"}–${d.workToW ?? "…"} W` : "";
+      rx.push(`${d.name}: ${[hr, w].filter(Boolean).join(", ") || "no range available"}.`);
+    }
+    if (domains.length) rx.push("Ranges derive from this test's thresholds; medication changes (notably beta-blockers) alter heart-rate targets.");
+    sections.push({ id: "prescription", title: "Exercise prescription (intensity domains)", paragraphs: rx });
+  }
+
+  if (extras.comparison) {
+    sections.push({
+      id: "serial",
+      title: "Comparison with the previous test",
+      paragraphs: [`Reference population for test–retest variability: ${extras.comparison.populationLabel}.`, ...extras.comparison.items.filter((i) => i.change !== null).map((i) => i.text)],
+    });
+  }
+
+  const concl: string[] = [];
+  const end = interpretation.path.end;
+  if (end) concl.push(`${end.label}.`);
+  if (supported[0]) concl.push(supported[0].statement);
+  for (const s of interpretation.schemes) if (s.overall && s.schemeId !== "peak-vo2-grade") concl.push(`${s.name}: ${s.overall.label}.`);
+  if (!e.peakConclusionsAllowed) concl.push("Capacity could not be established because effort was submaximal.");
+  sections.push({ id: "conclusion", title: "Conclusion", paragraphs: concl });
+
+  const nonDefault = interpretation.settingsUsed.filter((s) => !s.isDefault);
+  const caution = [DRAFT_CAUTION];
+  if (nonDefault.length) caution.push(`Lab choices differing from the defaults: ${nonDefault.map((s) => `${s.label}: ${s.optionLabel}`).join("; ")}.`);
+  sections.push({ id: "caution", title: "Caution", paragraphs: caution });
+
+  return {
+    status: "draft",
+    banner: DRAFT_BANNER,
+    sections: [{ id: "status", title: DRAFT_BANNER, paragraphs: [] }, ...sections],
+    caution: DRAFT_CAUTION,
+    sourceIds: unique([...interpretation.sourceIds, ...(extras.comparison?.sourceIds ?? [])]),
+  };
+}
