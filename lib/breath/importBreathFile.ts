@@ -1080,7 +1080,7 @@ function collapseCarriedForward(rows: BreathRow[], issues: Issue[]): BreathRow[]
     const b = rows[i][field];
     if (a === undefined || b === undefined) continue;
     pairs++;
-    if (a === b) same++;
+    if (a === b && rows[i].timeS !== rows[i - 1].timeS) same++;
   }
   if (pairs === 0 || same < 0.4 * pairs) return rows;
   const kept: BreathRow[] = [];
