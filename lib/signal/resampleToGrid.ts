@@ -52,6 +52,7 @@ export function resampleToGrid(rows: readonly BreathRow[], options: ResampleOpti
       while (j + 1 < ts.length && ts[j + 1] < t) j++;
       let v: number;
       if (ts[j] === t || j + 1 >= ts.length) v = vs[j];
+      else if (ts[j + 1] === t) v = vs[j + 1];
       else {
         const dt = ts[j + 1] - ts[j];
         if (dt > maxGap) continue;

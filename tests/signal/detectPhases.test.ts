@@ -1,0 +1,79 @@
+import { describe, expect, it } from "vitest";
+import type { BreathRow } from "../../lib/breath";
+import { conditionTable, detectPhases } from "../../lib/signal";
+import { syntheticSeries } from "../fixtures/layouts/syntheticSeries";
+
+// INVENTED SYNTHETIC DATA with known phases: rest 0–180 s (0 W), warm-up 180–360 s (20 W), ramp 25 W/min
+// 360–840 s, recovery from 840 s (0 W); breath times are whole seconds 2–3 s apart.
+const series = syntheticSeries();
+const noMarkers: BreathRow[] = series.map(({ phase: _phase, ...b }) => b);
+
+describe("detectPhases from the work rate", () => {
+  const d = detectPhases(Object.freeze(noMarkers));
+
+  it("finds rest, warm-up, incremental and recovery at the built-in times (within one breath, ≤ 5 s)", () => {
+    expect(d.phases.map((p) => p.phase)).toEqual(["rest", "warmup", "exercise", "recovery"]);
+    const at = (phase: string) => d.phases.find((p) => p.phase === phase)!;
+    expect(Math.abs(at("warmup").startS - 180)).toBeLessThanOrEqual(5);
+    expect(Math.abs(at("exercise").startS - 360)).toBeLessThanOrEqual(5);
+    expect(Math.abs(at("exercise").endS - 840)).toBeLessThanOrEqual(5);
+    expect(Math.abs(at("recovery").startS - 840)).toBeLessThanOrEqual(5);
+    expect(d.exercise).toEqual({ startS: at("exercise").startS, endS: at("exercise").endS });
+  });
+
+  it("ramp rate by regression = 25 W/min ± 1", () => {
+    expect(Math.abs(d.rampRateWPerMin! - 25)).toBeLessThan(1);
+  });
+
+  it("a step protocol (+15 W every 60 s from 50 W) gives 15 ± 1 W/min", () => {
+    const steps: BreathRow[] = [];
+    for (let t = 0; t <= 900; t += 2) {
+      const w = t < 120 ? 0 : t < 300 ? 50 : t < 840 ? 50 + 15 * (1 + Math.floor((t - 300) / 60)) : 0;
+      steps.push({ timeS: t, workW: w, vo2MlMin: 500 + 10 * w });
+    }
+    const s = detectPhases(steps);
+    expect(s.phases.map((p) => p.phase)).toEqual(["rest", "warmup", "exercise", "recovery"]);
+    expect(Math.abs(s.rampRateWPerMin! - 15)).toBeLessThan(1);
+    expect(s.exercise!.startS).toBe(300);
+  });
+
+  it("treadmill speed steps: phases found, no ramp rate in watts", () => {
+    const rows: BreathRow[] = [];
+    for (let t = 0; t <= 720; t += 3)
+      rows.push({ timeS: t, speedKmh: t < 120 ? 0 : t < 660 ? 4 + Math.floor((t - 120) / 60) : 0, vo2MlMin: 1000 });
+    const s = detectPhases(rows);
+    expect(s.phases.map((p) => p.phase)).toEqual(["rest", "exercise", "recovery"]);
+    expect(s.rampRateWPerMin).toBeNull();
+  });
+
+  it("no load and no markers: a clear issue, no exercise span", () => {
+    const s = detectPhases(series.map((b) => ({ timeS: b.timeS, vo2MlMin: b.vo2MlMin })));
+    expect(s.exercise).toBeNull();
+    expect(s.issues[0].code).toBe("phases-not-found");
+  });
+});
+
+describe("phases from markers and the whole conditioning pass", () => {
+  it("markers win over the work rate", () => {
+    const d = detectPhases(series);
+    expect(d.phases[0].source).toBe("markers");
+    expect(d.exercise).toEqual({ startS: 361, endS: 837 }); // first/last breath marked "exercise"
+  });
+
+  it("conditionTable records its settings and carries the averaging label", () => {
+    const c = conditionTable(
+      { shape: "breath", rows: series, fields: ["timeS", "vo2MlMin"] },
+      { averaging: { kind: "time-bin", seconds: 30, label: "30-s time bins" }, artefacts: { k: 3 } },
+    );
+    expect(c.settings).toEqual({
+      averaging: { kind: "time-bin", seconds: 30, label: "30-s time bins" },
+      artefacts: { k: 3, halfWindow: 5, fields: ["vo2MlMin", "vco2MlMin", "veLMin"], centre: "mean", enabled: true },
+      rer: { min: 0.5, max: 2 },
+    });
+    expect(c.averaging.label).toBe("30-s time bins");
+    // 30-s bins aligned at 0 s, one per bin that holds breaths: floor(last time / 30) + 1
+    const last = series[series.length - 1].timeS;
+    expect(c.averaged.length).toBe(Math.floor(last / 30) + 1);
+    expect(Math.abs(c.rampRateWPerMin! - 25)).toBeLessThan(1);
+  });
+});

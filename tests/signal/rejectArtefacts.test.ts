@@ -1,0 +1,89 @@
+import { describe, expect, it } from "vitest";
+import type { BreathRow } from "../../lib/breath";
+import { rejectArtefacts } from "../../lib/signal";
+
+/** Small deterministic generator (LCG, Numerical Recipes constants) so the noise is the same on every run. */
+function lcg(seed: number) {
+  let s = seed >>> 0;
+  return () => {
+    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
+    return s / 2 ** 32;
+  };
+}
+
+// INVENTED SYNTHETIC DATA: 400 breaths 2.5 s apart, VO2 ramping 400 → 2400 mL/min with a deterministic
+// breath-to-breath wobble (sum of sines, |wobble| ≤ 45 mL/min), RER 0.9, VE = 30·VCO2/1000; spikes of
+// +1500 mL/min VO2 (and +1350 VCO2) injected at known breaths.
+function series(spikes: number[]): BreathRow[] {
+  const rows: BreathRow[] = [];
+  for (let i = 0; i < 400; i++) {
+    const vo2 = 400 + 5 * i + 30 * Math.sin(i * 2.1) + 15 * Math.cos(i * 0.7);
+    const vco2 = 0.9 * vo2 + 10 * Math.sin(i * 1.3);
+    rows.push({ timeS: i * 2.5, vo2MlMin: vo2, vco2MlMin: vco2, veLMin: (30 * vco2) / 1000, sourceRow: i + 2 });
+  }
+  for (const k of spikes) {
+    rows[k] = { ...rows[k], vo2MlMin: rows[k].vo2MlMin! + 1500, vco2MlMin: rows[k].vco2MlMin! + 1350 };
+  }
+  return rows;
+}
+
+describe("rejectArtefacts (local mean ± k SD, convention counted by doi 10.1055/a-2495-5364)", () => {
+  const spikes = [3, 57, 150, 151 + 20, 398];
+  const rows = Object.freeze(series(spikes).map((r) => Object.freeze(r)));
+
+  it("removes exactly the injected spikes, with reasons, and does not mutate the input", () => {
+    const r = rejectArtefacts(rows);
+    expect(r.removed.map((x) => x.index)).toEqual(spikes);
+    expect(r.clean.length).toBe(400 - spikes.length);
+    for (const x of r.removed) expect(x.reason).toMatch(/SD from the local mean .* of the 10 surrounding breaths \(limit 4 SD\)/);
+    expect(r.removed[0].sourceRow).toBe(5);
+  });
+
+  it("k = 3 is stricter than k = 4 and still finds every spike", () => {
+    const r3 = rejectArtefacts(rows, { rule: { k: 3 } });
+    expect(r3.removed.length).toBeGreaterThanOrEqual(spikes.length);
+    for (const k of spikes) expect(r3.removed.map((x) => x.index)).toContain(k);
+  });
+
+  it("median centre finds the same spikes", () => {
+    expect(rejectArtefacts(rows, { rule: { centre: "median" } }).removed.map((x) => x.index)).toEqual(spikes);
+  });
+
+  it("hand arithmetic: one spike on a flat line of alternating 1000/1010", () => {
+    // neighbours of breath 10 (5 each side): five 1000 and five 1010 → mean 1005, sample SD = √(10·25/9) = 5.27
+    // 4 SD = 21.1: breath 10 at 1030 deviates 25 → removed; at 1025 it deviates 20 → kept
+    const flat = (v: number): BreathRow[] =>
+      Array.from({ length: 21 }, (_, i) => ({ timeS: i * 3, vo2MlMin: i === 10 ? v : i % 2 ? 1010 : 1000 }));
+    expect(rejectArtefacts(flat(1030), { rule: { fields: ["vo2MlMin"] } }).removed.map((x) => x.index)).toEqual([10]);
+    expect(rejectArtefacts(flat(1025), { rule: { fields: ["vo2MlMin"] } }).removed).toEqual([]);
+  });
+
+  it("RER outside 0.5–2 and impossible values are set aside (common practice screens)", () => {
+    const rows2 = series([]);
+    rows2[100] = { ...rows2[100], vco2MlMin: rows2[100].vo2MlMin! * 2.3 };
+    rows2[200] = { ...rows2[200], vco2MlMin: rows2[200].vo2MlMin! * 0.4 };
+    rows2[300] = { ...rows2[300], veLMin: 0 };
+    const r = rejectArtefacts(rows2);
+    expect(r.removed.map((x) => x.index)).toEqual([100, 200, 300]);
+    expect(r.removed[0].reason).toMatch(/^RER 2\.30 is above 2/);
+    expect(r.removed[1].reason).toMatch(/^RER 0\.40 is below 0\.5/);
+    expect(r.issues.find((i) => i.code === "rer-out-of-range")?.message).toMatch(/^2 breath/);
+  });
+
+  it("with random (uniform) noise the small 10-breath SD estimate gives a few false removals, as expected of the rule", () => {
+    // INVENTED: same ramp with uniform noise ±40 mL/min; the spikes are still all found, and the extra
+    // removals stay rare (≤ 1 % of breaths) — the rule is a screen, not a statistical test (Liang 1996 caution)
+    const rnd = lcg(42);
+    const noisy: BreathRow[] = Array.from({ length: 400 }, (_, i) => {
+      const vo2 = 400 + 5 * i + 80 * (rnd() - 0.5) + (spikes.includes(i) ? 1500 : 0);
+      return { timeS: i * 2.5, vo2MlMin: vo2 };
+    });
+    const removed = rejectArtefacts(noisy, { rule: { fields: ["vo2MlMin"] } }).removed.map((x) => x.index);
+    for (const k of spikes) expect(removed).toContain(k);
+    expect(removed.length - spikes.length).toBeLessThanOrEqual(4);
+  });
+
+  it("stage tables: only the screens apply", () => {
+    expect(rejectArtefacts(rows, { stageRows: true }).removed).toEqual([]);
+  });
+});
