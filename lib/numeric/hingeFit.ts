@@ -12,6 +12,8 @@ export interface HingeFitOptions {
   minPointsEachSide?: number;
   /** Sub-steps per interval when refining the breakpoint between data points. @default 8 */
   refineSteps?: number;
+  /** Keep only breakpoints whose hinge coefficient (slope change) has this sign. @default "any" */
+  hingeSign?: "positive" | "negative" | "any";
 }
 
 export interface HingeFit {
@@ -71,6 +73,7 @@ export function hingeFit(x: ArrayLike<number>, y: ArrayLike<number>, options: Hi
   const flat = (options.below ?? "line") === "flat";
   const m = Math.max(2, options.minPointsEachSide ?? 4);
   const refineSteps = Math.max(1, options.refineSteps ?? 8);
+  const sign = options.hingeSign ?? "any";
 
   const idx: number[] = [];
   for (let i = 0; i < x.length; i++) {
@@ -138,23 +141,48 @@ export function hingeFit(x: ArrayLike<number>, y: ArrayLike<number>, options: Hi
   const baseBeta = solveLinearSystem(gram, xty);
   const sseSingle = baseBeta ? Math.max(0, syy - baseBeta.reduce((s, b, i) => s + b * xty[i], 0)) : NaN;
 
-  /** SSE and coefficients with the hinge at x0, points k..n-1 above. */
+  /** SSE and coefficients with the hinge at x0, points k..n-1 above (in-place elimination, no allocation). */
+  const q = p + 1;
+  const aug = new Float64Array(q * (q + 1));
+  const rhs = new Float64Array(q);
+  let scale = 0;
+  for (const row of gram) for (const v of row) scale = Math.max(scale, Math.abs(v));
+  const tiny = (scale || 1) * 1e-12;
   const evaluate = (k: number, x0: number): { sse: number; beta: number[] } | null => {
     const nu = n - k;
-    const a: number[][] = gram.map((row) => [...row, 0]);
-    const hRow: number[] = [];
-    for (let j = 0; j < p; j++) {
-      const v = sufCX[j][k] - x0 * sufC[j][k];
-      a[j][p] = v;
-      hRow.push(v);
+    const w = q + 1;
+    for (let i = 0; i < p; i++) {
+      for (let j = 0; j < p; j++) aug[i * w + j] = gram[i][j];
+      const v = sufCX[i][k] - x0 * sufC[i][k];
+      aug[i * w + p] = v;
+      aug[p * w + i] = v;
+      aug[i * w + q] = xty[i];
+      rhs[i] = xty[i];
     }
-    hRow.push(sufXX[k] - 2 * x0 * sufX[k] + nu * x0 * x0);
-    a.push(hRow);
-    const rhs = [...xty, sufXY[k] - x0 * sufY[k]];
-    const beta = solveLinearSystem(a, rhs);
-    if (!beta) return null;
-    const sse = Math.max(0, syy - beta.reduce((s, b, i) => s + b * rhs[i], 0));
-    return { sse, beta };
+    aug[p * w + p] = sufXX[k] - 2 * x0 * sufX[k] + nu * x0 * x0;
+    rhs[p] = sufXY[k] - x0 * sufY[k];
+    aug[p * w + q] = rhs[p];
+    for (let col = 0; col < q; col++) {
+      let piv = col;
+      for (let r = col + 1; r < q; r++) if (Math.abs(aug[r * w + col]) > Math.abs(aug[piv * w + col])) piv = r;
+      if (!(Math.abs(aug[piv * w + col]) > tiny)) return null;
+      if (piv !== col) for (let c = 0; c < w; c++) [aug[piv * w + c], aug[col * w + c]] = [aug[col * w + c], aug[piv * w + c]];
+      for (let r = col + 1; r < q; r++) {
+        const f = aug[r * w + col] / aug[col * w + col];
+        if (f !== 0) for (let c = col; c < w; c++) aug[r * w + c] -= f * aug[col * w + c];
+      }
+    }
+    const beta = new Array<number>(q).fill(0);
+    for (let r = q - 1; r >= 0; r--) {
+      let acc = aug[r * w + q];
+      for (let c = r + 1; c < q; c++) acc -= aug[r * w + c] * beta[c];
+      beta[r] = acc / aug[r * w + r];
+    }
+    if (!beta.every(Number.isFinite)) return null;
+    if ((sign === "positive" && !(beta[p] > 0)) || (sign === "negative" && !(beta[p] < 0))) return null;
+    let fitted = 0;
+    for (let i = 0; i < q; i++) fitted += beta[i] * rhs[i];
+    return { sse: Math.max(0, syy - fitted), beta };
   };
 
   let best: { k: number; x0: number; sse: number; beta: number[] } | null = null;

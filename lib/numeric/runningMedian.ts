@@ -11,19 +11,28 @@ export function runningMedian(values: ArrayLike<number>, halfWidth: number): Flo
   if (!Number.isInteger(halfWidth) || halfWidth < 0) throw new Error("runningMedian requires a non-negative integer halfWidth");
   const n = values.length;
   const out = new Float64Array(n);
-  const window: number[] = [];
+  const window = new Float64Array(2 * halfWidth + 1);
   for (let i = 0; i < n; i++) {
-    window.length = 0;
+    let len = 0;
     const from = Math.max(0, i - halfWidth);
     const to = Math.min(n - 1, i + halfWidth);
-    for (let j = from; j <= to; j++) if (Number.isFinite(values[j])) window.push(values[j]);
-    if (window.length === 0) {
+    for (let j = from; j <= to; j++) {
+      const v = values[j];
+      if (!Number.isFinite(v)) continue;
+      // insertion into the sorted window
+      let k = len++;
+      while (k > 0 && window[k - 1] > v) {
+        window[k] = window[k - 1];
+        k--;
+      }
+      window[k] = v;
+    }
+    if (len === 0) {
       out[i] = NaN;
       continue;
     }
-    window.sort((a, b) => a - b);
-    const m = window.length >> 1;
-    out[i] = window.length % 2 === 1 ? window[m] : (window[m - 1] + window[m]) / 2;
+    const m = len >> 1;
+    out[i] = len % 2 === 1 ? window[m] : (window[m - 1] + window[m]) / 2;
   }
   return out;
 }

@@ -3,6 +3,11 @@ import { PrefixSums, type LinearFit } from "./linearRegression";
 export interface TwoLineFitOptions {
   /** Fewest points in each segment. @default 4 */
   minPointsEachSide?: number;
+  /**
+   * Only splits for which this returns true are considered (e.g. acceptance rules on the slopes);
+   * receives the two fits and their intersection x. @default every split
+   */
+  accept?: (lower: LinearFit, upper: LinearFit, intersectionX: number) => boolean;
 }
 
 export interface TwoLineFit {
@@ -54,6 +59,8 @@ export function twoLineFit(x: ArrayLike<number>, y: ArrayLike<number>, options: 
     const a = ps.fit(0, k);
     const b = ps.fit(k, n);
     const sse = a.sse + b.sse;
+    if (options.accept && !options.accept(a, b, a.slope !== b.slope ? (b.intercept - a.intercept) / (a.slope - b.slope) : NaN))
+      continue;
     if (Number.isFinite(sse) && sse < bestSse) {
       bestSse = sse;
       best = k;

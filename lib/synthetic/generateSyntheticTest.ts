@@ -120,10 +120,10 @@ export function generateSyntheticTest(overrides: Partial<SyntheticSpec>, seed: n
   const rng = seededRandom(seed);
   const noise = NOISE_LEVELS[spec.noise];
 
-  // ---- thresholds in VO2, made feasible (VT1 at least 90 s of ramp after the VO2 lag, VT2 above VT1)
+  // ---- thresholds in VO2, made feasible (VT1 at least 150 s of ramp above unloaded VO2, VT2 above VT1)
   const peak = spec.peakVo2MlMin;
   const rampVo2PerS = (spec.gainMlMinPerW * spec.rampWPerMin) / 60;
-  const v1Min = spec.vo2UnloadedMlMin + rampVo2PerS * 90;
+  const v1Min = spec.vo2UnloadedMlMin + rampVo2PerS * 150;
   const v1 = Math.min(Math.max(spec.vt1FractionOfPeak * peak, v1Min), 0.85 * peak);
   const v2 =
     spec.vt2FractionOfPeak === null ? null : Math.min(Math.max(spec.vt2FractionOfPeak * peak, v1 + 0.08 * peak), 0.96 * peak);

@@ -16,7 +16,7 @@ export interface SyntheticBankOptions {
 
 /**
  * A varied bank of synthetic test specs (invented data) for accuracy checks of threshold methods:
- * peak VO2 900–4200 mL/min, VT1 at 40–70 % and VT2 at 70–90 % of peak (VT2 ≥ VT1 + 12 points), ramps
+ * peak VO2 900–4200 mL/min, VT1 at 40–70 % (and ≥ unloaded VO2 + 12 % of peak) and VT2 at 70–90 % of peak (VT2 ≥ VT1 + 12 points), ramps
  * 10–30 W/min, S1 0.88–1.02, S2 1.2–1.5, VE/VCO2 slope 22–45, VO2 time constant 25–75 s, VCO2 extra lag
  * 0–25 s, VE lag 0–15 s, slow component, plateaus, autocorrelated noise, artefacts and EOV in some cases.
  * Noise levels cycle so each level gets an equal share.
@@ -29,11 +29,12 @@ export function syntheticBank(size: number, options: SyntheticBankOptions = {}):
   for (let i = 0; i < size; i++) {
     const noise = levels[i % levels.length];
     const weightKg = u(55, 100);
-    const peakPerKg = u(12, 50);
+    const peakPerKg = u(14, 50);
     const peakVo2MlMin = Math.min(4200, Math.max(900, peakPerKg * weightKg));
     const vo2RestMlMin = 3.5 * weightKg * u(0.9, 1.15);
     const vo2UnloadedMlMin = vo2RestMlMin + u(150, 330);
-    const vt1 = u(0.4, 0.7);
+    // VT1 lies above unloaded VO2 by at least 12 % of peak (an AT below unloaded pedalling is not physiological)
+    const vt1 = Math.min(0.7, Math.max(u(0.4, 0.7), vo2UnloadedMlMin / peakVo2MlMin + 0.12));
     const vt2 = Math.min(0.9, Math.max(u(0.7, 0.9), vt1 + 0.12));
     const fit = peakPerKg > 30;
     const spec: Partial<SyntheticSpec> = {

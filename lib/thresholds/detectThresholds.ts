@@ -1,0 +1,503 @@
+import type { BreathRow, NumericField } from "../breath";
+import { makeIssue, measured, notDetermined, type Issue, type Measured, type Provenance } from "../core";
+import { binByTime, PrefixSums, quantile, runningMedian, seededRandom } from "../numeric";
+import type { ConditionedTest } from "../signal";
+import { combineEstimates, timeAtLevel, vo2AtTime, type Consensus } from "./consensus";
+import { modifiedVSlope } from "./modifiedVSlope";
+import { rcpVentilatoryEquivalents } from "./rcpVentilatoryEquivalents";
+import { rcpVeVco2 } from "./rcpVeVco2";
+import type {
+  MethodEstimate,
+  ThresholdEstimate,
+  ThresholdOverride,
+  ThresholdResult,
+  ThresholdSeries,
+  ThresholdWhich,
+} from "./thresholdTypes";
+import { ventilatoryEquivalents } from "./ventilatoryEquivalents";
+import { vSlope } from "./vSlope";
+
+export interface ThresholdSeriesOptions {
+  /** Time-bin length, s (10–20 s keeps curve shape while damping breath noise; 20 s chosen on the synthetic bank). @default 20 */
+  binS?: number;
+  /** Lead-in of the ramp left out (VO2 lag, CO2-store transients), s (recalled practice). @default 60 */
+  excludeRampStartS?: number;
+  /** Set aside breaths beyond ±4 SD of a 9-breath running median of VO2, VCO2 or VE. @default true */
+  spikeGuard?: boolean;
+}
+
+const BIN_FIELDS = ["vo2MlMin", "vco2MlMin", "veLMin", "peto2MmHg", "petco2MmHg"] as const;
+
+/**
+ * Build the binned series the threshold methods read: clean breaths of the incremental phase, spikes set
+ * aside (beyond ±4 SD of a 9-breath running median; ±4 SD is the most used convention, source `vt-outlier-4sd`,
+ * the robust SD from the median absolute deviation is our choice), then 20-s time-bin means (our choice; bins of
+ * 10–20 s keep the shape of the curves while damping breath noise). Null when there is no exercise phase.
+ */
+export function buildThresholdSeries(test: ConditionedTest, options: ThresholdSeriesOptions = {}): ThresholdSeries | null {
+  const binS = options.binS ?? 20;
+  const lead = options.excludeRampStartS ?? 60;
+  const ex = test.exercise;
+  if (!ex || !(ex.endS > ex.startS)) return null;
+  const rows = test.clean.filter((r) => r.timeS >= ex.startS && r.timeS <= ex.endS);
+  const t = rows.map((r) => r.timeS);
+  const cols = BIN_FIELDS.map((f) => rows.map((r) => (typeof r[f] === "number" ? (r[f] as number) : NaN)));
+  const skip = new Array<boolean>(rows.length).fill(false);
+  let spikes = 0;
+  if (options.spikeGuard ?? true) {
+    for (let c = 0; c < 3; c++) {
+      const med = runningMedian(cols[c], 4);
+      const res = cols[c].map((v, i) => v - med[i]);
+      const mad = quantile(res.map(Math.abs), 0.5);
+      const sd = 1.4826 * mad;
+      if (!(sd > 0)) continue;
+      for (let i = 0; i < res.length; i++) if (Math.abs(res[i]) > 4 * sd) skip[i] = true;
+    }
+    spikes = skip.filter(Boolean).length;
+  }
+  const startS = Math.min(ex.startS + lead, ex.endS);
+  const bins = binByTime(t, cols, { startS, endS: ex.endS + 1e-9, binS, skip });
+  const keep: number[] = [];
+  for (let b = 0; b < bins.counts.length; b++) if (bins.counts[b] > 0 && Number.isFinite(bins.means[0][b])) keep.push(b);
+  const pick = (a: Float64Array) => Float64Array.from(keep, (b) => a[b]);
+  const timeS = Float64Array.from(keep, (b) => {
+    // centre of the bin's breaths is closer to the data than the nominal centre at the last bin
+    const c = bins.centerS[b];
+    return Math.min(c, ex.endS);
+  });
+  const vo2 = pick(bins.means[0]);
+  const vco2 = pick(bins.means[1]);
+  return {
+    binS,
+    timeS,
+    vo2MlMin: vo2,
+    vco2MlMin: vco2,
+    veLMin: pick(bins.means[2]),
+    peto2MmHg: pick(bins.means[3]),
+    petco2MmHg: pick(bins.means[4]),
+    vo2Trend: localTrend(timeS, vo2, 3),
+    vco2Trend: localTrend(timeS, vco2, 3),
+    span: { startS, endS: ex.endS },
+    spikesRemoved: spikes,
+    averaging: `${binS}-s time bins of the clean breaths from ramp start + ${lead} s to ramp end; ${spikes} spike breath(s) beyond ±4 SD of a 9-breath running median set aside`,
+  };
+}
+
+/** Local linear trend (±half bins) evaluated at each point, O(n) with prefix sums. NaN points are bridged. */
+function localTrend(t: Float64Array, v: Float64Array, half: number): Float64Array {
+  const xs: number[] = [];
+  const ys: number[] = [];
+  const at: number[] = [];
+  for (let i = 0; i < t.length; i++)
+    if (Number.isFinite(v[i])) {
+      xs.push(t[i] - t[0]);
+      ys.push(v[i]);
+      at.push(i);
+    }
+  const out = new Float64Array(t.length).fill(NaN);
+  const ps = new PrefixSums(xs, ys);
+  for (let k = 0; k < xs.length; k++) {
+    const from = Math.max(0, k - half);
+    const to = Math.min(xs.length, k + half + 1);
+    const f = ps.fit(from, to);
+    out[at[k]] = Number.isFinite(f.slope) ? f.intercept + f.slope * xs[k] : ys[k];
+  }
+  // fill gaps by carrying neighbours
+  for (let i = 1; i < out.length; i++) if (!Number.isFinite(out[i])) out[i] = out[i - 1];
+  return out;
+}
+
+export interface ValueAtTimeOptions {
+  /** Average the breaths within ±windowS/2 instead of interpolating (0 = interpolate). @default 0 */
+  windowS?: number;
+}
+
+/**
+ * A field's value at a time: linear interpolation between the breaths either side that carry the field
+ * (common practice), or the mean within a centred window. NaN when the time lies outside the data.
+ * Rows must be in time order.
+ */
+export function valueAtTime(
+  rows: readonly BreathRow[],
+  field: NumericField,
+  timeS: number,
+  options: ValueAtTimeOptions = {},
+): number {
+  const w = options.windowS ?? 0;
+  if (!Number.isFinite(timeS) || rows.length === 0) return NaN;
+  if (w > 0) {
+    let s = 0;
+    let n = 0;
+    for (const r of rows) {
+      const v = r[field];
+      if (r.timeS >= timeS - w / 2 && r.timeS <= timeS + w / 2 && typeof v === "number" && Number.isFinite(v)) {
+        s += v;
+        n++;
+      }
+    }
+    return n > 0 ? s / n : NaN;
+  }
+  let lo = 0;
+  let hi = rows.length - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (rows[mid].timeS <= timeS) lo = mid;
+    else hi = mid;
+  }
+  let a = -1;
+  for (let i = lo; i >= 0; i--)
+    if (rows[i].timeS <= timeS && Number.isFinite(rows[i][field] as number)) {
+      a = i;
+      break;
+    }
+  let b = -1;
+  for (let i = Math.max(0, lo); i < rows.length; i++)
+    if (rows[i].timeS >= timeS && Number.isFinite(rows[i][field] as number)) {
+      b = i;
+      break;
+    }
+  if (a < 0 || b < 0) return NaN;
+  const va = rows[a][field] as number;
+  const vb = rows[b][field] as number;
+  if (rows[b].timeS === rows[a].timeS) return vb;
+  return va + ((timeS - rows[a].timeS) / (rows[b].timeS - rows[a].timeS)) * (vb - va);
+}
+
+export interface DetectThresholdsOptions {
+  overrides?: ThresholdOverride[];
+  /** Block-bootstrap resamples for the band (0 = none). @default 30 */
+  bootstrap?: number;
+  /** Seed of the resampling. @default 1 */
+  seed?: number;
+  series?: ThresholdSeriesOptions;
+  /** Agreement tolerance between methods, fraction of VO2 (our choice). @default 0.1 */
+  agreementFraction?: number;
+}
+
+const VT1_PREFERENCE = ["vt1-v-slope", "vt1-ventilatory-equivalents", "vt1-modified-v-slope"];
+const VT2_PREFERENCE = ["vt2-ve-vco2-break", "vt2-ventilatory-equivalents"];
+
+interface Core {
+  methods: MethodEstimate[];
+  vt1: Consensus;
+  vt2: Consensus;
+  vt1TimeS: number | null;
+  vt2TimeS: number | null;
+}
+
+function runMethods(series: ThresholdSeries, agreementFraction: number): Core {
+  const vt2Methods = [rcpVeVco2(series), rcpVentilatoryEquivalents(series)];
+  const vt2 = combineEstimates(vt2Methods, { agreementFraction, preference: VT2_PREFERENCE });
+  const vt2TimeS = vt2.vo2MlMin === null ? null : timeAtLevel(series, series.vo2Trend, vt2.vo2MlMin);
+  const upper =
+    vt2TimeS !== null && vt2.confidence !== "low"
+      ? vt2TimeS
+      : vt2TimeS !== null
+        ? Math.max(vt2TimeS, series.span.endS - 60)
+        : series.span.endS;
+  const vt1Methods = [
+    vSlope(series, { endS: upper }),
+    modifiedVSlope(series, { endS: upper }),
+    ventilatoryEquivalents(series, { endS: upper }),
+  ];
+  const vt1 = combineEstimates(vt1Methods, { agreementFraction, preference: VT1_PREFERENCE });
+  const vt1TimeS = vt1.vo2MlMin === null ? null : timeAtLevel(series, series.vo2Trend, vt1.vo2MlMin);
+  return { methods: [...vt1Methods, ...vt2Methods], vt1, vt2, vt1TimeS, vt2TimeS };
+}
+
+/** Residual block bootstrap of the binned series (blocks of 4 bins, residuals from a 5-bin centred mean). */
+function bootstrapSeries(
+  series: ThresholdSeries,
+  replicates: number,
+  seed: number,
+  agreementFraction: number,
+): { vt1: (number | null)[]; vt2: (number | null)[] } {
+  const rng = seededRandom(seed);
+  const n = series.timeS.length;
+  const fields = ["vo2MlMin", "vco2MlMin", "veLMin", "peto2MmHg", "petco2MmHg"] as const;
+  const smooth = fields.map((f) => centredMean(series[f], 2));
+  const resid = fields.map((f, c) => series[f].map((v, i) => v - smooth[c][i]));
+  const block = 4;
+  const out = { vt1: [] as (number | null)[], vt2: [] as (number | null)[] };
+  for (let r = 0; r < replicates; r++) {
+    const order = new Int32Array(n);
+    for (let i = 0; i < n; i += block) {
+      const start = rng.int(Math.max(1, n - block + 1));
+      for (let k = 0; k < block && i + k < n; k++) order[i + k] = start + k;
+    }
+    const s: ThresholdSeries = { ...series };
+    fields.forEach((f, c) => {
+      s[f] = Float64Array.from(smooth[c], (v, i) => v + resid[c][order[i]]);
+    });
+    const core = runMethods(s, agreementFraction);
+    out.vt1.push(core.vt1.vo2MlMin);
+    out.vt2.push(core.vt2.vo2MlMin);
+  }
+  return out;
+}
+
+function centredMean(v: Float64Array, half: number): Float64Array {
+  const out = new Float64Array(v.length);
+  for (let i = 0; i < v.length; i++) {
+    let s = 0;
+    let n = 0;
+    for (let k = Math.max(0, i - half); k <= Math.min(v.length - 1, i + half); k++)
+      if (Number.isFinite(v[k])) {
+        s += v[k];
+        n++;
+      }
+    out[i] = n > 0 ? s / n : NaN;
+  }
+  return out;
+}
+
+/**
+ * Detect VT1 and VT2 (RCP) by several methods and combine them (method ids `vt1-v-slope`,
+ * `vt1-modified-v-slope`, `vt1-ventilatory-equivalents`, `vt2-ve-vco2-break`, `vt2-ventilatory-equivalents`;
+ * see README-thresholds.md). Each method reports its estimate, data span, fit and a quality verdict; the
+ * consensus needs two agreeing methods for "moderate"/"high" confidence (recalled practice), and the band joins
+ * the agreeing methods' spread with a block-bootstrap 10th–90th percentile interval. Reviewer overrides
+ * replace the consensus (see `applyThresholdOverrides`). Work rate, HR and speed are read at the threshold time.
+ * Deterministic for given inputs and seed. VO2 in mL/min; times in s.
+ */
+export function detectThresholds(test: ConditionedTest, options: DetectThresholdsOptions = {}): ThresholdResult {
+  const issues: Issue[] = [];
+  const series = buildThresholdSeries(test, options.series);
+  const agreementFraction = options.agreementFraction ?? 0.1;
+  if (!series || series.timeS.length < 9) {
+    const reason = !series ? "no incremental exercise phase was found" : `only ${series.timeS.length} time bins of exercise data`;
+    issues.push(makeIssue("warning", "thresholds-no-exercise-data", `Ventilatory thresholds cannot be determined: ${reason}.`));
+    const empty = (which: ThresholdWhich) => emptyEstimate(which, reason);
+    return applyThresholdOverrides(
+      test,
+      {
+        vt1: empty("vt1"),
+        vt2: empty("vt2"),
+        methods: [],
+        issues,
+        series: {
+          binS: options.series?.binS ?? 20,
+          span: null,
+          averaging: series?.averaging ?? "none",
+          bins: series?.timeS.length ?? 0,
+        },
+      },
+      options.overrides ?? [],
+    );
+  }
+  for (const f of ["vco2MlMin", "veLMin"] as const) {
+    if (!series[f].some(Number.isFinite))
+      issues.push(
+        makeIssue(
+          "warning",
+          "thresholds-missing-signal",
+          `No ${f === "vco2MlMin" ? "VCO2" : "VE"} data in the exercise phase: gas-exchange thresholds need it.`,
+          { field: f },
+        ),
+      );
+  }
+  const core = runMethods(series, agreementFraction);
+  const reps = Math.max(0, Math.floor(options.bootstrap ?? 30));
+  const boot = reps > 0 ? bootstrapSeries(series, reps, options.seed ?? 1, agreementFraction) : null;
+  const vt1 = toEstimate("vt1", core.vt1, core.vt1TimeS, series, test, boot?.vt1 ?? null);
+  const vt2 = toEstimate("vt2", core.vt2, core.vt2TimeS, series, test, boot?.vt2 ?? null);
+  if (vt1.vo2MlMin.value !== null && vt2.vo2MlMin.value !== null && vt1.vo2MlMin.value >= vt2.vo2MlMin.value) {
+    issues.push(makeIssue("warning", "vt1-not-below-vt2", "VT1 does not lie below VT2; review both thresholds."));
+    vt1.confidence = "low";
+    vt2.confidence = "low";
+  }
+  for (const e of [vt1, vt2]) {
+    const name = e.which === "vt1" ? "VT1 (anaerobic threshold)" : "VT2 (respiratory compensation point)";
+    if (e.confidence === "not-determinable")
+      issues.push(
+        makeIssue(
+          "info",
+          `${e.which}-not-determinable`,
+          `${name} could not be determined: ${e.reason ?? "no method succeeded"}.`,
+        ),
+      );
+    else if (e.confidence === "low")
+      issues.push(
+        makeIssue(
+          "warning",
+          `${e.which}-low-confidence`,
+          `${name} is uncertain (${e.reason ?? "methods disagree"}); confirm or set it by review.`,
+          { timeS: e.timeS ?? undefined },
+        ),
+      );
+  }
+  const result: ThresholdResult = {
+    vt1,
+    vt2,
+    methods: core.methods,
+    issues,
+    series: { binS: series.binS, span: series.span, averaging: series.averaging, bins: series.timeS.length },
+  };
+  return applyThresholdOverrides(test, result, options.overrides ?? [], series);
+}
+
+function emptyEstimate(which: ThresholdWhich, reason: string): ThresholdEstimate {
+  const prov: Provenance = {
+    method: `${which}-consensus`,
+    label: "consensus of ventilatory-threshold methods",
+    sourceIds: ["vt-two-methods-agree-recalled"],
+  };
+  const nd = (unit: string) => notDetermined(unit, prov, reason);
+  return {
+    which,
+    timeS: null,
+    vo2MlMin: nd("mL/min"),
+    workW: nd("W"),
+    hrBpm: nd("1/min"),
+    speedKmh: nd("km/h"),
+    confidence: "not-determinable",
+    band: null,
+    methodIds: [],
+    reason,
+    bootstrap: null,
+  };
+}
+
+function readAt(
+  test: ConditionedTest,
+  field: NumericField,
+  unit: string,
+  timeS: number | null,
+  windowS: number,
+  label: string,
+): Measured {
+  const prov: Provenance = {
+    method: "value-at-threshold-time",
+    label,
+    sourceIds: ["vt-implementation-choice"],
+    ...(timeS !== null ? { window: { startS: timeS - windowS / 2, endS: timeS + windowS / 2 } } : {}),
+  };
+  if (timeS === null) return notDetermined(unit, prov, "no threshold time");
+  const v = valueAtTime(test.clean, field, timeS, { windowS });
+  return Number.isFinite(v) ? measured(v, unit, prov) : notDetermined(unit, prov, `no ${field} data at the threshold time`);
+}
+
+function toEstimate(
+  which: ThresholdWhich,
+  c: Consensus,
+  timeS: number | null,
+  series: ThresholdSeries,
+  test: ConditionedTest,
+  boot: (number | null)[] | null,
+): ThresholdEstimate {
+  const prov: Provenance = {
+    method: `${which}-consensus`,
+    label:
+      which === "vt1"
+        ? "VT1: consensus of V-slope, modified V-slope and ventilatory equivalents"
+        : "VT2: consensus of VE-vs-VCO2 break and VE/VCO2 with PETCO2",
+    sourceIds: ["vt-two-methods-agree-recalled", "vt-implementation-choice"],
+    window: series.span,
+    inputs: { methods: c.methodIds.join(", "), confidence: c.confidence },
+    averaging: series.averaging,
+  };
+  let bootstrap: ThresholdEstimate["bootstrap"] = null;
+  let band = c.band;
+  if (boot) {
+    const vals = boot.filter((v): v is number => v !== null);
+    const lo = vals.length >= 3 ? quantile(vals, 0.1) : null;
+    const hi = vals.length >= 3 ? quantile(vals, 0.9) : null;
+    bootstrap = {
+      replicates: boot.length,
+      lowMlMin: lo,
+      medianMlMin: vals.length >= 3 ? quantile(vals, 0.5) : null,
+      highMlMin: hi,
+      noCallFraction: 1 - vals.length / boot.length,
+    };
+    if (band && lo !== null && hi !== null)
+      band = { lowMlMin: Math.min(band.lowMlMin, lo), highMlMin: Math.max(band.highMlMin, hi) };
+  }
+  let confidence = c.confidence;
+  let reason = c.reason;
+  if (confidence === "high" && band && c.vo2MlMin !== null && (band.highMlMin - band.lowMlMin) / c.vo2MlMin > 0.2) {
+    confidence = "moderate";
+    reason = "resampling band wider than 20 % of the value";
+  }
+  const vo2 =
+    c.vo2MlMin === null ? notDetermined("mL/min", prov, c.reason ?? "no method succeeded") : measured(c.vo2MlMin, "mL/min", prov);
+  return {
+    which,
+    timeS,
+    vo2MlMin: vo2,
+    workW: readAt(test, "workW", "W", timeS, 0, "work rate at the threshold time (linear interpolation)"),
+    hrBpm: readAt(test, "hrBpm", "1/min", timeS, 10, "heart rate at the threshold time (10-s centred mean)"),
+    speedKmh: readAt(test, "speedKmh", "km/h", timeS, 0, "treadmill speed at the threshold time (linear interpolation)"),
+    confidence,
+    band: c.vo2MlMin === null ? null : band,
+    methodIds: c.methodIds,
+    ...(reason ? { reason } : {}),
+    bootstrap,
+  };
+}
+
+/**
+ * Replace automatic thresholds by reviewers' overrides (pure; returns a new result). An override gives a time
+ * (VO2 then read from the VO2 trend) or a VO2 (time from the first crossing of the trend); work rate, HR and speed
+ * are re-read at that time. Provenance says "set by reviewer" with the reason; `overridden.automatic` keeps the
+ * engine's value. The last override for a threshold wins. Call it again whenever overrides change; everything
+ * that depends on VT1/VT2 should be recomputed from the returned result.
+ */
+export function applyThresholdOverrides(
+  test: ConditionedTest,
+  result: ThresholdResult,
+  overrides: readonly ThresholdOverride[],
+  series?: ThresholdSeries | null,
+): ThresholdResult {
+  if (overrides.length === 0) return result;
+  const s = series === undefined ? buildThresholdSeries(test) : series;
+  const out: ThresholdResult = { ...result, issues: [...result.issues] };
+  for (const o of overrides) {
+    const prev = out[o.which];
+    let timeS: number | null = o.timeS ?? null;
+    let vo2: number | null = o.vo2MlMin ?? null;
+    if (vo2 === null && timeS !== null)
+      vo2 = s ? vo2AtTime(s, timeS) : valueAtTime(test.clean, "vo2MlMin", timeS, { windowS: 20 });
+    if (timeS === null && vo2 !== null && s) timeS = timeAtLevel(s, s.vo2Trend, vo2);
+    if (vo2 === null || !Number.isFinite(vo2)) {
+      out.issues.push(
+        makeIssue(
+          "warning",
+          "threshold-override-unusable",
+          `The reviewer's ${o.which.toUpperCase()} override gives neither a usable time nor VO2; the automatic value is kept.`,
+        ),
+      );
+      continue;
+    }
+    const prov: Provenance = {
+      method: `${o.which}-reviewer-override`,
+      label: `set by reviewer (${o.by}): ${o.reason}`,
+      sourceIds: [],
+      inputs: { by: o.by, reason: o.reason, timeS: timeS ?? null, automaticVo2MlMin: prev.vo2MlMin.value },
+    };
+    const t = timeS !== null && Number.isFinite(timeS) ? timeS : null;
+    out[o.which] = {
+      which: o.which,
+      timeS: t,
+      vo2MlMin: measured(vo2, "mL/min", prov),
+      workW: readAt(test, "workW", "W", t, 0, "work rate at the threshold time (linear interpolation)"),
+      hrBpm: readAt(test, "hrBpm", "1/min", t, 10, "heart rate at the threshold time (10-s centred mean)"),
+      speedKmh: readAt(test, "speedKmh", "km/h", t, 0, "treadmill speed at the threshold time (linear interpolation)"),
+      confidence: "high",
+      band: null,
+      methodIds: [`${o.which}-reviewer-override`],
+      reason: `set by reviewer: ${o.reason}`,
+      bootstrap: null,
+      overridden: {
+        by: o.by,
+        reason: o.reason,
+        ...(o.atIso ? { atIso: o.atIso } : {}),
+        automatic: {
+          timeS: prev.overridden?.automatic.timeS ?? prev.timeS,
+          vo2MlMin: prev.overridden?.automatic.vo2MlMin ?? prev.vo2MlMin.value,
+          confidence: prev.overridden?.automatic.confidence ?? prev.confidence,
+        },
+      },
+    };
+  }
+  return out;
+}

@@ -1,0 +1,116 @@
+/**
+ * Accuracy bank for ventilatory-threshold detection on synthetic tests (invented data, truth known by
+ * construction). Run: `npx tsx scripts/threshold-bank.ts` (BANK_SIZE, BANK_SEED, BANK_BIN_S, BANK_BOOTSTRAP env).
+ * Prints per method and for the consensus: median and 90th-percentile absolute error as % of the true VO2,
+ * and the no-call rate, by noise level.
+ */
+import { pathToFileURL } from "node:url";
+import { conditionTable } from "../lib/signal";
+import { generateSyntheticTest, syntheticBank, type NoiseLevel } from "../lib/synthetic";
+import { detectThresholds } from "../lib/thresholds/detectThresholds";
+import { quantile } from "../lib/numeric";
+
+export interface BankRow {
+  id: string;
+  noise: NoiseLevel;
+  which: "vt1" | "vt2";
+  method: string;
+  /** Absolute error as % of the true VO2; null = no call. */
+  errorPct: number | null;
+  confidence?: string;
+}
+
+export interface BankStats {
+  method: string;
+  which: "vt1" | "vt2";
+  noise: NoiseLevel | "all";
+  n: number;
+  medianPct: number;
+  p90Pct: number;
+  noCallPct: number;
+}
+
+export interface BankOptions {
+  size: number;
+  seed?: number;
+  binS?: number;
+  bootstrap?: number;
+}
+
+/** Run the bank and return one row per (test, threshold, method) plus the consensus rows. */
+export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats: BankStats[]; ms: number } {
+  const cases = syntheticBank(options.size, { seed: options.seed ?? 2024 });
+  const rows: BankRow[] = [];
+  const t0 = performance.now();
+  for (const c of cases) {
+    const syn = generateSyntheticTest(c.spec, c.seed);
+    const test = conditionTable(syn.table);
+    const res = detectThresholds(test, { bootstrap: options.bootstrap ?? 0, series: { binS: options.binS ?? 20 } });
+    const noise = syn.spec.noise;
+    for (const which of ["vt1", "vt2"] as const) {
+      const truth = syn.truth[which];
+      if (!truth) continue;
+      const err = (v: number | null) => (v === null ? null : (100 * Math.abs(v - truth.vo2MlMin)) / truth.vo2MlMin);
+      rows.push({
+        id: c.id,
+        noise,
+        which,
+        method: `${which}-consensus`,
+        errorPct: err(res[which].vo2MlMin.value),
+        confidence: res[which].confidence,
+      });
+      for (const m of res.methods.filter((x) => x.which === which))
+        rows.push({ id: c.id, noise, which, method: m.id, errorPct: err(m.vo2MlMin.value) });
+    }
+  }
+  const ms = performance.now() - t0;
+  const stats: BankStats[] = [];
+  const methods = [...new Set(rows.map((r) => `${r.which}|${r.method}`))];
+  for (const key of methods) {
+    const [which, method] = key.split("|") as ["vt1" | "vt2", string];
+    for (const noise of ["low", "moderate", "high", "all"] as const) {
+      const sel = rows.filter((r) => r.which === which && r.method === method && (noise === "all" || r.noise === noise));
+      if (sel.length === 0) continue;
+      const errs = sel.filter((r) => r.errorPct !== null).map((r) => r.errorPct as number);
+      stats.push({
+        method,
+        which,
+        noise,
+        n: sel.length,
+        medianPct: quantile(errs, 0.5),
+        p90Pct: quantile(errs, 0.9),
+        noCallPct: (100 * (sel.length - errs.length)) / sel.length,
+      });
+    }
+  }
+  return { rows, stats, ms };
+}
+
+function main(): void {
+  const size = Number(process.env.BANK_SIZE ?? 240);
+  const { stats, ms, rows } = runThresholdBank({
+    size,
+    seed: Number(process.env.BANK_SEED ?? 2024),
+    binS: Number(process.env.BANK_BIN_S ?? 20),
+    bootstrap: Number(process.env.BANK_BOOTSTRAP ?? 0),
+  });
+  console.log(
+    `threshold bank: ${size} synthetic tests (invented data), ${(ms / 1000).toFixed(1)} s, ${(ms / size).toFixed(1)} ms per test`,
+  );
+  console.log("method                          noise     n   median%  P90%   no-call%");
+  for (const s of stats) {
+    console.log(
+      `${s.method.padEnd(32)}${s.noise.padEnd(9)}${String(s.n).padStart(4)}${s.medianPct.toFixed(1).padStart(9)}${s.p90Pct.toFixed(1).padStart(7)}${s.noCallPct.toFixed(1).padStart(10)}`,
+    );
+  }
+  const conf = rows.filter((r) => r.method.endsWith("consensus"));
+  for (const which of ["vt1", "vt2"]) {
+    const sel = conf.filter((r) => r.which === which);
+    const by = (c: string) => sel.filter((r) => r.confidence === c).length;
+    console.log(
+      `${which} confidence: high ${by("high")}, moderate ${by("moderate")}, low ${by("low")}, not determinable ${by("not-determinable")}`,
+    );
+  }
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) main();

@@ -1,0 +1,197 @@
+import { describe, it, expect } from "vitest";
+import { conditionTable } from "../../lib/signal";
+import { generateSyntheticTest, SYNTHETIC_PRESETS } from "../../lib/synthetic";
+import {
+  applyThresholdOverrides,
+  buildThresholdSeries,
+  detectThresholds,
+  valueAtTime,
+} from "../../lib/thresholds/detectThresholds";
+import { vSlope } from "../../lib/thresholds/vSlope";
+import { modifiedVSlope } from "../../lib/thresholds/modifiedVSlope";
+import { ventilatoryEquivalents } from "../../lib/thresholds/ventilatoryEquivalents";
+import { rcpVeVco2 } from "../../lib/thresholds/rcpVeVco2";
+import { rcpVentilatoryEquivalents } from "../../lib/thresholds/rcpVentilatoryEquivalents";
+import { combineEstimates } from "../../lib/thresholds/consensus";
+import { VT_SOURCES } from "../../lib/thresholds/sourcesThresholds";
+import type { ConditionedTest } from "../../lib/signal";
+import type { ThresholdSeries } from "../../lib/thresholds/thresholdTypes";
+
+// Synthetic data (invented): thresholds known by construction.
+const errPct = (v: number | null, truth: number) => (v === null ? Infinity : (100 * Math.abs(v - truth)) / truth);
+
+function deepFreeze<T>(o: T): T {
+  if (o && typeof o === "object") {
+    Object.freeze(o);
+    for (const v of Object.values(o)) deepFreeze(v);
+  }
+  return o;
+}
+
+describe("each method on noise-free synthetic tests", () => {
+  const syn = generateSyntheticTest({ noise: "none" }, 2);
+  const series = buildThresholdSeries(conditionTable(syn.table))!;
+  const vt2S = syn.truth.vt2!.timeS;
+  it("VT1 methods land within 3 % of the true VT1", () => {
+    for (const m of [
+      vSlope(series, { endS: vt2S }),
+      modifiedVSlope(series, { endS: vt2S }),
+      ventilatoryEquivalents(series, { endS: vt2S }),
+    ]) {
+      expect(m.quality).not.toBe("failed");
+      expect(errPct(m.vo2MlMin.value, syn.truth.vt1.vo2MlMin)).toBeLessThan(3);
+      expect(m.vo2MlMin.provenance.averaging).toContain("time bins");
+      expect(m.window.endS).toBe(vt2S);
+    }
+  });
+  it("VT2 methods land within 3 % of the true RCP", () => {
+    for (const m of [rcpVeVco2(series), rcpVentilatoryEquivalents(series)]) {
+      expect(m.quality).not.toBe("failed");
+      expect(errPct(m.vo2MlMin.value, syn.truth.vt2!.vo2MlMin)).toBeLessThan(3);
+    }
+  });
+  it("every source id a method cites is registered", () => {
+    for (const m of [
+      vSlope(series),
+      modifiedVSlope(series),
+      ventilatoryEquivalents(series),
+      rcpVeVco2(series),
+      rcpVentilatoryEquivalents(series),
+    ]) {
+      for (const id of m.sourceIds) expect(Object.keys(VT_SOURCES)).toContain(id);
+    }
+  });
+});
+
+describe("V-slope on a hand-built series", () => {
+  // VCO2 = 0.95·VO2 − 50 below 1500 mL/min; slope 1.35 above: VCO2 = 1375 + 1.35·(VO2 − 1500)
+  // Intersection of the two lines: (b2 − b1)/(m1 − m2) with b1 = −50, b2 = 1375 − 2025 = −650:
+  // (−650 + 50)/(0.95 − 1.35) = 1500 mL/min.
+  const n = 40;
+  const timeS = Float64Array.from({ length: n }, (_, i) => 100 + 20 * i);
+  const vo2 = Float64Array.from(timeS, (t) => 800 + 2 * (t - 100));
+  const vco2 = Float64Array.from(vo2, (v) => (v <= 1500 ? 0.95 * v - 50 : 1375 + 1.35 * (v - 1500)));
+  const series: ThresholdSeries = {
+    binS: 20,
+    timeS,
+    vo2MlMin: vo2,
+    vco2MlMin: vco2,
+    veLMin: Float64Array.from(vco2, (v) => 3 + 0.027 * v),
+    peto2MmHg: new Float64Array(n).fill(NaN),
+    petco2MmHg: new Float64Array(n).fill(NaN),
+    vo2Trend: vo2,
+    vco2Trend: vco2,
+    span: { startS: 100, endS: 880 },
+    spikesRemoved: 0,
+    averaging: "hand-built",
+  };
+  it("gives the intersection of the two lines", () => {
+    const m = vSlope(series);
+    expect(m.vo2MlMin.value).toBeCloseTo(1500, 0);
+    expect(m.fit.s1).toBeCloseTo(0.95, 6);
+    expect(m.fit.s2).toBeCloseTo(1.35, 6);
+    // VO2 = 800 + 2·(t − 100) = 1500 → t = 450 s
+    expect(m.timeS).toBeCloseTo(450, 0);
+  });
+  it("is not determinable on a straight line (S2 − S1 < 0.1, recalled rule)", () => {
+    const straight = { ...series, vco2MlMin: Float64Array.from(vo2, (v) => 0.95 * v - 50) };
+    const m = vSlope(straight);
+    expect(m.quality).toBe("failed");
+    expect(m.vo2MlMin.value).toBeNull();
+    expect(m.vo2MlMin.reason).toMatch(/not determinable/);
+  });
+});
+
+describe("detectThresholds", () => {
+  it("finds VT1 and VT2 on a normal preset at low noise, with band, HR and work rate", () => {
+    const syn = generateSyntheticTest({ ...SYNTHETIC_PRESETS[0].spec, noise: "low" }, 4);
+    const test = deepFreeze(conditionTable(syn.table));
+    const r = detectThresholds(test, { bootstrap: 20 });
+    expect(errPct(r.vt1.vo2MlMin.value, syn.truth.vt1.vo2MlMin)).toBeLessThan(8);
+    expect(errPct(r.vt2.vo2MlMin.value, syn.truth.vt2!.vo2MlMin)).toBeLessThan(6);
+    expect(r.vt1.confidence).not.toBe("not-determinable");
+    expect(r.vt1.band!.lowMlMin).toBeLessThanOrEqual(r.vt1.vo2MlMin.value!);
+    expect(r.vt1.band!.highMlMin).toBeGreaterThanOrEqual(r.vt1.vo2MlMin.value!);
+    expect(r.vt1.bootstrap?.replicates).toBe(20);
+    // work rate at VT1 time: ramp 25 W/min from 10 W at the ramp start
+    const expectedW = 10 + (25 * (r.vt1.timeS! - syn.truth.phases.warmupEndS)) / 60;
+    expect(r.vt1.workW.value!).toBeCloseTo(expectedW, 0);
+    expect(r.vt1.hrBpm.value!).toBeGreaterThan(syn.spec.hrRestBpm);
+    expect(r.methods.map((m) => m.id)).toEqual([
+      "vt1-v-slope",
+      "vt1-modified-v-slope",
+      "vt1-ventilatory-equivalents",
+      "vt2-ve-vco2-break",
+      "vt2-ventilatory-equivalents",
+    ]);
+  });
+  it("is deterministic for a seed", () => {
+    const test = conditionTable(generateSyntheticTest({ noise: "moderate" }, 8).table);
+    expect(detectThresholds(test, { bootstrap: 10, seed: 3 })).toEqual(detectThresholds(test, { bootstrap: 10, seed: 3 }));
+  });
+  it("reports not determinable with a reason when there is no exercise phase or no VE", () => {
+    const empty: ConditionedTest = {
+      shape: "breath",
+      clean: [],
+      removed: [],
+      averaged: [],
+      averaging: { kind: "none", label: "none" },
+      phases: [],
+      exercise: null,
+      rampRateWPerMin: null,
+      issues: [],
+    };
+    const r = detectThresholds(empty);
+    expect(r.vt1.confidence).toBe("not-determinable");
+    expect(r.vt1.reason).toMatch(/no incremental exercise phase/);
+    expect(r.issues.some((i) => i.code === "thresholds-no-exercise-data")).toBe(true);
+    const syn = generateSyntheticTest({ noise: "low" }, 1);
+    const noVe = conditionTable({ ...syn.table, rows: syn.table.rows.map(({ veLMin: _ve, petco2MmHg: _pc, ...rest }) => rest) });
+    const r2 = detectThresholds(noVe, { bootstrap: 0 });
+    expect(r2.issues.some((i) => i.code === "thresholds-missing-signal")).toBe(true);
+    expect(r2.vt2.confidence).toBe("not-determinable");
+  });
+});
+
+describe("reviewer overrides", () => {
+  const syn = generateSyntheticTest({ noise: "low" }, 12);
+  const test = conditionTable(syn.table);
+  const auto = detectThresholds(test, { bootstrap: 0 });
+  it("replace the consensus, keep the automatic value, and re-read work rate at the new time", () => {
+    const t = syn.truth.phases.warmupEndS + 300; // 300 s into a 20 W/min ramp from 10 W → 10 + 100 = 110 W
+    const r = applyThresholdOverrides(test, auto, [
+      { which: "vt1", timeS: t, reason: "PETO2 nadir clearer by eye", by: "Dr Test" },
+    ]);
+    expect(r.vt1.overridden?.by).toBe("Dr Test");
+    expect(r.vt1.overridden?.automatic.vo2MlMin).toBe(auto.vt1.vo2MlMin.value);
+    expect(r.vt1.vo2MlMin.provenance.label).toMatch(/set by reviewer/);
+    expect(r.vt1.workW.value!).toBeCloseTo(110, 0);
+    expect(r.vt2).toBe(auto.vt2);
+    expect(auto.vt1.overridden).toBeUndefined();
+  });
+  it("accept a VO2 and find its time; detectThresholds applies them too", () => {
+    const r = detectThresholds(test, { bootstrap: 0, overrides: [{ which: "vt2", vo2MlMin: 2000, reason: "r", by: "x" }] });
+    expect(r.vt2.vo2MlMin.value).toBe(2000);
+    expect(r.vt2.timeS).not.toBeNull();
+  });
+});
+
+describe("valueAtTime and consensus", () => {
+  it("interpolates linearly and averages in a window", () => {
+    const rows = [{ timeS: 0, hrBpm: 100 }, { timeS: 10, hrBpm: 120 }, { timeS: 20 }, { timeS: 30, hrBpm: 150 }];
+    expect(valueAtTime(rows, "hrBpm", 5)).toBe(110); // 100 + 0.5·20
+    expect(valueAtTime(rows, "hrBpm", 20)).toBe(135); // between 120 at 10 s and 150 at 30 s
+    expect(valueAtTime(rows, "hrBpm", 5, { windowS: 10 })).toBe(110); // mean of 100 and 120
+    expect(Number.isNaN(valueAtTime(rows, "hrBpm", 40))).toBe(true);
+  });
+  it("needs two agreeing methods for moderate or high confidence", () => {
+    const syn = generateSyntheticTest({ noise: "none" }, 2);
+    const series = buildThresholdSeries(conditionTable(syn.table))!;
+    const a = vSlope(series, { endS: syn.truth.vt2!.timeS });
+    const b = modifiedVSlope(series, { endS: syn.truth.vt2!.timeS });
+    expect(combineEstimates([a]).confidence).toBe("low");
+    expect(["moderate", "high"]).toContain(combineEstimates([a, b]).confidence);
+    const far = { ...b, vo2MlMin: { ...b.vo2MlMin, value: (b.vo2MlMin.value as number) * 1.5 } };
+    expect(combineEstimates([a, far]).confidence).toBe("low");
+  });
+});
