@@ -80,10 +80,18 @@ function noiseBand(e: VariabilityEntry, before: number, after: number): NoiseBan
     }
     case "repeatability-pct": {
       const threshold = (e.value / 100) * mean;
-      return { ...common, threshold, basis: `coefficient of repeatability ${e.value} % × mean ${mean.toPrecision(4)} = ${threshold.toPrecision(3)} (${e.description}; ${e.populationLabel})` };
+      return {
+        ...common,
+        threshold,
+        basis: `coefficient of repeatability ${e.value} % × mean ${mean.toPrecision(4)} = ${threshold.toPrecision(3)} (${e.description}; ${e.populationLabel})`,
+      };
     }
     case "icc":
-      return { ...common, threshold: null, basis: `${e.description} (${e.populationLabel}); an ICC gives no noise band without the study's SD` };
+      return {
+        ...common,
+        threshold: null,
+        basis: `${e.description} (${e.populationLabel}); an ICC gives no noise band without the study's SD`,
+      };
   }
 }
 
@@ -106,9 +114,14 @@ export function compareTests(
   const pop = data.variability.populations.find((p) => p.id === population);
   if (!pop) {
     issues.push(
-      makeIssue("warning", "unknown-variability-population", `No published test-retest data for population "${population}"; changes are shown but not judged.`, {
-        field: "population",
-      }),
+      makeIssue(
+        "warning",
+        "unknown-variability-population",
+        `No published test-retest data for population "${population}"; changes are shown but not judged.`,
+        {
+          field: "population",
+        },
+      ),
     );
   }
   const a = makeContext(before, settings, data).ctx;
@@ -117,7 +130,13 @@ export function compareTests(
   const effortB = assessEffort(b);
   const comparable = effortA.peakConclusionsAllowed && effortB.peakConclusionsAllowed;
   if (!comparable) {
-    issues.push(makeIssue("warning", "serial-effort-not-comparable", "Maximal effort was not shown in both tests: changes in peak values are not judged."));
+    issues.push(
+      makeIssue(
+        "warning",
+        "serial-effort-not-comparable",
+        "Maximal effort was not shown in both tests: changes in peak values are not judged.",
+      ),
+    );
   }
   const items = SERIAL_VARIABLES.map((variable): SerialItem => {
     const info = variableInfo(variable);
@@ -132,14 +151,26 @@ export function compareTests(
     if (change === null) return { ...base, noise: null, verdict: "not-judged", text: `${head}: change not available` };
     const signed = `${change >= 0 ? "+" : ""}${formatValue(variable, change)}${info.unit ? ` ${info.unit}` : ""}`;
     if (info.effortDependent && !comparable) {
-      return { ...base, noise: null, verdict: "not-judged", text: `${head} (${signed}): not judged, maximal effort not shown in both tests` };
+      return {
+        ...base,
+        noise: null,
+        verdict: "not-judged",
+        text: `${head} (${signed}): not judged, maximal effort not shown in both tests`,
+      };
     }
     const entries = data.variability.entries.filter((e) => e.variable === variable && e.population === population);
     const withBand = entries.find((e) => e.kind !== "icc");
     const entry = withBand ?? entries[0];
-    if (!entry) return { ...base, noise: null, verdict: "not-judged", text: `${head} (${signed}): no published test-retest variability for this population` };
+    if (!entry)
+      return {
+        ...base,
+        noise: null,
+        verdict: "not-judged",
+        text: `${head} (${signed}): no published test-retest variability for this population`,
+      };
     const noise = noiseBand(entry, x!, y!);
-    if (noise.threshold === null) return { ...base, noise, verdict: "not-judged", text: `${head} (${signed}): not judged; ${noise.basis}` };
+    if (noise.threshold === null)
+      return { ...base, noise, verdict: "not-judged", text: `${head} (${signed}): not judged; ${noise.basis}` };
     const beyond = Math.abs(change) > noise.threshold;
     const band = `${formatValue(variable, noise.threshold)}${info.unit ? ` ${info.unit}` : ""}`;
     return {

@@ -13,7 +13,14 @@ export interface IntensityDomain {
 }
 
 export interface DraftExtras {
-  testConduct?: { protocol?: string; exerciseDurationS?: number; reasonForStopping?: string; symptoms?: string; peakBorg?: number; notes?: string };
+  testConduct?: {
+    protocol?: string;
+    exerciseDurationS?: number;
+    reasonForStopping?: string;
+    symptoms?: string;
+    peakBorg?: number;
+    notes?: string;
+  };
   /** How VT1 / VT2 were found, in words (method, agreement, overrides). */
   thresholdMethods?: { vt1?: string; vt2?: string };
   /** VT2 (RCP) values, if found. */
@@ -80,7 +87,8 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     const bits: string[] = [];
     if (tc.protocol) bits.push(`Protocol: ${tc.protocol}.`);
     if (input.ergometer) bits.push(`Ergometer: ${input.ergometer}.`);
-    if (have(tc.exerciseDurationS)) bits.push(`Exercise lasted ${Math.floor(tc.exerciseDurationS! / 60)} min ${Math.round(tc.exerciseDurationS! % 60)} s.`);
+    if (have(tc.exerciseDurationS))
+      bits.push(`Exercise lasted ${Math.floor(tc.exerciseDurationS! / 60)} min ${Math.round(tc.exerciseDurationS! % 60)} s.`);
     if (tc.reasonForStopping) bits.push(`The test was stopped because of ${tc.reasonForStopping}.`);
     if (tc.symptoms) bits.push(`Symptoms: ${tc.symptoms}.`);
     if (have(tc.peakBorg)) bits.push(`Peak perceived exertion (Borg): ${tc.peakBorg}.`);
@@ -101,7 +109,8 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   if (have(v.peakVo2MlMin) || have(v.peakVo2PctPred)) {
     const parts = [val("peakVo2MlMin", v.peakVo2MlMin)];
     if (have(v.peakVo2MlKgMin)) parts.push(val("peakVo2MlKgMin", v.peakVo2MlKgMin));
-    if (have(v.peakVo2PctPred)) parts.push(`${formatValue("peakVo2PctPred", v.peakVo2PctPred)} % of predicted${pred.peakVo2 ? ` (${pred.peakVo2})` : ""}`);
+    if (have(v.peakVo2PctPred))
+      parts.push(`${formatValue("peakVo2PctPred", v.peakVo2PctPred)} % of predicted${pred.peakVo2 ? ` (${pred.peakVo2})` : ""}`);
     results.push(`Peak VO2 ${parts.join(", ")}.`);
   }
   if (have(v.peakWorkW)) results.push(`Peak work rate ${val("peakWorkW", v.peakWorkW)}.`);
@@ -116,14 +125,16 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     );
   }
   const slopes: string[] = [];
-  if (have(v.veVco2SlopeWhole)) slopes.push(`VE/VCO2 slope ${formatValue("veVco2SlopeWhole", v.veVco2SlopeWhole)} (whole exercise)`);
+  if (have(v.veVco2SlopeWhole))
+    slopes.push(`VE/VCO2 slope ${formatValue("veVco2SlopeWhole", v.veVco2SlopeWhole)} (whole exercise)`);
   if (have(v.veVco2SlopeToRcp)) slopes.push(`${formatValue("veVco2SlopeToRcp", v.veVco2SlopeToRcp)} (to RCP)`);
   if (have(v.veVco2Nadir)) slopes.push(`nadir VE/VCO2 ${formatValue("veVco2Nadir", v.veVco2Nadir)}`);
   if (have(v.oues)) slopes.push(`OUES ${val("oues", v.oues)}`);
   if (have(v.petco2RestMmHg)) slopes.push(`resting PETCO2 ${val("petco2RestMmHg", v.petco2RestMmHg)}`);
   if (slopes.length) results.push(`Ventilatory efficiency: ${slopes.join(", ")}.`);
   const vent: string[] = [];
-  if (have(v.veMvvPct)) vent.push(`peak VE ${formatValue("veMvvPct", v.veMvvPct)} % of MVV${pred.mvv ? ` (MVV: ${pred.mvv})` : ""}`);
+  if (have(v.veMvvPct))
+    vent.push(`peak VE ${formatValue("veMvvPct", v.veMvvPct)} % of MVV${pred.mvv ? ` (MVV: ${pred.mvv})` : ""}`);
   if (have(v.breathingReserveLMin)) vent.push(`breathing reserve ${val("breathingReserveLMin", v.breathingReserveLMin)}`);
   if (have(v.rrPeak)) vent.push(`peak breathing frequency ${val("rrPeak", v.rrPeak)}`);
   if (vent.length) results.push(`Ventilation: ${vent.join(", ")}.`);
@@ -155,9 +166,15 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   if (extras.thresholdMethods?.vt2) thr.push(`VT2 was found by ${extras.thresholdMethods.vt2}.`);
   sections.push({ id: "thresholds", title: "Thresholds and how they were found", paragraphs: thr });
 
-  sections.push({ id: "pathway", title: "Step-by-step interpretation", paragraphs: interpretation.path.steps.map((s) => `${s.title}: ${sentenceCase(s.finding)}.`) });
+  sections.push({
+    id: "pathway",
+    title: "Step-by-step interpretation",
+    paragraphs: interpretation.path.steps.map((s) => `${s.title}: ${sentenceCase(s.finding)}.`),
+  });
 
-  const supported = interpretation.patterns.filter((p) => p.support === "strong" || p.support === "moderate" || p.support === "weak");
+  const supported = interpretation.patterns.filter(
+    (p) => p.support === "strong" || p.support === "moderate" || p.support === "weak",
+  );
   const pat: string[] = [];
   if (!supported.length) pat.push("No limitation pattern is supported by the data available.");
   for (const p of supported.slice(0, 3)) {
@@ -182,11 +199,14 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     const rx: string[] = [];
     if (!domains.length) rx.push("Intensity domains were not available; a prescription needs VT1 and VT2.");
     for (const d of domains) {
-      const hr = d.hrFromBpm !== undefined || d.hrToBpm !== undefined ? `heart rate ${d.hrFromBpm ?? "…"}–${d.hrToBpm ?? "…"} bpm` : "";
-      const w = d.workFromW !== undefined || d.workToW !== undefined ? `work rate ${d.workFromW ?? "…"}–${d.workToW ?? "…"} W` : "";
+      const hr =
+        d.hrFromBpm !== undefined || d.hrToBpm !== undefined ? `heart rate ${d.hrFromBpm ?? "…"}–${d.hrToBpm ?? "…"} bpm` : "";
+      const w =
+        d.workFromW !== undefined || d.workToW !== undefined ? `work rate ${d.workFromW ?? "…"}–${d.workToW ?? "…"} W` : "";
       rx.push(`${d.name}: ${[hr, w].filter(Boolean).join(", ") || "no range available"}.`);
     }
-    if (domains.length) rx.push("Ranges derive from this test's thresholds; medication changes (notably beta-blockers) alter heart-rate targets.");
+    if (domains.length)
+      rx.push("Ranges derive from this test's thresholds; medication changes (notably beta-blockers) alter heart-rate targets.");
     sections.push({ id: "prescription", title: "Exercise prescription (intensity domains)", paragraphs: rx });
   }
 
@@ -194,7 +214,10 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     sections.push({
       id: "serial",
       title: "Comparison with the previous test",
-      paragraphs: [`Reference population for test–retest variability: ${extras.comparison.populationLabel}.`, ...extras.comparison.items.filter((i) => i.change !== null).map((i) => i.text)],
+      paragraphs: [
+        `Reference population for test–retest variability: ${extras.comparison.populationLabel}.`,
+        ...extras.comparison.items.filter((i) => i.change !== null).map((i) => i.text),
+      ],
     });
   }
 
@@ -202,13 +225,15 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   const end = interpretation.path.end;
   if (end) concl.push(`${end.label}.`);
   if (supported[0]) concl.push(supported[0].statement);
-  for (const s of interpretation.schemes) if (s.overall && s.schemeId !== "peak-vo2-grade") concl.push(`${s.name}: ${s.overall.label}.`);
+  for (const s of interpretation.schemes)
+    if (s.overall && s.schemeId !== "peak-vo2-grade") concl.push(`${s.name}: ${s.overall.label}.`);
   if (!e.peakConclusionsAllowed) concl.push("Capacity could not be established because effort was submaximal.");
   sections.push({ id: "conclusion", title: "Conclusion", paragraphs: concl });
 
   const nonDefault = interpretation.settingsUsed.filter((s) => !s.isDefault);
   const caution = [DRAFT_CAUTION];
-  if (nonDefault.length) caution.push(`Lab choices differing from the defaults: ${nonDefault.map((s) => `${s.label}: ${s.optionLabel}`).join("; ")}.`);
+  if (nonDefault.length)
+    caution.push(`Lab choices differing from the defaults: ${nonDefault.map((s) => `${s.label}: ${s.optionLabel}`).join("; ")}.`);
   sections.push({ id: "caution", title: "Caution", paragraphs: caution });
 
   return {

@@ -1,8 +1,21 @@
 export * from "./types";
 export * from "./variables";
 export { interpret, makeContext } from "./interpret";
-export { composeDraft, DRAFT_BANNER, DRAFT_CAUTION, type DraftExtras, type DraftReport, type DraftSection, type IntensityDomain } from "./composeDraft";
+export {
+  composeDraft,
+  DRAFT_BANNER,
+  DRAFT_CAUTION,
+  type DraftExtras,
+  type DraftReport,
+  type DraftSection,
+  type IntensityDomain,
+} from "./composeDraft";
 export { compareTests, SERIAL_VARIABLES, type NoiseBand, type SerialComparison, type SerialItem } from "./compareTests";
 export { listCutoffChoices } from "./listCutoffChoices";
-export { INTERPRETATION_DATA, parseInterpretationData, type InterpretationData, type RawInterpretationData } from "./interpretationData";
+export {
+  INTERPRETATION_DATA,
+  parseInterpretationData,
+  type InterpretationData,
+  type RawInterpretationData,
+} from "./interpretationData";
 export { INTERPRET_SOURCES } from "./sources";

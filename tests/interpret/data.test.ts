@@ -25,7 +25,9 @@ describe("interpretation data files", () => {
     ...d.schemes.bandSets.flatMap((b) => b.bands.map((x) => ({ where: `band set ${b.id}.${x.key}`, ...x }))),
     ...d.schemes.schemes.map((s) => ({ where: `scheme ${s.id}`, ...s })),
     ...d.schemes.schemes.flatMap((s) => (s.axes ?? []).map((a) => ({ where: `axis ${s.id}.${a.id}`, ...a }))),
-    ...d.schemes.schemes.flatMap((s) => (s.axes ?? []).flatMap((a) => (a.bands ?? []).map((b) => ({ where: `band ${s.id}.${a.id}.${b.key}`, ...b })))),
+    ...d.schemes.schemes.flatMap((s) =>
+      (s.axes ?? []).flatMap((a) => (a.bands ?? []).map((b) => ({ where: `band ${s.id}.${a.id}.${b.key}`, ...b }))),
+    ),
     ...d.schemes.schemes.flatMap((s) => (s.graph?.nodes ?? []).map((n) => ({ where: `node ${s.id}.${n.id}`, ...n }))),
     ...d.variability.entries.map((e) => ({ where: `variability ${e.id}`, ...e })),
   ];
@@ -51,7 +53,15 @@ describe("interpretation data files", () => {
 
   it("lists the disputed cut-offs of clinical-reference §7 as choices", () => {
     const ids = listCutoffChoices().map((c) => c.id);
-    for (const id of ["peak-vo2-normal", "rer-maximal", "breathing-reserve", "arena-vc1", "ph-risk-version", "desaturation", "vevco2-slope-definition"]) {
+    for (const id of [
+      "peak-vo2-normal",
+      "rer-maximal",
+      "breathing-reserve",
+      "arena-vc1",
+      "ph-risk-version",
+      "desaturation",
+      "vevco2-slope-definition",
+    ]) {
       expect(ids).toContain(id);
     }
   });

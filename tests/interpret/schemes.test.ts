@@ -4,25 +4,52 @@ import { baseInput } from "./helpers";
 
 // All patients here are INVENTED; only the cut-offs come from the cited publications.
 type V = Partial<InterpretInput["values"]>;
-function run(schemeId: string, values: V, patient: Partial<InterpretInput["patient"]> = {}, choices: Record<string, string> = {}) {
+function run(
+  schemeId: string,
+  values: V,
+  patient: Partial<InterpretInput["patient"]> = {},
+  choices: Record<string, string> = {},
+) {
   const input = baseInput(values);
   input.patient = { ...input.patient, ...patient };
   const settings: InterpretSettings = { addSchemes: [schemeId], choices };
   const r = interpret(input, settings);
   return { r, s: r.schemes.find((x) => x.schemeId === schemeId)! };
 }
-function axis(schemeId: string, axisId: string, values: V, patient: Partial<InterpretInput["patient"]> = {}, choices: Record<string, string> = {}) {
+function axis(
+  schemeId: string,
+  axisId: string,
+  values: V,
+  patient: Partial<InterpretInput["patient"]> = {},
+  choices: Record<string, string> = {},
+) {
   return run(schemeId, values, patient, choices).s.axes.find((a) => a.axisId === axisId)!.category?.key ?? null;
 }
 
 describe("Weber class (Janicki, Weber & McElroy 1988, Eur Heart J 9 Suppl H, confirmed; decimal boundaries our labelled choice)", () => {
   it.each([
-    [20.01, "A"], [20.0, "B"], [19.99, "B"], [16.01, "B"], [16.0, "B"], [15.99, "C"], [10.01, "C"], [10.0, "C"], [9.99, "D"],
+    [20.01, "A"],
+    [20.0, "B"],
+    [19.99, "B"],
+    [16.01, "B"],
+    [16.0, "B"],
+    [15.99, "C"],
+    [10.01, "C"],
+    [10.0, "C"],
+    [9.99, "D"],
   ])("peak VO2 %s mL/kg/min → class %s", (v, k) => {
     expect(axis("weber", "peak", { peakVo2MlKgMin: v })).toBe(k);
   });
   it.each([
-    [14.01, "A"], [14.0, "B"], [13.99, "B"], [11.01, "B"], [11.0, "B"], [10.99, "C"], [8.01, "C"], [8.0, "C"], [7.99, "D"],
+    [14.01, "A"],
+    [14.0, "B"],
+    [13.99, "B"],
+    [11.01, "B"],
+    [11.0, "B"],
+    [10.99, "C"],
+    [8.01, "C"],
+    [8.0, "C"],
+    [7.99, "D"],
   ])("AT %s mL/kg/min → class %s", (v, k) => {
     expect(axis("weber", "at", { vt1Vo2MlKgMin: v })).toBe(k);
   });
@@ -31,7 +58,9 @@ describe("Weber class (Janicki, Weber & McElroy 1988, Eur Heart J 9 Suppl H, con
     expect(s.axes.map((a) => a.category?.key)).toEqual(["B", "C"]);
     expect(s.overall?.key).toBe("C");
     expect(s.overall?.basis).toMatch(/our choice/);
-    expect(run("weber", { peakVo2MlKgMin: 18, vt1Vo2MlKgMin: 9 }, {}, { "weber-combination": "peak-vo2" }).s.overall?.key).toBe("B");
+    expect(run("weber", { peakVo2MlKgMin: 18, vt1Vo2MlKgMin: 9 }, {}, { "weber-combination": "peak-vo2" }).s.overall?.key).toBe(
+      "B",
+    );
     expect(run("weber", { peakVo2MlKgMin: 18, vt1Vo2MlKgMin: 9 }, {}, { "weber-combination": "at" }).s.overall?.key).toBe("C");
   });
   it("peak sub-class is not assessable on a submaximal test; AT sub-class still is", () => {
@@ -44,7 +73,15 @@ describe("Weber class (Janicki, Weber & McElroy 1988, Eur Heart J 9 Suppl H, con
 
 describe("Arena ventilatory class (Arena et al. 2007, Circulation, PMID 17452607, confirmed)", () => {
   it.each([
-    [45.01, "VC-IV"], [45.0, "VC-IV"], [44.99, "VC-III"], [36.01, "VC-III"], [36.0, "VC-III"], [35.99, "VC-II"], [30.01, "VC-II"], [30.0, "VC-II"], [29.99, "VC-I"],
+    [45.01, "VC-IV"],
+    [45.0, "VC-IV"],
+    [44.99, "VC-III"],
+    [36.01, "VC-III"],
+    [36.0, "VC-III"],
+    [35.99, "VC-II"],
+    [30.01, "VC-II"],
+    [30.0, "VC-II"],
+    [29.99, "VC-I"],
   ])("slope %s → %s", (v, k) => {
     expect(axis("arena-ventilatory-class", "slope", { veVco2SlopeWhole: v })).toBe(k);
   });
@@ -54,22 +91,41 @@ describe("Arena ventilatory class (Arena et al. 2007, Circulation, PMID 17452607
     expect(axis("arena-ventilatory-class", "slope", { veVco2SlopeWhole: 29.01 }, {}, ch)).toBeNull();
     const { r } = run("arena-ventilatory-class", { veVco2SlopeWhole: 29.5 }, {}, ch);
     expect(r.issues.map((i) => i.code)).toContain("value-between-bands");
-    expect(r.settingsUsed.find((s) => s.choiceId === "arena-vc1")).toMatchObject({ optionId: "at-or-below-29", isDefault: false });
+    expect(r.settingsUsed.find((s) => s.choiceId === "arena-vc1")).toMatchObject({
+      optionId: "at-or-below-29",
+      isDefault: false,
+    });
   });
   it("uses the slope definition the lab chose (to RCP instead of whole test)", () => {
-    expect(axis("arena-ventilatory-class", "slope", { veVco2SlopeWhole: 37, veVco2SlopeToRcp: 33 }, {}, { "vevco2-slope-definition": "to-rcp" })).toBe("VC-II");
+    expect(
+      axis(
+        "arena-ventilatory-class",
+        "slope",
+        { veVco2SlopeWhole: 37, veVco2SlopeToRcp: 33 },
+        {},
+        { "vevco2-slope-definition": "to-rcp" },
+      ),
+    ).toBe("VC-II");
   });
 });
 
 describe("Peak VO2 severity (practical guide, Respir Res 2021 Table 1, secondary)", () => {
   it.each([
-    [49.99, "severe"], [50, "moderate"], [69.99, "moderate"], [70, "mild"], [84.99, "mild"], [85, "normal"], [85.01, "normal"],
+    [49.99, "severe"],
+    [50, "moderate"],
+    [69.99, "moderate"],
+    [70, "mild"],
+    [84.99, "mild"],
+    [85, "normal"],
+    [85.01, "normal"],
   ])("%s %% predicted → %s (default < 85 %%)", (v, k) => {
     expect(axis("peak-vo2-grade", "grade", { peakVo2PctPred: v })).toBe(k);
   });
   it("ATS/ACCP choice (> 84 % normal, recalled) and CCJM choice (< 80 % reduced)", () => {
     expect(axis("peak-vo2-grade", "grade", { peakVo2PctPred: 84 }, {}, { "peak-vo2-normal": "at-or-below-84" })).toBe("mild");
-    expect(axis("peak-vo2-grade", "grade", { peakVo2PctPred: 84.01 }, {}, { "peak-vo2-normal": "at-or-below-84" })).toBe("normal");
+    expect(axis("peak-vo2-grade", "grade", { peakVo2PctPred: 84.01 }, {}, { "peak-vo2-normal": "at-or-below-84" })).toBe(
+      "normal",
+    );
     expect(axis("peak-vo2-grade", "grade", { peakVo2PctPred: 80 }, {}, { "peak-vo2-normal": "below-80" })).toBe("normal");
     expect(axis("peak-vo2-grade", "grade", { peakVo2PctPred: 79.99 }, {}, { "peak-vo2-normal": "below-80" })).toBe("mild");
   });
@@ -77,11 +133,20 @@ describe("Peak VO2 severity (practical guide, Respir Res 2021 Table 1, secondary
 
 describe("Heart-failure prognostic table (EACPR/AHA 2012, recalled; rows independently supported as marked)", () => {
   it.each([
-    ["petco2-rest", { petco2RestMmHg: 32.99 }, "low"], ["petco2-rest", { petco2RestMmHg: 33 }, "normal"], ["petco2-rest", { petco2RestMmHg: 33.01 }, "normal"],
-    ["petco2-rise", { petco2RiseMmHg: 2.99 }, "small"], ["petco2-rise", { petco2RiseMmHg: 3 }, "normal"],
-    ["hrr1", { hrr1Bpm: 11 }, "abnormal"], ["hrr1", { hrr1Bpm: 12 }, "abnormal"], ["hrr1", { hrr1Bpm: 13 }, "normal"],
-    ["rer", { peakRer: 1.09 }, "submaximal"], ["rer", { peakRer: 1.1 }, "maximal"], ["rer", { peakRer: 1.11 }, "maximal"],
-    ["eov", { eovPresent: true }, "present"], ["eov", { eovPresent: false }, "absent"], ["eov", {}, null],
+    ["petco2-rest", { petco2RestMmHg: 32.99 }, "low"],
+    ["petco2-rest", { petco2RestMmHg: 33 }, "normal"],
+    ["petco2-rest", { petco2RestMmHg: 33.01 }, "normal"],
+    ["petco2-rise", { petco2RiseMmHg: 2.99 }, "small"],
+    ["petco2-rise", { petco2RiseMmHg: 3 }, "normal"],
+    ["hrr1", { hrr1Bpm: 11 }, "abnormal"],
+    ["hrr1", { hrr1Bpm: 12 }, "abnormal"],
+    ["hrr1", { hrr1Bpm: 13 }, "normal"],
+    ["rer", { peakRer: 1.09 }, "submaximal"],
+    ["rer", { peakRer: 1.1 }, "maximal"],
+    ["rer", { peakRer: 1.11 }, "maximal"],
+    ["eov", { eovPresent: true }, "present"],
+    ["eov", { eovPresent: false }, "absent"],
+    ["eov", {}, null],
   ] as [string, V, string | null][])("%s %o → %s", (id, v, k) => {
     expect(axis("hf-prognostic-table", id, v)).toBe(k);
   });
@@ -92,9 +157,18 @@ describe("Heart-failure prognostic table (EACPR/AHA 2012, recalled; rows indepen
 
 describe("Pulmonary hypertension risk, CPET rows (ESC/ERS 2015, secondary; 2022 recalled)", () => {
   it.each([
-    ["peak-kg", { peakVo2MlKgMin: 10.99 }, "high"], ["peak-kg", { peakVo2MlKgMin: 11 }, "intermediate"], ["peak-kg", { peakVo2MlKgMin: 15 }, "intermediate"], ["peak-kg", { peakVo2MlKgMin: 15.01 }, "low"],
-    ["peak-pct", { peakVo2PctPred: 34.99 }, "high"], ["peak-pct", { peakVo2PctPred: 35 }, "intermediate"], ["peak-pct", { peakVo2PctPred: 65 }, "intermediate"], ["peak-pct", { peakVo2PctPred: 65.01 }, "low"],
-    ["slope", { veVco2SlopeWhole: 35.99 }, "low"], ["slope", { veVco2SlopeWhole: 36 }, "intermediate"], ["slope", { veVco2SlopeWhole: 44.99 }, "intermediate"], ["slope", { veVco2SlopeWhole: 45 }, "high"],
+    ["peak-kg", { peakVo2MlKgMin: 10.99 }, "high"],
+    ["peak-kg", { peakVo2MlKgMin: 11 }, "intermediate"],
+    ["peak-kg", { peakVo2MlKgMin: 15 }, "intermediate"],
+    ["peak-kg", { peakVo2MlKgMin: 15.01 }, "low"],
+    ["peak-pct", { peakVo2PctPred: 34.99 }, "high"],
+    ["peak-pct", { peakVo2PctPred: 35 }, "intermediate"],
+    ["peak-pct", { peakVo2PctPred: 65 }, "intermediate"],
+    ["peak-pct", { peakVo2PctPred: 65.01 }, "low"],
+    ["slope", { veVco2SlopeWhole: 35.99 }, "low"],
+    ["slope", { veVco2SlopeWhole: 36 }, "intermediate"],
+    ["slope", { veVco2SlopeWhole: 44.99 }, "intermediate"],
+    ["slope", { veVco2SlopeWhole: 45 }, "high"],
   ] as [string, V, string][])("2015 %s %o → %s", (id, v, k) => {
     expect(axis("ph-esc-ers-2015", id, v)).toBe(k);
   });
@@ -103,7 +177,9 @@ describe("Pulmonary hypertension risk, CPET rows (ESC/ERS 2015, secondary; 2022 
     const r44 = interpret(baseInput({ veVco2SlopeWhole: 44 }, { referral: "pulmonary-hypertension" }), { choices: ch });
     expect(r44.schemes.map((s) => s.schemeId)).toContain("ph-esc-ers-2022");
     expect(r44.schemes.map((s) => s.schemeId)).not.toContain("ph-esc-ers-2015");
-    expect(r44.schemes.find((s) => s.schemeId === "ph-esc-ers-2022")!.axes.find((a) => a.axisId === "slope")!.category?.key).toBe("intermediate");
+    expect(r44.schemes.find((s) => s.schemeId === "ph-esc-ers-2022")!.axes.find((a) => a.axisId === "slope")!.category?.key).toBe(
+      "intermediate",
+    );
     expect(axis("ph-esc-ers-2022", "slope", { veVco2SlopeWhole: 44.01 }, {}, ch)).toBe("high");
     expect(r44.schemes.find((s) => s.schemeId === "ph-esc-ers-2022")!.status).toBe("recalled");
   });
@@ -111,7 +187,9 @@ describe("Pulmonary hypertension risk, CPET rows (ESC/ERS 2015, secondary; 2022 
 
 describe("Pre-operative AT (Older et al. 1993, Chest 104:701, confirmed)", () => {
   it.each([
-    [10.99, "low"], [11, "adequate"], [11.01, "adequate"],
+    [10.99, "low"],
+    [11, "adequate"],
+    [11.01, "adequate"],
   ])("AT %s mL/kg/min → %s", (v, k) => {
     expect(axis("preop-older-1993", "at", { vt1Vo2MlKgMin: v })).toBe(k);
   });
@@ -146,14 +224,24 @@ describe("Pre-operative three-tier scheme (published scheme [S34], confirmed)", 
 
 describe("Published pre-operative cohort thresholds, shown with study and population", () => {
   it.each([
-    ["wilson-2010-at", { vt1Vo2MlKgMin: 10.9 }, "beyond"], ["wilson-2010-at", { vt1Vo2MlKgMin: 10.91 }, "within"],
-    ["wilson-2010-vevco2", { veVco2AtVt1: 34 }, "within"], ["wilson-2010-vevco2", { veVco2AtVt1: 34.01 }, "beyond"],
-    ["west-2016-at", { vt1Vo2MlKgMin: 11.1 }, "beyond"], ["west-2016-at", { vt1Vo2MlKgMin: 11.11 }, "within"],
-    ["west-2016-peak", { peakVo2MlKgMin: 18.2 }, "beyond"], ["west-2016-peak", { peakVo2MlKgMin: 18.21 }, "within"],
-    ["west-2016-vevco2", { veVco2AtVt1: 30.9 }, "within"], ["west-2016-vevco2", { veVco2AtVt1: 30.91 }, "beyond"],
-    ["west-2014-rectal-at", { vt1Vo2MlKgMin: 10.6 }, "beyond"], ["west-2014-rectal-at", { vt1Vo2MlKgMin: 10.61 }, "within"],
-    ["lai-2013", { vt1Determined: false, vt1Vo2MlKgMin: null }, "no-at"], ["lai-2013", { vt1Determined: true, vt1Vo2MlKgMin: 10.99 }, "unfit"], ["lai-2013", { vt1Determined: true, vt1Vo2MlKgMin: 11 }, "fit"],
-    ["rose-2018", { peakVo2MlKgMin: 13.09, veVco2AtVt1: 34 }, "beyond"], ["rose-2018", { peakVo2MlKgMin: 13.1, veVco2AtVt1: 34 }, "within"], ["rose-2018", { peakVo2MlKgMin: 12, veVco2AtVt1: 33.99 }, "within"],
+    ["wilson-2010-at", { vt1Vo2MlKgMin: 10.9 }, "beyond"],
+    ["wilson-2010-at", { vt1Vo2MlKgMin: 10.91 }, "within"],
+    ["wilson-2010-vevco2", { veVco2AtVt1: 34 }, "within"],
+    ["wilson-2010-vevco2", { veVco2AtVt1: 34.01 }, "beyond"],
+    ["west-2016-at", { vt1Vo2MlKgMin: 11.1 }, "beyond"],
+    ["west-2016-at", { vt1Vo2MlKgMin: 11.11 }, "within"],
+    ["west-2016-peak", { peakVo2MlKgMin: 18.2 }, "beyond"],
+    ["west-2016-peak", { peakVo2MlKgMin: 18.21 }, "within"],
+    ["west-2016-vevco2", { veVco2AtVt1: 30.9 }, "within"],
+    ["west-2016-vevco2", { veVco2AtVt1: 30.91 }, "beyond"],
+    ["west-2014-rectal-at", { vt1Vo2MlKgMin: 10.6 }, "beyond"],
+    ["west-2014-rectal-at", { vt1Vo2MlKgMin: 10.61 }, "within"],
+    ["lai-2013", { vt1Determined: false, vt1Vo2MlKgMin: null }, "no-at"],
+    ["lai-2013", { vt1Determined: true, vt1Vo2MlKgMin: 10.99 }, "unfit"],
+    ["lai-2013", { vt1Determined: true, vt1Vo2MlKgMin: 11 }, "fit"],
+    ["rose-2018", { peakVo2MlKgMin: 13.09, veVco2AtVt1: 34 }, "beyond"],
+    ["rose-2018", { peakVo2MlKgMin: 13.1, veVco2AtVt1: 34 }, "within"],
+    ["rose-2018", { peakVo2MlKgMin: 12, veVco2AtVt1: 33.99 }, "within"],
   ] as [string, V, string][])("%s %o → %s", (id, v, k) => {
     expect(axis("preop-published-thresholds", id, v)).toBe(k);
   });
@@ -196,7 +284,10 @@ describe("Lung resection, ERS/ESTS 2009 (Brunelli et al., Eur Respir J 34:17-41;
   };
   it("FEV1 and DLCO both > 80 %: no further testing (80.01 passes, 80 does not)", () => {
     expect(end({ fev1PctPred: 80.01, dlcoPctPred: 81 }).key).toBe("up-to-pneumonectomy");
-    expect(end({ fev1PctPred: 80, dlcoPctPred: 81, peakVo2MlKgMin: 22, peakVo2PctPred: 90 }).path).toEqual(["lr-spirometry:cpet-indicated", "lr-cpet:high"]);
+    expect(end({ fev1PctPred: 80, dlcoPctPred: 81, peakVo2MlKgMin: 22, peakVo2PctPred: 90 }).path).toEqual([
+      "lr-spirometry:cpet-indicated",
+      "lr-cpet:high",
+    ]);
   });
   it.each([
     [{ peakVo2MlKgMin: 20.01, peakVo2PctPred: 60 }, "up-to-pneumonectomy"],
@@ -220,18 +311,30 @@ describe("Lung resection, ERS/ESTS 2009 (Brunelli et al., Eur Respir J 34:17-41;
     expect(end({ ...base, peakVo2MlKgMin: 15, peakVo2PctPred: 60 }).key).toBe("up-to-calculated-extent");
     expect(end({ ...base, peakVo2MlKgMin: 15, peakVo2PctPred: 60 }).path.at(-1)).toBe("lr-ppo-vo2:adequate");
     // 19 segments would be the whole lung; 4 segments: ppo VO2 = 12 × 15/19 = 9.47 < 10 → not advised.
-    expect(end({ fev1PctPred: 30, dlcoPctPred: 60, resectedSegments: 4, peakVo2MlKgMin: 12, peakVo2PctPred: 60 }).key).toBe("not-advised");
-    expect(end({ ...base, fev1PctPred: 30.01, dlcoPctPred: 30.01, peakVo2MlKgMin: 15, peakVo2PctPred: 60 }).path.at(-1)).toBe("lr-ppo:both-over-30");
+    expect(end({ fev1PctPred: 30, dlcoPctPred: 60, resectedSegments: 4, peakVo2MlKgMin: 12, peakVo2PctPred: 60 }).key).toBe(
+      "not-advised",
+    );
+    expect(end({ ...base, fev1PctPred: 30.01, dlcoPctPred: 30.01, peakVo2MlKgMin: 15, peakVo2PctPred: 60 }).path.at(-1)).toBe(
+      "lr-ppo:both-over-30",
+    );
   });
   it("ACCP 2013 alternative", () => {
     const ch = { "lung-resection-algorithm": "accp-2013" };
     const seg0 = { resectedSegments: 0 };
     expect(end({ ...seg0, fev1PctPred: 60, dlcoPctPred: 60 }, ch).key).toBe("low-risk");
     expect(end({ ...seg0, fev1PctPred: 59.99, dlcoPctPred: 60, stairClimbM: 22, shuttleWalkM: 400 }, ch).key).toBe("low-risk");
-    expect(end({ ...seg0, fev1PctPred: 50, dlcoPctPred: 60, stairClimbM: 21.99, peakVo2MlKgMin: 15, peakVo2PctPred: 60 }, ch).key).toBe("moderate-risk");
-    expect(end({ ...seg0, fev1PctPred: 29.99, dlcoPctPred: 60, peakVo2MlKgMin: 9.99, peakVo2PctPred: 60 }, ch).key).toBe("high-risk");
-    expect(end({ ...seg0, fev1PctPred: 29.99, dlcoPctPred: 60, peakVo2MlKgMin: 20.01, peakVo2PctPred: 60 }, ch).key).toBe("low-risk");
-    expect(end({ ...seg0, fev1PctPred: 29.99, dlcoPctPred: 60, peakVo2MlKgMin: 20, peakVo2PctPred: 75 }, ch).key).toBe("moderate-risk");
+    expect(
+      end({ ...seg0, fev1PctPred: 50, dlcoPctPred: 60, stairClimbM: 21.99, peakVo2MlKgMin: 15, peakVo2PctPred: 60 }, ch).key,
+    ).toBe("moderate-risk");
+    expect(end({ ...seg0, fev1PctPred: 29.99, dlcoPctPred: 60, peakVo2MlKgMin: 9.99, peakVo2PctPred: 60 }, ch).key).toBe(
+      "high-risk",
+    );
+    expect(end({ ...seg0, fev1PctPred: 29.99, dlcoPctPred: 60, peakVo2MlKgMin: 20.01, peakVo2PctPred: 60 }, ch).key).toBe(
+      "low-risk",
+    );
+    expect(end({ ...seg0, fev1PctPred: 29.99, dlcoPctPred: 60, peakVo2MlKgMin: 20, peakVo2PctPred: 75 }, ch).key).toBe(
+      "moderate-risk",
+    );
   });
 });
 

@@ -1,0 +1,65 @@
+import { describe, expect, it } from "vitest";
+import { compareTests } from "../../lib/interpret";
+import { baseInput, loadFixture } from "./helpers";
+
+// INVENTED before/after pairs; noise bands from the cited test-retest studies (clinical-confirmations §11).
+const item = (c: ReturnType<typeof compareTests>, v: string) => c.items.find((i) => i.variable === v)!;
+
+describe("serial comparison against published test-retest variability", () => {
+  it("heart failure: Bensimhon 2008 (HF-ACTION) 1.3 mL/kg/min band for peak VO2", () => {
+    const before = loadFixture("heart-failure").input;
+    const within = compareTests(before, { ...before, values: { ...before.values, peakVo2MlKgMin: 15.2 } }, "heart-failure");
+    // 15.2 − 14.0 = +1.2 ≤ 1.3 → within noise
+    expect(item(within, "peakVo2MlKgMin")).toMatchObject({
+      verdict: "within-noise",
+      noise: { threshold: 1.3, sourceIds: ["bensimhon-2008"] },
+    });
+    expect(item(within, "peakVo2MlKgMin").change).toBeCloseTo(1.2, 10);
+    const beyond = compareTests(before, { ...before, values: { ...before.values, peakVo2MlKgMin: 15.4 } }, "heart-failure");
+    // +1.4 > 1.3 → beyond noise
+    expect(item(beyond, "peakVo2MlKgMin").verdict).toBe("beyond-noise");
+    expect(item(beyond, "peakVo2MlKgMin").text).toMatch(/beyond measurement noise/);
+    // no published band for the HF VE/VCO2 slope → not judged
+    expect(item(beyond, "veVco2SlopeWhole").verdict).toBe("not-judged");
+  });
+
+  it("healthy: VT1 moved after training? Decato 2018 CoV 10.4 % → SDC = 1.96·√2·CoV·mean (standard statistics)", () => {
+    const before = baseInput({ vt1Vo2MlKgMin: 15, vt1Vo2MlMin: 1200 });
+    const after = baseInput({ vt1Vo2MlKgMin: 20, vt1Vo2MlMin: 1600 });
+    const c = compareTests(before, after, "healthy");
+    // mean 17.5; SEM = 0.104 × 17.5 = 1.82; SDC = 2.7719 × 1.82 = 5.045 → change +5.0 is within noise
+    const kg = item(c, "vt1Vo2MlKgMin");
+    expect(kg.noise!.threshold!).toBeCloseTo(1.96 * Math.SQRT2 * 0.104 * 17.5, 10);
+    expect(kg.noise!.threshold!).toBeCloseTo(5.045, 3);
+    expect(kg.verdict).toBe("within-noise");
+    expect(kg.noise!.basis).toMatch(/standard statistics/);
+    // absolute: Decato 95 % meaningful change 0.52 L/min; +400 mL/min is within
+    expect(item(c, "vt1Vo2MlMin")).toMatchObject({ verdict: "within-noise", noise: { threshold: 520 } });
+    const big = compareTests(before, baseInput({ vt1Vo2MlKgMin: 21, vt1Vo2MlMin: 1750 }), "healthy");
+    expect(item(big, "vt1Vo2MlMin").verdict).toBe("beyond-noise"); // +550 > 520
+    expect(item(big, "vt1Vo2MlKgMin").verdict).toBe("beyond-noise"); // +6.0 > 1.96·√2·0.104·18 = 5.19
+  });
+
+  it("ICC-only populations (Coeckelberghs 2016, CAD) are shown but not judged", () => {
+    const c = compareTests(baseInput({ peakVo2MlKgMin: 20 }), baseInput({ peakVo2MlKgMin: 26 }), "coronary");
+    expect(item(c, "peakVo2MlKgMin").verdict).toBe("not-judged");
+    expect(item(c, "peakVo2MlKgMin").text).toMatch(/ICC 0\.95/);
+  });
+
+  it("peak values are not judged when either test was submaximal", () => {
+    const c = compareTests(
+      baseInput({ peakVo2MlKgMin: 20 }),
+      baseInput({ peakVo2MlKgMin: 26, peakRer: 0.95, hrPctPred: 70, hrReserveBpm: 50 }),
+      "heart-failure",
+    );
+    expect(c.effort.comparable).toBe(false);
+    expect(item(c, "peakVo2MlKgMin").verdict).toBe("not-judged");
+    expect(c.issues.map((i) => i.code)).toContain("serial-effort-not-comparable");
+  });
+
+  it("unknown population → issue, nothing judged", () => {
+    const c = compareTests(baseInput(), baseInput(), "astronauts");
+    expect(c.issues[0].code).toBe("unknown-variability-population");
+    expect(c.items.every((i) => i.verdict === "not-judged")).toBe(true);
+  });
+});

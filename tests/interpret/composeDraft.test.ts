@@ -1,0 +1,71 @@
+import { describe, expect, it } from "vitest";
+import { compareTests, composeDraft, DRAFT_BANNER, interpret } from "../../lib/interpret";
+import { baseInput, loadFixture } from "./helpers";
+
+describe("draft report text", () => {
+  const fx = loadFixture("heart-failure"); // INVENTED patient
+  const r = interpret(fx.input);
+
+  it("is a draft, says so in the text, and carries the clinician-review caution", () => {
+    const d = composeDraft(fx.input, r);
+    expect(d.status).toBe("draft");
+    expect(d.banner).toBe("DRAFT — not a final report until reviewed and signed by a qualified clinician");
+    expect(d.sections[0].title).toBe(DRAFT_BANNER);
+    const caution = d.sections.find((s) => s.id === "caution")!.paragraphs.join(" ");
+    expect(caution).toMatch(/reviewed by a qualified clinician/);
+    expect(caution).toMatch(/local protocols and licensed practice prevail/);
+  });
+
+  it("has the sections in report order as editable title + paragraphs", () => {
+    const d = composeDraft(fx.input, r, {
+      testConduct: {
+        protocol: "cycle ramp 10 W/min",
+        exerciseDurationS: 512,
+        reasonForStopping: "leg fatigue and breathlessness",
+        peakBorg: 17,
+      },
+      thresholdMethods: { vt1: "V-slope, agreeing with the ventilatory equivalents" },
+      domains: [{ name: "Moderate (below VT1)", hrFromBpm: 80, hrToBpm: 98, workFromW: 20, workToW: 45 }],
+    });
+    expect(d.sections.map((s) => s.id)).toEqual([
+      "status",
+      "referral",
+      "conduct",
+      "results",
+      "thresholds",
+      "pathway",
+      "patterns",
+      "schemes",
+      "prescription",
+      "conclusion",
+      "caution",
+    ]);
+    for (const s of d.sections.slice(1)) {
+      expect(s.title.length).toBeGreaterThan(3);
+      expect(s.paragraphs.length).toBeGreaterThan(0);
+    }
+    const text = JSON.stringify(d);
+    expect(text).toMatch(/Peak VO2 1150 mL\/min, 14\.0 mL\/kg\/min, 47 % of predicted \(Hansen 1984\)/);
+    expect(text).toMatch(/8 min 32 s/);
+    expect(text).toMatch(/Moderate \(below VT1\): heart rate 80–98 bpm, work rate 20–45 W/);
+    expect(d.sections.find((s) => s.id === "conclusion")!.paragraphs.join(" ")).toMatch(/consistent with a cardiovascular/);
+  });
+
+  it("a submaximal test says that only effort-independent variables were interpreted", () => {
+    const input = baseInput({ peakRer: 0.95, hrPctPred: 70, hrReserveBpm: 50 });
+    const d = composeDraft(input, interpret(input));
+    const conduct = d.sections.find((s) => s.id === "conduct")!.paragraphs.join(" ");
+    expect(conduct).toMatch(/only effort-independent variables \(VE\/VCO2 slope, OUES and VT1\)/);
+    expect(d.sections.find((s) => s.id === "conclusion")!.paragraphs.join(" ")).toMatch(/effort was submaximal/);
+  });
+
+  it("includes a serial comparison and lists non-default cut-off choices", () => {
+    const after = { ...fx.input, values: { ...fx.input.values, peakVo2MlKgMin: 16 } };
+    const cmp = compareTests(fx.input, after, "heart-failure");
+    const r2 = interpret(fx.input, { choices: { "rer-maximal": "at-least-1.10" } });
+    const d = composeDraft(fx.input, r2, { comparison: cmp });
+    expect(d.sections.find((s) => s.id === "serial")!.paragraphs.join(" ")).toMatch(/beyond measurement noise/);
+    expect(d.sections.find((s) => s.id === "caution")!.paragraphs.join(" ")).toMatch(/Peak RER >= 1.10/);
+    expect(d.sourceIds).toContain("bensimhon-2008");
+  });
+});

@@ -1,0 +1,151 @@
+import { describe, expect, it } from "vitest";
+import { interpret } from "../../lib/interpret";
+import { baseInput, deepFreeze } from "./helpers";
+
+// Flow: ATS/ACCP 2003 statement and Wasserman-school flowcharts (recalled); cut-offs per rules.json.
+// Every patient below is INVENTED; each case exercises one path through the graph.
+const path = (r: ReturnType<typeof interpret>) => r.path.steps.map((s) => `${s.nodeId}:${s.outcome}`);
+
+describe("interpretation flow, one test per path", () => {
+  it("maximal, normal capacity, normal efficiency → normal", () => {
+    const r = interpret(baseInput());
+    expect(path(r)).toEqual([
+      "effort:adequate",
+      "peak-vo2:normal",
+      "normal-peak-efficiency:normal",
+      "breathing-reserve:preserved",
+      "gas-exchange:normal",
+      "summary:normal",
+    ]);
+    expect(r.path.end?.key).toBe("normal");
+  });
+
+  it("normal capacity with a high VE/VCO2 slope (> 34, CCJM / Gitt 2002) → normal capacity with findings", () => {
+    const r = interpret(baseInput({ veVco2SlopeWhole: 36 }));
+    expect(path(r)).toContain("normal-peak-efficiency:abnormal");
+    expect(r.path.end?.key).toBe("normal-capacity-with-findings");
+  });
+
+  it("reduced → low AT → cardiovascular discriminators abnormal (O2 pulse < 80 % predicted, CCJM)", () => {
+    const r = interpret(baseInput({ peakVo2PctPred: 60, vt1PctPredPeakVo2: 35, o2PulsePctPred: 70 }));
+    expect(path(r).slice(1, 4)).toEqual(["peak-vo2:reduced", "at:low", "cardiovascular:abnormal"]);
+    expect(r.path.end?.key).toBe("reduced-with-findings");
+  });
+
+  it("reduced → low AT → normal discriminators → deconditioning end", () => {
+    const r = interpret(baseInput({ peakVo2PctPred: 75, vt1PctPredPeakVo2: 36 }));
+    expect(path(r)).toContain("cardiovascular:normal");
+    expect(r.path.end?.key).toBe("reduced-low-vt1-only");
+  });
+
+  it("reduced → low AT → low haemoglobin (WHO 1968, recalled) → anaemia branch", () => {
+    const r = interpret(
+      baseInput(
+        { peakVo2PctPred: 70, vt1PctPredPeakVo2: 36, o2PulsePctPred: 75 },
+        { patient: { sex: "female", ageY: 40, haemoglobinGDl: 9.5 } },
+      ),
+    );
+    expect(path(r)).toContain("cardiovascular:anaemia");
+    expect(r.patterns[0].patternId).toBe("anaemia");
+  });
+
+  it("reduced → AT normal → breathing reserve exhausted (VE/MVV ≥ 85 %, Radtke 2019)", () => {
+    const r = interpret(baseInput({ peakVo2PctPred: 65, vt1PctPredPeakVo2: 45, veMvvPct: 85 }));
+    expect(path(r).slice(1, 4)).toEqual(["peak-vo2:reduced", "at:normal", "breathing-reserve:ventilatory-limitation"]);
+  });
+
+  it("reduced → AT not determined → continues to breathing reserve, says not assessable", () => {
+    const r = interpret(baseInput({ peakVo2PctPred: 65, vt1PctPredPeakVo2: null, vt1Determined: false }));
+    expect(path(r)).toContain("at:not-assessable");
+    expect(r.path.steps.find((s) => s.nodeId === "at")!.text).toMatch(/not available → not assessable/);
+    expect(r.issues.map((i) => i.code)).toContain("not-assessable-at");
+  });
+
+  it("reduced, nothing else abnormal → reduced without an identified limit", () => {
+    const r = interpret(baseInput({ peakVo2PctPred: 70, vt1PctPredPeakVo2: 45 }));
+    expect(r.path.end?.key).toBe("reduced-unexplained");
+  });
+
+  it("gas exchange abnormal (SpO2 fall ≥ 4, Hadeli 2001)", () => {
+    const r = interpret(baseInput({ spo2Fall: 5, spo2Min: 91 }));
+    expect(path(r)).toContain("gas-exchange:abnormal");
+  });
+
+  it("peak VO2 missing → not assessable, flow continues through AT", () => {
+    const r = interpret(baseInput({ peakVo2PctPred: null }));
+    expect(path(r).slice(0, 3)).toEqual(["effort:adequate", "peak-vo2:not-assessable", "at:normal"]);
+    expect(r.path.end?.key).toBe("incomplete");
+  });
+
+  it("submaximal effort → effort-independent branch only (VE/VCO2 slope, VT1, oxygenation)", () => {
+    const r = interpret(baseInput({ peakRer: 0.98, hrPctPred: 72, hrReserveBpm: 45, veMvvPct: 50, peakVo2PctPred: 55 }));
+    expect(r.effort.verdict).toBe("submaximal");
+    expect(path(r)).toEqual(["effort:submaximal", "submax-efficiency:normal", "submax-at:normal", "submax-gas-exchange:normal"]);
+    expect(r.path.end?.key).toBe("submaximal");
+    expect(r.issues.map((i) => i.code)).toContain("submaximal-test");
+  });
+
+  it("effort not assessable (no RER) → peak read with caution", () => {
+    const r = interpret(
+      baseInput({ peakRer: null, hrPctPred: null, hrReserveBpm: null, veMvvPct: null, spo2Fall: null, spo2Min: null }),
+    );
+    expect(r.effort.verdict).toBe("not-assessable");
+    expect(path(r)[0]).toBe("effort:not-assessable");
+  });
+
+  it("each step reads with the patient's values, the equation and the cut-off", () => {
+    const r = interpret(baseInput({ peakVo2PctPred: 62 }, { predictedEquations: { peakVo2: "Hansen 1984" } }));
+    const step = r.path.steps.find((s) => s.nodeId === "peak-vo2")!;
+    expect(step.checks[0].text).toBe("Peak VO2 62 % predicted (Hansen 1984) < 85 % predicted → Peak VO2 reduced");
+    expect(step.sourceIds).toContain("glaab-2021-guide");
+    expect(step.status).toBe("secondary");
+  });
+
+  it("does not mutate its input and is deterministic", () => {
+    const input = deepFreeze(baseInput({ peakVo2PctPred: 62 }));
+    expect(interpret(input)).toEqual(interpret(input));
+  });
+});
+
+describe("effort and cut-off choices", () => {
+  it.each([
+    [1.05, "physiological-limit"],
+    [1.06, "maximal"],
+  ])("peak RER %s with HR reached → %s (default RER > 1.05, ERS 2019)", (rer, verdict) => {
+    expect(interpret(baseInput({ peakRer: rer })).effort.verdict).toBe(verdict);
+  });
+  it("RER ≥ 1.10 choice (JACC HF 2020) moves 1.08 from maximal to physiological limit", () => {
+    expect(interpret(baseInput({ peakRer: 1.08 })).effort.verdict).toBe("maximal");
+    const r = interpret(baseInput({ peakRer: 1.08 }), { choices: { "rer-maximal": "at-least-1.10" } });
+    expect(r.effort.verdict).toBe("physiological-limit");
+    expect(r.settingsUsed.find((s) => s.choiceId === "rer-maximal")).toMatchObject({
+      optionId: "at-least-1.10",
+      isDefault: false,
+      status: "confirmed",
+    });
+  });
+  it("breathing-reserve choices: VE/MVV ≥ 85 % (default), BR < 11 L/min (Hansen 1984), BR < 15 % (secondary)", () => {
+    const v = { veMvvPct: 84, breathingReserveLMin: 10.9, breathingReservePct: 16 };
+    expect(interpret(baseInput(v)).rules["br-low"].outcome).toBe(false);
+    expect(interpret(baseInput(v), { choices: { "breathing-reserve": "br-below-11" } }).rules["br-low"].outcome).toBe(true);
+    expect(interpret(baseInput(v), { choices: { "breathing-reserve": "br-below-15-pct" } }).rules["br-low"].outcome).toBe(false);
+  });
+  it("desaturation choices differ at fall 4, nadir 88", () => {
+    const v = { spo2Fall: 4, spo2Min: 92 };
+    expect(interpret(baseInput(v)).rules.desaturation.outcome).toBe(true);
+    expect(interpret(baseInput(v), { choices: { desaturation: "fall-over-4-below-90" } }).rules.desaturation.outcome).toBe(false);
+    expect(
+      interpret(baseInput({ spo2Fall: 2, spo2Min: 88 }), { choices: { desaturation: "nadir-88" } }).rules.desaturation.outcome,
+    ).toBe(true);
+  });
+  it("a rule's status is the weakest of its own and the chosen option's (ATS/ACCP option is recalled)", () => {
+    const r = interpret(baseInput({ peakVo2PctPred: 84 }), { choices: { "peak-vo2-normal": "at-or-below-84" } });
+    expect(r.rules["peak-vo2-reduced"].status).toBe("recalled");
+    expect(r.rules["peak-vo2-reduced"].sourceIds).toContain("ats-accp-2003");
+  });
+  it("an unknown choice option is an issue, and the default is used", () => {
+    const r = interpret(baseInput(), { choices: { "rer-maximal": "1.2", "no-such-choice": "x" } });
+    expect(r.issues.map((i) => i.code)).toEqual(expect.arrayContaining(["unknown-cutoff-option", "unknown-cutoff-choice"]));
+    expect(r.settingsUsed.find((s) => s.choiceId === "rer-maximal")!.optionId).toBe("above-1.05");
+  });
+});
