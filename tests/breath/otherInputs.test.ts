@@ -80,10 +80,11 @@ describe("parseSpirometry", () => {
 
 describe("mapping profiles and header spellings", () => {
   it("a mapping profile is plain data that round-trips through JSON and the zod schema", () => {
-    const profile: MappingProfile = Object.freeze({
+    const profile: MappingProfile = {
       name: "Lab A export",
       mapping: { "V'O2": { field: "vo2MlMin", unit: "L/min" }, Marker: { field: "phase" }, Notes: { field: null } },
-    });
+    };
+    Object.freeze(profile);
     const parsed = mappingProfileSchema.safeParse(JSON.parse(JSON.stringify(profile)));
     expect(parsed.success && parsed.data).toEqual(profile);
     expect(mappingProfileSchema.safeParse({ name: "", mapping: {} }).success).toBe(false);
