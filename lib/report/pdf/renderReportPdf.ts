@@ -81,7 +81,7 @@ function valuesTable(rows: ReportRow[], index: Map<string, number>): Content {
     ]);
   }
   return {
-    table: { headerRows: 1, widths: [78, 46, 44, 42, 34, 36, "*", 38], body },
+    table: { headerRows: 1, widths: [92, 46, 50, 44, 34, 34, "*", 34], body },
     layout: "lightHorizontalLines",
     fontSize: 8.5,
   };
@@ -245,8 +245,8 @@ export async function renderReportPdf(rawModel: ReportModel): Promise<Buffer> {
       stack: [
         {
           columns: [
-            { text: model.title, fontSize: 8.5, color: MUTED },
-            { text: statusLine, fontSize: 8.5, bold: true, alignment: "right", color: draft ? DRAFT_RED : INK },
+            { text: model.title, fontSize: 8.5, color: MUTED, width: "*" },
+            { text: statusLine, width: "auto", fontSize: 8.5, bold: true, alignment: "right", color: draft ? DRAFT_RED : INK },
           ],
         },
         { canvas: [{ type: "line", x1: 0, y1: 3, x2: CONTENT_WIDTH, y2: 3, lineWidth: 0.5, lineColor: RULE }] },

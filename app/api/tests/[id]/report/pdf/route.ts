@@ -1,0 +1,26 @@
+import { z } from "zod";
+import { renderReportPdf } from "@/lib/report/pdf/renderReportPdf";
+import { loadReport } from "@/app/tests/[id]/report/loadReport";
+
+export const dynamic = "force-dynamic";
+
+const paramsSchema = z.object({ id: z.coerce.number().int().positive() });
+const querySchema = z.object({ report: z.coerce.number().int().positive().optional() });
+
+/** The report of a test as PDF: the current version, or `?report=<id>` for a given version. */
+export async function GET(request: Request, { params }: { params: Promise<{ id: string }> }) {
+  const p = paramsSchema.safeParse(await params);
+  const q = querySchema.safeParse(Object.fromEntries(new URL(request.url).searchParams));
+  if (!p.success || !q.success) return Response.json({ error: "Invalid test or report id" }, { status: 400 });
+  const loaded = loadReport(p.data.id, q.data.report);
+  if (!loaded) return Response.json({ error: "No report for this test" }, { status: 404 });
+  const pdf = await renderReportPdf(loaded.model);
+  const name = `cpet-report-test${p.data.id}-v${loaded.report.version}-${loaded.report.status}.pdf`;
+  return new Response(new Uint8Array(pdf), {
+    headers: {
+      "content-type": "application/pdf",
+      "content-disposition": `attachment; filename="${name}"`,
+      "cache-control": "no-store",
+    },
+  });
+}

@@ -1,0 +1,52 @@
+import type { ReportRow } from "@/lib/report/reportModel";
+
+/** Values with predicted, % predicted, LLN, method and numbered source references. */
+export function ReportValuesTable({
+  rows,
+  sourceNumber,
+  testId,
+}: {
+  rows: ReportRow[];
+  sourceNumber: Map<string, number>;
+  testId: string;
+}) {
+  return (
+    <table data-testid={testId}>
+      <thead>
+        <tr>
+          <th>Measure</th>
+          <th className="num">Value</th>
+          <th>Unit</th>
+          <th className="num">Predicted</th>
+          <th className="num">% predicted</th>
+          <th className="num">LLN</th>
+          <th>Method</th>
+          <th>Sources</th>
+        </tr>
+      </thead>
+      <tbody>
+        {rows.map((r) => (
+          <tr key={r.label}>
+            <td>{r.label}</td>
+            <td className="num">{r.value}</td>
+            <td>{r.unit}</td>
+            <td className="num">{r.predicted ?? ""}</td>
+            <td className="num">{r.pctPredicted ?? ""}</td>
+            <td className="num">{r.lln ?? ""}</td>
+            <td className="how">
+              {r.method}
+              {r.note ? `. ${r.note}` : ""}
+            </td>
+            <td className="how">
+              {r.sourceIds
+                .map((id) => sourceNumber.get(id))
+                .filter((n) => n !== undefined)
+                .map((n) => `[${n}]`)
+                .join(" ")}
+            </td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}

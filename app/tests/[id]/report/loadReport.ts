@@ -1,0 +1,44 @@
+import "server-only";
+import { analyse, ENGINE_VERSION, type AnalysisResult } from "@/lib/analysis";
+import { buildReportModel } from "@/lib/report/buildReportModel";
+import { initialDraftSections } from "@/lib/report/initialDraftSections";
+import type { ReportModel } from "@/lib/report/reportModel";
+import { getOrCreateDraft, getReport, listReports, type StoredReport } from "@/lib/store/reports";
+import { getTest, latestSettings, listAnalysisVersions, saveAnalysisVersion, type StoredTest } from "@/lib/store/tests";
+
+export interface LoadedReport {
+  test: StoredTest;
+  result: AnalysisResult;
+  report: StoredReport;
+  versions: StoredReport[];
+  model: ReportModel;
+}
+
+/**
+ * The report of a test: a given version (`reportId`), or the current one for the latest analysis
+ * version (created as a draft with neutral text on first view). Null when the test does not exist,
+ * was refused on import, or `reportId` belongs to another test.
+ */
+export function loadReport(testId: number, reportId?: number): LoadedReport | null {
+  const test = getTest(testId);
+  if (!test?.record) return null;
+  let report: StoredReport | null;
+  let result: AnalysisResult;
+  if (reportId !== undefined) {
+    report = getReport(reportId);
+    if (!report || report.testId !== testId) return null;
+    const analysisId = report.analysisId;
+    const settings = listAnalysisVersions(testId).find((v) => v.id === analysisId)?.settings ?? {};
+    result = analyse(test.record, settings);
+  } else {
+    let latest = latestSettings(testId);
+    if (!latest) {
+      saveAnalysisVersion(testId, {}, ENGINE_VERSION, "system", "first analysis, default settings");
+      latest = latestSettings(testId)!;
+    }
+    result = analyse(test.record, latest.settings);
+    report = getOrCreateDraft(testId, latest.id, initialDraftSections(result));
+  }
+  const model = buildReportModel(result, test.record, test.label, report);
+  return { test, result, report, versions: listReports(testId), model };
+}

@@ -1,0 +1,180 @@
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { Chart } from "../../../components/Chart";
+import { IssueList } from "../../../components/IssueList";
+import { DraftEditor } from "./DraftEditor";
+import { loadReport } from "./loadReport";
+import { ReportValuesTable } from "./ReportValuesTable";
+import { SignForm } from "./SignForm";
+
+export const dynamic = "force-dynamic";
+
+const when = (iso: string | null | undefined) => (iso ? `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC` : "");
+
+export default async function ReportPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const testId = Number(id);
+  if (!Number.isInteger(testId) || testId <= 0) notFound();
+  const loaded = loadReport(testId);
+  if (!loaded) notFound();
+  const { model, report, versions } = loaded;
+  const signed = model.status === "signed";
+  const sourceNumber = new Map(model.sources.map((s, i) => [s.id, i + 1]));
+
+  return (
+    <>
+      <h1>{model.title}</h1>
+      {signed ? (
+        <p className="panel" data-testid="signed-by">
+          <strong>
+            Signed by {model.signedBy} on {when(model.signedAt)}
+          </strong>{" "}
+          · version {report.version}
+        </p>
+      ) : (
+        <p className="draftmark" data-testid="draft-mark">
+          {model.draftMark}
+        </p>
+      )}
+      <p>
+        <a href={`/api/tests/${testId}/report/pdf`} data-testid="pdf-link">
+          Download the report as PDF
+        </a>{" "}
+        · <Link href={`/tests/${testId}`}>Back to the test</Link>
+      </p>
+
+      <section className="panel">
+        <p style={{ margin: 0 }}>{model.patientLine}</p>
+        <p style={{ margin: 0 }}>{model.testLine}</p>
+        <p style={{ margin: 0 }}>Referral question: {model.referral}</p>
+        <p className="how" style={{ margin: 0 }}>
+          Analysis engine version {model.engineVersion}
+        </p>
+      </section>
+
+      <h2>Key values</h2>
+      <ReportValuesTable rows={model.keyValues} sourceNumber={sourceNumber} testId="report-key-values" />
+      <h2>Thresholds</h2>
+      {model.thresholds.length ? (
+        <ReportValuesTable rows={model.thresholds} sourceNumber={sourceNumber} testId="report-thresholds" />
+      ) : (
+        <p className="how">No thresholds in this version of the analysis.</p>
+      )}
+
+      {model.charts.length ? (
+        <>
+          <h2>Charts</h2>
+          <div style={{ display: "grid", gap: "1rem", maxWidth: 900 }}>
+            {model.charts.map((c) => (
+              <Chart key={c.id} spec={c} width={760} height={380} />
+            ))}
+          </div>
+        </>
+      ) : null}
+
+      {model.path.length ? (
+        <>
+          <h2>Interpretation path</h2>
+          <table data-testid="report-path">
+            <thead>
+              <tr>
+                <th>Step</th>
+                <th>Variable</th>
+                <th>Value</th>
+                <th>Cut-off</th>
+                <th>Outcome</th>
+              </tr>
+            </thead>
+            <tbody>
+              {model.path.map((p) => (
+                <tr key={p.step}>
+                  <td>{p.step}</td>
+                  <td>{p.variable}</td>
+                  <td>{p.value}</td>
+                  <td>{p.cutoff}</td>
+                  <td>{p.outcome}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </>
+      ) : null}
+      {model.schemes.length ? (
+        <>
+          <h2>Classification schemes</h2>
+          <ul>
+            {model.schemes.map((s) => (
+              <li key={s.name}>
+                <strong>{s.name}</strong>: {s.category} <span className="how">({s.inputs.join("; ")})</span>
+              </li>
+            ))}
+          </ul>
+        </>
+      ) : null}
+
+      <h2>{signed ? "Report text (signed)" : "Report text (draft)"}</h2>
+      {signed ? (
+        <section className="panel" data-testid="signed-text">
+          {model.sections.map((s) => (
+            <div key={s.id}>
+              <h3>{s.title}</h3>
+              {s.paragraphs.map((p, k) => (
+                <p key={k}>{p}</p>
+              ))}
+            </div>
+          ))}
+        </section>
+      ) : null}
+      <details open={!signed}>
+        <summary>{signed ? "Revise the text (creates a new draft version)" : "Edit the draft text"}</summary>
+        <DraftEditor
+          key={report.id}
+          testId={testId}
+          reportId={report.id}
+          signed={signed}
+          sections={model.sections.map((s) => ({ id: s.id, title: s.title, text: s.paragraphs.join("\n\n") }))}
+        />
+      </details>
+
+      <h2>Signature</h2>
+      {signed ? (
+        <p data-testid="signature">
+          Signed by {model.signedBy} on {when(model.signedAt)}. <span className="how">{report.attestation}</span>
+        </p>
+      ) : (
+        <section className="panel">
+          <p data-testid="signature">Not signed.</p>
+          <SignForm key={report.id} testId={testId} reportId={report.id} />
+        </section>
+      )}
+
+      <h2>Data quality</h2>
+      <IssueList issues={model.issues} />
+
+      <h2>Methods</h2>
+      <ul>
+        {model.methods.map((m) => (
+          <li key={m}>{m}</li>
+        ))}
+      </ul>
+      <h2>Sources</h2>
+      <ol data-testid="report-sources">
+        {model.sources.map((s) => (
+          <li key={s.id}>
+            {s.citation} <span className="tag">evidence: {s.status}</span>
+          </li>
+        ))}
+      </ol>
+
+      <h2>Report versions</h2>
+      <ul data-testid="report-versions">
+        {versions.map((v) => (
+          <li key={v.id}>
+            Version {v.version}: {v.status === "signed" ? `signed by ${v.signedBy} on ${when(v.signedAt)}` : "draft"} ·{" "}
+            <a href={`/api/tests/${testId}/report/pdf?report=${v.id}`}>PDF</a>
+          </li>
+        ))}
+      </ul>
+    </>
+  );
+}
