@@ -140,6 +140,8 @@ export function eov(test: ConditionedTest, options: EovOptions = {}): EovResult 
     for (let k = 0; k + 2 < turns.length; k++) {
       const [a, p, b] = [turns[k], turns[k + 1], turns[k + 2]];
       if (a.kind !== "nadir" || p.kind !== "peak" || b.kind !== "nadir") continue;
+      // an extreme at the first sample is the edge of the record, not a turning point
+      if (a.i === 0) continue;
       const lengthS = grid[b.i] - grid[a.i];
       if (lengthS < minCycleS) continue;
       cycles.push({
