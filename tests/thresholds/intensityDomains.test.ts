@@ -1,0 +1,35 @@
+import { describe, it, expect } from "vitest";
+import { intensityDomains } from "../../lib/thresholds/intensityDomains";
+import { measurePeaks } from "../../lib/thresholds/measurePeaks";
+import { valuesAtThreshold } from "../../lib/thresholds/valuesAtThreshold";
+import { standardRamp } from "./indicesFixture";
+
+describe("intensity domains (invented ramp, VT1 at 420 s, VT2 at 660 s)", () => {
+  const test = standardRamp();
+  const peaks = measurePeaks(test);
+  const a1 = valuesAtThreshold(test, { timeS: 420, vo2MlMin: 1480 }, { name: "VT1" });
+  const a2 = valuesAtThreshold(test, { timeS: 660, vo2MlMin: 1960 }, { name: "VT2" });
+
+  it("moderate < VT1 ≤ heavy < VT2 ≤ severe ≤ peak, in HR and work rate", () => {
+    const r = intensityDomains(a1, a2, peaks);
+    expect(r.domains.map((d) => d.id)).toEqual(["moderate", "heavy", "severe"]);
+    const [mod, heavy, severe] = r.domains;
+    // HR at 420 s: 108; at 660 s: 60 + 0.2·480 = 156; peak HR 177. Work: 80, 160, 200 W
+    expect(mod.hrBpm.lower).toBeNull();
+    expect(mod.hrBpm.upper?.value).toBeCloseTo(108, 9);
+    expect(heavy.hrBpm.lower?.value).toBeCloseTo(108, 9);
+    expect(heavy.hrBpm.upper?.value).toBeCloseTo(156, 9);
+    expect(severe.hrBpm.upper?.value).toBeCloseTo(177, 9);
+    expect(heavy.workW.upper?.value).toBeCloseTo(160, 9);
+    expect(severe.workW.upper?.value).toBe(200);
+    expect(severe.speedKmh.lower).toBeNull();
+    expect(r.sourceIds).toEqual(["intensity-domains"]);
+    expect(r.issues.map((i) => i.code)).toEqual(["ramp-work-rates"]);
+  });
+
+  it("only VT1 → moderate domain only, with an issue", () => {
+    const r = intensityDomains(a1, null, peaks);
+    expect(r.domains.map((d) => d.id)).toEqual(["moderate"]);
+    expect(r.issues.map((i) => i.code)).toContain("domains-incomplete");
+  });
+});

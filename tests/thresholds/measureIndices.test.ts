@@ -1,0 +1,109 @@
+import { describe, it, expect } from "vitest";
+import type { BreathRow } from "../../lib/breath";
+import { CORE_SOURCES, type Measured } from "../../lib/core";
+import { measureIndices } from "../../lib/thresholds/measureIndices";
+import { THRESHOLD_SOURCES } from "../../lib/thresholds/sources";
+import { freezeTest, makeTest, standardRamp } from "./indicesFixture";
+
+/** Walk a result and yield every Measured in it. */
+function* measuredIn(x: unknown): Generator<Measured> {
+  if (x && typeof x === "object") {
+    const o = x as Record<string, unknown>;
+    if ("provenance" in o && "unit" in o && "value" in o) {
+      yield o as unknown as Measured;
+      return;
+    }
+    for (const v of Object.values(o)) yield* measuredIn(v);
+  }
+}
+
+describe("measureIndices on the invented ramp", () => {
+  const test = freezeTest(standardRamp());
+  const ctx = {
+    patient: { sex: "male" as const, ageY: 50, weightKg: 70, heightCm: 175 },
+    spirometry: { fev1L: 3.2 },
+    vt1: { timeS: 420, vo2MlMin: 1480 },
+    vt2: { timeS: 660, vo2MlMin: 1960 },
+    lactate: [120, 300, 420, 540, 660, 780].map((timeS, i) => ({ timeS, lactateMmolL: [1.0, 1.1, 1.6, 2.6, 4.2, 7.5][i] })),
+    bloodGases: [{ timeS: 770, paCO2MmHg: 38, label: "peak" }],
+  };
+  const r = measureIndices(test, ctx);
+
+  it("wires the modules together", () => {
+    expect(r.peaks.vo2MlKgMin.value).toBeCloseTo(31, 9);
+    expect(r.atVt1?.vo2PercentPeak.value).toBeCloseTo((100 * 1480) / 2170, 9);
+    // predicted 220 − 50 = 170; peak HR 177 → reserve −7 → HR criterion met
+    expect(r.heartRate.predictedMaxBpm.value).toBe(170);
+    expect(r.effort.metIds).toContain("hr-reserve-lt-15");
+    expect(r.effort.maximal).toBe(true);
+    // MVV 3.2·40 = 128; peak VE 60.6 → VE/MVV 47.34%
+    expect(r.breathingReserve.veMvvPercent.value).toBeCloseTo((100 * 60.6) / 128, 9);
+    // VE = 25·VCO2 + 3 everywhere in exercise
+    expect(r.veVco2.slopeToVt2.slope.value).toBeCloseTo(25, 9);
+    expect(r.vdVt).toHaveLength(1);
+    expect(r.lactate?.axis).toBe("workW");
+    // lactate at 660 s (160 W) 4.2, at 540 s (120 W) 2.6 → OBLA = 120 + (1.4/1.6)·40 = 155 W; VT2 at 160 W
+    const obla = r.lactate!.thresholds.find((t) => t.id === "obla-4")!;
+    expect(obla.intensity.value).toBeCloseTo(155, 9);
+    expect(r.lactate!.relations.find((x) => x.id === "obla-4")?.nearest).toBe("VT2");
+    expect(r.domains.domains).toHaveLength(3);
+  });
+
+  it("every Measured names registered sources and has a value or a reason", () => {
+    const known = new Set([...Object.keys(THRESHOLD_SOURCES), ...Object.keys(CORE_SOURCES)]);
+    let count = 0;
+    for (const m of measuredIn(r)) {
+      count++;
+      expect(m.value !== null || typeof m.reason === "string", m.provenance.method).toBe(true);
+      expect(m.provenance.sourceIds.length, m.provenance.method).toBeGreaterThan(0);
+      for (const id of m.provenance.sourceIds) expect(known.has(id), `${m.provenance.method}: ${id}`).toBe(true);
+    }
+    expect(count).toBeGreaterThan(80);
+  });
+
+  it("an empty test gives values with reasons, not exceptions", () => {
+    const e = measureIndices(makeTest([], { exercise: null, phases: [] }), { patient: {} });
+    expect(e.peaks.vo2MlMin.value).toBeNull();
+    expect(e.oues.fits[0].slope.value).toBeNull();
+    expect(e.lactate).toBeNull();
+    expect(e.issues.length).toBeGreaterThan(0);
+  });
+
+  it("fits interactive use: one hour of breaths (1 breath/s) in well under a second", () => {
+    const rows: BreathRow[] = [];
+    for (let t = 0; t < 3600; t++) {
+      const ex = t >= 300 && t <= 3300;
+      const vo2 = ex ? 800 + 0.8 * (t - 300) : 400;
+      rows.push({
+        timeS: t,
+        phase: t < 300 ? "rest" : ex ? "exercise" : "recovery",
+        vo2MlMin: vo2,
+        vco2MlMin: 0.9 * vo2,
+        veLMin: 0.03 * vo2 + 2,
+        hrBpm: 60 + vo2 / 30,
+        workW: ex ? (t - 300) / 12 : 0,
+        petco2MmHg: 38,
+        spo2Pct: 97,
+      });
+    }
+    const big = makeTest(rows, {
+      exercise: { startS: 300, endS: 3300 },
+      phases: [
+        { phase: "rest", startS: 0, endS: 299, source: "markers" },
+        { phase: "exercise", startS: 300, endS: 3300, source: "markers" },
+        { phase: "recovery", startS: 3301, endS: 3599, source: "markers" },
+      ],
+    });
+    const ctx = {
+      patient: { ageY: 40, weightKg: 80 },
+      vt1: { timeS: 1500, vo2MlMin: 1760 },
+      vt2: { timeS: 2500, vo2MlMin: 2560 },
+    };
+    measureIndices(big, ctx); // warm-up
+    const t0 = performance.now();
+    const out = measureIndices(big, ctx);
+    const ms = performance.now() - t0;
+    expect(out.dVo2dWr.whole.slope.value).toBeCloseTo(0.8 * 12, 6);
+    expect(ms).toBeLessThan(500);
+  });
+});
