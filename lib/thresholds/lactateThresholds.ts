@@ -88,8 +88,8 @@ const SOURCES: Record<LactateMethodId, string[]> = {
 };
 
 /**
- * Gather lactate points from samples (intensity from the sample, or read from the test at the sample time)
- * or, without samples, from the rows of a stage table that carry lactate.
+ * Gather lactate points from samples (intensity from the sample; else read from the test at the sample time;
+ * else the work rate / speed of the sample's stage) or, without samples, from the rows that carry lactate.
  */
 export function lactatePointsFromTest(
   test: ConditionedTest,
@@ -100,10 +100,15 @@ export function lactatePointsFromTest(
   const speed = fieldSeries(test.clean, "speedKmh");
   const raw: { w: number; s: number; l: number }[] = [];
   if (samples && samples.length > 0) {
+    // stage number → the work rate / speed of that stage's last row
+    const byStage = new Map<number, { w: number; s: number }>();
+    for (const r of test.clean)
+      if (typeof r.stage === "number") byStage.set(r.stage, { w: r.workW ?? NaN, s: r.speedKmh ?? NaN });
     for (const smp of samples) {
       const t = smp.timeS;
-      const w = smp.workW ?? (t !== undefined ? interpolateLinear(work.t, work.v, t) : NaN);
-      const s = smp.speedKmh ?? (t !== undefined ? interpolateLinear(speed.t, speed.v, t) : NaN);
+      const st = smp.stage !== undefined ? byStage.get(smp.stage) : undefined;
+      const w = smp.workW ?? (t !== undefined ? interpolateLinear(work.t, work.v, t) : (st?.w ?? NaN));
+      const s = smp.speedKmh ?? (t !== undefined ? interpolateLinear(speed.t, speed.v, t) : (st?.s ?? NaN));
       raw.push({ w, s, l: smp.lactateMmolL });
     }
   } else {

@@ -123,6 +123,17 @@ describe("points from a test", () => {
     ]);
     expect(r.issues.map((i) => i.code)).toContain("lactate-too-few-points");
   });
+  it("samples given by stage number take that stage's work rate", () => {
+    const rows = [50, 100, 150].map((w, i) => ({ timeS: 180 * (i + 1), stage: i + 1, workW: w }));
+    const got = lactatePointsFromTest(makeTest(rows, { shape: "stage" }), [
+      { stage: 2, lactateMmolL: 1.5 },
+      { stage: 3, lactateMmolL: 3 },
+    ]);
+    expect(got.points).toEqual([
+      { x: 100, lactateMmolL: 1.5 },
+      { x: 150, lactateMmolL: 3 },
+    ]);
+  });
   it("a stage table's lactate column is used when no samples are given; speed axis without work", () => {
     const rows = [8, 10, 12, 14, 16].map((s, i) => ({ timeS: 180 * (i + 1), speedKmh: s, lactateMmolL: [1, 1.3, 2, 3.5, 6][i] }));
     const test = makeTest(rows, { shape: "stage" });
