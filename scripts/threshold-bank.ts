@@ -6,9 +6,10 @@
  */
 import { pathToFileURL } from "node:url";
 import { conditionTable } from "../lib/signal";
-import { generateSyntheticTest, syntheticBank, type NoiseLevel } from "../lib/synthetic";
+import { generateSyntheticTest, generateVariantTest, syntheticBank, variantSpec, type NoiseLevel } from "../lib/synthetic";
 import { detectThresholds } from "../lib/thresholds/detectThresholds";
 import { quantile } from "../lib/numeric";
+import { veVco2Slope } from "../lib/thresholds/veVco2Slope";
 
 export interface BankRow {
   id: string;
@@ -28,6 +29,8 @@ export interface BankStats {
   medianPct: number;
   p90Pct: number;
   noCallPct: number;
+  /** Share of all tests (no-calls count as misses) with error ≤ 5 %. */
+  within5Pct: number;
 }
 
 export interface BankOptions {
@@ -35,18 +38,43 @@ export interface BankOptions {
   seed?: number;
   binS?: number;
   bootstrap?: number;
+  /** "main" = generateSyntheticTest bank; "variant" = the independent validation model. @default "main" */
+  generator?: "main" | "variant";
+  /** Noise levels to run. @default ["low", "moderate", "high"] */
+  noiseLevels?: NoiseLevel[];
 }
 
 /** Run the bank and return one row per (test, threshold, method) plus the consensus rows. */
 export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats: BankStats[]; ms: number } {
-  const cases = syntheticBank(options.size, { seed: options.seed ?? 2024 });
+  const levels = options.noiseLevels ?? ["low", "moderate", "high"];
+  const variant = options.generator === "variant";
+  const cases = variant
+    ? Array.from({ length: options.size }, (_, i) => ({
+        id: `variant-${i}`,
+        spec: variantSpec(i, options.seed ?? 77, levels),
+        seed: 5000 + i,
+      }))
+    : syntheticBank(options.size, { seed: options.seed ?? 2024, noiseLevels: levels });
   const rows: BankRow[] = [];
   const t0 = performance.now();
   for (const c of cases) {
-    const syn = generateSyntheticTest(c.spec, c.seed);
+    const syn = variant
+      ? generateVariantTest(c.spec as ReturnType<typeof variantSpec>, c.seed)
+      : generateSyntheticTest(c.spec as Parameters<typeof generateSyntheticTest>[0], c.seed);
     const test = conditionTable(syn.table);
-    const res = detectThresholds(test, { bootstrap: options.bootstrap ?? 0, series: { binS: options.binS ?? 20 } });
-    const noise = syn.spec.noise;
+    const res = detectThresholds(test, { bootstrap: options.bootstrap ?? 0, seed: 1, series: { binS: options.binS ?? 20 } });
+    const noise = "variant" in syn ? syn.variant.noise : syn.spec.noise;
+    // VE/VCO2 slope to the detected VT2 (lib/thresholds/veVco2Slope.ts) against the noise-free truth
+    if (syn.truth.vt2 && res.vt2.timeS !== null && res.vt2.vo2MlMin.value !== null) {
+      const sl = veVco2Slope(test, { vt2: { timeS: res.vt2.timeS, vo2MlMin: res.vt2.vo2MlMin.value } }).slopeToVt2.slope.value;
+      rows.push({
+        id: c.id,
+        noise,
+        which: "vt2",
+        method: "ve-vco2-slope-to-vt2",
+        errorPct: sl === null ? null : (100 * Math.abs(sl - syn.truth.veVco2SlopeToVt2)) / syn.truth.veVco2SlopeToVt2,
+      });
+    } else if (syn.truth.vt2) rows.push({ id: c.id, noise, which: "vt2", method: "ve-vco2-slope-to-vt2", errorPct: null });
     for (const which of ["vt1", "vt2"] as const) {
       const truth = syn.truth[which];
       if (!truth) continue;
@@ -78,6 +106,7 @@ export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats
         noise,
         n: sel.length,
         medianPct: quantile(errs, 0.5),
+        within5Pct: (100 * errs.filter((e) => e <= 5).length) / sel.length,
         p90Pct: quantile(errs, 0.9),
         noCallPct: (100 * (sel.length - errs.length)) / sel.length,
       });
@@ -92,15 +121,16 @@ function main(): void {
     size,
     seed: Number(process.env.BANK_SEED ?? 2024),
     binS: Number(process.env.BANK_BIN_S ?? 20),
-    bootstrap: Number(process.env.BANK_BOOTSTRAP ?? 0),
+    bootstrap: Number(process.env.BANK_BOOTSTRAP ?? 40),
+    generator: process.env.BANK_GENERATOR === "variant" ? "variant" : "main",
   });
   console.log(
     `threshold bank: ${size} synthetic tests (invented data), ${(ms / 1000).toFixed(1)} s, ${(ms / size).toFixed(1)} ms per test`,
   );
-  console.log("method                          noise     n   median%  P90%   no-call%");
+  console.log("method                          noise     n   median%  P90%   no-call%  ≤5%");
   for (const s of stats) {
     console.log(
-      `${s.method.padEnd(32)}${s.noise.padEnd(9)}${String(s.n).padStart(4)}${s.medianPct.toFixed(1).padStart(9)}${s.p90Pct.toFixed(1).padStart(7)}${s.noCallPct.toFixed(1).padStart(10)}`,
+      `${s.method.padEnd(32)}${s.noise.padEnd(9)}${String(s.n).padStart(4)}${s.medianPct.toFixed(1).padStart(9)}${s.p90Pct.toFixed(1).padStart(7)}${s.noCallPct.toFixed(1).padStart(10)}${s.within5Pct.toFixed(0).padStart(6)}`,
     );
   }
   const conf = rows.filter((r) => r.method.endsWith("consensus"));

@@ -4,3 +4,4 @@ export * from "./generateSyntheticTest";
 export * from "./syntheticPresets";
 export * from "./syntheticBank";
 export * from "./breathTableToCsv";
+export * from "./generateVariantTest";

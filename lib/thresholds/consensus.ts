@@ -81,6 +81,30 @@ export interface ConsensusOptions {
   highSpreadFraction?: number;
   /** Order of preference when a single method must be chosen (first = preferred). */
   preference?: string[];
+  /**
+   * When given, the value is the weighted median of every usable method (weight by id, default 1; "poor"
+   * fits count half) instead of the agreeing group's median — a robust pooled value (our choice); the
+   * confidence still follows agreement. @default undefined
+   */
+  weights?: Record<string, number>;
+}
+
+/** Weighted median (lower weighted median at an exact half). Empty → NaN. */
+export function weightedMedian(values: readonly number[], weights: readonly number[]): number {
+  const order = values.map((_, i) => i).filter((i) => weights[i] > 0 && Number.isFinite(values[i]));
+  if (order.length === 0) return NaN;
+  order.sort((a, b) => values[a] - values[b]);
+  const total = order.reduce((s, i) => s + weights[i], 0);
+  let acc = 0;
+  for (const i of order) {
+    acc += weights[i];
+    if (acc > total / 2 + 1e-12) return values[i];
+    if (Math.abs(acc - total / 2) <= 1e-12) {
+      const next = order[order.indexOf(i) + 1];
+      return next === undefined ? values[i] : (values[i] + values[next]) / 2;
+    }
+  }
+  return values[order[order.length - 1]];
 }
 
 export interface Consensus {
@@ -123,9 +147,15 @@ export function combineEstimates(methods: readonly MethodEstimate[], options: Co
     }
   }
   const values = best.map(v).sort((a, b) => a - b);
+  const pooled = options.weights
+    ? weightedMedian(
+        usable.map(v),
+        usable.map((m) => (options.weights?.[m.id] ?? 1) * (m.quality === "poor" ? 0.5 : 1)),
+      )
+    : NaN;
   if (best.length >= 2) {
     const mid = values.length >> 1;
-    const est = values.length % 2 ? values[mid] : (values[mid - 1] + values[mid]) / 2;
+    const est = Number.isFinite(pooled) ? pooled : values.length % 2 ? values[mid] : (values[mid - 1] + values[mid]) / 2;
     const spread = (values[values.length - 1] - values[0]) / est;
     const allAgree = best.length === usable.length;
     const goodCount = best.filter((m) => m.quality === "good").length;
@@ -156,7 +186,7 @@ export function combineEstimates(methods: readonly MethodEstimate[], options: Co
   }
   const all = usable.map(v);
   return {
-    vo2MlMin: v(chosen),
+    vo2MlMin: Number.isFinite(pooled) ? pooled : v(chosen),
     confidence: "low",
     methodIds: [chosen.id],
     band: { lowMlMin: Math.min(...all), highMlMin: Math.max(...all) },

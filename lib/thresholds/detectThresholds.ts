@@ -16,6 +16,7 @@ import type {
 } from "./thresholdTypes";
 import { ventilatoryEquivalents } from "./ventilatoryEquivalents";
 import { vSlope } from "./vSlope";
+import { jointVt1 } from "./jointVt1";
 
 export interface ThresholdSeriesOptions {
   /** Time-bin length, s (10–20 s keeps curve shape while damping breath noise; 20 s chosen on the synthetic bank). @default 20 */
@@ -172,9 +173,16 @@ export interface DetectThresholdsOptions {
   series?: ThresholdSeriesOptions;
   /** Agreement tolerance between methods, fraction of VO2 (our choice). @default 0.1 */
   agreementFraction?: number;
+  /**
+   * Report the median of the resampled consensus values (bagging) instead of the single-pass value when at
+   * least half the resamples gave one (our choice: steadier under breath noise on the synthetic banks). @default true
+   */
+  bootstrapMedian?: boolean;
 }
 
-const VT1_PREFERENCE = ["vt1-v-slope", "vt1-ventilatory-equivalents", "vt1-modified-v-slope"];
+const VT1_PREFERENCE = ["vt1-joint-profile", "vt1-v-slope", "vt1-ventilatory-equivalents", "vt1-modified-v-slope"];
+/** Weights of the VT1 pooled value (weighted median): the joint profile counts double (our choice, bank-tuned). */
+const VT1_WEIGHTS: Record<string, number> = { "vt1-joint-profile": 2 };
 const VT2_PREFERENCE = ["vt2-ve-vco2-break", "vt2-ventilatory-equivalents"];
 
 interface Core {
@@ -199,8 +207,9 @@ function runMethods(series: ThresholdSeries, agreementFraction: number): Core {
     vSlope(series, { endS: upper }),
     modifiedVSlope(series, { endS: upper }),
     ventilatoryEquivalents(series, { endS: upper }),
+    jointVt1(series, { endS: upper }),
   ];
-  const vt1 = combineEstimates(vt1Methods, { agreementFraction, preference: VT1_PREFERENCE });
+  const vt1 = combineEstimates(vt1Methods, { agreementFraction, preference: VT1_PREFERENCE, weights: VT1_WEIGHTS });
   const vt1TimeS = vt1.vo2MlMin === null ? null : timeAtLevel(series, series.vo2Trend, vt1.vo2MlMin);
   return { methods: [...vt1Methods, ...vt2Methods], vt1, vt2, vt1TimeS, vt2TimeS };
 }
@@ -299,8 +308,9 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
   const core = runMethods(series, agreementFraction);
   const reps = Math.max(0, Math.floor(options.bootstrap ?? 30));
   const boot = reps > 0 ? bootstrapSeries(series, reps, options.seed ?? 1, agreementFraction) : null;
-  const vt1 = toEstimate("vt1", core.vt1, core.vt1TimeS, series, test, boot?.vt1 ?? null);
-  const vt2 = toEstimate("vt2", core.vt2, core.vt2TimeS, series, test, boot?.vt2 ?? null);
+  const bag = options.bootstrapMedian ?? true;
+  const vt1 = toEstimate("vt1", core.vt1, core.vt1TimeS, series, test, boot?.vt1 ?? null, bag);
+  const vt2 = toEstimate("vt2", core.vt2, core.vt2TimeS, series, test, boot?.vt2 ?? null, bag);
   if (vt1.vo2MlMin.value !== null && vt2.vo2MlMin.value !== null && vt1.vo2MlMin.value >= vt2.vo2MlMin.value) {
     issues.push(makeIssue("warning", "vt1-not-below-vt2", "VT1 does not lie below VT2; review both thresholds."));
     vt1.confidence = "low";
@@ -384,6 +394,7 @@ function toEstimate(
   series: ThresholdSeries,
   test: ConditionedTest,
   boot: (number | null)[] | null,
+  bag = false,
 ): ThresholdEstimate {
   const prov: Provenance = {
     method: `${which}-consensus`,
@@ -414,6 +425,11 @@ function toEstimate(
   }
   let confidence = c.confidence;
   let reason = c.reason;
+  if (bag && bootstrap && bootstrap.medianMlMin !== null && bootstrap.noCallFraction <= 0.5 && c.vo2MlMin !== null) {
+    c = { ...c, vo2MlMin: bootstrap.medianMlMin };
+    timeS = timeAtLevel(series, series.vo2Trend, c.vo2MlMin as number);
+    prov.inputs = { ...prov.inputs, value: "median of the resampled consensus values" };
+  }
   if (confidence === "high" && band && c.vo2MlMin !== null && (band.highMlMin - band.lowMlMin) / c.vo2MlMin > 0.2) {
     confidence = "moderate";
     reason = "resampling band wider than 20 % of the value";

@@ -62,6 +62,11 @@ export const VT_SOURCES = defineSources({
     status: "confirmed",
     note: "±4 SD used by 51.6 % of studies that describe outlier removal; the local running median of 9 breaths is our choice.",
   },
+  "vt-joint-profile-choice": {
+    citation:
+      "Joint profile likelihood of one break time shared by VCO2 vs VO2, VE vs VO2 and PETO2 vs time, and its combination with the single-plot methods (implementation choice of this software, no published source)",
+    status: "common-practice",
+  },
   "vt-implementation-choice": {
     citation:
       "Implementation choice of this software for ventilatory thresholds (no published source): bin length, lead-in exclusion, agreement tolerance, F-statistic floor, resampling",

@@ -121,6 +121,7 @@ describe("detectThresholds", () => {
       "vt1-v-slope",
       "vt1-modified-v-slope",
       "vt1-ventilatory-equivalents",
+      "vt1-joint-profile",
       "vt2-ve-vco2-break",
       "vt2-ventilatory-equivalents",
     ]);
