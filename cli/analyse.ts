@@ -1,9 +1,24 @@
 import fs from "node:fs";
 import path from "node:path";
 import type { Command } from "commander";
-import { analyse, buildRecord } from "../lib/analysis";
+import { analyse, buildRecord, type ReferralQuestion } from "../lib/analysis";
+import { importLactateFile } from "../lib/breath";
 import { hasErrors } from "../lib/core";
-import { toCliJson } from "../lib/report";
+import { REFERRAL_QUESTIONS } from "../lib/interpret";
+import { CLINICAL_CAUTION, toCliJson, type CliAnalysisJson } from "../lib/report";
+
+interface AnalyseOptions {
+  json?: boolean;
+  sex?: string;
+  age?: number;
+  heightCm?: number;
+  weightKg?: number;
+  ergometer: string;
+  fev1L?: number;
+  mvvLMin?: number;
+  lactate?: string;
+  referral: string;
+}
 
 export function registerAnalyse(program: Command): void {
   program
@@ -17,59 +32,82 @@ export function registerAnalyse(program: Command): void {
     .option("--height-cm <cm>", "height in cm", parseNumber("--height-cm"))
     .option("--weight-kg <kg>", "body weight in kg", parseNumber("--weight-kg"))
     .option("--ergometer <kind>", "cycle | treadmill", "cycle")
+    .option(
+      "--fev1-l <litres>",
+      "resting FEV1 in litres (breathing reserve from FEV1 × 40 unless MVV is given)",
+      parseNumber("--fev1-l"),
+    )
+    .option("--mvv-l-min <L/min>", "measured maximal voluntary ventilation, L/min", parseNumber("--mvv-l-min"))
+    .option("--lactate <file>", "blood lactate samples (CSV/XLSX with time or stage, optional work/speed, and lactate)")
+    .option("--referral <question>", `referral question: ${REFERRAL_QUESTIONS.join(" | ")}`, "general")
     .action(async (file: string, opts: AnalyseOptions) => {
       const result = await runAnalyse(file, opts);
       process.stdout.write(opts.json ? JSON.stringify(result, null, 2) + "\n" : formatText(result));
     });
 }
 
-interface AnalyseOptions {
-  json?: boolean;
-  sex?: string;
-  age?: number;
-  heightCm?: number;
-  weightKg?: number;
-  ergometer: string;
-}
-
 function parseNumber(flag: string) {
   return (raw: string): number => {
     const n = Number(raw);
-    if (!Number.isFinite(n)) throw new Error(`${flag} needs a number, got "${raw}"`);
+    if (raw.trim() === "" || !Number.isFinite(n)) throw new Error(`${flag} needs a number, got "${raw}"`);
     return n;
   };
 }
 
-export async function runAnalyse(file: string, opts: AnalyseOptions) {
+function readBytes(file: string): Uint8Array {
+  try {
+    return new Uint8Array(fs.readFileSync(file));
+  } catch {
+    throw new Error(`cannot read ${file}: no such file or not readable`);
+  }
+}
+
+export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<CliAnalysisJson> {
   if (opts.sex && opts.sex !== "male" && opts.sex !== "female")
     throw new Error(`--sex must be male or female, got "${opts.sex}"`);
   if (opts.ergometer !== "cycle" && opts.ergometer !== "treadmill")
     throw new Error(`--ergometer must be cycle or treadmill, got "${opts.ergometer}"`);
-  let bytes: Uint8Array;
-  try {
-    bytes = new Uint8Array(fs.readFileSync(file));
-  } catch {
-    throw new Error(`cannot read ${file}: no such file or not readable`);
-  }
+  if (!REFERRAL_QUESTIONS.includes(opts.referral as ReferralQuestion))
+    throw new Error(`--referral must be one of ${REFERRAL_QUESTIONS.join(", ")}`);
+  const bytes = readBytes(file);
   const built = await buildRecord({
     bytes,
     fileName: path.basename(file),
     patient: { sex: opts.sex as "male" | "female" | undefined, ageY: opts.age, heightCm: opts.heightCm, weightKg: opts.weightKg },
     ergometer: opts.ergometer,
+    referral: opts.referral as ReferralQuestion,
   });
   if (!built.record || hasErrors(built.issues)) {
     const what = built.issues.filter((i) => i.severity === "error").map((i) => i.message);
     throw new Error(`${path.basename(file)} cannot be used: ${what.join(" ") || "unknown problem"}`);
   }
-  return toCliJson(analyse(built.record));
+  const record = built.record;
+  if (opts.fev1L !== undefined || opts.mvvLMin !== undefined) record.spirometry = { fev1L: opts.fev1L, mvvLMin: opts.mvvLMin };
+  if (opts.lactate) {
+    const lac = await importLactateFile(readBytes(opts.lactate));
+    if (lac.samples.length === 0) {
+      throw new Error(
+        `${path.basename(opts.lactate)} has no usable lactate samples: ${lac.issues.map((i) => i.message).join(" ")}`,
+      );
+    }
+    record.lactate = lac.samples;
+    record.importIssues = [...record.importIssues, ...lac.issues];
+  }
+  return toCliJson(analyse(record), CLINICAL_CAUTION);
 }
 
-function formatText(r: Awaited<ReturnType<typeof runAnalyse>>): string {
+function formatText(r: CliAnalysisJson): string {
+  const n = (x: number | null, d = 0) => (x === null ? "not determinable" : x.toFixed(d));
   const lines = [
-    `peak VO2: ${r.peak.vo2MlMin?.toFixed(0) ?? "not determinable"} mL/min (${r.peak.method})`,
-    `duration: ${r.durationS?.toFixed(0) ?? "—"} s`,
-    ...r.issues.map((i) => `${i.severity}: ${i.message}`),
-    "Decision support only: results must be reviewed by a qualified clinician.",
+    `peak VO2        ${n(r.peak.vo2MlMin)} mL/min, ${n(r.peak.vo2MlKgMin, 1)} mL/kg/min (${r.peak.method})`,
+    `VT1             ${n(r.vt1.vo2MlMin)} mL/min (confidence ${r.vt1.confidence})`,
+    `VT2             ${n(r.vt2.vo2MlMin)} mL/min (confidence ${r.vt2.confidence})`,
+    `VE/VCO2 slope   ${n(r.veVco2Slope.toRcp, 1)} to RCP, ${n(r.veVco2Slope.whole, 1)} whole exercise`,
+    `OUES            ${n(r.oues)}`,
+    `ΔVO2/ΔWR        ${n(r.dVo2dWr, 1)} mL/min/W`,
+    `breathing reserve ${n(r.breathingReserve.pct)} %`,
+    ...r.issues.filter((i) => i.severity !== "info").map((i) => `${i.severity}: ${i.message}`),
+    r.caution,
   ];
   return lines.join("\n") + "\n";
 }

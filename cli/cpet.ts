@@ -1,5 +1,6 @@
 import { Command, CommanderError } from "commander";
 import { registerAnalyse } from "./analyse";
+import { registerPredict } from "./predict";
 
 /**
  * The `cpet` command line. stdout carries only the requested output (JSON or a table);
@@ -15,6 +16,7 @@ export function buildProgram(): Command {
     .showHelpAfterError()
     .exitOverride();
   registerAnalyse(program);
+  registerPredict(program);
   return program;
 }
 

@@ -1,51 +1,121 @@
-import { measured, notDetermined, type Issue } from "../core";
+import type { Issue, Measured } from "../core";
 import { conditionTable } from "../signal";
-import { peakOverWindow } from "../thresholds";
-import type { AnalysisResult, AnalysisSettings, TestRecord } from "./types";
+import {
+  detectThresholds,
+  measureIndices,
+  peakOverWindow,
+  type MvvChoice,
+  type ThresholdEstimate,
+  type ThresholdPoint,
+} from "../thresholds";
+import { compareWithPredicted, DEFAULT_LAB_SETTINGS, predictAll, type PredictedQuantity, type PredictedSet } from "../predicted";
+import { composeDraft, interpret } from "../interpret";
+import type { AnalysisResult, AnalysisSettings, PredictedComparisonRow, TestRecord } from "./types";
+import { toInterpretInput } from "./toInterpretInput";
+import { draftExtras } from "./draftExtras";
 
-export const ENGINE_VERSION = "0.1.0";
+/** Version of the analysis code; stored with every analysis version and printed on reports. */
+export const ENGINE_VERSION = "0.2.0";
 
 /**
- * The whole analysis as one pure, deterministic function of (record, settings).
- * Everything shown anywhere (page, PDF, CLI JSON) is derived from its result.
+ * The whole analysis as one pure, deterministic function of (record, settings):
+ * condition → predict → thresholds (consensus or reviewer override) → indices → compare with
+ * predicted → interpret → draft. Everything shown anywhere (page, PDF, CLI JSON) derives from it.
  */
 export function analyse(record: TestRecord, settings: AnalysisSettings = {}): AnalysisResult {
-  const issues: Issue[] = [...record.importIssues];
-  const test = conditionTable(record.table, { averaging: settings.averaging });
-  issues.push(...test.issues);
-  const rows = test.clean;
-  const first = rows[0]?.timeS ?? 0;
-  const last = rows[rows.length - 1]?.timeS ?? 0;
-  const durationS = measured(last - first, "s", {
-    method: "record-span",
-    label: "time from first to last row",
-    sourceIds: ["common-practice"],
-    window: { startS: first, endS: last },
+  const test = conditionTable(record.table, settings.conditioning);
+  const labSettings = settings.labSettings ?? DEFAULT_LAB_SETTINGS;
+  const predicted = predictAll(record.patient, record.ergometer, labSettings, { spirometry: record.spirometry });
+  const thresholds = detectThresholds(test, {
+    overrides: settings.overrides ?? [],
+    bootstrap: settings.bootstrap ?? 40,
+    seed: 1,
   });
-  const vo2MlMin = peakOverWindow(rows, "vo2MlMin", { unit: "mL/min", windowS: settings.peakWindowS ?? 30 });
-  const weightKg = record.patient.weightKg;
-  const vo2MlKgMin =
-    vo2MlMin.value !== null && weightKg
-      ? measured(vo2MlMin.value / weightKg, "mL/kg/min", {
-          ...vo2MlMin.provenance,
-          inputs: { ...vo2MlMin.provenance.inputs, weightKg },
-        })
-      : notDetermined(
-          "mL/kg/min",
-          vo2MlMin.provenance,
-          weightKg ? (vo2MlMin.reason ?? "peak VO2 not determinable") : "body weight not given",
-        );
+  const hrMax = predicted.values.hrMaxBpm;
+  const indices = measureIndices(test, {
+    patient: record.patient,
+    spirometry: record.spirometry,
+    predictedHrMaxBpm: hrMax?.value ?? undefined,
+    predictedHrMaxEquationId: hrMax?.equationId,
+    vt1: thresholdPoint(thresholds.vt1),
+    vt2: thresholdPoint(thresholds.vt2),
+    peakWindowS: settings.peakWindowS ?? 30,
+    mvvChoice: settings.mvvChoice ?? defaultMvvChoice(record),
+    lactate: record.lactate,
+    bloodGases: record.bloodGases,
+  });
+  const comparisons = compareAll(indices, predicted);
+  const peakRr = peakOverWindow(test.clean, "rrBrMin", { unit: "1/min", windowS: settings.peakWindowS ?? 30 });
+  const interpretInput = toInterpretInput(record, thresholds, indices, predicted, comparisons, peakRr.value);
+  const interpretation = interpret(interpretInput, settings.interpret ?? {});
+  const draft = composeDraft(interpretInput, interpretation, draftExtras(record, thresholds, indices));
+  const issues: Issue[] = [
+    ...record.importIssues,
+    ...test.issues,
+    ...predicted.issues,
+    ...thresholds.issues,
+    ...indices.issues,
+    ...interpretation.issues,
+  ];
   return {
     engineVersion: ENGINE_VERSION,
-    durationS,
-    peak: { vo2MlMin, vo2MlKgMin },
-    conditioned: {
-      exercise: test.exercise,
-      phases: test.phases,
-      averaging: test.averaging,
-      rampRateWPerMin: test.rampRateWPerMin,
-      removed: test.removed,
-    },
-    issues,
+    settings,
+    conditioned: test,
+    thresholds,
+    indices,
+    predicted,
+    comparisons,
+    interpretInput,
+    interpretation,
+    draft,
+    issues: dedupeIssues(issues),
   };
+}
+
+function thresholdPoint(t: ThresholdEstimate): ThresholdPoint | null {
+  return t.timeS !== null && t.vo2MlMin.value !== null ? { timeS: t.timeS, vo2MlMin: t.vo2MlMin.value } : null;
+}
+
+/** Measured MVV when given; otherwise FEV1 × 40 (the choice is named on the result). */
+function defaultMvvChoice(record: TestRecord): MvvChoice | undefined {
+  if (record.spirometry?.mvvLMin) return "measured";
+  if (record.spirometry?.fev1L) return "fev1x40";
+  return undefined;
+}
+
+function compareAll(indices: AnalysisResult["indices"], predicted: PredictedSet): PredictedComparisonRow[] {
+  const p = indices.peaks;
+  const rows: [string, string, Measured, PredictedQuantity][] = [
+    ["peakVo2", "Peak VO2", p.vo2MlMin, "vo2PeakMlMin"],
+    ["peakVo2PerKg", "Peak VO2 per kg", p.vo2MlKgMin, "vo2PeakMlKgMin"],
+    ["peakWork", "Peak work rate", p.workW, "workMaxW"],
+    ["peakHr", "Peak heart rate", p.hrBpm, "hrMaxBpm"],
+    ["peakO2Pulse", "Peak O2 pulse", p.o2PulseMlBeat, "o2PulseMaxMlBeat"],
+    ["veVco2Nadir", "Lowest VE/VCO2", indices.veVco2.nadir, "veVco2NadirRatio"],
+  ];
+  return rows.map(([key, label, measured, quantity]) => {
+    const pv = predicted.values[quantity] ?? null;
+    if (!pv || pv.value === null)
+      return { key, label, measured, predicted: pv, percentPredicted: null, zScore: null, beyondLimit: null };
+    const c = compareWithPredicted(measured.value, pv);
+    return {
+      key,
+      label,
+      measured,
+      predicted: pv,
+      percentPredicted: c.percentPredicted,
+      zScore: c.zScore ?? null,
+      beyondLimit: c.beyondLimit ?? null,
+    };
+  });
+}
+
+function dedupeIssues(issues: Issue[]): Issue[] {
+  const seen = new Set<string>();
+  return issues.filter((i) => {
+    const key = `${i.severity}|${i.code}|${i.message}|${JSON.stringify(i.where ?? {})}`;
+    if (seen.has(key)) return false;
+    seen.add(key);
+    return true;
+  });
 }

@@ -1,3 +1,4 @@
 export * from "./types";
 export * from "./analyse";
 export * from "./buildRecord";
+export * from "./draftExtras";

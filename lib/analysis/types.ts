@@ -1,19 +1,30 @@
-import type { Issue, Measured, Patient, Ergometer, Spirometry } from "../core";
-import type { BreathTable, ColumnDecision, LactateSample, BloodGasSample } from "../breath";
-import type { AveragingSpec, ConditionedTest } from "../signal";
+import type { Ergometer, Issue, Measured, Patient, Spirometry } from "../core";
+import type { BloodGasSample, BreathTable, ColumnDecision, LactateSample } from "../breath";
+import type { ConditionedTest, ConditioningSettings } from "../signal";
+import type { IndicesResult, MvvChoice, ThresholdOverride, ThresholdResult } from "../thresholds";
+import type { LabSettings, PredictedSet, PredictedValue } from "../predicted";
+import type { DraftReport, InterpretInput, InterpretSettings, Interpretation, ReferralQuestion } from "../interpret";
+
+export type { ReferralQuestion } from "../interpret";
 
 /** Test conduct a report needs (entered by the physiologist). */
 export interface TestConduct {
+  protocol?: string;
   reasonForStopping?: string;
   symptoms?: string;
   peakBorg?: number;
   bloodPressure?: string;
   ecgNotes?: string;
-  protocol?: string;
+  notes?: string;
 }
 
-export type ReferralQuestion =
-  "general" | "heart-failure" | "pre-operative" | "lung-resection" | "pulmonary-hypertension" | "transplant" | "training";
+/** Clinical context entered with the test (used by schemes that need it). */
+export interface ClinicalContext {
+  ischaemicHeartDisease?: boolean;
+  resectedSegments?: number;
+  stairClimbM?: number;
+  shuttleWalkM?: number;
+}
 
 /** What was measured: the analysis is a pure function of this and the settings. */
 export interface TestRecord {
@@ -29,25 +40,49 @@ export interface TestRecord {
   spirometry?: Spirometry;
   bloodGases?: BloodGasSample[];
   conduct?: TestConduct;
+  context?: ClinicalContext;
 }
 
 /** Every choice a person or lab makes; stored with each analysis version. */
 export interface AnalysisSettings {
-  averaging?: AveragingSpec;
+  conditioning?: ConditioningSettings;
   /** Peak averaging window, seconds. @default 30 */
   peakWindowS?: number;
+  /** Equation per quantity and ergometer. @default DEFAULT_LAB_SETTINGS (lib/predicted) */
+  labSettings?: LabSettings;
+  /** Reviewer overrides of VT1/VT2 (value, reason, who). */
+  overrides?: ThresholdOverride[];
+  /** How MVV is obtained for the breathing reserve. @default measured when given, else FEV1 × 40 */
+  mvvChoice?: MvvChoice;
+  /** Cut-off choices where sources disagree, and scheme selection. */
+  interpret?: InterpretSettings;
+  /** Bootstrap replicates for the threshold confidence band. @default 40 */
+  bootstrap?: number;
 }
 
-export interface PeakValues {
-  vo2MlMin: Measured;
-  vo2MlKgMin: Measured;
+/** A measured value set against its prediction. */
+export interface PredictedComparisonRow {
+  key: string;
+  label: string;
+  measured: Measured;
+  predicted: PredictedValue | null;
+  percentPredicted: number | null;
+  zScore: number | null;
+  beyondLimit: boolean | null;
 }
 
 export interface AnalysisResult {
   /** Version of the analysis code, so a signed report can be reproduced. */
   engineVersion: string;
-  durationS: Measured;
-  peak: PeakValues;
-  conditioned: Pick<ConditionedTest, "exercise" | "phases" | "averaging" | "rampRateWPerMin" | "removed">;
+  settings: AnalysisSettings;
+  conditioned: ConditionedTest;
+  thresholds: ThresholdResult;
+  indices: IndicesResult;
+  predicted: PredictedSet;
+  comparisons: PredictedComparisonRow[];
+  interpretInput: InterpretInput;
+  interpretation: Interpretation;
+  draft: DraftReport;
+  /** Every issue raised on the way, import first. */
   issues: Issue[];
 }

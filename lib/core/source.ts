@@ -32,14 +32,32 @@ export function defineSources<const K extends string>(sources: Record<K, Omit<So
   return out;
 }
 
+const STATUS_STRENGTH: Record<EvidenceStatus, number> = { confirmed: 3, secondary: 2, "common-practice": 1, recalled: 0 };
+
+/**
+ * Merge layer registries. One paper may be registered by several layers for different claims (e.g.
+ * an equation seen only in a reproduction, and a cut-off seen in the abstract): the merged entry
+ * keeps the fuller citation and the strongest paper-level status, and joins the notes. Each item
+ * (equation, rule, method) still carries its own evidence status beside its number.
+ */
 export function mergeSourceRegistries(...registries: Record<string, Source>[]): Record<string, Source> {
   const merged: Record<string, Source> = {};
   for (const reg of registries) {
     for (const [id, src] of Object.entries(reg)) {
-      if (merged[id] && merged[id].citation !== src.citation) {
-        throw new Error(`source id ${id} is defined twice with different citations`);
+      const prev = merged[id];
+      if (!prev) {
+        merged[id] = src;
+        continue;
       }
-      merged[id] = src;
+      const notes = [prev.note, src.note].filter((n, i, all): n is string => Boolean(n) && all.indexOf(n) === i);
+      merged[id] = {
+        ...prev,
+        citation: src.citation.length > prev.citation.length ? src.citation : prev.citation,
+        status: STATUS_STRENGTH[src.status] > STATUS_STRENGTH[prev.status] ? src.status : prev.status,
+        doi: prev.doi ?? src.doi,
+        pmid: prev.pmid ?? src.pmid,
+        note: notes.length > 0 ? notes.join(" ") : undefined,
+      };
     }
   }
   return merged;

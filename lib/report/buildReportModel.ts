@@ -1,11 +1,10 @@
 import type { AnalysisResult, ReferralQuestion, TestRecord } from "../analysis";
-import { CORE_SOURCES, type Measured, type Source } from "../core";
-import { THRESHOLD_SOURCES } from "../thresholds";
+import type { Measured, Source } from "../core";
+import { thresholdMethodWords } from "../analysis";
+import { analysisCharts } from "./analysisCharts";
+import { ALL_SOURCES } from "./sources";
 import { formatClock, formatNumber } from "../units";
 import { CLINICAL_CAUTION, DRAFT_CAUTION } from "./caution";
-import type { ChartSpec } from "./charts/chartSpec";
-import { timeCourseChart } from "./charts/timeCourseChart";
-import { vSlopeChart } from "./charts/vSlopeChart";
 import type { ReportModel, ReportRow, ReportSection } from "./reportModel";
 
 /** The stored state of the report text: from `lib/store/reports` (or a new, unsaved draft). */
@@ -17,7 +16,7 @@ export interface ReportDraftState {
 }
 
 export interface BuildReportModelOptions {
-  /** Source registry to resolve cited ids. @default CORE_SOURCES + THRESHOLD_SOURCES */
+  /** Source registry to resolve cited ids. @default ALL_SOURCES (every registry) */
   sources?: Record<string, Source>;
 }
 
@@ -58,33 +57,11 @@ function testLine(result: AnalysisResult, record: TestRecord): string {
   const parts = [`${record.ergometer} ergometer`];
   if (result.conditioned.rampRateWPerMin !== null)
     parts.push(`ramp ${formatNumber(result.conditioned.rampRateWPerMin, 0)} W/min`);
-  if (result.durationS.value !== null) parts.push(`recording ${formatClock(result.durationS.value)} min:s`);
+  const d = result.indices.peaks.testDurationS.value;
+  if (d !== null) parts.push(`recording ${formatClock(d)} min:s`);
   parts.push(`${record.table.rows.length} ${record.table.shape === "breath" ? "breaths" : "rows"}`);
   if (record.upload?.fileName) parts.push(`file ${record.upload.fileName}`);
   return parts.join(", ");
-}
-
-/** Charts available from the record alone (the analysis will add threshold markers and fits). */
-function recordCharts(result: AnalysisResult, record: TestRecord): ChartSpec[] {
-  const rows = record.table.rows;
-  const has = (f: "vo2MlMin" | "vco2MlMin" | "hrBpm" | "workW") => rows.some((r) => typeof r[f] === "number");
-  if (!has("vo2MlMin")) return [];
-  const ex = result.conditioned.exercise;
-  const charts: ChartSpec[] = [
-    timeCourseChart({
-      timeS: rows.map((r) => r.timeS),
-      vo2MlMin: rows.map((r) => r.vo2MlMin),
-      vco2MlMin: has("vco2MlMin") ? rows.map((r) => r.vco2MlMin) : undefined,
-      hrBpm: has("hrBpm") ? rows.map((r) => r.hrBpm) : undefined,
-      workW: has("workW") ? rows.map((r) => r.workW) : undefined,
-      spans: ex ? [{ startS: ex.startS, endS: ex.endS, label: "incremental exercise" }] : [],
-    }),
-  ];
-  if (has("vco2MlMin")) {
-    const inExercise = ex ? rows.filter((r) => r.timeS >= ex.startS && r.timeS <= ex.endS) : rows;
-    charts.push(vSlopeChart({ vo2MlMin: inExercise.map((r) => r.vo2MlMin), vco2MlMin: inExercise.map((r) => r.vco2MlMin) }));
-  }
-  return charts;
 }
 
 /**
@@ -93,8 +70,6 @@ function recordCharts(result: AnalysisResult, record: TestRecord): ChartSpec[] {
  * those cited by the rows, in order of first citation; an id missing from the registry is listed
  * as "not in the registry" (status recalled) so it is never silently dropped.
  *
- * Today the analysis gives peak VO2, duration and issues; thresholds, predicted values,
- * interpretation path and schemes are empty until the analysis provides them.
  */
 export function buildReportModel(
   result: AnalysisResult,
@@ -103,37 +78,94 @@ export function buildReportModel(
   draft: ReportDraftState,
   options: BuildReportModelOptions = {},
 ): ReportModel {
-  const registry = options.sources ?? { ...CORE_SOURCES, ...THRESHOLD_SOURCES };
-  const peak = result.peak;
-  const keyValues: ReportRow[] = [
-    measuredRow("Peak VO2", peak.vo2MlMin, 0),
-    measuredRow("Peak VO2 per kg", peak.vo2MlKgMin, 1),
-    measuredRow("Recording duration", result.durationS, 0, formatClock),
+  const registry = options.sources ?? ALL_SOURCES;
+  const ix = result.indices;
+  const pk = ix.peaks;
+  const keyValues: ReportRow[] = result.comparisons.map((c) => {
+    const decimals = c.measured.unit === "mL/min" || c.measured.unit === "W" || c.measured.unit === "1/min" ? 0 : 1;
+    const row = measuredRow(c.label, c.measured, decimals);
+    if (c.predicted && c.predicted.value !== null) {
+      row.predicted = formatNumber(c.predicted.value, decimals);
+      row.sourceIds = [...row.sourceIds, ...c.predicted.provenance.sourceIds];
+      row.note = [row.note, `predicted by ${c.predicted.equationLabel} (${c.predicted.status})`].filter(Boolean).join("; ");
+    }
+    if (c.percentPredicted !== null) row.pctPredicted = formatNumber(c.percentPredicted, 0);
+    if (c.predicted?.lln !== undefined && c.predicted.lln !== null) row.lln = formatNumber(c.predicted.lln, decimals);
+    return row;
+  });
+  const oues = ix.oues.fits.find((f) => f.fraction === 1);
+  const extra: [string, Measured | undefined, number][] = [
+    ["Peak RER", pk.rerMax, 2],
+    ["Peak VE", pk.veLMin, 0],
+    ["VE/VCO2 slope to RCP", ix.veVco2.slopeToVt2.slope, 1],
+    ["VE/VCO2 slope, whole exercise", ix.veVco2.slopeWholeExercise.slope, 1],
+    ["OUES (whole exercise)", oues?.slope, 0],
+    ["ΔVO2/ΔWR", ix.dVo2dWr.whole.slope, 1],
+    ["Breathing reserve", ix.breathingReserve.reservePercent, 0],
+    ["Heart-rate reserve", ix.heartRate.reserveBpm, 0],
+    ["HR recovery at 1 min", ix.heartRate.recovery1MinBpm, 0],
+    ["Lowest SpO2", ix.spo2.lowestPct, 0],
   ];
-  keyValues[2].unit = "min:s";
+  for (const [label, m, d] of extra) if (m) keyValues.push(measuredRow(label, m, d));
+  keyValues.push(measuredRow("Recording duration", pk.testDurationS, 0, formatClock));
+  keyValues[keyValues.length - 1].unit = "min:s";
+
   const thresholds: ReportRow[] = [];
-  const path: ReportModel["path"] = [];
-  const schemes: ReportModel["schemes"] = [];
+  for (const [t, at, name] of [
+    [result.thresholds.vt1, ix.atVt1, "VT1 (AT)"],
+    [result.thresholds.vt2, ix.atVt2, "VT2 (RCP)"],
+  ] as const) {
+    const row = measuredRow(name, t.vo2MlMin, 0);
+    const bits = [`confidence ${t.confidence}`];
+    if (t.band) bits.push(`band ${formatNumber(t.band.lowMlMin, 0)}-${formatNumber(t.band.highMlMin, 0)} mL/min`);
+    if (at && t.vo2MlMin.value !== null)
+      bits.push(
+        `${formatNumber(at.vo2MlKgMin.value, 1)} mL/kg/min, ${formatNumber(at.vo2PercentPeak.value, 0)} % of peak, HR ${formatNumber(at.hrBpm.value, 0)}, ${formatNumber(at.workW.value, 0)} W`,
+      );
+    bits.push(thresholdMethodWords(t, result.thresholds));
+    row.note = [row.note, ...bits].filter(Boolean).join("; ");
+    thresholds.push(row);
+  }
+  const path: ReportModel["path"] = result.interpretation.path.steps.map((st, i) => ({
+    step: i + 1,
+    variable: st.title,
+    value: st.checks.map((c) => c.comparisons.map((x) => `${x.label} ${x.value ?? "n/a"}`).join(", ")).join("; ") || "-",
+    cutoff: st.checks.map((c) => c.comparisons.map((x) => `${x.op} ${String(x.cutoff)}`).join(", ")).join("; ") || "-",
+    outcome: st.text,
+    sourceIds: st.sourceIds,
+  }));
+  const schemes: ReportModel["schemes"] = result.interpretation.schemes.map((sc) => ({
+    name: sc.name,
+    category: sc.overall ? sc.overall.label : "not assessable",
+    severity: sc.overall?.severity ?? -1,
+    inputs: [...sc.axes.map((a) => a.text), ...(sc.path?.steps.map((x) => x.text) ?? [])],
+    sourceIds: sc.sourceIds,
+  }));
 
   const cited: string[] = [];
   for (const ids of [...keyValues, ...thresholds, ...path, ...schemes].map((r) => r.sourceIds))
     for (const id of ids) if (!cited.includes(id)) cited.push(id);
+  for (const m of result.thresholds.methods) for (const id of m.sourceIds) if (!cited.includes(id)) cited.push(id);
   const sources: Source[] = cited.map(
     (id) => registry[id] ?? { id, citation: `Source "${id}" (not in the registry)`, status: "recalled" },
   );
 
-  const methods: string[] = [];
-  for (const [name, m] of [
-    ["Peak VO2", peak.vo2MlMin],
-    ["Recording duration", result.durationS],
-  ] as const) {
-    methods.push(`${name}: ${m.provenance.label}${m.provenance.averaging ? ` (${m.provenance.averaging})` : ""}.`);
-  }
-  methods.push(
-    `Averaging used by the analysis: ${result.conditioned.averaging.label}. Charts show the recorded rows unaveraged.`,
-  );
+  const methods: string[] = [
+    `Peak values: ${pk.vo2MlMin.provenance.label}.`,
+    `VT1 and VT2: ${result.thresholds.methods
+      .map((m) => m.label)
+      .filter((l, i, a) => a.indexOf(l) === i)
+      .join("; ")}; consensus with confidence and band (${result.thresholds.series.averaging}).`,
+    `Display averaging: ${result.conditioned.averaging.label}.`,
+    `Predicted values: ${Object.values(result.predicted.values)
+      .flatMap((v) => (v ? [`${v.quantity} by ${v.equationLabel}`] : []))
+      .join("; ")}.`,
+    ...result.interpretation.settingsUsed.map(
+      (u) => `Cut-off choice: ${u.label}: ${u.optionLabel}${u.isDefault ? " (default)" : ""}.`,
+    ),
+  ];
   if (result.conditioned.removed.length > 0)
-    methods.push(`${result.conditioned.removed.length} breaths were removed as artefacts before analysis.`);
+    methods.push(`${result.conditioned.removed.length} breath values were set aside as artefacts before analysis.`);
 
   return {
     title: `Cardiopulmonary exercise test report: ${label}`,
@@ -148,7 +180,7 @@ export function buildReportModel(
     draftMark: DRAFT_CAUTION,
     keyValues,
     thresholds,
-    charts: recordCharts(result, record),
+    charts: analysisCharts(result),
     sections: draft.sections,
     path,
     schemes,

@@ -1,26 +1,205 @@
-import type { Issue } from "../core";
+import type { Issue, Measured } from "../core";
 import type { AnalysisResult } from "../analysis";
+import type { ThresholdEstimate } from "../thresholds";
 
 /**
- * The CLI's JSON object: a stable projection of the analysis result. Keys documented by
- * `cli/analyse.schema.json`; keep them stable (later versions only add keys).
+ * The CLI's JSON object: a stable projection of the analysis result, documented by
+ * `cli/analyse.schema.json`. Keys are stable: later versions only add keys. A value that cannot be
+ * determined is `null`, with its reason in `issues` (code `not-determinable`).
  */
 export interface CliAnalysisJson {
   engineVersion: string;
+  caution: string;
   durationS: number | null;
-  peak: { vo2MlMin: number | null; vo2MlKgMin: number | null; method: string };
+  exerciseDurationS: number | null;
+  averaging: string;
+  peak: {
+    method: string;
+    windowS: number;
+    vo2MlMin: number | null;
+    vo2MlKgMin: number | null;
+    vco2MlMin: number | null;
+    veLMin: number | null;
+    rer: number | null;
+    hrBpm: number | null;
+    workW: number | null;
+    o2PulseMlBeat: number | null;
+  };
+  predicted: Record<string, { value: number | null; unit: string; equationId: string; percentPredicted: number | null }>;
+  vt1: CliThreshold;
+  vt2: CliThreshold;
+  veVco2Slope: {
+    toRcp: number | null;
+    toRcpIntercept: number | null;
+    whole: number | null;
+    wholeIntercept: number | null;
+    nadir: number | null;
+  };
+  oues: number | null;
+  oues90: number | null;
+  oues75: number | null;
+  dVo2dWr: number | null;
+  o2PulsePattern: string | null;
+  breathingReserve: {
+    pct: number | null;
+    lMin: number | null;
+    mvvLMin: number | null;
+    mvvMethod: string | null;
+    veMvvPct: number | null;
+  };
+  heartRate: {
+    reserveBpm: number | null;
+    chronotropicIndex: number | null;
+    recovery1MinBpm: number | null;
+    percentPredicted: number | null;
+  };
+  spo2: { restPct: number | null; lowestPct: number | null; fallPct: number | null };
+  eov: { definition: string; detected: boolean | null }[];
+  lactate: null | {
+    axis: string;
+    unit: string;
+    obla4: { workW: number | null; speedKmh: number | null };
+    thresholds: { method: string; value: number | null; lactateMmolL: number | null }[];
+    relations: string[];
+  };
+  domains: { id: string; label: string; hrBpm: [number | null, number | null]; workW: [number | null, number | null] }[];
+  interpretation: unknown;
   issues: Issue[];
 }
 
-export function toCliJson(result: AnalysisResult): CliAnalysisJson {
-  return {
-    engineVersion: result.engineVersion,
-    durationS: result.durationS.value,
-    peak: {
-      vo2MlMin: result.peak.vo2MlMin.value,
-      vo2MlKgMin: result.peak.vo2MlKgMin.value,
-      method: result.peak.vo2MlMin.provenance.label,
-    },
-    issues: result.issues,
+export interface CliThreshold {
+  vo2MlMin: number | null;
+  vo2MlKgMin: number | null;
+  timeS: number | null;
+  hrBpm: number | null;
+  workW: number | null;
+  pctPeak: number | null;
+  confidence: string;
+  band: { lowMlMin: number; highMlMin: number } | null;
+  methods: { id: string; vo2MlMin: number | null; quality: string }[];
+  overridden: boolean;
+  reason: string | null;
+}
+
+const val = (m: Measured | null | undefined): number | null =>
+  m && m.value !== null && Number.isFinite(m.value) ? m.value : null;
+
+export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJson {
+  const ix = result.indices;
+  const p = ix.peaks;
+  const issues: Issue[] = [...result.issues];
+  const nd = (what: string, m: Measured | null | undefined) => {
+    if (m && m.value === null)
+      issues.push({ severity: "info", code: "not-determinable", message: `${what}: ${m.reason ?? "not determinable"}` });
+    return val(m);
   };
+  const threshold = (t: ThresholdEstimate, at: AnalysisResult["indices"]["atVt1"]): CliThreshold => {
+    if (t.vo2MlMin.value === null)
+      issues.push({
+        severity: "info",
+        code: "not-determinable",
+        message: `${t.which.toUpperCase()}: ${t.reason ?? t.vo2MlMin.reason ?? "not determinable"}`,
+      });
+    return {
+      vo2MlMin: val(t.vo2MlMin),
+      vo2MlKgMin: val(at?.vo2MlKgMin),
+      timeS: t.timeS,
+      hrBpm: val(at?.hrBpm) ?? val(t.hrBpm),
+      workW: val(at?.workW) ?? val(t.workW),
+      pctPeak: val(at?.vo2PercentPeak),
+      confidence: t.confidence,
+      band: t.band,
+      methods: result.thresholds.methods
+        .filter((m) => m.which === t.which)
+        .map((m) => ({ id: m.id, vo2MlMin: val(m.vo2MlMin), quality: m.quality })),
+      overridden: Boolean(t.overridden),
+      reason: t.reason ?? null,
+    };
+  };
+  const oues = (f: number) => val(ix.oues.fits.find((x) => Math.abs(x.fraction - f) < 1e-9)?.slope);
+  const predicted: CliAnalysisJson["predicted"] = {};
+  for (const [q, pv] of Object.entries(result.predicted.values)) {
+    if (!pv) continue;
+    const cmp = result.comparisons.find((c) => c.predicted?.quantity === q);
+    predicted[q] = { value: pv.value, unit: pv.unit, equationId: pv.equationId, percentPredicted: cmp?.percentPredicted ?? null };
+  }
+  const lac = ix.lactate;
+  const obla = lac?.thresholds.find((t) => t.id === "obla-4");
+  const json: CliAnalysisJson = {
+    engineVersion: result.engineVersion,
+    caution,
+    durationS: val(p.testDurationS),
+    exerciseDurationS: val(p.exerciseDurationS),
+    averaging: result.conditioned.averaging.label,
+    peak: {
+      method: p.vo2MlMin.provenance.label,
+      windowS: p.windowS,
+      vo2MlMin: nd("Peak VO2", p.vo2MlMin),
+      vo2MlKgMin: nd("Peak VO2 per kg", p.vo2MlKgMin),
+      vco2MlMin: val(p.vco2MlMin),
+      veLMin: val(p.veLMin),
+      rer: val(p.rerMax),
+      hrBpm: val(p.hrBpm),
+      workW: val(p.workW),
+      o2PulseMlBeat: val(p.o2PulseMlBeat),
+    },
+    predicted,
+    vt1: threshold(result.thresholds.vt1, ix.atVt1),
+    vt2: threshold(result.thresholds.vt2, ix.atVt2),
+    veVco2Slope: {
+      toRcp: nd("VE/VCO2 slope to RCP", ix.veVco2.slopeToVt2.slope),
+      toRcpIntercept: val(ix.veVco2.slopeToVt2.intercept),
+      whole: nd("VE/VCO2 slope, whole exercise", ix.veVco2.slopeWholeExercise.slope),
+      wholeIntercept: val(ix.veVco2.slopeWholeExercise.intercept),
+      nadir: val(ix.veVco2.nadir),
+    },
+    oues: oues(1),
+    oues90: oues(0.9),
+    oues75: oues(0.75),
+    dVo2dWr: nd("ΔVO2/ΔWR", ix.dVo2dWr.whole.slope),
+    o2PulsePattern: ix.o2Pulse.pattern,
+    breathingReserve: {
+      pct: nd("Breathing reserve", ix.breathingReserve.reservePercent),
+      lMin: val(ix.breathingReserve.reserveLMin),
+      mvvLMin: val(ix.breathingReserve.mvvLMin),
+      mvvMethod: ix.breathingReserve.mvvChoice,
+      veMvvPct: val(ix.breathingReserve.veMvvPercent),
+    },
+    heartRate: {
+      reserveBpm: val(ix.heartRate.reserveBpm),
+      chronotropicIndex: val(ix.heartRate.chronotropicIndex),
+      recovery1MinBpm: val(ix.heartRate.recovery1MinBpm),
+      percentPredicted: val(ix.heartRate.percentPredicted),
+    },
+    spo2: { restPct: val(ix.spo2.restPct), lowestPct: val(ix.spo2.lowestPct), fallPct: val(ix.spo2.fallPct) },
+    eov: ix.eov.definitions.map((d) => ({ definition: d.id, detected: d.detected })),
+    lactate: lac
+      ? {
+          axis: lac.axis,
+          unit: lac.unit,
+          obla4: {
+            workW: lac.axis === "workW" ? val(obla?.intensity) : null,
+            speedKmh: lac.axis === "speedKmh" ? val(obla?.intensity) : null,
+          },
+          thresholds: lac.thresholds.map((t) => ({ method: t.id, value: val(t.intensity), lactateMmolL: val(t.lactateMmolL) })),
+          relations: lac.relations.map((r) => r.statement),
+        }
+      : null,
+    domains: ix.domains.domains.map((d) => ({
+      id: d.id,
+      label: d.label,
+      hrBpm: [val(d.hrBpm.lower), val(d.hrBpm.upper)],
+      workW: [val(d.workW.lower), val(d.workW.upper)],
+    })),
+    interpretation: {
+      referral: result.interpretation.referral,
+      effort: { verdict: result.interpretation.effort.verdict, text: result.interpretation.effort.text },
+      path: result.interpretation.path,
+      patterns: result.interpretation.patterns,
+      schemes: result.interpretation.schemes,
+      settingsUsed: result.interpretation.settingsUsed,
+    },
+    issues,
+  };
+  return json;
 }

@@ -1,61 +1,98 @@
 import type { Ergometer, Patient, Spirometry } from "../core";
-import type { ReferralQuestion } from "../analysis";
+import type { ClinicalContext, ReferralQuestion, TestConduct } from "../analysis";
+import { breathTableToCsv, generateSyntheticTest, SYNTHETIC_PRESETS } from "../synthetic";
 
 /**
- * INVENTED demo cases (not patient data). Generated deterministically so the demo is the same on
- * every machine.
+ * INVENTED demo cases (not patient data): breath files made by the synthetic generator from its
+ * presets, with invented patient details chosen to fit each physiology. Deterministic (fixed seeds),
+ * so the demo is the same on every machine.
  */
 export interface DemoCase {
+  presetId: string;
   label: string;
   fileName: string;
   patient: Patient;
   ergometer: Ergometer;
   referral: ReferralQuestion;
   spirometry?: Spirometry;
-  csv: () => string;
-}
-
-function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-/** Simple invented ramp test: rest 120 s, unloaded 120 s, ramp to `peakW`, recovery 120 s. */
-function simpleRamp(seed: number, rampWPerMin: number, peakW: number, restVo2: number, slope: number): string {
-  const rnd = mulberry32(seed);
-  const lines = ["time_s,vo2_ml_min,vco2_ml_min,ve_l_min,hr_bpm,work_w,phase"];
-  const rampS = (peakW / rampWPerMin) * 60;
-  const end = 240 + rampS + 120;
-  let vo2 = restVo2;
-  for (let t = 0; t < end; t += 2.5 + rnd()) {
-    const phase = t < 120 ? "rest" : t < 240 ? "warmup" : t < 240 + rampS ? "exercise" : "recovery";
-    const work = phase === "exercise" ? ((t - 240) / 60) * rampWPerMin : 0;
-    const target = phase === "rest" ? restVo2 : phase === "recovery" ? restVo2 * 1.6 : restVo2 * 1.5 + slope * work;
-    vo2 += (target - vo2) * 0.08;
-    const noisy = vo2 * (1 + (rnd() - 0.5) * 0.08);
-    const rer = 0.82 + 0.3 * Math.max(0, (work - peakW * 0.5) / peakW);
-    const vco2 = noisy * rer;
-    const ve = (vco2 / 1000) * 28 + 3;
-    const hr = 70 + (noisy - restVo2) * 0.045;
-    lines.push([t.toFixed(2), noisy.toFixed(0), vco2.toFixed(0), ve.toFixed(1), hr.toFixed(0), work.toFixed(0), phase].join(","));
-  }
-  return lines.join("\n") + "\n";
+  conduct?: TestConduct;
+  context?: ClinicalContext;
+  seed: number;
 }
 
 export const DEMO_CASES: DemoCase[] = [
   {
-    label: "Demo (invented): healthy adult, cycle ramp",
-    fileName: "demo-healthy-ramp.csv",
-    patient: { sex: "male", ageY: 45, heightCm: 178, weightKg: 78 },
+    presetId: "normal-adult",
+    label: "Demo (invented): breathless runner, normal study",
+    fileName: "demo-normal.csv",
+    patient: { sex: "male", ageY: 45, heightCm: 178, weightKg: 75 },
     ergometer: "cycle",
     referral: "general",
-    spirometry: { fev1L: 3.6 },
-    csv: () => simpleRamp(11, 25, 250, 320, 10),
+    spirometry: { fev1L: 3.9 },
+    conduct: { protocol: "Cycle ramp 25 W/min after 3 min unloaded pedalling", reasonForStopping: "leg fatigue", peakBorg: 18 },
+    seed: 101,
+  },
+  {
+    presetId: "heart-failure",
+    label: "Demo (invented): heart failure assessment",
+    fileName: "demo-heart-failure.csv",
+    patient: { sex: "male", ageY: 62, heightCm: 174, weightKg: 80, betaBlocker: true },
+    ergometer: "cycle",
+    referral: "heart-failure",
+    spirometry: { fev1L: 2.9 },
+    conduct: { protocol: "Cycle ramp 10 W/min", reasonForStopping: "breathlessness and fatigue", peakBorg: 17 },
+    seed: 102,
+  },
+  {
+    presetId: "ventilatory-limitation",
+    label: "Demo (invented): COPD, ventilatory limitation",
+    fileName: "demo-ventilatory.csv",
+    patient: { sex: "female", ageY: 66, heightCm: 162, weightKg: 70 },
+    ergometer: "cycle",
+    referral: "general",
+    spirometry: { fev1L: 1.2, mvvLMin: 45, fev1PctPred: 48 },
+    conduct: { protocol: "Cycle ramp 10 W/min", reasonForStopping: "breathlessness", peakBorg: 19 },
+    seed: 103,
+  },
+  {
+    presetId: "pulmonary-vascular",
+    label: "Demo (invented): suspected pulmonary vascular disease",
+    fileName: "demo-pulmonary-vascular.csv",
+    patient: { sex: "female", ageY: 52, heightCm: 165, weightKg: 65 },
+    ergometer: "cycle",
+    referral: "pulmonary-hypertension",
+    spirometry: { fev1L: 2.6 },
+    conduct: { protocol: "Cycle ramp 10 W/min", reasonForStopping: "breathlessness, light-headedness", peakBorg: 17 },
+    seed: 104,
+  },
+  {
+    presetId: "deconditioning",
+    label: "Demo (invented): deconditioning after illness",
+    fileName: "demo-deconditioning.csv",
+    patient: { sex: "male", ageY: 50, heightCm: 180, weightKg: 85 },
+    ergometer: "cycle",
+    referral: "training",
+    spirometry: { fev1L: 3.8 },
+    conduct: { protocol: "Cycle ramp 15 W/min", reasonForStopping: "leg fatigue", peakBorg: 18 },
+    seed: 105,
+  },
+  {
+    presetId: "preop-low-at",
+    label: "Demo (invented): pre-operative assessment, colorectal surgery",
+    fileName: "demo-preop.csv",
+    patient: { sex: "male", ageY: 71, heightCm: 172, weightKg: 82 },
+    ergometer: "cycle",
+    referral: "pre-operative",
+    spirometry: { fev1L: 2.7 },
+    conduct: { protocol: "Cycle ramp 10 W/min", reasonForStopping: "leg fatigue", peakBorg: 17 },
+    context: { ischaemicHeartDisease: false },
+    seed: 106,
   },
 ];
+
+/** The demo case's breath file (plain column convention), generated from its preset. */
+export function demoCsv(demo: DemoCase): string {
+  const preset = SYNTHETIC_PRESETS.find((p) => p.id === demo.presetId);
+  if (!preset) throw new Error(`unknown synthetic preset ${demo.presetId}`);
+  return breathTableToCsv(generateSyntheticTest(preset.spec, demo.seed).table);
+}

@@ -1,6 +1,6 @@
 import "server-only";
 import { buildRecord } from "../analysis";
-import { DEMO_CASES } from "./demoCases";
+import { DEMO_CASES, demoCsv } from "./demoCases";
 import { countTests, saveTest, saveUpload } from "./tests";
 
 let seeding: Promise<void> | null = null;
@@ -11,7 +11,7 @@ export function ensureDemoData(): Promise<void> {
   seeding ??= (async () => {
     if (countTests() > 0) return;
     for (const demo of DEMO_CASES) {
-      const bytes = new TextEncoder().encode(demo.csv());
+      const bytes = new TextEncoder().encode(demoCsv(demo));
       const upload = saveUpload(demo.fileName, bytes);
       const built = await buildRecord({
         bytes,
@@ -21,7 +21,8 @@ export function ensureDemoData(): Promise<void> {
         ergometer: demo.ergometer,
         referral: demo.referral,
       });
-      if (built.record && demo.spirometry) built.record.spirometry = demo.spirometry;
+      if (built.record)
+        Object.assign(built.record, { spirometry: demo.spirometry, conduct: demo.conduct, context: demo.context });
       saveTest({
         uploadId: upload.id,
         label: demo.label,

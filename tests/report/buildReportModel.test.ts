@@ -17,26 +17,33 @@ async function rampRecord() {
 }
 
 describe("buildReportModel", () => {
-  it("maps today's analysis result into display rows with sources and neutral draft text", async () => {
+  it("maps the analysis result into display rows with predicted values, thresholds, sources and the composed draft", async () => {
     const record = await rampRecord();
     const result = analyse(record);
     const sections = initialDraftSections(result);
     const model = buildReportModel(result, record, "Synthetic ramp", { status: "draft", sections });
     // Known by construction (e2e/fixtures/plain-ramp.csv.ts): highest 30-s average 2500 mL/min;
     // 2500 / 80 kg = 31.25 → "31.3" at one decimal; recording 0-660 s = 11:00.
-    expect(model.keyValues.map((r) => [r.label, r.value, r.unit])).toEqual([
-      ["Peak VO2", "2500", "mL/min"],
-      ["Peak VO2 per kg", "31.3", "mL/kg/min"],
-      ["Recording duration", "11:00", "min:s"],
-    ]);
-    expect(model.keyValues[0].method).toBe("highest 30-s rolling average");
-    expect(model.sources.map((s) => s.id)).toEqual(["peak-rolling-average", "common-practice"]);
+    const row = (label: string) => model.keyValues.find((r) => r.label === label)!;
+    expect([row("Peak VO2").value, row("Peak VO2").unit]).toEqual(["2500", "mL/min"]);
+    expect([row("Peak VO2 per kg").value, row("Peak VO2 per kg").unit]).toEqual(["31.3", "mL/kg/min"]);
+    expect([row("Recording duration").value, row("Recording duration").unit]).toEqual(["11:00", "min:s"]);
+    expect(row("Peak VO2").method).toBe("VO2: highest 30-s rolling average in exercise");
+    // Hansen 1984 cycle, man 50 y 175 cm 80 kg: 2505.6 mL/min (clinical-reference §1.2 worked example)
+    // → 2500 / 2505.6 = 99.8 % → "100".
+    expect(row("Peak VO2").predicted).toBe("2506");
+    expect(row("Peak VO2").pctPredicted).toBe("100");
+    expect(model.sources.map((s) => s.id)).toContain("peak-rolling-average");
+    expect(model.sources.map((s) => s.id)).toContain("hansen-1984");
+    expect(model.thresholds.map((t) => t.label)).toEqual(["VT1 (AT)", "VT2 (RCP)"]);
     expect(model.caution).toBe(CLINICAL_CAUTION);
     expect(model.status).toBe("draft");
     expect(model.signedBy).toBeUndefined();
     expect(model.patientLine).toBe("male, 50 y, 175 cm, 80.0 kg");
     expect(model.charts.map((c) => c.id)).toContain("time-course");
-    expect(sections[0].paragraphs[0]).toBe("Peak VO2 was 2500 mL/min (highest 30-s rolling average), 31.3 mL/kg/min.");
+    // The first draft is the interpretation layer's composed text, marked as a draft.
+    expect(sections.length).toBeGreaterThan(3);
+    expect(sections.map((x) => x.paragraphs.join(" ")).join(" ")).toMatch(/2500 mL\/min/);
   });
 
   it("shows the signer only for a signed report and never drops an unknown source id", async () => {

@@ -1,11 +1,32 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { analyse } from "@/lib/analysis";
-import { formatNumber, formatClock } from "@/lib/units";
-import { getTest } from "@/lib/store/tests";
+import type { Measured } from "@/lib/core";
+import { EQUATIONS } from "@/lib/predicted";
+import { listCutoffChoices } from "@/lib/interpret";
+import { analysisCharts } from "@/lib/report";
+import { renderChartSvg } from "@/lib/report/charts";
+import type { ThresholdEstimate } from "@/lib/thresholds";
+import { displayUnit, formatClock } from "@/lib/units";
+import { getTest, listAnalysisVersions } from "@/lib/store/tests";
 import { IssueList } from "../../components/IssueList";
+import { clearOverride } from "./actions";
+import { fmt, HowFound, SourceList } from "./parts/HowFound";
+import { OverrideForm } from "./parts/OverrideForm";
+import { SettingsForm } from "./parts/SettingsForm";
+import { SeverityScale } from "./parts/SeverityScale";
 
 export const dynamic = "force-dynamic";
+
+const AVERAGING_KEY: Record<string, string> = {
+  none: "none",
+  "rolling-time:30": "rolling-30",
+  "time-bin:10": "bin-10",
+  "time-bin:20": "bin-20",
+  "time-bin:30": "bin-30",
+  "breath-count:7": "breaths-7",
+  "middle-of-seven:7": "middle-5-of-7",
+};
 
 export default async function TestPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
@@ -22,76 +43,515 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           <h2 style={{ marginTop: 0 }}>This file could not be used</h2>
           <p>The original file is kept exactly as uploaded ({test.fileName}). What to fix:</p>
           <IssueList issues={test.importIssues} />
+          {test.importColumns.length > 0 ? <ColumnTable columns={test.importColumns} /> : null}
           {test.uploadId ? <a href={`/api/uploads/${test.uploadId}`}>Download the original file</a> : null}
         </section>
       </>
     );
   }
 
-  const result = analyse(test.record);
-  const peak = result.peak.vo2MlMin;
+  const versions = listAnalysisVersions(testId);
+  const settings = versions[0]?.settings ?? {};
+  const record = test.record;
+  const result = analyse(record, settings);
+  const ix = result.indices;
+  const pk = ix.peaks;
+  const charts = analysisCharts(result);
+  const erg = record.ergometer;
+  const p = record.patient;
+  const av = result.conditioned.averaging;
+  const avKey = AVERAGING_KEY[av.kind === "none" ? "none" : `${av.kind}:${av.seconds ?? av.breaths}`] ?? "none";
+  const eqOptions = (quantities: string[]) =>
+    EQUATIONS.filter(
+      (e) =>
+        quantities.includes(e.quantity) && e.kind !== "performance-estimate" && (e.ergometer === "both" || e.ergometer === erg),
+    ).map((e) => ({
+      id: e.id,
+      label: e.label,
+    }));
+
   return (
     <>
-      <h1>{test.label}</h1>
+      <h1 data-testid="test-title">{test.label}</h1>
       <p className="how">
-        File {test.fileName} · {test.record.table.rows.length} rows (
-        {test.record.table.shape === "breath" ? "breath by breath" : "stage data"}) · engine {result.engineVersion}
+        {p.sex ?? "sex not given"}, {p.ageY ?? "?"} y, {p.heightCm ?? "?"} cm, {p.weightKg ?? "?"} kg · {erg} · referral:{" "}
+        {record.referral} · file {test.fileName} ({record.table.rows.length}{" "}
+        {record.table.shape === "breath" ? "breaths" : "stages"}) · analysis version {versions[0]?.version ?? "defaults"} · engine{" "}
+        {result.engineVersion}
       </p>
-      <div className="grid3">
-        <section className="panel">
-          <h3>Peak VO2</h3>
-          <div className="keyfig" data-testid="peak-vo2">
-            {formatNumber(peak.value, 0)} <small>mL/min</small>
-          </div>
-          <div className="keyfig" style={{ fontSize: "1.2rem" }} data-testid="peak-vo2-kg">
-            {formatNumber(result.peak.vo2MlKgMin.value, 1)} <small>mL/kg/min</small>
-          </div>
-          <p className="how" data-testid="peak-method">
-            {peak.value !== null ? `Method: ${peak.provenance.label}` : `Not determinable: ${peak.reason}`}
-            {peak.provenance.window
-              ? `, ${formatClock(peak.provenance.window.startS)}–${formatClock(peak.provenance.window.endS)}`
-              : ""}
-          </p>
-        </section>
-        <section className="panel">
-          <h3>Test duration</h3>
-          <div className="keyfig" data-testid="duration">
-            {result.durationS.value !== null ? formatClock(result.durationS.value) : "—"} <small>min:s</small>
-          </div>
-          <p className="how">{result.durationS.provenance.label}</p>
-        </section>
-        <section className="panel">
-          <h3>Data quality</h3>
-          <IssueList issues={result.issues} />
-        </section>
+      <p className="row">
+        <Link href={`/tests/${testId}/report`} data-testid="report-link">
+          Draft report and signature →
+        </Link>
+        {test.uploadId ? <a href={`/api/uploads/${test.uploadId}`}>original file</a> : null}
+        {test.demo ? <span className="tag">invented demo data</span> : null}
+      </p>
+
+      <section className="panel" data-testid="effort">
+        <h3 style={{ marginTop: 0 }}>Test validity and effort</h3>
+        <p>
+          <strong>{result.interpretation.effort.label}.</strong> {result.interpretation.effort.text}
+        </p>
+        <p className="how">
+          Criteria set: {ix.effort.setLabel} — met: {ix.effort.metIds.length > 0 ? ix.effort.metIds.join(", ") : "none"}.
+        </p>
+      </section>
+
+      <h2>Key results against predicted</h2>
+      <table data-testid="key-results">
+        <thead>
+          <tr>
+            <th>Measure</th>
+            <th className="num">Measured</th>
+            <th className="num">Predicted</th>
+            <th className="num">% predicted</th>
+            <th>Equation</th>
+            <th>How found</th>
+          </tr>
+        </thead>
+        <tbody>
+          {result.comparisons.map((c) => (
+            <tr key={c.key} data-testid={`row-${c.key}`}>
+              <td>{c.label}</td>
+              <td className="num">
+                {fmt(c.measured, c.measured.unit === "mL/min" ? 0 : 1)} {displayUnit(c.measured.unit)}
+              </td>
+              <td className="num">
+                {c.predicted?.value !== null && c.predicted?.value !== undefined
+                  ? c.predicted.value.toFixed(c.measured.unit === "mL/min" ? 0 : 1)
+                  : "—"}
+                {c.predicted?.lln !== undefined && c.predicted.lln !== null ? (
+                  <div className="how">LLN {c.predicted.lln.toFixed(0)}</div>
+                ) : null}
+              </td>
+              <td className="num">{c.percentPredicted !== null ? `${c.percentPredicted.toFixed(0)} %` : "—"}</td>
+              <td className="how">
+                {c.predicted ? `${c.predicted.equationLabel} (${c.predicted.status})` : "no applicable equation"}
+              </td>
+              <td>
+                <HowFound m={c.measured} />
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      <p className="how">
+        Peak values: {pk.vo2MlMin.provenance.label}. Display averaging: {av.label}. Test duration{" "}
+        {pk.testDurationS.value !== null ? formatClock(pk.testDurationS.value) : "—"}, exercise{" "}
+        {pk.exerciseDurationS.value !== null ? formatClock(pk.exerciseDurationS.value) : "—"}; peak RER {fmt(pk.rerMax, 2)}, peak
+        VE {fmt(pk.veLMin, 0)} L/min.
+      </p>
+
+      <h2>Thresholds</h2>
+      <div className="grid2">
+        <ThresholdCard
+          testId={testId}
+          t={result.thresholds.vt1}
+          at={ix.atVt1}
+          title="VT1 (anaerobic threshold)"
+          predVo2={result.predicted.values.vo2PeakMlMin?.value ?? null}
+        />
+        <ThresholdCard
+          testId={testId}
+          t={result.thresholds.vt2}
+          at={ix.atVt2}
+          title="VT2 (respiratory compensation point)"
+          predVo2={result.predicted.values.vo2PeakMlMin?.value ?? null}
+        />
       </div>
-      <section>
-        <h2>How the file was read</h2>
-        <table data-testid="column-decisions">
+      <details className="panel">
+        <summary>Each method&apos;s estimate</summary>
+        <table data-testid="threshold-methods">
           <thead>
             <tr>
-              <th>Column in file</th>
-              <th>Read as</th>
-              <th>Why</th>
+              <th>Method</th>
+              <th className="num">VO2 (mL/min)</th>
+              <th className="num">Time</th>
+              <th>Quality</th>
+              <th>Reasons</th>
             </tr>
           </thead>
           <tbody>
-            {test.importColumns.map((c) => (
-              <tr key={c.index}>
-                <td>{c.header}</td>
+            {result.thresholds.methods.map((m) => (
+              <tr key={m.id}>
                 <td>
-                  {c.field ?? "ignored"}
-                  {c.unit ? ` (${c.unit})` : ""}
+                  {m.which.toUpperCase()} · {m.label}
+                  <SourceList ids={m.sourceIds} />
                 </td>
-                <td className="how">{c.reason}</td>
+                <td className="num">{fmt(m.vo2MlMin)}</td>
+                <td className="num">{m.timeS !== null ? formatClock(m.timeS) : "—"}</td>
+                <td>{m.quality}</td>
+                <td className="how">{m.reasons.join("; ")}</td>
               </tr>
             ))}
           </tbody>
         </table>
-      </section>
-      <p>
-        <Link href="/">Back to the register</Link>
-      </p>
+      </details>
+
+      <h2>Charts</h2>
+      <div className="grid2" data-testid="charts">
+        {charts.map((c) => (
+          <figure
+            key={c.id}
+            style={{ margin: 0 }}
+            className="panel"
+            dangerouslySetInnerHTML={{ __html: renderChartSvg(c, { width: 520, height: 320 }) }}
+          />
+        ))}
+      </div>
+
+      <h2>Ventilatory, cardiac and gas-exchange indices</h2>
+      <table data-testid="indices">
+        <tbody>
+          <IndexRow
+            label="VE/VCO2 slope, start of exercise to RCP"
+            m={ix.veVco2.slopeToVt2.slope}
+            d={1}
+            extra={`intercept ${fmt(ix.veVco2.slopeToVt2.intercept, 1)} L/min`}
+          />
+          <IndexRow
+            label="VE/VCO2 slope, whole exercise"
+            m={ix.veVco2.slopeWholeExercise.slope}
+            d={1}
+            extra={`intercept ${fmt(ix.veVco2.slopeWholeExercise.intercept, 1)} L/min`}
+          />
+          <IndexRow label="Lowest VE/VCO2" m={ix.veVco2.nadir} d={1} />
+          <IndexRow label="VE/VCO2 at VT1" m={ix.veVco2.atVt1} d={1} />
+          {ix.oues.fits.map((f) => (
+            <IndexRow key={f.fraction} label={`OUES, first ${Math.round(f.fraction * 100)} % of exercise`} m={f.slope} d={0} />
+          ))}
+          <IndexRow
+            label="ΔVO2/ΔWR on the ramp"
+            m={ix.dVo2dWr.whole.slope}
+            d={1}
+            extra={ix.dVo2dWr.flattening ? "late flattening" : undefined}
+          />
+          <tr>
+            <td>O2 pulse trajectory (last third of exercise)</td>
+            <td className="num">{ix.o2Pulse.pattern ?? "—"}</td>
+            <td>
+              <HowFound m={ix.o2Pulse.finalSlope} />
+            </td>
+          </tr>
+          <IndexRow
+            label={`Breathing reserve (${ix.breathingReserve.mvvLMin.provenance.label})`}
+            m={ix.breathingReserve.reservePercent}
+            d={0}
+            extra={`${fmt(ix.breathingReserve.reserveLMin)} L/min; MVV ${fmt(ix.breathingReserve.mvvLMin)} L/min`}
+          />
+          <IndexRow label="VE/MVV at peak" m={ix.breathingReserve.veMvvPercent} d={0} />
+          <IndexRow label="Heart-rate reserve" m={ix.heartRate.reserveBpm} d={0} />
+          <IndexRow label="Chronotropic index" m={ix.heartRate.chronotropicIndex} d={2} />
+          <IndexRow label="HR recovery at 1 min" m={ix.heartRate.recovery1MinBpm} d={0} />
+          <IndexRow
+            label="SpO2 at rest → lowest"
+            m={ix.spo2.lowestPct}
+            d={0}
+            extra={`rest ${fmt(ix.spo2.restPct)} %, fall ${fmt(ix.spo2.fallPct, 1)} points`}
+          />
+          <IndexRow label="PETCO2 at rest" m={pk.petco2RestMmHg} d={1} extra={`rise to VT1 ${fmt(pk.petco2RiseMmHg, 1)} mmHg`} />
+          {ix.eov.definitions.map((d) => (
+            <tr key={d.id}>
+              <td>Exercise oscillatory ventilation ({d.label})</td>
+              <td className="num">{d.detected === null ? "not assessable" : d.detected ? "present" : "absent"}</td>
+              <td>
+                <HowFound m={d.detail} />
+              </td>
+            </tr>
+          ))}
+          {ix.vdVt.map((v) => (
+            <IndexRow
+              key={v.timeS}
+              label={`VD/VT at ${v.label ?? formatClock(v.timeS)} (PaCO2 ${v.paCO2MmHg} mmHg)`}
+              m={v.vdVt}
+              d={2}
+            />
+          ))}
+        </tbody>
+      </table>
+
+      {ix.lactate ? (
+        <>
+          <h2>Lactate thresholds</h2>
+          <table data-testid="lactate">
+            <tbody>
+              {ix.lactate.thresholds.map((t) => (
+                <IndexRow
+                  key={t.id}
+                  label={t.intensity.provenance.label}
+                  m={t.intensity}
+                  d={ix.lactate?.axis === "speedKmh" ? 1 : 0}
+                  extra={`lactate ${fmt(t.lactateMmolL, 1)} mmol/L`}
+                />
+              ))}
+            </tbody>
+          </table>
+          <ul>
+            {ix.lactate.relations.map((r) => (
+              <li key={r.id}>{r.statement}</li>
+            ))}
+          </ul>
+        </>
+      ) : null}
+
+      <h2>Intensity domains (for exercise prescription)</h2>
+      <table data-testid="domains">
+        <thead>
+          <tr>
+            <th>Domain</th>
+            <th>Heart rate (1/min)</th>
+            <th>Work rate (W)</th>
+          </tr>
+        </thead>
+        <tbody>
+          {ix.domains.domains.map((d) => (
+            <tr key={d.id}>
+              <td>{d.label}</td>
+              <td>
+                {fmt(d.hrBpm.lower)} – {fmt(d.hrBpm.upper)}
+              </td>
+              <td>
+                {fmt(d.workW.lower)} – {fmt(d.workW.upper)}
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+
+      <h2>Interpretation path</h2>
+      <ol data-testid="interpretation-path">
+        {result.interpretation.path.steps.map((s) => (
+          <li key={s.nodeId}>
+            <strong>{s.title}:</strong> {s.text}
+            {s.checks.map((c) => (
+              <div key={c.ruleId} className="how">
+                {c.text} <span className="tag">{c.status}</span>
+              </div>
+            ))}
+          </li>
+        ))}
+      </ol>
+      {result.interpretation.path.end ? (
+        <p>
+          <strong>End of path:</strong> {result.interpretation.path.end.label}
+        </p>
+      ) : null}
+
+      <h2>Limitation patterns (ranked; never a single diagnosis)</h2>
+      <table data-testid="patterns">
+        <thead>
+          <tr>
+            <th>Pattern</th>
+            <th>Support</th>
+            <th>For</th>
+            <th>Against</th>
+          </tr>
+        </thead>
+        <tbody>
+          {result.interpretation.patterns.map((pt) => (
+            <tr key={pt.patternId}>
+              <td>
+                {pt.statement}
+                <div className="how">evidence: {pt.status}</div>
+              </td>
+              <td>{pt.support}</td>
+              <td className="how">{pt.for.map((f) => f.text).join("; ") || "—"}</td>
+              <td className="how">{pt.against.map((f) => f.text).join("; ") || "—"}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+
+      <h2>Published schemes for this referral</h2>
+      <div data-testid="schemes">
+        {result.interpretation.schemes.map((s) => (
+          <section key={s.schemeId} className="panel">
+            <h3 style={{ marginTop: 0 }}>
+              {s.name} <span className="tag">{s.status}</span>
+            </h3>
+            {s.overall ? (
+              <p>
+                <SeverityScale severity={s.overall.severity} steps={s.maxSeverity + 1} /> <strong>{s.overall.label}</strong>{" "}
+                <span className="how">({s.overall.basis})</span>
+              </p>
+            ) : (
+              <p className="how">No overall category (inputs missing or not assessable).</p>
+            )}
+            <ul>
+              {s.axes.map((a) => (
+                <li key={a.axisId}>
+                  {a.text}
+                  {a.population ? <span className="how"> — {a.population}</span> : null}
+                </li>
+              ))}
+              {s.path?.steps.map((st) => (
+                <li key={st.nodeId}>{st.text}</li>
+              ))}
+            </ul>
+            {s.notes.length > 0 ? <p className="how">{s.notes.join(" ")}</p> : null}
+            <SourceList ids={s.sourceIds} />
+          </section>
+        ))}
+      </div>
+
+      <h2>Data quality</h2>
+      <IssueList issues={result.issues} />
+      <details>
+        <summary>
+          {result.conditioned.removed.length} breath value(s) set aside by artefact rejection; phases:{" "}
+          {result.conditioned.phases.map((ph) => `${ph.phase} ${formatClock(ph.startS)}–${formatClock(ph.endS)}`).join(", ")}
+          {result.conditioned.rampRateWPerMin !== null ? `; ramp ${result.conditioned.rampRateWPerMin.toFixed(1)} W/min` : ""}
+        </summary>
+        <ul className="how">
+          {result.conditioned.removed.slice(0, 200).map((r) => (
+            <li key={`${r.index}-${r.field}`}>
+              {formatClock(r.timeS)} {r.field} = {r.value.toFixed(1)}: {r.reason}
+            </li>
+          ))}
+        </ul>
+      </details>
+      <h3>How the file was read</h3>
+      <ColumnTable columns={test.importColumns} />
+
+      <h2>Settings and versions</h2>
+      <SettingsForm
+        testId={testId}
+        current={{
+          averaging: avKey,
+          peakWindowS: settings.peakWindowS ?? 30,
+          vo2Equation: result.predicted.equationIds.vo2PeakMlMin ?? result.predicted.equationIds.vo2PeakMlKgMin ?? "",
+          hrEquation: result.predicted.equationIds.hrMaxBpm ?? "",
+          mvvChoice: settings.mvvChoice ?? "auto",
+          choices: settings.interpret?.choices ?? {},
+        }}
+        vo2Equations={eqOptions(["vo2PeakMlMin", "vo2PeakMlKgMin"])}
+        hrEquations={eqOptions(["hrMaxBpm"])}
+        cutoffChoices={listCutoffChoices()}
+      />
+      <table data-testid="versions">
+        <thead>
+          <tr>
+            <th>Version</th>
+            <th>When</th>
+            <th>By</th>
+            <th>Note</th>
+          </tr>
+        </thead>
+        <tbody>
+          {versions.map((v) => (
+            <tr key={v.id}>
+              <td>{v.version}</td>
+              <td>{v.createdAt.slice(0, 16).replace("T", " ")}</td>
+              <td>{v.createdBy}</td>
+              <td>{v.note}</td>
+            </tr>
+          ))}
+          {versions.length === 0 ? (
+            <tr>
+              <td colSpan={4} className="how">
+                Default settings (no saved version yet).
+              </td>
+            </tr>
+          ) : null}
+        </tbody>
+      </table>
     </>
+  );
+}
+
+function IndexRow({ label, m, d, extra }: { label: string; m: Measured; d: number; extra?: string }) {
+  return (
+    <tr>
+      <td>{label}</td>
+      <td className="num">
+        {fmt(m, d)} {m.value !== null ? displayUnit(m.unit) : ""}
+        {extra ? <div className="how">{extra}</div> : null}
+      </td>
+      <td>
+        <HowFound m={m} />
+      </td>
+    </tr>
+  );
+}
+
+function ThresholdCard({
+  testId,
+  t,
+  at,
+  title,
+  predVo2,
+}: {
+  testId: number;
+  t: ThresholdEstimate;
+  at: import("@/lib/thresholds").ValuesAtThreshold | null;
+  title: string;
+  predVo2: number | null;
+}) {
+  const which = t.which;
+  return (
+    <section className="panel" data-testid={`threshold-${which}`}>
+      <h3 style={{ marginTop: 0 }}>{title}</h3>
+      {t.vo2MlMin.value !== null ? (
+        <>
+          <div className="keyfig">
+            {t.vo2MlMin.value.toFixed(0)} <small>mL/min</small>
+          </div>
+          <p>
+            {fmt(at?.vo2MlKgMin, 1)} mL/kg/min · {fmt(at?.vo2PercentPeak, 0)} % of peak
+            {predVo2 ? ` · ${((100 * t.vo2MlMin.value) / predVo2).toFixed(0)} % of predicted peak` : ""} · HR {fmt(at?.hrBpm)} ·{" "}
+            {fmt(at?.workW)} W · at {t.timeS !== null ? formatClock(t.timeS) : "—"}
+          </p>
+          <p>
+            Confidence: <strong data-testid={`confidence-${which}`}>{t.confidence}</strong>
+            {t.band ? ` (band ${t.band.lowMlMin.toFixed(0)}–${t.band.highMlMin.toFixed(0)} mL/min)` : ""}
+          </p>
+        </>
+      ) : (
+        <p>
+          <strong>Not determinable.</strong> {t.reason ?? t.vo2MlMin.reason}
+        </p>
+      )}
+      {t.overridden ? (
+        <div className="sev-warning" style={{ padding: "0.4rem" }}>
+          Set by the reviewer ({t.overridden.by}): {t.overridden.reason}. Automatic estimate was{" "}
+          {t.overridden.automatic.vo2MlMin?.toFixed(0) ?? "not determinable"} mL/min.
+          <form action={clearOverride}>
+            <input type="hidden" name="testId" value={testId} />
+            <input type="hidden" name="which" value={which} />
+            <button type="submit" className="secondary">
+              Remove override
+            </button>
+          </form>
+        </div>
+      ) : null}
+      <HowFound m={t.vo2MlMin} />
+      <OverrideForm testId={testId} which={which} />
+    </section>
+  );
+}
+
+function ColumnTable({ columns }: { columns: import("@/lib/breath").ColumnDecision[] }) {
+  return (
+    <table data-testid="column-decisions">
+      <thead>
+        <tr>
+          <th>Column in file</th>
+          <th>Read as</th>
+          <th>Why</th>
+        </tr>
+      </thead>
+      <tbody>
+        {columns.map((c) => (
+          <tr key={c.index}>
+            <td>{c.header}</td>
+            <td>
+              {c.field ?? "ignored"}
+              {c.unit ? ` (${c.unit})` : ""}
+            </td>
+            <td className="how">{c.reason}</td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
   );
 }

@@ -1,0 +1,145 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { z } from "zod";
+import type { AnalysisSettings } from "@/lib/analysis";
+import { ENGINE_VERSION } from "@/lib/analysis";
+import { getTest, latestSettings, saveAnalysisVersion } from "@/lib/store/tests";
+
+export interface FormState {
+  ok?: string;
+  errors?: Record<string, string>;
+  values?: Record<string, string>;
+}
+
+const clock = /^(\d+):([0-5]\d)$/;
+
+const overrideSchema = z
+  .object({
+    testId: z.coerce.number().int().positive(),
+    which: z.enum(["vt1", "vt2"]),
+    vo2MlMin: z.preprocess(
+      (v) => (v === "" ? undefined : Number(v)),
+      z.number({ message: "VO2 must be a number (mL/min)" }).min(100).max(8000).optional(),
+    ),
+    time: z
+      .string()
+      .trim()
+      .optional()
+      .refine((t) => !t || clock.test(t) || Number.isFinite(Number(t)), "Time as m:ss or seconds"),
+    reason: z.string().trim().min(5, "Give the reason for the override (at least a few words)").max(500),
+    by: z.string().trim().min(2, "Say who is making the override").max(80),
+  })
+  .refine((o) => o.vo2MlMin !== undefined || (o.time !== undefined && o.time !== ""), {
+    message: "Give the threshold's VO2 or its time",
+    path: ["vo2MlMin"],
+  });
+
+function formValues(form: FormData): Record<string, string> {
+  const values: Record<string, string> = {};
+  for (const [k, v] of form.entries()) if (typeof v === "string") values[k] = v;
+  return values;
+}
+
+function errorsOf(error: z.ZodError): Record<string, string> {
+  const out: Record<string, string> = {};
+  for (const i of error.issues) out[String(i.path[0] ?? "form")] ??= i.message;
+  return out;
+}
+
+/** A reviewer's threshold override is a new settings version; everything dependent is recomputed. */
+export async function overrideThreshold(_prev: FormState, form: FormData): Promise<FormState> {
+  const values = formValues(form);
+  const parsed = overrideSchema.safeParse(values);
+  if (!parsed.success) return { errors: errorsOf(parsed.error), values };
+  const o = parsed.data;
+  if (!getTest(o.testId)?.record) return { errors: { form: "This test has no usable data." }, values };
+  const m = o.time ? clock.exec(o.time) : null;
+  const timeS = o.time ? (m ? Number(m[1]) * 60 + Number(m[2]) : Number(o.time)) : undefined;
+  const current = latestSettings(o.testId)?.settings ?? {};
+  const others = (current.overrides ?? []).filter((x) => x.which !== o.which);
+  const settings: AnalysisSettings = {
+    ...current,
+    overrides: [
+      ...others,
+      {
+        which: o.which,
+        vo2MlMin: timeS === undefined ? o.vo2MlMin : undefined,
+        timeS,
+        reason: o.reason,
+        by: o.by,
+        atIso: new Date().toISOString(),
+      },
+    ],
+  };
+  saveAnalysisVersion(o.testId, settings, ENGINE_VERSION, o.by, `${o.which.toUpperCase()} override: ${o.reason}`);
+  revalidatePath(`/tests/${o.testId}`);
+  return { ok: `${o.which.toUpperCase()} override saved as a new analysis version; all dependent values were recomputed.` };
+}
+
+export async function clearOverride(form: FormData): Promise<void> {
+  const testId = Number(form.get("testId"));
+  const which = String(form.get("which"));
+  const current = latestSettings(testId)?.settings;
+  if (!current?.overrides?.some((x) => x.which === which)) return;
+  saveAnalysisVersion(
+    testId,
+    { ...current, overrides: current.overrides.filter((x) => x.which !== which) },
+    ENGINE_VERSION,
+    "local user",
+    `${which.toUpperCase()} override removed`,
+  );
+  revalidatePath(`/tests/${testId}`);
+}
+
+const averagingOptions = {
+  none: { kind: "none", label: "breath by breath (no averaging)" },
+  "rolling-30": { kind: "rolling-time", seconds: 30, label: "30-s rolling time window" },
+  "bin-10": { kind: "time-bin", seconds: 10, label: "10-s time bins" },
+  "bin-20": { kind: "time-bin", seconds: 20, label: "20-s time bins" },
+  "bin-30": { kind: "time-bin", seconds: 30, label: "30-s time bins" },
+  "breaths-7": { kind: "breath-count", breaths: 7, label: "7-breath rolling average" },
+  "middle-5-of-7": { kind: "middle-of-seven", breaths: 7, label: "middle 5 of 7 breaths" },
+} as const;
+export type AveragingKey = keyof typeof averagingOptions;
+
+const settingsSchema = z.object({
+  testId: z.coerce.number().int().positive(),
+  averaging: z.enum(Object.keys(averagingOptions) as [AveragingKey, ...AveragingKey[]]),
+  peakWindowS: z.coerce.number().refine((n) => [15, 20, 30, 60].includes(n), "Peak window must be 15, 20, 30 or 60 s"),
+  vo2Equation: z.string().min(1),
+  hrEquation: z.string().min(1),
+  mvvChoice: z.enum(["auto", "measured", "fev1x40", "fev1x35"]),
+  note: z.string().trim().max(300).optional(),
+});
+
+/** Lab and reviewer choices: a new settings version (old ones are kept and listed). */
+export async function saveSettings(_prev: FormState, form: FormData): Promise<FormState> {
+  const values = formValues(form);
+  const parsed = settingsSchema.safeParse(values);
+  if (!parsed.success) return { errors: errorsOf(parsed.error), values };
+  const s = parsed.data;
+  const test = getTest(s.testId);
+  if (!test?.record) return { errors: { form: "This test has no usable data." }, values };
+  const erg = test.record.ergometer;
+  const current = latestSettings(s.testId)?.settings ?? {};
+  const choices: Record<string, string> = {};
+  for (const [k, v] of Object.entries(values)) if (k.startsWith("choice:") && v) choices[k.slice(7)] = v;
+  const settings: AnalysisSettings = {
+    ...current,
+    conditioning: { ...current.conditioning, averaging: { ...averagingOptions[s.averaging] } },
+    peakWindowS: s.peakWindowS,
+    mvvChoice: s.mvvChoice === "auto" ? undefined : s.mvvChoice,
+    labSettings: {
+      equations: {
+        ...current.labSettings?.equations,
+        vo2PeakMlMin: { ...current.labSettings?.equations?.vo2PeakMlMin, [erg]: s.vo2Equation },
+        hrMaxBpm: { ...current.labSettings?.equations?.hrMaxBpm, [erg]: s.hrEquation },
+      },
+    },
+    interpret: { ...current.interpret, choices },
+  };
+  saveAnalysisVersion(s.testId, settings, ENGINE_VERSION, "local user", s.note || "settings changed");
+  revalidatePath(`/tests/${s.testId}`);
+  return { ok: "Settings saved as a new analysis version." };
+}

@@ -1,0 +1,48 @@
+"use client";
+
+import { useActionState } from "react";
+import { overrideThreshold, type FormState } from "../actions";
+
+export function OverrideForm({ testId, which }: { testId: number; which: "vt1" | "vt2" }) {
+  const [state, action, pending] = useActionState<FormState, FormData>(overrideThreshold, {});
+  const v = state.values ?? {};
+  const e = state.errors ?? {};
+  return (
+    <details className="how" data-testid={`override-${which}`}>
+      <summary>set {which.toUpperCase()} by hand (reviewer override)</summary>
+      <form action={action} className="stack" style={{ marginTop: "0.5rem" }}>
+        <input type="hidden" name="testId" value={testId} />
+        <input type="hidden" name="which" value={which} />
+        <div className="row">
+          <label>
+            VO2 at {which.toUpperCase()} (mL/min)
+            <input name="vo2MlMin" type="number" step="any" defaultValue={v.vo2MlMin ?? ""} size={7} />
+          </label>
+          <label>
+            or time (m:ss)
+            <input name="time" defaultValue={v.time ?? ""} size={6} placeholder="8:30" />
+          </label>
+          <label>
+            Reviewer
+            <input name="by" defaultValue={v.by ?? ""} size={14} />
+          </label>
+        </div>
+        <label>
+          Reason
+          <input name="reason" defaultValue={v.reason ?? ""} placeholder="e.g. clear VE/VO2 rise at 8:30 with flat VE/VCO2" />
+        </label>
+        {Object.entries(e).map(([k, msg]) => (
+          <span key={k} className="sev-error">
+            {msg}
+          </span>
+        ))}
+        {state.ok ? <span className="sev-info">{state.ok}</span> : null}
+        <div>
+          <button type="submit" disabled={pending}>
+            Save override
+          </button>
+        </div>
+      </form>
+    </details>
+  );
+}

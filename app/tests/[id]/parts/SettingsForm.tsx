@@ -1,0 +1,128 @@
+"use client";
+
+import { useActionState } from "react";
+import { saveSettings, type FormState } from "../actions";
+
+export interface SettingsFormProps {
+  testId: number;
+  current: {
+    averaging: string;
+    peakWindowS: number;
+    vo2Equation: string;
+    hrEquation: string;
+    mvvChoice: string;
+    choices: Record<string, string>;
+  };
+  vo2Equations: { id: string; label: string }[];
+  hrEquations: { id: string; label: string }[];
+  cutoffChoices: {
+    id: string;
+    label: string;
+    description: string;
+    defaultOptionId: string;
+    options: { id: string; label: string }[];
+  }[];
+}
+
+const AVERAGING: [string, string][] = [
+  ["none", "breath by breath (no averaging)"],
+  ["rolling-30", "30-s rolling time window"],
+  ["bin-10", "10-s time bins"],
+  ["bin-20", "20-s time bins"],
+  ["bin-30", "30-s time bins"],
+  ["breaths-7", "7-breath rolling average"],
+  ["middle-5-of-7", "middle 5 of 7 breaths"],
+];
+
+export function SettingsForm({ testId, current, vo2Equations, hrEquations, cutoffChoices }: SettingsFormProps) {
+  const [state, action, pending] = useActionState<FormState, FormData>(saveSettings, {});
+  const v = state.values ?? {};
+  return (
+    <form action={action} className="stack" data-testid="settings-form">
+      <input type="hidden" name="testId" value={testId} />
+      <div className="row">
+        <label>
+          Display averaging
+          <select name="averaging" defaultValue={v.averaging ?? current.averaging}>
+            {AVERAGING.map(([id, label]) => (
+              <option key={id} value={id}>
+                {label}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label>
+          Peak window (s)
+          <select name="peakWindowS" defaultValue={v.peakWindowS ?? String(current.peakWindowS)}>
+            {[15, 20, 30, 60].map((s) => (
+              <option key={s} value={s}>
+                {s}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label>
+          Breathing reserve from
+          <select name="mvvChoice" defaultValue={v.mvvChoice ?? current.mvvChoice}>
+            <option value="auto">measured MVV if given, else FEV1 × 40</option>
+            <option value="measured">measured MVV</option>
+            <option value="fev1x40">FEV1 × 40</option>
+            <option value="fev1x35">FEV1 × 35</option>
+          </select>
+        </label>
+      </div>
+      <div className="row">
+        <label>
+          Predicted peak VO2
+          <select name="vo2Equation" defaultValue={v.vo2Equation ?? current.vo2Equation}>
+            {vo2Equations.map((e) => (
+              <option key={e.id} value={e.id}>
+                {e.label}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label>
+          Predicted maximal HR
+          <select name="hrEquation" defaultValue={v.hrEquation ?? current.hrEquation}>
+            {hrEquations.map((e) => (
+              <option key={e.id} value={e.id}>
+                {e.label}
+              </option>
+            ))}
+          </select>
+        </label>
+      </div>
+      <h3>Cut-offs where published sources disagree</h3>
+      {cutoffChoices.map((c) => (
+        <label key={c.id}>
+          {c.label}
+          <select name={`choice:${c.id}`} defaultValue={v[`choice:${c.id}`] ?? current.choices[c.id] ?? c.defaultOptionId}>
+            {c.options.map((o) => (
+              <option key={o.id} value={o.id}>
+                {o.label}
+                {o.id === c.defaultOptionId ? " (default)" : ""}
+              </option>
+            ))}
+          </select>
+          <span className="how">{c.description}</span>
+        </label>
+      ))}
+      <label>
+        Why the change (kept with the version)
+        <input name="note" defaultValue={v.note ?? ""} />
+      </label>
+      {Object.entries(state.errors ?? {}).map(([k, msg]) => (
+        <span key={k} className="sev-error">
+          {msg}
+        </span>
+      ))}
+      {state.ok ? <span className="sev-info">{state.ok}</span> : null}
+      <div>
+        <button type="submit" disabled={pending}>
+          Save as a new analysis version
+        </button>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,42 @@
+import type { DraftExtras } from "../interpret";
+import type { IndicesResult, ThresholdEstimate, ThresholdResult } from "../thresholds";
+import type { TestRecord } from "./types";
+
+/** Words for how a threshold was found: method agreement, confidence, or the reviewer's override. */
+export function thresholdMethodWords(t: ThresholdEstimate, result: ThresholdResult): string {
+  if (t.overridden) return `set by the reviewer (${t.overridden.by}): ${t.overridden.reason}`;
+  if (t.confidence === "not-determinable" || t.vo2MlMin.value === null)
+    return `not determinable: ${t.reason ?? t.vo2MlMin.reason ?? "no method gave an estimate"}`;
+  const labels = result.methods.filter((m) => t.methodIds.includes(m.id)).map((m) => m.label);
+  const band = t.band ? `, band ${Math.round(t.band.lowMlMin)}–${Math.round(t.band.highMlMin)} mL/min` : "";
+  return `consensus of ${labels.join(", ") || "the available methods"} (confidence ${t.confidence}${band})`;
+}
+
+/** Everything the draft text needs beyond the interpretation input. */
+export function draftExtras(record: TestRecord, thresholds: ThresholdResult, indices: IndicesResult): DraftExtras {
+  const at2 = indices.atVt2;
+  return {
+    testConduct: {
+      protocol: record.conduct?.protocol,
+      exerciseDurationS: indices.peaks.exerciseDurationS.value ?? undefined,
+      reasonForStopping: record.conduct?.reasonForStopping,
+      symptoms: record.conduct?.symptoms,
+      peakBorg: record.conduct?.peakBorg,
+      notes: record.conduct?.notes,
+    },
+    thresholdMethods: {
+      vt1: thresholdMethodWords(thresholds.vt1, thresholds),
+      vt2: thresholdMethodWords(thresholds.vt2, thresholds),
+    },
+    vt2: at2
+      ? { vo2MlMin: at2.vo2MlMin.value ?? undefined, hrBpm: at2.hrBpm.value ?? undefined, workW: at2.workW.value ?? undefined }
+      : undefined,
+    domains: indices.domains.domains.map((d) => ({
+      name: d.label,
+      hrFromBpm: d.hrBpm.lower?.value ?? undefined,
+      hrToBpm: d.hrBpm.upper?.value ?? undefined,
+      workFromW: d.workW.lower?.value ?? undefined,
+      workToW: d.workW.upper?.value ?? undefined,
+    })),
+  };
+}

@@ -1,0 +1,102 @@
+import type { Measured } from "../core";
+import type { IndicesResult, ThresholdResult } from "../thresholds";
+import type { PredictedSet } from "../predicted";
+import type { InterpretInput } from "../interpret";
+import type { PredictedComparisonRow, TestRecord } from "./types";
+
+const v = (m: Measured | null | undefined): number | null => (m && m.value !== null && Number.isFinite(m.value) ? m.value : null);
+
+/**
+ * Map the engine's measurements into the interpretation layer's flat input. Pure bookkeeping: no
+ * cut-off is applied here (cut-offs live in the interpretation data files).
+ */
+export function toInterpretInput(
+  record: TestRecord,
+  thresholds: ThresholdResult,
+  indices: IndicesResult,
+  predicted: PredictedSet,
+  comparisons: PredictedComparisonRow[],
+  peakRrBrMin: number | null,
+): InterpretInput {
+  const pct = (key: string) => comparisons.find((c) => c.key === key)?.percentPredicted ?? null;
+  const p = indices.peaks;
+  const patient = record.patient;
+  const bmi = patient.weightKg && patient.heightCm ? patient.weightKg / (patient.heightCm / 100) ** 2 : null;
+  const vt1Vo2 = v(thresholds.vt1.vo2MlMin);
+  const predVo2 = predicted.values.vo2PeakMlMin?.value ?? null;
+  const oues = indices.oues.fits.find((f) => f.fraction === 1) ?? indices.oues.fits[0];
+  const plateauOrFall = indices.o2Pulse.pattern === null ? null : indices.o2Pulse.pattern !== "rising";
+  const eov = indices.eov.definitions;
+  const eovPresent = eov.some((d) => d.detected === true) ? true : eov.every((d) => d.detected === false) ? false : null;
+  const vdvt = indices.vdVt.length > 0 ? indices.vdVt[indices.vdVt.length - 1] : null;
+  return {
+    patient: {
+      sex: patient.sex,
+      ageY: patient.ageY ?? null,
+      heightCm: patient.heightCm ?? null,
+      weightKg: patient.weightKg ?? null,
+      bmi,
+      betaBlocker: patient.betaBlocker ?? null,
+      haemoglobinGDl: patient.haemoglobinGDl ?? null,
+    },
+    referral: record.referral,
+    ergometer: record.ergometer,
+    values: {
+      peakVo2MlMin: v(p.vo2MlMin),
+      peakVo2MlKgMin: v(p.vo2MlKgMin),
+      peakVo2PctPred: pct("peakVo2"),
+      peakWorkW: v(p.workW),
+      vo2Plateau: null,
+      vt1Determined: thresholds.vt1.confidence !== "not-determinable" && vt1Vo2 !== null,
+      vt1Vo2MlMin: vt1Vo2,
+      vt1Vo2MlKgMin: vt1Vo2 !== null && patient.weightKg ? vt1Vo2 / patient.weightKg : null,
+      vt1PctPredPeakVo2: vt1Vo2 !== null && predVo2 ? (100 * vt1Vo2) / predVo2 : null,
+      vt1PctPeak: v(indices.atVt1?.vo2PercentPeak),
+      peakRer: v(p.rerMax),
+      peakHrBpm: v(p.hrBpm),
+      restHrBpm: v(indices.heartRate.restingBpm),
+      hrPctPred: v(indices.heartRate.percentPredicted),
+      hrReserveBpm: v(indices.heartRate.reserveBpm),
+      chronotropicIndex: v(indices.heartRate.chronotropicIndex),
+      hrr1Bpm: v(indices.heartRate.recovery1MinBpm),
+      o2PulsePeakMlBeat: v(p.o2PulseMlBeat),
+      o2PulsePctPred: pct("peakO2Pulse"),
+      o2PulsePlateau: plateauOrFall,
+      dVo2dWr: v(indices.dVo2dWr.whole.slope),
+      veVco2SlopeToRcp: v(indices.veVco2.slopeToVt2.slope),
+      veVco2SlopeWhole: v(indices.veVco2.slopeWholeExercise.slope),
+      veVco2Nadir: v(indices.veVco2.nadir),
+      veVco2AtVt1: v(indices.veVco2.atVt1),
+      petco2RestMmHg: v(p.petco2RestMmHg),
+      petco2RiseMmHg: v(p.petco2RiseMmHg),
+      oues: oues ? v(oues.slope) : null,
+      eovPresent,
+      breathingReserveLMin: v(indices.breathingReserve.reserveLMin),
+      breathingReservePct: v(indices.breathingReserve.reservePercent),
+      veMvvPct: v(indices.breathingReserve.veMvvPercent),
+      rrPeak: peakRrBrMin,
+      spo2RestPct: v(indices.spo2.restPct),
+      spo2Fall: v(indices.spo2.fallPct),
+      spo2Min: v(indices.spo2.lowestPct),
+      paO2: lastPaO2(record),
+      vdvtPeak: vdvt ? v(vdvt.vdVt) : null,
+      fev1PctPred: record.spirometry?.fev1PctPred ?? null,
+      dlcoPctPred: record.spirometry?.dlcoPctPred ?? null,
+      resectedSegments: record.context?.resectedSegments ?? null,
+      stairClimbM: record.context?.stairClimbM ?? null,
+      shuttleWalkM: record.context?.shuttleWalkM ?? null,
+      ischaemicHeartDisease: record.context?.ischaemicHeartDisease ?? null,
+    },
+    predictedEquations: {
+      peakVo2: predicted.values.vo2PeakMlMin?.equationLabel,
+      hrMax: predicted.values.hrMaxBpm?.equationLabel,
+      o2Pulse: predicted.values.o2PulseMaxMlBeat?.equationLabel,
+      mvv: indices.breathingReserve.mvvLMin.provenance.label,
+    },
+  };
+}
+
+function lastPaO2(record: TestRecord): number | null {
+  const gases = (record.bloodGases ?? []).filter((g) => typeof g.paO2MmHg === "number");
+  return gases.length > 0 ? (gases[gases.length - 1].paO2MmHg ?? null) : null;
+}

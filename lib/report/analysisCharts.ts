@@ -1,0 +1,101 @@
+import type { BreathRow } from "../breath";
+import type { AnalysisResult } from "../analysis";
+import { averageSeries } from "../signal";
+import type { ChartSpec } from "./charts";
+import { endTidalChart, lactateChart, timeCourseChart, veVsVco2Chart, ventilatoryEquivalentsChart, vSlopeChart } from "./charts";
+
+const col = (rows: readonly BreathRow[], f: keyof BreathRow) =>
+  rows.map((r) => (typeof r[f] === "number" ? (r[f] as number) : null));
+
+/**
+ * The standard charts of one analysis, built once from the result and drawn by the one SVG
+ * renderer on the page and in the PDF. Display data are 10-s time bins of the cleaned breaths
+ * (display only: measurements use their own named windows).
+ */
+export function analysisCharts(result: AnalysisResult): ChartSpec[] {
+  const test = result.conditioned;
+  const rows =
+    test.shape === "breath" ? averageSeries(test.clean, { kind: "time-bin", seconds: 10, label: "10-s bins" }) : test.clean;
+  const ex = test.exercise;
+  const exRows = ex ? rows.filter((r) => r.timeS >= ex.startS && r.timeS <= ex.endS) : rows;
+  const vt1 = result.thresholds.vt1;
+  const vt2 = result.thresholds.vt2;
+  const time = col(rows, "timeS");
+  const ratio = (a: keyof BreathRow, b: keyof BreathRow, scale: number) =>
+    rows.map((r) =>
+      typeof r[a] === "number" && typeof r[b] === "number" && (r[b] as number) > 0
+        ? ((r[a] as number) * scale) / (r[b] as number)
+        : null,
+    );
+  const charts: ChartSpec[] = [
+    timeCourseChart({
+      timeS: time,
+      vo2MlMin: col(rows, "vo2MlMin"),
+      vco2MlMin: col(rows, "vco2MlMin"),
+      hrBpm: col(rows, "hrBpm"),
+      workW: col(rows, "workW"),
+      vt1TimeS: vt1.timeS,
+      vt2TimeS: vt2.timeS,
+      spans: test.phases.map((p) => ({ startS: p.startS, endS: p.endS, label: p.phase })),
+    }),
+  ];
+  if (exRows.some((r) => r.vco2MlMin !== undefined)) {
+    charts.push(
+      vSlopeChart({ vo2MlMin: col(exRows, "vo2MlMin"), vco2MlMin: col(exRows, "vco2MlMin"), vt1Vo2MlMin: vt1.vo2MlMin.value }),
+    );
+  }
+  if (rows.some((r) => r.veLMin !== undefined)) {
+    charts.push(
+      ventilatoryEquivalentsChart({
+        timeS: time,
+        veVo2: ratio("veLMin", "vo2MlMin", 1000),
+        veVco2: ratio("veLMin", "vco2MlMin", 1000),
+        vt1TimeS: vt1.timeS,
+        vt2TimeS: vt2.timeS,
+      }),
+    );
+    const slope = result.indices.veVco2.slopeToVt2;
+    const vt2Vco2 = vt2.timeS !== null ? nearest(rows, vt2.timeS)?.vco2MlMin : null;
+    charts.push(
+      veVsVco2Chart({
+        vco2MlMin: col(exRows, "vco2MlMin"),
+        veLMin: col(exRows, "veLMin"),
+        fit:
+          slope.slope.value !== null && slope.intercept.value !== null
+            ? { slope: slope.slope.value, interceptLMin: slope.intercept.value, label: "VE/VCO2 slope to RCP" }
+            : null,
+        vt2Vco2MlMin: vt2Vco2 ?? null,
+      }),
+    );
+  }
+  if (rows.some((r) => r.petco2MmHg !== undefined || r.peto2MmHg !== undefined)) {
+    charts.push(
+      endTidalChart({
+        timeS: time,
+        peto2MmHg: col(rows, "peto2MmHg"),
+        petco2MmHg: col(rows, "petco2MmHg"),
+        vt1TimeS: vt1.timeS,
+        vt2TimeS: vt2.timeS,
+      }),
+    );
+  }
+  const lac = result.indices.lactate;
+  if (lac && lac.axis === "workW" && lac.points.length >= 3) {
+    charts.push(
+      lactateChart({
+        workW: lac.points.map((p) => p.x),
+        lactateMmolL: lac.points.map((p) => p.lactateMmolL),
+        thresholds: lac.thresholds.flatMap((t) =>
+          t.intensity.value !== null ? [{ workW: t.intensity.value, label: t.id }] : [],
+        ),
+      }),
+    );
+  }
+  return charts;
+}
+
+function nearest(rows: readonly BreathRow[], timeS: number): BreathRow | undefined {
+  let best: BreathRow | undefined;
+  for (const r of rows) if (!best || Math.abs(r.timeS - timeS) < Math.abs(best.timeS - timeS)) best = r;
+  return best;
+}
