@@ -28,7 +28,7 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
   const predicted = predictAll(record.patient, record.ergometer, labSettings, { spirometry: record.spirometry });
   const thresholds = detectThresholds(test, {
     overrides: settings.overrides ?? [],
-    bootstrap: settings.bootstrap ?? 40,
+    bootstrap: settings.bootstrap ?? 20,
     seed: 1,
   });
   const hrMax = predicted.values.hrMaxBpm;

@@ -56,7 +56,7 @@ export interface AnalysisSettings {
   mvvChoice?: MvvChoice;
   /** Cut-off choices where sources disagree, and scheme selection. */
   interpret?: InterpretSettings;
-  /** Bootstrap replicates for the threshold confidence band. @default 40 */
+  /** Bootstrap replicates for the threshold confidence band. @default 20 */
   bootstrap?: number;
 }
 

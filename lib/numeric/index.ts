@@ -6,3 +6,5 @@ export * from "./binByTime";
 export * from "./solveLinearSystem";
 export * from "./hingeFit";
 export * from "./twoLineFit";
+export * from "./polynomialFit";
+export * from "./interpolate";

@@ -7,6 +7,7 @@ export * from "./eov";
 export * from "./heartRateIndices";
 export * from "./indexTypes";
 export * from "./intensityDomains";
+export * from "./jointVt1";
 export * from "./lactateThresholds";
 export * from "./measureIndices";
 export * from "./measurePeaks";
