@@ -18,6 +18,7 @@ export default function RootLayout({ children }: { children: React.ReactNode }) 
           </Link>
           <nav>
             <Link href="/">Test register</Link>
+            <Link href="/compare">Compare tests</Link>
             <Link href="/equations">Reference equations</Link>
           </nav>
         </header>

@@ -1,0 +1,58 @@
+import { expect, test } from "@playwright/test";
+
+// The register seeds six INVENTED demo cases on first start (lib/store/demoCases.ts).
+async function openDemo(page: import("@playwright/test").Page, label: RegExp) {
+  await page.goto("/");
+  await page.getByRole("link", { name: label }).click();
+  await page.waitForURL(/\/tests\/\d+$/);
+}
+
+test("the analysis view shows thresholds, predicted values, interpretation and schemes with the caution", async ({ page }) => {
+  await openDemo(page, /heart failure assessment/);
+  await expect(page.getByTestId("clinical-caution")).toBeVisible();
+  await expect(page.getByTestId("row-peakVo2")).toContainText("Hansen");
+  await expect(page.getByTestId("threshold-vt1")).toContainText("mL/min");
+  await expect(page.getByTestId("charts").locator("svg")).toHaveCount(5);
+  await expect(page.getByTestId("interpretation-path")).toContainText("Peak VO2");
+  await expect(page.getByTestId("schemes")).toContainText("Weber");
+  await expect(page.getByTestId("patterns")).toContainText("consistent with");
+  await page.screenshot({ path: "reports/screenshots/analysis-heart-failure.png", fullPage: true });
+});
+
+test("a reviewer override of VT1 is saved as a new version and recomputes the dependent values", async ({ page }) => {
+  await openDemo(page, /deconditioning/);
+  const card = page.getByTestId("threshold-vt1");
+  await card.getByText("set VT1 by hand").click();
+  await card.locator('[name="vo2MlMin"]').fill("1500");
+  await card.locator('[name="by"]').fill("E2E Reviewer");
+  await card.locator('[name="reason"]').fill("clear VE/VO2 rise with flat VE/VCO2 at this point");
+  await card.getByRole("button", { name: "Save override" }).click();
+  await expect(card).toContainText("Set by the reviewer (E2E Reviewer)");
+  await expect(card.locator(".keyfig")).toContainText("1500");
+  await expect(page.getByTestId("versions")).toContainText("VT1 override");
+  // Removing the override returns to the automatic estimate.
+  await card.getByRole("button", { name: "Remove override" }).click();
+  await expect(card).not.toContainText("Set by the reviewer");
+});
+
+test("an override without a reason is refused and the typed values are kept", async ({ page }) => {
+  await openDemo(page, /normal study/);
+  const card = page.getByTestId("threshold-vt2");
+  await card.getByText("set VT2 by hand").click();
+  await card.locator('[name="vo2MlMin"]').fill("2100");
+  await card.locator('[name="by"]').fill("E2E");
+  await card.getByRole("button", { name: "Save override" }).click();
+  await expect(card).toContainText("Give the reason");
+  await expect(card.locator('[name="vo2MlMin"]')).toHaveValue("2100");
+});
+
+test("comparing two tests judges each change against published test-retest variability", async ({ page }) => {
+  await page.goto("/compare");
+  const form = page.getByTestId("compare-form");
+  await form.locator('[name="before"]').selectOption({ label: "Demo (invented): deconditioning after illness" });
+  await form.locator('[name="after"]').selectOption({ label: "Demo (invented): breathless runner, normal study" });
+  await form.locator('[name="population"]').selectOption("healthy");
+  await form.getByRole("button", { name: "Compare" }).click();
+  await expect(page.getByTestId("comparison")).toContainText("measurement noise");
+  await expect(page.getByTestId("clinical-caution")).toBeVisible();
+});
