@@ -161,6 +161,8 @@ export function generateSyntheticTest(overrides: Partial<SyntheticSpec>, seed: n
   let crossV1 = -1;
   let crossV2 = -1;
   let vco2AtV2 = NaN;
+  const vd0 = spec.vdVtRest * spec.vtRestL;
+  const vdPerVt = (spec.vdVtExercise * spec.vtMaxL - vd0) / Math.max(1e-6, spec.vtMaxL - spec.vtRestL);
   const pulseFrom = spec.o2PulsePlateauFromFraction;
   const hrLinear = (x: number) =>
     spec.hrRestBpm + ((spec.hrPeakBpm - spec.hrRestBpm) * (x - spec.vo2RestMlMin)) / (peak - spec.vo2RestMlMin);
@@ -196,14 +198,15 @@ export function generateSyntheticTest(overrides: Partial<SyntheticSpec>, seed: n
       if (veTarget > knee) veTarget = knee + (cap - knee) * Math.tanh((veTarget - knee) / (cap - knee));
     }
     ve = i === 0 ? ve : lagStep(ve, veTarget, spec.tauVeS);
-    const frac = Math.min(1, Math.max(0, (vo2 - spec.vo2RestMlMin) / (v1 - spec.vo2RestMlMin)));
-    const vdVt = spec.vdVtRest + (spec.vdVtExercise - spec.vdVtRest) * frac;
+    const vt = spec.vtMaxL - (spec.vtMaxL - spec.vtRestL) * Math.exp(-Math.max(0, ve - veRest) / 40);
+    // dead space grows a little with tidal volume (VD = VD0 + k·(VT − VT rest)), so VD/VT falls smoothly as VT
+    // rises — no corner of its own at VT1 (a corner there would bend PETCO2 up and hide the PETO2 rise from VT1)
+    const vdVt = (vd0 + vdPerVt * (vt - spec.vtRestL)) / vt;
     const petco2 = (863 * (vco2 / 1000)) / (ve * (1 - vdVt));
     const rer = vco2 / vo2;
     const peto2 = PIO2_MMHG - petco2 * (FIO2 + (1 - FIO2) / rer);
     let hr = hrLinear(vo2);
     if (vo2 > pulseVo2) hr = Math.min(vo2 / pulseAtPlateau, spec.hrPeakBpm * 1.03);
-    const vt = spec.vtMaxL - (spec.vtMaxL - spec.vtRestL) * Math.exp(-Math.max(0, ve - veRest) / 40);
     const effort = Math.min(1, Math.max(0, (vo2 - spec.vo2UnloadedMlMin) / (peak - spec.vo2UnloadedMlMin)));
     g.t[i] = t;
     g.workW[i] = w;
