@@ -18,6 +18,7 @@ interface AnalyseOptions {
   mvvLMin?: number;
   lactate?: string;
   referral: string;
+  select: Record<string, string>;
 }
 
 export function registerAnalyse(program: Command): void {
@@ -39,6 +40,12 @@ export function registerAnalyse(program: Command): void {
     )
     .option("--mvv-l-min <L/min>", "measured maximal voluntary ventilation, L/min", parseNumber("--mvv-l-min"))
     .option("--lactate <file>", "blood lactate samples (CSV/XLSX with time or stage, optional work/speed, and lactate)")
+    .option(
+      "--select <column=value>",
+      "in a file holding several tests, keep the rows where column = value (repeatable)",
+      collectSelect,
+      {},
+    )
     .option("--referral <question>", `referral question: ${REFERRAL_QUESTIONS.join(" | ")}`, "general")
     .action(async (file: string, opts: AnalyseOptions) => {
       const result = await runAnalyse(file, opts);
@@ -52,6 +59,12 @@ function parseNumber(flag: string) {
     if (raw.trim() === "" || !Number.isFinite(n)) throw new Error(`${flag} needs a number, got "${raw}"`);
     return n;
   };
+}
+
+function collectSelect(raw: string, acc: Record<string, string>): Record<string, string> {
+  const at = raw.indexOf("=");
+  if (at <= 0) throw new Error(`--select needs column=value, got "${raw}"`);
+  return { ...acc, [raw.slice(0, at).trim()]: raw.slice(at + 1).trim() };
 }
 
 function readBytes(file: string): Uint8Array {
@@ -76,6 +89,8 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
     patient: { sex: opts.sex as "male" | "female" | undefined, ageY: opts.age, heightCm: opts.heightCm, weightKg: opts.weightKg },
     ergometer: opts.ergometer,
     referral: opts.referral as ReferralQuestion,
+    importOptions:
+      Object.keys(opts.select ?? {}).length > 0 ? { select: opts.select, weightKg: opts.weightKg } : { weightKg: opts.weightKg },
   });
   if (!built.record || hasErrors(built.issues)) {
     const what = built.issues.filter((i) => i.severity === "error").map((i) => i.message);

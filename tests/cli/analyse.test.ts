@@ -3,6 +3,7 @@ import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
+import { z } from "zod";
 import { plainRampCsv } from "../../e2e/fixtures/plain-ramp.csv";
 
 const bin = path.resolve(__dirname, "../../bin/cpet.mjs");
@@ -42,5 +43,81 @@ describe("cpet analyse (command line)", () => {
     expect(bad.status).not.toBe(0);
     expect(bad.stderr).toMatch(/--age needs a number/);
     expect(bad.stderr).not.toMatch(/\n\s+at /);
+  });
+});
+
+describe("cpet analyse: full output on real and invented files", () => {
+  const schema = z.fromJSONSchema(JSON.parse(fs.readFileSync(path.resolve(__dirname, "../../cli/analyse.schema.json"), "utf8")));
+
+  it("an invented heart-failure case gives every stable key, valid against cli/analyse.schema.json", () => {
+    const file = path.resolve(__dirname, "../fixtures/cases/heart-failure.csv");
+    const out = execFileSync(
+      process.execPath,
+      [
+        bin,
+        "analyse",
+        file,
+        "--json",
+        "--sex",
+        "male",
+        "--age",
+        "62",
+        "--height-cm",
+        "174",
+        "--weight-kg",
+        "80",
+        "--fev1-l",
+        "2.9",
+        "--referral",
+        "heart-failure",
+      ],
+      { encoding: "utf8" },
+    );
+    const json = JSON.parse(out);
+    expect(schema.safeParse(json).success).toBe(true);
+    // The schema really constrains: a missing stable key or a wrong confidence word is refused.
+    const { vt1: _omit, ...withoutVt1 } = json;
+    expect(schema.safeParse(withoutVt1).success).toBe(false);
+    expect(schema.safeParse({ ...json, vt2: { ...json.vt2, confidence: "certain" } }).success).toBe(false);
+    for (const key of ["vt1", "vt2"])
+      expect(Object.keys(json[key])).toEqual(expect.arrayContaining(["vo2MlMin", "timeS", "confidence"]));
+    expect(json.peak.vo2MlKgMin).toBeCloseTo(json.peak.vo2MlMin / 80, 6);
+    // Breathing reserve from FEV1 × 40 (MVV estimate, recalled convention): MVV = 2.9 × 40 = 116 L/min.
+    expect(json.breathingReserve.mvvLMin).toBeCloseTo(116, 6);
+    expect(json.breathingReserve.pct).toBeCloseTo(100 * (1 - json.peak.veLMin / 116), 0);
+    expect(json.predicted.vo2PeakMlMin.equationId).toBe("hansen-1984");
+    expect(json.interpretation.schemes.length).toBeGreaterThan(0);
+    expect(json.caution).toMatch(/qualified clinician/);
+    expect(json.lactate).toBeNull();
+  });
+
+  it("stage data with lactate (Sylta 2016, CC0) gives OBLA equal to the hand interpolation", () => {
+    // Data from Sylta et al., Med Sci Sports Exerc 2016;48:2165–2174, as curated in the exscidata R package by D. Hammarström (CC0).
+    const file = path.resolve(__dirname, "../fixtures/open-data/sylta2016-cycling/cyclingstudy_stages_long.csv");
+    const out = execFileSync(
+      process.execPath,
+      [bin, "analyse", file, "--json", "--select", "subject=1", "--select", "timepoint=pre", "--weight-kg", "80.3"],
+      {
+        encoding: "utf8",
+      },
+    );
+    const json = JSON.parse(out);
+    // Subject 1, pre: lactate 3.54 mmol/L at 250 W and 6.21 at 275 W → 4 mmol/L at
+    // 250 + 25 × (4 − 3.54) / (6.21 − 3.54) = 250 + 25 × 0.46 / 2.67 = 254.307 W (Sjödin & Jacobs 1981 OBLA, confirmed).
+    expect(json.lactate.obla4.workW).toBeCloseTo(254.307, 2);
+    expect(json.peak.vo2MlMin).toBe(4290); // highest stage VO2 in the file (275 W stage)
+  });
+
+  it("accepts a separate lactate file with --lactate", () => {
+    const lac = path.join(tmp, "lactate.csv");
+    // INVENTED samples on the plain ramp (work = time / 3 W): 1.0 → 6.0 mmol/L.
+    fs.writeFileSync(lac, "time_s,lactate_mmol_l\n0,1.0\n150,1.1\n300,1.6\n450,2.9\n600,6.0\n");
+    const file = path.join(tmp, "ramp2.csv");
+    fs.writeFileSync(file, plainRampCsv());
+    const json = JSON.parse(
+      execFileSync(process.execPath, [bin, "analyse", file, "--json", "--lactate", lac], { encoding: "utf8" }),
+    );
+    // 4 mmol/L between 450 s (2.9) and 600 s (6.0): t = 450 + 150 × 1.1 / 3.1 = 503.2 s → work = t / 3 = 167.7 W.
+    expect(json.lactate.obla4.workW).toBeCloseTo(167.7, 0);
   });
 });
