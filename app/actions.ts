@@ -2,6 +2,8 @@
 
 import { redirect } from "next/navigation";
 import { buildRecord } from "@/lib/analysis";
+import { getProfile } from "@/lib/store/profiles";
+import { recordImportChoices } from "@/lib/store/reimport";
 import { getUploadBytes, saveTest, saveUpload } from "@/lib/store/tests";
 import { fieldErrors, testDetailsSchema } from "./schemas";
 
@@ -36,6 +38,10 @@ export async function uploadTest(_prev: UploadState, form: FormData): Promise<Up
   const parsed = testDetailsSchema.safeParse(values);
   if (!parsed.success) return { errors: fieldErrors(parsed.error), uploadId, fileName, values };
   const d = parsed.data;
+  // Mapping profile picked on the form: its column choices are applied as "set by user".
+  const profile = values.profile ? getProfile(values.profile) : null;
+  if (values.profile && !profile)
+    return { errors: { profile: `There is no mapping profile named "${values.profile}".` }, uploadId, fileName, values };
 
   const stored = getUploadBytes(uploadId);
   if (!stored) return { errors: { file: "The kept file could not be found; upload it again." }, values };
@@ -51,6 +57,10 @@ export async function uploadTest(_prev: UploadState, form: FormData): Promise<Up
     },
     ergometer: d.ergometer,
     referral: d.referral,
+    importOptions: {
+      ...(profile ? { mapping: profile.mapping } : {}),
+      ...(d.weightKg !== undefined ? { weightKg: d.weightKg } : {}),
+    },
   });
   if (built.record && (d.fev1L !== undefined || d.mvvLMin !== undefined)) {
     built.record.spirometry = { fev1L: d.fev1L, mvvLMin: d.mvvLMin };
@@ -63,5 +73,6 @@ export async function uploadTest(_prev: UploadState, form: FormData): Promise<Up
     issues: built.issues,
     actor: "local user",
   });
+  if (profile) recordImportChoices(id, { mapping: profile.mapping, profileName: profile.name, weightKg: d.weightKg });
   redirect(`/tests/${id}`);
 }

@@ -1,6 +1,6 @@
 "use client";
 
-import { useActionState } from "react";
+import { useActionState, useEffect, useState } from "react";
 import { uploadTest, type UploadState } from "../actions";
 
 const REFERRALS: [string, string][] = [
@@ -15,6 +15,14 @@ const REFERRALS: [string, string][] = [
 
 export function UploadForm() {
   const [state, action, pending] = useActionState<UploadState, FormData>(uploadTest, {});
+  // Mapping profiles (saved on a test's column review page; listed by app/profiles/names/route.ts).
+  const [profileNames, setProfileNames] = useState<string[]>([]);
+  useEffect(() => {
+    fetch("/profiles/names")
+      .then((r) => (r.ok ? r.json() : []))
+      .then((names: string[]) => setProfileNames(names))
+      .catch(() => setProfileNames([]));
+  }, []);
   const v = state.values ?? {};
   const err = state.errors ?? {};
   return (
@@ -31,6 +39,18 @@ export function UploadForm() {
       </label>
       {state.uploadId ? <input type="hidden" name="uploadId" value={state.uploadId} /> : null}
       {state.fileName ? <input type="hidden" name="uploadFileName" value={state.fileName} /> : null}
+      <label>
+        Mapping profile (column choices saved for this file layout)
+        <select name="profile" key={profileNames.join("\n")} defaultValue={v.profile ?? ""} data-testid="upload-profile">
+          <option value="">none: recognise the columns automatically</option>
+          {profileNames.map((n) => (
+            <option key={n} value={n}>
+              {n}
+            </option>
+          ))}
+        </select>
+        {err.profile ? <span className="sev-error">{err.profile}</span> : null}
+      </label>
       <label>
         Label (anonymised case name)
         <input name="label" defaultValue={v.label ?? ""} placeholder="e.g. Case 14, pre-op" />

@@ -45,6 +45,11 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           <IssueList issues={test.importIssues} />
           {test.importColumns.length > 0 ? <ColumnTable columns={test.importColumns} /> : null}
           {test.uploadId ? <a href={`/api/uploads/${test.uploadId}`}>Download the original file</a> : null}
+          <p>
+            <Link href={`/tests/${testId}/columns`} data-testid="columns-link">
+              Map the columns by hand and read the file again →
+            </Link>
+          </p>
         </section>
       </>
     );
@@ -82,6 +87,12 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       <p className="row">
         <Link href={`/tests/${testId}/report`} data-testid="report-link">
           Draft report and signature →
+        </Link>
+        <Link href={`/tests/${testId}/columns`} data-testid="columns-link">
+          How the file was read
+        </Link>{" "}
+        <Link href={`/tests/${testId}/inputs`} data-testid="inputs-link">
+          Lactate, gases, spirometry, context
         </Link>
         {test.uploadId ? <a href={`/api/uploads/${test.uploadId}`}>original file</a> : null}
         {test.demo ? <span className="tag">invented demo data</span> : null}

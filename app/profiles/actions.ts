@@ -1,0 +1,15 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { z } from "zod";
+import { deleteProfile } from "@/lib/store/profiles";
+
+const deleteSchema = z.object({ name: z.string().trim().min(1).max(200) });
+
+/** Delete a saved mapping profile by name (tests already read with it keep their decisions). */
+export async function deleteProfileAction(form: FormData): Promise<void> {
+  const parsed = deleteSchema.safeParse({ name: form.get("name") });
+  if (!parsed.success) return;
+  deleteProfile(parsed.data.name, "local user");
+  revalidatePath("/profiles");
+}

@@ -1,0 +1,279 @@
+"use client";
+
+import Link from "next/link";
+import { useActionState, useState } from "react";
+import type { Issue } from "@/lib/core";
+import { applyColumnChoices, type ColumnFormState } from "./actions";
+import type { FieldOption } from "./fieldChoices";
+import type { ColumnRowView } from "./loadColumnReview";
+import styles from "./columns.module.css";
+import { ImportIssueTable } from "./ImportIssueTable";
+
+export interface ColumnFormProps {
+  testId: number;
+  rows: ColumnRowView[];
+  fields: FieldOption[];
+  record: { column: string; options: { value: string; rows: number }[]; chosen: string } | null;
+  weightKg: number | undefined;
+  perKgColumn: boolean;
+  /** Refused tests have no stored patient details; the form asks for them. */
+  refused: boolean;
+}
+
+const REFERRALS: [string, string][] = [
+  ["general", "General / unexplained breathlessness"],
+  ["heart-failure", "Heart failure assessment"],
+  ["pre-operative", "Pre-operative risk"],
+  ["lung-resection", "Lung resection work-up"],
+  ["pulmonary-hypertension", "Pulmonary hypertension"],
+  ["transplant", "Heart transplant listing"],
+  ["training", "Training prescription"],
+];
+
+export function ColumnForm(props: ColumnFormProps) {
+  const [state, action, pending] = useActionState<ColumnFormState, FormData>(applyColumnChoices, {});
+  return (
+    <form action={action} data-testid="column-form">
+      <input type="hidden" name="testId" value={props.testId} />
+      <ColumnFormBody key={state.stamp ?? 0} {...props} state={state} pending={pending} />
+    </form>
+  );
+}
+
+function ColumnFormBody(props: ColumnFormProps & { state: ColumnFormState; pending: boolean }) {
+  const { state, pending } = props;
+  const v = state.values ?? {};
+  const err = state.errors ?? {};
+  const fieldByKey = new Map(props.fields.map((f) => [f.value as string, f]));
+  return (
+    <>
+      <table data-testid="column-review">
+        <thead>
+          <tr>
+            <th>Column in the file</th>
+            <th>First values as found</th>
+            <th>Read as</th>
+            <th>Why, and who decided</th>
+            <th>Your choice</th>
+          </tr>
+        </thead>
+        <tbody>
+          {props.rows.map((r) => (
+            <ColumnRow
+              key={r.index}
+              row={r}
+              fields={props.fields}
+              fieldByKey={fieldByKey}
+              field={v[`col.${r.index}.field`] ?? r.choiceField}
+              unit={v[`col.${r.index}.unit`] ?? r.choiceUnit}
+              error={err[`col.${r.index}`]}
+            />
+          ))}
+        </tbody>
+      </table>
+
+      <div className="row" style={{ marginTop: "1rem" }}>
+        {props.record ? (
+          <label className={styles.label}>
+            Test to use (column “{props.record.column}”)
+            <input type="hidden" name="selectColumn" value={props.record.column} />
+            <select name="selectValue" defaultValue={v.selectValue ?? props.record.chosen} data-testid="record-select">
+              <option value="">— choose one test —</option>
+              {props.record.options.map((o) => (
+                <option key={o.value} value={o.value}>
+                  {o.value} ({o.rows} rows)
+                </option>
+              ))}
+            </select>
+            {err.selectValue ? <span className="sev-error">{err.selectValue}</span> : null}
+          </label>
+        ) : null}
+        <label className={styles.label}>
+          Body mass for per-kg VO2 columns (kg){props.perKgColumn ? " — this file has one" : ""}
+          <input
+            name="weightKg"
+            type="number"
+            step="any"
+            size={6}
+            defaultValue={v.weightKg ?? (props.weightKg !== undefined ? String(props.weightKg) : "")}
+            data-testid="weight"
+          />
+          {err.weightKg ? <span className="sev-error">{err.weightKg}</span> : null}
+        </label>
+      </div>
+      {!props.refused ? (
+        <p className="how">The body mass entered here also becomes the patient&apos;s weight for this test.</p>
+      ) : null}
+
+      {props.refused ? (
+        <fieldset className="panel">
+          <legend>Patient and test details (the upload was refused, so they were not kept)</legend>
+          <div className="row">
+            <label className={styles.label}>
+              Sex
+              <select name="sex" defaultValue={v.sex ?? ""}>
+                <option value="">not given</option>
+                <option value="male">male</option>
+                <option value="female">female</option>
+              </select>
+            </label>
+            <label className={styles.label}>
+              Age (years)
+              <input name="ageY" type="number" step="any" size={5} defaultValue={v.ageY ?? ""} />
+            </label>
+            <label className={styles.label}>
+              Height (cm)
+              <input name="heightCm" type="number" step="any" size={5} defaultValue={v.heightCm ?? ""} />
+            </label>
+            <label className={styles.label}>
+              Ergometer
+              <select name="ergometer" defaultValue={v.ergometer ?? "cycle"}>
+                <option value="cycle">cycle</option>
+                <option value="treadmill">treadmill</option>
+              </select>
+            </label>
+            <label className={styles.label}>
+              Referral question
+              <select name="referral" defaultValue={v.referral ?? "general"}>
+                {REFERRALS.map(([value, text]) => (
+                  <option key={value} value={value}>
+                    {text}
+                  </option>
+                ))}
+              </select>
+            </label>
+          </div>
+          {["sex", "ageY", "heightCm", "ergometer", "referral"].map((k) =>
+            err[k] ? (
+              <div key={k} className="sev-error">
+                {err[k]}
+              </div>
+            ) : null,
+          )}
+        </fieldset>
+      ) : null}
+
+      <div className="row" style={{ marginTop: "1rem" }}>
+        <button type="submit" name="intent" value="reread" disabled={pending} data-testid="reread">
+          {pending ? "Reading…" : "Re-read the file with these choices"}
+        </button>
+      </div>
+      {err.form ? (
+        <p className="sev-error" data-testid="columns-error" style={{ padding: "0.4rem" }}>
+          {err.form}
+        </p>
+      ) : null}
+      {state.ok ? (
+        <p className="sev-info" data-testid="columns-ok" style={{ padding: "0.4rem" }}>
+          {state.ok} {!state.values ? <Link href={`/tests/${props.testId}`}>Open the analysis →</Link> : null}
+        </p>
+      ) : null}
+      {state.issues && state.issues.length > 0 ? (
+        <ImportIssueTable issues={state.issues as Issue[]} testId="reread-issues" />
+      ) : null}
+
+      <fieldset className="panel" style={{ marginTop: "1rem" }}>
+        <legend>Save these choices as a mapping profile</legend>
+        <p className="how" style={{ marginTop: 0 }}>
+          A profile keeps the columns you changed from “automatic”, by header, and applies them to the next file of the same
+          layout when you pick it on the upload form.
+        </p>
+        <div className="row">
+          <label className={styles.label}>
+            Profile name
+            <input name="profileName" size={28} defaultValue={v.profileName ?? ""} data-testid="profile-name" />
+          </label>
+          <button
+            type="submit"
+            name="intent"
+            value="save-profile"
+            className="secondary"
+            disabled={pending}
+            data-testid="save-profile"
+          >
+            Save these choices as a profile
+          </button>
+          <Link href="/profiles">saved profiles</Link>
+        </div>
+        {err.profileName ? (
+          <p className="sev-error" data-testid="profile-error" style={{ padding: "0.4rem" }}>
+            {err.profileName}
+          </p>
+        ) : null}
+      </fieldset>
+    </>
+  );
+}
+
+function ColumnRow({
+  row,
+  fields,
+  fieldByKey,
+  field: initialField,
+  unit: initialUnit,
+  error,
+}: {
+  row: ColumnRowView;
+  fields: FieldOption[];
+  fieldByKey: Map<string, FieldOption>;
+  field: string;
+  unit: string;
+  error?: string;
+}) {
+  const [field, setField] = useState(initialField);
+  const [unit, setUnit] = useState(initialUnit);
+  const effective = field === "auto" ? row.autoField : field === "ignore" ? null : field;
+  const units = effective ? (fieldByKey.get(effective)?.units ?? []) : [];
+  const changed = field !== "auto" || unit !== "auto";
+  return (
+    <tr data-testid={`col-${row.index}`} className={changed ? styles.userChoice : undefined}>
+      <td>
+        <strong>{row.header || <em>(no header)</em>}</strong>
+        {row.unitsRow ? <div className="how">units row: {row.unitsRow}</div> : null}
+      </td>
+      <td className={styles.samples}>{row.samples.length > 0 ? row.samples.join(" · ") : "empty"}</td>
+      <td data-testid="read-as">{row.readAs}</td>
+      <td className="how" data-testid="reason">
+        <span className="tag">{row.decidedBy}</span> {row.reason}
+      </td>
+      <td>
+        <div className="row" style={{ gap: "0.3rem" }}>
+          <select
+            name={`col.${row.index}.field`}
+            value={field}
+            onChange={(e) => {
+              setField(e.target.value);
+              setUnit("auto");
+            }}
+            aria-label={`What “${row.header}” holds`}
+            data-testid="field-select"
+          >
+            <option value="auto">automatic: {row.autoLabel}</option>
+            {fields.map((f) => (
+              <option key={f.value} value={f.value}>
+                {f.label}
+              </option>
+            ))}
+            <option value="ignore">ignore this column</option>
+          </select>
+          <select
+            name={`col.${row.index}.unit`}
+            value={unit}
+            onChange={(e) => setUnit(e.target.value)}
+            disabled={units.length === 0}
+            aria-label={`Unit of “${row.header}”`}
+            data-testid="unit-select"
+          >
+            <option value="auto">unit: from the file</option>
+            {units.map((u) => (
+              <option key={u.value} value={u.value}>
+                {u.label}
+              </option>
+            ))}
+          </select>
+        </div>
+        {error ? <div className="sev-error">{error}</div> : null}
+      </td>
+    </tr>
+  );
+}

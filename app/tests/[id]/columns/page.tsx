@@ -1,0 +1,96 @@
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { ColumnForm } from "./ColumnForm";
+import { ImportIssueTable } from "./ImportIssueTable";
+import { loadColumnReview } from "./loadColumnReview";
+
+export const dynamic = "force-dynamic";
+
+const KIND_TEXT: Record<string, string> = {
+  csv: "comma-separated text",
+  semicolon: "semicolon-separated text",
+  tsv: "tab-separated text",
+  pipe: "pipe-separated text",
+  whitespace: "columns aligned with spaces",
+  xlsx: "Excel workbook",
+};
+
+export default async function ColumnReviewPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const testId = Number(id);
+  if (!Number.isInteger(testId) || testId <= 0) notFound();
+  const review = await loadColumnReview(testId);
+  if (!review) notFound();
+  const { test, format } = review;
+  const refused = !test.record;
+  const meta = format ? Object.entries(format.metadata) : [];
+
+  return (
+    <>
+      <h1 data-testid="columns-title">How the file was read — {test.label}</h1>
+      <p className="row">
+        <Link href={`/tests/${testId}`}>{refused ? "← back to the refused test" : "← back to the analysis"}</Link>
+        {!refused ? <Link href={`/tests/${testId}/inputs`}>Lactate, blood gases, spirometry and context →</Link> : null}
+        <Link href="/profiles">Saved mapping profiles</Link>
+        {test.uploadId ? <a href={`/api/uploads/${test.uploadId}`}>original file</a> : null}
+      </p>
+      <section className="panel" data-testid="file-facts">
+        <p style={{ marginTop: 0 }}>
+          File <strong>{review.fileName}</strong>
+          {format ? (
+            <>
+              {" "}
+              · {KIND_TEXT[format.kind] ?? format.kind} · decimal mark “{format.decimalMark}” · {review.rows.length} columns
+              {format.metadataLines > 0 ? ` · ${format.metadataLines} line(s) of details above the header` : ""}
+            </>
+          ) : null}
+          {" · "}
+          <span className={refused ? "sev-error" : "tag"} data-testid="import-status">
+            {refused ? "refused: not usable yet" : "imported"}
+          </span>
+        </p>
+        {meta.length > 0 ? (
+          <p className="how" style={{ marginBottom: 0 }}>
+            Details found above the header: {meta.map(([k, v]) => `${k}: ${v}`).join(" · ")}
+          </p>
+        ) : null}
+        {review.choices?.profileName ? (
+          <p className="how" style={{ marginBottom: 0 }} data-testid="profile-used">
+            Read with the mapping profile “{review.choices.profileName}”.
+          </p>
+        ) : null}
+        <p className="how" style={{ marginBottom: 0 }}>
+          The original file is kept exactly as uploaded; re-reading it with other choices never changes it. Each column says what
+          it was read as and why: by the plain column convention, by a recognised name (with the unit from the header, a units row
+          or the size of the values), or as set by you.
+        </p>
+      </section>
+
+      {refused ? (
+        <p className="sev-warning" style={{ padding: "0.5rem" }}>
+          This file could not be used as read automatically. Say what each needed column holds (at least time and VO2), then
+          re-read it.
+        </p>
+      ) : null}
+
+      {format ? (
+        <ColumnForm
+          testId={testId}
+          rows={review.rows}
+          fields={review.fields}
+          record={review.record}
+          weightKg={review.weightKg}
+          perKgColumn={review.perKgColumn}
+          refused={refused}
+        />
+      ) : (
+        <p className="sev-error" style={{ padding: "0.5rem" }}>
+          The kept file cannot be read as a table at all, so there are no columns to map. See the problems below.
+        </p>
+      )}
+
+      <h2>Problems found when the file was last read</h2>
+      <ImportIssueTable issues={review.issues} testId="import-issues" />
+    </>
+  );
+}
