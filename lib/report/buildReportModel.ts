@@ -87,7 +87,7 @@ export function buildReportModel(
     if (c.predicted && c.predicted.value !== null) {
       row.predicted = formatNumber(c.predicted.value, decimals);
       row.sourceIds = [...row.sourceIds, ...c.predicted.provenance.sourceIds];
-      row.note = [row.note, `predicted by ${c.predicted.equationLabel} (${c.predicted.status})`].filter(Boolean).join("; ");
+      row.note = [row.note, `predicted: ${c.predicted.equationId} (${c.predicted.status})`].filter(Boolean).join("; ");
     }
     if (c.percentPredicted !== null) row.pctPredicted = formatNumber(c.percentPredicted, 0);
     if (c.predicted?.lln !== undefined && c.predicted.lln !== null) row.lln = formatNumber(c.predicted.lln, decimals);

@@ -1,4 +1,5 @@
 import "server-only";
+import { displayUnit } from "../../units";
 import pdfmake from "pdfmake";
 import type { Content, TableCell, TDocumentDefinitions } from "pdfmake/interfaces";
 import { renderChartSvg } from "../charts/renderChartSvg";
@@ -72,16 +73,16 @@ function valuesTable(rows: ReportRow[], index: Map<string, number>): Content {
     body.push([
       { text: r.label, bold: true },
       { text: r.value, alignment: "right" },
-      r.unit,
+      displayUnit(r.unit),
       { text: r.predicted ?? "", alignment: "right" },
       { text: r.pctPredicted ?? "", alignment: "right" },
       { text: r.lln ?? "", alignment: "right" },
-      { text: r.note ? `${r.method}. ${r.note}` : r.method, color: MUTED },
+      { stack: [{ text: r.method, color: MUTED }, ...(r.note ? [{ text: r.note, color: MUTED, fontSize: 7.5 }] : [])] },
       { text: sourceRefs(r.sourceIds, index), color: MUTED },
     ]);
   }
   return {
-    table: { headerRows: 1, widths: [92, 46, 50, 44, 34, 34, "*", 34], body },
+    table: { headerRows: 1, widths: [78, 38, 44, 40, 30, 30, "*", 30], body },
     layout: "lightHorizontalLines",
     fontSize: 8.5,
   };

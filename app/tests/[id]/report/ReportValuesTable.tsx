@@ -1,4 +1,5 @@
 import type { ReportRow } from "@/lib/report/reportModel";
+import { displayUnit } from "@/lib/units";
 
 /** Values with predicted, % predicted, LLN, method and numbered source references. */
 export function ReportValuesTable({
@@ -29,7 +30,7 @@ export function ReportValuesTable({
           <tr key={r.label}>
             <td>{r.label}</td>
             <td className="num">{r.value}</td>
-            <td>{r.unit}</td>
+            <td>{displayUnit(r.unit)}</td>
             <td className="num">{r.predicted ?? ""}</td>
             <td className="num">{r.pctPredicted ?? ""}</td>
             <td className="num">{r.lln ?? ""}</td>
