@@ -1,0 +1,340 @@
+"use client";
+
+import { useActionState } from "react";
+import type { Issue } from "@/lib/core";
+import { formatClock } from "@/lib/units/format";
+import styles from "../columns/columns.module.css";
+import { ImportIssueTable } from "../columns/ImportIssueTable";
+import { addBloodGasFile, addLactateFile, saveConduct, saveContext, saveSpirometry, type InputFormState } from "./actions";
+
+type Action = (prev: InputFormState, form: FormData) => Promise<InputFormState>;
+
+function Messages({ state, testId }: { state: InputFormState; testId: string }) {
+  const err = state.errors ?? {};
+  return (
+    <>
+      {Object.entries(err).map(([k, m]) => (
+        <p key={k} className="sev-error" style={{ padding: "0.3rem", margin: "0.3rem 0" }} data-testid={`${testId}-error`}>
+          {m}
+        </p>
+      ))}
+      {state.ok ? (
+        <p className="sev-info" style={{ padding: "0.3rem", margin: "0.3rem 0" }} data-testid={`${testId}-ok`}>
+          {state.ok}
+        </p>
+      ) : null}
+      {state.issues && state.issues.length > 0 ? (
+        <ImportIssueTable issues={state.issues as Issue[]} testId={`${testId}-issues`} />
+      ) : null}
+    </>
+  );
+}
+
+function useForm(action: Action) {
+  return useActionState<InputFormState, FormData>(action, {});
+}
+
+const time = (t: number | undefined) => (t === undefined ? "—" : formatClock(t));
+
+export function LactateForm({ testId }: { testId: number }) {
+  const [state, action, pending] = useForm(addLactateFile);
+  const v = state.values ?? {};
+  return (
+    <form action={action} className="stack" data-testid="lactate-form" key={state.stamp ?? 0}>
+      <input type="hidden" name="testId" value={testId} />
+      <div className="row">
+        <label className={styles.label}>
+          Lactate file (time or stage or work rate, and lactate; CSV, TSV, semicolon, XLSX)
+          <input type="file" name="file" accept=".csv,.tsv,.txt,.xlsx" data-testid="lactate-file" />
+        </label>
+        <label className={styles.label}>
+          Plain-number times are in
+          <select name="timeUnit" defaultValue={v.timeUnit ?? "s"}>
+            <option value="s">seconds</option>
+            <option value="min">minutes</option>
+          </select>
+        </label>
+        <button type="submit" disabled={pending} data-testid="lactate-submit">
+          {pending ? "Reading…" : "Read and save the samples"}
+        </button>
+      </div>
+      <Messages state={state} testId="lactate" />
+      {state.lactate ? (
+        <table data-testid="lactate-read">
+          <thead>
+            <tr>
+              <th>Time</th>
+              <th className="num">Stage</th>
+              <th className="num">Work rate (W)</th>
+              <th className="num">Speed (km/h)</th>
+              <th className="num">Lactate (mmol/L)</th>
+            </tr>
+          </thead>
+          <tbody>
+            {state.lactate.map((s, i) => (
+              <tr key={i}>
+                <td>{time(s.timeS)}</td>
+                <td className="num">{s.stage ?? "—"}</td>
+                <td className="num">{s.workW ?? "—"}</td>
+                <td className="num">{s.speedKmh ?? "—"}</td>
+                <td className="num">{s.lactateMmolL.toFixed(1)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      ) : null}
+    </form>
+  );
+}
+
+export function BloodGasForm({ testId }: { testId: number }) {
+  const [state, action, pending] = useForm(addBloodGasFile);
+  return (
+    <form action={action} className="stack" data-testid="bloodgas-form" key={state.stamp ?? 0}>
+      <input type="hidden" name="testId" value={testId} />
+      <div className="row">
+        <label className={styles.label}>
+          Blood gas file (time, PaO2, PaCO2 in mmHg or kPa, optional label)
+          <input type="file" name="file" accept=".csv,.tsv,.txt,.xlsx" data-testid="bloodgas-file" />
+        </label>
+        <button type="submit" disabled={pending} data-testid="bloodgas-submit">
+          {pending ? "Reading…" : "Read and save the blood gases"}
+        </button>
+      </div>
+      <Messages state={state} testId="bloodgas" />
+      {state.bloodGases ? (
+        <table data-testid="bloodgas-read">
+          <thead>
+            <tr>
+              <th>Time</th>
+              <th>Label</th>
+              <th className="num">PaO2 (mmHg)</th>
+              <th className="num">PaCO2 (mmHg)</th>
+            </tr>
+          </thead>
+          <tbody>
+            {state.bloodGases.map((s, i) => (
+              <tr key={i}>
+                <td>{time(s.timeS)}</td>
+                <td>{s.label ?? ""}</td>
+                <td className="num">{s.paO2MmHg?.toFixed(1) ?? "—"}</td>
+                <td className="num">{s.paCO2MmHg?.toFixed(1) ?? "—"}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      ) : null}
+    </form>
+  );
+}
+
+function NumberField({
+  name,
+  label,
+  current,
+  values,
+  error,
+  integer,
+}: {
+  name: string;
+  label: string;
+  current: number | undefined;
+  values: Record<string, string>;
+  error?: string;
+  integer?: boolean;
+}) {
+  return (
+    <label className={styles.label}>
+      {label}
+      <input
+        name={name}
+        type="number"
+        step={integer ? 1 : "any"}
+        size={6}
+        defaultValue={values[name] ?? (current !== undefined ? String(current) : "")}
+        aria-invalid={error ? true : undefined}
+      />
+    </label>
+  );
+}
+
+export interface SpirometryValues {
+  fev1L?: number;
+  fvcL?: number;
+  mvvLMin?: number;
+  fev1PctPred?: number;
+  dlcoPctPred?: number;
+}
+
+export function SpirometryForm({ testId, current }: { testId: number; current: SpirometryValues }) {
+  const [state, action, pending] = useForm(saveSpirometry);
+  const v = state.values ?? {};
+  const e = state.errors ?? {};
+  return (
+    <form action={action} className="stack" data-testid="spirometry-form" key={state.stamp ?? 0}>
+      <input type="hidden" name="testId" value={testId} />
+      <div className="row">
+        <NumberField name="fev1L" label="FEV1 (L)" current={current.fev1L} values={v} error={e.fev1L} />
+        <NumberField name="fvcL" label="FVC (L)" current={current.fvcL} values={v} error={e.fvcL} />
+        <NumberField name="mvvLMin" label="Measured MVV (L/min)" current={current.mvvLMin} values={v} error={e.mvvLMin} />
+        <NumberField
+          name="fev1PctPred"
+          label="FEV1 (% predicted)"
+          current={current.fev1PctPred}
+          values={v}
+          error={e.fev1PctPred}
+        />
+        <NumberField
+          name="dlcoPctPred"
+          label="DLCO (% predicted)"
+          current={current.dlcoPctPred}
+          values={v}
+          error={e.dlcoPctPred}
+        />
+        <button type="submit" disabled={pending} data-testid="spirometry-submit">
+          Save spirometry
+        </button>
+      </div>
+      <Messages state={state} testId="spirometry" />
+    </form>
+  );
+}
+
+export interface ContextValues {
+  ischaemicHeartDisease?: boolean;
+  resectedSegments?: number;
+  stairClimbM?: number;
+  shuttleWalkM?: number;
+  betaBlocker?: boolean;
+  haemoglobinGDl?: number;
+}
+
+const yn = (b: boolean | undefined) => (b === undefined ? "" : b ? "yes" : "no");
+
+export function ContextForm({ testId, current }: { testId: number; current: ContextValues }) {
+  const [state, action, pending] = useForm(saveContext);
+  const v = state.values ?? {};
+  const e = state.errors ?? {};
+  return (
+    <form action={action} className="stack" data-testid="context-form" key={state.stamp ?? 0}>
+      <input type="hidden" name="testId" value={testId} />
+      <div className="row">
+        <label className={styles.label}>
+          Ischaemic heart disease
+          <select name="ischaemicHeartDisease" defaultValue={v.ischaemicHeartDisease ?? yn(current.ischaemicHeartDisease)}>
+            <option value="">not stated</option>
+            <option value="yes">yes</option>
+            <option value="no">no</option>
+          </select>
+        </label>
+        <NumberField
+          name="resectedSegments"
+          label="Segments to be resected (0–19)"
+          current={current.resectedSegments}
+          values={v}
+          error={e.resectedSegments}
+          integer
+        />
+        <NumberField
+          name="stairClimbM"
+          label="Stair climb height (m)"
+          current={current.stairClimbM}
+          values={v}
+          error={e.stairClimbM}
+        />
+        <NumberField
+          name="shuttleWalkM"
+          label="Shuttle walk distance (m)"
+          current={current.shuttleWalkM}
+          values={v}
+          error={e.shuttleWalkM}
+        />
+      </div>
+      <div className="row">
+        <label className={styles.label}>
+          Beta-blocker or other rate-limiting drug
+          <select name="betaBlocker" defaultValue={v.betaBlocker ?? yn(current.betaBlocker)}>
+            <option value="">not stated</option>
+            <option value="yes">yes</option>
+            <option value="no">no</option>
+          </select>
+        </label>
+        <NumberField
+          name="haemoglobinGDl"
+          label="Haemoglobin (g/dL)"
+          current={current.haemoglobinGDl}
+          values={v}
+          error={e.haemoglobinGDl}
+        />
+        <button type="submit" disabled={pending} data-testid="context-submit">
+          Save clinical context
+        </button>
+      </div>
+      <Messages state={state} testId="context" />
+    </form>
+  );
+}
+
+export interface ConductValues {
+  protocol?: string;
+  reasonForStopping?: string;
+  symptoms?: string;
+  peakBorg?: number;
+  bloodPressure?: string;
+  ecgNotes?: string;
+  notes?: string;
+}
+
+export function ConductForm({ testId, current }: { testId: number; current: ConductValues }) {
+  const [state, action, pending] = useForm(saveConduct);
+  const v = state.values ?? {};
+  const e = state.errors ?? {};
+  const text = (name: keyof ConductValues) => v[name] ?? (current[name] !== undefined ? String(current[name]) : "");
+  return (
+    <form action={action} className="stack" data-testid="conduct-form" key={state.stamp ?? 0}>
+      <input type="hidden" name="testId" value={testId} />
+      <div className="row">
+        <label className={styles.label}>
+          Protocol
+          <input name="protocol" size={28} defaultValue={text("protocol")} placeholder="e.g. cycle ramp 15 W/min" />
+        </label>
+        <label className={styles.label}>
+          Reason for stopping
+          <input name="reasonForStopping" size={28} defaultValue={text("reasonForStopping")} />
+        </label>
+        <NumberField
+          name="peakBorg"
+          label="Peak Borg rating (6–20)"
+          current={current.peakBorg}
+          values={v}
+          error={e.peakBorg}
+          integer
+        />
+      </div>
+      <div className="row">
+        <label className={styles.label}>
+          Symptoms
+          <input name="symptoms" size={28} defaultValue={text("symptoms")} />
+        </label>
+        <label className={styles.label}>
+          Blood pressure (rest, peak, recovery)
+          <input name="bloodPressure" size={28} defaultValue={text("bloodPressure")} placeholder="e.g. 130/80, 185/85, 140/80" />
+        </label>
+      </div>
+      <label className={styles.label}>
+        ECG notes
+        <textarea name="ecgNotes" rows={2} defaultValue={text("ecgNotes")} />
+      </label>
+      <label className={styles.label}>
+        Other notes
+        <textarea name="notes" rows={2} defaultValue={text("notes")} />
+      </label>
+      <div>
+        <button type="submit" disabled={pending} data-testid="conduct-submit">
+          Save test conduct
+        </button>
+      </div>
+      <Messages state={state} testId="conduct" />
+    </form>
+  );
+}

@@ -1,0 +1,169 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import type { TestRecord } from "@/lib/analysis";
+import { importBloodGasFile, importLactateFile, parseSpirometry, type BloodGasSample, type LactateSample } from "@/lib/breath";
+import type { Issue } from "@/lib/core";
+import { audit, getTest, saveUpload, updateTestRecord } from "@/lib/store/tests";
+import { fieldErrors } from "../../../schemas";
+import { conductSchema, contextSchema, fileFormSchema } from "./schemas";
+
+export interface InputFormState {
+  ok?: string;
+  errors?: Record<string, string>;
+  /** What the user sent, re-rendered after a validation error so nothing typed is lost. */
+  values?: Record<string, string>;
+  issues?: Issue[];
+  lactate?: LactateSample[];
+  bloodGases?: BloodGasSample[];
+  /** Changes on every answer so the form re-mounts with the answer's values. */
+  stamp?: number;
+}
+
+const ACTOR = "local user";
+const MAX_BYTES = 5 * 1024 * 1024;
+
+function formValues(form: FormData): Record<string, string> {
+  const values: Record<string, string> = {};
+  for (const [k, v] of form.entries()) if (typeof v === "string") values[k] = v;
+  return values;
+}
+
+function loadRecord(testId: number): TestRecord | null {
+  return getTest(testId)?.record ?? null;
+}
+
+function done(testId: number, record: TestRecord, action: string, detail: string): void {
+  updateTestRecord(testId, record, ACTOR);
+  audit(ACTOR, action, testId, detail);
+  revalidatePath(`/tests/${testId}`);
+  revalidatePath(`/tests/${testId}/inputs`);
+}
+
+async function readFile(form: FormData): Promise<{ name: string; bytes: Uint8Array } | { error: string }> {
+  const file = form.get("file");
+  if (!(file instanceof File) || file.size === 0) return { error: "Choose a file to upload." };
+  if (file.size > MAX_BYTES) return { error: "The file is larger than 5 MB; it cannot be a sample list." };
+  return { name: file.name, bytes: new Uint8Array(await file.arrayBuffer()) };
+}
+
+/** Blood lactate samples from a file (importLactateFile); replaces the test's lactate samples. The file is kept. */
+export async function addLactateFile(_prev: InputFormState, form: FormData): Promise<InputFormState> {
+  const values = formValues(form);
+  const stamp = Date.now();
+  const parsed = fileFormSchema.safeParse(values);
+  if (!parsed.success) return { errors: fieldErrors(parsed.error), values, stamp };
+  const record = loadRecord(parsed.data.testId);
+  if (!record) return { errors: { form: "This test has no usable breath data yet." }, values, stamp };
+  const file = await readFile(form);
+  if ("error" in file) return { errors: { file: file.error }, values, stamp };
+  const { samples, issues } = await importLactateFile(file.bytes, { timeUnit: parsed.data.timeUnit });
+  if (samples.length === 0)
+    return { errors: { file: "No lactate samples could be read from this file; nothing was changed." }, issues, values, stamp };
+  const upload = saveUpload(file.name, file.bytes);
+  done(
+    parsed.data.testId,
+    { ...record, lactate: samples },
+    "lactate-added",
+    `${samples.length} sample(s) from ${file.name} (upload ${upload.id})`,
+  );
+  return { ok: `${samples.length} lactate sample(s) saved from ${file.name}.`, lactate: samples, issues, values, stamp };
+}
+
+/** Arterial blood gases from a file (importBloodGasFile); replaces the test's blood gases. The file is kept. */
+export async function addBloodGasFile(_prev: InputFormState, form: FormData): Promise<InputFormState> {
+  const values = formValues(form);
+  const stamp = Date.now();
+  const parsed = fileFormSchema.safeParse(values);
+  if (!parsed.success) return { errors: fieldErrors(parsed.error), values, stamp };
+  const record = loadRecord(parsed.data.testId);
+  if (!record) return { errors: { form: "This test has no usable breath data yet." }, values, stamp };
+  const file = await readFile(form);
+  if ("error" in file) return { errors: { file: file.error }, values, stamp };
+  const { samples, issues } = await importBloodGasFile(file.bytes);
+  if (samples.length === 0)
+    return { errors: { file: "No blood gas samples could be read from this file; nothing was changed." }, issues, values, stamp };
+  const upload = saveUpload(file.name, file.bytes);
+  done(
+    parsed.data.testId,
+    { ...record, bloodGases: samples },
+    "blood-gases-added",
+    `${samples.length} sample(s) from ${file.name} (upload ${upload.id})`,
+  );
+  return { ok: `${samples.length} blood gas sample(s) saved from ${file.name}.`, bloodGases: samples, issues, values, stamp };
+}
+
+/** Resting spirometry (parseSpirometry). Any implausible value refuses the whole form, keeping what was typed. */
+export async function saveSpirometry(_prev: InputFormState, form: FormData): Promise<InputFormState> {
+  const values = formValues(form);
+  const stamp = Date.now();
+  const testId = Number(values.testId);
+  const record = Number.isInteger(testId) ? loadRecord(testId) : null;
+  if (!record) return { errors: { form: "This test has no usable breath data yet." }, values, stamp };
+  const { spirometry, issues } = parseSpirometry({
+    fev1L: values.fev1L,
+    fvcL: values.fvcL,
+    mvvLMin: values.mvvLMin,
+    fev1PctPred: values.fev1PctPred,
+    dlcoPctPred: values.dlcoPctPred,
+  });
+  const problems = issues.filter((i) => i.severity !== "info");
+  if (problems.length > 0) {
+    const errors: Record<string, string> = {};
+    for (const i of problems) errors[String(i.where?.field ?? "form")] ??= i.message;
+    return { errors, values, stamp };
+  }
+  const next: TestRecord = { ...record };
+  if (spirometry) next.spirometry = spirometry;
+  else delete next.spirometry;
+  done(testId, next, "spirometry-updated", spirometry ? JSON.stringify(spirometry) : "cleared");
+  return { ok: spirometry ? "Spirometry saved; the breathing reserve is recomputed." : "Spirometry cleared.", stamp };
+}
+
+/** Clinical context (record.context) with beta-blocker and haemoglobin (record.patient). */
+export async function saveContext(_prev: InputFormState, form: FormData): Promise<InputFormState> {
+  const values = formValues(form);
+  const stamp = Date.now();
+  const parsed = contextSchema.safeParse(values);
+  if (!parsed.success) return { errors: fieldErrors(parsed.error), values, stamp };
+  const c = parsed.data;
+  const record = loadRecord(c.testId);
+  if (!record) return { errors: { form: "This test has no usable breath data yet." }, values, stamp };
+  const yn = (x: "" | "yes" | "no") => (x === "" ? undefined : x === "yes");
+  const context = {
+    ischaemicHeartDisease: yn(c.ischaemicHeartDisease),
+    resectedSegments: c.resectedSegments,
+    stairClimbM: c.stairClimbM,
+    shuttleWalkM: c.shuttleWalkM,
+  };
+  const patient = { ...record.patient, betaBlocker: yn(c.betaBlocker), haemoglobinGDl: c.haemoglobinGDl };
+  const next: TestRecord = { ...record, context: dropUndefined(context), patient: dropUndefined(patient) };
+  done(c.testId, next, "clinical-context-updated", JSON.stringify({ ...next.context, betaBlocker: patient.betaBlocker }));
+  return { ok: "Clinical context saved; the interpretation is recomputed.", stamp };
+}
+
+/** How the test was conducted (record.conduct). */
+export async function saveConduct(_prev: InputFormState, form: FormData): Promise<InputFormState> {
+  const values = formValues(form);
+  const stamp = Date.now();
+  const parsed = conductSchema.safeParse(values);
+  if (!parsed.success) return { errors: fieldErrors(parsed.error), values, stamp };
+  const { testId, ...c } = parsed.data;
+  const record = loadRecord(testId);
+  if (!record) return { errors: { form: "This test has no usable breath data yet." }, values, stamp };
+  const conduct = dropUndefined({
+    protocol: c.protocol || undefined,
+    reasonForStopping: c.reasonForStopping || undefined,
+    symptoms: c.symptoms || undefined,
+    peakBorg: c.peakBorg,
+    bloodPressure: c.bloodPressure || undefined,
+    ecgNotes: c.ecgNotes || undefined,
+    notes: c.notes || undefined,
+  });
+  done(testId, { ...record, conduct }, "test-conduct-updated", Object.keys(conduct).join(", ") || "cleared");
+  return { ok: "Test conduct saved.", stamp };
+}
+
+function dropUndefined<T extends object>(o: T): T {
+  return Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined)) as T;
+}

@@ -1,0 +1,53 @@
+import { z } from "zod";
+
+const optionalNumber = (min: number, max: number, what: string, integer = false) =>
+  z.preprocess(
+    (v) => (v === "" || v === null || v === undefined ? undefined : Number(String(v).trim().replace(",", "."))),
+    (integer
+      ? z.number({ message: `${what} must be a number` }).int(`${what} must be a whole number`)
+      : z.number({ message: `${what} must be a number` })
+    )
+      .min(min, `${what} must be at least ${min}`)
+      .max(max, `${what} must be at most ${max}`)
+      .optional(),
+  );
+
+const yesNo = z.enum(["", "yes", "no"]).default("");
+const text = (max: number, what: string) =>
+  z.string().trim().max(max, `${what}: at most ${max} characters`).optional().default("");
+
+/**
+ * Clinical context and the patient details that change interpretation. Ranges are generous plausibility
+ * limits (common practice): 19 bronchopulmonary segments is the count used for predicted postoperative
+ * lung function (common practice); stair climb height 0–200 m; shuttle walk distance 0–3000 m;
+ * haemoglobin 3–25 g/dL.
+ */
+export const contextSchema = z.object({
+  testId: z.coerce.number().int().positive(),
+  ischaemicHeartDisease: yesNo,
+  resectedSegments: optionalNumber(0, 19, "Segments to be resected", true),
+  stairClimbM: optionalNumber(0, 200, "Stair climb height (m)"),
+  shuttleWalkM: optionalNumber(0, 3000, "Shuttle walk distance (m)"),
+  betaBlocker: yesNo,
+  haemoglobinGDl: optionalNumber(3, 25, "Haemoglobin (g/dL)"),
+});
+
+/**
+ * Test conduct. Peak rating of perceived exertion on Borg's 6–20 scale (Borg GA, 1982, Med Sci Sports Exerc;
+ * recalled), whole numbers. Free text is length-limited only.
+ */
+export const conductSchema = z.object({
+  testId: z.coerce.number().int().positive(),
+  protocol: text(200, "Protocol"),
+  reasonForStopping: text(300, "Reason for stopping"),
+  symptoms: text(300, "Symptoms"),
+  peakBorg: optionalNumber(6, 20, "Peak Borg rating (6–20)", true),
+  bloodPressure: text(120, "Blood pressure"),
+  ecgNotes: text(500, "ECG notes"),
+  notes: text(1000, "Notes"),
+});
+
+export const fileFormSchema = z.object({
+  testId: z.coerce.number().int().positive(),
+  timeUnit: z.enum(["s", "min"]).default("s"),
+});
