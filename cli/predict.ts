@@ -1,3 +1,4 @@
+import { CLINICAL_CAUTION } from "../lib/report/caution";
 import type { Command } from "commander";
 import type { Ergometer, Patient, Sex } from "../lib/core";
 import {
@@ -161,7 +162,7 @@ export function registerPredict(program: Command): void {
     }
     let result: unknown;
     try {
-      result = runPredict(opts);
+      result = { ...(runPredict(opts) as Record<string, unknown>), caution: CLINICAL_CAUTION };
     } catch (e) {
       if (e instanceof InputError) cmd.error(`cpet predict: ${e.message}`, { exitCode: 2, code: "cpet.predict.input" });
       throw e;

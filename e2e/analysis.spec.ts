@@ -56,3 +56,20 @@ test("comparing two tests judges each change against published test-retest varia
   await expect(page.getByTestId("comparison")).toContainText("measurement noise");
   await expect(page.getByTestId("clinical-caution")).toBeVisible();
 });
+
+test("lab settings choose the predicted-value equation named on every test without its own version", async ({ page }) => {
+  await page.goto("/lab");
+  const form = page.getByTestId("lab-form");
+  await form.getByLabel("peak VO2, cycle").selectOption("jones-1985");
+  await form.locator('[name="by"]').fill("E2E lab lead");
+  await form.getByRole("button", { name: "Save lab defaults" }).click();
+  await expect(form).toContainText("Lab defaults saved");
+  await openDemo(page, /breathless runner/);
+  await expect(page.getByTestId("row-peakVo2")).toContainText("Jones");
+  // Restore the documented default so other checks see Hansen 1984 again.
+  await page.goto("/lab");
+  await page.getByTestId("lab-form").getByLabel("peak VO2, cycle").selectOption("hansen-1984");
+  await page.getByTestId("lab-form").locator('[name="by"]').fill("E2E lab lead");
+  await page.getByTestId("lab-form").getByRole("button", { name: "Save lab defaults" }).click();
+  await expect(page.getByTestId("lab-form")).toContainText("Lab defaults saved");
+});

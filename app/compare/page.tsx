@@ -2,7 +2,8 @@ import Link from "next/link";
 import { z } from "zod";
 import { analyse } from "@/lib/analysis";
 import { compareTests, INTERPRETATION_DATA } from "@/lib/interpret";
-import { getTest, latestSettings, listTests } from "@/lib/store/tests";
+import { getLabDefaults } from "@/lib/store/labSettings";
+import { effectiveSettings, getTest, listTests } from "@/lib/store/tests";
 import { SourceList } from "../tests/[id]/parts/HowFound";
 
 export const dynamic = "force-dynamic";
@@ -24,13 +25,14 @@ export default async function ComparePage({
   const tests = listTests().filter((t) => t.status === "imported");
   const populations = INTERPRETATION_DATA.variability.populations;
   const population = q.population && populations.some((p) => p.id === q.population) ? q.population : populations[0]?.id;
+  const labDefaults = getLabDefaults();
   const a = q.before ? getTest(q.before) : null;
   const b = q.after ? getTest(q.after) : null;
   const comparison =
     a?.record && b?.record && population
       ? compareTests(
-          analyse(a.record, latestSettings(a.id)?.settings ?? {}).interpretInput,
-          analyse(b.record, latestSettings(b.id)?.settings ?? {}).interpretInput,
+          analyse(a.record, effectiveSettings(a.id, labDefaults)).interpretInput,
+          analyse(b.record, effectiveSettings(b.id, labDefaults)).interpretInput,
           population,
         )
       : null;

@@ -74,6 +74,8 @@ export interface CliThreshold {
   hrBpm: number | null;
   workW: number | null;
   pctPeak: number | null;
+  /** VO2 at the threshold as % of the predicted peak VO2 (lab's equation). */
+  pctPredictedPeak: number | null;
   confidence: string;
   band: { lowMlMin: number; highMlMin: number } | null;
   methods: { id: string; vo2MlMin: number | null; quality: string }[];
@@ -93,6 +95,7 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       issues.push({ severity: "info", code: "not-determinable", message: `${what}: ${m.reason ?? "not determinable"}` });
     return val(m);
   };
+  const predVo2 = result.predicted.values.vo2PeakMlMin?.value ?? null;
   const threshold = (t: ThresholdEstimate, at: AnalysisResult["indices"]["atVt1"]): CliThreshold => {
     if (t.vo2MlMin.value === null)
       issues.push({
@@ -107,6 +110,7 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       hrBpm: val(at?.hrBpm) ?? val(t.hrBpm),
       workW: val(at?.workW) ?? val(t.workW),
       pctPeak: val(at?.vo2PercentPeak),
+      pctPredictedPeak: t.vo2MlMin.value !== null && predVo2 ? (100 * t.vo2MlMin.value) / predVo2 : null,
       confidence: t.confidence,
       band: t.band,
       methods: result.thresholds.methods

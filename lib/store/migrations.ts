@@ -77,4 +77,18 @@ export const MIGRATIONS: { id: number; name: string; sql: string }[] = [
       create index reports_by_test on reports (test_id, id);
     `,
   },
+  {
+    id: 3,
+    name: "create_lab_settings",
+    // One row: the lab's default choices (equations per quantity and ergometer, disputed cut-offs,
+    // averaging), applied to every test until a reviewer saves a test-specific version.
+    sql: `
+      create table lab_settings (
+        id integer primary key check (id = 1),
+        settings_json text not null,
+        updated_by text,
+        updated_at text not null
+      );
+    `,
+  },
 ];

@@ -184,6 +184,11 @@ export function latestSettings(testId: number): { version: number; settings: Ana
   return v ? { version: v.version, settings: v.settings, id: v.id } : null;
 }
 
+/** The settings a test is analysed with: its latest saved version, else the lab's defaults. */
+export function effectiveSettings(testId: number, labDefaults: AnalysisSettings): AnalysisSettings {
+  return latestSettings(testId)?.settings ?? labDefaults;
+}
+
 export function audit(actor: string | null, action: string, testId: number | null, detail: string | null): void {
   getDb()
     .prepare("insert into audit (at, actor, action, test_id, detail) values (?, ?, ?, ?, ?)")

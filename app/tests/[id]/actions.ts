@@ -4,7 +4,8 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import type { AnalysisSettings } from "@/lib/analysis";
 import { ENGINE_VERSION } from "@/lib/analysis";
-import { getTest, latestSettings, saveAnalysisVersion } from "@/lib/store/tests";
+import { getLabDefaults } from "@/lib/store/labSettings";
+import { effectiveSettings, getTest, latestSettings, saveAnalysisVersion } from "@/lib/store/tests";
 
 export interface FormState {
   ok?: string;
@@ -56,7 +57,7 @@ export async function overrideThreshold(_prev: FormState, form: FormData): Promi
   if (!getTest(o.testId)?.record) return { errors: { form: "This test has no usable data." }, values };
   const m = o.time ? clock.exec(o.time) : null;
   const timeS = o.time ? (m ? Number(m[1]) * 60 + Number(m[2]) : Number(o.time)) : undefined;
-  const current = latestSettings(o.testId)?.settings ?? {};
+  const current = effectiveSettings(o.testId, getLabDefaults());
   const others = (current.overrides ?? []).filter((x) => x.which !== o.which);
   const settings: AnalysisSettings = {
     ...current,
@@ -122,7 +123,7 @@ export async function saveSettings(_prev: FormState, form: FormData): Promise<Fo
   const test = getTest(s.testId);
   if (!test?.record) return { errors: { form: "This test has no usable data." }, values };
   const erg = test.record.ergometer;
-  const current = latestSettings(s.testId)?.settings ?? {};
+  const current = effectiveSettings(s.testId, getLabDefaults());
   const choices: Record<string, string> = {};
   for (const [k, v] of Object.entries(values)) if (k.startsWith("choice:") && v) choices[k.slice(7)] = v;
   const settings: AnalysisSettings = {

@@ -8,6 +8,7 @@ import { analysisCharts } from "@/lib/report";
 import { renderChartSvg } from "@/lib/report/charts";
 import type { ThresholdEstimate } from "@/lib/thresholds";
 import { displayUnit, formatClock } from "@/lib/units";
+import { getLabDefaults } from "@/lib/store/labSettings";
 import { getTest, listAnalysisVersions } from "@/lib/store/tests";
 import { IssueList } from "../../components/IssueList";
 import { clearOverride } from "./actions";
@@ -56,7 +57,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
   }
 
   const versions = listAnalysisVersions(testId);
-  const settings = versions[0]?.settings ?? {};
+  const settings = versions[0]?.settings ?? getLabDefaults();
   const record = test.record;
   const result = analyse(record, settings);
   const ix = result.indices;
@@ -81,8 +82,8 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       <p className="how">
         {p.sex ?? "sex not given"}, {p.ageY ?? "?"} y, {p.heightCm ?? "?"} cm, {p.weightKg ?? "?"} kg · {erg} · referral:{" "}
         {record.referral} · file {test.fileName} ({record.table.rows.length}{" "}
-        {record.table.shape === "breath" ? "breaths" : "stages"}) · analysis version {versions[0]?.version ?? "defaults"} · engine{" "}
-        {result.engineVersion}
+        {record.table.shape === "breath" ? "breaths" : "stages"}) · analysis version {versions[0]?.version ?? "lab defaults"} ·
+        engine {result.engineVersion}
       </p>
       <p className="row">
         <Link href={`/tests/${testId}/report`} data-testid="report-link">
@@ -312,6 +313,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
             <th>Domain</th>
             <th>Heart rate (1/min)</th>
             <th>Work rate (W)</th>
+            <th>Speed (km/h)</th>
           </tr>
         </thead>
         <tbody>
@@ -323,6 +325,9 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
               </td>
               <td>
                 {fmt(d.workW.lower)} – {fmt(d.workW.upper)}
+              </td>
+              <td>
+                {fmt(d.speedKmh.lower, 1)} – {fmt(d.speedKmh.upper, 1)}
               </td>
             </tr>
           ))}
@@ -460,7 +465,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           {versions.length === 0 ? (
             <tr>
               <td colSpan={4} className="how">
-                Default settings (no saved version yet).
+                Lab default settings (no test-specific version saved yet).
               </td>
             </tr>
           ) : null}

@@ -4,6 +4,7 @@ import { buildReportModel } from "@/lib/report/buildReportModel";
 import { initialDraftSections } from "@/lib/report/initialDraftSections";
 import type { ReportModel } from "@/lib/report/reportModel";
 import { getOrCreateDraft, getReport, listReports, type StoredReport } from "@/lib/store/reports";
+import { getLabDefaults } from "@/lib/store/labSettings";
 import { getTest, latestSettings, listAnalysisVersions, saveAnalysisVersion, type StoredTest } from "@/lib/store/tests";
 
 export interface LoadedReport {
@@ -33,7 +34,7 @@ export function loadReport(testId: number, reportId?: number): LoadedReport | nu
   } else {
     let latest = latestSettings(testId);
     if (!latest) {
-      saveAnalysisVersion(testId, {}, ENGINE_VERSION, "system", "first analysis, default settings");
+      saveAnalysisVersion(testId, getLabDefaults(), ENGINE_VERSION, "system", "first analysis, lab default settings");
       latest = latestSettings(testId)!;
     }
     result = analyse(test.record, latest.settings);
