@@ -220,6 +220,8 @@ function ColumnRow({
   unit: string;
   error?: string;
 }) {
+  // Uncontrolled selects (defaultValue) so the form reset React does after an action keeps the shown choice;
+  // the state only filters the units offered for the chosen field.
   const [field, setField] = useState(initialField);
   const [unit, setUnit] = useState(initialUnit);
   const effective = field === "auto" ? row.autoField : field === "ignore" ? null : field;
@@ -240,10 +242,10 @@ function ColumnRow({
         <div className="row" style={{ gap: "0.3rem" }}>
           <select
             name={`col.${row.index}.field`}
-            value={field}
+            defaultValue={initialField}
             onChange={(e) => {
               setField(e.target.value);
-              setUnit("auto");
+              setUnit(e.target.value === initialField ? initialUnit : "auto");
             }}
             aria-label={`What “${row.header}” holds`}
             data-testid="field-select"
@@ -257,8 +259,9 @@ function ColumnRow({
             <option value="ignore">ignore this column</option>
           </select>
           <select
+            key={field}
             name={`col.${row.index}.unit`}
-            value={unit}
+            defaultValue={field === initialField ? initialUnit : "auto"}
             onChange={(e) => setUnit(e.target.value)}
             disabled={units.length === 0}
             aria-label={`Unit of “${row.header}”`}
