@@ -218,9 +218,33 @@ test("(e) a lactate file added on the inputs page gives the analysis a lactate t
   const lactate = "Time [min];Lactate [mmol/L]\r\n2;1,0\r\n4;1,1\r\n6;1,3\r\n8;2,0\r\n10;3,6\r\n12;6,2\r\n";
   await inputs.uploadLactate({ name: "invented-lactate.csv", content: lactate });
   await expect(page.getByTestId("lactate-ok")).toContainText("6 lactate sample(s) saved");
-  await expect(page.getByTestId("lactate-read").locator("tbody tr")).toHaveCount(6);
   await expect(page.getByTestId("lactate-stored").locator("tbody tr")).toHaveCount(6);
   await expect(page.getByTestId("lactate-stored")).toContainText("6.2");
+
+  // Blood gases in kPa are converted (1 kPa = 7.50062 mmHg, standard definition): 12.5 kPa → 93.76 mmHg,
+  // 5.2 kPa → 39.00 mmHg. INVENTED values.
+  const gases = page.getByTestId("bloodgas-form");
+  await gases.getByTestId("bloodgas-file").setInputFiles({
+    name: "invented-gases.csv",
+    mimeType: "text/csv",
+    buffer: Buffer.from("Time [min];PaO2 [kPa];PaCO2 [kPa];Label\r\n1;12,5;5,2;rest\r\n12;11,8;4,6;peak\r\n"),
+  });
+  await gases.getByTestId("bloodgas-submit").click();
+  await expect(page.getByTestId("bloodgas-ok")).toContainText("2 blood gas sample(s) saved");
+  await expect(page.getByTestId("bloodgas-stored")).toContainText("93.8");
+  await expect(page.getByTestId("bloodgas-stored")).toContainText("39.0");
+
+  // Spirometry: an implausible FEV1 is refused and what was typed stays; a plausible set is saved.
+  const spiro = page.getByTestId("spirometry-form");
+  await spiro.locator('[name="fev1L"]').fill("31");
+  await spiro.locator('[name="fvcL"]').fill("4.0");
+  await spiro.getByTestId("spirometry-submit").click();
+  await expect(page.getByTestId("spirometry-error")).toContainText("fev1L");
+  await expect(spiro.locator('[name="fvcL"]')).toHaveValue("4.0");
+  await spiro.locator('[name="fev1L"]').fill("3.1");
+  await spiro.getByTestId("spirometry-submit").click();
+  await expect(page.getByTestId("spirometry-ok")).toBeVisible();
+  await expect(spiro.locator('[name="fev1L"]')).toHaveValue("3.1");
 
   // A context value out of range is refused with the typed values kept.
   const ctx = page.getByTestId("context-form");

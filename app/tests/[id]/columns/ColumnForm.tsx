@@ -95,6 +95,7 @@ function ColumnFormBody(props: ColumnFormProps & { state: ColumnFormState; pendi
             type="number"
             step="any"
             size={6}
+            className={styles.weight}
             defaultValue={v.weightKg ?? (props.weightKg !== undefined ? String(props.weightKg) : "")}
             data-testid="weight"
           />

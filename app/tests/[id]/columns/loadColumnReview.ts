@@ -12,7 +12,7 @@ export interface ColumnRowView {
   header: string;
   /** Text of the units row under the header, when the file has one. */
   unitsRow: string | null;
-  /** First values of the column exactly as written in the file. */
+  /** First values and the last value of the column exactly as written in the file ("…" between). */
   samples: string[];
   readAs: string;
   reason: string;
@@ -79,13 +79,14 @@ export async function loadColumnReview(testId: number): Promise<ColumnReview | n
   };
 
   const rows: ColumnRowView[] = layout.headers.map((header, index) => {
-    const samples: string[] = [];
+    // The first few values and the last one, as written in the file.
+    const filled: string[] = [];
     for (const r of layout.rows) {
       const cell = r[index];
-      if (cell === null || cell === undefined || String(cell).trim() === "") continue;
-      samples.push(String(cell));
-      if (samples.length >= SAMPLE_COUNT) break;
+      if (cell !== null && cell !== undefined && String(cell).trim() !== "") filled.push(String(cell));
     }
+    const samples =
+      filled.length <= SAMPLE_COUNT ? filled : [...filled.slice(0, SAMPLE_COUNT - 1), "…", filled[filled.length - 1]];
     const cur = currentByIndex.get(index);
     const a = autoByIndex.get(index);
     const autoField: FieldKey | null = a ? (a.field ?? (a.storedAs ? "vo2MlMin" : null)) : null;

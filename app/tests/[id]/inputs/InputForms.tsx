@@ -2,7 +2,6 @@
 
 import { useActionState } from "react";
 import type { Issue } from "@/lib/core";
-import { formatClock } from "@/lib/units/format";
 import styles from "../columns/columns.module.css";
 import { ImportIssueTable } from "../columns/ImportIssueTable";
 import { addBloodGasFile, addLactateFile, saveConduct, saveContext, saveSpirometry, type InputFormState } from "./actions";
@@ -34,8 +33,6 @@ function useForm(action: Action) {
   return useActionState<InputFormState, FormData>(action, {});
 }
 
-const time = (t: number | undefined) => (t === undefined ? "—" : formatClock(t));
-
 export function LactateForm({ testId }: { testId: number }) {
   const [state, action, pending] = useForm(addLactateFile);
   const v = state.values ?? {};
@@ -59,30 +56,6 @@ export function LactateForm({ testId }: { testId: number }) {
         </button>
       </div>
       <Messages state={state} testId="lactate" />
-      {state.lactate ? (
-        <table data-testid="lactate-read">
-          <thead>
-            <tr>
-              <th>Time</th>
-              <th className="num">Stage</th>
-              <th className="num">Work rate (W)</th>
-              <th className="num">Speed (km/h)</th>
-              <th className="num">Lactate (mmol/L)</th>
-            </tr>
-          </thead>
-          <tbody>
-            {state.lactate.map((s, i) => (
-              <tr key={i}>
-                <td>{time(s.timeS)}</td>
-                <td className="num">{s.stage ?? "—"}</td>
-                <td className="num">{s.workW ?? "—"}</td>
-                <td className="num">{s.speedKmh ?? "—"}</td>
-                <td className="num">{s.lactateMmolL.toFixed(1)}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      ) : null}
     </form>
   );
 }
@@ -102,28 +75,6 @@ export function BloodGasForm({ testId }: { testId: number }) {
         </button>
       </div>
       <Messages state={state} testId="bloodgas" />
-      {state.bloodGases ? (
-        <table data-testid="bloodgas-read">
-          <thead>
-            <tr>
-              <th>Time</th>
-              <th>Label</th>
-              <th className="num">PaO2 (mmHg)</th>
-              <th className="num">PaCO2 (mmHg)</th>
-            </tr>
-          </thead>
-          <tbody>
-            {state.bloodGases.map((s, i) => (
-              <tr key={i}>
-                <td>{time(s.timeS)}</td>
-                <td>{s.label ?? ""}</td>
-                <td className="num">{s.paO2MmHg?.toFixed(1) ?? "—"}</td>
-                <td className="num">{s.paCO2MmHg?.toFixed(1) ?? "—"}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      ) : null}
     </form>
   );
 }

@@ -2,7 +2,7 @@
 
 import { revalidatePath } from "next/cache";
 import type { TestRecord } from "@/lib/analysis";
-import { importBloodGasFile, importLactateFile, parseSpirometry, type BloodGasSample, type LactateSample } from "@/lib/breath";
+import { importBloodGasFile, importLactateFile, parseSpirometry } from "@/lib/breath";
 import type { Issue } from "@/lib/core";
 import { audit, getTest, saveUpload, updateTestRecord } from "@/lib/store/tests";
 import { fieldErrors } from "../../../schemas";
@@ -14,8 +14,6 @@ export interface InputFormState {
   /** What the user sent, re-rendered after a validation error so nothing typed is lost. */
   values?: Record<string, string>;
   issues?: Issue[];
-  lactate?: LactateSample[];
-  bloodGases?: BloodGasSample[];
   /** Changes on every answer so the form re-mounts with the answer's values. */
   stamp?: number;
 }
@@ -67,7 +65,7 @@ export async function addLactateFile(_prev: InputFormState, form: FormData): Pro
     "lactate-added",
     `${samples.length} sample(s) from ${file.name} (upload ${upload.id})`,
   );
-  return { ok: `${samples.length} lactate sample(s) saved from ${file.name}.`, lactate: samples, issues, values, stamp };
+  return { ok: `${samples.length} lactate sample(s) saved from ${file.name}.`, issues, values, stamp };
 }
 
 /** Arterial blood gases from a file (importBloodGasFile); replaces the test's blood gases. The file is kept. */
@@ -90,7 +88,7 @@ export async function addBloodGasFile(_prev: InputFormState, form: FormData): Pr
     "blood-gases-added",
     `${samples.length} sample(s) from ${file.name} (upload ${upload.id})`,
   );
-  return { ok: `${samples.length} blood gas sample(s) saved from ${file.name}.`, bloodGases: samples, issues, values, stamp };
+  return { ok: `${samples.length} blood gas sample(s) saved from ${file.name}.`, issues, values, stamp };
 }
 
 /** Resting spirometry (parseSpirometry). Any implausible value refuses the whole form, keeping what was typed. */

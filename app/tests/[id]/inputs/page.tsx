@@ -2,6 +2,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getTest } from "@/lib/store/tests";
 import { formatClock } from "@/lib/units";
+import styles from "../columns/columns.module.css";
 import { BloodGasForm, ConductForm, ContextForm, LactateForm, SpirometryForm } from "./InputForms";
 
 export const dynamic = "force-dynamic";
@@ -42,7 +43,7 @@ export default async function InputsPage({ params }: { params: Promise<{ id: str
 
       <h2>Blood lactate</h2>
       {lactate.length > 0 ? (
-        <table data-testid="lactate-stored">
+        <table data-testid="lactate-stored" className={styles.compact}>
           <caption className="how" style={{ textAlign: "left" }}>
             {lactate.length} sample(s) saved with this test
           </caption>
@@ -74,7 +75,7 @@ export default async function InputsPage({ params }: { params: Promise<{ id: str
 
       <h2>Arterial blood gases</h2>
       {gases.length > 0 ? (
-        <table data-testid="bloodgas-stored">
+        <table data-testid="bloodgas-stored" className={styles.compact}>
           <thead>
             <tr>
               <th>Time</th>
