@@ -17,6 +17,7 @@ import type {
 import { ventilatoryEquivalents } from "./ventilatoryEquivalents";
 import { vSlope } from "./vSlope";
 import { jointVt1 } from "./jointVt1";
+import { jointVt2 } from "./jointVt2";
 
 export interface ThresholdSeriesOptions {
   /** Time-bin length, s (10–20 s keeps curve shape while damping breath noise; 20 s chosen on the synthetic bank). @default 20 */
@@ -174,16 +175,30 @@ export interface DetectThresholdsOptions {
   /** Agreement tolerance between methods, fraction of VO2 (our choice). @default 0.1 */
   agreementFraction?: number;
   /**
-   * Report the median of the resampled consensus values (bagging) instead of the single-pass value when at
-   * least half the resamples gave one (our choice: steadier under breath noise on the synthetic banks). @default true
+   * VT1: report the median of the resampled consensus values (bagging) instead of the single-pass value when at
+   * least half the resamples gave one (our choice: steadier under breath noise on the synthetic banks). VT2
+   * always keeps the single-pass value (the resampled median was biased early there). @default true
    */
   bootstrapMedian?: boolean;
+  /**
+   * The VT1 methods read data up to the VT2 estimate plus this margin, s (our choice: about one localisation width
+   * of a single-signal break, ±2 bins of 20 s). An RCP estimate that is early by a bin or two otherwise cuts the
+   * segment above VT1 short, and every VT1 fit then drifts early; the few compensation bins let in bend VE and
+   * PETO2 far less. 0 = stop at VT2 (Beaver 1986, recalled detail). @default 40
+   */
+  vt1BeyondVt2S?: number;
 }
 
 const VT1_PREFERENCE = ["vt1-joint-profile", "vt1-v-slope", "vt1-ventilatory-equivalents", "vt1-modified-v-slope"];
 /** Weights of the VT1 pooled value (weighted median): the joint profile counts double (our choice, bank-tuned). */
 const VT1_WEIGHTS: Record<string, number> = { "vt1-joint-profile": 2 };
-const VT2_PREFERENCE = ["vt2-ve-vco2-break", "vt2-ventilatory-equivalents"];
+const VT2_PREFERENCE = ["vt2-joint-profile", "vt2-ve-vco2-break", "vt2-ventilatory-equivalents"];
+/**
+ * Weights of the VT2 pooled value (weighted median; with both usable, the mean of the joint profile and the
+ * VE-against-VCO2 break). The VE/VCO2-with-PETCO2 method shares the PETCO2 signal with the joint profile, so it
+ * counts for agreement and confidence only (our choice, bank-tuned).
+ */
+const VT2_WEIGHTS: Record<string, number> = { "vt2-joint-profile": 1, "vt2-ve-vco2-break": 1, "vt2-ventilatory-equivalents": 0 };
 
 interface Core {
   methods: MethodEstimate[];
@@ -193,13 +208,13 @@ interface Core {
   vt2TimeS: number | null;
 }
 
-function runMethods(series: ThresholdSeries, agreementFraction: number): Core {
-  const vt2Methods = [rcpVeVco2(series), rcpVentilatoryEquivalents(series)];
-  const vt2 = combineEstimates(vt2Methods, { agreementFraction, preference: VT2_PREFERENCE });
+function runMethods(series: ThresholdSeries, agreementFraction: number, vt1BeyondVt2S = 40): Core {
+  const vt2Methods = [rcpVeVco2(series), rcpVentilatoryEquivalents(series), jointVt2(series)];
+  const vt2 = combineEstimates(vt2Methods, { agreementFraction, preference: VT2_PREFERENCE, weights: VT2_WEIGHTS });
   const vt2TimeS = vt2.vo2MlMin === null ? null : timeAtLevel(series, series.vo2Trend, vt2.vo2MlMin);
   const upper =
     vt2TimeS !== null && vt2.confidence !== "low"
-      ? vt2TimeS
+      ? vt2TimeS + vt1BeyondVt2S
       : vt2TimeS !== null
         ? Math.max(vt2TimeS, series.span.endS - 60)
         : series.span.endS;
@@ -220,6 +235,7 @@ function bootstrapSeries(
   replicates: number,
   seed: number,
   agreementFraction: number,
+  vt1BeyondVt2S: number,
 ): { vt1: (number | null)[]; vt2: (number | null)[] } {
   const rng = seededRandom(seed);
   const n = series.timeS.length;
@@ -238,7 +254,7 @@ function bootstrapSeries(
     fields.forEach((f, c) => {
       s[f] = Float64Array.from(smooth[c], (v, i) => v + resid[c][order[i]]);
     });
-    const core = runMethods(s, agreementFraction);
+    const core = runMethods(s, agreementFraction, vt1BeyondVt2S);
     out.vt1.push(core.vt1.vo2MlMin);
     out.vt2.push(core.vt2.vo2MlMin);
   }
@@ -262,7 +278,8 @@ function centredMean(v: Float64Array, half: number): Float64Array {
 
 /**
  * Detect VT1 and VT2 (RCP) by several methods and combine them (method ids `vt1-v-slope`,
- * `vt1-modified-v-slope`, `vt1-ventilatory-equivalents`, `vt2-ve-vco2-break`, `vt2-ventilatory-equivalents`;
+ * `vt1-modified-v-slope`, `vt1-ventilatory-equivalents`, `vt1-joint-profile`, `vt2-ve-vco2-break`,
+ * `vt2-ventilatory-equivalents`, `vt2-joint-profile`;
  * see README-thresholds.md). Each method reports its estimate, data span, fit and a quality verdict; the
  * consensus needs two agreeing methods for "moderate"/"high" confidence (recalled practice), and the band joins
  * the agreeing methods' spread with a block-bootstrap 10th–90th percentile interval. Reviewer overrides
@@ -305,12 +322,15 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
         ),
       );
   }
-  const core = runMethods(series, agreementFraction);
+  const beyond = options.vt1BeyondVt2S ?? 40;
+  const core = runMethods(series, agreementFraction, beyond);
   const reps = Math.max(0, Math.floor(options.bootstrap ?? 30));
-  const boot = reps > 0 ? bootstrapSeries(series, reps, options.seed ?? 1, agreementFraction) : null;
+  const boot = reps > 0 ? bootstrapSeries(series, reps, options.seed ?? 1, agreementFraction, beyond) : null;
   const bag = options.bootstrapMedian ?? true;
   const vt1 = toEstimate("vt1", core.vt1, core.vt1TimeS, series, test, boot?.vt1 ?? null, bag);
-  const vt2 = toEstimate("vt2", core.vt2, core.vt2TimeS, series, test, boot?.vt2 ?? null, bag);
+  // VT2 keeps the single-pass value: resampling around a 5-bin smoothed series rounds the compensation corner
+  // near the end of the record and pulled the resampled median early (about −2 % on both synthetic models)
+  const vt2 = toEstimate("vt2", core.vt2, core.vt2TimeS, series, test, boot?.vt2 ?? null, false);
   if (vt1.vo2MlMin.value !== null && vt2.vo2MlMin.value !== null && vt1.vo2MlMin.value >= vt2.vo2MlMin.value) {
     issues.push(makeIssue("warning", "vt1-not-below-vt2", "VT1 does not lie below VT2; review both thresholds."));
     vt1.confidence = "low";
@@ -401,7 +421,7 @@ function toEstimate(
     label:
       which === "vt1"
         ? "VT1: consensus of V-slope, modified V-slope and ventilatory equivalents"
-        : "VT2: consensus of VE-vs-VCO2 break and VE/VCO2 with PETCO2",
+        : "VT2: consensus of the joint profile (VE against VCO2 with PETCO2), VE-vs-VCO2 break and VE/VCO2 with PETCO2",
     sourceIds: ["vt-two-methods-agree-recalled", "vt-implementation-choice"],
     window: series.span,
     inputs: { methods: c.methodIds.join(", "), confidence: c.confidence },

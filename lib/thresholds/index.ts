@@ -8,6 +8,7 @@ export * from "./heartRateIndices";
 export * from "./indexTypes";
 export * from "./intensityDomains";
 export * from "./jointVt1";
+export * from "./jointVt2";
 export * from "./lactateThresholds";
 export * from "./measureIndices";
 export * from "./measurePeaks";

@@ -12,6 +12,7 @@ import { modifiedVSlope } from "../../lib/thresholds/modifiedVSlope";
 import { ventilatoryEquivalents } from "../../lib/thresholds/ventilatoryEquivalents";
 import { rcpVeVco2 } from "../../lib/thresholds/rcpVeVco2";
 import { rcpVentilatoryEquivalents } from "../../lib/thresholds/rcpVentilatoryEquivalents";
+import { jointVt2 } from "../../lib/thresholds/jointVt2";
 import { combineEstimates } from "../../lib/thresholds/consensus";
 import { VT_SOURCES } from "../../lib/thresholds/sourcesThresholds";
 import type { ConditionedTest } from "../../lib/signal";
@@ -45,7 +46,7 @@ describe("each method on noise-free synthetic tests", () => {
     }
   });
   it("VT2 methods land within 3 % of the true RCP", () => {
-    for (const m of [rcpVeVco2(series), rcpVentilatoryEquivalents(series)]) {
+    for (const m of [rcpVeVco2(series), rcpVentilatoryEquivalents(series), jointVt2(series)]) {
       expect(m.quality).not.toBe("failed");
       expect(errPct(m.vo2MlMin.value, syn.truth.vt2!.vo2MlMin)).toBeLessThan(3);
     }
@@ -57,6 +58,7 @@ describe("each method on noise-free synthetic tests", () => {
       ventilatoryEquivalents(series),
       rcpVeVco2(series),
       rcpVentilatoryEquivalents(series),
+      jointVt2(series),
     ]) {
       for (const id of m.sourceIds) expect(Object.keys(VT_SOURCES)).toContain(id);
     }
@@ -124,6 +126,7 @@ describe("detectThresholds", () => {
       "vt1-joint-profile",
       "vt2-ve-vco2-break",
       "vt2-ventilatory-equivalents",
+      "vt2-joint-profile",
     ]);
   });
   it("is deterministic for a seed", () => {

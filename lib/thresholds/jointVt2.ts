@@ -1,0 +1,175 @@
+import { buildMethodEstimate, seriesWindow, vo2AtTime } from "./consensus";
+import { segmentedProfile } from "./jointVt1";
+import type { MethodEstimate, MethodQuality, ThresholdSeries } from "./thresholdTypes";
+
+export interface JointVt2Options {
+  /** First time included, s. @default series.span.startS */
+  startS?: number;
+  /** Fewest bins each side of a candidate break. @default 3 */
+  minPointsEachSide?: number;
+  /** Step of the candidate break times, s. @default 5 */
+  stepS?: number;
+  /** Least joint likelihood-ratio statistic (−2 log Λ summed over signals) for a call (our choice). @default 4 */
+  minLr?: number;
+  /** Temper of the profile weights exp(−temperature·ΔL) (our choice, as for VT1). @default 0.5 */
+  temperature?: number;
+  /**
+   * PETCO2 enters from this fraction of the analysed span: it rises in early exercise while VD/VT falls and is
+   * near flat during isocapnic buffering, so a straight line below the break only holds later in the test (our
+   * choice; a line from the ramp start put the break early on both synthetic models). @default 0.3
+   */
+  petco2FromFraction?: number;
+}
+
+/**
+ * VT2 (respiratory compensation point) by a joint profile likelihood over break times (our implementation
+ * choice, source `vt-joint-profile-choice`, on the multisegment regression of Orr et al. 1982, confirmed). One
+ * break time τ is shared by two signals of the respiratory compensation: VE rising out of proportion to VCO2
+ * (VE = a + b·VCO2 + d·max(0, t − τ), d > 0: the VE-against-VCO2 break of Beaver, Wasserman & Whipp 1986,
+ * confirmed, written in time so it can be pooled) and PETCO2 starting to fall (line in time plus a falling hinge;
+ * recalled practice, `vt-rcp-criteria-recalled`). Criterion L(τ) = Σ_s (n_s/2)·log SSE_s(τ) on a 5-s grid (each
+ * signal its own noise variance; prefix sums); value = median of the tempered profile weights exp(−½ ΔL), VO2
+ * from the VO2 trend. Verdict from the likelihood ratio against no break, the signals that bend and the profile's
+ * 10–90 % width. Pooling two noisy signals calls the RCP where each alone is too weak. O(n + K log n) per signal.
+ */
+export function jointVt2(series: ThresholdSeries, options: JointVt2Options = {}): MethodEstimate {
+  const startS = options.startS ?? series.span.startS;
+  const step = options.stepS ?? 5;
+  const minLr = options.minLr ?? 4;
+  const temper = options.temperature ?? 0.5;
+  const win = seriesWindow(series, startS, series.span.endS).filter(
+    (i) => Number.isFinite(series.veLMin[i]) && Number.isFinite(series.vco2MlMin[i]),
+  );
+  const m = options.minPointsEachSide ?? 3;
+  const window = { startS, endS: series.span.endS };
+  const base = {
+    id: "vt2-joint-profile",
+    which: "vt2" as const,
+    label: "Joint profile: one break time shared by VE against VCO2 and PETCO2",
+    series,
+    window,
+    sourceIds: [
+      "vt-joint-profile-choice",
+      "orr-1982-multisegment",
+      "beaver-1986-v-slope",
+      "vt-rcp-criteria-recalled",
+      "vt-implementation-choice",
+    ],
+  };
+  if (win.length < 2 * m + 3) {
+    return buildMethodEstimate({
+      ...base,
+      vo2MlMin: null,
+      timeS: null,
+      fit: { points: win.length },
+      quality: "failed",
+      reasons: [`not determinable: only ${win.length} bins of VE and VCO2 (need ${2 * m + 3})`],
+    });
+  }
+  const tFirst = series.timeS[win[m - 1]];
+  const tLast = series.timeS[win[win.length - m]];
+  const taus: number[] = [];
+  for (let t = tFirst; t <= tLast + 1e-9; t += step) taus.push(t);
+  if (taus.length < 2) taus.push(tLast);
+  const t0 = series.timeS[win[0]];
+  const minutes = (i: number) => (series.timeS[i] - t0) / 60;
+  const signals: { name: string; p: ReturnType<typeof segmentedProfile> }[] = [];
+  {
+    const t = win.map((i) => series.timeS[i]);
+    const p = segmentedProfile(
+      t,
+      win.map((i) => series.veLMin[i]),
+      [win.map(() => 1), win.map((i) => series.vco2MlMin[i] / 1000)],
+      null,
+      taus,
+      "positive",
+    );
+    signals.push({ name: "ve", p });
+  }
+  const petFrom = startS + (options.petco2FromFraction ?? 0.3) * (series.span.endS - startS);
+  const cIdx = win.filter((i) => Number.isFinite(series.petco2MmHg[i]) && series.timeS[i] >= petFrom);
+  if (cIdx.length >= 2 * m + 3) {
+    const p = segmentedProfile(
+      cIdx.map((i) => series.timeS[i]),
+      cIdx.map((i) => series.petco2MmHg[i]),
+      [cIdx.map(() => 1), cIdx.map(minutes)],
+      null,
+      taus,
+      "negative",
+    );
+    signals.push({ name: "petco2", p });
+  }
+  const used = signals.filter((s) => s.p.sseSingle > 0 && Number.isFinite(s.p.sseSingle));
+  const crit = new Float64Array(taus.length);
+  for (const s of used)
+    for (let j = 0; j < taus.length; j++) crit[j] += (s.p.n / 2) * Math.log(Math.max(s.p.sse[j], 1e-12 * s.p.sseSingle));
+  let best = -1;
+  for (let j = 0; j < taus.length; j++) if (Number.isFinite(crit[j]) && (best < 0 || crit[j] < crit[best])) best = j;
+  const fit: Record<string, number | null> = { signals: used.length, candidates: taus.length };
+  if (best < 0 || used.length === 0) {
+    return buildMethodEstimate({
+      ...base,
+      vo2MlMin: null,
+      timeS: null,
+      fit,
+      quality: "failed",
+      reasons: ["not determinable: no signal with a usable two-segment fit"],
+    });
+  }
+  const w = Array.from(crit, (c) => (Number.isFinite(c) ? Math.exp(-temper * (c - crit[best])) : 0));
+  const total = w.reduce((a, b) => a + b, 0);
+  const at = (q: number) => {
+    let acc = 0;
+    for (let j = 0; j < taus.length; j++) {
+      acc += w[j];
+      if (acc >= q * total) return j;
+    }
+    return taus.length - 1;
+  };
+  const jMed = at(0.5);
+  const tau = taus[jMed];
+  let lr = 0;
+  let bending = 0;
+  for (const s of used) {
+    const lrS = s.p.n * Math.log(s.p.sseSingle / Math.max(s.p.sse[jMed], 1e-12 * s.p.sseSingle));
+    fit[`${s.name}LikelihoodRatio`] = lrS;
+    lr += lrS;
+    if (lrS >= 4) bending++;
+  }
+  const vo2At = vo2AtTime(series, tau);
+  const lowS = taus[at(0.1)];
+  const highS = taus[at(0.9)];
+  const widthFraction = (vo2AtTime(series, highS) - vo2AtTime(series, lowS)) / vo2At;
+  Object.assign(fit, {
+    breakS: tau,
+    breakVo2: vo2At,
+    minimumS: taus[best],
+    profileLowS: lowS,
+    profileHighS: highS,
+    profileWidthFraction: widthFraction,
+    likelihoodRatio: lr,
+    signalsBending: bending,
+  });
+  const reasons: string[] = [];
+  let quality: MethodQuality;
+  if (!(lr >= minLr)) {
+    quality = "failed";
+    reasons.push(
+      `not determinable: no shared respiratory compensation (joint likelihood ratio ${lr.toFixed(1)} < ${minLr}; ${bending} of ${used.length} signals bend)`,
+    );
+  } else {
+    reasons.push(
+      `${bending} of ${used.length} signals show the compensation at ${Math.round(tau)} s (joint likelihood ratio ${lr.toFixed(1)}); profile 10–90 % ${Math.round(lowS)}–${Math.round(highS)} s`,
+    );
+    quality = bending >= 2 && widthFraction <= 0.1 ? "good" : bending >= 1 && widthFraction <= 0.25 ? "fair" : "poor";
+    if (quality !== "good") reasons.push(bending < 2 ? "fewer than two signals bend clearly" : "wide profile");
+  }
+  return buildMethodEstimate({
+    ...base,
+    vo2MlMin: quality === "failed" ? null : vo2At,
+    timeS: quality === "failed" ? null : tau,
+    fit,
+    quality,
+    reasons,
+  });
+}
