@@ -77,7 +77,9 @@ export function lineIndexFromFit(
  * VE/VCO2 slope (OLS of VE in L/min on VCO2 in L/min; clinical-reference §5.5) from the start of exercise to
  * VT2 (Ward 2021, secondary) and over the whole exercise phase (FRIEND reference standards, confirmed;
  * the two differ by about 4 units, Healthcare 2023, confirmed); lowest VE/VCO2 over a rolling window
- * (Sun et al. 2002 AJRCCM, confirmed); VE/VCO2 at VT1. One prefix-sum pass: both slopes cost O(1) after O(n).
+ * (Sun et al. 2002 AJRCCM, confirmed); VE/VCO2 at VT1. The "to VT2" slope is fitted on 20-s time-bin means of the
+ * breaths (`toVt2BinS`; breath noise in VCO2 flattens a breath-by-breath OLS slope); the whole-exercise slope stays
+ * breath by breath. One prefix-sum pass for the whole slope; O(n) for the binned one.
  *
  * Degenerate cases: fewer than 10 breaths in a range → not determinable; VT2 not given → the "to VT2" slope
  * is not determinable.

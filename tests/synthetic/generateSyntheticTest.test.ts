@@ -53,6 +53,16 @@ describe("generateSyntheticTest: noise-free output has the built-in properties",
     expect(at(v2).peto2MmHg!).toBeGreaterThan(at(v1).peto2MmHg! + 1);
     expect(Math.abs(at(v2).petco2MmHg! - at(v1).petco2MmHg!)).toBeLessThan(2.5);
   });
+  it("PETO2 bends up at VT1: falling or flat in the 2 min before, rising in the 2 min after (no VD/VT corner there)", () => {
+    const v1 = syn.truth.vt1.timeS;
+    const before = fit(pick(rows, v1 - 120, v1 - 10), "timeS", "peto2MmHg").slope * 60;
+    const after = fit(pick(rows, v1 + 10, v1 + 120), "timeS", "peto2MmHg").slope * 60;
+    // physiology (common practice): PETO2 reaches its nadir near VT1 and rises above it; PETCO2 does not fall there
+    expect(before).toBeLessThanOrEqual(0.05);
+    expect(after).toBeGreaterThan(0.3);
+    expect(after - before).toBeGreaterThan(0.3);
+    expect(fit(pick(rows, v1 + 10, v1 + 120), "timeS", "petco2MmHg").slope).toBeGreaterThanOrEqual(0);
+  });
   it("truth is ordered and matches the spec fractions", () => {
     expect(syn.truth.invented).toBe(true);
     expect(syn.truth.vt1.vo2MlMin).toBeLessThan(syn.truth.vt2!.vo2MlMin);
