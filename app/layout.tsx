@@ -20,6 +20,7 @@ export default function RootLayout({ children }: { children: React.ReactNode }) 
             <Link href="/">Test register</Link>
             <Link href="/compare">Compare tests</Link>
             <Link href="/equations">Reference equations</Link>
+            <Link href="/profiles">Mapping profiles</Link>
             <Link href="/lab">Lab settings</Link>
           </nav>
         </header>

@@ -40,7 +40,7 @@ test("report: edit the draft, keep text through validation, sign, download the P
   // Draft state: prominent DRAFT mark, clinical caution, neutral first text, charts drawn as SVG.
   await expect(page.getByTestId("draft-mark")).toContainText("DRAFT");
   await expect(page.getByTestId("clinical-caution")).toContainText("qualified clinician");
-  await expect(report.section("measurements")).toHaveValue(/Peak VO2 was \d+ mL\/min/);
+  await expect(report.section("results")).toHaveValue(/Peak VO2 \d+ mL\/min/);
   await expect(page.getByTestId("chart-time-course").locator("svg")).toBeVisible();
   await page.screenshot({ path: "reports/screenshots/report-draft.png", fullPage: true });
   const draftPdf = await page.request.get(`/api/tests/${testId}/report/pdf`);
@@ -50,11 +50,12 @@ test("report: edit the draft, keep text through validation, sign, download the P
 
   // Edit, save, reload: the text is kept.
   const text = "Reviewer's interpretation (e2e): effort and data quality checked.\n\nSecond paragraph.";
-  await report.section("interpretation").fill(text);
+  const initialConclusion = await report.section("conclusion").inputValue();
+  await report.section("pathway").fill(text);
   await report.saveDraft();
   await expect(page.getByTestId("draft-saved")).toBeVisible();
   await page.reload();
-  await expect(report.section("interpretation")).toHaveValue(text);
+  await expect(report.section("pathway")).toHaveValue(text);
 
   // Too long: refused with a message, the typed text stays in the box, the saved text is unchanged.
   const tooLong = "x".repeat(4001);
@@ -63,7 +64,7 @@ test("report: edit the draft, keep text through validation, sign, download the P
   await expect(page.getByTestId("section-error-conclusion")).toContainText("at most 4000 characters");
   await expect(report.section("conclusion")).toHaveValue(tooLong);
   await page.reload();
-  await expect(report.section("conclusion")).toHaveValue("To be completed by the reviewing clinician.");
+  await expect(report.section("conclusion")).toHaveValue(initialConclusion);
 
   // Signing needs the attestation.
   await report.sign("Dr E2E Reviewer", false);

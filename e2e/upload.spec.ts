@@ -12,10 +12,10 @@ test("upload a plain-convention CSV and see duration and peak VO2 with the cauti
   );
   await page.waitForURL(/\/tests\/\d+/);
   // Known by construction: highest 30-s average = 2500 mL/min; 2500 / 80 kg = 31.25 mL/kg/min.
-  await expect(page.getByTestId("peak-vo2")).toContainText("2500");
-  await expect(page.getByTestId("peak-vo2-kg")).toContainText("31.3");
-  await expect(page.getByTestId("peak-method")).toContainText("highest 30-s rolling average");
-  await expect(page.getByTestId("duration")).toContainText("11:00");
+  await expect(page.getByTestId("row-peakVo2")).toContainText("2500");
+  await expect(page.getByTestId("row-peakVo2PerKg")).toContainText("31.3");
+  await expect(page.getByTestId("peak-summary")).toContainText("highest 30-s rolling average");
+  await expect(page.getByTestId("peak-summary")).toContainText("Test duration 11:00");
   await expect(page.getByTestId("clinical-caution")).toContainText("qualified clinician");
   await page.screenshot({ path: "reports/screenshots/upload-result.png", fullPage: true });
 });
@@ -43,5 +43,5 @@ test("invalid details keep the uploaded file and explain the problem", async ({ 
   await page.locator('[name="ageY"]').fill("50");
   await page.getByTestId("upload-submit").click();
   await page.waitForURL(/\/tests\/\d+/);
-  await expect(page.getByTestId("peak-vo2")).toContainText("2500");
+  await expect(page.getByTestId("row-peakVo2")).toContainText("2500");
 });

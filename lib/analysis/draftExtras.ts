@@ -12,6 +12,10 @@ export function thresholdMethodWords(t: ThresholdEstimate, result: ThresholdResu
   return `consensus of ${labels.join(", ") || "the available methods"} (confidence ${t.confidence}${band})`;
 }
 
+/** Rounded for prose (display only; the engine keeps full precision). */
+const whole = (x: number | null | undefined): number | undefined =>
+  x === null || x === undefined || !Number.isFinite(x) ? undefined : Math.round(x);
+
 /** Everything the draft text needs beyond the interpretation input. */
 export function draftExtras(record: TestRecord, thresholds: ThresholdResult, indices: IndicesResult): DraftExtras {
   const at2 = indices.atVt2;

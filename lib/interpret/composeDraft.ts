@@ -224,7 +224,9 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   const concl: string[] = [];
   const end = interpretation.path.end;
   if (end) concl.push(`${end.label}.`);
-  if (supported[0]) concl.push(supported[0].statement);
+  // Only moderately or strongly supported patterns reach the conclusion; weak ones stay in the pattern section.
+  const leading = supported.find((p) => p.support === "strong" || p.support === "moderate");
+  if (leading) concl.push(leading.statement);
   for (const s of interpretation.schemes)
     if (s.overall && s.schemeId !== "peak-vo2-grade") concl.push(`${s.name}: ${s.overall.label}.`);
   if (!e.peakConclusionsAllowed) concl.push("Capacity could not be established because effort was submaximal.");

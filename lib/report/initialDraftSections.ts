@@ -7,5 +7,8 @@ import type { ReportSection } from "./reportModel";
  * pattern, schemes, prescription, conclusion). The clinician edits them; they stay a DRAFT until signed.
  */
 export function initialDraftSections(result: AnalysisResult): ReportSection[] {
-  return result.draft.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: [...s.paragraphs] }));
+  // The DRAFT status is shown by the report itself (mark, watermark), not as an editable section.
+  return result.draft.sections
+    .filter((s) => s.id !== "status")
+    .map((s) => ({ id: s.id, title: s.title, paragraphs: [...s.paragraphs] }));
 }

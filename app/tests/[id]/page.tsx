@@ -147,7 +147,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           ))}
         </tbody>
       </table>
-      <p className="how">
+      <p className="how" data-testid="peak-summary">
         Peak values: {pk.vo2MlMin.provenance.label}. Display averaging: {av.label}. Test duration{" "}
         {pk.testDurationS.value !== null ? formatClock(pk.testDurationS.value) : "—"}, exercise{" "}
         {pk.exerciseDurationS.value !== null ? formatClock(pk.exerciseDurationS.value) : "—"}; peak RER {fmt(pk.rerMax, 2)}, peak
