@@ -33,14 +33,14 @@ export function draftExtras(record: TestRecord, thresholds: ThresholdResult, ind
       vt2: thresholdMethodWords(thresholds.vt2, thresholds),
     },
     vt2: at2
-      ? { vo2MlMin: at2.vo2MlMin.value ?? undefined, hrBpm: at2.hrBpm.value ?? undefined, workW: at2.workW.value ?? undefined }
+      ? { vo2MlMin: whole(at2.vo2MlMin.value), hrBpm: whole(at2.hrBpm.value), workW: whole(at2.workW.value) }
       : undefined,
     domains: indices.domains.domains.map((d) => ({
       name: d.label,
-      hrFromBpm: d.hrBpm.lower?.value ?? undefined,
-      hrToBpm: d.hrBpm.upper?.value ?? undefined,
-      workFromW: d.workW.lower?.value ?? undefined,
-      workToW: d.workW.upper?.value ?? undefined,
+      hrFromBpm: whole(d.hrBpm.lower?.value),
+      hrToBpm: whole(d.hrBpm.upper?.value),
+      workFromW: whole(d.workW.lower?.value),
+      workToW: whole(d.workW.upper?.value),
     })),
   };
 }
