@@ -31,7 +31,9 @@ if (built < sources) {
   execFileSync(process.execPath, [nextBin, "build"], { stdio: "inherit" });
 }
 const port = process.env.PORT ?? "3000";
+// The app has no log-in: it listens on this machine only unless HOST says otherwise.
+const host = process.env.HOST ?? "127.0.0.1";
 console.log(`cpet-desk: serving http://localhost:${port} (database: ${process.env.CPET_DB ?? "data/cpet-desk.sqlite"})`);
-const child = spawn(process.execPath, [nextBin, "start", "-p", port], { stdio: "inherit" });
+const child = spawn(process.execPath, [nextBin, "start", "-p", port, "-H", host], { stdio: "inherit" });
 for (const sig of ["SIGINT", "SIGTERM"]) process.on(sig, () => child.kill(sig));
 child.on("exit", (code) => process.exit(code ?? 0));
