@@ -8,7 +8,14 @@ import {
   type ThresholdEstimate,
   type ThresholdPoint,
 } from "../thresholds";
-import { compareWithPredicted, DEFAULT_LAB_SETTINGS, predictAll, type PredictedQuantity, type PredictedSet } from "../predicted";
+import {
+  assessWeightBasis,
+  compareWithPredicted,
+  DEFAULT_LAB_SETTINGS,
+  predictAll,
+  type PredictedQuantity,
+  type PredictedSet,
+} from "../predicted";
 import { composeDraft, interpret } from "../interpret";
 import type { AnalysisResult, AnalysisSettings, PredictedComparisonRow, TestRecord } from "./types";
 import { toInterpretInput } from "./toInterpretInput";
@@ -45,6 +52,8 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
     bloodGases: record.bloodGases,
   });
   const comparisons = compareAll(indices, predicted);
+  const peakVo2 = indices.peaks.vo2MlMin.value;
+  const weightBasis = peakVo2 !== null ? assessWeightBasis(peakVo2, record.patient, record.ergometer, { labSettings }) : null;
   const peakRr = peakOverWindow(test.clean, "rrBrMin", { unit: "1/min", windowS: settings.peakWindowS ?? 30 });
   const interpretInput = toInterpretInput(record, thresholds, indices, predicted, comparisons, peakRr.value);
   const interpretation = interpret(interpretInput, settings.interpret ?? {});
@@ -56,6 +65,7 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
     ...thresholds.issues,
     ...indices.issues,
     ...interpretation.issues,
+    ...(weightBasis?.issues ?? []),
   ];
   return {
     engineVersion: ENGINE_VERSION,
@@ -65,6 +75,7 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
     indices,
     predicted,
     comparisons,
+    weightBasis,
     interpretInput,
     interpretation,
     draft,

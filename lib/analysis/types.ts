@@ -2,7 +2,7 @@ import type { Ergometer, Issue, Measured, Patient, Spirometry } from "../core";
 import type { BloodGasSample, BreathTable, ColumnDecision, LactateSample } from "../breath";
 import type { ConditionedTest, ConditioningSettings } from "../signal";
 import type { IndicesResult, MvvChoice, ThresholdOverride, ThresholdResult } from "../thresholds";
-import type { LabSettings, PredictedSet, PredictedValue } from "../predicted";
+import type { LabSettings, PredictedSet, PredictedValue, WeightBasisAssessment } from "../predicted";
 import type { DraftReport, InterpretInput, InterpretSettings, Interpretation, ReferralQuestion } from "../interpret";
 
 export type { ReferralQuestion } from "../interpret";
@@ -80,6 +80,8 @@ export interface AnalysisResult {
   indices: IndicesResult;
   predicted: PredictedSet;
   comparisons: PredictedComparisonRow[];
+  /** Peak VO2 read on actual and on predicted (ideal) weight: does the basis change the conclusion? (obesity) */
+  weightBasis: WeightBasisAssessment | null;
   interpretInput: InterpretInput;
   interpretation: Interpretation;
   draft: DraftReport;

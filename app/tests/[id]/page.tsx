@@ -147,6 +147,23 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           ))}
         </tbody>
       </table>
+      {result.weightBasis?.actual && result.weightBasis.ideal ? (
+        <p
+          className={result.weightBasis.changesConclusion ? "sev-warning" : "how"}
+          data-testid="weight-basis"
+          style={{ padding: "0.3rem 0.5rem" }}
+        >
+          Weight basis (BMI {result.weightBasis.bmiKgM2?.toFixed(1) ?? "—"} kg/m²): on actual weight{" "}
+          {result.weightBasis.actual.weightKg.toFixed(0)} kg peak VO2 is{" "}
+          {result.weightBasis.actual.percentPredicted?.toFixed(0) ?? "—"} % predicted (
+          {result.weightBasis.actual.measuredMlKgMin.toFixed(1)} mL/kg/min); on predicted weight{" "}
+          {result.weightBasis.ideal.weightKg.toFixed(0)} kg it is {result.weightBasis.ideal.percentPredicted?.toFixed(0) ?? "—"} %
+          ({result.weightBasis.ideal.measuredMlKgMin.toFixed(1)} mL/kg/min).
+          {result.weightBasis.changesConclusion
+            ? " The two bases lead to different readings: consider the patient's body composition."
+            : ""}
+        </p>
+      ) : null}
       <p className="how" data-testid="peak-summary">
         Peak values: {pk.vo2MlMin.provenance.label}. Display averaging: {av.label}. Test duration{" "}
         {pk.testDurationS.value !== null ? formatClock(pk.testDurationS.value) : "—"}, exercise{" "}

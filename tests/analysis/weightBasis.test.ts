@@ -1,0 +1,25 @@
+import fs from "node:fs";
+import path from "node:path";
+import { describe, expect, it } from "vitest";
+import { analyse, buildRecord } from "../../lib/analysis";
+
+describe("analyse: weight basis for an obese patient", () => {
+  it("reads peak VO2 on actual and on predicted weight and flags obesity (INVENTED patient on an invented file)", async () => {
+    const bytes = new Uint8Array(fs.readFileSync(path.resolve(__dirname, "../fixtures/cases/normal-adult.csv")));
+    // Invented: man 45 y, 170 cm, 120 kg → BMI 120 / 1.70² = 41.5 kg/m² (≥ 30 = obesity, WHO, common practice).
+    const built = await buildRecord({
+      bytes,
+      fileName: "normal-adult.csv",
+      patient: { sex: "male", ageY: 45, heightCm: 170, weightKg: 120 },
+      ergometer: "cycle",
+    });
+    const r = analyse(built.record!);
+    const wb = r.weightBasis!;
+    expect(wb.bmiKgM2).toBeCloseTo(41.52, 2);
+    // Predicted (ideal) weight for men 0.79·H − 60.7 (Hansen/Wasserman, secondary): 0.79·170 − 60.7 = 73.6 kg.
+    expect(wb.predictedWeightKg).toBeCloseTo(73.6, 6);
+    expect(wb.ideal!.measuredMlKgMin).toBeCloseTo(r.indices.peaks.vo2MlMin.value! / 73.6, 6);
+    expect(wb.actual!.measuredMlKgMin).toBeCloseTo(r.indices.peaks.vo2MlMin.value! / 120, 6);
+    expect(r.issues.map((i) => i.code)).toContain("obesity-weight-basis");
+  });
+});
