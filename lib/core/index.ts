@@ -3,3 +3,4 @@ export * from "./source";
 export * from "./measured";
 export * from "./patient";
 export * from "./sources";
+export * from "./cautions";

@@ -1,3 +1,4 @@
+import { DRAFT_CAUTION } from "../core/cautions";
 import type { SerialComparison } from "./compareTests";
 import { formatValue, unique } from "./format";
 import type { InterpretInput, Interpretation, ReferralQuestion } from "./types";
@@ -44,8 +45,9 @@ export interface DraftReport {
   sourceIds: string[];
 }
 
-export const DRAFT_BANNER = "DRAFT — not a final report until reviewed and signed by a qualified clinician";
-export const DRAFT_CAUTION =
+/** The draft mark (one text for the whole product, lib/core/cautions.ts). */
+export const DRAFT_BANNER = DRAFT_CAUTION;
+export const COMPOSED_TEXT_CAUTION =
   "This text was composed automatically from measured values and published cut-offs. Results must be reviewed by a qualified clinician; local protocols and licensed practice prevail. Cut-offs marked as recalled have not been checked against the primary publication.";
 
 const REFERRAL_TEXT: Record<ReferralQuestion, string> = {
@@ -233,7 +235,7 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   sections.push({ id: "conclusion", title: "Conclusion", paragraphs: concl });
 
   const nonDefault = interpretation.settingsUsed.filter((s) => !s.isDefault);
-  const caution = [DRAFT_CAUTION];
+  const caution = [COMPOSED_TEXT_CAUTION];
   if (nonDefault.length)
     caution.push(`Lab choices differing from the defaults: ${nonDefault.map((s) => `${s.label}: ${s.optionLabel}`).join("; ")}.`);
   sections.push({ id: "caution", title: "Caution", paragraphs: caution });
@@ -242,7 +244,7 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     status: "draft",
     banner: DRAFT_BANNER,
     sections: [{ id: "status", title: DRAFT_BANNER, paragraphs: [] }, ...sections],
-    caution: DRAFT_CAUTION,
+    caution: COMPOSED_TEXT_CAUTION,
     sourceIds: unique([...interpretation.sourceIds, ...(extras.comparison?.sourceIds ?? [])]),
   };
 }

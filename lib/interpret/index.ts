@@ -4,7 +4,7 @@ export { interpret, makeContext } from "./interpret";
 export {
   composeDraft,
   DRAFT_BANNER,
-  DRAFT_CAUTION,
+  COMPOSED_TEXT_CAUTION,
   type DraftExtras,
   type DraftReport,
   type DraftSection,

@@ -9,7 +9,7 @@ describe("draft report text", () => {
   it("is a draft, says so in the text, and carries the clinician-review caution", () => {
     const d = composeDraft(fx.input, r);
     expect(d.status).toBe("draft");
-    expect(d.banner).toBe("DRAFT — not a final report until reviewed and signed by a qualified clinician");
+    expect(d.banner).toBe("DRAFT — not a final report until it has been reviewed and signed by a qualified clinician.");
     expect(d.sections[0].title).toBe(DRAFT_BANNER);
     const caution = d.sections.find((s) => s.id === "caution")!.paragraphs.join(" ");
     expect(caution).toMatch(/reviewed by a qualified clinician/);
