@@ -74,7 +74,17 @@ export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats
         method: "ve-vco2-slope-to-vt2",
         errorPct: sl === null ? null : (100 * Math.abs(sl - syn.truth.veVco2SlopeToVt2)) / syn.truth.veVco2SlopeToVt2,
       });
-    } else if (syn.truth.vt2) rows.push({ id: c.id, noise, which: "vt2", method: "ve-vco2-slope-to-vt2", errorPct: null });
+    } else if (syn.truth.vt2) {
+      // VT2 not found: the slope module still reports the whole-exercise slope when the test shows no compensation
+      const sl = veVco2Slope(test, { vt2: null }).slopeToVt2.slope.value;
+      rows.push({
+        id: c.id,
+        noise,
+        which: "vt2",
+        method: "ve-vco2-slope-to-vt2",
+        errorPct: sl === null ? null : (100 * Math.abs(sl - syn.truth.veVco2SlopeToVt2)) / syn.truth.veVco2SlopeToVt2,
+      });
+    }
     for (const which of ["vt1", "vt2"] as const) {
       const truth = syn.truth[which];
       if (!truth) continue;

@@ -84,7 +84,8 @@ export interface ConsensusOptions {
   /**
    * When given, the value is the weighted median of every usable method (weight by id, default 1; "poor"
    * fits count half) instead of the agreeing group's median — a robust pooled value (our choice); the
-   * confidence still follows agreement. @default undefined
+   * confidence still follows agreement. A key `"<id>:<quality>"` (e.g. `"vt1-joint-profile:good"`) overrides the
+   * id's weight for fits with that verdict. @default undefined
    */
   weights?: Record<string, number>;
 }
@@ -150,7 +151,9 @@ export function combineEstimates(methods: readonly MethodEstimate[], options: Co
   const pooled = options.weights
     ? weightedMedian(
         usable.map(v),
-        usable.map((m) => (options.weights?.[m.id] ?? 1) * (m.quality === "poor" ? 0.5 : 1)),
+        usable.map(
+          (m) => (options.weights?.[`${m.id}:${m.quality}`] ?? options.weights?.[m.id] ?? 1) * (m.quality === "poor" ? 0.5 : 1),
+        ),
       )
     : NaN;
   if (best.length >= 2) {

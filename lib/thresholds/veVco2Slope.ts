@@ -28,6 +28,19 @@ export interface VeVco2Options {
    * (chosen on the synthetic bank, checked on the variant model). Stage tables are never binned. @default 20
    */
   toVt2BinS?: number;
+  /**
+   * With no VT2 given, report the whole-exercise slope as the slope "to VT2" when the test shows no respiratory
+   * compensation: below the RCP the two are the same line. "No compensation" = VE/VCO2 in the last 30 s no more
+   * than `noCompensationRatioRise` above its lowest 30-s value AND PETCO2 in the last 30 s no more than
+   * `noCompensationPetco2FallMmHg` below its highest 30-s value (RCP criteria: VE/VCO2 rising, PETCO2 falling —
+   * recalled practice; the cut-offs are our choice: on the synthetic banks every test with a true RCP that the
+   * methods missed showed a rise ≥ 5.9 %, tests without an RCP ≤ 3 %). Needs PETCO2. @default true
+   */
+  wholeExerciseWhenNoCompensation?: boolean;
+  /** Largest VE/VCO2 rise from nadir to the end still read as no compensation (fraction). @default 0.035 */
+  noCompensationRatioRise?: number;
+  /** Largest PETCO2 fall from its highest 30-s mean to the end still read as no compensation, mmHg. @default 1 */
+  noCompensationPetco2FallMmHg?: number;
 }
 
 export interface VeVco2Result {
@@ -114,9 +127,37 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
       averaging: "breath by breath (artefact-cleaned)",
     },
   );
+  const binS = test.shape === "stage" ? 0 : (options.toVt2BinS ?? 20);
   let slopeToVt2: LineIndex;
-  if (!vt2) {
-    const reason = "VT2 (respiratory compensation point) not given";
+  const noComp =
+    !vt2 && span && binS > 0 && (options.wholeExerciseWhenNoCompensation ?? true) ? compensationSigns(test, span, pairs) : null;
+  const ratioRiseMax = options.noCompensationRatioRise ?? 0.035;
+  const petFallMax = options.noCompensationPetco2FallMmHg ?? 1;
+  if (
+    !vt2 &&
+    span &&
+    noComp &&
+    noComp.ratioRise <= ratioRiseMax &&
+    noComp.petco2FallMmHg !== null &&
+    noComp.petco2FallMmHg <= petFallMax &&
+    x.length >= minPoints
+  ) {
+    // no respiratory compensation in the test: the slope below the RCP is the whole-exercise line
+    const why =
+      `no respiratory compensation: VE/VCO2 ends ${(100 * noComp.ratioRise).toFixed(1)} % above its nadir ` +
+      `(≤ ${(100 * ratioRiseMax).toFixed(1)} %) and PETCO2 ${noComp.petco2FallMmHg.toFixed(1)} mmHg below its ` +
+      `highest 30-s mean (≤ ${petFallMax} mmHg), so the slope below the RCP is the whole-exercise slope`;
+    const prov = provenanceOf(
+      "ve-vco2-slope-to-vt2-no-compensation",
+      `VE/VCO2 slope below the RCP: whole exercise phase (${why})`,
+      ["ward-2021", "friend-ve-vco2-slope", "vt-rcp-criteria-recalled", "vt-implementation-choice", "robergs-2010"],
+      { window: span, inputs: { ratioRise: noComp.ratioRise, petco2FallMmHg: noComp.petco2FallMmHg } },
+    );
+    slopeToVt2 = binnedLine(pairs.t, x, pairs.y, span.startS, x.length, binS, prov, units);
+  } else if (!vt2) {
+    const reason = noComp
+      ? `VT2 (respiratory compensation point) not given and the test shows signs of compensation (VE/VCO2 ends ${(100 * noComp.ratioRise).toFixed(1)} % above its nadir${noComp.petco2FallMmHg === null ? ", PETCO2 missing" : `, PETCO2 ${noComp.petco2FallMmHg.toFixed(1)} mmHg below its highest`}): set VT2 by review`
+      : "VT2 (respiratory compensation point) not given";
     slopeToVt2 = {
       slope: notDetermined("1", toProv, reason),
       intercept: notDetermined("L/min", toProv, reason),
@@ -126,27 +167,17 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
   } else {
     let k = 0;
     while (k < pairs.t.length && pairs.t[k] <= vt2.timeS) k++;
-    const binS = test.shape === "stage" ? 0 : (options.toVt2BinS ?? 20);
     if (binS > 0 && span && k >= minPoints) {
-      // OLS on time-bin means of the same breaths; n stays the number of breaths used
-      const bins = binByTime(pairs.t.slice(0, k), [x.slice(0, k), pairs.y.slice(0, k)], {
-        startS: span.startS,
-        endS: pairs.t[k - 1] + 1e-9,
+      slopeToVt2 = binnedLine(
+        pairs.t,
+        x,
+        pairs.y,
+        span.startS,
+        k,
         binS,
-      });
-      const bx: number[] = [];
-      const by: number[] = [];
-      for (let b = 0; b < bins.counts.length; b++)
-        if (bins.counts[b] > 0 && Number.isFinite(bins.means[0][b]) && Number.isFinite(bins.means[1][b])) {
-          bx.push(bins.means[0][b]);
-          by.push(bins.means[1][b]);
-        }
-      const binProv: Provenance = {
-        ...toProv,
-        sourceIds: [...toProv.sourceIds, "robergs-2010"],
-        averaging: `${binS}-s time-bin means of the artefact-cleaned breaths (${bx.length} bins)`,
-      };
-      slopeToVt2 = { ...lineIndexFromFit(new PrefixSums(bx, by), 0, bx.length, units, binProv, 3), n: k };
+        { ...toProv, sourceIds: [...toProv.sourceIds, "robergs-2010"] },
+        units,
+      );
     } else slopeToVt2 = lineIndexFromFit(sums, 0, k, units, toProv, minPoints);
   }
 
@@ -172,4 +203,63 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
       makeIssue("info", "no-ve-vco2", "No breaths with both VE and VCO2 in exercise: VE/VCO2 indices not determinable."),
     );
   return { slopeToVt2, slopeWholeExercise, nadir, atVt1, issues };
+}
+
+/** OLS of y on x over the time-bin means of the first k breaths; n stays the number of breaths used. */
+function binnedLine(
+  t: number[],
+  x: number[],
+  y: number[],
+  startS: number,
+  k: number,
+  binS: number,
+  prov: Provenance,
+  units: { slope: string; intercept: string },
+): LineIndex {
+  const bins = binByTime(t.slice(0, k), [x.slice(0, k), y.slice(0, k)], { startS, endS: t[k - 1] + 1e-9, binS });
+  const bx: number[] = [];
+  const by: number[] = [];
+  for (let b = 0; b < bins.counts.length; b++)
+    if (bins.counts[b] > 0 && Number.isFinite(bins.means[0][b]) && Number.isFinite(bins.means[1][b])) {
+      bx.push(bins.means[0][b]);
+      by.push(bins.means[1][b]);
+    }
+  const binProv: Provenance = {
+    ...prov,
+    averaging: `${binS}-s time-bin means of the artefact-cleaned breaths (${bx.length} bins)`,
+  };
+  return { ...lineIndexFromFit(new PrefixSums(bx, by), 0, bx.length, units, binProv, 3), n: k };
+}
+
+/**
+ * Signs of respiratory compensation over the exercise span from 30-s window means (10-s steps, O(n log n)):
+ * VE/VCO2 in the last 30 s relative to its lowest window (fraction) and PETCO2 in the last 30 s below its highest
+ * window (mmHg; null without PETCO2).
+ */
+function compensationSigns(
+  test: ConditionedTest,
+  span: { startS: number; endS: number },
+  pairs: { t: number[] },
+): { ratioRise: number; petco2FallMmHg: number | null } | null {
+  if (pairs.t.length < 10 || span.endS - span.startS < 90) return null;
+  const ve = new WindowMeans(fieldSeries(test.clean, "veLMin", span));
+  const vco2 = new WindowMeans(fieldSeries(test.clean, "vco2MlMin", span));
+  const petSeries = fieldSeries(test.clean, "petco2MmHg", span);
+  const pet = petSeries.t.length >= 10 ? new WindowMeans(petSeries) : null;
+  const ratio = (a: number, b: number) => ve.mean(a, b).mean / vco2.mean(a, b).mean;
+  let nadir = Infinity;
+  let petMax = -Infinity;
+  for (let a = span.startS; a + 30 <= span.endS + 1e-9; a += 10) {
+    const r = ratio(a, a + 30);
+    if (Number.isFinite(r)) nadir = Math.min(nadir, r);
+    const p = pet?.mean(a, a + 30).mean;
+    if (p !== undefined && Number.isFinite(p)) petMax = Math.max(petMax, p);
+  }
+  const endRatio = ratio(span.endS - 30, span.endS);
+  if (!Number.isFinite(nadir) || !Number.isFinite(endRatio)) return null;
+  const endPet = pet?.mean(span.endS - 30, span.endS).mean;
+  return {
+    ratioRise: endRatio / nadir - 1,
+    petco2FallMmHg: endPet !== undefined && Number.isFinite(endPet) && Number.isFinite(petMax) ? petMax - endPet : null,
+  };
 }

@@ -1,0 +1,56 @@
+import { describe, it, expect } from "vitest";
+import { conditionTable } from "../../lib/signal";
+import { generateSyntheticTest, SYNTHETIC_PRESETS } from "../../lib/synthetic";
+import { veVco2Slope } from "../../lib/thresholds/veVco2Slope";
+
+// Synthetic tests (invented data; truth known by construction). The ventilatory-limitation preset has no
+// respiratory compensation (VE near MVV, truth.vt2 = null), so its VE/VCO2 slope "below the RCP" is the line over
+// the whole ramp, and truth.veVco2SlopeToVt2 is the noise-free OLS from ramp start to ramp end. The normal-adult
+// preset has an RCP: without a VT2 the slope must stay not determinable (signs of compensation present).
+const preset = (id: string) => {
+  const p = SYNTHETIC_PRESETS.find((q) => q.id === id);
+  if (!p) throw new Error(`preset ${id} missing`);
+  return p.spec;
+};
+
+describe("VE/VCO2 slope below the RCP when the test shows no compensation", () => {
+  // Measured on 20 seeds: low noise 20/20 within ±5 % (worst −3.4 %), moderate 18/20 (worst −6.0 %); the rule
+  // fired on all 40. Bounds below are those levels.
+  for (const [noise, minWithin] of [
+    ["low", 20],
+    ["moderate", 18],
+  ] as const) {
+    it(`no RCP (${noise} noise, 20 seeds): whole-exercise slope reported, ≥ ${minWithin}/20 within ±5 % of truth, labelled`, () => {
+      let within = 0;
+      for (let seed = 1; seed <= 20; seed++) {
+        const syn = generateSyntheticTest({ ...preset("ventilatory-limitation"), noise }, seed);
+        expect(syn.truth.vt2).toBeNull();
+        const s = veVco2Slope(conditionTable(syn.table), { vt2: null }).slopeToVt2.slope;
+        expect(s.value).not.toBeNull();
+        const err = Math.abs((s.value as number) / syn.truth.veVco2SlopeToVt2 - 1);
+        expect(err).toBeLessThanOrEqual(0.08);
+        if (err <= 0.05) within++;
+        expect(s.provenance.method).toBe("ve-vco2-slope-to-vt2-no-compensation");
+        expect(s.provenance.label).toContain("no respiratory compensation");
+        expect(s.provenance.sourceIds).toContain("vt-rcp-criteria-recalled");
+      }
+      expect(within).toBeGreaterThanOrEqual(minWithin);
+    });
+  }
+
+  it("with an RCP in the data and no VT2 given, stays not determinable and says why", () => {
+    for (const seed of [1, 2, 3]) {
+      const syn = generateSyntheticTest({ ...preset("normal-adult"), noise: "moderate" }, seed);
+      expect(syn.truth.vt2).not.toBeNull();
+      const s = veVco2Slope(conditionTable(syn.table), { vt2: null }).slopeToVt2.slope;
+      expect(s.value).toBeNull();
+      expect(s.reason).toContain("signs of compensation");
+    }
+  });
+
+  it("can be switched off", () => {
+    const syn = generateSyntheticTest({ ...preset("ventilatory-limitation"), noise: "low" }, 1);
+    const s = veVco2Slope(conditionTable(syn.table), { vt2: null, wholeExerciseWhenNoCompensation: false }).slopeToVt2.slope;
+    expect(s.value).toBeNull();
+  });
+});
