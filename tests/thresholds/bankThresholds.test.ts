@@ -26,10 +26,10 @@ describe(`threshold accuracy, main generator (${size} tests)`, () => {
   });
 
   // VT1 error goals at moderate noise (median ≤ 4 %, P90 ≤ 10 %) are NOT met on this bank (measured with 20
-  // resamples: median ≈ 5.1 %, P90 ≈ 12.2 %; with 40 resamples 4.5 % / 11.7 %). These bounds guard the level reached.
-  it("keeps VT1 at moderate noise at the level reached (median ≤ 5.5 %, P90 ≤ 12.5 %)", () => {
+  // resamples: median ≈ 4.8 %, P90 ≈ 12.2 %). These bounds guard the level reached.
+  it("keeps VT1 at moderate noise at the level reached (median ≤ 5 %, P90 ≤ 12.5 %)", () => {
     const s = stat(main, "vt1-consensus", "moderate");
-    expect(s.medianPct).toBeLessThanOrEqual(5.5);
+    expect(s.medianPct).toBeLessThanOrEqual(5);
     expect(s.p90Pct).toBeLessThanOrEqual(12.5);
   });
 
@@ -51,10 +51,11 @@ describe(`threshold accuracy, main generator (${size} tests)`, () => {
   });
 
   // Goal: VE/VCO2 slope to the detected RCP within ±5 % of truth in 90 % of tests (no-calls count as misses) — NOT
-  // met on this bank (≈ 81 %: 5 % VT2 no-calls, the rest narrow VCO2 ranges and late RCP estimates); guarded here.
-  it("keeps the VE/VCO2 slope to RCP within ±5 % of truth in ≥ 79 % of tests at moderate noise (≥ 92 % at low)", () => {
-    expect(stat(main, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(79);
-    expect(stat(main, "ve-vco2-slope-to-vt2", "low").within5Pct).toBeGreaterThanOrEqual(92);
+  // met on this bank (≈ 83 %: 5 % VT2 no-calls, the rest narrow VCO2 ranges with autocorrelated breath noise, where
+  // even the true RCP gives ≈ 89 %, and early RCP estimates); guarded here.
+  it("keeps the VE/VCO2 slope to RCP within ±5 % of truth in ≥ 82 % of tests at moderate noise (≥ 93 % at low)", () => {
+    expect(stat(main, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(82);
+    expect(stat(main, "ve-vco2-slope-to-vt2", "low").within5Pct).toBeGreaterThanOrEqual(93);
   });
 
   it("meets the VT1 median goal (≤ 4 %) at low noise", () => {
@@ -68,14 +69,15 @@ describe(`threshold accuracy, independent variant model (${variantSize} tests)`,
     expect(stat(variant, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(4);
   });
 
-  // 92 % on this 150-test bank; 89 % on the 240-test bank of scripts/threshold-bank.ts (borderline).
+  // 92 % on this 150-test bank; 90 % on the 240-test bank of scripts/threshold-bank.ts (borderline).
   it("meets the VE/VCO2 slope goal: within ±5 % of truth in ≥ 90 % of tests at moderate noise", () => {
     expect(stat(variant, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(90);
   });
 
-  it("keeps VT1 at moderate noise at the level reached (median ≤ 5 %, P90 ≤ 13 %; goal median ≤ 4 %, P90 ≤ 10 % not met)", () => {
+  // measured: median 4.4 %, P90 12.3 % on this 150-test bank (3.7 / 11.2 % on the 240-test bank of the script)
+  it("keeps VT1 at moderate noise at the level reached (median ≤ 4.5 %, P90 ≤ 13 %; goal median ≤ 4 %, P90 ≤ 10 % not met)", () => {
     const s = stat(variant, "vt1-consensus", "moderate");
-    expect(s.medianPct).toBeLessThanOrEqual(5);
+    expect(s.medianPct).toBeLessThanOrEqual(4.5);
     expect(s.p90Pct).toBeLessThanOrEqual(13);
   });
 });

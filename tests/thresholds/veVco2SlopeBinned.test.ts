@@ -16,7 +16,11 @@ describe("VE/VCO2 slope to VT2 on 20-s bin means", () => {
     const truth = syn.truth.veVco2SlopeToVt2;
     const binned = veVco2Slope(test, { vt2 }).slopeToVt2;
     const breath = veVco2Slope(test, { vt2, toVt2BinS: 0 }).slopeToVt2;
-    return { truth, binned, breath };
+    const span = test.exercise!;
+    const times = test.clean
+      .filter((b) => b.timeS >= span.startS && b.timeS <= span.endS && Number.isFinite(b.veLMin) && Number.isFinite(b.vco2MlMin))
+      .map((b) => b.timeS);
+    return { truth, binned, breath, vt2S: vt2.timeS, times };
   });
 
   it("is less biased than breath-by-breath OLS (mean signed error closer to 0, breath OLS flattened)", () => {
@@ -28,7 +32,10 @@ describe("VE/VCO2 slope to VT2 on 20-s bin means", () => {
 
   it("keeps the breath count as n and says how it averaged", () => {
     for (const r of runs) {
-      expect(r.binned.n).toBe(r.breath.n);
+      // n = breaths up to the refined corner of the two-line fit (searched within ±30 s of VT2)
+      const corner = r.binned.slope.provenance.inputs?.cornerS as number;
+      expect(Math.abs(corner - r.vt2S)).toBeLessThanOrEqual(30);
+      expect(r.binned.n).toBe(r.times.filter((t) => t <= corner).length);
       expect(r.binned.slope.provenance.averaging).toMatch(/20-s time-bin means/);
       expect(r.binned.slope.provenance.sourceIds).toContain("robergs-2010");
     }

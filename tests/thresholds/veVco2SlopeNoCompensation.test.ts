@@ -32,7 +32,7 @@ describe("VE/VCO2 slope below the RCP when the test shows no compensation", () =
         if (err <= 0.05) within++;
         expect(s.provenance.method).toBe("ve-vco2-slope-to-vt2-no-compensation");
         expect(s.provenance.label).toContain("no respiratory compensation");
-        expect(s.provenance.sourceIds).toContain("vt-rcp-criteria-recalled");
+        expect(s.provenance.sourceIds).toContain("common-practice");
       }
       expect(within).toBeGreaterThanOrEqual(minWithin);
     });
