@@ -349,7 +349,11 @@ function cornerRefinedLine(
   if (!best) return null;
   let my = 0;
   let n = 0;
-  for (let i = 0; i < bx.length; i++) if (bx[i] <= best.xc) ((my += by[i]), n++);
+  for (let i = 0; i < bx.length; i++)
+    if (bx[i] <= best.xc) {
+      my += by[i];
+      n++;
+    }
   my /= n;
   let ssr = 0;
   let sst = 0;
