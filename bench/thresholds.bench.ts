@@ -7,6 +7,7 @@ import { importBreathFile } from "../lib/breath";
 import { conditionTable } from "../lib/signal";
 import { breathTableToCsv, generateSyntheticTest } from "../lib/synthetic";
 import { detectThresholds } from "../lib/thresholds/detectThresholds";
+import { veVco2Slope } from "../lib/thresholds/veVco2Slope";
 
 async function main(): Promise<void> {
   // a long, slow ramp so the record holds at least 2 000 breaths; then cut to exactly 2 000
@@ -41,6 +42,10 @@ async function main(): Promise<void> {
   const detect50 = await time("detectThresholds, 50 block-bootstrap resamples", 10, () =>
     detectThresholds(test, { bootstrap: 50 }),
   );
+  const r20 = detectThresholds(test, { bootstrap: 20 });
+  const vt2 = r20.vt2.timeS !== null ? { timeS: r20.vt2.timeS, vo2MlMin: r20.vt2.vo2MlMin.value ?? 0 } : null;
+  const slope = await time("veVco2Slope (corner-refined slope to VT2)", 50, () => veVco2Slope(test, { vt2 }));
+  console.log(`ratio veVco2Slope/parse: ${(slope / parse).toFixed(2)}×`);
   console.log(
     `ratio detect/parse: no resampling ${(detect0 / parse).toFixed(2)}×, 20 resamples (engine default call) ${(detect20 / parse).toFixed(2)}×, 30 resamples ${(detect30 / parse).toFixed(2)}×, 50 resamples ${(detect50 / parse).toFixed(2)}×`,
   );

@@ -101,8 +101,10 @@ export function lineIndexFromFit(
  * VT2 (Ward 2021, secondary) and over the whole exercise phase (FRIEND reference standards, confirmed;
  * the two differ by about 4 units, Healthcare 2023, confirmed); lowest VE/VCO2 over a rolling window
  * (Sun et al. 2002 AJRCCM, confirmed); VE/VCO2 at VT1. The "to VT2" slope is fitted on 20-s time-bin means of the
- * breaths (`toVt2BinS`; breath noise in VCO2 flattens a breath-by-breath OLS slope); the whole-exercise slope stays
- * breath by breath. One prefix-sum pass for the whole slope; O(n) for the binned one.
+ * breaths (`toVt2BinS`; breath noise in VCO2 flattens a breath-by-breath OLS slope) as the lower line of a continuous
+ * two-line fit with its corner within ±30 s of VT2 (`cornerSearchS`); with no VT2 and no sign of respiratory
+ * compensation it is the whole-exercise line, labelled so (`wholeExerciseWhenNoCompensation`). The whole-exercise
+ * slope stays breath by breath. One prefix-sum pass for the whole slope; O(n) for the binned one.
  *
  * Degenerate cases: fewer than 10 breaths in a range → not determinable; VT2 not given → the "to VT2" slope
  * is not determinable.
