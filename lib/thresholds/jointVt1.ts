@@ -18,7 +18,8 @@ export interface JointVt1Options {
 /**
  * Profile of the residual sum of squares of y = Σ β_j·base_j + d·u·max(0, t − τ) over candidate break
  * times τ (least squares with the break fixed; Orr et al. 1982 search the break at the least pooled SSE,
- * confirmed). Points must be in ascending t. O(n·p² + K·(log n + p³)) with suffix sums. When the best hinge
+ * confirmed). Points must be in ascending t. O(n·p² + K·(log n + p²)) with suffix sums and the
+ * partial-regression identity. When the best hinge
  * coefficient has the wrong sign the profile takes the no-break SSE (constrained fit).
  */
 export function segmentedProfile(
@@ -66,9 +67,18 @@ export function segmentedProfile(
   const sUU = suf((i) => uu(i) * uu(i));
   const sYUT = suf((i) => y[i] * uu(i) * t[i]);
   const sYU = suf((i) => y[i] * uu(i));
-  const a = gram.map((row) => [...row, 0]);
-  a.push(new Array<number>(p + 1).fill(0));
-  const rhs = [...bty, 0];
+  // With the break fixed, the hinge column h enters by the partial-regression (Schur complement) identity:
+  // SSE(τ) = SSE_single − (h'My)² / (h'Mh), M = I − X(X'X)⁻¹X', d = h'My / h'Mh — the same least-squares fit as
+  // solving the (p+1)² normal equations, with (X'X)⁻¹ and β_single computed once (no allocation per candidate).
+  const ginv: number[][] = [];
+  for (let c = 0; c < p; c++) {
+    const e = new Array<number>(p).fill(0);
+    e[c] = 1;
+    const col = solveLinearSystem(gram, e);
+    if (!col || !single) return { sse, sseSingle, hinge, n };
+    ginv.push(col);
+  }
+  const hx = new Float64Array(p);
   for (let j = 0; j < K; j++) {
     const tau = taus[j];
     let lo = 0;
@@ -83,25 +93,25 @@ export function segmentedProfile(
       sse[j] = sseSingle;
       continue;
     }
+    let hMy = sYUT[k] - tau * sYU[k];
     for (let c = 0; c < p; c++) {
-      const v = sCUT[c][k] - tau * sCU[c][k];
-      a[c][p] = v;
-      a[p][c] = v;
+      hx[c] = sCUT[c][k] - tau * sCU[c][k];
+      hMy -= hx[c] * (single as number[])[c];
     }
-    a[p][p] = sUUTT[k] - 2 * tau * sUUT[k] + tau * tau * sUU[k];
-    rhs[p] = sYUT[k] - tau * sYU[k];
-    const beta = solveLinearSystem(a, rhs);
-    if (!beta) {
+    const hh = sUUTT[k] - 2 * tau * sUUT[k] + tau * tau * sUU[k];
+    let hMh = hh;
+    for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) hMh -= hx[a] * ginv[a][b] * hx[b];
+    if (!(hMh > 1e-10 * hh)) {
       sse[j] = sseSingle;
       continue;
     }
-    const d = beta[p];
+    const d = hMy / hMh;
     hinge[j] = d;
     if ((sign === "positive" && !(d > 0)) || (sign === "negative" && !(d < 0))) {
       sse[j] = sseSingle;
       continue;
     }
-    sse[j] = Math.max(0, syy - beta.reduce((s, b, q) => s + b * rhs[q], 0));
+    sse[j] = Math.max(0, sseSingle - (hMy * hMy) / hMh);
   }
   return { sse, sseSingle, hinge, n };
 }
