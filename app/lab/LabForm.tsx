@@ -1,6 +1,7 @@
 "use client";
 
 import { useActionState } from "react";
+import { CutoffChoiceFields, FormMessages } from "../components/CutoffChoiceFields";
 import { saveLab, type LabFormState } from "./actions";
 
 export interface LabFormProps {
@@ -64,20 +65,7 @@ export function LabForm({ quantities, current, cutoffChoices }: LabFormProps) {
         </tbody>
       </table>
       <h2>Cut-offs where published sources disagree</h2>
-      {cutoffChoices.map((c) => (
-        <label key={c.id}>
-          {c.label}
-          <select name={`choice:${c.id}`} defaultValue={current.choices[c.id] ?? c.defaultOptionId}>
-            {c.options.map((o) => (
-              <option key={o.id} value={o.id}>
-                {o.label}
-                {o.id === c.defaultOptionId ? " (default)" : ""}
-              </option>
-            ))}
-          </select>
-          <span className="how">{c.description}</span>
-        </label>
-      ))}
+      <CutoffChoiceFields choices={cutoffChoices} selected={(id) => current.choices[id]} />
       <div className="row">
         <label>
           Peak averaging window (s)
@@ -94,12 +82,7 @@ export function LabForm({ quantities, current, cutoffChoices }: LabFormProps) {
           <input name="by" />
         </label>
       </div>
-      {Object.entries(state.errors ?? {}).map(([k, m]) => (
-        <span key={k} className="sev-error">
-          {m}
-        </span>
-      ))}
-      {state.ok ? <span className="sev-info">{state.ok}</span> : null}
+      <FormMessages errors={state.errors} ok={state.ok} />
       <div>
         <button type="submit" disabled={pending}>
           Save lab defaults

@@ -1,5 +1,12 @@
-import { NUMERIC_FIELDS, parseUnitText, UNIT_KEYS_BY_FIELD, type ColumnDecision, type NumericField } from "@/lib/breath";
-import { displayUnit, UNIT_CONVERSIONS, type QuantityId } from "@/lib/units";
+import {
+  NUMERIC_FIELDS,
+  parseUnitText,
+  QUANTITY_OF,
+  UNIT_KEYS_BY_FIELD,
+  type ColumnDecision,
+  type NumericField,
+} from "@/lib/breath";
+import { displayUnit, UNIT_CONVERSIONS } from "@/lib/units";
 
 export type FieldKey = NumericField | "phase";
 
@@ -21,23 +28,6 @@ export const FIELD_LABEL: Record<FieldKey, string> = {
   stage: "Stage number",
   lactateMmolL: "Lactate",
   phase: "Phase or marker text",
-};
-
-const QUANTITY_OF: Partial<Record<FieldKey, QuantityId>> = {
-  timeS: "time",
-  vo2MlMin: "vo2",
-  vco2MlMin: "vco2",
-  veLMin: "ve",
-  hrBpm: "hr",
-  workW: "work",
-  speedKmh: "speed",
-  gradePct: "grade",
-  rrBrMin: "rr",
-  vtL: "vt",
-  peto2MmHg: "peto2",
-  petco2MmHg: "petco2",
-  spo2Pct: "spo2",
-  lactateMmolL: "lactate",
 };
 
 /** Readings the importer understands beyond the linear conversions of lib/units (unit text → shown label). */
@@ -63,7 +53,7 @@ export interface FieldOption {
  * special readings (per-kg VO2, clock times), kept only when the importer accepts them for that field.
  */
 export function unitOptions(field: FieldKey): UnitOption[] {
-  const q = QUANTITY_OF[field];
+  const q = field === "phase" || field === "stage" ? undefined : QUANTITY_OF[field];
   const accepted = UNIT_KEYS_BY_FIELD[field];
   const out: UnitOption[] = [];
   if (q)

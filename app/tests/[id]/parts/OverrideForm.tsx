@@ -1,6 +1,7 @@
 "use client";
 
 import { useActionState } from "react";
+import { FormMessages } from "../../../components/CutoffChoiceFields";
 import { overrideThreshold, type FormState } from "../actions";
 
 export function OverrideForm({ testId, which }: { testId: number; which: "vt1" | "vt2" }) {
@@ -31,12 +32,7 @@ export function OverrideForm({ testId, which }: { testId: number; which: "vt1" |
           Reason
           <input name="reason" defaultValue={v.reason ?? ""} placeholder="e.g. clear VE/VO2 rise at 8:30 with flat VE/VCO2" />
         </label>
-        {Object.entries(e).map(([k, msg]) => (
-          <span key={k} className="sev-error">
-            {msg}
-          </span>
-        ))}
-        {state.ok ? <span className="sev-info">{state.ok}</span> : null}
+        <FormMessages errors={e} ok={state.ok} />
         <div>
           <button type="submit" disabled={pending}>
             Save override

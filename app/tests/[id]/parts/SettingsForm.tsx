@@ -1,6 +1,7 @@
 "use client";
 
 import { useActionState } from "react";
+import { CutoffChoiceFields, FormMessages } from "../../../components/CutoffChoiceFields";
 import { saveSettings, type FormState } from "../actions";
 
 export interface SettingsFormProps {
@@ -94,30 +95,12 @@ export function SettingsForm({ testId, current, vo2Equations, hrEquations, cutof
         </label>
       </div>
       <h3>Cut-offs where published sources disagree</h3>
-      {cutoffChoices.map((c) => (
-        <label key={c.id}>
-          {c.label}
-          <select name={`choice:${c.id}`} defaultValue={v[`choice:${c.id}`] ?? current.choices[c.id] ?? c.defaultOptionId}>
-            {c.options.map((o) => (
-              <option key={o.id} value={o.id}>
-                {o.label}
-                {o.id === c.defaultOptionId ? " (default)" : ""}
-              </option>
-            ))}
-          </select>
-          <span className="how">{c.description}</span>
-        </label>
-      ))}
+      <CutoffChoiceFields choices={cutoffChoices} selected={(id) => v[`choice:${id}`] ?? current.choices[id]} />
       <label>
         Why the change (kept with the version)
         <input name="note" defaultValue={v.note ?? ""} />
       </label>
-      {Object.entries(state.errors ?? {}).map(([k, msg]) => (
-        <span key={k} className="sev-error">
-          {msg}
-        </span>
-      ))}
-      {state.ok ? <span className="sev-info">{state.ok}</span> : null}
+      <FormMessages errors={state.errors} ok={state.ok} />
       <div>
         <button type="submit" disabled={pending}>
           Save as a new analysis version
