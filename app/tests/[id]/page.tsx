@@ -408,7 +408,11 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                 <span className="how">({s.overall.basis})</span>
               </p>
             ) : (
-              <p className="how">No overall category (inputs missing or not assessable).</p>
+              <p className="how">
+                {s.axes.some((a) => a.category)
+                  ? "Graded variable by variable below (the scheme gives no combined category)."
+                  : "No category: the inputs are missing or not assessable."}
+              </p>
             )}
             <ul>
               {s.axes.map((a) => (
