@@ -46,6 +46,7 @@ async function main(): Promise<void> {
   const vt2 = r20.vt2.timeS !== null ? { timeS: r20.vt2.timeS, vo2MlMin: r20.vt2.vo2MlMin.value ?? 0 } : null;
   const slope = await time("veVco2Slope (corner-refined slope to VT2)", 50, () => veVco2Slope(test, { vt2 }));
   console.log(`ratio veVco2Slope/parse: ${(slope / parse).toFixed(2)}×`);
+  console.log(`20 resamples alone (detect20 − detect0)/parse: ${((detect20 - detect0) / parse).toFixed(2)}×`);
   console.log(
     `ratio detect/parse: no resampling ${(detect0 / parse).toFixed(2)}×, 20 resamples (engine default call) ${(detect20 / parse).toFixed(2)}×, 30 resamples ${(detect30 / parse).toFixed(2)}×, 50 resamples ${(detect50 / parse).toFixed(2)}×`,
   );
