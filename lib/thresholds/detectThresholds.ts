@@ -187,6 +187,13 @@ export interface DetectThresholdsOptions {
    * PETO2 far less. 0 = stop at VT2 (Beaver 1986, recalled detail). @default 40
    */
   vt1BeyondVt2S?: number;
+  /**
+   * Least span of data above the first-pass VT1, s: when VT1 lies closer than this to the end of its window (VT2 +
+   * `vt1BeyondVt2S`), the VT1 methods are refitted once with the window reaching VT1 + this span (our choice: the
+   * joint profile needs 5 bins above a break, plus one bin; 120 s with 20-s bins). An early VT2 otherwise truncates
+   * the segment above a VT1 that lies close to it, and the single-signal fits fail. 0 = no refit. @default 120
+   */
+  vt1MinSpanAboveS?: number;
 }
 
 const VT1_PREFERENCE = ["vt1-joint-profile", "vt1-v-slope", "vt1-ventilatory-equivalents", "vt1-modified-v-slope"];
@@ -213,7 +220,7 @@ interface Core {
   vt2TimeS: number | null;
 }
 
-function runMethods(series: ThresholdSeries, agreementFraction: number, vt1BeyondVt2S = 40): Core {
+function runMethods(series: ThresholdSeries, agreementFraction: number, vt1BeyondVt2S = 40, vt1MinSpanAboveS = 120): Core {
   const vt2Methods = [rcpVeVco2(series), rcpVentilatoryEquivalents(series), jointVt2(series)];
   const vt2 = combineEstimates(vt2Methods, { agreementFraction, preference: VT2_PREFERENCE, weights: VT2_WEIGHTS });
   const vt2TimeS = vt2.vo2MlMin === null ? null : timeAtLevel(series, series.vo2Trend, vt2.vo2MlMin);
@@ -223,14 +230,24 @@ function runMethods(series: ThresholdSeries, agreementFraction: number, vt1Beyon
       : vt2TimeS !== null
         ? Math.max(vt2TimeS, series.span.endS - 60)
         : series.span.endS;
-  const vt1Methods = [
-    vSlope(series, { endS: upper }),
-    modifiedVSlope(series, { endS: upper }),
-    ventilatoryEquivalents(series, { endS: upper }),
-    jointVt1(series, { endS: upper }),
-  ];
-  const vt1 = combineEstimates(vt1Methods, { agreementFraction, preference: VT1_PREFERENCE, weights: VT1_WEIGHTS });
-  const vt1TimeS = vt1.vo2MlMin === null ? null : timeAtLevel(series, series.vo2Trend, vt1.vo2MlMin);
+  const runVt1 = (endS: number) => {
+    const ms = [
+      vSlope(series, { endS }),
+      modifiedVSlope(series, { endS }),
+      ventilatoryEquivalents(series, { endS }),
+      jointVt1(series, { endS }),
+    ];
+    return { ms, c: combineEstimates(ms, { agreementFraction, preference: VT1_PREFERENCE, weights: VT1_WEIGHTS }) };
+  };
+  // An early VT2 (or a VT1 close to VT2) leaves the segment above VT1 too short to fit; when the first-pass VT1 lies
+  // within `vt1MinSpanAboveS` of the window's end, refit once with the window reaching VT1 + that span.
+  let pass = runVt1(upper);
+  let vt1TimeS = pass.c.vo2MlMin === null ? null : timeAtLevel(series, series.vo2Trend, pass.c.vo2MlMin);
+  if (vt1MinSpanAboveS > 0 && vt2TimeS !== null && vt1TimeS !== null && vt1TimeS + vt1MinSpanAboveS > upper) {
+    pass = runVt1(Math.min(series.span.endS, vt1TimeS + vt1MinSpanAboveS));
+    vt1TimeS = pass.c.vo2MlMin === null ? null : timeAtLevel(series, series.vo2Trend, pass.c.vo2MlMin);
+  }
+  const { ms: vt1Methods, c: vt1 } = pass;
   return { methods: [...vt1Methods, ...vt2Methods], vt1, vt2, vt1TimeS, vt2TimeS };
 }
 
@@ -241,6 +258,7 @@ function bootstrapSeries(
   seed: number,
   agreementFraction: number,
   vt1BeyondVt2S: number,
+  vt1MinSpanAboveS: number,
 ): { vt1: (number | null)[]; vt2: (number | null)[] } {
   const rng = seededRandom(seed);
   const n = series.timeS.length;
@@ -259,7 +277,7 @@ function bootstrapSeries(
     fields.forEach((f, c) => {
       s[f] = Float64Array.from(smooth[c], (v, i) => v + resid[c][order[i]]);
     });
-    const core = runMethods(s, agreementFraction, vt1BeyondVt2S);
+    const core = runMethods(s, agreementFraction, vt1BeyondVt2S, vt1MinSpanAboveS);
     out.vt1.push(core.vt1.vo2MlMin);
     out.vt2.push(core.vt2.vo2MlMin);
   }
@@ -328,9 +346,10 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
       );
   }
   const beyond = options.vt1BeyondVt2S ?? 40;
-  const core = runMethods(series, agreementFraction, beyond);
+  const minSpan = options.vt1MinSpanAboveS ?? 120;
+  const core = runMethods(series, agreementFraction, beyond, minSpan);
   const reps = Math.max(0, Math.floor(options.bootstrap ?? 30));
-  const boot = reps > 0 ? bootstrapSeries(series, reps, options.seed ?? 1, agreementFraction, beyond) : null;
+  const boot = reps > 0 ? bootstrapSeries(series, reps, options.seed ?? 1, agreementFraction, beyond, minSpan) : null;
   const bag = options.bootstrapMedian ?? true;
   const vt1 = toEstimate("vt1", core.vt1, core.vt1TimeS, series, test, boot?.vt1 ?? null, bag);
   // VT2 keeps the single-pass value: resampling around a 5-bin smoothed series rounds the compensation corner
