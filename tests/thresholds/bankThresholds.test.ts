@@ -26,11 +26,12 @@ describe(`threshold accuracy, main generator (${size} tests)`, () => {
   });
 
   // VT1 error goals at moderate noise (median ≤ 4 %, P90 ≤ 10 %) are NOT met on this bank (measured with 20
-  // resamples: median ≈ 4.8 %, P90 ≈ 12.2 %). These bounds guard the level reached.
-  it("keeps VT1 at moderate noise at the level reached (median ≤ 5 %, P90 ≤ 12.5 %)", () => {
+  // resamples and the VT1 refit above a close VT2: median ≈ 4.4 %, P90 ≈ 11.6 %; 4.8 / 12.2 % before the refit).
+  // These bounds guard the level reached.
+  it("keeps VT1 at moderate noise at the level reached (median ≤ 4.6 %, P90 ≤ 12 %)", () => {
     const s = stat(main, "vt1-consensus", "moderate");
-    expect(s.medianPct).toBeLessThanOrEqual(5);
-    expect(s.p90Pct).toBeLessThanOrEqual(12.5);
+    expect(s.medianPct).toBeLessThanOrEqual(4.6);
+    expect(s.p90Pct).toBeLessThanOrEqual(12);
   });
 
   // The joint profile alone now matches the consensus on this bank (P90 ≈ 10.7 vs 12.2 %; on the variant model the

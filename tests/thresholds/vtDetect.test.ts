@@ -29,6 +29,27 @@ function deepFreeze<T>(o: T): T {
   return o;
 }
 
+describe("VT1 refit when the VT1 window ends close above VT1 (early VT2)", () => {
+  // Noise-free synthetic test (invented data): the VT1 window is made to end 60 s above the true VT1, as an RCP
+  // called early would leave it (vt1BeyondVt2S = VT1 time + 60 s − VT2 time, a negative margin).
+  const syn = generateSyntheticTest({ noise: "none" }, 2);
+  const test = conditionTable(syn.table);
+  const truth = syn.truth.vt1!;
+  const beyond = truth.timeS + 60 - syn.truth.vt2!.timeS;
+  it("without the refit the truncated upper segment pulls every VT1 method early", () => {
+    const r = detectThresholds(test, { bootstrap: 0, vt1BeyondVt2S: beyond, vt1MinSpanAboveS: 0 });
+    expect(r.vt1.vo2MlMin.value! < truth.vo2MlMin).toBe(true);
+    expect(errPct(r.vt1.vo2MlMin.value, truth.vo2MlMin)).toBeGreaterThan(3);
+  });
+  it("with the refit (window to VT1 + 120 s) VT1 lands within 2 % of the truth", () => {
+    const r = detectThresholds(test, { bootstrap: 0, vt1BeyondVt2S: beyond });
+    expect(errPct(r.vt1.vo2MlMin.value, truth.vo2MlMin)).toBeLessThanOrEqual(2);
+    const joint = r.methods.find((m) => m.id === "vt1-joint-profile")!;
+    // the refitted window reaches past the truncated one (VT1 + 60 s)
+    expect(joint.window.endS).toBeGreaterThan(truth.timeS + 60 + 20);
+  });
+});
+
 describe("each method on noise-free synthetic tests", () => {
   const syn = generateSyntheticTest({ noise: "none" }, 2);
   const series = buildThresholdSeries(conditionTable(syn.table))!;
