@@ -172,57 +172,19 @@ export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {})
     lineSignal("ve", series, win, (i) => series.veLMin[i], taus),
     lineSignal("peto2", series, win, (i) => series.peto2MmHg[i], taus),
   ].filter((s) => s.p.n >= 2 * m + 1 && s.p.sseSingle > 0);
-  const crit = new Float64Array(taus.length);
-  for (const s of signals)
-    for (let j = 0; j < taus.length; j++) crit[j] += (s.p.n / 2) * Math.log(Math.max(s.p.sse[j], 1e-12 * s.p.sseSingle));
-  let best = -1;
-  for (let j = 0; j < taus.length; j++) if (Number.isFinite(crit[j]) && (best < 0 || crit[j] < crit[best])) best = j;
-  const fit: Record<string, number | null> = { signals: signals.length, candidates: taus.length };
-  if (best < 0 || signals.length === 0) {
+  const summary = summariseJointProfile(signals, taus, temper, series);
+  if (!summary) {
     return buildMethodEstimate({
       ...base,
       vo2MlMin: null,
       timeS: null,
-      fit,
+      fit: { signals: signals.length, candidates: taus.length },
       quality: "failed",
       reasons: ["not determinable: no signal with a usable two-segment fit"],
     });
   }
-  const w = Array.from(crit, (c) => (Number.isFinite(c) ? Math.exp(-temper * (c - crit[best])) : 0));
-  const total = w.reduce((a, b) => a + b, 0);
-  const at = (q: number) => {
-    let acc = 0;
-    for (let j = 0; j < taus.length; j++) {
-      acc += w[j];
-      if (acc >= q * total) return j;
-    }
-    return taus.length - 1;
-  };
-  const jMed = at(0.5);
-  const tau = taus[jMed];
+  const { tau, vo2At, lowS, highS, widthFraction, lr, bending, fit } = summary;
   const reasons: string[] = [];
-  let lr = 0;
-  let bending = 0;
-  for (const s of signals) {
-    const lrS = s.p.n * Math.log(s.p.sseSingle / Math.max(s.p.sse[jMed], 1e-12 * s.p.sseSingle));
-    fit[`${s.name}LikelihoodRatio`] = lrS;
-    lr += lrS;
-    if (lrS >= 4) bending++;
-  }
-  const vo2At = vo2AtTime(series, tau);
-  const lowS = taus[at(0.1)];
-  const highS = taus[at(0.9)];
-  const widthFraction = (vo2AtTime(series, highS) - vo2AtTime(series, lowS)) / vo2At;
-  Object.assign(fit, {
-    breakS: tau,
-    breakVo2: vo2At,
-    minimumS: taus[best],
-    profileLowS: lowS,
-    profileHighS: highS,
-    profileWidthFraction: widthFraction,
-    likelihoodRatio: lr,
-    signalsBending: bending,
-  });
   let quality: MethodQuality;
   if (!(lr >= minLr)) {
     quality = "failed";
@@ -265,4 +227,75 @@ function lineSignal(
     "positive",
   );
   return { name, p };
+}
+
+/** The shared reading of a joint break-time profile (VT1 and VT2 joint methods). */
+export interface JointProfileSummary {
+  /** Median of the tempered profile weights, s. */
+  tau: number;
+  vo2At: number;
+  /** 10th and 90th percentiles of the tempered profile, s. */
+  lowS: number;
+  highS: number;
+  /** Profile width in VO2 as a fraction of the VO2 at the break. */
+  widthFraction: number;
+  /** Joint likelihood ratio of the break against single lines, and how many signals bend (ratio ≥ 4). */
+  lr: number;
+  bending: number;
+  fit: Record<string, number | null>;
+}
+
+/**
+ * Sum the signals' profiles Σ (n_s/2)·log SSE_s(τ), weight the candidates by exp(−temper·ΔL), take the
+ * weighted median as the break and the 10–90 % range as its width (our implementation choice, see
+ * README-thresholds.md). Null when no candidate has a finite criterion.
+ */
+export function summariseJointProfile(
+  signals: { name: string; p: ReturnType<typeof segmentedProfile> }[],
+  taus: number[],
+  temper: number,
+  series: ThresholdSeries,
+): JointProfileSummary | null {
+  const crit = new Float64Array(taus.length);
+  for (const s of signals)
+    for (let j = 0; j < taus.length; j++) crit[j] += (s.p.n / 2) * Math.log(Math.max(s.p.sse[j], 1e-12 * s.p.sseSingle));
+  let best = -1;
+  for (let j = 0; j < taus.length; j++) if (Number.isFinite(crit[j]) && (best < 0 || crit[j] < crit[best])) best = j;
+  if (best < 0 || signals.length === 0) return null;
+  const fit: Record<string, number | null> = { signals: signals.length, candidates: taus.length };
+  const w = Array.from(crit, (c) => (Number.isFinite(c) ? Math.exp(-temper * (c - crit[best])) : 0));
+  const total = w.reduce((a, b) => a + b, 0);
+  const at = (q: number) => {
+    let acc = 0;
+    for (let j = 0; j < taus.length; j++) {
+      acc += w[j];
+      if (acc >= q * total) return j;
+    }
+    return taus.length - 1;
+  };
+  const jMed = at(0.5);
+  const tau = taus[jMed];
+  let lr = 0;
+  let bending = 0;
+  for (const s of signals) {
+    const lrS = s.p.n * Math.log(s.p.sseSingle / Math.max(s.p.sse[jMed], 1e-12 * s.p.sseSingle));
+    fit[`${s.name}LikelihoodRatio`] = lrS;
+    lr += lrS;
+    if (lrS >= 4) bending++;
+  }
+  const vo2At = vo2AtTime(series, tau);
+  const lowS = taus[at(0.1)];
+  const highS = taus[at(0.9)];
+  const widthFraction = (vo2AtTime(series, highS) - vo2AtTime(series, lowS)) / vo2At;
+  Object.assign(fit, {
+    breakS: tau,
+    breakVo2: vo2At,
+    minimumS: taus[best],
+    profileLowS: lowS,
+    profileHighS: highS,
+    profileWidthFraction: widthFraction,
+    likelihoodRatio: lr,
+    signalsBending: bending,
+  });
+  return { tau, vo2At, lowS, highS, widthFraction, lr, bending, fit };
 }

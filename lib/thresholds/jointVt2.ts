@@ -1,5 +1,5 @@
-import { buildMethodEstimate, seriesWindow, vo2AtTime } from "./consensus";
-import { segmentedProfile } from "./jointVt1";
+import { buildMethodEstimate, seriesWindow } from "./consensus";
+import { segmentedProfile, summariseJointProfile } from "./jointVt1";
 import type { MethodEstimate, MethodQuality, ThresholdSeries } from "./thresholdTypes";
 
 export interface JointVt2Options {
@@ -100,56 +100,18 @@ export function jointVt2(series: ThresholdSeries, options: JointVt2Options = {})
     signals.push({ name: "petco2", p });
   }
   const used = signals.filter((s) => s.p.sseSingle > 0 && Number.isFinite(s.p.sseSingle));
-  const crit = new Float64Array(taus.length);
-  for (const s of used)
-    for (let j = 0; j < taus.length; j++) crit[j] += (s.p.n / 2) * Math.log(Math.max(s.p.sse[j], 1e-12 * s.p.sseSingle));
-  let best = -1;
-  for (let j = 0; j < taus.length; j++) if (Number.isFinite(crit[j]) && (best < 0 || crit[j] < crit[best])) best = j;
-  const fit: Record<string, number | null> = { signals: used.length, candidates: taus.length };
-  if (best < 0 || used.length === 0) {
+  const summary = summariseJointProfile(used, taus, temper, series);
+  if (!summary) {
     return buildMethodEstimate({
       ...base,
       vo2MlMin: null,
       timeS: null,
-      fit,
+      fit: { signals: used.length, candidates: taus.length },
       quality: "failed",
       reasons: ["not determinable: no signal with a usable two-segment fit"],
     });
   }
-  const w = Array.from(crit, (c) => (Number.isFinite(c) ? Math.exp(-temper * (c - crit[best])) : 0));
-  const total = w.reduce((a, b) => a + b, 0);
-  const at = (q: number) => {
-    let acc = 0;
-    for (let j = 0; j < taus.length; j++) {
-      acc += w[j];
-      if (acc >= q * total) return j;
-    }
-    return taus.length - 1;
-  };
-  const jMed = at(0.5);
-  const tau = taus[jMed];
-  let lr = 0;
-  let bending = 0;
-  for (const s of used) {
-    const lrS = s.p.n * Math.log(s.p.sseSingle / Math.max(s.p.sse[jMed], 1e-12 * s.p.sseSingle));
-    fit[`${s.name}LikelihoodRatio`] = lrS;
-    lr += lrS;
-    if (lrS >= 4) bending++;
-  }
-  const vo2At = vo2AtTime(series, tau);
-  const lowS = taus[at(0.1)];
-  const highS = taus[at(0.9)];
-  const widthFraction = (vo2AtTime(series, highS) - vo2AtTime(series, lowS)) / vo2At;
-  Object.assign(fit, {
-    breakS: tau,
-    breakVo2: vo2At,
-    minimumS: taus[best],
-    profileLowS: lowS,
-    profileHighS: highS,
-    profileWidthFraction: widthFraction,
-    likelihoodRatio: lr,
-    signalsBending: bending,
-  });
+  const { tau, vo2At, lowS, highS, widthFraction, lr, bending, fit } = summary;
   const reasons: string[] = [];
   let quality: MethodQuality;
   if (!(lr >= minLr)) {
