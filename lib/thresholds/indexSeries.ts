@@ -123,11 +123,6 @@ export function rollingExtreme(
   return best;
 }
 
-/** Linear interpolation of a field at a time from the rows that carry it (NaN outside their time range). */
-export function valueAtTime(rows: readonly BreathRow[], field: NumericField, timeS: number): number {
-  const s = fieldSeries(rows, field);
-  return interpolateLinear(s.t, s.v, timeS);
-}
 
 /**
  * The resting span: the last `rest` phase ending at or before the exercise start, or null.
