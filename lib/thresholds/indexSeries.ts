@@ -1,6 +1,5 @@
 import type { BreathRow, NumericField } from "../breath";
 import type { Provenance } from "../core";
-import { interpolateLinear } from "../numeric/interpolate";
 import type { ConditionedTest } from "../signal";
 
 /** A time span in seconds from the start of the record (inclusive at both ends). */
