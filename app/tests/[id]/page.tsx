@@ -99,6 +99,18 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         {test.demo ? <span className="tag">invented demo data</span> : null}
       </p>
 
+      <nav className="how" aria-label="Sections of this analysis" style={{ display: "flex", gap: "0.8rem", flexWrap: "wrap" }}>
+        <a href="#key-results">results</a>
+        <a href="#thresholds">thresholds</a>
+        <a href="#charts">charts</a>
+        <a href="#indices">indices</a>
+        <a href="#domains">domains</a>
+        <a href="#interpretation">interpretation</a>
+        <a href="#patterns">patterns</a>
+        <a href="#schemes">schemes</a>
+        <a href="#quality">data quality</a>
+        <a href="#settings">settings</a>
+      </nav>
       <section className="panel" data-testid="effort">
         <h3 style={{ marginTop: 0 }}>Test validity and effort</h3>
         <p>
@@ -109,7 +121,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         </p>
       </section>
 
-      <h2>Key results against predicted</h2>
+      <h2 id="key-results">Key results against predicted</h2>
       <table data-testid="key-results">
         <thead>
           <tr>
@@ -147,7 +159,9 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           ))}
         </tbody>
       </table>
-      {result.weightBasis?.actual && result.weightBasis.ideal ? (
+      {result.weightBasis?.actual &&
+      result.weightBasis.ideal &&
+      (result.weightBasis.changesConclusion || (result.weightBasis.bmiKgM2 ?? 0) >= 30) ? (
         <p
           className={result.weightBasis.changesConclusion ? "sev-warning" : "how"}
           data-testid="weight-basis"
@@ -171,7 +185,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         VE {fmt(pk.veLMin, 0)} L/min.
       </p>
 
-      <h2>Thresholds</h2>
+      <h2 id="thresholds">Thresholds</h2>
       <div className="grid2">
         <ThresholdCard
           testId={testId}
@@ -217,7 +231,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         </table>
       </details>
 
-      <h2>Charts</h2>
+      <h2 id="charts">Charts</h2>
       <div className="grid2" data-testid="charts">
         {charts.map((c) => (
           <figure
@@ -229,7 +243,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         ))}
       </div>
 
-      <h2>Ventilatory, cardiac and gas-exchange indices</h2>
+      <h2 id="indices">Ventilatory, cardiac and gas-exchange indices</h2>
       <table data-testid="indices">
         <tbody>
           <IndexRow
@@ -323,7 +337,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         </>
       ) : null}
 
-      <h2>Intensity domains (for exercise prescription)</h2>
+      <h2 id="domains">Intensity domains (for exercise prescription)</h2>
       <table data-testid="domains">
         <thead>
           <tr>
@@ -351,7 +365,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         </tbody>
       </table>
 
-      <h2>Interpretation path</h2>
+      <h2 id="interpretation">Interpretation path</h2>
       <ol data-testid="interpretation-path">
         {result.interpretation.path.steps.map((s) => (
           <li key={s.nodeId}>
@@ -370,7 +384,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         </p>
       ) : null}
 
-      <h2>Limitation patterns (ranked; never a single diagnosis)</h2>
+      <h2 id="patterns">Limitation patterns (ranked; never a single diagnosis)</h2>
       <table data-testid="patterns">
         <thead>
           <tr>
@@ -388,14 +402,14 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                 <div className="how">evidence: {pt.status}</div>
               </td>
               <td>{pt.support}</td>
-              <td className="how">{pt.for.map((f) => f.text).join("; ") || "—"}</td>
-              <td className="how">{pt.against.map((f) => f.text).join("; ") || "—"}</td>
+              <td className="how">{pt.for.map((f) => outcomeOf(f.text)).join("; ") || "—"}</td>
+              <td className="how">{pt.against.map((f) => outcomeOf(f.text)).join("; ") || "—"}</td>
             </tr>
           ))}
         </tbody>
       </table>
 
-      <h2>Published schemes for this referral</h2>
+      <h2 id="schemes">Published schemes for this referral</h2>
       <div data-testid="schemes">
         {result.interpretation.schemes.map((s) => (
           <section key={s.schemeId} className="panel">
@@ -431,7 +445,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         ))}
       </div>
 
-      <h2>Data quality</h2>
+      <h2 id="quality">Data quality</h2>
       <IssueList issues={result.issues} />
       <details>
         <summary>
@@ -450,7 +464,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       <h3>How the file was read</h3>
       <ColumnTable columns={test.importColumns} />
 
-      <h2>Settings and versions</h2>
+      <h2 id="settings">Settings and versions</h2>
       <SettingsForm
         testId={testId}
         current={{
@@ -494,6 +508,11 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       </table>
     </>
   );
+}
+
+/** The finding at the end of a rule's readable line ("Peak VO2 62 % … < 85 % → Peak VO2 reduced" → "Peak VO2 reduced"). */
+function outcomeOf(text: string): string {
+  return text.split(" → ").pop() ?? text;
 }
 
 function IndexRow({ label, m, d, extra }: { label: string; m: Measured; d: number; extra?: string }) {
