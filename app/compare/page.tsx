@@ -14,6 +14,32 @@ const querySchema = z.object({
   population: z.string().optional(),
 });
 
+function TestSelect({
+  name,
+  label,
+  tests,
+  value,
+}: {
+  name: string;
+  label: string;
+  tests: { id: number; label: string }[];
+  value?: number;
+}) {
+  return (
+    <label>
+      {label}
+      <select name={name} defaultValue={value ?? ""}>
+        <option value="">choose…</option>
+        {tests.map((t) => (
+          <option key={t.id} value={t.id}>
+            {t.label}
+          </option>
+        ))}
+      </select>
+    </label>
+  );
+}
+
 /** Two tests of one patient side by side; each change judged against published test–retest variability. */
 export default async function ComparePage({
   searchParams,
@@ -44,28 +70,8 @@ export default async function ComparePage({
         measurement noise only when it exceeds the published test–retest variability for that variable in the chosen population.
       </p>
       <form className="row" method="get" data-testid="compare-form">
-        <label>
-          Earlier test
-          <select name="before" defaultValue={q.before ?? ""}>
-            <option value="">choose…</option>
-            {tests.map((t) => (
-              <option key={t.id} value={t.id}>
-                {t.label}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label>
-          Later test
-          <select name="after" defaultValue={q.after ?? ""}>
-            <option value="">choose…</option>
-            {tests.map((t) => (
-              <option key={t.id} value={t.id}>
-                {t.label}
-              </option>
-            ))}
-          </select>
-        </label>
+        <TestSelect name="before" label="Earlier test" tests={tests} value={q.before} />
+        <TestSelect name="after" label="Later test" tests={tests} value={q.after} />
         <label>
           Population for the noise bands
           <select name="population" defaultValue={population}>

@@ -1,4 +1,5 @@
 import { BODY_MASS_NAMES, COLUMN_SYNONYMS, DERIVED_NAMES, QUALIFIER_TOKENS, RECORD_ID_NAMES } from "./columnSynonyms";
+import { CANONICAL_UNIT_OF } from "./inferColumnUnit";
 import { parseUnitText } from "./parseUnitText";
 import type { NumericField } from "./types";
 
@@ -30,28 +31,12 @@ const QUALIFIERS = new Set(QUALIFIER_TOKENS);
 export function recogniseHeader(header: string, plainColumns: Record<string, NumericField | "phase">): HeaderReading {
   const trimmed = header.trim();
   const plainField = plainColumns[trimmed.toLowerCase()];
-  const unitsByPlain: Partial<Record<NumericField, string>> = {
-    timeS: "s",
-    vo2MlMin: "mL/min",
-    vco2MlMin: "mL/min",
-    veLMin: "L/min",
-    hrBpm: "1/min",
-    workW: "W",
-    speedKmh: "km/h",
-    gradePct: "%",
-    rrBrMin: "1/min",
-    vtL: "L",
-    peto2MmHg: "mmHg",
-    petco2MmHg: "mmHg",
-    spo2Pct: "%",
-    lactateMmolL: "mmol/L",
-  };
   if (plainField) {
     return {
       name: trimmed.toLowerCase(),
       kind: "quantity",
       field: plainField,
-      unit: plainField === "phase" ? undefined : unitsByPlain[plainField],
+      unit: plainField === "phase" || plainField === "stage" ? undefined : CANONICAL_UNIT_OF[plainField],
       plain: true,
     };
   }
