@@ -1,17 +1,8 @@
 "use client";
 
 import { useActionState, useEffect, useState } from "react";
+import { ErgometerReferralFields } from "./ErgometerReferralFields";
 import { uploadTest, type UploadState } from "../actions";
-
-const REFERRALS: [string, string][] = [
-  ["general", "General / unexplained breathlessness"],
-  ["heart-failure", "Heart failure assessment"],
-  ["pre-operative", "Pre-operative risk"],
-  ["lung-resection", "Lung resection work-up"],
-  ["pulmonary-hypertension", "Pulmonary hypertension"],
-  ["transplant", "Heart transplant listing"],
-  ["training", "Training prescription"],
-];
 
 export function UploadForm() {
   const [state, action, pending] = useActionState<UploadState, FormData>(uploadTest, {});
@@ -85,23 +76,7 @@ export function UploadForm() {
         ) : null,
       )}
       <div className="row">
-        <label>
-          Ergometer
-          <select name="ergometer" defaultValue={v.ergometer ?? "cycle"}>
-            <option value="cycle">cycle</option>
-            <option value="treadmill">treadmill</option>
-          </select>
-        </label>
-        <label>
-          Referral question
-          <select name="referral" defaultValue={v.referral ?? "general"}>
-            {REFERRALS.map(([value, text]) => (
-              <option key={value} value={value}>
-                {text}
-              </option>
-            ))}
-          </select>
-        </label>
+        <ErgometerReferralFields values={v} />
         <label>
           FEV1 (L)
           <input name="fev1L" type="number" step="any" defaultValue={v.fev1L ?? ""} size={5} />

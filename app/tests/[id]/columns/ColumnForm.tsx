@@ -8,6 +8,7 @@ import type { FieldOption } from "./fieldChoices";
 import type { ColumnRowView } from "./loadColumnReview";
 import styles from "./columns.module.css";
 import { ImportIssueTable } from "./ImportIssueTable";
+import { ErgometerReferralFields } from "../../../components/ErgometerReferralFields";
 
 export interface ColumnFormProps {
   testId: number;
@@ -19,16 +20,6 @@ export interface ColumnFormProps {
   /** Refused tests have no stored patient details; the form asks for them. */
   refused: boolean;
 }
-
-const REFERRALS: [string, string][] = [
-  ["general", "General / unexplained breathlessness"],
-  ["heart-failure", "Heart failure assessment"],
-  ["pre-operative", "Pre-operative risk"],
-  ["lung-resection", "Lung resection work-up"],
-  ["pulmonary-hypertension", "Pulmonary hypertension"],
-  ["transplant", "Heart transplant listing"],
-  ["training", "Training prescription"],
-];
 
 export function ColumnForm(props: ColumnFormProps) {
   const [state, action, pending] = useActionState<ColumnFormState, FormData>(applyColumnChoices, {});
@@ -126,23 +117,7 @@ function ColumnFormBody(props: ColumnFormProps & { state: ColumnFormState; pendi
               Height (cm)
               <input name="heightCm" type="number" step="any" size={5} defaultValue={v.heightCm ?? ""} />
             </label>
-            <label className={styles.label}>
-              Ergometer
-              <select name="ergometer" defaultValue={v.ergometer ?? "cycle"}>
-                <option value="cycle">cycle</option>
-                <option value="treadmill">treadmill</option>
-              </select>
-            </label>
-            <label className={styles.label}>
-              Referral question
-              <select name="referral" defaultValue={v.referral ?? "general"}>
-                {REFERRALS.map(([value, text]) => (
-                  <option key={value} value={value}>
-                    {text}
-                  </option>
-                ))}
-              </select>
-            </label>
+            <ErgometerReferralFields values={v} labelClassName={styles.label} />
           </div>
           {["sex", "ageY", "heightCm", "ergometer", "referral"].map((k) =>
             err[k] ? (
