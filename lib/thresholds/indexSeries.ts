@@ -122,7 +122,6 @@ export function rollingExtreme(
   return best;
 }
 
-
 /**
  * The resting span: the last `rest` phase ending at or before the exercise start, or null.
  * With `lastS`, only its final `lastS` seconds.
