@@ -122,7 +122,8 @@ export function buildReportModel(
       bits.push(
         `${formatNumber(at.vo2MlKgMin.value, 1)} mL/kg/min, ${formatNumber(at.vo2PercentPeak.value, 0)} % of peak, HR ${formatNumber(at.hrBpm.value, 0)}, ${formatNumber(at.workW.value, 0)} W`,
       );
-    bits.push(thresholdMethodWords(t, result.thresholds));
+    // When not determinable, the reason is already in the row (from the Measured); do not repeat it.
+    if (t.vo2MlMin.value !== null || t.overridden) bits.push(thresholdMethodWords(t, result.thresholds));
     row.note = [row.note, ...bits].filter(Boolean).join("; ");
     thresholds.push(row);
   }

@@ -83,7 +83,14 @@ function valuesTable(rows: ReportRow[], index: Map<string, number>): Content {
   }
   return {
     table: { headerRows: 1, widths: [78, 38, 44, 40, 30, 30, "*", 30], body },
-    layout: "lightHorizontalLines",
+    // Light horizontal rules with narrow cell padding, so the method column keeps its width.
+    layout: {
+      hLineWidth: (i, node) => (i === 0 || i === node.table.body.length ? 0 : i === 1 ? 1 : 0.5),
+      vLineWidth: () => 0,
+      hLineColor: (i) => (i === 1 ? "#000000" : "#aaaaaa"),
+      paddingLeft: (i) => (i === 0 ? 0 : 3),
+      paddingRight: () => 3,
+    },
     fontSize: 8.5,
   };
 }
