@@ -162,11 +162,7 @@ export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {})
       reasons: [`not determinable: only ${win.length} bins below the upper limit (need ${2 * m + 1})`],
     });
   }
-  const tFirst = series.timeS[win[m - 1]];
-  const tLast = series.timeS[win[win.length - m]];
-  const taus: number[] = [];
-  for (let t = tFirst; t <= tLast + 1e-9; t += step) taus.push(t);
-  if (taus.length < 2) taus.push(tLast);
+  const taus = candidateBreakTimes(series, win, m, step);
   const signals = [
     lineSignal("excessCo2", series, win, (i) => series.vco2MlMin[i] - series.vo2MlMin[i], taus),
     lineSignal("ve", series, win, (i) => series.veLMin[i], taus),
@@ -298,4 +294,14 @@ export function summariseJointProfile(
     signalsBending: bending,
   });
   return { tau, vo2At, lowS, highS, widthFraction, lr, bending, fit };
+}
+
+/** Candidate break times on a `stepS` grid, leaving at least `m` bins on each side (both joint profiles). */
+export function candidateBreakTimes(series: ThresholdSeries, win: number[], m: number, stepS: number): number[] {
+  const tFirst = series.timeS[win[m - 1]];
+  const tLast = series.timeS[win[win.length - m]];
+  const taus: number[] = [];
+  for (let t = tFirst; t <= tLast + 1e-9; t += stepS) taus.push(t);
+  if (taus.length < 2) taus.push(tLast);
+  return taus;
 }

@@ -1,5 +1,5 @@
 import { buildMethodEstimate, seriesWindow } from "./consensus";
-import { segmentedProfile, summariseJointProfile } from "./jointVt1";
+import { candidateBreakTimes, segmentedProfile, summariseJointProfile } from "./jointVt1";
 import type { MethodEstimate, MethodQuality, ThresholdSeries } from "./thresholdTypes";
 
 export interface JointVt2Options {
@@ -66,11 +66,7 @@ export function jointVt2(series: ThresholdSeries, options: JointVt2Options = {})
       reasons: [`not determinable: only ${win.length} bins of VE and VCO2 (need ${2 * m + 3})`],
     });
   }
-  const tFirst = series.timeS[win[m - 1]];
-  const tLast = series.timeS[win[win.length - m]];
-  const taus: number[] = [];
-  for (let t = tFirst; t <= tLast + 1e-9; t += step) taus.push(t);
-  if (taus.length < 2) taus.push(tLast);
+  const taus = candidateBreakTimes(series, win, m, step);
   const t0 = series.timeS[win[0]];
   const minutes = (i: number) => (series.timeS[i] - t0) / 60;
   const signals: { name: string; p: ReturnType<typeof segmentedProfile> }[] = [];

@@ -45,8 +45,17 @@ async function readFile(form: FormData): Promise<{ name: string; bytes: Uint8Arr
   return { name: file.name, bytes: new Uint8Array(await file.arrayBuffer()) };
 }
 
-/** Blood lactate samples from a file (importLactateFile); replaces the test's lactate samples. The file is kept. */
-export async function addLactateFile(_prev: InputFormState, form: FormData): Promise<InputFormState> {
+/**
+ * Shared path of the sample-file forms: validate, load the record, read the kept file, import its
+ * samples, and on success store the upload and the updated record. Nothing changes when no sample is read.
+ */
+async function addSampleFile<S>(
+  form: FormData,
+  what: string,
+  importSamples: (bytes: Uint8Array, timeUnit: "s" | "min" | undefined) => Promise<{ samples: S[]; issues: Issue[] }>,
+  apply: (record: TestRecord, samples: S[]) => TestRecord,
+  action: string,
+): Promise<InputFormState> {
   const values = formValues(form);
   const stamp = Date.now();
   const parsed = fileFormSchema.safeParse(values);
@@ -55,40 +64,34 @@ export async function addLactateFile(_prev: InputFormState, form: FormData): Pro
   if (!record) return { errors: { form: "This test has no usable breath data yet." }, values, stamp };
   const file = await readFile(form);
   if ("error" in file) return { errors: { file: file.error }, values, stamp };
-  const { samples, issues } = await importLactateFile(file.bytes, { timeUnit: parsed.data.timeUnit });
+  const { samples, issues } = await importSamples(file.bytes, parsed.data.timeUnit);
   if (samples.length === 0)
-    return { errors: { file: "No lactate samples could be read from this file; nothing was changed." }, issues, values, stamp };
+    return { errors: { file: `No ${what} samples could be read from this file; nothing was changed.` }, issues, values, stamp };
   const upload = saveUpload(file.name, file.bytes);
-  done(
-    parsed.data.testId,
-    { ...record, lactate: samples },
+  done(parsed.data.testId, apply(record, samples), action, `${samples.length} sample(s) from ${file.name} (upload ${upload.id})`);
+  return { ok: `${samples.length} ${what} sample(s) saved from ${file.name}.`, issues, values, stamp };
+}
+
+/** Blood lactate samples from a file (importLactateFile); replaces the test's lactate samples. The file is kept. */
+export async function addLactateFile(_prev: InputFormState, form: FormData): Promise<InputFormState> {
+  return addSampleFile(
+    form,
+    "lactate",
+    (bytes, timeUnit) => importLactateFile(bytes, { timeUnit }),
+    (record, lactate) => ({ ...record, lactate }),
     "lactate-added",
-    `${samples.length} sample(s) from ${file.name} (upload ${upload.id})`,
   );
-  return { ok: `${samples.length} lactate sample(s) saved from ${file.name}.`, issues, values, stamp };
 }
 
 /** Arterial blood gases from a file (importBloodGasFile); replaces the test's blood gases. The file is kept. */
 export async function addBloodGasFile(_prev: InputFormState, form: FormData): Promise<InputFormState> {
-  const values = formValues(form);
-  const stamp = Date.now();
-  const parsed = fileFormSchema.safeParse(values);
-  if (!parsed.success) return { errors: fieldErrors(parsed.error), values, stamp };
-  const record = loadRecord(parsed.data.testId);
-  if (!record) return { errors: { form: "This test has no usable breath data yet." }, values, stamp };
-  const file = await readFile(form);
-  if ("error" in file) return { errors: { file: file.error }, values, stamp };
-  const { samples, issues } = await importBloodGasFile(file.bytes);
-  if (samples.length === 0)
-    return { errors: { file: "No blood gas samples could be read from this file; nothing was changed." }, issues, values, stamp };
-  const upload = saveUpload(file.name, file.bytes);
-  done(
-    parsed.data.testId,
-    { ...record, bloodGases: samples },
+  return addSampleFile(
+    form,
+    "blood gas",
+    (bytes) => importBloodGasFile(bytes),
+    (record, bloodGases) => ({ ...record, bloodGases }),
     "blood-gases-added",
-    `${samples.length} sample(s) from ${file.name} (upload ${upload.id})`,
   );
-  return { ok: `${samples.length} blood gas sample(s) saved from ${file.name}.`, issues, values, stamp };
 }
 
 /** Resting spirometry (parseSpirometry). Any implausible value refuses the whole form, keeping what was typed. */
