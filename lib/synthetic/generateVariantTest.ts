@@ -12,6 +12,7 @@ import type { NoiseLevel, SyntheticTruth, TruthPoint } from "./syntheticTypes";
  * - VCO2: metabolic CO2 (RQ·VO2) plus buffering excess with a curvilinear (softplus) onset over about a
  *   minute, passed through a two-compartment CO2 store (fast and slow stores in parallel);
  * - VE: driven by VCO2 with its own lag, compensation above VT2 with a softplus onset; VD/VT falling with time;
+ * - CO2 washout: while the compensation drives PCO2 down, the stores release CO2 (optional, invented magnitude);
  * - noise: Student-t (3 degrees of freedom) breath noise scaled by breath duration (short breaths noisier),
  *   tidal-volume deviations shared by VO2, VCO2 (amplified) and VE, breath-timing jitter (log-normal
  *   durations), optional 1-s time stamps, HR drift.
@@ -45,6 +46,11 @@ export interface VariantSpec {
   compensationSlope: number;
   hrDriftBpmPerMin: number;
   roundTimesToS: boolean;
+  /**
+   * CO2 released from body stores per mmHg fall of PCO2 once ventilation outpaces VCO2 above VT2, mL/mmHg
+   * (invented magnitude; the washout is why Beaver 1986 stops the V-slope at the RCP). 0 = none.
+   */
+  co2WashoutMlPerMmHg?: number;
 }
 
 /** Noise magnitudes per level for the variant model (invented). */
@@ -117,6 +123,7 @@ export function variantSpec(i: number, seed = 77, levels: NoiseLevel[] = ["low",
     compensationSlope: u(10, 30),
     hrDriftBpmPerMin: u(0, 0.4),
     roundTimesToS: rng.uniform() < 0.3,
+    co2WashoutMlPerMmHg: u(0, 30),
   };
 }
 
@@ -167,6 +174,9 @@ export function generateVariantTest(spec: VariantSpec, seed: number): VariantTes
   let slow = production(m);
   let veNow = spec.veInterceptLMin + (spec.veVco2Slope * fast) / 1000;
   let crossV1 = -1;
+  let veBase = veNow;
+  let lastDrop = 0;
+  const washout = spec.co2WashoutMlPerMmHg ?? 0;
   for (let t = 0; t < n; t++) {
     let d = demandAt(t - spec.delayS);
     if (d > v1) d += 0.12 * (d - v1) * Math.min(1, Math.max(0, (d - v1) / (0.3 * span)));
@@ -182,9 +192,14 @@ export function generateVariantTest(spec: VariantSpec, seed: number): VariantTes
     const comp = t <= rampEnd + 20 ? (spec.compensationSlope * w2 * softplus((vo2[t] - v2) / w2)) / 1000 : 0;
     const target = spec.veInterceptLMin + (spec.veVco2Slope * vco2[t]) / 1000 + comp;
     veNow += (target - veNow) * (1 - Math.exp(-1 / spec.tauVeS));
+    veBase += (target - comp - veBase) * (1 - Math.exp(-1 / spec.tauVeS));
     ve[t] = veNow;
     const frac = Math.min(1, Math.max(0, (t - restEnd) / (rampEnd - restEnd)));
     const vdVt = 0.3 - 0.12 * frac;
+    // CO2 washed out of the stores while ventilation drives PCO2 down above VT2 (invented magnitude)
+    const drop = Math.max(0, ((863 * (vco2[t] / 1000)) / (1 - vdVt)) * (1 / veBase - 1 / veNow));
+    if (washout > 0 && drop > lastDrop) vco2[t] += washout * (drop - lastDrop) * 60;
+    lastDrop = drop;
     petco2[t] = (863 * (vco2[t] / 1000)) / (ve[t] * (1 - vdVt));
     const rer = vco2[t] / vo2[t];
     peto2[t] = 0.2093 * 713 - petco2[t] * (0.2093 + (1 - 0.2093) / rer);

@@ -3,8 +3,15 @@ import { buildMethodEstimate, seriesWindow, vo2AtTime } from "./consensus";
 import type { MethodEstimate, MethodQuality, ThresholdSeries } from "./thresholdTypes";
 
 export interface JointVt1Options {
-  /** Last time included, s (stay below the RCP). @default series.span.endS */
+  /** Last time included for VE and PETO2, s (stay below the RCP: both bend again there). @default series.span.endS */
   endS?: number;
+  /**
+   * Last time included for the excess-CO2 signal, s. VCO2 − VO2 has no bend of its own at the RCP (that break is
+   * ventilatory), so it reads the whole analysed span by default (our choice, round 7 of README-thresholds.md:
+   * VT1 moderate-noise P90 lower on every synthetic bank, also with CO2 washout above the RCP modelled). Never
+   * earlier than `endS`. @default series.span.endS
+   */
+  excessCo2EndS?: number;
   /** Fewest bins each side of a candidate break. @default 5 */
   minPointsEachSide?: number;
   /** Step of the candidate break times, s. @default 5 */
@@ -123,7 +130,8 @@ export function segmentedProfile(
  * common practice, secondary). For every candidate time τ (5-s grid) three least-squares fits, each a line in
  * time plus an upward hinge at τ, give residual sums of squares SSE_s(τ): excess CO2 (VCO2 − VO2: the
  * excess-CO2 start of the modified V-slope), VE (VE starts rising faster than VO2) and PETO2 (PETO2 starts
- * rising). The joint criterion L(τ) = Σ_s (n_s/2)·log SSE_s(τ) gives each signal its own unknown noise
+ * rising). VE and PETO2 read data up to `endS` (below the RCP); excess CO2, which does not bend at the RCP,
+ * reads up to `excessCo2EndS` (the whole analysed span by default). The joint criterion L(τ) = Σ_s (n_s/2)·log SSE_s(τ) gives each signal its own unknown noise
  * variance; a signal without a break adds a flat profile. The estimate is the median of the tempered
  * profile weights exp(−½·(L(τ) − min L)) over τ (more stable than the minimum under noise — our choice,
  * chosen on the synthetic bank); VO2 from the VO2 trend at that time. Confidence rests on the likelihood ratio
@@ -163,8 +171,13 @@ export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {})
     });
   }
   const taus = candidateBreakTimes(series, win, m, step);
+  const excessEndS = Math.max(endS, options.excessCo2EndS ?? series.span.endS);
+  const winExcess =
+    excessEndS > endS
+      ? seriesWindow(series, series.span.startS, excessEndS).filter((i) => Number.isFinite(series.vo2MlMin[i]))
+      : win;
   const signals = [
-    lineSignal("excessCo2", series, win, (i) => series.vco2MlMin[i] - series.vo2MlMin[i], taus),
+    lineSignal("excessCo2", series, winExcess, (i) => series.vco2MlMin[i] - series.vo2MlMin[i], taus),
     lineSignal("ve", series, win, (i) => series.veLMin[i], taus),
     lineSignal("peto2", series, win, (i) => series.peto2MmHg[i], taus),
   ].filter((s) => s.p.n >= 2 * m + 1 && s.p.sseSingle > 0);
@@ -180,6 +193,7 @@ export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {})
     });
   }
   const { tau, vo2At, lowS, highS, widthFraction, lr, bending, fit } = summary;
+  fit.excessCo2EndS = excessEndS;
   const reasons: string[] = [];
   let quality: MethodQuality;
   if (!(lr >= minLr)) {
@@ -191,6 +205,8 @@ export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {})
     reasons.push(
       `${bending} of ${signals.length} signals bend upward at ${Math.round(tau)} s (joint likelihood ratio ${lr.toFixed(1)}); profile 10–90 % ${Math.round(lowS)}–${Math.round(highS)} s`,
     );
+    if (excessEndS > endS)
+      reasons.push(`excess CO2 read to ${Math.round(excessEndS)} s, VE and PETO2 to ${Math.round(endS)} s (below the RCP)`);
     quality = bending >= 2 && widthFraction <= 0.15 ? "good" : bending >= 1 && widthFraction <= 0.3 ? "fair" : "poor";
     if (quality !== "good") reasons.push(bending < 2 ? "fewer than two signals bend clearly" : "wide profile");
   }

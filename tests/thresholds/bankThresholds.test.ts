@@ -25,18 +25,18 @@ describe(`threshold accuracy, main generator (${size} tests)`, () => {
     expect(stat(main, "vt2-consensus", "low").medianPct).toBeLessThanOrEqual(5);
   });
 
-  // VT1 error goals at moderate noise (median ≤ 4 %, P90 ≤ 10 %) are NOT met on this bank (measured with 20
-  // resamples and the VT1 refit above a close VT2: median ≈ 4.4 %, P90 ≈ 11.6 %; 4.8 / 12.2 % before the refit).
-  // These bounds guard the level reached.
-  it("keeps VT1 at moderate noise at the level reached (median ≤ 4.6 %, P90 ≤ 12 %)", () => {
+  // VT1 at moderate noise, 20 resamples, excess CO2 read over the whole span (round 7): median 4.2 %, P90 9.9 % on
+  // this bank (4.4 / 11.6 % before). The P90 goal (≤ 10 %) is met here but not on every bank (README-thresholds.md:
+  // main seeds 99 and 5 at 240 moderate tests 3.3 / 10.3 and 3.5 / 8.2 %); the median goal (≤ 4 %) is not met on
+  // this bank. These bounds guard the level reached.
+  it("meets the VT1 P90 goal (≤ 10 %) at moderate noise on this bank and keeps the median at the level reached (≤ 4.4 %)", () => {
     const s = stat(main, "vt1-consensus", "moderate");
-    expect(s.medianPct).toBeLessThanOrEqual(4.6);
-    expect(s.p90Pct).toBeLessThanOrEqual(12);
+    expect(s.medianPct).toBeLessThanOrEqual(4.4);
+    expect(s.p90Pct).toBeLessThanOrEqual(10);
   });
 
-  // The joint profile alone now matches the consensus on this bank (P90 ≈ 10.7 vs 12.2 %; on the variant model the
-  // consensus is ahead, 12.4 vs 12.8 %), so the consensus is held against the single-signal methods and kept
-  // within 2 points of the joint profile.
+  // The pooled consensus is ahead of the joint profile alone on both models (P90 9.9 vs 11.1 % here, 11.4 vs 15.3 % on
+  // the variant's 240-test bank), and well ahead of every single-signal method; it is held against both.
   it("the consensus beats every single-signal VT1 method on P90 at moderate noise", () => {
     const cons = stat(main, "vt1-consensus", "moderate").p90Pct;
     for (const m of ["vt1-v-slope", "vt1-modified-v-slope", "vt1-ventilatory-equivalents"])
@@ -75,10 +75,12 @@ describe(`threshold accuracy, independent variant model (${variantSize} tests)`,
     expect(stat(variant, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(90);
   });
 
-  // measured: median 4.4 %, P90 12.3 % on this 150-test bank (3.7 / 11.2 % on the 240-test bank of the script)
-  it("keeps VT1 at moderate noise at the level reached (median ≤ 4.5 %, P90 ≤ 13 %; goal median ≤ 4 %, P90 ≤ 10 % not met)", () => {
+  // The variant model now releases CO2 from the stores above VT2 (washout, round 7), which makes it harder: on this
+  // 150-test bank VT1 went to 4.3 / 14.3 % with the washout and the previous method, and is 4.0 / 13.1 % with excess
+  // CO2 read over the whole span (4.9 / 11.4 % on the 240-test bank of the script). Goal P90 ≤ 10 % not met here.
+  it("keeps VT1 at moderate noise at the level reached (median ≤ 4.2 %, P90 ≤ 13.5 %; goal P90 ≤ 10 % not met)", () => {
     const s = stat(variant, "vt1-consensus", "moderate");
-    expect(s.medianPct).toBeLessThanOrEqual(4.5);
-    expect(s.p90Pct).toBeLessThanOrEqual(13);
+    expect(s.medianPct).toBeLessThanOrEqual(4.2);
+    expect(s.p90Pct).toBeLessThanOrEqual(13.5);
   });
 });

@@ -13,6 +13,7 @@ import { ventilatoryEquivalents } from "../../lib/thresholds/ventilatoryEquivale
 import { rcpVeVco2 } from "../../lib/thresholds/rcpVeVco2";
 import { rcpVentilatoryEquivalents } from "../../lib/thresholds/rcpVentilatoryEquivalents";
 import { jointVt2 } from "../../lib/thresholds/jointVt2";
+import { jointVt1 } from "../../lib/thresholds/jointVt1";
 import { combineEstimates } from "../../lib/thresholds/consensus";
 import { VT_SOURCES } from "../../lib/thresholds/sourcesThresholds";
 import type { ConditionedTest } from "../../lib/signal";
@@ -47,6 +48,27 @@ describe("VT1 refit when the VT1 window ends close above VT1 (early VT2)", () =>
     const joint = r.methods.find((m) => m.id === "vt1-joint-profile")!;
     // the refitted window reaches past the truncated one (VT1 + 60 s)
     expect(joint.window.endS).toBeGreaterThan(truth.timeS + 60 + 20);
+  });
+});
+
+describe("joint VT1 profile: excess CO2 reads past the RCP, VE and PETO2 stop below it", () => {
+  // Noise-free synthetic test (invented data). VCO2 − VO2 has no bend of its own at the RCP, so it reads the whole
+  // analysed span; VE and PETO2 bend again there and stop at `endS` (README-thresholds.md, round 7).
+  const syn = generateSyntheticTest({ noise: "none" }, 2);
+  const series = buildThresholdSeries(conditionTable(syn.table))!;
+  const truth = syn.truth.vt1;
+  const endS = syn.truth.vt2!.timeS;
+  it("reads excess CO2 to the end of the analysed span by default and says so", () => {
+    const m = jointVt1(series, { endS });
+    expect(m.fit.excessCo2EndS).toBe(series.span.endS);
+    expect(series.span.endS).toBeGreaterThan(endS + 60);
+    expect(m.reasons.join(" ")).toMatch(/excess CO2 read to \d+ s, VE and PETO2 to \d+ s/);
+    expect(errPct(m.vo2MlMin.value, truth.vo2MlMin)).toBeLessThan(3);
+  });
+  it("never reads excess CO2 over less than the VE/PETO2 window", () => {
+    const m = jointVt1(series, { endS, excessCo2EndS: endS - 200 });
+    expect(m.fit.excessCo2EndS).toBe(endS);
+    expect(m.reasons.join(" ")).not.toMatch(/excess CO2 read to/);
   });
 });
 
