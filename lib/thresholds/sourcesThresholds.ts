@@ -64,7 +64,7 @@ export const VT_SOURCES = defineSources({
   },
   "vt-joint-profile-choice": {
     citation:
-      "Joint profile likelihood of one break time shared by VCO2 vs VO2, VE vs VO2 and PETO2 vs time, and its combination with the single-plot methods (implementation choice of this software, no published source)",
+      "Joint profile likelihood of one break time shared by several signals against time (VT1: excess CO2 over the whole ramp, VE and PETO2 below the RCP; VT2: VE against VCO2 and PETCO2), and its combination with the single-plot methods (implementation choice of this software, no published source)",
     status: "common-practice",
   },
   "vt-implementation-choice": {

@@ -222,8 +222,8 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                   <SourceList ids={m.sourceIds} />
                 </td>
                 <td className="num">{fmt(m.vo2MlMin)}</td>
-                <td className="num">{m.timeS !== null ? formatClock(m.timeS) : "—"}</td>
-                <td>{m.quality}</td>
+                <td className="num nowrap">{m.timeS !== null ? formatClock(m.timeS) : "—"}</td>
+                <td className="nowrap">{m.quality}</td>
                 <td className="how">{m.reasons.join("; ")}</td>
               </tr>
             ))}
