@@ -1,6 +1,6 @@
 import type { BreathRow, NumericField } from "../breath";
 import { makeIssue, measured, notDetermined, type Issue, type Measured, type Provenance } from "../core";
-import { binByTime, PrefixSums, quantile, runningMedian, seededRandom } from "../numeric";
+import { binByTime, linearRegression, PrefixSums, quantile, runningMedian, seededRandom } from "../numeric";
 import type { ConditionedTest } from "../signal";
 import { combineEstimates, timeAtLevel, vo2AtTime, type Consensus } from "./consensus";
 import { modifiedVSlope } from "./modifiedVSlope";
@@ -194,6 +194,52 @@ export interface DetectThresholdsOptions {
    * the segment above a VT1 that lies close to it, and the single-signal fits fail. 0 = no refit. @default 120
    */
   vt1MinSpanAboveS?: number;
+  /**
+   * Pull the end of the VT1 window back, one bin at a time and never below VT2 − 60 s, while VE/VCO2 over the last
+   * four bins before it is already rising (more than 1 % per minute, slope ≥ 2 standard errors). The RCP is where
+   * VE/VCO2 starts to rise (source `vt-rcp-criteria-recalled`); when the compensation starts before the RCP's
+   * two-line break, the 40-s margin above VT2 would otherwise give VE and PETO2 a second upward bend and pull their
+   * VT1 hinge late. Rise, window and test: our choice (README-thresholds.md, round 7: moderate-noise VT1 P90 over six
+   * synthetic banks 10.93 → 10.77 %, low 8.13 → 7.75 %, high 15.13 → 15.11 %). @default true
+   */
+  vt1StopAtVeVco2Rise?: boolean;
+}
+
+/**
+ * End of the VT1 window pulled back while VE/VCO2 over the last `bins` bins before it rises by more than
+ * `minRisePctPerMin` with a slope of at least `minT` standard errors; never earlier than `floorS` (our choice, see
+ * `DetectThresholdsOptions.vt1StopAtVeVco2Rise`).
+ */
+export function stopBeforeVeVco2Rise(
+  series: ThresholdSeries,
+  endS: number,
+  floorS: number,
+  bins = 4,
+  minRisePctPerMin = 1,
+  minT = 2,
+): number {
+  let end = endS;
+  for (let guard = 0; guard < 12 && end - series.binS >= floorS; guard++) {
+    const x: number[] = [];
+    const y: number[] = [];
+    for (let i = series.timeS.length - 1; i >= 0 && x.length < bins; i--)
+      if (series.timeS[i] <= end && Number.isFinite(series.veLMin[i]) && series.vco2MlMin[i] > 0) {
+        x.push(series.timeS[i] / 60);
+        y.push((1000 * series.veLMin[i]) / series.vco2MlMin[i]);
+      }
+    if (x.length < bins) break;
+    const fit = linearRegression(x, y);
+    const n = x.length;
+    const mx = x.reduce((a, b) => a + b, 0) / n;
+    const sxx = x.reduce((a, b) => a + (b - mx) ** 2, 0);
+    let sse = 0;
+    for (let k = 0; k < n; k++) sse += (y[k] - fit.intercept - fit.slope * x[k]) ** 2;
+    const se = Math.sqrt(sse / Math.max(1, n - 2) / sxx);
+    const meanY = y.reduce((a, b) => a + b, 0) / n;
+    if ((100 * fit.slope) / meanY > minRisePctPerMin && fit.slope >= minT * se) end -= series.binS;
+    else break;
+  }
+  return end;
 }
 
 const VT1_PREFERENCE = ["vt1-joint-profile", "vt1-v-slope", "vt1-ventilatory-equivalents", "vt1-modified-v-slope"];
@@ -220,16 +266,23 @@ interface Core {
   vt2TimeS: number | null;
 }
 
-function runMethods(series: ThresholdSeries, agreementFraction: number, vt1BeyondVt2S = 40, vt1MinSpanAboveS = 120): Core {
+function runMethods(
+  series: ThresholdSeries,
+  agreementFraction: number,
+  vt1BeyondVt2S = 40,
+  vt1MinSpanAboveS = 120,
+  stopAtRise = true,
+): Core {
   const vt2Methods = [rcpVeVco2(series), rcpVentilatoryEquivalents(series), jointVt2(series)];
   const vt2 = combineEstimates(vt2Methods, { agreementFraction, preference: VT2_PREFERENCE, weights: VT2_WEIGHTS });
   const vt2TimeS = vt2.vo2MlMin === null ? null : timeAtLevel(series, series.vo2Trend, vt2.vo2MlMin);
-  const upper =
+  let upper =
     vt2TimeS !== null && vt2.confidence !== "low"
       ? vt2TimeS + vt1BeyondVt2S
       : vt2TimeS !== null
         ? Math.max(vt2TimeS, series.span.endS - 60)
         : series.span.endS;
+  if (stopAtRise && vt2TimeS !== null && vt2.confidence !== "low") upper = stopBeforeVeVco2Rise(series, upper, vt2TimeS - 60);
   const runVt1 = (endS: number) => {
     const ms = [
       vSlope(series, { endS }),
@@ -259,6 +312,7 @@ function bootstrapSeries(
   agreementFraction: number,
   vt1BeyondVt2S: number,
   vt1MinSpanAboveS: number,
+  stopAtRise: boolean,
 ): { vt1: (number | null)[]; vt2: (number | null)[] } {
   const rng = seededRandom(seed);
   const n = series.timeS.length;
@@ -277,7 +331,7 @@ function bootstrapSeries(
     fields.forEach((f, c) => {
       s[f] = Float64Array.from(smooth[c], (v, i) => v + resid[c][order[i]]);
     });
-    const core = runMethods(s, agreementFraction, vt1BeyondVt2S, vt1MinSpanAboveS);
+    const core = runMethods(s, agreementFraction, vt1BeyondVt2S, vt1MinSpanAboveS, stopAtRise);
     out.vt1.push(core.vt1.vo2MlMin);
     out.vt2.push(core.vt2.vo2MlMin);
   }
@@ -347,9 +401,10 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
   }
   const beyond = options.vt1BeyondVt2S ?? 40;
   const minSpan = options.vt1MinSpanAboveS ?? 120;
-  const core = runMethods(series, agreementFraction, beyond, minSpan);
+  const stopAtRise = options.vt1StopAtVeVco2Rise ?? true;
+  const core = runMethods(series, agreementFraction, beyond, minSpan, stopAtRise);
   const reps = Math.max(0, Math.floor(options.bootstrap ?? 30));
-  const boot = reps > 0 ? bootstrapSeries(series, reps, options.seed ?? 1, agreementFraction, beyond, minSpan) : null;
+  const boot = reps > 0 ? bootstrapSeries(series, reps, options.seed ?? 1, agreementFraction, beyond, minSpan, stopAtRise) : null;
   const bag = options.bootstrapMedian ?? true;
   const vt1 = toEstimate("vt1", core.vt1, core.vt1TimeS, series, test, boot?.vt1 ?? null, bag);
   // VT2 keeps the single-pass value: resampling around a 5-bin smoothed series rounds the compensation corner

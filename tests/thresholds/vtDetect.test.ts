@@ -5,6 +5,7 @@ import {
   applyThresholdOverrides,
   buildThresholdSeries,
   detectThresholds,
+  stopBeforeVeVco2Rise,
   valueAtTime,
 } from "../../lib/thresholds/detectThresholds";
 import { vSlope } from "../../lib/thresholds/vSlope";
@@ -240,5 +241,47 @@ describe("valueAtTime and consensus", () => {
     expect(["moderate", "high"]).toContain(combineEstimates([a, b]).confidence);
     const far = { ...b, vo2MlMin: { ...b.vo2MlMin, value: (b.vo2MlMin.value as number) * 1.5 } };
     expect(combineEstimates([a, far]).confidence).toBe("low");
+  });
+});
+
+describe("VT1 window stops before VE/VCO2 rises", () => {
+  // Hand-built binned series (invented numbers): VE/VCO2 flat at 25 until 600 s, then rising 3 % per minute.
+  const timeS = Float64Array.from({ length: 30 }, (_, i) => 100 + 20 * i);
+  const vco2 = Float64Array.from(timeS, (t) => 800 + 2 * (t - 100));
+  const ratio = (t: number, riseFromS: number) => 25 * (1 + (0.03 * Math.max(0, t - riseFromS)) / 60);
+  const series = (riseFromS: number): ThresholdSeries => ({
+    binS: 20,
+    timeS,
+    vo2MlMin: vco2,
+    vco2MlMin: vco2,
+    veLMin: Float64Array.from(timeS, (t, i) => (ratio(t, riseFromS) * vco2[i]) / 1000),
+    peto2MmHg: new Float64Array(30).fill(100),
+    petco2MmHg: new Float64Array(30).fill(40),
+    vo2Trend: vco2,
+    vco2Trend: vco2,
+    span: { startS: 100, endS: 680 },
+    spikesRemoved: 0,
+    averaging: "20-s bins (test)",
+  });
+  it("keeps the end where VE/VCO2 is flat", () => {
+    expect(stopBeforeVeVco2Rise(series(10_000), 640, 500)).toBe(640);
+  });
+  it("pulls the end back to the start of the rise, one bin at a time", () => {
+    const end = stopBeforeVeVco2Rise(series(560), 660, 400);
+    expect(end).toBeLessThan(660);
+    expect(end).toBeGreaterThanOrEqual(560);
+    expect(end).toBeLessThanOrEqual(600);
+  });
+  it("never goes below the floor (VT2 − 60 s in the engine)", () => {
+    expect(stopBeforeVeVco2Rise(series(200), 660, 600)).toBeGreaterThanOrEqual(600);
+  });
+  it("is on by default in detectThresholds and can be turned off", () => {
+    const syn = generateSyntheticTest({ noise: "none" }, 2);
+    const test = conditionTable(syn.table);
+    const on = detectThresholds(test, { bootstrap: 0 });
+    const off = detectThresholds(test, { bootstrap: 0, vt1StopAtVeVco2Rise: false });
+    const end = (r: typeof on) => r.methods.find((m) => m.id === "vt1-v-slope")!.window.endS;
+    expect(end(on)).toBeLessThanOrEqual(end(off));
+    expect(errPct(on.vt1.vo2MlMin.value, syn.truth.vt1.vo2MlMin)).toBeLessThan(3);
   });
 });
