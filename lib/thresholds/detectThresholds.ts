@@ -229,14 +229,11 @@ export function stopBeforeVeVco2Rise(
       }
     if (x.length < bins) break;
     const fit = linearRegression(x, y);
-    const n = x.length;
-    const mx = x.reduce((a, b) => a + b, 0) / n;
+    const mx = x.reduce((a, b) => a + b, 0) / fit.n;
     const sxx = x.reduce((a, b) => a + (b - mx) ** 2, 0);
-    let sse = 0;
-    for (let k = 0; k < n; k++) sse += (y[k] - fit.intercept - fit.slope * x[k]) ** 2;
-    const se = Math.sqrt(sse / Math.max(1, n - 2) / sxx);
-    const meanY = y.reduce((a, b) => a + b, 0) / n;
-    if ((100 * fit.slope) / meanY > minRisePctPerMin && fit.slope >= minT * se) end -= series.binS;
+    const slopeSe = Math.sqrt(fit.sse / Math.max(1, fit.n - 2) / sxx);
+    const meanRatio = fit.intercept + fit.slope * mx;
+    if ((100 * fit.slope) / meanRatio > minRisePctPerMin && fit.slope >= minT * slopeSe) end -= series.binS;
     else break;
   }
   return end;
@@ -266,23 +263,35 @@ interface Core {
   vt2TimeS: number | null;
 }
 
-function runMethods(
+/** How the VT1 window follows VT2 (see the options of the same names in `DetectThresholdsOptions`). */
+interface Vt1WindowRules {
+  vt1BeyondVt2S: number;
+  vt1MinSpanAboveS: number;
+  vt1StopAtVeVco2Rise: boolean;
+}
+
+/**
+ * End of the data the VT1 methods read: VT2 + `vt1BeyondVt2S`, pulled back while VE/VCO2 already rises (never below
+ * VT2 − 60 s); a low-confidence VT2 only trims to max(VT2, end − 60 s); no VT2 → the whole span.
+ */
+function vt1WindowEnd(
   series: ThresholdSeries,
-  agreementFraction: number,
-  vt1BeyondVt2S = 40,
-  vt1MinSpanAboveS = 120,
-  stopAtRise = true,
-): Core {
+  vt2TimeS: number | null,
+  vt2Confidence: Consensus["confidence"],
+  rules: Vt1WindowRules,
+): number {
+  if (vt2TimeS === null) return series.span.endS;
+  if (vt2Confidence === "low") return Math.max(vt2TimeS, series.span.endS - 60);
+  const end = vt2TimeS + rules.vt1BeyondVt2S;
+  return rules.vt1StopAtVeVco2Rise ? stopBeforeVeVco2Rise(series, end, vt2TimeS - 60) : end;
+}
+
+function runMethods(series: ThresholdSeries, agreementFraction: number, rules: Vt1WindowRules): Core {
+  const { vt1MinSpanAboveS } = rules;
   const vt2Methods = [rcpVeVco2(series), rcpVentilatoryEquivalents(series), jointVt2(series)];
   const vt2 = combineEstimates(vt2Methods, { agreementFraction, preference: VT2_PREFERENCE, weights: VT2_WEIGHTS });
   const vt2TimeS = vt2.vo2MlMin === null ? null : timeAtLevel(series, series.vo2Trend, vt2.vo2MlMin);
-  let upper =
-    vt2TimeS !== null && vt2.confidence !== "low"
-      ? vt2TimeS + vt1BeyondVt2S
-      : vt2TimeS !== null
-        ? Math.max(vt2TimeS, series.span.endS - 60)
-        : series.span.endS;
-  if (stopAtRise && vt2TimeS !== null && vt2.confidence !== "low") upper = stopBeforeVeVco2Rise(series, upper, vt2TimeS - 60);
+  const upper = vt1WindowEnd(series, vt2TimeS, vt2.confidence, rules);
   const runVt1 = (endS: number) => {
     const ms = [
       vSlope(series, { endS }),
@@ -310,9 +319,7 @@ function bootstrapSeries(
   replicates: number,
   seed: number,
   agreementFraction: number,
-  vt1BeyondVt2S: number,
-  vt1MinSpanAboveS: number,
-  stopAtRise: boolean,
+  rules: Vt1WindowRules,
 ): { vt1: (number | null)[]; vt2: (number | null)[] } {
   const rng = seededRandom(seed);
   const n = series.timeS.length;
@@ -331,7 +338,7 @@ function bootstrapSeries(
     fields.forEach((f, c) => {
       s[f] = Float64Array.from(smooth[c], (v, i) => v + resid[c][order[i]]);
     });
-    const core = runMethods(s, agreementFraction, vt1BeyondVt2S, vt1MinSpanAboveS, stopAtRise);
+    const core = runMethods(s, agreementFraction, rules);
     out.vt1.push(core.vt1.vo2MlMin);
     out.vt2.push(core.vt2.vo2MlMin);
   }
@@ -399,12 +406,14 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
         ),
       );
   }
-  const beyond = options.vt1BeyondVt2S ?? 40;
-  const minSpan = options.vt1MinSpanAboveS ?? 120;
-  const stopAtRise = options.vt1StopAtVeVco2Rise ?? true;
-  const core = runMethods(series, agreementFraction, beyond, minSpan, stopAtRise);
+  const rules: Vt1WindowRules = {
+    vt1BeyondVt2S: options.vt1BeyondVt2S ?? 40,
+    vt1MinSpanAboveS: options.vt1MinSpanAboveS ?? 120,
+    vt1StopAtVeVco2Rise: options.vt1StopAtVeVco2Rise ?? true,
+  };
+  const core = runMethods(series, agreementFraction, rules);
   const reps = Math.max(0, Math.floor(options.bootstrap ?? 30));
-  const boot = reps > 0 ? bootstrapSeries(series, reps, options.seed ?? 1, agreementFraction, beyond, minSpan, stopAtRise) : null;
+  const boot = reps > 0 ? bootstrapSeries(series, reps, options.seed ?? 1, agreementFraction, rules) : null;
   const bag = options.bootstrapMedian ?? true;
   const vt1 = toEstimate("vt1", core.vt1, core.vt1TimeS, series, test, boot?.vt1 ?? null, bag);
   // VT2 keeps the single-pass value: resampling around a 5-bin smoothed series rounds the compensation corner

@@ -131,8 +131,8 @@ export function segmentedProfile(
  * time plus an upward hinge at τ, give residual sums of squares SSE_s(τ): excess CO2 (VCO2 − VO2: the
  * excess-CO2 start of the modified V-slope), VE (VE starts rising faster than VO2) and PETO2 (PETO2 starts
  * rising). VE and PETO2 read data up to `endS` (below the RCP); excess CO2, which does not bend at the RCP,
- * reads up to `excessCo2EndS` (the whole analysed span by default). The joint criterion L(τ) = Σ_s (n_s/2)·log SSE_s(τ) gives each signal its own unknown noise
- * variance; a signal without a break adds a flat profile. The estimate is the median of the tempered
+ * reads up to `excessCo2EndS` (the whole analysed span by default). The joint criterion
+ * L(τ) = Σ_s (n_s/2)·log SSE_s(τ) gives each signal its own unknown noise variance; a signal without a break adds a flat profile. The estimate is the median of the tempered
  * profile weights exp(−½·(L(τ) − min L)) over τ (more stable than the minimum under noise — our choice,
  * chosen on the synthetic bank); VO2 from the VO2 trend at that time. Confidence rests on the likelihood ratio
  * against no break, the number of signals that bend and the width of the profile (10th–90th percentile).
@@ -143,7 +143,9 @@ export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {})
   const step = options.stepS ?? 5;
   const minLr = options.minLr ?? 2;
   const temper = options.temperature ?? 0.5;
-  const win = seriesWindow(series, series.span.startS, endS).filter((i) => Number.isFinite(series.vo2MlMin[i]));
+  const windowTo = (lastS: number) =>
+    seriesWindow(series, series.span.startS, lastS).filter((i) => Number.isFinite(series.vo2MlMin[i]));
+  const win = windowTo(endS);
   const m = Math.max(3, Math.min(options.minPointsEachSide ?? 5, Math.floor(win.length / 3)));
   const window = { startS: series.span.startS, endS };
   const base = {
@@ -172,10 +174,7 @@ export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {})
   }
   const taus = candidateBreakTimes(series, win, m, step);
   const excessEndS = Math.max(endS, options.excessCo2EndS ?? series.span.endS);
-  const winExcess =
-    excessEndS > endS
-      ? seriesWindow(series, series.span.startS, excessEndS).filter((i) => Number.isFinite(series.vo2MlMin[i]))
-      : win;
+  const winExcess = excessEndS > endS ? windowTo(excessEndS) : win;
   const signals = [
     lineSignal("excessCo2", series, winExcess, (i) => series.vco2MlMin[i] - series.vo2MlMin[i], taus),
     lineSignal("ve", series, win, (i) => series.veLMin[i], taus),
