@@ -1,6 +1,6 @@
 import { makeIssue, type Issue } from "../core";
 import type { BreathRow } from "../breath";
-import { linearRegression } from "../numeric";
+import { linearRegression, median } from "../numeric";
 import type { PhaseSpan } from "./types";
 
 export interface PhaseOptions {
@@ -28,8 +28,10 @@ export interface PhaseDetection {
  *   the exercise span runs from the first to the last "exercise" breath.
  * - Otherwise from the work rate (or, on a treadmill, speed, then grade): rest = zero load before the
  *   first loaded breath; warm-up = a first constant low load (≤ half the peak) lasting at least 60 s and,
- *   in a step protocol, 1.5 times the usual step; incremental = from the first rise to the last breath at
- *   peak load; recovery = after the peak load drops. Protocol shape as in the ERS statement (≥3 min
+ *   in a step protocol, 1.5 times the usual step (its level is the median of the first five loaded breaths, so a
+ *   breath that straddles the load change does not set it); incremental = from the first rise (on a steady ramp,
+ *   where the ramp's first minute extrapolates back to the warm-up load) to the last breath at peak load;
+ *   recovery = after the peak load drops. Protocol shape as in the ERS statement (≥3 min
  *   rest, ~3 min unloaded, 8–12 min incremental, ≥2–3 min recovery; Radtke et al. 2019, Eur Respir Rev
  *   28:180101, confirmed); the detection rules themselves are common practice.
  * - Ramp rate: OLS slope of work (W) on time (min) over the incremental phase (standard statistics);
@@ -93,9 +95,11 @@ export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions =
       break;
     }
   }
-  // warm-up: first constant low load
+  // warm-up: first constant low load. Its level is the median of the first five loaded breaths, not the first one:
+  // a breath that straddles the load change carries a time-averaged load between rest and warm-up.
+  const level = median(x.subarray(firstLoaded, Math.min(peakLast + 1, firstLoaded + 5)));
   let runEnd = firstLoaded;
-  while (runEnd + 1 <= peakLast && Math.abs(x[runEnd + 1] - x[firstLoaded]) <= tol) runEnd++;
+  while (runEnd + 1 <= peakLast && Math.abs(x[runEnd + 1] - level) <= tol) runEnd++;
   const firstRunS = (runEnd + 1 < t.length ? t[runEnd + 1] : t[runEnd]) - t[firstLoaded];
   const stepDurations: number[] = [];
   let s0 = runEnd + 1;
@@ -109,14 +113,16 @@ export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions =
   const typicalStep = stepDurations.length > 0 ? stepDurations[Math.floor(stepDurations.length / 2)] : 0;
   const warmup =
     runEnd < peakLast &&
-    x[firstLoaded] <= 0.5 * peak &&
+    level <= 0.5 * peak &&
     firstRunS >= (options.minWarmupS ?? 60) &&
     (typicalStep < 10 || firstRunS >= 1.5 * typicalStep);
   let incStart = warmup ? runEnd + 1 : firstLoaded;
   if (warmup) {
-    // the rise began at the last breath still at the warm-up load (within a small tolerance)
+    // the rise began at the last breath still at the warm-up load (within a small tolerance) …
     const small = Math.max(zero, 0.005 * peak);
-    while (incStart - 1 > firstLoaded && x[incStart - 1] > x[firstLoaded] + small) incStart--;
+    while (incStart - 1 > firstLoaded && x[incStart - 1] > level + small) incStart--;
+    // … or, on a steady ramp, where the ramp's first minute extrapolates back to the warm-up load
+    incStart = rampOnset(t, x, incStart, firstLoaded, level);
   }
   const phases: PhaseSpan[] = [];
   if (firstLoaded > 0) phases.push({ phase: "rest", startS: t[0], endS: t[firstLoaded], source });
@@ -160,6 +166,27 @@ export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions =
     ),
   );
   return { phases, exercise: { startS: t[incStart], endS: t[peakLast] }, rampRateWPerMin: rate, rampRateR2: r2, issues };
+}
+
+/**
+ * Back-extrapolate a steady ramp to its onset: OLS of load on time over the first 60 s of the incremental phase; when
+ * that is a clean rise (slope > 0, R² ≥ 0.95: a ramp, not a step), the onset is the first breath at or after the time
+ * the line meets the warm-up level. Moves the start earlier only. Common practice (straight-line extrapolation).
+ */
+function rampOnset(t: readonly number[], x: Float64Array, incStart: number, firstLoaded: number, level: number): number {
+  const xs: number[] = [];
+  const ys: number[] = [];
+  for (let i = incStart; i < t.length && t[i] <= t[incStart] + 60; i++) {
+    xs.push(t[i]);
+    ys.push(x[i]);
+  }
+  if (xs.length < 5) return incStart;
+  const fit = linearRegression(xs, ys);
+  if (!(fit.slope > 0) || !(fit.r2 >= 0.95)) return incStart;
+  const onsetS = (level - fit.intercept) / fit.slope;
+  let i = incStart;
+  while (i - 1 > firstLoaded && t[i - 1] >= onsetS) i--;
+  return i;
 }
 
 function rampRate(rows: readonly BreathRow[], startS: number, endS: number): { rate: number | null; r2: number | null } {

@@ -37,6 +37,33 @@ describe("detectPhases from the work rate", () => {
     expect(s.exercise!.startS).toBe(300);
   });
 
+  it("a breath straddling the rest-to-warm-up change (half load) does not hide the warm-up", () => {
+    // INVENTED: rest 0 W to 180 s, warm-up 7 W to 360 s, ramp 13 W/min, breaths every 3 s; the breath at 180 s
+    // carries 3.5 W (time-averaged over the change), as a cart's breath-averaged load does.
+    const rows: BreathRow[] = [];
+    for (let t = 0; t <= 1200; t += 3) {
+      const w = t < 180 ? 0 : t === 180 ? 3.5 : t < 360 ? 7 : t <= 1100 ? 7 + (13 * (t - 360)) / 60 : 0;
+      rows.push({ timeS: t, workW: w, vo2MlMin: 400 + 10 * w });
+    }
+    const s = detectPhases(rows);
+    expect(s.phases.map((p) => p.phase)).toEqual(["rest", "warmup", "exercise", "recovery"]);
+    // built-in ramp onset 360 s; breaths are 3 s apart, so within one breath
+    expect(Math.abs(s.exercise!.startS - 360)).toBeLessThanOrEqual(3);
+  });
+
+  it("a slow ramp with whole-watt loads starts where the ramp extrapolates to the warm-up load", () => {
+    // INVENTED: warm-up 10 W from 120 s, ramp 10 W/min from 300 s, loads rounded to whole watts (a 1-W step takes
+    // 6 s, so "first breath above the warm-up load" alone would be about 6 s late); breaths every 2 s.
+    const rows: BreathRow[] = [];
+    for (let t = 0; t <= 1000; t += 2) {
+      const w = t < 120 ? 0 : t < 300 ? 10 : t <= 960 ? Math.round(10 + (10 * (t - 300)) / 60) : 0;
+      rows.push({ timeS: t, workW: w, vo2MlMin: 400 + 10 * w });
+    }
+    const s = detectPhases(rows);
+    expect(Math.abs(s.exercise!.startS - 300)).toBeLessThanOrEqual(4);
+    expect(Math.abs(s.rampRateWPerMin! - 10)).toBeLessThan(0.2);
+  });
+
   it("treadmill speed steps: phases found, no ramp rate in watts", () => {
     const rows: BreathRow[] = [];
     for (let t = 0; t <= 720; t += 3)
