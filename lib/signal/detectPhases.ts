@@ -123,9 +123,13 @@ export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions =
     while (incStart - 1 > firstLoaded && x[incStart - 1] > level + small) incStart--;
     // … or, on a steady ramp, where the ramp's first minute extrapolates back to the warm-up load
     incStart = rampOnset(t, x, incStart, firstLoaded, level);
+  } else if (firstLoaded > 0) {
+    // a ramp straight from rest or unloaded pedalling (0 W): where it extrapolates back to the resting load
+    incStart = rampOnset(t, x, incStart, 0, x[firstLoaded - 1]);
   }
   const phases: PhaseSpan[] = [];
-  if (firstLoaded > 0) phases.push({ phase: "rest", startS: t[0], endS: t[firstLoaded], source });
+  const restEnd = warmup ? firstLoaded : Math.min(firstLoaded, incStart);
+  if (restEnd > 0) phases.push({ phase: "rest", startS: t[0], endS: t[restEnd], source });
   if (warmup) phases.push({ phase: "warmup", startS: t[firstLoaded], endS: t[incStart], source });
   if (incStart >= peakLast) {
     issues.push(
@@ -173,7 +177,7 @@ export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions =
  * that is a clean rise (slope > 0, R² ≥ 0.95: a ramp, not a step), the onset is the first breath at or after the time
  * the line meets the warm-up level. Moves the start earlier only. Common practice (straight-line extrapolation).
  */
-function rampOnset(t: readonly number[], x: Float64Array, incStart: number, firstLoaded: number, level: number): number {
+function rampOnset(t: readonly number[], x: Float64Array, incStart: number, lowest: number, level: number): number {
   const xs: number[] = [];
   const ys: number[] = [];
   for (let i = incStart; i < t.length && t[i] <= t[incStart] + 60; i++) {
@@ -185,7 +189,7 @@ function rampOnset(t: readonly number[], x: Float64Array, incStart: number, firs
   if (!(fit.slope > 0) || !(fit.r2 >= 0.95)) return incStart;
   const onsetS = (level - fit.intercept) / fit.slope;
   let i = incStart;
-  while (i - 1 > firstLoaded && t[i - 1] >= onsetS) i--;
+  while (i - 1 > lowest && t[i - 1] >= onsetS) i--;
   return i;
 }
 

@@ -64,6 +64,22 @@ describe("detectPhases from the work rate", () => {
     expect(Math.abs(s.rampRateWPerMin! - 10)).toBeLessThan(0.2);
   });
 
+  it("a ramp straight from 0 W (unloaded pedalling at zero load) starts where it extrapolates back to 0 W", () => {
+    // INVENTED: 0 W to 400 s, then 15 W/min rounded down to whole watts (1 W only 4 s after the onset, 2 W after 8 s);
+    // breaths every 3 s from 1 s.
+    const rows: BreathRow[] = [];
+    for (let t = 1; t <= 1100; t += 3) {
+      const w = t < 400 || t > 1000 ? 0 : Math.floor((15 * (t - 400)) / 60);
+      rows.push({ timeS: t, workW: w, vo2MlMin: 400 + 10 * w });
+    }
+    const s = detectPhases(rows);
+    expect(s.phases.map((p) => p.phase)).toEqual(["rest", "exercise", "recovery"]);
+    // the first breath with 2 W (> the 1-W zero-load limit) is at 409 s; the extrapolated onset is within two breaths of 400 s
+    expect(s.exercise!.startS).toBeGreaterThanOrEqual(400);
+    expect(s.exercise!.startS).toBeLessThanOrEqual(406);
+    expect(s.phases[0].endS).toBe(s.exercise!.startS);
+  });
+
   it("treadmill speed steps: phases found, no ramp rate in watts", () => {
     const rows: BreathRow[] = [];
     for (let t = 0; t <= 720; t += 3)
