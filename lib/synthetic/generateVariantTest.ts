@@ -204,7 +204,8 @@ export function generateVariantTest(spec: VariantSpec, seed: number): VariantTes
     const rer = vco2[t] / vo2[t];
     peto2[t] = 0.2093 * 713 - petco2[t] * (0.2093 + (1 - 0.2093) / rer);
     hr[t] = 65 + (110 * (vo2[t] - spec.vo2RestMlMin)) / span + (spec.hrDriftBpmPerMin * t) / 60;
-    work[t] = t < warmEnd ? 0 : t <= rampEnd ? ((vo2M[t] - spec.vo2UnloadedMlMin) / 10) | 0 : 0;
+    // the commanded load (whole watts), 0 W at the start of the ramp: an ergometer's load leads VO2, never lags it
+    work[t] = t < warmEnd || t > rampEnd ? 0 : Math.floor(Math.max(0, (span / 10) * shape((t - warmEnd) / spec.rampS)));
   }
   const meanDelay = (1 - spec.storeSlowFraction) * spec.storeFastTauS + spec.storeSlowFraction * spec.storeSlowTauS;
   const at = (a: Float64Array, t: number) => {

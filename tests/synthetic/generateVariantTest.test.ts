@@ -48,3 +48,32 @@ describe("variant model: CO2 washout above VT2", () => {
     expect(generateVariantTest(rest, 5004).noiseFree.rows).toEqual(without.noiseFree.rows);
   });
 });
+
+// The load column is the ergometer's command: it leads VO2. (It was once derived from the lagging metabolic VO2, which
+// made it negative and late at the start of the ramp; files without phase markers then started the ramp too late.)
+describe("variant model: load column", () => {
+  for (const i of [0, 2, 3, 4, 8]) {
+    it(`case ${i}: never negative, 0 W before the ramp, rising from its first breath and ending at peak work`, () => {
+      const spec = variantSpec(i, 2024, ["moderate"]);
+      const syn = generateVariantTest(spec, 5000 + i);
+      const rows = syn.noiseFree.rows;
+      const loads = rows.map((r) => r.workW!);
+      expect(Math.min(...loads)).toBeGreaterThanOrEqual(0);
+      const ex = rows.filter((r) => r.phase === "exercise");
+      for (const r of rows) if (r.phase === "rest" || r.phase === "warmup") expect(r.workW).toBe(0);
+      // peak work = (peak − unloaded VO2) / 10 mL/min/W, the model's own gain (invented), whole watts
+      const peakW = Math.floor((spec.peakVo2MlMin - spec.vo2UnloadedMlMin) / 10);
+      // (1-min steps: the last step starts one step below, at (k − 1)/k of the span for k steps)
+      const topW = spec.protocol === "steps" ? peakW * (1 - 60 / spec.rampS) : peakW;
+      expect(Math.max(...ex.map((r) => r.workW!))).toBeGreaterThanOrEqual(topW - 1);
+      // non-decreasing through the ramp
+      for (let k = 1; k < ex.length; k++) expect(ex[k].workW!).toBeGreaterThanOrEqual(ex[k - 1].workW!);
+      // for a ramp, 2 W is reached within 2 W / rate of the first exercise breath (plus one breath)
+      if (spec.protocol === "ramp") {
+        const rate = syn.truth.rampWPerMin / 60;
+        const first2W = ex.find((r) => r.workW! >= 2)!;
+        expect(first2W.timeS - ex[0].timeS).toBeLessThanOrEqual(2 / rate + 8);
+      }
+    });
+  }
+});
