@@ -125,7 +125,9 @@ export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions =
     incStart = rampOnset(t, x, incStart, firstLoaded, level);
   } else if (firstLoaded > 0) {
     // a ramp straight from rest or unloaded pedalling (0 W): where it extrapolates back to the resting load
-    incStart = rampOnset(t, x, incStart, 0, x[firstLoaded - 1]);
+    let restLoad = x[0];
+    for (let i = 1; i < firstLoaded; i++) restLoad = Math.min(restLoad, x[i]);
+    incStart = rampOnset(t, x, incStart, 0, restLoad);
   }
   const phases: PhaseSpan[] = [];
   const restEnd = warmup ? firstLoaded : Math.min(firstLoaded, incStart);
