@@ -5,3 +5,4 @@ export * from "./syntheticPresets";
 export * from "./syntheticBank";
 export * from "./breathTableToCsv";
 export * from "./generateVariantTest";
+export * from "./generateHoldoutTest";

@@ -54,4 +54,64 @@ export const SYNTHETIC_SOURCES = defineSources({
     status: "common-practice",
     note: "Every preset and noise level is invented data for tests and demonstrations.",
   },
+  "beaver-1986-buffering": {
+    citation:
+      "Beaver WL, Wasserman K, Whipp BJ. A new method for detecting anaerobic threshold by gas exchange. J Appl Physiol 1986;60:2020-7",
+    status: "confirmed",
+    pmid: "3087938",
+    note: "Hold-out model: excess CO2 from bicarbonate buffering ≈22 mL CO2 per mEq of lactic acid (abstract, via clinical-confirmations §4). The effective buffering volume the hold-out model multiplies it by is invented.",
+  },
+  "whipp-1982-kinetics": {
+    citation:
+      "Whipp BJ, Ward SA, Lamarra N, Davis JA, Wasserman K. Parameters of ventilatory and gas exchange dynamics during exercise. J Appl Physiol 1982;52:1506-13",
+    status: "recalled",
+    note: "Hold-out model: cardiodynamic phase I lasting about 15-20 s, then a mono-exponential phase II (tau 20-80 s, longer when unfit); VCO2 slower than VO2. Citation and values from memory.",
+  },
+  "gaesser-1996-slow-component": {
+    citation: "Gaesser GA, Poole DC. The slow component of oxygen uptake kinetics in humans. Exerc Sport Sci Rev 1996;24:35-71",
+    status: "recalled",
+    note: "Hold-out model: extra VO2 developing slowly only above the lactate threshold. Magnitudes invented.",
+  },
+  "hughson-1987-lactate-continuous": {
+    citation:
+      "Hughson RL, Weisiger KH, Swanson GD. Blood lactate concentration increases as a continuous function in progressive exercise. J Appl Physiol 1987;62:1975-81",
+    status: "recalled",
+    note: "Hold-out model: lactate rising as a continuous (exponential) function of work rate; the hold-out model uses a flat baseline up to the threshold and an exponential rise above it. Citation from memory.",
+  },
+  "winters-1967-compensation": {
+    citation:
+      "Albert MS, Dell RB, Winters RW. Quantitative displacement of acid-base equilibrium in metabolic acidosis. Ann Intern Med 1967;66:312-22",
+    status: "recalled",
+    note: "Steady-state respiratory compensation PaCO2 = 1.5·HCO3 + 8 (slope 1.5 mmHg per mmol/L). The hold-out model uses 0.7-1.4 mmHg per mmol/L of lactate above the compensation onset (an incomplete, acute compensation; invented fraction).",
+  },
+  "hey-1966-pattern": {
+    citation:
+      "Hey EN, Lloyd BB, Cunningham DJC, Jukes MGM, Bolton DPG. Effects of various respiratory stimuli on the depth and frequency of breathing in man. Respir Physiol 1966;1:193-205",
+    status: "recalled",
+    note: "Tidal volume rises with ventilation and levels off near half the vital capacity, further ventilation comes from rate. The hold-out model's saturating exponential law and its parameters are invented.",
+  },
+  "tidal-pco2-oscillation": {
+    citation:
+      "Alveolar PCO2 rises through expiration as CO2 enters the lung volume, so end-tidal PCO2 exceeds mean alveolar (≈ arterial) PCO2 in exercise (respiratory physiology textbooks; Jones NL et al. 1979 J Appl Physiol 47:954 for PETCO2 > PaCO2 with large VT)",
+    status: "common-practice",
+    note: "Hold-out model: end-tidal excess = ½·(PB − 47)·VCO2·Texp/EELV, diluted by alveolar dead space. The Jones 1979 citation is recalled (clinical-reference marks it M); lung volumes invented.",
+  },
+  "acsm-metabolic-equations": {
+    citation:
+      "ACSM's Guidelines for Exercise Testing and Prescription, 10th ed., Table 6.3 metabolic calculations, as reproduced by Bushman BA. Metabolic calculations in action part 2. ACSM Health Fit J 2020;24(4):5-8",
+    status: "secondary",
+    doi: "10.1249/FIT.0000000000000577",
+    note: "Walking VO2 = 3.5 + 0.1·S + 1.8·S·G; running VO2 = 3.5 + 0.2·S + 0.9·S·G (mL/kg/min, S in m/min, G grade as a fraction), seen in the reproduction.",
+  },
+  "jones-1996-treadmill-grade": {
+    citation:
+      "Jones AM, Doust JH. A 1% treadmill grade most accurately reflects the energetic cost of outdoor running. J Sports Sci 1996;14:321-7",
+    status: "recalled",
+    note: "Hold-out model: running protocols held at 1 % grade. Citation from memory.",
+  },
+  "tanaka-2001-hrmax": {
+    citation: "Tanaka H, Monahan KD, Seals DR. Age-predicted maximal heart rate revisited. J Am Coll Cardiol 2001;37:153-6",
+    status: "secondary",
+    note: "HRmax = 208 − 0.7·age, seen in a later abstract (Front Physiol 2018, doi 10.3389/fphys.2018.00226); journal details recalled. Hold-out model: chronotropic index (share of HR reserve used) 0.55-1.0 by group, invented; below 0.80 is impaired (clinical-reference, Brubaker & Kitzman).",
+  },
 });
