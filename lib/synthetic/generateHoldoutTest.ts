@@ -166,6 +166,8 @@ const FIO2 = 0.2093;
 const PIO2 = FIO2 * (PB - PH2O);
 /** Expiratory share of the breath cycle (common practice, ≈0.55–0.6). */
 const EXPIRATORY_FRACTION = 0.55;
+/** Least fall of PaCO2 from the compensation onset to the end of the ramp, mmHg (invented). */
+const MIN_COMPENSATION_MMHG = 3;
 /** Cardiodynamic (phase I) fast time constant, s (whipp-1982-kinetics, recalled: phase I ≈ 15 s, near step-like). */
 const TAU_PHASE1_S = 4;
 
@@ -518,7 +520,7 @@ export function holdoutSpec(i: number, seed: number, noiseLevels: NoiseLevel[]):
     lactatePeakMmolL: round(between(r, ...G.lactatePeak), 1),
     lactateCurvature: round(between(r, 1.3, 2.3), 2),
     lactateClearanceTauS: Math.round(between(r, 600, 1200)),
-    excessCo2FractionAtPeak: round(between(r, 0.15, 0.28), 3),
+    excessCo2FractionAtPeak: round(between(r, 0.2, 0.32), 3),
     rqRest: round(between(r, 0.76, 0.88), 3),
     rqPeak: round(between(r, 0.95, 1.0), 3),
     tauCo2StoreS: round(between(r, 12, 35), 1),
@@ -668,10 +670,40 @@ function simulate(spec: HoldoutSpec): Grid {
   const fastCapped = new Float64Array(n);
   for (let i = 0; i < n; i++) fastCapped[i] = cap === Infinity ? fast[i] : softMin(fast[i], cap, 0.03 * cap);
 
-  // Compensation onset (VT2) level, at least VT1 + 10 % of peak, reached at least 60 s before the ramp ends.
-  let vt2Level: number | null =
-    spec.vt2FractionOfPeak === null ? null : Math.max(spec.vt2FractionOfPeak * peakRaw, lt + 0.1 * peakRaw);
-  if (vt2Level !== null && vt2Level > mRaw[Math.max(rampStartI, rampEndI - 60)]) vt2Level = null;
+  // VO2 at the mouth: phase II delayed by the muscle-to-lung transit time, plus the phase I (cardiodynamic) share.
+  const td = spec.phase1DelayS;
+  const at = (arr: Float64Array, i: number): number => arr[clamp(i, 0, n - 1)];
+  const phi = spec.phase1Fraction;
+  const vo2 = new Float64Array(n);
+  for (let i = 0; i < n; i++) vo2[i] = (1 - phi) * at(m, i - td) + phi * fastCapped[i];
+  let peakVo2Mouth = 0;
+  for (let i = rampStartI; i <= rampEndI; i++) peakVo2Mouth = Math.max(peakVo2Mouth, vo2[i]);
+
+  // Threshold times in metabolic VO2: lactate threshold ...
+  let tLtS = rampEndS;
+  for (let i = rampStartI + 1; i <= rampEndI; i++) {
+    if (mRaw[i] >= lt) {
+      tLtS = i - 1 + (mRaw[i] > mRaw[i - 1] ? (lt - mRaw[i - 1]) / (mRaw[i] - mRaw[i - 1]) : 1);
+      break;
+    }
+  }
+  // ... and compensation onset (VT2): at least the spec's fraction, at least VT1 + 10 % of peak in metabolic VO2
+  // and in VO2 at the mouth (where a detector reads it), and seen at the mouth at least 45 s before the ramp ends.
+  const vo2AtVt1Mouth = sampleAt(vo2, tLtS + td + spec.tauCo2StoreS);
+  let vt2Level: number | null = null;
+  let tCompS: number | null = null;
+  if (spec.vt2FractionOfPeak !== null) {
+    const floorLevel = Math.max(spec.vt2FractionOfPeak * peakRaw, lt + 0.1 * peakRaw);
+    for (let i = rampStartI + 1; i <= rampEndI; i++) {
+      if (mRaw[i] < floorLevel) continue;
+      const mouthS = i + td + spec.tauVeS;
+      if (mouthS > rampEndS - 45) break;
+      if (sampleAt(vo2, mouthS) < vo2AtVt1Mouth + 0.1 * peakVo2Mouth) continue;
+      vt2Level = mRaw[i];
+      tCompS = i;
+      break;
+    }
+  }
 
   // 5. Blood lactate (hughson-1987-lactate-continuous, recalled: exponential rise in VO2 above the threshold).
   // La = LaRest + A·(e^{kx} − 1 − kx), x = VO2 − LT: flat to LT, slope rising from 0 (so excess CO2 starts
@@ -711,24 +743,24 @@ function simulate(spec: HoldoutSpec): Grid {
 
   // 7. PaCO2 set-point: small rise in moderate exercise (complete by LT), flat (isocapnic buffering) to the
   // compensation onset, then falling with the lactate (acidosis) above it (winters-1967-compensation, recalled).
-  const td = spec.phase1DelayS;
-  const at = (arr: Float64Array, i: number): number => arr[clamp(i, 0, n - 1)];
+  // A compensation too small to see is no compensation: the gain is raised when needed so that PaCO2 has
+  // fallen at least MIN_COMPENSATION_MMHG by the end of the ramp (invented floor).
+  const laRampEnd = la[Math.max(0, rampEndI - 1)];
+  const compGain =
+    laVt2 === null ? 0 : Math.max(spec.compensationMmHgPerMmolL, MIN_COMPENSATION_MMHG / Math.max(0.1, laRampEnd - laVt2));
   const paco2Set = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const mLung = at(m, i - td);
     const rise = spec.paco2ExerciseRiseMmHg * (1 - Math.exp((-3 * Math.max(0, mLung - mRest)) / Math.max(1, lt - mRest)));
-    const comp = laVt2 === null ? 0 : spec.compensationMmHgPerMmolL * Math.max(0, at(la, i - td) - laVt2);
+    const comp = laVt2 === null ? 0 : compGain * Math.max(0, at(la, i - td) - laVt2);
     paco2Set[i] = Math.max(20, spec.paco2RestMmHg + rise - comp);
   }
 
-  // 8. VO2 and VCO2 at the mouth: phase II delayed by the transit time + phase I share; VCO2 through the CO2
-  // store lag, with fast-store washout when PaCO2 falls (and refilling when it rises).
-  const vo2 = new Float64Array(n);
+  // 8. VCO2 at the mouth: tissue CO2 delayed by the transit time + phase I share, through the CO2 store lag,
+  // with fast-store washout when PaCO2 falls (and refilling when it rises).
   const vco2 = new Float64Array(n);
-  const phi = spec.phase1Fraction;
   const co2Lung = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    vo2[i] = (1 - phi) * at(m, i - td) + phi * fastCapped[i];
     const washout = i === 0 ? 0 : -spec.co2CapacitanceMlPerMmHg * (paco2Set[i] - paco2Set[i - 1]) * 60;
     co2Lung[i] = (1 - phi) * at(co2Tissue, i - td) + phi * rqOf(fastCapped[i]) * fastCapped[i] + washout;
   }
@@ -790,25 +822,6 @@ function simulate(spec: HoldoutSpec): Grid {
     spo2TargetPrev = spo2Target;
   }
 
-  // Threshold times in metabolic VO2.
-  let tLtS = rampEndS;
-  for (let i = rampStartI; i <= rampEndI; i++) {
-    if (mRaw[i] >= lt) {
-      const f = i > 0 && mRaw[i] > mRaw[i - 1] ? (lt - mRaw[i - 1]) / (mRaw[i] - mRaw[i - 1]) : 1;
-      tLtS = i - 1 + f;
-      break;
-    }
-  }
-  let tCompS: number | null = null;
-  if (vt2Level !== null) {
-    for (let i = rampStartI; i <= rampEndI; i++) {
-      if (mRaw[i] >= vt2Level) {
-        const f = mRaw[i] > mRaw[i - 1] ? (vt2Level - mRaw[i - 1]) / (mRaw[i] - mRaw[i - 1]) : 1;
-        tCompS = i - 1 + f;
-        break;
-      }
-    }
-  }
   return {
     n,
     phase,
