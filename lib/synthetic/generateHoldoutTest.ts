@@ -167,7 +167,7 @@ const PIO2 = FIO2 * (PB - PH2O);
 /** Expiratory share of the breath cycle (common practice, ≈0.55–0.6). */
 const EXPIRATORY_FRACTION = 0.55;
 /** Least fall of PaCO2 from the compensation onset to the end of the ramp, mmHg (invented). */
-const MIN_COMPENSATION_MMHG = 3;
+const MIN_COMPENSATION_MMHG = 4;
 /** Cardiodynamic (phase I) fast time constant, s (whipp-1982-kinetics, recalled: phase I ≈ 15 s, near step-like). */
 const TAU_PHASE1_S = 4;
 
@@ -328,8 +328,8 @@ const GROUPS: Record<HoldoutGroup, GroupRanges> = {
     peakMlKgMin: [10, 20],
     tau: [50, 80],
     vt1: [0.5, 0.66],
-    paco2: [30, 36],
-    fAlv: [0.14, 0.24],
+    paco2: [31, 36],
+    fAlv: [0.14, 0.22],
     chronotropic: [0.55, 0.85],
     lactatePeak: [3.5, 6.5],
     gain: [7.5, 9.5],
@@ -394,7 +394,7 @@ export function holdoutSpec(i: number, seed: number, noiseLevels: NoiseLevel[]):
   const G = GROUPS[group];
   const ageY = Math.round(between(r, ...G.age));
   const weightKg = round(between(r, ...G.weight), 1);
-  const peakMlKgMin = between(r, ...G.peakMlKgMin) * clamp(1.1 - 0.004 * (ageY - 25), 0.85, 1.1);
+  const peakMlKgMin = clamp(between(r, ...G.peakMlKgMin) * clamp(1.1 - 0.004 * (ageY - 25), 0.85, 1.1), 10, 55);
   const modality: "cycle" | "treadmill" = r.uniform() < G.pTreadmill && peakMlKgMin >= 16 ? "treadmill" : "cycle";
 
   const restS = Math.round(between(r, 60, 180));
@@ -521,7 +521,7 @@ export function holdoutSpec(i: number, seed: number, noiseLevels: NoiseLevel[]):
     lactateCurvature: round(between(r, 1.3, 2.3), 2),
     lactateClearanceTauS: Math.round(between(r, 600, 1200)),
     excessCo2FractionAtPeak: round(between(r, 0.2, 0.32), 3),
-    rqRest: round(between(r, 0.76, 0.88), 3),
+    rqRest: round(between(r, 0.76, 0.86), 3),
     rqPeak: round(between(r, 0.95, 1.0), 3),
     tauCo2StoreS: round(between(r, 12, 35), 1),
     co2CapacitanceMlPerMmHg: round(between(r, 5, 25), 1),
@@ -542,8 +542,8 @@ export function holdoutSpec(i: number, seed: number, noiseLevels: NoiseLevel[]):
     tauHrOffS: Math.round(between(r, 35, 70)),
     spo2RestPct: round(between(r, 95, 99), 1),
     spo2DropPct: desaturates ? round(between(r, 3, 8), 1) : round(between(r, 0, 1), 1),
-    o2BreathCoupling: round(between(r, 0.45, 0.7), 2),
-    co2BreathCoupling: round(between(r, 0.75, 0.95), 2),
+    o2BreathCoupling: round(between(r, 0.5, 0.7), 2),
+    co2BreathCoupling: round(between(r, 0.7, 0.9), 2),
   };
 }
 
@@ -693,15 +693,22 @@ function simulate(spec: HoldoutSpec): Grid {
   let vt2Level: number | null = null;
   let tCompS: number | null = null;
   if (spec.vt2FractionOfPeak !== null) {
-    const floorLevel = Math.max(spec.vt2FractionOfPeak * peakRaw, lt + 0.1 * peakRaw);
+    // earliest index meeting the margins, index of the spec's level, latest index seen 45 s before the end;
+    // a spec level that comes too late is moved back to the latest feasible point
+    const margin = lt + 0.1 * peakRaw;
+    let iMin = -1;
+    let iSpec = -1;
+    let iLatest = -1;
     for (let i = rampStartI + 1; i <= rampEndI; i++) {
-      if (mRaw[i] < floorLevel) continue;
       const mouthS = i + td + spec.tauVeS;
-      if (mouthS > rampEndS - 45) break;
-      if (sampleAt(vo2, mouthS) < vo2AtVt1Mouth + 0.1 * peakVo2Mouth) continue;
+      if (mouthS <= rampEndS - 45) iLatest = i;
+      if (iMin < 0 && mRaw[i] >= margin && sampleAt(vo2, mouthS) >= vo2AtVt1Mouth + 0.1 * peakVo2Mouth) iMin = i;
+      if (iSpec < 0 && mRaw[i] >= spec.vt2FractionOfPeak * peakRaw) iSpec = i;
+    }
+    if (iMin >= 0 && iLatest >= iMin) {
+      const i = Math.max(iMin, Math.min(iSpec < 0 ? iLatest : iSpec, iLatest));
       vt2Level = mRaw[i];
       tCompS = i;
-      break;
     }
   }
 
@@ -745,7 +752,7 @@ function simulate(spec: HoldoutSpec): Grid {
   // compensation onset, then falling with the lactate (acidosis) above it (winters-1967-compensation, recalled).
   // A compensation too small to see is no compensation: the gain is raised when needed so that PaCO2 has
   // fallen at least MIN_COMPENSATION_MMHG by the end of the ramp (invented floor).
-  const laRampEnd = la[Math.max(0, rampEndI - 1)];
+  const laRampEnd = la[Math.max(0, rampEndI - 1 - td)]; // as it reaches the chemoreceptors by the ramp end
   const compGain =
     laVt2 === null ? 0 : Math.max(spec.compensationMmHgPerMmolL, MIN_COMPENSATION_MMHG / Math.max(0.1, laRampEnd - laVt2));
   const paco2Set = new Float64Array(n);
