@@ -203,6 +203,12 @@ export interface DetectThresholdsOptions {
    * synthetic banks 10.93 → 10.77 %, low 8.13 → 7.75 %, high 15.13 → 15.11 %). @default true
    */
   vt1StopAtVeVco2Rise?: boolean;
+  /**
+   * Do not report a VT2 that rests on one method ("low" confidence) and lies at or below a VT1 that two methods
+   * support: the RCP follows the AT (Wasserman et al., Principles of Exercise Testing and Interpretation — recalled;
+   * common practice). VT2 is then "not determinable" with the candidate named in its reason. @default true
+   */
+  dropLowVt2BelowVt1?: boolean;
 }
 
 /**
@@ -418,7 +424,29 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
   const vt1 = toEstimate("vt1", core.vt1, core.vt1TimeS, series, test, boot?.vt1 ?? null, bag);
   // VT2 keeps the single-pass value: resampling around a 5-bin smoothed series rounds the compensation corner
   // near the end of the record and pulled the resampled median early (about −2 % on both synthetic models)
-  const vt2 = toEstimate("vt2", core.vt2, core.vt2TimeS, series, test, boot?.vt2 ?? null, false);
+  let vt2 = toEstimate("vt2", core.vt2, core.vt2TimeS, series, test, boot?.vt2 ?? null, false);
+  if (
+    (options.dropLowVt2BelowVt1 ?? true) &&
+    vt1.vo2MlMin.value !== null &&
+    vt2.vo2MlMin.value !== null &&
+    vt2.confidence === "low" &&
+    vt1.confidence !== "low" &&
+    vt2.vo2MlMin.value <= vt1.vo2MlMin.value
+  ) {
+    // an RCP follows the AT: a lone, low-confidence RCP candidate at or below a supported VT1 is not an RCP
+    const at = Math.round(vt2.vo2MlMin.value);
+    vt2 = emptyEstimate(
+      "vt2",
+      `the only RCP candidate (${at} mL/min, one method) lies at or below VT1 (${Math.round(vt1.vo2MlMin.value)} mL/min); the respiratory compensation point follows the anaerobic threshold`,
+    );
+    issues.push(
+      makeIssue(
+        "info",
+        "vt2-candidate-below-vt1",
+        `An RCP candidate at ${at} mL/min rested on one method and lay at or below VT1; it is not reported. Set VT2 by review if the test shows one.`,
+      ),
+    );
+  }
   if (vt1.vo2MlMin.value !== null && vt2.vo2MlMin.value !== null && vt1.vo2MlMin.value >= vt2.vo2MlMin.value) {
     issues.push(makeIssue("warning", "vt1-not-below-vt2", "VT1 does not lie below VT2; review both thresholds."));
     vt1.confidence = "low";

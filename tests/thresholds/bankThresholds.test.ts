@@ -44,11 +44,13 @@ describe(`threshold accuracy, main generator (${size} tests)`, () => {
     expect(cons).toBeLessThanOrEqual(stat(main, "vt1-joint-profile", "moderate").p90Pct + 2);
   });
 
-  it("keeps VT2 at the level reached (moderate: median ≤ 4 %, P90 ≤ 10 %, no-calls ≤ 6 %)", () => {
+  // VT2 no-calls 5.0 → 6.25 % here (one test) since a lone RCP candidate at or below VT1 is no longer reported: on the
+  // six 240-test banks at all noise levels every such candidate was 8–49 % early (README-thresholds.md, round 8).
+  it("keeps VT2 at the level reached (moderate: median ≤ 4 %, P90 ≤ 10 %, no-calls ≤ 7 %)", () => {
     const s = stat(main, "vt2-consensus", "moderate");
     expect(s.medianPct).toBeLessThanOrEqual(4);
     expect(s.p90Pct).toBeLessThanOrEqual(10);
-    expect(s.noCallPct).toBeLessThanOrEqual(6);
+    expect(s.noCallPct).toBeLessThanOrEqual(7);
   });
 
   // Goal: VE/VCO2 slope to the detected RCP within ±5 % of truth in 90 % of tests (no-calls count as misses) — NOT

@@ -1,6 +1,6 @@
 import { describe, it, expect } from "vitest";
 import { conditionTable } from "../../lib/signal";
-import { generateSyntheticTest, SYNTHETIC_PRESETS } from "../../lib/synthetic";
+import { generateHoldoutTest, generateSyntheticTest, holdoutSpec, SYNTHETIC_PRESETS } from "../../lib/synthetic";
 import {
   applyThresholdOverrides,
   buildThresholdSeries,
@@ -283,5 +283,39 @@ describe("VT1 window stops before VE/VCO2 rises", () => {
     const end = (r: typeof on) => r.methods.find((m) => m.id === "vt1-v-slope")!.window.endS;
     expect(end(on)).toBeLessThanOrEqual(end(off));
     expect(errPct(on.vt1.vo2MlMin.value, syn.truth.vt1.vo2MlMin)).toBeLessThan(3);
+  });
+});
+
+describe("a lone RCP candidate at or below VT1 is not reported", () => {
+  // Hold-out model (INVENTED data), COPD-like tests whose ventilation is capped near MVV: no RCP by construction
+  // (truth.vt2 null). The RCP follows the AT (recalled; common practice), so a one-method candidate below a VT1 that two
+  // methods support is dropped.
+  const cases = [98, 138].map((i) => generateHoldoutTest(holdoutSpec(i, 31, ["moderate"]), 31 + i));
+  it("the cases have no RCP by construction", () => {
+    for (const syn of cases) expect(syn.truth.vt2).toBeNull();
+  });
+  it("VT2 is not determinable, with the candidate named; VT1 keeps its own confidence", () => {
+    for (const syn of cases) {
+      const test = conditionTable(syn.table);
+      const on = detectThresholds(test, { bootstrap: 0 });
+      const off = detectThresholds(test, { bootstrap: 0, dropLowVt2BelowVt1: false });
+      // without the rule: a low-confidence candidate at or below VT1, and both confidences lowered
+      expect(off.vt2.confidence).toBe("low");
+      expect(off.vt2.vo2MlMin.value!).toBeLessThanOrEqual(off.vt1.vo2MlMin.value!);
+      expect(off.vt1.confidence).toBe("low");
+      // with it (the default)
+      expect(on.vt2.confidence).toBe("not-determinable");
+      expect(on.vt2.vo2MlMin.value).toBeNull();
+      expect(on.vt2.reason).toMatch(/lies at or below VT1/);
+      expect(on.issues.map((x) => x.code)).toContain("vt2-candidate-below-vt1");
+      expect(on.vt1.confidence).not.toBe("low");
+      expect(on.vt1.vo2MlMin.value).toBe(off.vt1.vo2MlMin.value);
+    }
+  });
+  it("leaves a supported RCP alone (main model, noise-free default test)", () => {
+    const syn = generateSyntheticTest({ noise: "none" }, 2);
+    const r = detectThresholds(conditionTable(syn.table), { bootstrap: 0 });
+    expect(r.vt2.confidence).not.toBe("not-determinable");
+    expect(errPct(r.vt2.vo2MlMin.value, syn.truth.vt2!.vo2MlMin)).toBeLessThan(3);
   });
 });
