@@ -1,12 +1,21 @@
 /**
  * Accuracy bank for ventilatory-threshold detection on synthetic tests (invented data, truth known by
- * construction). Run: `npx tsx scripts/threshold-bank.ts` (BANK_SIZE, BANK_SEED, BANK_BIN_S, BANK_BOOTSTRAP env).
+ * construction). Run: `npx tsx scripts/threshold-bank.ts` (BANK_SIZE, BANK_SEED, BANK_BIN_S, BANK_BOOTSTRAP,
+ * BANK_GENERATOR = main | variant | holdout env).
  * Prints per method and for the consensus: median and 90th-percentile absolute error as % of the true VO2,
  * and the no-call rate, by noise level.
  */
 import { pathToFileURL } from "node:url";
 import { conditionTable } from "../lib/signal";
-import { generateSyntheticTest, generateVariantTest, syntheticBank, variantSpec, type NoiseLevel } from "../lib/synthetic";
+import {
+  generateHoldoutTest,
+  generateSyntheticTest,
+  generateVariantTest,
+  holdoutSpec,
+  syntheticBank,
+  variantSpec,
+  type NoiseLevel,
+} from "../lib/synthetic";
 import { detectThresholds } from "../lib/thresholds/detectThresholds";
 import { quantile } from "../lib/numeric";
 import { veVco2Slope } from "../lib/thresholds/veVco2Slope";
@@ -33,13 +42,18 @@ export interface BankStats {
   within5Pct: number;
 }
 
+export type BankGenerator = "main" | "variant" | "holdout";
+
 export interface BankOptions {
   size: number;
   seed?: number;
   binS?: number;
   bootstrap?: number;
-  /** "main" = generateSyntheticTest bank; "variant" = the independent validation model. @default "main" */
-  generator?: "main" | "variant";
+  /**
+   * "main" = generateSyntheticTest bank; "variant" = the independent validation model; "holdout" = the model written
+   * blind to the methods (never used to choose a setting). @default "main"
+   */
+  generator?: BankGenerator;
   /** Noise levels to run. @default ["low", "moderate", "high"] */
   noiseLevels?: NoiseLevel[];
 }
@@ -47,23 +61,33 @@ export interface BankOptions {
 /** Run the bank and return one row per (test, threshold, method) plus the consensus rows. */
 export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats: BankStats[]; ms: number } {
   const levels = options.noiseLevels ?? ["low", "moderate", "high"];
-  const variant = options.generator === "variant";
-  const cases = variant
-    ? Array.from({ length: options.size }, (_, i) => ({
-        id: `variant-${i}`,
-        spec: variantSpec(i, options.seed ?? 77, levels),
-        seed: 5000 + i,
-      }))
-    : syntheticBank(options.size, { seed: options.seed ?? 2024, noiseLevels: levels });
+  const generator = options.generator ?? "main";
+  const cases =
+    generator === "variant"
+      ? Array.from({ length: options.size }, (_, i) => ({
+          id: `variant-${i}`,
+          spec: variantSpec(i, options.seed ?? 77, levels),
+          seed: 5000 + i,
+        }))
+      : generator === "holdout"
+        ? Array.from({ length: options.size }, (_, i) => ({
+            id: `holdout-${i}`,
+            spec: holdoutSpec(i, options.seed ?? 31, levels),
+            seed: (options.seed ?? 31) + i,
+          }))
+        : syntheticBank(options.size, { seed: options.seed ?? 2024, noiseLevels: levels });
   const rows: BankRow[] = [];
   const t0 = performance.now();
   for (const c of cases) {
-    const syn = variant
-      ? generateVariantTest(c.spec as ReturnType<typeof variantSpec>, c.seed)
-      : generateSyntheticTest(c.spec as Parameters<typeof generateSyntheticTest>[0], c.seed);
+    const syn =
+      generator === "variant"
+        ? generateVariantTest(c.spec as ReturnType<typeof variantSpec>, c.seed)
+        : generator === "holdout"
+          ? generateHoldoutTest(c.spec as ReturnType<typeof holdoutSpec>, c.seed)
+          : generateSyntheticTest(c.spec as Parameters<typeof generateSyntheticTest>[0], c.seed);
     const test = conditionTable(syn.table);
     const res = detectThresholds(test, { bootstrap: options.bootstrap ?? 0, seed: 1, series: { binS: options.binS ?? 20 } });
-    const noise = "variant" in syn ? syn.variant.noise : syn.spec.noise;
+    const noise = "variant" in syn ? syn.variant.noise : "holdout" in syn ? syn.holdout.noise : syn.spec.noise;
     // VE/VCO2 slope to the detected VT2 (lib/thresholds/veVco2Slope.ts) against the noise-free truth
     if (syn.truth.vt2 && res.vt2.timeS !== null && res.vt2.vo2MlMin.value !== null) {
       const sl = veVco2Slope(test, { vt2: { timeS: res.vt2.timeS, vo2MlMin: res.vt2.vo2MlMin.value } }).slopeToVt2.slope.value;
@@ -132,7 +156,8 @@ function main(): void {
     seed: Number(process.env.BANK_SEED ?? 2024),
     binS: Number(process.env.BANK_BIN_S ?? 20),
     bootstrap: Number(process.env.BANK_BOOTSTRAP ?? 40),
-    generator: process.env.BANK_GENERATOR === "variant" ? "variant" : "main",
+    generator:
+      process.env.BANK_GENERATOR === "variant" || process.env.BANK_GENERATOR === "holdout" ? process.env.BANK_GENERATOR : "main",
   });
   console.log(
     `threshold bank: ${size} synthetic tests (invented data), ${(ms / 1000).toFixed(1)} s, ${(ms / size).toFixed(1)} ms per test`,
