@@ -3,6 +3,7 @@ import { makeIssue, measured, notDetermined, type Issue, type Measured, type Pro
 import { binByTime, linearRegression, PrefixSums, quantile, runningMedian, seededRandom } from "../numeric";
 import type { ConditionedTest } from "../signal";
 import { combineEstimates, timeAtLevel, vo2AtTime, type Consensus } from "./consensus";
+import { initialStep } from "./initialStep";
 import { modifiedVSlope } from "./modifiedVSlope";
 import { rcpVentilatoryEquivalents } from "./rcpVentilatoryEquivalents";
 import { rcpVeVco2 } from "./rcpVeVco2";
@@ -209,6 +210,13 @@ export interface DetectThresholdsOptions {
    * common practice). VT2 is then "not determinable" with the candidate named in its reason. @default true
    */
   dropLowVt2BelowVt1?: boolean;
+  /**
+   * Warn when exercise starts with a step this many times larger than the ramp's own rise over the first 75 s
+   * (`initialStep`), and mark a VT1 within 3 minutes of it low confidence. 3 is our choice: ≤ 2.0 in 99 % of the
+   * main and variant synthetic tests (ramps after unloaded pedalling), 5–10 on treadmill protocols that jump from
+   * walking to running (hold-out model). @default 3
+   */
+  largeInitialStepRatio?: number;
 }
 
 /**
@@ -446,6 +454,23 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
         `An RCP candidate at ${at} mL/min rested on one method and lay at or below VT1; it is not reported. Set VT2 by review if the test shows one.`,
       ),
     );
+  }
+  const step = initialStep(test);
+  const stepLimit = options.largeInitialStepRatio ?? 3;
+  if (step && step.ratio > stepLimit && test.exercise) {
+    const early = vt1.timeS !== null && vt1.timeS - test.exercise.startS < 180;
+    issues.push(
+      makeIssue(
+        "warning",
+        "thresholds-large-initial-step",
+        `Exercise starts with a large step: VO2 rose ${Math.round(step.jumpMlMin)} mL/min over the first 75 s, ${step.ratio.toFixed(1)} times what the ramp adds in that time (from rest, no unloaded phase, or a jump in load). The CO2 stores fill for minutes after such a step, so gas-exchange thresholds in the first 3 minutes cannot be read reliably${early ? "; VT1 lies there and is marked low confidence" : ""}.`,
+        { timeS: test.exercise.startS },
+      ),
+    );
+    if (early && vt1.confidence !== "not-determinable") {
+      vt1.confidence = "low";
+      vt1.reason = `${vt1.reason ? `${vt1.reason}; ` : ""}within 3 minutes of a large step at the start of exercise`;
+    }
   }
   if (vt1.vo2MlMin.value !== null && vt2.vo2MlMin.value !== null && vt1.vo2MlMin.value >= vt2.vo2MlMin.value) {
     issues.push(makeIssue("warning", "vt1-not-below-vt2", "VT1 does not lie below VT2; review both thresholds."));
