@@ -6,3 +6,4 @@ export * from "./syntheticBank";
 export * from "./breathTableToCsv";
 export * from "./generateVariantTest";
 export * from "./generateHoldoutTest";
+export * from "./generateAuditTest";

@@ -114,4 +114,28 @@ export const SYNTHETIC_SOURCES = defineSources({
     status: "secondary",
     note: "HRmax = 208 − 0.7·age, seen in a later abstract (Front Physiol 2018, doi 10.3389/fphys.2018.00226); journal details recalled. Hold-out model: chronotropic index (share of HR reserve used) 0.55-1.0 by group, invented; below 0.80 is impaired (clinical-reference, Brubaker & Kitzman).",
   },
+  "audit-model-invented": {
+    citation:
+      "Invented values of the cpet-desk audit model (lib/synthetic/generateAuditTest.ts): group ranges, lags, excess-CO2 and hyperventilation shapes, noise and artefact magnitudes",
+    status: "common-practice",
+    note: "Audit model: every number not tied to another source id is invented data for blind validation of the threshold detectors.",
+  },
+  "audit-mean-response-time": {
+    citation:
+      "Linear systems: a pure delay D followed by a first-order lag τ delays a ramp by its mean response time D + τ; the asymptotes of a filtered hinge meet D + τ after the input corner (control and kinetics textbooks)",
+    status: "common-practice",
+    note: "Audit model: defines where the thresholds set on muscle VO2 appear at the mouth (T1 = t1 + D + τC, T2 = t2 + Dc + τVE).",
+  },
+  "audit-tidal-pco2-rise": {
+    citation:
+      "Alveolar PCO2 rises through expiration as CO2 enters the lung: ΔP ≈ (PB − 47)·VCO2·Te/lung volume; end-tidal PCO2 ≈ mean alveolar + half that rise (respiratory physiology textbooks)",
+    status: "common-practice",
+    note: "Audit model: lung volume = end-expiratory volume + half a tidal volume (invented choice).",
+  },
+  "lewthwaite-2021-vt": {
+    citation:
+      "Lewthwaite H et al. Normative cardiopulmonary exercise test responses at the ventilatory threshold in Canadian adults 40 to 80 years of age. Chest 2021;159:1922",
+    status: "confirmed",
+    note: "96 healthy adults: VO2 at VT 48.3 ± 10.6 % of measured peak (5th pct 32.6); VE/VCO2 at VT 30.2 ± 3.8; PETCO2 at VT 40.6 ± 4.2 mmHg (clinical-confirmations §9, C). Title recalled.",
+  },
 });
