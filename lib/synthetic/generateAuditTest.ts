@@ -386,7 +386,8 @@ function ceiling(x: number, onset: number, max: number): number {
 /**
  * A deterministic, varied audit population: group by `i` (active, sedentary, heart failure, athlete, older),
  * about 30 % treadmill (walking ramps, 1-min grade stages, 3-min stages, running ramps), cycle ramps of 5–50
- * W/min and 1- or 2-min cycle stages; no RCP in every tenth test (i % 10 = 6); oscillatory ventilation in
+ * W/min and 1- or 2-min cycle stages; no RCP in every tenth test (i % 10 = 6) and in the rare test where no VT2 fits 12 % of peak above VT1 and
+ * 2 min before the end; VT1 at least 170 s into the incremental phase (muscle timeline); oscillatory ventilation in
  * about 45 % of heart-failure tests. noise = noiseLevels[i % noiseLevels.length]. Invented data.
  */
 export function auditSpec(i: number, seed: number, noiseLevels: NoiseLevel[]): AuditSpec {
