@@ -898,9 +898,9 @@ export function generateAuditTest(spec: AuditSpec, seed: number): AuditTest {
     const rrNow = readGrid(rr, t, dt);
     const nominal = 60 / rrNow;
     const jitter = lv.timingCv > 0 ? Math.min(0.6, Math.max(-0.6, lv.timingCv * (t < restEndS ? 1.4 : 1) * rng.normal())) : 0;
-    const dur = nominal * (1 + jitter);
-    if (!(dur > 0.5) || !Number.isFinite(dur))
-      throw new Error(`generateAuditTest: breath duration ${dur} s at ${t} s (spec ${spec.label})`);
+    // no breath shorter than 0.6 s (100 breaths/min): jitter on a fast rate at peak must not make impossible breaths
+    const dur = Math.max(0.6, nominal * (1 + jitter));
+    if (!Number.isFinite(dur)) throw new Error(`generateAuditTest: breath duration ${dur} s at ${t} s (spec ${spec.label})`);
     if (t + dur > endS) break;
     starts.push(t);
     ends.push(t + dur);
