@@ -1,13 +1,15 @@
 /**
  * Accuracy bank for ventilatory-threshold detection on synthetic tests (invented data, truth known by
  * construction). Run: `npx tsx scripts/threshold-bank.ts` (BANK_SIZE, BANK_SEED, BANK_BIN_S, BANK_BOOTSTRAP,
- * BANK_GENERATOR = main | variant | holdout env).
+ * BANK_GENERATOR = main | variant | holdout | audit env).
  * Prints per method and for the consensus: median and 90th-percentile absolute error as % of the true VO2,
  * and the no-call rate, by noise level.
  */
 import { pathToFileURL } from "node:url";
 import { conditionTable } from "../lib/signal";
 import {
+  auditSpec,
+  generateAuditTest,
   generateHoldoutTest,
   generateSyntheticTest,
   generateVariantTest,
@@ -42,7 +44,7 @@ export interface BankStats {
   within5Pct: number;
 }
 
-export type BankGenerator = "main" | "variant" | "holdout";
+export type BankGenerator = "main" | "variant" | "holdout" | "audit";
 
 export interface BankOptions {
   size: number;
@@ -50,8 +52,8 @@ export interface BankOptions {
   binS?: number;
   bootstrap?: number;
   /**
-   * "main" = generateSyntheticTest bank; "variant" = the independent validation model; "holdout" = the model written
-   * blind to the methods (never used to choose a setting). @default "main"
+   * "main" = generateSyntheticTest bank; "variant" = the independent validation model; "holdout" and "audit" = models
+   * written blind to the methods (measured on, never used alone to choose a setting). @default "main"
    */
   generator?: BankGenerator;
   /** Noise levels to run. @default ["low", "moderate", "high"] */
@@ -75,7 +77,13 @@ export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats
             spec: holdoutSpec(i, options.seed ?? 31, levels),
             seed: (options.seed ?? 31) + i,
           }))
-        : syntheticBank(options.size, { seed: options.seed ?? 2024, noiseLevels: levels });
+        : generator === "audit"
+          ? Array.from({ length: options.size }, (_, i) => ({
+              id: `audit-${i}`,
+              spec: auditSpec(i, options.seed ?? 41, levels),
+              seed: (options.seed ?? 41) + i,
+            }))
+          : syntheticBank(options.size, { seed: options.seed ?? 2024, noiseLevels: levels });
   const rows: BankRow[] = [];
   const t0 = performance.now();
   for (const c of cases) {
@@ -84,10 +92,19 @@ export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats
         ? generateVariantTest(c.spec as ReturnType<typeof variantSpec>, c.seed)
         : generator === "holdout"
           ? generateHoldoutTest(c.spec as ReturnType<typeof holdoutSpec>, c.seed)
-          : generateSyntheticTest(c.spec as Parameters<typeof generateSyntheticTest>[0], c.seed);
+          : generator === "audit"
+            ? generateAuditTest(c.spec as ReturnType<typeof auditSpec>, c.seed)
+            : generateSyntheticTest(c.spec as Parameters<typeof generateSyntheticTest>[0], c.seed);
     const test = conditionTable(syn.table);
     const res = detectThresholds(test, { bootstrap: options.bootstrap ?? 0, seed: 1, series: { binS: options.binS ?? 20 } });
-    const noise = "variant" in syn ? syn.variant.noise : "holdout" in syn ? syn.holdout.noise : syn.spec.noise;
+    const noise =
+      "variant" in syn
+        ? syn.variant.noise
+        : "holdout" in syn
+          ? syn.holdout.noise
+          : "audit" in syn
+            ? syn.audit.noise
+            : syn.spec.noise;
     // VE/VCO2 slope to the detected VT2 (lib/thresholds/veVco2Slope.ts) against the noise-free truth
     if (syn.truth.vt2 && res.vt2.timeS !== null && res.vt2.vo2MlMin.value !== null) {
       const sl = veVco2Slope(test, { vt2: { timeS: res.vt2.timeS, vo2MlMin: res.vt2.vo2MlMin.value } }).slopeToVt2.slope.value;
@@ -156,8 +173,9 @@ function main(): void {
     seed: Number(process.env.BANK_SEED ?? 2024),
     binS: Number(process.env.BANK_BIN_S ?? 20),
     bootstrap: Number(process.env.BANK_BOOTSTRAP ?? 40),
-    generator:
-      process.env.BANK_GENERATOR === "variant" || process.env.BANK_GENERATOR === "holdout" ? process.env.BANK_GENERATOR : "main",
+    generator: (["variant", "holdout", "audit"].includes(process.env.BANK_GENERATOR ?? "")
+      ? process.env.BANK_GENERATOR
+      : "main") as BankGenerator,
   });
   console.log(
     `threshold bank: ${size} synthetic tests (invented data), ${(ms / 1000).toFixed(1)} s, ${(ms / size).toFixed(1)} ms per test`,

@@ -1,8 +1,8 @@
 /**
  * Screening of threshold-method changes on several synthetic banks at one noise level (invented data, truth known by
  * construction). Run: `npx tsx scripts/threshold-screen.ts` — SCREEN_SETS (default
- * "main:2024,main:99,main:5,variant:2024,variant:77,variant:99"; "holdout:<seed>" adds the model written blind to
- * the methods — measure on it, never choose a setting on it), SCREEN_SIZE (tests per bank, default 240),
+ * "main:2024,main:99,main:5,variant:2024,variant:77,variant:99"; "holdout:<seed>" and "audit:<seed>" add the models
+ * written blind to the methods — measure on them, never choose a setting on them alone), SCREEN_SIZE (tests per bank, default 240),
  * SCREEN_NOISE (low | moderate | high, default moderate), SCREEN_BOOTSTRAP (resamples, default 20).
  * Prints per bank the VT1 consensus and joint-profile median / P90 / no-call %, VT2 and the VE/VCO2 slope hits, then
  * the mean over banks. The mean of six 240-test banks moves by about ±0.2 points between equivalent settings
@@ -46,7 +46,7 @@ export function screenBanks(
 function main(): void {
   const sets = (process.env.SCREEN_SETS ?? "main:2024,main:99,main:5,variant:2024,variant:77,variant:99").split(",").map((s) => {
     const [g, seed] = s.split(":");
-    return { generator: (g === "variant" || g === "holdout" ? g : "main") as BankGenerator, seed: Number(seed) };
+    return { generator: (["variant", "holdout", "audit"].includes(g) ? g : "main") as BankGenerator, seed: Number(seed) };
   });
   const size = Number(process.env.SCREEN_SIZE ?? 240);
   const noise = (process.env.SCREEN_NOISE ?? "moderate") as NoiseLevel;
