@@ -4,6 +4,7 @@ import { binByTime, linearRegression, PrefixSums, quantile, runningMedian, seede
 import type { ConditionedTest } from "../signal";
 import { combineEstimates, timeAtLevel, vo2AtTime, type Consensus } from "./consensus";
 import { initialStep } from "./initialStep";
+import { stageLengthS } from "./stageLength";
 import { modifiedVSlope } from "./modifiedVSlope";
 import { rcpVentilatoryEquivalents } from "./rcpVentilatoryEquivalents";
 import { rcpVeVco2 } from "./rcpVeVco2";
@@ -471,6 +472,25 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
       vt1.confidence = "low";
       vt1.reason = `${vt1.reason ? `${vt1.reason}; ` : ""}within 3 minutes of a large step at the start of exercise`;
     }
+  }
+  // Stepped protocols: ramp or 1-min-increment protocols are the recommended ones for gas-exchange thresholds
+  // (ATS/ACCP 2003 statement — recalled; ERS statement, Radtke et al. 2019 — confirmed, protocol recommendations).
+  const stageS = stageLengthS(test);
+  if (stageS !== null) {
+    const long = stageS >= 90;
+    issues.push(
+      makeIssue(
+        long ? "warning" : "info",
+        "thresholds-stepped-protocol",
+        `The load rises in stages of about ${Math.round(stageS)} s, not as a ramp. Gas exchange lags every step${long ? " and levels off within each stage" : ""}, so breath-by-breath thresholds are less precise than on a ramp${long ? " and tend to read late; VT1 and VT2 are given at most moderate confidence" : ""}. Ramp protocols are preferred for gas-exchange thresholds.`,
+      ),
+    );
+    if (long)
+      for (const e of [vt1, vt2])
+        if (e.confidence === "high") {
+          e.confidence = "moderate";
+          e.reason = `${e.reason ? `${e.reason}; ` : ""}stages of ${Math.round(stageS)} s`;
+        }
   }
   if (vt1.vo2MlMin.value !== null && vt2.vo2MlMin.value !== null && vt1.vo2MlMin.value >= vt2.vo2MlMin.value) {
     issues.push(makeIssue("warning", "vt1-not-below-vt2", "VT1 does not lie below VT2; review both thresholds."));
