@@ -19,6 +19,8 @@ const holdout = runThresholdBank({
   generator: "holdout",
   noiseLevels: ["moderate"],
 }).stats;
+const auditSize = Number(process.env.AUDIT_SIZE ?? 120);
+const audit = runThresholdBank({ size: auditSize, seed: 41, bootstrap: 20, generator: "audit", noiseLevels: ["moderate"] }).stats;
 const stat = (stats: BankStats[], method: string, noise: string) => stats.find((s) => s.method === method && s.noise === noise)!;
 
 describe(`threshold accuracy, main generator (${size} tests)`, () => {
@@ -112,5 +114,25 @@ describe(`threshold accuracy, hold-out model (${holdoutSize} tests, moderate noi
   it("meets the VT2 median goal (≤ 5 %) and keeps the slope within ±5 % in ≥ 85 % of tests", () => {
     expect(stat(holdout, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5);
     expect(stat(holdout, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(85);
+  });
+});
+
+describe(`threshold accuracy, audit model (${auditSize} tests, moderate noise)`, () => {
+  // A fourth model, also written without sight of the methods (generateAuditTest: thresholds set in muscle VO2 and
+  // carried to the mouth by delay + lag, excess CO2 that may bend upward above VT1, PaCO2-target hyperventilation,
+  // oscillatory ventilation, cycle and treadmill ramps and 1–3-min stages). Measured after round 8 and not used to
+  // choose anything: VT1 5.3 / 14.7 % on this bank (seed 41, 20 resamples), VT2 2.4 %, slope 87 % within ±5 %.
+  // Stepped protocols are its hardest part (3-min stages read late; the engine warns about them). Goals for VT1 and the
+  // slope not met on this model; guarded at the level reached.
+  it("meets the VT1 no-call and VT2 median goals and keeps VT1 at the level reached (median ≤ 6 %, P90 ≤ 16.5 %)", () => {
+    const s = stat(audit, "vt1-consensus", "moderate");
+    expect(s.n).toBe(auditSize);
+    expect(s.noCallPct).toBeLessThanOrEqual(5);
+    expect(s.medianPct).toBeLessThanOrEqual(6);
+    expect(s.p90Pct).toBeLessThanOrEqual(16.5);
+    expect(stat(audit, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5);
+  });
+  it("keeps the slope within ±5 % in ≥ 85 % of tests", () => {
+    expect(stat(audit, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(85);
   });
 });
