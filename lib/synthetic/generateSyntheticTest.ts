@@ -174,7 +174,10 @@ export function generateSyntheticTest(overrides: Partial<SyntheticSpec>, seed: n
     let w = 0;
     let ss = spec.vo2RestMlMin;
     if (t >= restEndS && t < warmupEndS) w = spec.warmupW;
-    else if (t >= warmupEndS && t <= rampEndS) w = spec.warmupW + (spec.rampWPerMin * (t - warmupEndS)) / 60;
+    else if (t >= warmupEndS && t <= rampEndS)
+      w = spec.stageS
+        ? spec.warmupW + (spec.rampWPerMin * spec.stageS * (1 + Math.floor((t - warmupEndS) / spec.stageS))) / 60
+        : spec.warmupW + (spec.rampWPerMin * (t - warmupEndS)) / 60;
     if (t >= restEndS && t <= rampEndS) {
       ss = spec.vo2UnloadedMlMin + spec.gainMlMinPerW * (w - spec.warmupW);
       if (ss > v1) ss += sc * (ss - v1);

@@ -18,6 +18,11 @@ export interface SyntheticSpec {
   /** Warm-up work rate, W (0–20). */
   warmupW: number;
   rampWPerMin: number;
+  /**
+   * Stepped protocol: the load rises by rampWPerMin·stageS/60 every stageS seconds (same mean rate as the ramp; first
+   * step at the start of the incremental phase). Absent or null = a continuous ramp.
+   */
+  stageS?: number | null;
   recoveryS: number;
   // oxygen uptake
   vo2RestMlMin: number;

@@ -152,3 +152,18 @@ describe("presets and bank (invented data)", () => {
     );
   });
 });
+
+describe("stepped protocol option (invented data)", () => {
+  it("raises the load by rate·stage/60 every stage, same mean rate as the ramp, and keeps the thresholds", () => {
+    // default spec: warm-up 10 W, 20 W/min; 60-s stages → +20 W at the start of every minute of the incremental phase
+    const ramp = generateSyntheticTest({ noise: "none" }, 3);
+    const steps = generateSyntheticTest({ noise: "none", stageS: 60 }, 3);
+    const start = steps.truth.phases.warmupEndS;
+    const at = (t: number) => steps.noiseFree.rows.find((r) => r.timeS >= t)!.workW!;
+    expect(at(start + 5)).toBeCloseTo(30, 6); // 10 + 20
+    expect(at(start + 55)).toBeCloseTo(30, 6);
+    expect(at(start + 65)).toBeCloseTo(50, 6); // 10 + 2·20
+    // thresholds are set in VO2, so their VO2 does not depend on the protocol (within 1 %)
+    expect(Math.abs(steps.truth.vt1.vo2MlMin - ramp.truth.vt1.vo2MlMin) / ramp.truth.vt1.vo2MlMin).toBeLessThan(0.01);
+  });
+});

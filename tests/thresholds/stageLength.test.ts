@@ -50,6 +50,14 @@ describe("detectThresholds on stepped protocols", () => {
     }
     expect(found).toBe(true);
   });
+  it("1-min stages (main model, noise-free, invented): VT1 within 3 % of truth, an info note, confidence not capped", () => {
+    const syn = generateSyntheticTest({ noise: "none", stageS: 60 }, 2);
+    const r = detectThresholds(conditionTable(syn.table), { bootstrap: 0 });
+    expect(Math.abs(r.vt1.vo2MlMin.value! - syn.truth.vt1.vo2MlMin) / syn.truth.vt1.vo2MlMin).toBeLessThan(0.03);
+    const note = r.issues.find((x) => x.code === "thresholds-stepped-protocol");
+    expect(note?.severity).toBe("info");
+    expect(note?.message).toMatch(/stages of about (59|6[0-2]) s/); // breath-stamped: within a breath of 60 s
+  });
   it("a ramp (main model, noise-free): no stepped-protocol note", () => {
     const r = detectThresholds(conditionTable(generateSyntheticTest({ noise: "none" }, 2).table), { bootstrap: 0 });
     expect(r.issues.map((x) => x.code)).not.toContain("thresholds-stepped-protocol");
