@@ -17,6 +17,7 @@ import {
   syntheticBank,
   variantSpec,
   type NoiseLevel,
+  type SyntheticTruth,
 } from "../lib/synthetic";
 import { detectThresholds } from "../lib/thresholds/detectThresholds";
 import { quantile } from "../lib/numeric";
@@ -44,7 +45,57 @@ export interface BankStats {
   within5Pct: number;
 }
 
-export type BankGenerator = "main" | "variant" | "holdout" | "audit";
+/** A synthetic test with its truth and noise level, as every model returns it. */
+interface BankCase {
+  id: string;
+  make: () => { table: Parameters<typeof conditionTable>[0]; truth: SyntheticTruth; noise: NoiseLevel };
+}
+
+/**
+ * The models a bank can draw from: the test cases for a size, seed and noise levels (default seed per model, as in the
+ * committed bank test). "main" chose the settings, "variant" checks them; "holdout" and "audit" were written blind.
+ */
+const GENERATORS = {
+  main: (size: number, seed = 2024, levels: NoiseLevel[]): BankCase[] =>
+    syntheticBank(size, { seed, noiseLevels: levels }).map((c) => ({
+      id: c.id,
+      make: () => {
+        const syn = generateSyntheticTest(c.spec, c.seed);
+        return { table: syn.table, truth: syn.truth, noise: syn.spec.noise };
+      },
+    })),
+  variant: (size: number, seed = 77, levels: NoiseLevel[]): BankCase[] =>
+    Array.from({ length: size }, (_, i) => ({
+      id: `variant-${i}`,
+      make: () => {
+        const syn = generateVariantTest(variantSpec(i, seed, levels), 5000 + i);
+        return { table: syn.table, truth: syn.truth, noise: syn.variant.noise };
+      },
+    })),
+  holdout: (size: number, seed = 31, levels: NoiseLevel[]): BankCase[] =>
+    Array.from({ length: size }, (_, i) => ({
+      id: `holdout-${i}`,
+      make: () => {
+        const syn = generateHoldoutTest(holdoutSpec(i, seed, levels), seed + i);
+        return { table: syn.table, truth: syn.truth, noise: syn.holdout.noise };
+      },
+    })),
+  audit: (size: number, seed = 41, levels: NoiseLevel[]): BankCase[] =>
+    Array.from({ length: size }, (_, i) => ({
+      id: `audit-${i}`,
+      make: () => {
+        const syn = generateAuditTest(auditSpec(i, seed, levels), seed + i);
+        return { table: syn.table, truth: syn.truth, noise: syn.audit.noise };
+      },
+    })),
+};
+
+export type BankGenerator = keyof typeof GENERATORS;
+
+/** A generator name from text (an env var or a screen set), "main" when it names none. */
+export function bankGenerator(name: string | undefined): BankGenerator {
+  return name !== undefined && name in GENERATORS ? (name as BankGenerator) : "main";
+}
 
 export interface BankOptions {
   size: number;
@@ -63,48 +114,14 @@ export interface BankOptions {
 /** Run the bank and return one row per (test, threshold, method) plus the consensus rows. */
 export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats: BankStats[]; ms: number } {
   const levels = options.noiseLevels ?? ["low", "moderate", "high"];
-  const generator = options.generator ?? "main";
-  const cases =
-    generator === "variant"
-      ? Array.from({ length: options.size }, (_, i) => ({
-          id: `variant-${i}`,
-          spec: variantSpec(i, options.seed ?? 77, levels),
-          seed: 5000 + i,
-        }))
-      : generator === "holdout"
-        ? Array.from({ length: options.size }, (_, i) => ({
-            id: `holdout-${i}`,
-            spec: holdoutSpec(i, options.seed ?? 31, levels),
-            seed: (options.seed ?? 31) + i,
-          }))
-        : generator === "audit"
-          ? Array.from({ length: options.size }, (_, i) => ({
-              id: `audit-${i}`,
-              spec: auditSpec(i, options.seed ?? 41, levels),
-              seed: (options.seed ?? 41) + i,
-            }))
-          : syntheticBank(options.size, { seed: options.seed ?? 2024, noiseLevels: levels });
+  const cases = GENERATORS[options.generator ?? "main"](options.size, options.seed, levels);
   const rows: BankRow[] = [];
   const t0 = performance.now();
   for (const c of cases) {
-    const syn =
-      generator === "variant"
-        ? generateVariantTest(c.spec as ReturnType<typeof variantSpec>, c.seed)
-        : generator === "holdout"
-          ? generateHoldoutTest(c.spec as ReturnType<typeof holdoutSpec>, c.seed)
-          : generator === "audit"
-            ? generateAuditTest(c.spec as ReturnType<typeof auditSpec>, c.seed)
-            : generateSyntheticTest(c.spec as Parameters<typeof generateSyntheticTest>[0], c.seed);
+    const syn = c.make();
     const test = conditionTable(syn.table);
     const res = detectThresholds(test, { bootstrap: options.bootstrap ?? 0, seed: 1, series: { binS: options.binS ?? 20 } });
-    const noise =
-      "variant" in syn
-        ? syn.variant.noise
-        : "holdout" in syn
-          ? syn.holdout.noise
-          : "audit" in syn
-            ? syn.audit.noise
-            : syn.spec.noise;
+    const noise = syn.noise;
     // VE/VCO2 slope to the detected VT2 (lib/thresholds/veVco2Slope.ts) against the noise-free truth
     if (syn.truth.vt2 && res.vt2.timeS !== null && res.vt2.vo2MlMin.value !== null) {
       const sl = veVco2Slope(test, { vt2: { timeS: res.vt2.timeS, vo2MlMin: res.vt2.vo2MlMin.value } }).slopeToVt2.slope.value;
@@ -173,9 +190,7 @@ function main(): void {
     seed: Number(process.env.BANK_SEED ?? 2024),
     binS: Number(process.env.BANK_BIN_S ?? 20),
     bootstrap: Number(process.env.BANK_BOOTSTRAP ?? 40),
-    generator: (["variant", "holdout", "audit"].includes(process.env.BANK_GENERATOR ?? "")
-      ? process.env.BANK_GENERATOR
-      : "main") as BankGenerator,
+    generator: bankGenerator(process.env.BANK_GENERATOR),
   });
   console.log(
     `threshold bank: ${size} synthetic tests (invented data), ${(ms / 1000).toFixed(1)} s, ${(ms / size).toFixed(1)} ms per test`,

@@ -10,7 +10,7 @@
  */
 import { pathToFileURL } from "node:url";
 import type { NoiseLevel } from "../lib/synthetic";
-import { runThresholdBank, type BankGenerator } from "./threshold-bank";
+import { bankGenerator, runThresholdBank, type BankGenerator } from "./threshold-bank";
 
 export interface ScreenLine {
   bank: string;
@@ -46,7 +46,7 @@ export function screenBanks(
 function main(): void {
   const sets = (process.env.SCREEN_SETS ?? "main:2024,main:99,main:5,variant:2024,variant:77,variant:99").split(",").map((s) => {
     const [g, seed] = s.split(":");
-    return { generator: (["variant", "holdout", "audit"].includes(g) ? g : "main") as BankGenerator, seed: Number(seed) };
+    return { generator: bankGenerator(g), seed: Number(seed) };
   });
   const size = Number(process.env.SCREEN_SIZE ?? 240);
   const noise = (process.env.SCREEN_NOISE ?? "moderate") as NoiseLevel;
