@@ -177,7 +177,9 @@ export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions =
 /**
  * Back-extrapolate a steady ramp to its onset: OLS of load on time over the first 60 s of the incremental phase; when
  * that is a clean rise (slope > 0, R² ≥ 0.95: a ramp, not a step), the onset is the first breath at or after the time
- * the line meets the warm-up level. Moves the start earlier only. Common practice (straight-line extrapolation).
+ * the line meets the warm-up level. Moves the start earlier only. Straight-line extrapolation is common practice; the
+ * 60-s window and R² ≥ 0.95 are our choice (load-only phases then match the markers within 6–10 s on the synthetic
+ * models, tests/signal/phasesWithoutMarkers.test.ts).
  */
 function rampOnset(t: readonly number[], x: Float64Array, incStart: number, lowest: number, level: number): number {
   const xs: number[] = [];

@@ -456,42 +456,7 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
       ),
     );
   }
-  const step = initialStep(test);
-  const stepLimit = options.largeInitialStepRatio ?? 3;
-  if (step && step.ratio > stepLimit && test.exercise) {
-    const early = vt1.timeS !== null && vt1.timeS - test.exercise.startS < 180;
-    issues.push(
-      makeIssue(
-        "warning",
-        "thresholds-large-initial-step",
-        `Exercise starts with a large step: VO2 rose ${Math.round(step.jumpMlMin)} mL/min over the first 75 s, ${step.ratio.toFixed(1)} times what the ramp adds in that time (from rest, no unloaded phase, or a jump in load). The CO2 stores fill for minutes after such a step, so gas-exchange thresholds in the first 3 minutes cannot be read reliably${early ? "; VT1 lies there and is marked low confidence" : ""}.`,
-        { timeS: test.exercise.startS },
-      ),
-    );
-    if (early && vt1.confidence !== "not-determinable") {
-      vt1.confidence = "low";
-      vt1.reason = `${vt1.reason ? `${vt1.reason}; ` : ""}within 3 minutes of a large step at the start of exercise`;
-    }
-  }
-  // Stepped protocols: ramp or 1-min-increment protocols are the recommended ones for gas-exchange thresholds
-  // (ATS/ACCP 2003 statement — recalled; ERS statement, Radtke et al. 2019 — confirmed, protocol recommendations).
-  const stageS = stageLengthS(test);
-  if (stageS !== null) {
-    const long = stageS >= 90;
-    issues.push(
-      makeIssue(
-        long ? "warning" : "info",
-        "thresholds-stepped-protocol",
-        `The load rises in stages of about ${Math.round(stageS)} s, not as a ramp. Gas exchange lags every step${long ? " and levels off within each stage" : ""}, so breath-by-breath thresholds are less precise than on a ramp${long ? " and tend to read late; VT1 and VT2 are given at most moderate confidence" : ""}. Ramp protocols are preferred for gas-exchange thresholds.`,
-      ),
-    );
-    if (long)
-      for (const e of [vt1, vt2])
-        if (e.confidence === "high") {
-          e.confidence = "moderate";
-          e.reason = `${e.reason ? `${e.reason}; ` : ""}stages of ${Math.round(stageS)} s`;
-        }
-  }
+  issues.push(...protocolCautions(test, vt1, vt2, options.largeInitialStepRatio ?? 3));
   if (vt1.vo2MlMin.value !== null && vt2.vo2MlMin.value !== null && vt1.vo2MlMin.value >= vt2.vo2MlMin.value) {
     issues.push(makeIssue("warning", "vt1-not-below-vt2", "VT1 does not lie below VT2; review both thresholds."));
     vt1.confidence = "low";
@@ -525,6 +490,59 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
     series: { binS: series.binS, span: series.span, averaging: series.averaging, bins: series.timeS.length },
   };
   return applyThresholdOverrides(test, result, options.overrides ?? [], series);
+}
+
+/** Append a reason to an estimate's reason list. */
+function addReason(e: ThresholdEstimate, why: string): void {
+  e.reason = e.reason ? `${e.reason}; ${why}` : why;
+}
+
+/**
+ * Protocol shapes that limit breath-by-breath thresholds, as issues; lowers the estimates' confidence in place.
+ * - A large step at the start of exercise (`initialStep` ratio above `stepLimit`): the CO2 stores fill for minutes
+ *   after it, so a VT1 within the first 180 s of exercise is marked low (180 s: our choice, about three CO2-store time
+ *   constants).
+ * - A stepped protocol (`stageLengthS`): a note; with stages of 90 s or more (our choice: VO2 levels off within such
+ *   stages, README-thresholds.md round 8) a warning and at most moderate confidence. Ramp or 1-min-increment protocols
+ *   are the recommended ones for gas-exchange thresholds (ATS/ACCP 2003 statement — recalled; ERS statement, Radtke et
+ *   al. 2019 — confirmed, protocol recommendations).
+ */
+function protocolCautions(test: ConditionedTest, vt1: ThresholdEstimate, vt2: ThresholdEstimate, stepLimit: number): Issue[] {
+  const issues: Issue[] = [];
+  const step = initialStep(test);
+  if (step && step.ratio > stepLimit && test.exercise) {
+    const early = vt1.timeS !== null && vt1.timeS - test.exercise.startS < 180;
+    issues.push(
+      makeIssue(
+        "warning",
+        "thresholds-large-initial-step",
+        `Exercise starts with a large step: VO2 rose ${Math.round(step.jumpMlMin)} mL/min over the first 75 s, ${step.ratio.toFixed(1)} times what the ramp adds in that time (from rest, no unloaded phase, or a jump in load). The CO2 stores fill for minutes after such a step, so gas-exchange thresholds in the first 3 minutes cannot be read reliably${early ? "; VT1 lies there and is marked low confidence" : ""}.`,
+        { timeS: test.exercise.startS },
+      ),
+    );
+    if (early && vt1.confidence !== "not-determinable") {
+      vt1.confidence = "low";
+      addReason(vt1, "within 3 minutes of a large step at the start of exercise");
+    }
+  }
+  const stageS = stageLengthS(test);
+  if (stageS !== null) {
+    const long = stageS >= 90;
+    issues.push(
+      makeIssue(
+        long ? "warning" : "info",
+        "thresholds-stepped-protocol",
+        `The load rises in stages of about ${Math.round(stageS)} s, not as a ramp. Gas exchange lags every step${long ? " and levels off within each stage" : ""}, so breath-by-breath thresholds are less precise than on a ramp${long ? " and tend to read late; VT1 and VT2 are given at most moderate confidence" : ""}. Ramp protocols are preferred for gas-exchange thresholds.`,
+      ),
+    );
+    if (long)
+      for (const e of [vt1, vt2])
+        if (e.confidence === "high") {
+          e.confidence = "moderate";
+          addReason(e, `stages of ${Math.round(stageS)} s`);
+        }
+  }
+  return issues;
 }
 
 function emptyEstimate(which: ThresholdWhich, reason: string): ThresholdEstimate {

@@ -251,10 +251,10 @@ function lineSignal(
   curvedAbovePenalty: number | null,
 ): { name: string; p: ReturnType<typeof segmentedProfile>; curved: Uint8Array } {
   const idx = win.filter((i) => Number.isFinite(value(i)));
-  const t0 = idx.length ? series.timeS[idx[0]] : 0;
   const ts = idx.map((i) => series.timeS[i]);
+  const t0 = ts.length ? ts[0] : 0;
   const ys = idx.map(value);
-  const p = segmentedProfile(ts, ys, [idx.map(() => 1), idx.map((i) => (series.timeS[i] - t0) / 60)], null, taus, "positive");
+  const p = segmentedProfile(ts, ys, [ts.map(() => 1), ts.map((t) => (t - t0) / 60)], null, taus, "positive");
   const curved = new Uint8Array(taus.length);
   if (curvedAbovePenalty !== null && p.n > 0) {
     // the curved fit costs `curvedAbovePenalty` log-likelihood units: (n/2)·log(SSE·e^(2c/n)) = (n/2)·log SSE + c

@@ -4,7 +4,9 @@ import type { ConditionedTest } from "../signal";
  * Typical stage length of a stepped protocol, s: the median time between load changes (work rate, or treadmill speed
  * or grade) inside the incremental phase, when that is at least `minStageS`; null on a ramp (loads change every breath
  * or every few seconds), without a load signal, or with fewer than three changes. A change is a rise of more than
- * 1 % of the phase's top load (so whole-watt rounding on a ramp reads as a ramp). Common practice; O(n).
+ * 1 % of the phase's top load (so whole-watt rounding on a ramp reads as a ramp). The 1 % and the 45-s default are our
+ * choice (they find every stepped protocol of the four synthetic models and no ramp, README-thresholds.md round 8);
+ * reading stages from the load is common practice. O(n).
  */
 export function stageLengthS(test: ConditionedTest, minStageS = 45): number | null {
   const ex = test.exercise;
