@@ -2,6 +2,7 @@ import { describe, it, expect } from "vitest";
 import { convexOnsetProfile } from "../../lib/thresholds/convexOnsetProfile";
 import { jointVt1, segmentedProfile } from "../../lib/thresholds/jointVt1";
 import type { ThresholdSeries } from "../../lib/thresholds/thresholdTypes";
+import { handBuiltSeries } from "./handBuiltSeries";
 
 // Shapes built by hand (invented numbers), answers known by construction. x = minutes from the first point.
 const t = Array.from({ length: 41 }, (_, i) => 100 + 15 * i); // 100 … 700 s
@@ -89,20 +90,14 @@ describe("joint VT1 profile on a rise that steepens above the threshold", () => 
   const rise = (s: number) => Math.max(0, Math.exp((0.4 * (s - 600)) / 60) - 1); // e^3.2 − 1 ≈ 23.5 at 1080 s
   const vo2 = Float64Array.from(timeS, (s) => 900 + 3 * (s - 100));
   const vco2 = Float64Array.from(vo2, (v, i) => 0.9 * v + 25 * rise(timeS[i]));
-  const series: ThresholdSeries = {
-    binS: 20,
+  const series = handBuiltSeries({
     timeS,
     vo2MlMin: vo2,
     vco2MlMin: vco2,
     veLMin: Float64Array.from(vco2, (v, i) => 3 + (24 * v) / 1000 + 0.6 * rise(timeS[i])),
     peto2MmHg: Float64Array.from(timeS, (s) => 100 + 0.2 * rise(s)),
     petco2MmHg: new Float64Array(50).fill(40),
-    vo2Trend: vo2,
-    vco2Trend: vco2,
-    span: { startS: 100, endS: 1080 },
-    spikesRemoved: 0,
-    averaging: "20-s bins (test)",
-  };
+  });
   // window to 900 s, as below an RCP at about 860 s (a quadratic cannot follow an exponential over any length of ramp)
   const win = { endS: 900, excessCo2EndS: 900 };
   it("finds the start of the rise within 20 s with the curved fit (default), and says so", () => {

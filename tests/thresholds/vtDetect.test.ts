@@ -19,6 +19,7 @@ import { combineEstimates } from "../../lib/thresholds/consensus";
 import { VT_SOURCES } from "../../lib/thresholds/sourcesThresholds";
 import type { ConditionedTest } from "../../lib/signal";
 import type { ThresholdSeries } from "../../lib/thresholds/thresholdTypes";
+import { handBuiltSeries } from "./handBuiltSeries";
 
 // Synthetic data (invented): thresholds known by construction.
 const errPct = (v: number | null, truth: number) => (v === null ? Infinity : (100 * Math.abs(v - truth)) / truth);
@@ -117,20 +118,12 @@ describe("V-slope on a hand-built series", () => {
   const timeS = Float64Array.from({ length: n }, (_, i) => 100 + 20 * i);
   const vo2 = Float64Array.from(timeS, (t) => 800 + 2 * (t - 100));
   const vco2 = Float64Array.from(vo2, (v) => (v <= 1500 ? 0.95 * v - 50 : 1375 + 1.35 * (v - 1500)));
-  const series: ThresholdSeries = {
-    binS: 20,
+  const series = handBuiltSeries({
     timeS,
     vo2MlMin: vo2,
     vco2MlMin: vco2,
     veLMin: Float64Array.from(vco2, (v) => 3 + 0.027 * v),
-    peto2MmHg: new Float64Array(n).fill(NaN),
-    petco2MmHg: new Float64Array(n).fill(NaN),
-    vo2Trend: vo2,
-    vco2Trend: vco2,
-    span: { startS: 100, endS: 880 },
-    spikesRemoved: 0,
-    averaging: "hand-built",
-  };
+  });
   it("gives the intersection of the two lines", () => {
     const m = vSlope(series);
     expect(m.vo2MlMin.value).toBeCloseTo(1500, 0);
@@ -249,20 +242,15 @@ describe("VT1 window stops before VE/VCO2 rises", () => {
   const timeS = Float64Array.from({ length: 30 }, (_, i) => 100 + 20 * i);
   const vco2 = Float64Array.from(timeS, (t) => 800 + 2 * (t - 100));
   const ratio = (t: number, riseFromS: number) => 25 * (1 + (0.03 * Math.max(0, t - riseFromS)) / 60);
-  const series = (riseFromS: number): ThresholdSeries => ({
-    binS: 20,
-    timeS,
-    vo2MlMin: vco2,
-    vco2MlMin: vco2,
-    veLMin: Float64Array.from(timeS, (t, i) => (ratio(t, riseFromS) * vco2[i]) / 1000),
-    peto2MmHg: new Float64Array(30).fill(100),
-    petco2MmHg: new Float64Array(30).fill(40),
-    vo2Trend: vco2,
-    vco2Trend: vco2,
-    span: { startS: 100, endS: 680 },
-    spikesRemoved: 0,
-    averaging: "20-s bins (test)",
-  });
+  const series = (riseFromS: number): ThresholdSeries =>
+    handBuiltSeries({
+      timeS,
+      vo2MlMin: vco2,
+      vco2MlMin: vco2,
+      veLMin: Float64Array.from(timeS, (t, i) => (ratio(t, riseFromS) * vco2[i]) / 1000),
+      peto2MmHg: new Float64Array(30).fill(100),
+      petco2MmHg: new Float64Array(30).fill(40),
+    });
   it("keeps the end where VE/VCO2 is flat", () => {
     expect(stopBeforeVeVco2Rise(series(10_000), 640, 500)).toBe(640);
   });
