@@ -1057,36 +1057,21 @@ export function generateHoldoutTest(spec: HoldoutSpec, seed: number): HoldoutTes
     rows.push(noisy);
   }
 
-  const fields: (NumericField | "phase")[] = cycle
-    ? [
-        "timeS",
-        "vo2MlMin",
-        "vco2MlMin",
-        "veLMin",
-        "hrBpm",
-        "workW",
-        "rrBrMin",
-        "vtL",
-        "peto2MmHg",
-        "petco2MmHg",
-        "spo2Pct",
-        "phase",
-      ]
-    : [
-        "timeS",
-        "vo2MlMin",
-        "vco2MlMin",
-        "veLMin",
-        "hrBpm",
-        "speedKmh",
-        "gradePct",
-        "rrBrMin",
-        "vtL",
-        "peto2MmHg",
-        "petco2MmHg",
-        "spo2Pct",
-        "phase",
-      ];
+  const load: NumericField[] = cycle ? ["workW"] : ["speedKmh", "gradePct"];
+  const fields: (NumericField | "phase")[] = [
+    "timeS",
+    "vo2MlMin",
+    "vco2MlMin",
+    "veLMin",
+    "hrBpm",
+    ...load,
+    "rrBrMin",
+    "vtL",
+    "peto2MmHg",
+    "petco2MmHg",
+    "spo2Pct",
+    "phase",
+  ];
   const noiseFree: BreathTable = { shape: "breath", rows: nfRows, fields: [...fields] };
   const table: BreathTable = { shape: "breath", rows, fields: [...fields] };
   const truth = buildTruth(spec, g, nfRows);
