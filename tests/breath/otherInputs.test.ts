@@ -104,6 +104,8 @@ describe("mapping profiles and header spellings", () => {
     ["Leistung (W)", "workW", "W"],
     ["Carga", "workW", undefined],
     ["Incline %", "gradePct", "%"],
+    ["Steigung (%)", "gradePct", "%"],
+    ["Vitesse (km/h)", "speedKmh", "km/h"],
     ["PET O2", "peto2MmHg", undefined],
     ["PetCO2 (kPa)", "petco2MmHg", "kPa"],
     ["Rf", "rrBrMin", undefined],
