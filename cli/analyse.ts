@@ -112,15 +112,16 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
 }
 
 function formatText(r: CliAnalysisJson): string {
-  const n = (x: number | null, d = 0) => (x === null ? "not determinable" : x.toFixed(d));
+  // a value with its unit, or "not determinable" without one
+  const n = (x: number | null, d = 0, unit = "") => (x === null ? "not determinable" : `${x.toFixed(d)}${unit}`);
   const lines = [
-    `peak VO2        ${n(r.peak.vo2MlMin)} mL/min, ${n(r.peak.vo2MlKgMin, 1)} mL/kg/min (${r.peak.method})`,
-    `VT1             ${n(r.vt1.vo2MlMin)} mL/min (confidence ${r.vt1.confidence})`,
-    `VT2             ${n(r.vt2.vo2MlMin)} mL/min (confidence ${r.vt2.confidence})`,
+    `peak VO2        ${n(r.peak.vo2MlMin, 0, " mL/min")}, ${r.peak.vo2MlKgMin === null ? "per kg not determinable (give --weight-kg)" : n(r.peak.vo2MlKgMin, 1, " mL/kg/min")} (${r.peak.method})`,
+    `VT1             ${n(r.vt1.vo2MlMin, 0, " mL/min")} (confidence ${r.vt1.confidence})`,
+    `VT2             ${n(r.vt2.vo2MlMin, 0, " mL/min")} (confidence ${r.vt2.confidence})`,
     `VE/VCO2 slope   ${n(r.veVco2Slope.toRcp, 1)} to RCP, ${n(r.veVco2Slope.whole, 1)} whole exercise`,
     `OUES            ${n(r.oues)}`,
-    `ΔVO2/ΔWR        ${n(r.dVo2dWr, 1)} mL/min/W`,
-    `breathing reserve ${n(r.breathingReserve.pct)} %`,
+    `ΔVO2/ΔWR        ${n(r.dVo2dWr, 1, " mL/min/W")}`,
+    `breathing reserve ${r.breathingReserve.pct === null ? "not determinable (give --mvv-l-min or --fev1-l)" : n(r.breathingReserve.pct, 0, " %")}`,
     ...r.issues.filter((i) => i.severity !== "info").map((i) => `${i.severity}: ${i.message}`),
     r.caution,
   ];

@@ -25,6 +25,21 @@ describe("cpet analyse (command line)", () => {
     expect(Array.isArray(json.issues)).toBe(true);
   });
 
+  it("text mode gives units only with values and says which option a missing value needs", () => {
+    const file = path.join(tmp, "ramp-text.csv");
+    fs.writeFileSync(file, plainRampCsv());
+    const without = run(["analyse", file]);
+    expect(without.status).toBe(0);
+    // Known by construction (e2e/fixtures/plain-ramp.csv.ts): highest 30-s average 2500 mL/min; no body mass given.
+    expect(without.stdout).toMatch(/peak VO2\s+2500 mL\/min, per kg not determinable \(give --weight-kg\)/);
+    expect(without.stdout).toMatch(/breathing reserve not determinable \(give --mvv-l-min or --fev1-l\)/);
+    expect(without.stdout).not.toMatch(/not determinable (mL|%)/);
+    expect(without.stdout).toMatch(/reviewed by a qualified clinician/);
+    const withKg = run(["analyse", file, "--weight-kg", "80"]);
+    // 2500 / 80 = 31.25 mL/kg/min, printed to one decimal
+    expect(withKg.stdout).toMatch(/2500 mL\/min, 31\.3 mL\/kg\/min/);
+  });
+
   it("refuses a file it cannot use with a plain message on stderr, no stack trace, non-zero exit", () => {
     const file = path.join(tmp, "bad.csv");
     fs.writeFileSync(file, "a,b\n1,2\n");
