@@ -1,7 +1,9 @@
 import { z } from "zod";
+import { PLAUSIBLE_LIMITS, type PlausibleField } from "../lib/core";
 
-const optionalNumber = (min: number, max: number, what: string) =>
-  z.preprocess(
+const optionalNumber = (field: PlausibleField) => {
+  const { min, max, label: what } = PLAUSIBLE_LIMITS[field];
+  return z.preprocess(
     (v) => (v === "" || v === null || v === undefined ? undefined : Number(v)),
     z
       .number({ message: `${what} must be a number` })
@@ -9,20 +11,21 @@ const optionalNumber = (min: number, max: number, what: string) =>
       .max(max, `${what} must be at most ${max}`)
       .optional(),
   );
+};
 
-/** Patient and test details sent with an upload. Ranges are generous plausibility limits (common practice). */
+/** Patient and test details sent with an upload. Ranges: `PLAUSIBLE_LIMITS` (generous; common practice). */
 export const testDetailsSchema = z.object({
   label: z.string().trim().max(120).optional().default(""),
   sex: z.enum(["male", "female", ""]).optional().default(""),
-  ageY: optionalNumber(5, 110, "Age (years)"),
-  heightCm: optionalNumber(100, 230, "Height (cm)"),
-  weightKg: optionalNumber(20, 300, "Weight (kg)"),
+  ageY: optionalNumber("ageY"),
+  heightCm: optionalNumber("heightCm"),
+  weightKg: optionalNumber("weightKg"),
   ergometer: z.enum(["cycle", "treadmill"]).default("cycle"),
   referral: z
     .enum(["general", "heart-failure", "pre-operative", "lung-resection", "pulmonary-hypertension", "transplant", "training"])
     .default("general"),
-  fev1L: optionalNumber(0.2, 8, "FEV1 (L)"),
-  mvvLMin: optionalNumber(10, 300, "Measured MVV (L/min)"),
+  fev1L: optionalNumber("fev1L"),
+  mvvLMin: optionalNumber("mvvLMin"),
 });
 
 export type TestDetails = z.infer<typeof testDetailsSchema>;

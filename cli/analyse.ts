@@ -3,7 +3,7 @@ import path from "node:path";
 import type { Command } from "commander";
 import { analyse, buildRecord, type ReferralQuestion } from "../lib/analysis";
 import { importLactateFile } from "../lib/breath";
-import { hasErrors } from "../lib/core";
+import { hasErrors, plausibilityProblem, type PlausibleField } from "../lib/core";
 import { REFERRAL_QUESTIONS } from "../lib/interpret";
 import { CLINICAL_CAUTION, toCliJson, type CliAnalysisJson } from "../lib/report";
 
@@ -29,16 +29,16 @@ export function registerAnalyse(program: Command): void {
     .argument("<file>", "breath-by-breath or stage file (CSV, TSV, semicolon, XLSX)")
     .option("--json", "print one JSON object on stdout (documented by cli/analyse.schema.json)")
     .option("--sex <sex>", "male | female")
-    .option("--age <years>", "age in years", parseNumber("--age"))
-    .option("--height-cm <cm>", "height in cm", parseNumber("--height-cm"))
-    .option("--weight-kg <kg>", "body weight in kg", parseNumber("--weight-kg"))
+    .option("--age <years>", "age in years", parseNumber("--age", "ageY"))
+    .option("--height-cm <cm>", "height in cm", parseNumber("--height-cm", "heightCm"))
+    .option("--weight-kg <kg>", "body weight in kg", parseNumber("--weight-kg", "weightKg"))
     .option("--ergometer <kind>", "cycle | treadmill", "cycle")
     .option(
       "--fev1-l <litres>",
       "resting FEV1 in litres (breathing reserve from FEV1 × 40 unless MVV is given)",
-      parseNumber("--fev1-l"),
+      parseNumber("--fev1-l", "fev1L"),
     )
-    .option("--mvv-l-min <L/min>", "measured maximal voluntary ventilation, L/min", parseNumber("--mvv-l-min"))
+    .option("--mvv-l-min <L/min>", "measured maximal voluntary ventilation, L/min", parseNumber("--mvv-l-min", "mvvLMin"))
     .option("--lactate <file>", "blood lactate samples (CSV/XLSX with time or stage, optional work/speed, and lactate)")
     .option(
       "--select <column=value>",
@@ -53,10 +53,13 @@ export function registerAnalyse(program: Command): void {
     });
 }
 
-function parseNumber(flag: string) {
+/** A numeric option, refused unless it lies within the plausibility limits shared with the upload form. */
+function parseNumber(flag: string, field: PlausibleField) {
   return (raw: string): number => {
     const n = Number(raw);
     if (raw.trim() === "" || !Number.isFinite(n)) throw new Error(`${flag} needs a number, got "${raw}"`);
+    const problem = plausibilityProblem(field, n);
+    if (problem) throw new Error(`${flag}: ${problem}`);
     return n;
   };
 }

@@ -1,16 +1,18 @@
 import { z } from "zod";
-import { makeIssue, type Issue, type Spirometry } from "../core";
+import { makeIssue, PLAUSIBLE_LIMITS, type Issue, type PlausibleField, type Spirometry } from "../core";
+
+const within = (f: PlausibleField) => z.number().min(PLAUSIBLE_LIMITS[f].min).max(PLAUSIBLE_LIMITS[f].max).optional();
 
 /**
- * Plausible resting spirometry in canonical units (common practice; generous): FEV1 0.2–8 L,
+ * Plausible resting spirometry in canonical units (common practice; generous; `PLAUSIBLE_LIMITS`): FEV1 0.2–8 L,
  * FVC 0.3–10 L, MVV 10–300 L/min, % predicted 5–200.
  */
 export const spirometrySchema = z.object({
-  fev1L: z.number().min(0.2).max(8).optional(),
-  fvcL: z.number().min(0.3).max(10).optional(),
-  mvvLMin: z.number().min(10).max(300).optional(),
-  dlcoPctPred: z.number().min(5).max(200).optional(),
-  fev1PctPred: z.number().min(5).max(200).optional(),
+  fev1L: within("fev1L"),
+  fvcL: within("fvcL"),
+  mvvLMin: within("mvvLMin"),
+  dlcoPctPred: within("dlcoPctPred"),
+  fev1PctPred: within("fev1PctPred"),
 });
 
 /**

@@ -4,3 +4,4 @@ export * from "./measured";
 export * from "./patient";
 export * from "./sources";
 export * from "./cautions";
+export * from "./plausibleLimits";
