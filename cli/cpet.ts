@@ -13,7 +13,9 @@ export function buildProgram(): Command {
     .description(
       "cpet-desk: analyse cardiopulmonary exercise tests (decision support; results must be reviewed by a qualified clinician)",
     )
-    .showHelpAfterError()
+    // a usage error is one line plus a pointer to the help, not the whole help text
+    .showHelpAfterError("(run 'cpet <command> --help' to see the options)")
+    .configureOutput({ outputError: (text, write) => write(`cpet: ${text}`) })
     .exitOverride();
   registerAnalyse(program);
   registerPredict(program);
