@@ -122,13 +122,40 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
   };
   const oues = (f: number) => val(ix.oues.fits.find((x) => Math.abs(x.fraction - f) < 1e-9)?.slope);
   const predicted: CliAnalysisJson["predicted"] = {};
+  const seen = new Set(issues.map((i) => `${i.code}|${i.message}`));
+  const addOnce = (i: Issue) => {
+    if (!seen.has(`${i.code}|${i.message}`)) issues.push(i);
+    seen.add(`${i.code}|${i.message}`);
+  };
   for (const [q, pv] of Object.entries(result.predicted.values)) {
     if (!pv) continue;
+    // each predicted value's own cautions (outside the derivation population, input missing) and its reason when null
+    for (const i of pv.issues) addOnce(i);
+    if (pv.value === null)
+      addOnce({
+        severity: "info",
+        code: "not-determinable",
+        message: `Predicted ${q} (${pv.equationLabel}): ${pv.reason ?? "not determinable"}`,
+      });
     const cmp = result.comparisons.find((c) => c.predicted?.quantity === q);
     predicted[q] = { value: pv.value, unit: pv.unit, equationId: pv.equationId, percentPredicted: cmp?.percentPredicted ?? null };
   }
   const lac = ix.lactate;
   const obla = lac?.thresholds.find((t) => t.id === "obla-4");
+  const oblaOn = (axis: string): number | null => {
+    if (!lac || lac.axis !== axis) return null;
+    if (!obla) {
+      issues.push({ severity: "info", code: "not-determinable", message: "Lactate 4 mmol/L (OBLA): not computed" });
+      return null;
+    }
+    return nd("Lactate 4 mmol/L (OBLA)", obla.intensity);
+  };
+  if (lac && lac.axis !== "workW")
+    issues.push({
+      severity: "info",
+      code: "not-determinable",
+      message: `lactate.obla4.workW: the lactate samples are placed by ${lac.axis === "speedKmh" ? "speed" : lac.axis}, so OBLA is given on that axis`,
+    });
   const json: CliAnalysisJson = {
     engineVersion: result.engineVersion,
     caution,
@@ -142,9 +169,9 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       vo2MlKgMin: nd("Peak VO2 per kg", p.vo2MlKgMin),
       vco2MlMin: val(p.vco2MlMin),
       veLMin: val(p.veLMin),
-      rer: val(p.rerMax),
-      hrBpm: val(p.hrBpm),
-      workW: val(p.workW),
+      rer: nd("Peak RER", p.rerMax),
+      hrBpm: nd("Peak HR", p.hrBpm),
+      workW: nd("Peak work rate", p.workW),
       o2PulseMlBeat: val(p.o2PulseMlBeat),
     },
     predicted,
@@ -157,7 +184,7 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       wholeIntercept: val(ix.veVco2.slopeWholeExercise.intercept),
       nadir: val(ix.veVco2.nadir),
     },
-    oues: oues(1),
+    oues: nd("OUES", ix.oues.fits.find((x) => Math.abs(x.fraction - 1) < 1e-9)?.slope),
     oues90: oues(0.9),
     oues75: oues(0.75),
     dVo2dWr: nd("ΔVO2/ΔWR", ix.dVo2dWr.whole.slope),
@@ -182,8 +209,8 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
           axis: lac.axis,
           unit: lac.unit,
           obla4: {
-            workW: lac.axis === "workW" ? val(obla?.intensity) : null,
-            speedKmh: lac.axis === "speedKmh" ? val(obla?.intensity) : null,
+            workW: oblaOn("workW"),
+            speedKmh: oblaOn("speedKmh"),
           },
           thresholds: lac.thresholds.map((t) => ({ method: t.id, value: val(t.intensity), lactateMmolL: val(t.lactateMmolL) })),
           relations: lac.relations.map((r) => r.statement),

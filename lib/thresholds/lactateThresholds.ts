@@ -118,11 +118,29 @@ export function lactatePointsFromTest(
   const hasWork = raw.some((r) => Number.isFinite(r.w) && r.w > 0);
   const axis: LactateAxis = hasWork ? "workW" : "speedKmh";
   const points: LactatePoint[] = [];
+  let dropped = 0;
   for (const r of raw) {
     const x = axis === "workW" ? r.w : r.s;
     if (Number.isFinite(x) && Number.isFinite(r.l)) points.push({ x, lactateMmolL: r.l });
-    else
-      issues.push(makeIssue("info", "lactate-without-intensity", "A lactate sample has no work rate or speed and was left out."));
+    else dropped++;
+  }
+  if (dropped > 0 && points.length > 0)
+    issues.push(
+      makeIssue("info", "lactate-without-intensity", `${dropped} lactate sample(s) had no work rate or speed and were left out.`),
+    );
+  if (dropped > 0 && points.length === 0) {
+    // nothing could be placed: say why, so the samples are not silently ignored
+    const byStageOnly = (samples ?? []).some((x) => x.stage !== undefined && x.timeS === undefined && x.workW === undefined);
+    const testHasStages = test.clean.some((r) => typeof r.stage === "number");
+    issues.push(
+      makeIssue(
+        "warning",
+        "lactate-not-placed",
+        byStageOnly && !testHasStages
+          ? `None of the ${dropped} lactate sample(s) could be placed: they name a stage, but the exercise file has no stage column. Give each sample's time or work rate.`
+          : `None of the ${dropped} lactate sample(s) could be placed on a work rate or speed. Give each sample's time, stage or work rate.`,
+      ),
+    );
   }
   return { axis, points, issues };
 }

@@ -86,7 +86,7 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
     ...sp.issues,
     ...vd.issues,
     ...ev.issues,
-    ...(lactate?.issues ?? []),
+    ...(lactate?.issues ?? lp.issues),
     ...domains.issues,
   ];
   return {
