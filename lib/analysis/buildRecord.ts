@@ -1,4 +1,4 @@
-import type { Ergometer, Issue, Patient } from "../core";
+import { makeIssue, type Ergometer, type Issue, type Patient } from "../core";
 import { importBreathFile, type ColumnDecision, type ImportOptions } from "../breath";
 import type { ReferralQuestion, TestRecord } from "./types";
 
@@ -22,14 +22,29 @@ export interface BuildRecordResult {
 export async function buildRecord(input: BuildRecordInput): Promise<BuildRecordResult> {
   const imported = await importBreathFile(input.bytes, { fileName: input.fileName, ...input.importOptions });
   if (!imported.table) return { record: null, columns: imported.columns, issues: imported.issues };
+  // A body mass read from the file (its details lines or a weight column) stands in when none was entered, so
+  // per-kg values agree with the importer's own conversion; the patient's entered value always wins.
+  const issues = [...imported.issues];
+  let patient = input.patient;
+  if (patient.weightKg === undefined && imported.weight && imported.weight.from !== "options") {
+    patient = { ...patient, weightKg: imported.weight.kg };
+    if (!issues.some((i) => i.code === "weight-from-file"))
+      issues.push(
+        makeIssue(
+          "info",
+          "weight-from-file",
+          `Body mass ${imported.weight.kg} kg was taken from the file (${imported.weight.from === "metadata" ? "its details lines" : "its weight column"}) because none was entered.`,
+        ),
+      );
+  }
   const record: TestRecord = {
-    patient: input.patient,
+    patient,
     ergometer: input.ergometer,
     referral: input.referral ?? "general",
     table: imported.table,
     columns: imported.columns,
-    importIssues: imported.issues,
+    importIssues: issues,
     upload: { fileName: input.fileName, sha256: input.sha256 ?? "", sizeBytes: input.bytes.byteLength },
   };
-  return { record, columns: imported.columns, issues: imported.issues };
+  return { record, columns: imported.columns, issues };
 }

@@ -23,3 +23,22 @@ describe("analyse: weight basis for an obese patient", () => {
     expect(r.issues.map((i) => i.code)).toContain("obesity-weight-basis");
   });
 });
+
+describe("buildRecord: body mass from the file", () => {
+  const file = path.resolve(__dirname, "../fixtures/layouts/aligned_units_row_per_kg.txt");
+  const bytes = () => new Uint8Array(fs.readFileSync(file));
+
+  it("stands in when none was entered, so peak VO2 per kg is given and equals mL/min ÷ the file's 72 kg", async () => {
+    // The invented layout file states "Body mass: 72 kg" in its details lines (tests/fixtures/layouts/writeLayouts.ts).
+    const built = await buildRecord({ bytes: bytes(), fileName: "aligned.txt", patient: {}, ergometer: "cycle" });
+    expect(built.record!.patient.weightKg).toBe(72);
+    expect(built.issues.map((i) => i.code)).toContain("weight-from-file");
+    const r = analyse(built.record!);
+    expect(r.indices.peaks.vo2MlKgMin.value).toBeCloseTo(r.indices.peaks.vo2MlMin.value! / 72, 9);
+  });
+
+  it("never replaces a body mass the user entered", async () => {
+    const built = await buildRecord({ bytes: bytes(), fileName: "aligned.txt", patient: { weightKg: 80 }, ergometer: "cycle" });
+    expect(built.record!.patient.weightKg).toBe(80);
+  });
+});

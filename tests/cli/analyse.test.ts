@@ -135,4 +135,43 @@ describe("cpet analyse: full output on real and invented files", () => {
     // 4 mmol/L between 450 s (2.9) and 600 s (6.0): t = 450 + 150 × 1.1 / 3.1 = 503.2 s → work = t / 3 = 167.7 W.
     expect(json.lactate.obla4.workW).toBeCloseTo(167.7, 0);
   });
+
+  it("a lactate curve that never reaches 4 mmol/L gives null for OBLA with its reason in issues", () => {
+    const lac = path.join(tmp, "lactate-low.csv");
+    // INVENTED samples that stay below 4 mmol/L by construction (highest 3.2).
+    fs.writeFileSync(lac, "time_s,lactate_mmol_l\n0,1.0\n150,1.1\n300,1.6\n450,2.4\n600,3.2\n");
+    const file = path.join(tmp, "ramp3.csv");
+    fs.writeFileSync(file, plainRampCsv());
+    const json = JSON.parse(
+      execFileSync(process.execPath, [bin, "analyse", file, "--json", "--lactate", lac], { encoding: "utf8" }),
+    );
+    expect(json.lactate.obla4.workW).toBeNull();
+    const why = json.issues.filter((i: { message: string }) => /OBLA/.test(i.message));
+    expect(why.length).toBeGreaterThan(0);
+    expect(why[0].code).toBe("not-determinable");
+  });
+
+  it("refuses patient values outside the plausibility limits shared with the upload form", () => {
+    const file = path.join(tmp, "ramp4.csv");
+    fs.writeFileSync(file, plainRampCsv());
+    // a unit slip each: age in months, height in metres, FEV1 in mL (limits: lib/core/plausibleLimits.ts, common practice)
+    for (const [flag, value, text] of [
+      ["--age", "500", /Age \(years\) must lie between 5 and 110/],
+      ["--height-cm", "1.75", /Height \(cm\) must lie between 100 and 230/],
+      ["--fev1-l", "3200", /FEV1 \(L\) must lie between 0.2 and 8/],
+      ["--weight-kg", "-80", /Weight \(kg\) must lie between 20 and 300/],
+    ] as const) {
+      const r = run(["analyse", file, "--json", flag, value]);
+      expect(r.status).toBe(1);
+      expect(r.stdout).toBe("");
+      expect(r.stderr).toMatch(text);
+    }
+  });
+
+  it("a usage error is one line and a pointer to the help, not the whole help text", () => {
+    const r = run(["analyse", "--no-such-option"]);
+    expect(r.status).toBe(2);
+    expect(r.stderr.trim().split("\n").length).toBeLessThanOrEqual(2);
+    expect(r.stderr).toMatch(/^cpet: error: /);
+  });
 });
