@@ -51,14 +51,37 @@ describe("measureIndices on the invented ramp", () => {
 
   it("every Measured names registered sources and has a value or a reason", () => {
     const known = new Set([...Object.keys(THRESHOLD_SOURCES), ...Object.keys(CORE_SOURCES)]);
-    let count = 0;
     for (const m of measuredIn(r)) {
-      count++;
       expect(m.value !== null || typeof m.reason === "string", m.provenance.method).toBe(true);
       expect(m.provenance.sourceIds.length, m.provenance.method).toBeGreaterThan(0);
       for (const id of m.provenance.sourceIds) expect(known.has(id), `${m.provenance.method}: ${id}`).toBe(true);
     }
-    expect(count).toBeGreaterThan(80);
+    // The walk reached every module: each one that measures reports at least one Measured (effort holds verdicts
+    // and issues holds issues, so neither has any). VT1 and VT2 are read by the same function, so they hold the
+    // same number of values.
+    const count = (x: unknown) => [...measuredIn(x)].length;
+    const modules = [
+      "peaks",
+      "vo2FinalIncrease",
+      "veVco2",
+      "oues",
+      "dVo2dWr",
+      "o2Pulse",
+      "breathingReserve",
+      "heartRate",
+      "spo2",
+      "vdVt",
+      "eov",
+      "atVt1",
+      "atVt2",
+      "lactate",
+      "domains",
+    ] as const;
+    for (const k of modules) expect(count(r[k]), k).toBeGreaterThan(0);
+    expect(count(r.effort)).toBe(0);
+    expect(count(r.atVt1)).toBe(count(r.atVt2));
+    // VD/VT: one point per blood-gas sample, and ctx holds exactly one sample
+    expect(r.vdVt).toHaveLength(ctx.bloodGases.length);
   });
 
   it("an empty test gives values with reasons, not exceptions", () => {
@@ -69,7 +92,9 @@ describe("measureIndices on the invented ramp", () => {
     expect(e.issues.length).toBeGreaterThan(0);
   });
 
-  it("fits interactive use: one hour of breaths (1 breath/s) in well under a second", () => {
+  it("one hour of breaths (1 breath/s): ΔVO2/ΔWR = 0.8 mL/min per s ÷ (1/12 W per s) = 9.6 mL/min/W", () => {
+    // Invented ramp: rest 0–299 s, exercise 300–3300 s with VO2 = 800 + 0.8·(t − 300) and work = (t − 300)/12 W,
+    // recovery to 3599 s. The time this call takes is measured in bench/measureIndices.bench.ts, not asserted here.
     const rows: BreathRow[] = [];
     for (let t = 0; t < 3600; t++) {
       const ex = t >= 300 && t <= 3300;
@@ -94,16 +119,11 @@ describe("measureIndices on the invented ramp", () => {
         { phase: "recovery", startS: 3301, endS: 3599, source: "markers" },
       ],
     });
-    const ctx = {
+    const out = measureIndices(big, {
       patient: { ageY: 40, weightKg: 80 },
       vt1: { timeS: 1500, vo2MlMin: 1760 },
       vt2: { timeS: 2500, vo2MlMin: 2560 },
-    };
-    measureIndices(big, ctx); // warm-up
-    const t0 = performance.now();
-    const out = measureIndices(big, ctx);
-    const ms = performance.now() - t0;
+    });
     expect(out.dVo2dWr.whole.slope.value).toBeCloseTo(0.8 * 12, 6);
-    expect(ms).toBeLessThan(500);
   });
 });
