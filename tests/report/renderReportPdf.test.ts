@@ -16,8 +16,21 @@ function hasTool(name: string): boolean {
   }
 }
 
+/**
+ * The page-text checks need pdftotext and pdfinfo from poppler-utils (CI installs it). They always run: without
+ * the tools they fail with this message rather than vanish.
+ */
+function requirePoppler(): void {
+  const missing = ["pdftotext", "pdfinfo"].filter((t) => !hasTool(t));
+  if (missing.length > 0)
+    throw new Error(
+      `${missing.join(" and ")} not found: install poppler-utils (e.g. apt-get install poppler-utils) to run the PDF text checks`,
+    );
+}
+
 /** Text of each page (pdftotext, poppler), whitespace collapsed. */
 function pagesText(pdf: Buffer): string[] {
+  requirePoppler();
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "cpet-report-"));
   const file = path.join(dir, "r.pdf");
   fs.writeFileSync(file, pdf);
@@ -34,7 +47,6 @@ function pagesText(pdf: Buffer): string[] {
   return out;
 }
 
-const poppler = hasTool("pdftotext") && hasTool("pdfinfo");
 const signedAt = "2026-12-01T10:00:00.000Z";
 
 describe("renderReportPdf", () => {
@@ -45,7 +57,7 @@ describe("renderReportPdf", () => {
     expect(pdf.byteLength).toBeLessThan(300_000);
   });
 
-  it.runIf(poppler)("a draft carries the DRAFT mark and the clinical caution on every page", async () => {
+  it("a draft carries the DRAFT mark and the clinical caution on every page", async () => {
     const model = exampleReportModel();
     // Long text forces several pages.
     model.sections.push({
@@ -63,7 +75,7 @@ describe("renderReportPdf", () => {
     expect(pages.join(" ")).toContain("Not signed.");
   });
 
-  it.runIf(poppler)("a signed report has no DRAFT mark, keeps the caution and shows the signer", async () => {
+  it("a signed report has no DRAFT mark, keeps the caution and shows the signer", async () => {
     const pages = pagesText(await renderReportPdf(exampleReportModel({ status: "signed", signedBy: "Dr A Example", signedAt })));
     for (const text of pages) {
       expect(text).not.toMatch(/DRAFT/);
@@ -72,7 +84,7 @@ describe("renderReportPdf", () => {
     }
   });
 
-  it.runIf(poppler)("prints values, sources with evidence status and sanitised symbols", async () => {
+  it("prints values, sources with evidence status and sanitised symbols", async () => {
     const all = pagesText(await renderReportPdf(exampleReportModel())).join(" ");
     expect(all).toContain("Peak VO2"); // "VO₂" sanitised
     expect(all).toContain(">= 80 %"); // "≥" sanitised
