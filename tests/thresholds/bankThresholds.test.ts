@@ -30,9 +30,9 @@ describe(`threshold accuracy, main generator (${size} tests)`, () => {
   });
 
   it("meets the goals for no-calls (VT1 ≤ 5 %) and the VT2 median (≤ 5 %) at moderate noise", () => {
-    expect(stat(main, "vt1-consensus", "moderate").noCallPct).toBeLessThanOrEqual(5);
-    expect(stat(main, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5);
-    expect(stat(main, "vt2-consensus", "low").medianPct).toBeLessThanOrEqual(5);
+    expect(stat(main, "vt1-consensus", "moderate").noCallPct).toBeLessThanOrEqual(5); // goal from the issue
+    expect(stat(main, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5); // goal from the issue
+    expect(stat(main, "vt2-consensus", "low").medianPct).toBeLessThanOrEqual(5); // goal from the issue
   });
 
   // VT1 at moderate noise, 20 resamples: median 4.1 %, P90 10.9 % on this 80-test slice since round 8 (9.4 % after round
@@ -42,8 +42,8 @@ describe(`threshold accuracy, main generator (${size} tests)`, () => {
   // met on this slice; these bounds guard the level reached.
   it("keeps VT1 at moderate noise at the level reached (median ≤ 4.4 %, P90 ≤ 11.5 %; goal P90 ≤ 10 % not met here)", () => {
     const s = stat(main, "vt1-consensus", "moderate");
-    expect(s.medianPct).toBeLessThanOrEqual(4.4);
-    expect(s.p90Pct).toBeLessThanOrEqual(11.5);
+    expect(s.medianPct).toBeLessThanOrEqual(4.4); // our regression bound at the level reached (README-thresholds.md), not a published value
+    expect(s.p90Pct).toBeLessThanOrEqual(11.5); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
 
   // The pooled consensus is ahead of every single-signal method and not behind the joint profile alone by more than
@@ -59,33 +59,33 @@ describe(`threshold accuracy, main generator (${size} tests)`, () => {
   // six 240-test banks at all noise levels every such candidate was 8–49 % early (README-thresholds.md, round 8).
   it("keeps VT2 at the level reached (moderate: median ≤ 4 %, P90 ≤ 10 %, no-calls ≤ 7 %)", () => {
     const s = stat(main, "vt2-consensus", "moderate");
-    expect(s.medianPct).toBeLessThanOrEqual(4);
-    expect(s.p90Pct).toBeLessThanOrEqual(10);
-    expect(s.noCallPct).toBeLessThanOrEqual(7);
+    expect(s.medianPct).toBeLessThanOrEqual(4); // our regression bound at the level reached (README-thresholds.md), not a published value; tighter than the goal ≤ 5 %
+    expect(s.p90Pct).toBeLessThanOrEqual(10); // our regression bound at the level reached (README-thresholds.md), not a published value
+    expect(s.noCallPct).toBeLessThanOrEqual(7); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
 
   // Goal: VE/VCO2 slope to the detected RCP within ±5 % of truth in 90 % of tests (no-calls count as misses) — NOT
   // met on this bank (≈ 83 %: 5 % VT2 no-calls, the rest narrow VCO2 ranges with autocorrelated breath noise, where
   // even the true RCP gives ≈ 89 %, and early RCP estimates); guarded here.
   it("keeps the VE/VCO2 slope to RCP within ±5 % of truth in ≥ 82 % of tests at moderate noise (≥ 93 % at low)", () => {
-    expect(stat(main, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(82);
-    expect(stat(main, "ve-vco2-slope-to-vt2", "low").within5Pct).toBeGreaterThanOrEqual(93);
+    expect(stat(main, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(82); // our regression bound at the level reached (README-thresholds.md), not a published value; goal ≥ 90 % not met
+    expect(stat(main, "ve-vco2-slope-to-vt2", "low").within5Pct).toBeGreaterThanOrEqual(93); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
 
   it("meets the VT1 median goal (≤ 4 %) at low noise", () => {
-    expect(stat(main, "vt1-consensus", "low").medianPct).toBeLessThanOrEqual(4);
+    expect(stat(main, "vt1-consensus", "low").medianPct).toBeLessThanOrEqual(4); // goal from the issue
   });
 });
 
 describe(`threshold accuracy, independent variant model (${variantSize} tests)`, () => {
   it("meets the no-call goal and the VT2 median goal at moderate noise", () => {
-    expect(stat(variant, "vt1-consensus", "moderate").noCallPct).toBeLessThanOrEqual(5);
-    expect(stat(variant, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(4);
+    expect(stat(variant, "vt1-consensus", "moderate").noCallPct).toBeLessThanOrEqual(5); // goal from the issue
+    expect(stat(variant, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(4); // our regression bound at the level reached (README-thresholds.md), not a published value; tighter than the goal ≤ 5 %
   });
 
   // 92 % on this 150-test bank; 90 % on the 240-test bank of scripts/threshold-bank.ts (borderline).
   it("meets the VE/VCO2 slope goal: within ±5 % of truth in ≥ 90 % of tests at moderate noise", () => {
-    expect(stat(variant, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(90);
+    expect(stat(variant, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(90); // goal from the issue
   });
 
   // The variant model now releases CO2 from the stores above VT2 (washout, round 7), which makes it harder: on this
@@ -93,8 +93,8 @@ describe(`threshold accuracy, independent variant model (${variantSize} tests)`,
   // CO2 read over the whole span (4.4 / 11.2 % on the 240-test bank of the script). Goal P90 ≤ 10 % not met here.
   it("keeps VT1 at moderate noise at the level reached (median ≤ 4.2 %, P90 ≤ 13.5 %; goal P90 ≤ 10 % not met)", () => {
     const s = stat(variant, "vt1-consensus", "moderate");
-    expect(s.medianPct).toBeLessThanOrEqual(4.2);
-    expect(s.p90Pct).toBeLessThanOrEqual(13.5);
+    expect(s.medianPct).toBeLessThanOrEqual(4.2); // our regression bound at the level reached (README-thresholds.md), not a published value
+    expect(s.p90Pct).toBeLessThanOrEqual(13.5); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
 });
 
@@ -107,13 +107,13 @@ describe(`threshold accuracy, hold-out model (${holdoutSize} tests, moderate noi
   it("has no more than 5 % VT1 no-calls and keeps VT1 at the level reached (median ≤ 8.5 %, P90 ≤ 21 %)", () => {
     const s = stat(holdout, "vt1-consensus", "moderate");
     expect(s.n).toBe(holdoutSize);
-    expect(s.noCallPct).toBeLessThanOrEqual(5);
-    expect(s.medianPct).toBeLessThanOrEqual(8.5);
-    expect(s.p90Pct).toBeLessThanOrEqual(21);
+    expect(s.noCallPct).toBeLessThanOrEqual(5); // goal from the issue
+    expect(s.medianPct).toBeLessThanOrEqual(8.5); // our regression bound at the level reached (README-thresholds.md), not a published value
+    expect(s.p90Pct).toBeLessThanOrEqual(21); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
   it("meets the VT2 median goal (≤ 5 %) and keeps the slope within ±5 % in ≥ 85 % of tests", () => {
-    expect(stat(holdout, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5);
-    expect(stat(holdout, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(85);
+    expect(stat(holdout, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5); // goal from the issue
+    expect(stat(holdout, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(85); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
 });
 
@@ -127,12 +127,12 @@ describe(`threshold accuracy, audit model (${auditSize} tests, moderate noise)`,
   it("meets the VT1 no-call and VT2 median goals and keeps VT1 at the level reached (median ≤ 6 %, P90 ≤ 16.5 %)", () => {
     const s = stat(audit, "vt1-consensus", "moderate");
     expect(s.n).toBe(auditSize);
-    expect(s.noCallPct).toBeLessThanOrEqual(5);
-    expect(s.medianPct).toBeLessThanOrEqual(6);
-    expect(s.p90Pct).toBeLessThanOrEqual(16.5);
-    expect(stat(audit, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5);
+    expect(s.noCallPct).toBeLessThanOrEqual(5); // goal from the issue
+    expect(s.medianPct).toBeLessThanOrEqual(6); // our regression bound at the level reached (README-thresholds.md), not a published value
+    expect(s.p90Pct).toBeLessThanOrEqual(16.5); // our regression bound at the level reached (README-thresholds.md), not a published value
+    expect(stat(audit, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5); // goal from the issue
   });
   it("keeps the slope within ±5 % in ≥ 85 % of tests", () => {
-    expect(stat(audit, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(85);
+    expect(stat(audit, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(85); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
 });

@@ -14,10 +14,16 @@ const preset = (id: string) => {
 };
 
 describe("VE/VCO2 slope below the RCP when the test shows no compensation", () => {
-  // Measured on 20 seeds: low noise 20/20 within ±5 % (worst −3.4 %), moderate 18/20 (worst −6.0 %); the rule
-  // fired on all 40. Bounds below are those levels.
+  // Goal (from the issue, our project's target, not a published value): slope within ±5 % of truth in ≥ 90 % of
+  // tests, i.e. ≥ 18/20. Measured on 20 seeds: low noise 20/20 within ±5 % (worst −3.4 %), moderate 18/20 (worst
+  // −6.0 %); the rule fired on all 40.
+  // - moderate ≥ 18/20 is the goal itself (equal to the measured count; not loosened);
+  // - low ≥ 19/20: our regression bound at the level reached (README-thresholds.md), not a published value, with a
+  //   margin of one seed below the measured 20/20 (still above the goal);
+  // - every seed within ±8 %: our regression bound at the level reached (README-thresholds.md), not a published
+  //   value (worst measured 6.0 %).
   for (const [noise, minWithin] of [
-    ["low", 20],
+    ["low", 19],
     ["moderate", 18],
   ] as const) {
     it(`no RCP (${noise} noise, 20 seeds): whole-exercise slope reported, ≥ ${minWithin}/20 within ±5 % of truth, labelled`, () => {
@@ -28,7 +34,7 @@ describe("VE/VCO2 slope below the RCP when the test shows no compensation", () =
         const s = veVco2Slope(conditionTable(syn.table), { vt2: null }).slopeToVt2.slope;
         expect(s.value).not.toBeNull();
         const err = Math.abs((s.value as number) / syn.truth.veVco2SlopeToVt2 - 1);
-        expect(err).toBeLessThanOrEqual(0.08);
+        expect(err).toBeLessThanOrEqual(0.08); // our regression bound (see above), not a published value
         if (err <= 0.05) within++;
         expect(s.provenance.method).toBe("ve-vco2-slope-to-vt2-no-compensation");
         expect(s.provenance.label).toContain("no respiratory compensation");
