@@ -31,13 +31,16 @@ describe("importLactateFile", () => {
     ]);
   });
 
+  // mg/dL → mmol/L for lactate: ÷ 9.008, from the molar mass of lactic acid, 90.08 g/mol (1 mmol/L = 90.08 mg/L =
+  // 9.008 mg/dL; standard chemistry, common practice). Plausible range 0.1–30 mmol/L: our generous plausibility
+  // limit, common practice (LACTATE_RANGE in lib/breath/importLactateFile.ts), not a published value.
   it("invented sample file: m:ss times, decimal comma, mg/dL converted (÷ 9.008, lib/units)", async () => {
     const r = await importLactateFile(enc("Time;Stage;Lactate (mg/dL)\n3:00;1;9,008\n6:00;2;18,016\n9:00;3;999\n"));
     expect(r.samples).toEqual([
       { timeS: 180, stage: 1, lactateMmolL: 1 },
       { timeS: 360, stage: 2, lactateMmolL: 2 },
     ]);
-    // 999 mg/dL = 110.9 mmol/L lies outside 0.1–30
+    // 9.008 mg/dL ÷ 9.008 = 1 mmol/L, 18.016 ÷ 9.008 = 2; 999 mg/dL ÷ 9.008 = 110.9 mmol/L lies outside 0.1–30
     expect(r.issues.find((i) => i.code === "implausible-values")?.where?.row).toBe(4);
   });
 
@@ -51,7 +54,7 @@ describe("importLactateFile", () => {
 });
 
 describe("importBloodGasFile", () => {
-  it("invented samples in kPa: converted to mmHg (1 kPa = 7.50062 mmHg)", async () => {
+  it("invented samples in kPa: converted to mmHg (1 kPa = 7.50062 mmHg: 1 mmHg = 133.322 Pa, standard definition, common practice)", async () => {
     const r = await importBloodGasFile(enc("time (min),PaO2 (kPa),PaCO2 (kPa),label\n0,13.3,5.3,rest\n12,12.0,4.6,peak\n"));
     expect(r.samples).toHaveLength(2);
     expect(r.samples[0].timeS).toBe(0);
@@ -69,6 +72,8 @@ describe("importBloodGasFile", () => {
 });
 
 describe("parseSpirometry", () => {
+  // MVV 5000 L/min is far outside 10–300 L/min, our generous plausibility limit, common practice (PLAUSIBLE_LIMITS in
+  // lib/core, as parseSpirometry states), not a published value; FEV1 3.1 L and FVC 4.2 L lie inside 0.2–8 and 0.3–10 L.
   it("accepts numbers and decimal-comma strings; leaves out implausible values", () => {
     const r = parseSpirometry({ fev1L: "3,1", fvcL: 4.2, mvvLMin: 5000 });
     expect(r.spirometry).toEqual({ fev1L: 3.1, fvcL: 4.2 });

@@ -203,7 +203,13 @@ describe("Pre-operative AT (Older et al. 1993, Chest 104:701, confirmed)", () =>
   });
 });
 
-describe("Pre-operative three-tier scheme (published scheme [S34], confirmed)", () => {
+// Source: perioperative CPET three-tier risk scheme, Authorea preprint (authorea.com/users/424398/articles/556575;
+// authors, year and journal not recorded in the clinical sheets or the lib registry), status confirmed (lib id
+// "periop-3tier-s34"): low AT ≥ 11; intermediate one of AT 8–10.9, VE/VCO2 at AT > 34, ischaemic heart disease;
+// high AT < 8 or ≥ 2 of those. The same three factors (AT ≤ 10.9 mL/kg/min, VE/VCO2 at AT > 34, IHD) are the
+// cohort cut-offs of Wilson RJT, Davies S, Yates D, Redman J, Stone M, Br J Anaesth 2010 — confirmed (volume/page
+// 105:297 recalled).
+describe("Pre-operative three-tier scheme (Authorea preprint, authors not recorded; confirmed)", () => {
   it.each([
     [{ vt1Vo2MlKgMin: 7.99, veVco2AtVt1: 30, ischaemicHeartDisease: false }, "high"],
     [{ vt1Vo2MlKgMin: 8, veVco2AtVt1: 30, ischaemicHeartDisease: false }, "intermediate"],

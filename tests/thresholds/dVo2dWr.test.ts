@@ -3,7 +3,9 @@ import { dVo2dWr } from "../../lib/thresholds/dVo2dWr";
 import { buildRows, EX_START_S, freezeTest, makeTest, rampW } from "./indicesFixture";
 
 // Invented ramp 20 W/min. During the first 60 s VO2 stays at 500 (lag); afterwards VO2 = 10·W + 500
-// exactly, so excluding the lag window gives 10.0 mL/min/W (reference 10.29 ± 1.01, Am J Cardiol 1987).
+// exactly, so excluding the lag window gives 10.0 mL/min/W. Reference 10.29 ± 1.01 mL/min/W in 54 normal men:
+// Am J Cardiol 1987;59:669-74 (PMID 3825911) — confirmed; author list (Hansen, Sue, Oren, Wasserman) recalled
+// ["hansen-1987-vo2-wr"]. Excluding the first ~1 min for the VO2 lag: method detail, recalled ["vo2-lag-exclusion"].
 function ramp(upperSlope: number) {
   const vt1S = 480;
   return makeTest(
@@ -36,7 +38,7 @@ describe("ΔVO2/ΔWR", () => {
     expect(Math.abs(r.whole.slope.value! - 10)).toBeGreaterThan(0.05);
   });
 
-  it("flattening above VT1: lower 10, upper 7 → ratio 0.7 < 0.8", () => {
+  it("flattening above VT1: lower 10, upper 7 → ratio 0.7 < 0.8 (implementation choice)", () => {
     const r = dVo2dWr(ramp(7), { vt1: { timeS: 480, vo2MlMin: 1500 } });
     expect(r.splitBy).toBe("vt1");
     expect(r.lower.slope.value).toBeCloseTo(10, 9);
@@ -45,7 +47,7 @@ describe("ΔVO2/ΔWR", () => {
     expect(r.flattening).toBe(true);
   });
 
-  it("either side of the 0.8 flattening cut-off (implementation choice): 0.81 no, 0.79 yes", () => {
+  it("either side of the 0.8 flattening cut-off (lib default flatteningRatio: implementation choice, no published source): 0.81 no, 0.79 yes", () => {
     const vt1 = { timeS: 480, vo2MlMin: 1500 };
     const above = dVo2dWr(ramp(8.1), { vt1 });
     expect(above.upperToLowerRatio.value).toBeCloseTo(0.81, 9);

@@ -15,7 +15,15 @@ function withRecovery(dropPerMin: number) {
 }
 
 describe("heart-rate indices", () => {
-  it("chronotropic index exactly 0.80 is not impaired (Cole 1999: impaired < 0.80)", () => {
+  // Cut-offs (lib source ids in brackets):
+  // - chronotropic index impaired < 0.80, HRpred = 220 − age, and HR recovery at 1 min abnormal ≤ 12 bpm: Cole CR,
+  //   Blackstone EH, Pashkow FJ, Snader CE, Lauer MS, N Engl J Med 1999;341:1351-7 — confirmed ["cole-1999"];
+  // - HR recovery at 2 min abnormal ≤ 42 bpm after a submaximal test: Cole CR et al., Ann Intern Med
+  //   2000;132:552-5 — confirmed ["cole-2000"];
+  // - chronotropic index impaired < 0.62 on beta-blockers: Brubaker & Kitzman — recalled (no year or journal
+  //   recorded) ["brubaker-kitzman-beta-blocker"];
+  // - HRmax = 220 − age: Fox (history in Robergs & Landwehr, JEPonline 2002) — confirmed ["fox-hrmax"].
+  it("chronotropic index exactly 0.80 is not impaired (Cole et al., N Engl J Med 1999, confirmed: impaired < 0.80)", () => {
     // (150 − 70)/(170 − 70) = 0.80
     const r = heartRateIndices(freezeTest(withRecovery(12)), {
       peakHr: peak(150),
@@ -30,7 +38,7 @@ describe("heart-rate indices", () => {
     expect(r.predictedMaxBpm.provenance.sourceIds).toEqual(["jones-1985-hrmax"]);
   });
 
-  it("chronotropic index 0.79 is impaired; on beta-blockers the recalled 0.62 cut-off applies", () => {
+  it("chronotropic index 0.79 is impaired; on beta-blockers the 0.62 cut-off (Brubaker & Kitzman, recalled) applies", () => {
     // (149 − 70)/(170 − 70) = 0.79
     const r = heartRateIndices(withRecovery(12), { peakHr: peak(149), predictedHrMaxBpm: 170 });
     expect(r.chronotropicImpaired).toBe(true);
@@ -40,7 +48,7 @@ describe("heart-rate indices", () => {
     expect(b.chronotropicIndex.provenance.sourceIds).toContain("brubaker-kitzman-beta-blocker");
   });
 
-  it("HR recovery exactly 12 bpm at 1 min is abnormal (Cole 1999: ≤ 12); 13 is not", () => {
+  it("HR recovery exactly 12 bpm at 1 min is abnormal (Cole et al., N Engl J Med 1999, confirmed: ≤ 12); 13 is not", () => {
     const r = heartRateIndices(withRecovery(12), { peakHr: peak(150), predictedHrMaxBpm: 170 });
     expect(r.recovery1MinBpm.value).toBeCloseTo(12, 9);
     expect(r.recovery1MinAbnormal).toBe(true);
@@ -49,14 +57,14 @@ describe("heart-rate indices", () => {
     expect(s.recovery1MinAbnormal).toBe(false);
   });
 
-  it("HR recovery at 2 min: 21 bpm/min → 42 is abnormal (Cole 2000: ≤ 42); 22 bpm/min → 44 is not", () => {
+  it("HR recovery at 2 min: 21 bpm/min → 42 is abnormal (Cole et al., Ann Intern Med 2000, confirmed: ≤ 42); 22 bpm/min → 44 is not", () => {
     expect(heartRateIndices(withRecovery(21), { peakHr: peak(150) }).recovery2MinAbnormal).toBe(true);
     const r = heartRateIndices(withRecovery(22), { peakHr: peak(150) });
     expect(r.recovery2MinBpm.value).toBeCloseTo(44, 9);
     expect(r.recovery2MinAbnormal).toBe(false);
   });
 
-  it("without an equation: 220 − age (Fox, as used by Cole 1999) with an info issue", () => {
+  it("without an equation: 220 − age (Fox, confirmed; as used by Cole et al., N Engl J Med 1999) with an info issue", () => {
     const r = heartRateIndices(withRecovery(12), { peakHr: peak(150), ageY: 50 });
     expect(r.predictedMaxBpm.value).toBe(170);
     expect(r.issues.map((i) => i.code)).toContain("hrmax-default-equation");

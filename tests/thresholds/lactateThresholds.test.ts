@@ -4,6 +4,18 @@ import { buildRows, makeTest, rampW } from "./indicesFixture";
 
 const byId = (r: ReturnType<typeof lactateThresholds>, id: string) => r.thresholds.find((t) => t.id === id)!;
 
+// Methods and cut-offs under test (lib source ids in brackets):
+// - OBLA at 4 mmol/L: Sjödin B, Jacobs I, Int J Sports Med 1981;2:23-26 — confirmed ["sjodin-jacobs-1981"];
+// - baseline + 1 mmol/L: Bishop D, Jenkins DG, Mackinnon LT, Med Sci Sports Exerc 1998;30:1270-5 — confirmed
+//   ["bishop-1998"]; baseline = lowest value is our choice ["implementation-choice"];
+// - Dmax: Cheng B et al., Int J Sports Med 1992;13:518 — secondary (citation recalled) ["cheng-1992-dmax"];
+// - modified Dmax: named in Bishop et al. 1998 (confirmed); chord start "point before the first rise > 0.4 mmol/L"
+//   recalled ["bishop-1998-mod-dmax-rule"];
+// - log-log: Beaver WL, Wasserman K, Whipp BJ, J Appl Physiol 1985;59:1936 — secondary (citation recalled)
+//   ["beaver-1985-loglog"];
+// - "concordant within 10 W" (0.5 km/h on the speed axis): the lib's default concordanceTolerance, our choice
+//   ["implementation-choice"], not a published value.
+
 describe("fixed-level methods (invented four-point curve)", () => {
   const pts: LactatePoint[] = Object.freeze([
     { x: 100, lactateMmolL: 1.0 },
@@ -13,11 +25,11 @@ describe("fixed-level methods (invented four-point curve)", () => {
   ]) as LactatePoint[];
   const r = lactateThresholds(pts, "workW", { vt1: 170, vt2: 220 });
 
-  it("OBLA 4 mmol/L (Sjödin & Jacobs 1981): 200 + (4 − 3)/(5 − 3)·50 = 225 W", () => {
+  it("OBLA 4 mmol/L (Sjödin & Jacobs, Int J Sports Med 1981, confirmed): 200 + (4 − 3)/(5 − 3)·50 = 225 W", () => {
     expect(byId(r, "obla-4").intensity.value).toBeCloseTo(225, 9);
     expect(byId(r, "obla-4").lactateMmolL.value).toBeCloseTo(4, 9);
   });
-  it("baseline + 1 (Bishop 1998): 2.0 mmol/L at 150 + (0.5/1.5)·50 = 166.67 W", () => {
+  it("baseline + 1 (Bishop et al., Med Sci Sports Exerc 1998, confirmed): 2.0 mmol/L at 150 + (0.5/1.5)·50 = 166.67 W", () => {
     expect(byId(r, "baseline-plus-1").intensity.value).toBeCloseTo(150 + 50 / 3, 9);
   });
   it("states where each threshold sits against VT1/VT2", () => {
@@ -25,7 +37,7 @@ describe("fixed-level methods (invented four-point curve)", () => {
     expect(obla.nearest).toBe("VT2");
     expect(obla.difference).toBeCloseTo(5, 9);
     expect(obla.concordant).toBe(true);
-    // 5/220 = 2.27%
+    // 5/220 = 2.27%; 5 W ≤ 10 W, the default tolerance (our choice, not a published value) → concordant
     expect(obla.statement).toBe("OBLA (4 mmol/L) at 225 W lies 5 W (2.3%) above VT2 (220 W): concordant within 10 W.");
     const b1 = r.relations.find((x) => x.id === "baseline-plus-1")!;
     expect(b1.nearest).toBe("VT1");
@@ -49,11 +61,11 @@ describe("Dmax and modified Dmax on an exact cubic", () => {
   });
   const r = lactateThresholds(pts, "workW");
 
-  it("Dmax (Cheng 1992): chord slope 4/200 = 0.02/W; y' = 0.06·u² = 0.02 → u = √(1/3) → x = 100 + 200·0.57735 = 215.47 W", () => {
+  it("Dmax (Cheng et al., Int J Sports Med 1992, secondary): chord slope 4/200 = 0.02/W; y' = 0.06·u² = 0.02 → u = √(1/3) → x = 100 + 200·0.57735 = 215.47 W", () => {
     expect(byId(r, "dmax").intensity.value).toBeCloseTo(100 + 200 * Math.sqrt(1 / 3), 6);
   });
 
-  it("modified Dmax: first rise > 0.4 is 200→225 W (0.5 → 0.977), chord from 200 W (1.5) to 300 W (5): slope 0.035 → u = √(0.035/0.06) → 252.75 W", () => {
+  it("modified Dmax (Bishop et al. 1998; 0.4 mmol/L rule recalled): first rise > 0.4 is 200→225 W (0.5 → 0.977), chord from 200 W (1.5) to 300 W (5): slope 0.035 → u = √(0.035/0.06) → 252.75 W", () => {
     expect(byId(r, "modified-dmax").intensity.value).toBeCloseTo(100 + 200 * Math.sqrt(0.035 / 0.06), 6);
     expect(byId(r, "modified-dmax").intensity.provenance.inputs?.chordStart).toBe(200);
   });
@@ -77,7 +89,7 @@ describe("Dmax and modified Dmax on an exact cubic", () => {
   });
 });
 
-describe("log-log two-segment (Beaver, Wasserman & Whipp 1985)", () => {
+describe("log-log two-segment (Beaver, Wasserman & Whipp, J Appl Physiol 1985, secondary)", () => {
   it("two power laws meeting at 200 W → threshold 200 W", () => {
     // Invented: L = (x/100)^0.2 up to 200 W, L = 2^0.2·(x/200)^3 above; both lines pass through log10(200)
     const pts = Array.from({ length: 9 }, (_, i) => {

@@ -132,7 +132,10 @@ describe("V-slope on a hand-built series", () => {
     // VO2 = 800 + 2·(t − 100) = 1500 → t = 450 s
     expect(m.timeS).toBeCloseTo(450, 0);
   });
-  it("is not determinable on a straight line (S2 − S1 < 0.1, recalled rule)", () => {
+  // Acceptance rule S2 − S1 ≥ 0.1: attributed to Beaver WL, Wasserman K, Whipp BJ, J Appl Physiol 1986;60:2020-7 —
+  // recalled (the abstract is confirmed, the rule was not seen in found text; lib default minSlopeRise,
+  // ["vt-v-slope-acceptance-recalled"]).
+  it("is not determinable on a straight line (S2 − S1 < 0.1: Beaver, Wasserman & Whipp 1986, rule recalled)", () => {
     const straight = { ...series, vco2MlMin: Float64Array.from(vo2, (v) => 0.95 * v - 50) };
     const m = vSlope(straight);
     expect(m.quality).toBe("failed");
