@@ -17,20 +17,32 @@ describe("predictAll", () => {
     });
     for (const [q, pv] of Object.entries(set.values))
       expect(pv?.equationId, q).toBe(set.equationIds[q as keyof typeof set.equationIds]);
-    expect(set.values.vo2PeakMlMin?.value).toBeCloseTo(2505.606, 3); // clinical-reference §1.2
+    // Hansen, Sue & Wasserman 1984 (reference-equations/hansen-1984.json; clinical-reference §1.2 worked example):
+    // PW = 0.79·175 − 60.7 = 77.55 kg; F = 50.72 − 0.372·50 = 32.12; 77.55·32.12 + 6·(80 − 77.55) = 2490.906 + 14.7
+    // = 2505.606 mL/min
+    expect(set.values.vo2PeakMlMin?.value).toBeCloseTo(2505.606, 3);
     expect(set.values.vo2PeakMlKgMin?.value).toBeCloseTo(2505.606 / 80, 6); // 31.32 mL/kg/min, §1.2
-    expect(set.values.workMaxW?.value).toBeCloseTo(200, 6); // 1224 kpm/min ÷ 6.12
+    // Jones 1985 (jones-1985-wmax.json): 20.4·175 − 8.74·50 − 0 − 1909 = 3570 − 437 − 1909 = 1224 kpm/min; ÷ 6.12 = 200 W
+    expect(set.values.workMaxW?.value).toBeCloseTo(200, 6);
     expect(set.values.hrMaxBpm?.value).toBeCloseTo(168, 10); // 207 − 0.78·50
     expect(set.values.o2PulseMaxMlBeat?.value).toBeCloseTo(2505.606 / 168, 6);
+    // Sun, Hansen et al. 2002 (sun-2002.json; clinical-reference §2, man 26.76): 27.94 + 0.108·A + 0.97·F − 0.0376·H
+    // = 27.94 + 0.108·50 + 0 − 0.0376·175 = 27.94 + 5.4 − 6.58 = 26.76
     expect(set.values.veVco2NadirRatio?.value).toBeCloseTo(26.76, 10);
+    // FEV1 × 40 (mvv-fev1x40.json): 3.2·40 = 128 L/min
     expect(set.values.mvvLMin?.value).toBeCloseTo(128, 10);
-    expect(set.body.predictedWeightKg).toBeCloseTo(77.55, 10);
+    expect(set.body.predictedWeightKg).toBeCloseTo(77.55, 10); // 0.79·175 − 60.7 = 138.25 − 60.7 = 77.55 (Hansen 1984 PW)
     expect(set.body.bmiKgM2).toBeCloseTo(80 / 1.75 ** 2, 10);
   });
 
   it("treadmill: FRIEND 2018 converted to mL/min with its LLN; no work-rate prediction; no MVV without FEV1", () => {
     const set = predictAll(man, "treadmill");
-    // 36.734954 mL/kg/min × 80 = 2938.796; LLN (36.734954 − 1.645·6.6)·80 = 25.877954·80 = 2070.236
+    // FRIEND, de Souza e Silva et al. 2018 (friend-2018.json; clinical-reference §1.2 worked example 36.73):
+    // 45.2 − 0.35·A − 10.9·Sex − 0.15·W_lb + 0.68·H_in − 0.46·Mode, Sex 1 = male, Mode 1 = treadmill;
+    // W_lb = 80·2.20462 = 176.3696, H_in = 175/2.54 = 68.897638;
+    // 45.2 − 0.35·50 − 10.9·1 − 0.15·176.3696 + 0.68·68.897638 − 0.46·1
+    // = 45.2 − 17.5 − 10.9 − 26.45544 + 46.850394 − 0.46 = 36.734954 mL/kg/min.
+    // × 80 kg = 2938.796 mL/min; LLN = predicted − 1.645·SEE 6.6 = 36.734954 − 10.857 = 25.877954; ·80 = 2070.236
     expect(set.values.vo2PeakMlMin?.value).toBeCloseTo(2938.796, 2);
     expect(set.values.vo2PeakMlMin?.lln).toBeCloseTo(2070.236, 2);
     expect(set.values.vo2PeakMlKgMin?.value).toBeCloseTo(36.734954, 5);
