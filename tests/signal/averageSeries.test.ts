@@ -49,6 +49,23 @@ describe("averageSeries", () => {
   it("labels are plain words and the presets carry them", () => {
     expect(averagingLabel({ kind: "rolling-time", seconds: 30 })).toBe("30-s rolling time window");
     expect(averagingLabel({ kind: "middle-of-seven" })).toBe("middle 5 of 7 breaths (rolling)");
-    for (const p of AVERAGING_PRESETS) expect(p.label).toBe(averagingLabel(p));
+    // the presets' labels, written out: each names its window in plain words with its own number of seconds/breaths
+    expect(AVERAGING_PRESETS.map((p) => p.label)).toEqual([
+      "breath by breath (no averaging)",
+      "10-s time bins",
+      "15-s time bins",
+      "20-s time bins",
+      "30-s time bins",
+      "60-s time bins",
+      "15-s rolling time window",
+      "30-s rolling time window",
+      "7-breath rolling window",
+      "15-breath rolling window",
+      "middle 5 of 7 breaths (rolling)",
+    ]);
+    for (const p of AVERAGING_PRESETS) {
+      if (p.seconds !== undefined) expect(p.label.startsWith(`${p.seconds}-s `), p.label).toBe(true);
+      if (p.breaths !== undefined) expect(p.label.startsWith(`${p.breaths}-breath `), p.label).toBe(true);
+    }
   });
 });
