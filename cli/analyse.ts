@@ -17,6 +17,7 @@ interface AnalyseOptions {
   fev1L?: number;
   mvvLMin?: number;
   lactate?: string;
+  stageDurationS?: number;
   referral: string;
   select: Record<string, string>;
 }
@@ -39,6 +40,11 @@ export function registerAnalyse(program: Command): void {
       parseNumber("--fev1-l", "fev1L"),
     )
     .option("--mvv-l-min <L/min>", "measured maximal voluntary ventilation, L/min", parseNumber("--mvv-l-min", "mvvLMin"))
+    .option(
+      "--stage-duration-s <s>",
+      "length of each stage, s, for a stage table without a time column (default 60)",
+      parseStageSeconds,
+    )
     .option("--lactate <file>", "blood lactate samples (CSV/XLSX with time or stage, optional work/speed, and lactate)")
     .option(
       "--select <column=value>",
@@ -62,6 +68,13 @@ function parseNumber(flag: string, field: PlausibleField) {
     if (problem) throw new Error(`${flag}: ${problem}`);
     return n;
   };
+}
+
+function parseStageSeconds(raw: string): number {
+  const n = Number(raw);
+  if (raw.trim() === "" || !Number.isFinite(n) || n < 10 || n > 3600)
+    throw new Error(`--stage-duration-s must be a number of seconds between 10 and 3600, got "${raw}"`);
+  return n;
 }
 
 function collectSelect(raw: string, acc: Record<string, string>): Record<string, string> {
@@ -92,8 +105,11 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
     patient: { sex: opts.sex as "male" | "female" | undefined, ageY: opts.age, heightCm: opts.heightCm, weightKg: opts.weightKg },
     ergometer: opts.ergometer,
     referral: opts.referral as ReferralQuestion,
-    importOptions:
-      Object.keys(opts.select ?? {}).length > 0 ? { select: opts.select, weightKg: opts.weightKg } : { weightKg: opts.weightKg },
+    importOptions: {
+      weightKg: opts.weightKg,
+      ...(Object.keys(opts.select ?? {}).length > 0 ? { select: opts.select } : {}),
+      ...(opts.stageDurationS !== undefined ? { stageDurationS: opts.stageDurationS } : {}),
+    },
   });
   if (!built.record || hasErrors(built.issues)) {
     const what = built.issues.filter((i) => i.severity === "error").map((i) => i.message);

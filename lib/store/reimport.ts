@@ -13,6 +13,8 @@ export interface ImportChoices {
   select?: Record<string, string>;
   /** Body mass used for per-kg VO2 columns, kg. */
   weightKg?: number;
+  /** Spacing given to consecutive stages when the file has no time column, s. */
+  stageDurationS?: number;
   /** Name of the profile the mapping came from, when it came from one. */
   profileName?: string;
 }

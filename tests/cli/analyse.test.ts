@@ -123,6 +123,21 @@ describe("cpet analyse: full output on real and invented files", () => {
     expect(json.peak.vo2MlMin).toBe(4290); // highest stage VO2 in the file (275 W stage)
   });
 
+  it("--stage-duration-s spaces the rows of a stage table without a time column (Sylta 2016, CC0: 5-min stages)", () => {
+    // Data from Sylta et al., Med Sci Sports Exerc 2016;48:2165–2174, as curated in the exscidata R package by D. Hammarström (CC0).
+    const file = path.resolve(__dirname, "../fixtures/open-data/sylta2016-cycling/cyclingstudy_stages_long.csv");
+    const args = ["analyse", file, "--json", "--select", "subject=1", "--select", "timepoint=pre"];
+    const json = JSON.parse(execFileSync(process.execPath, [bin, ...args, "--stage-duration-s", "300"], { encoding: "utf8" }));
+    // subject 1, pre: 5 stage rows (README: 5-min steady-state steps) → last row at 4 × 300 = 1200 s
+    expect(json.durationS).toBe(1200);
+    expect(
+      json.issues.some((i: { message: string }) => /5 rows were read as consecutive stages 300 s apart/.test(i.message)),
+    ).toBe(true);
+    const bad = run([...args, "--stage-duration-s", "0"]);
+    expect(bad.status).toBe(1);
+    expect(bad.stderr).toMatch(/--stage-duration-s must be a number of seconds between 10 and 3600/);
+  });
+
   it("accepts a separate lactate file with --lactate", () => {
     const lac = path.join(tmp, "lactate.csv");
     // INVENTED samples on the plain ramp (work = time / 3 W): 1.0 → 6.0 mmol/L.

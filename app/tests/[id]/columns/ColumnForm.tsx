@@ -17,6 +17,9 @@ export interface ColumnFormProps {
   record: { column: string; options: { value: string; rows: number }[]; chosen: string } | null;
   weightKg: number | undefined;
   perKgColumn: boolean;
+  /** The file has no time column: its rows are read as consecutive stages, this many seconds apart. */
+  stageOrder: boolean;
+  stageDurationS: number | undefined;
   /** Refused tests have no stored patient details; the form asks for them. */
   refused: boolean;
 }
@@ -92,6 +95,22 @@ function ColumnFormBody(props: ColumnFormProps & { state: ColumnFormState; pendi
           />
           {err.weightKg ? <span className="sev-error">{err.weightKg}</span> : null}
         </label>
+        {props.stageOrder ? (
+          <label className={styles.label}>
+            Length of each stage (s) — this file has no time column, so its rows are read as consecutive stages
+            <input
+              name="stageDurationS"
+              type="number"
+              step="any"
+              size={6}
+              className={styles.weight}
+              placeholder="60"
+              defaultValue={v.stageDurationS ?? (props.stageDurationS !== undefined ? String(props.stageDurationS) : "")}
+              data-testid="stage-duration"
+            />
+            {err.stageDurationS ? <span className="sev-error">{err.stageDurationS}</span> : null}
+          </label>
+        ) : null}
       </div>
       {!props.refused ? (
         <p className="how">The body mass entered here also becomes the patient&apos;s weight for this test.</p>

@@ -36,10 +36,20 @@ const optionalKg = z.preprocess(
     .optional(),
 );
 
+const optionalStageS = z.preprocess(
+  (v) => (v === "" || v === undefined || v === null ? undefined : Number(v)),
+  z
+    .number({ message: "Stage length must be a number of seconds" })
+    .min(10, "Stage length must be at least 10 s")
+    .max(3600, "Stage length must be at most 3600 s")
+    .optional(),
+);
+
 const baseSchema = z.object({
   testId: z.coerce.number().int().positive(),
   intent: z.enum(["reread", "save-profile"]),
   weightKg: optionalKg,
+  stageDurationS: optionalStageS,
   selectColumn: z.string().max(200).optional().default(""),
   selectValue: z.string().trim().max(200).optional().default(""),
   profileName: z.string().trim().max(80, "Keep the profile name under 80 characters").optional().default(""),
@@ -113,7 +123,8 @@ export async function applyColumnChoices(_prev: ColumnFormState, form: FormData)
   const keep = (errors: Record<string, string>, issues?: Issue[]): ColumnFormState => ({ errors, values, issues, stamp });
   const base = baseSchema.safeParse(values);
   if (!base.success) return keep(fieldErrors(base.error));
-  const { testId, intent, weightKg, selectColumn, selectValue, profileName } = base.data;
+  const { testId, intent, weightKg, stageDurationS, selectColumn, selectValue, profileName } = base.data;
+  const stage = stageDurationS !== undefined ? { stageDurationS } : {};
   const test = getTest(testId);
   if (!test) return keep({ form: "This test no longer exists." });
   const stored = test.uploadId ? getUploadBytes(test.uploadId) : null;
@@ -128,6 +139,7 @@ export async function applyColumnChoices(_prev: ColumnFormState, form: FormData)
     fileName: stored.fileName,
     ...(select ? { select } : {}),
     ...(weightKg !== undefined ? { weightKg } : {}),
+    ...stage,
   });
   const autoField = (i: number): FieldKey | null => {
     const c = auto.columns.find((d) => d.index === i);
@@ -168,6 +180,7 @@ export async function applyColumnChoices(_prev: ColumnFormState, form: FormData)
     mapping,
     ...(select ? { select: { [selectColumn]: selectValue } } : {}),
     ...(weightKg !== undefined ? { weightKg } : {}),
+    ...stage,
     ...(previous?.profileName && Object.keys(mapping).length > 0 ? { profileName: previous.profileName } : {}),
   };
   const built = await buildRecord({
@@ -181,6 +194,7 @@ export async function applyColumnChoices(_prev: ColumnFormState, form: FormData)
       ...(Object.keys(mapping).length > 0 ? { mapping } : {}),
       ...(select ? { select } : {}),
       ...(weightKg !== undefined ? { weightKg } : {}),
+      ...stage,
     },
   });
   if (!built.record && test.record)

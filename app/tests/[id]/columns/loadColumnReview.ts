@@ -39,6 +39,10 @@ export interface ColumnReview {
   /** Body mass the page proposes for per-kg VO2 columns, kg. */
   weightKg: number | undefined;
   perKgColumn: boolean;
+  /** The file has no time column and its rows are read as consecutive stages. */
+  stageOrder: boolean;
+  /** Stage spacing last used for such a file, s. */
+  stageDurationS: number | undefined;
 }
 
 const SAMPLE_COUNT = 4;
@@ -57,18 +61,20 @@ export async function loadColumnReview(testId: number): Promise<ColumnReview | n
     issues: test.importIssues,
     choices,
     weightKg,
+    stageDurationS: choices?.stageDurationS,
   };
-  if (!stored) return { ...base, format: null, rows: [], record: null, perKgColumn: false };
+  if (!stored) return { ...base, format: null, rows: [], record: null, perKgColumn: false, stageOrder: false };
   const bytes = new Uint8Array(stored.bytes);
   const layoutIssues: Issue[] = [];
   const layout = await readTableLayout(bytes, layoutIssues);
-  if (!layout) return { ...base, format: null, rows: [], record: null, perKgColumn: false };
+  if (!layout) return { ...base, format: null, rows: [], record: null, perKgColumn: false, stageOrder: false };
 
   // Automatic reading (no mapping) of the same test, for the "automatic" option of every column.
   const auto = await importBreathFile(bytes, {
     fileName: stored.fileName,
     ...(choices?.select ? { select: choices.select } : {}),
     ...(weightKg !== undefined ? { weightKg } : {}),
+    ...(choices?.stageDurationS !== undefined ? { stageDurationS: choices.stageDurationS } : {}),
   });
   const autoByIndex = new Map(auto.columns.map((c) => [c.index, c]));
   const currentByIndex = new Map<number, ColumnDecision>(test.importColumns.map((c) => [c.index, c]));
@@ -140,5 +146,6 @@ export async function loadColumnReview(testId: number): Promise<ColumnReview | n
   const perKgColumn =
     test.importColumns.some((c) => c.storedAs === "vo2MlKgMin" || /per kg|mL\/kg\/min/i.test(c.unit ?? "")) ||
     auto.columns.some((c) => c.storedAs === "vo2MlKgMin" || /per kg|mL\/kg\/min/i.test(c.unit ?? ""));
-  return { ...base, format: layout.format, rows, record, perKgColumn };
+  const stageOrder = auto.format?.timeFormat === "stage-order";
+  return { ...base, format: layout.format, rows, record, perKgColumn, stageOrder };
 }

@@ -81,6 +81,8 @@ export default async function ColumnReviewPage({ params }: { params: Promise<{ i
           record={review.record}
           weightKg={review.weightKg}
           perKgColumn={review.perKgColumn}
+          stageOrder={review.stageOrder}
+          stageDurationS={review.stageDurationS}
           refused={refused}
         />
       ) : (
