@@ -3,7 +3,7 @@ import path from "node:path";
 import type { Command } from "commander";
 import { analyse, buildRecord, type ReferralQuestion } from "../lib/analysis";
 import { importLactateFile } from "../lib/breath";
-import { hasErrors, plausibilityProblem, type PlausibleField } from "../lib/core";
+import { hasErrors, makeIssue, plausibilityProblem, type PlausibleField } from "../lib/core";
 import { REFERRAL_QUESTIONS } from "../lib/interpret";
 import { CLINICAL_CAUTION, toCliJson, type CliAnalysisJson } from "../lib/report";
 
@@ -84,10 +84,17 @@ function collectSelect(raw: string, acc: Record<string, string>): Record<string,
 }
 
 function readBytes(file: string): Uint8Array {
+  let stat: fs.Stats;
+  try {
+    stat = fs.statSync(file);
+  } catch {
+    throw new Error(`cannot read ${file}: no such file`);
+  }
+  if (stat.isDirectory()) throw new Error(`cannot read ${file}: it is a folder; give one exported file`);
   try {
     return new Uint8Array(fs.readFileSync(file));
   } catch {
-    throw new Error(`cannot read ${file}: no such file or not readable`);
+    throw new Error(`cannot read ${file}: not readable (check its permissions)`);
   }
 }
 
@@ -124,6 +131,14 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
         `${path.basename(opts.lactate)} has no usable lactate samples: ${lac.issues.map((i) => i.message).join(" ")}`,
       );
     }
+    if (record.table.rows.some((row) => row.lactateMmolL !== undefined))
+      lac.issues.push(
+        makeIssue(
+          "info",
+          "lactate-file-replaces-column",
+          `The lactate samples of ${path.basename(opts.lactate)} are used instead of the lactate column of ${path.basename(file)}.`,
+        ),
+      );
     record.lactate = lac.samples;
     record.importIssues = [...record.importIssues, ...lac.issues];
   }
@@ -135,13 +150,23 @@ function formatText(r: CliAnalysisJson): string {
   const n = (x: number | null, d = 0, unit = "") => (x === null ? "not determinable" : `${x.toFixed(d)}${unit}`);
   const lines = [
     `peak VO2        ${n(r.peak.vo2MlMin, 0, " mL/min")}, ${r.peak.vo2MlKgMin === null ? "per kg not determinable (give --weight-kg)" : n(r.peak.vo2MlKgMin, 1, " mL/kg/min")} (${r.peak.method})`,
+    `peak RER ${n(r.peak.rer, 2)}, HR ${n(r.peak.hrBpm, 0, " bpm")}, work rate ${n(r.peak.workW, 0, " W")}`,
     `VT1             ${n(r.vt1.vo2MlMin, 0, " mL/min")} (confidence ${r.vt1.confidence})`,
     `VT2             ${n(r.vt2.vo2MlMin, 0, " mL/min")} (confidence ${r.vt2.confidence})`,
     `VE/VCO2 slope   ${n(r.veVco2Slope.toRcp, 1)} to RCP, ${n(r.veVco2Slope.whole, 1)} whole exercise`,
     `OUES            ${n(r.oues)}`,
     `ΔVO2/ΔWR        ${n(r.dVo2dWr, 1, " mL/min/W")}`,
     `breathing reserve ${r.breathingReserve.pct === null ? "not determinable (give --mvv-l-min or --fev1-l)" : n(r.breathingReserve.pct, 0, " %")}`,
+    ...(r.lactate
+      ? [
+          `lactate 4 mmol/L ${r.lactate.axis === "workW" ? n(r.lactate.obla4.workW, 0, " W") : n(r.lactate.obla4.speedKmh, 1, " km/h")}`,
+        ]
+      : []),
     ...r.issues.filter((i) => i.severity !== "info").map((i) => `${i.severity}: ${i.message}`),
+    // why a value above is missing (predicted values say so in the warnings already)
+    ...r.issues
+      .filter((i) => i.code === "not-determinable" && !i.message.startsWith("Predicted "))
+      .map((i) => `not determinable: ${i.message}`),
     r.caution,
   ];
   return lines.join("\n") + "\n";

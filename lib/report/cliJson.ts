@@ -130,7 +130,8 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
   for (const [q, pv] of Object.entries(result.predicted.values)) {
     if (!pv) continue;
     // each predicted value's own cautions (outside the derivation population, input missing) and its reason when null
-    for (const i of pv.issues) addOnce(i);
+    // a missing patient detail stops one predicted value, not the analysis: an error there is a warning here
+    for (const i of pv.issues) addOnce(i.severity === "error" ? { ...i, severity: "warning" } : i);
     if (pv.value === null)
       addOnce({
         severity: "info",
