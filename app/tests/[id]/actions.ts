@@ -3,7 +3,7 @@
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import type { AnalysisSettings } from "@/lib/analysis";
-import { ENGINE_VERSION } from "@/lib/analysis";
+import { analyse, checkThresholdOverride, ENGINE_VERSION } from "@/lib/analysis";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { effectiveSettings, getTest, latestSettings, saveAnalysisVersion } from "@/lib/store/tests";
 
@@ -21,7 +21,11 @@ const overrideSchema = z
     which: z.enum(["vt1", "vt2"]),
     vo2MlMin: z.preprocess(
       (v) => (v === "" ? undefined : Number(v)),
-      z.number({ message: "VO2 must be a number (mL/min)" }).min(100).max(8000).optional(),
+      z
+        .number({ message: "VO2 must be a number (mL/min)" })
+        .min(100, "VO2 must be at least 100 mL/min")
+        .max(8000, "VO2 must be at most 8000 mL/min")
+        .optional(),
     ),
     time: z
       .string()
@@ -54,10 +58,19 @@ export async function overrideThreshold(_prev: FormState, form: FormData): Promi
   const parsed = overrideSchema.safeParse(values);
   if (!parsed.success) return { errors: errorsOf(parsed.error), values };
   const o = parsed.data;
-  if (!getTest(o.testId)?.record) return { errors: { form: "This test has no usable data." }, values };
+  const record = getTest(o.testId)?.record;
+  if (!record) return { errors: { form: "This test has no usable data." }, values };
   const m = o.time ? clock.exec(o.time) : null;
   const timeS = o.time ? (m ? Number(m[1]) * 60 + Number(m[2]) : Number(o.time)) : undefined;
   const current = effectiveSettings(o.testId, getLabDefaults());
+  // refuse a threshold the test cannot have (outside exercise, above peak VO2, VT1 not below VT2)
+  const problems = checkThresholdOverride(analyse(record, current), {
+    which: o.which,
+    timeS,
+    vo2MlMin: timeS === undefined ? o.vo2MlMin : undefined,
+  });
+  if (problems.length > 0)
+    return { errors: { [timeS === undefined ? "vo2MlMin" : "time"]: problems.map((p) => p.message).join(" ") }, values };
   const others = (current.overrides ?? []).filter((x) => x.which !== o.which);
   const settings: AnalysisSettings = {
     ...current,
