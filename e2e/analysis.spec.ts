@@ -23,16 +23,33 @@ test("a reviewer override of VT1 is saved as a new version and recomputes the de
   await openDemo(page, /deconditioning/);
   const card = page.getByTestId("threshold-vt1");
   await card.getByText("set VT1 by hand").click();
-  await card.locator('[name="vo2MlMin"]').fill("1500");
+  // the invented deconditioning demo: peak VO2 about 1825 mL/min, VT2 about 1420 mL/min, so 1250 is a possible VT1
+  await card.locator('[name="vo2MlMin"]').fill("1250");
   await card.locator('[name="by"]').fill("E2E Reviewer");
   await card.locator('[name="reason"]').fill("clear VE/VO2 rise with flat VE/VCO2 at this point");
   await card.getByRole("button", { name: "Save override" }).click();
   await expect(card).toContainText("Set by the reviewer (E2E Reviewer)");
-  await expect(card.locator(".keyfig")).toContainText("1500");
+  await expect(card.locator(".keyfig")).toContainText("1250");
   await expect(page.getByTestId("versions")).toContainText("VT1 override");
   // Removing the override returns to the automatic estimate.
   await card.getByRole("button", { name: "Remove override" }).click();
   await expect(card).not.toContainText("Set by the reviewer");
+});
+
+test("an override the test cannot have (VT1 above peak VO2) is refused with the reason and nothing is saved", async ({
+  page,
+}) => {
+  await openDemo(page, /deconditioning/);
+  const card = page.getByTestId("threshold-vt1");
+  await card.getByText("set VT1 by hand").click();
+  await card.locator('[name="vo2MlMin"]').fill("3500");
+  await card.locator('[name="by"]').fill("E2E Reviewer");
+  await card.locator('[name="reason"]').fill("typed in the wrong box");
+  await card.getByRole("button", { name: "Save override" }).click();
+  await expect(card).toContainText("above this test's peak VO2");
+  await expect(card).toContainText("must lie below VT2");
+  await expect(card).not.toContainText("Set by the reviewer");
+  await expect(card.locator('[name="vo2MlMin"]')).toHaveValue("3500");
 });
 
 test("an override without a reason is refused and the typed values are kept", async ({ page }) => {

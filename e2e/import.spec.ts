@@ -265,3 +265,27 @@ test("(e) a lactate file added on the inputs page gives the analysis a lactate t
   await page.getByTestId("lactate").scrollIntoViewIfNeeded();
   await page.screenshot({ path: "reports/screenshots/import-analysis-lactate.png" });
 });
+
+test("(f) a stage table without a time column: the length of each stage is set on the review page and the file is read again", async ({
+  page,
+}) => {
+  // INVENTED six-stage table (load steps of 50 W, no time column): by construction the rows are stages, not breaths.
+  const rows = ["Stage,Load (W),VO2 (mL/min),VCO2 (mL/min),VE (L/min),HR (bpm)"];
+  for (let s = 1; s <= 6; s++) {
+    const w = 50 * s;
+    const vo2 = 600 + 10 * w;
+    rows.push([s, w, vo2, Math.round(vo2 * (0.85 + 0.04 * s)), (vo2 * 0.03).toFixed(1), 80 + 15 * s].join(","));
+  }
+  const id = await uploadAndOpen(page, "stages.csv", rows.join("\n") + "\n", { label: "E2E stage table", ...PATIENT });
+  const review = new ColumnReviewPage(page);
+  await review.open(id);
+  // default spacing 60 s until told otherwise
+  await expect(page.getByTestId("import-issues")).toContainText("60 s apart");
+  await expect(page.getByTestId("stage-duration")).toBeVisible();
+  await review.fill("stageDurationS", "180");
+  await review.reread();
+  await expect(page.getByTestId("columns-ok")).toContainText("read again");
+  await expect(page.getByTestId("import-issues")).toContainText("6 rows were read as consecutive stages 180 s apart");
+  await expect(page.getByTestId("stage-duration")).toHaveValue("180");
+  await expect(page.getByTestId("clinical-caution")).toBeVisible();
+});
