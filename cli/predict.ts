@@ -1,6 +1,6 @@
 import { CLINICAL_CAUTION } from "../lib/report/caution";
 import type { Command } from "commander";
-import type { Ergometer, Patient, Sex } from "../lib/core";
+import { plausibilityProblem, type Ergometer, type Patient, type PlausibleField, type Sex } from "../lib/core";
 import {
   DEFAULT_LAB_SETTINGS,
   EQUATIONS,
@@ -31,14 +31,16 @@ function rootOf(cmd: Command): Command {
   return c;
 }
 
-function num(flag: string, raw: string | undefined, min: number, max: number, required: boolean): number | undefined {
+/** A numeric option within the plausibility limits shared with the upload form and `cpet analyse`. */
+function num(flag: string, raw: string | undefined, field: PlausibleField, required: boolean): number | undefined {
   if (raw === undefined) {
     if (required) throw new InputError(`${flag} is required`);
     return undefined;
   }
   const n = Number(raw);
   if (raw.trim() === "" || !Number.isFinite(n)) throw new InputError(`${flag} needs a number, got "${raw}"`);
-  if (n < min || n > max) throw new InputError(`${flag} must be between ${min} and ${max}, got ${n}`);
+  const problem = plausibilityProblem(field, n);
+  if (problem) throw new InputError(`${flag}: ${problem}`);
   return n;
 }
 
@@ -76,11 +78,11 @@ export function runPredict(opts: PredictOptions): unknown {
   if (opts.sex === undefined) throw new InputError("--sex is required (male or female)");
   const patient: Patient = {
     sex: opts.sex as Sex,
-    ageY: num("--age", opts.age, 1, 120, true),
-    heightCm: num("--height-cm", opts.heightCm, 50, 250, true),
-    weightKg: num("--weight-kg", opts.weightKg, 10, 400, true),
+    ageY: num("--age", opts.age, "ageY", true),
+    heightCm: num("--height-cm", opts.heightCm, "heightCm", true),
+    weightKg: num("--weight-kg", opts.weightKg, "weightKg", true),
   };
-  const fev1L = num("--fev1-l", opts.fev1L, 0.1, 10, false);
+  const fev1L = num("--fev1-l", opts.fev1L, "fev1L", false);
   const spirometry = fev1L === undefined ? undefined : { fev1L };
   const erg = ergometer as Ergometer;
 
@@ -164,7 +166,7 @@ export function registerPredict(program: Command): void {
     try {
       result = { ...(runPredict(opts) as Record<string, unknown>), caution: CLINICAL_CAUTION };
     } catch (e) {
-      if (e instanceof InputError) cmd.error(`cpet predict: ${e.message}`, { exitCode: 2, code: "cpet.predict.input" });
+      if (e instanceof InputError) cmd.error(`predict: ${e.message}`, { exitCode: 2, code: "cpet.predict.input" });
       throw e;
     }
     if (opts.json) {
