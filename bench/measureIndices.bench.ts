@@ -7,12 +7,11 @@
  * Run: `npx tsx bench/measureIndices.bench.ts` or `npm run bench`.
  */
 import os from "node:os";
-import type { BreathRow } from "../lib/breath";
 import { conditionTable } from "../lib/signal";
 import { generateSyntheticTest } from "../lib/synthetic";
 import type { IndicesContext } from "../lib/thresholds/indexTypes";
 import { measureIndices } from "../lib/thresholds/measureIndices";
-import { makeTest } from "../tests/thresholds/indicesFixture";
+import { oneHourRamp } from "../tests/thresholds/indicesFixture";
 
 /** Median of `reps` timed calls after two warm-up calls, in ms. */
 function median(reps: number, f: () => unknown): number {
@@ -27,38 +26,15 @@ function median(reps: number, f: () => unknown): number {
   return runs[Math.floor(runs.length / 2)];
 }
 
-/** Rest 0–299 s, ramp 300–3300 s (VO2 = 800 + 0.8·(t − 300) mL/min, work (t − 300)/12 W), recovery to 3599 s. */
-function oneHourRamp() {
-  const rows: BreathRow[] = [];
-  for (let t = 0; t < 3600; t++) {
-    const ex = t >= 300 && t <= 3300;
-    const vo2 = ex ? 800 + 0.8 * (t - 300) : 400;
-    rows.push({
-      timeS: t,
-      phase: t < 300 ? "rest" : ex ? "exercise" : "recovery",
-      vo2MlMin: vo2,
-      vco2MlMin: 0.9 * vo2,
-      veLMin: 0.03 * vo2 + 2,
-      hrBpm: 60 + vo2 / 30,
-      workW: ex ? (t - 300) / 12 : 0,
-      petco2MmHg: 38,
-      spo2Pct: 97,
-    });
-  }
-  const test = makeTest(rows, {
-    exercise: { startS: 300, endS: 3300 },
-    phases: [
-      { phase: "rest", startS: 0, endS: 299, source: "markers" },
-      { phase: "exercise", startS: 300, endS: 3300, source: "markers" },
-      { phase: "recovery", startS: 3301, endS: 3599, source: "markers" },
-    ],
-  });
+/** The one-hour ramp of the index tests (tests/thresholds/indicesFixture.ts) with its thresholds. */
+function oneHour() {
+  const test = oneHourRamp();
   const ctx: IndicesContext = {
     patient: { ageY: 40, weightKg: 80 },
     vt1: { timeS: 1500, vo2MlMin: 1760 },
     vt2: { timeS: 2500, vo2MlMin: 2560 },
   };
-  return { test, ctx, breaths: rows.length };
+  return { test, ctx, breaths: test.clean.length };
 }
 
 function synthetic2000() {
@@ -83,7 +59,7 @@ function main(): void {
   console.log(`Machine: ${os.cpus()[0]?.model ?? "unknown"} × ${os.cpus().length}, Node ${process.version}; median of runs\n`);
   console.log("| test | breaths | time per test | time per 1 000 breaths |\n| --- | --- | --- | --- |");
   for (const [label, make] of [
-    ["one hour at 1 breath/s, linear ramp", oneHourRamp],
+    ["one hour at 1 breath/s, linear ramp", oneHour],
     ["synthetic test, moderate noise, conditioned", synthetic2000],
   ] as const) {
     const { test, ctx, breaths } = make();

@@ -92,3 +92,35 @@ export function standardRamp(): ConditionedTest {
     }),
   );
 }
+
+/**
+ * One hour of breaths at 1 breath/s (invented): rest 0–299 s, ramp 300–3300 s with VO2 = 800 + 0.8·(t − 300) mL/min
+ * and work (t − 300)/12 W (so ΔVO2/ΔWR = 0.8 ÷ (1/12) = 9.6 mL/min/W by construction), recovery to 3599 s.
+ * Shared by the index tests and the index benchmark.
+ */
+export function oneHourRamp(): ConditionedTest {
+  const rows: BreathRow[] = [];
+  for (let t = 0; t < 3600; t++) {
+    const ex = t >= 300 && t <= 3300;
+    const vo2 = ex ? 800 + 0.8 * (t - 300) : 400;
+    rows.push({
+      timeS: t,
+      phase: t < 300 ? "rest" : ex ? "exercise" : "recovery",
+      vo2MlMin: vo2,
+      vco2MlMin: 0.9 * vo2,
+      veLMin: 0.03 * vo2 + 2,
+      hrBpm: 60 + vo2 / 30,
+      workW: ex ? (t - 300) / 12 : 0,
+      petco2MmHg: 38,
+      spo2Pct: 97,
+    });
+  }
+  return makeTest(rows, {
+    exercise: { startS: 300, endS: 3300 },
+    phases: [
+      { phase: "rest", startS: 0, endS: 299, source: "markers" },
+      { phase: "exercise", startS: 300, endS: 3300, source: "markers" },
+      { phase: "recovery", startS: 3301, endS: 3599, source: "markers" },
+    ],
+  });
+}

@@ -1,9 +1,8 @@
 import { describe, it, expect } from "vitest";
-import type { BreathRow } from "../../lib/breath";
 import { CORE_SOURCES, type Measured } from "../../lib/core";
 import { measureIndices } from "../../lib/thresholds/measureIndices";
 import { THRESHOLD_SOURCES } from "../../lib/thresholds/sources";
-import { freezeTest, makeTest, standardRamp } from "./indicesFixture";
+import { freezeTest, makeTest, oneHourRamp, standardRamp } from "./indicesFixture";
 
 /** Walk a result and yield every Measured in it. */
 function* measuredIn(x: unknown): Generator<Measured> {
@@ -95,30 +94,7 @@ describe("measureIndices on the invented ramp", () => {
   it("one hour of breaths (1 breath/s): ΔVO2/ΔWR = 0.8 mL/min per s ÷ (1/12 W per s) = 9.6 mL/min/W", () => {
     // Invented ramp: rest 0–299 s, exercise 300–3300 s with VO2 = 800 + 0.8·(t − 300) and work = (t − 300)/12 W,
     // recovery to 3599 s. The time this call takes is measured in bench/measureIndices.bench.ts, not asserted here.
-    const rows: BreathRow[] = [];
-    for (let t = 0; t < 3600; t++) {
-      const ex = t >= 300 && t <= 3300;
-      const vo2 = ex ? 800 + 0.8 * (t - 300) : 400;
-      rows.push({
-        timeS: t,
-        phase: t < 300 ? "rest" : ex ? "exercise" : "recovery",
-        vo2MlMin: vo2,
-        vco2MlMin: 0.9 * vo2,
-        veLMin: 0.03 * vo2 + 2,
-        hrBpm: 60 + vo2 / 30,
-        workW: ex ? (t - 300) / 12 : 0,
-        petco2MmHg: 38,
-        spo2Pct: 97,
-      });
-    }
-    const big = makeTest(rows, {
-      exercise: { startS: 300, endS: 3300 },
-      phases: [
-        { phase: "rest", startS: 0, endS: 299, source: "markers" },
-        { phase: "exercise", startS: 300, endS: 3300, source: "markers" },
-        { phase: "recovery", startS: 3301, endS: 3599, source: "markers" },
-      ],
-    });
+    const big = oneHourRamp();
     const out = measureIndices(big, {
       patient: { ageY: 40, weightKg: 80 },
       vt1: { timeS: 1500, vo2MlMin: 1760 },
