@@ -66,15 +66,26 @@ const VE_MVV_85: EffortCriterion = {
   cutoff: 85,
   sourceIds: ["radtke-2019"],
 };
-const PLATEAU_21: EffortCriterion = {
-  id: "vo2-plateau-2.1-ml-kg",
-  label:
-    "VO2 plateau: rise < 2.1 mL/kg/min over the final two windows (ERS 2019 between-stage rule; applied to consecutive windows on a ramp)",
+/**
+ * VO2 plateau: ΔVO2 < 2 mL/kg/min for a 5–10 % work increase (Radtke et al., ERS statement, Eur Respir Rev
+ * 2019, Table 3 — confirmed). ERS 2019 also gives < 2.1 mL/kg/min between stages; one cut-off (2) is applied
+ * to ramps and stage tables alike so that a single determination (`vo2PlateauPresent`) serves the effort
+ * criteria and the interpretation (implementation choice). `vo2FinalIncrease` measures the rise over a work
+ * increase of at least 5 % (the value is "not determined" otherwise).
+ */
+export const VO2_PLATEAU_CRITERION: EffortCriterion = {
+  id: "vo2-plateau-2-ml-kg",
+  label: "VO2 plateau: rise < 2 mL/kg/min over a 5–10 % work increase at the end of exercise (ERS 2019)",
   quantity: "vo2FinalIncreaseMlKgMin",
   comparator: "<",
-  cutoff: 2.1,
+  cutoff: 2,
   sourceIds: ["radtke-2019", "implementation-choice"],
 };
+
+/** Whether one criterion is met by a value; null when the value is missing or not finite. */
+export function criterionMet(criterion: EffortCriterion, value: number | null | undefined): boolean | null {
+  return typeof value === "number" && Number.isFinite(value) ? compare(value, criterion.comparator, criterion.cutoff) : null;
+}
 
 /**
  * Named criteria sets. Peak RER cut-offs differ between sources (clinical-reference §2, §7 item 7):
@@ -86,7 +97,7 @@ export const EFFORT_CRITERIA_SETS: Record<string, EffortCriteriaSet> = {
     id: "ers-2019",
     label: "ERS 2019 markers: RER > 1.05, HR ≥ 85% predicted or HR reserve < 15 bpm, VE/MVV ≥ 85%, VO2 plateau (any one)",
     rule: "any",
-    criteria: [RER_GT_105, HR_85, HRR_15, VE_MVV_85, PLATEAU_21],
+    criteria: [RER_GT_105, HR_85, HRR_15, VE_MVV_85, VO2_PLATEAU_CRITERION],
     ruleSourceIds: ["ats-accp-2003", "implementation-choice"],
   },
   "hf-rer-1.10": {
@@ -230,7 +241,7 @@ export function assessEffort(values: EffortValues, set: string | EffortCriteriaS
   const criteria = s.criteria.map((criterion): EffortCriterionResult => {
     const v = values[criterion.quantity];
     const value = typeof v === "number" && Number.isFinite(v) ? v : null;
-    return { criterion, value, met: value === null ? null : compare(value, criterion.comparator, criterion.cutoff) };
+    return { criterion, value, met: criterionMet(criterion, value) };
   });
   const assessed = criteria.filter((c) => c.met !== null);
   const maximal = assessed.length === 0 ? null : s.rule === "any" ? assessed.some((c) => c.met) : assessed.every((c) => c.met);
@@ -247,33 +258,45 @@ export function assessEffort(values: EffortValues, set: string | EffortCriteriaS
 }
 
 export interface Vo2FinalIncrease {
+  /** VO2 rise between the two windows (stages); "not determined" when the work increase is < 5 % or unknown. */
   increaseMlMin: Measured;
   increaseMlKgMin: Measured;
-  /** Work-rate change between the two windows (W), for judging the "5-10% work increase" of the ERS wording. */
+  /** Work-rate change between the two windows (W), for judging the "5–10 % work increase" of the ERS wording. */
   workIncreaseW: Measured;
 }
 
+/** Smallest work increase (fraction of the earlier work rate) over which the plateau rule is read (ERS 2019). */
+const MIN_WORK_INCREASE = 0.05;
+/** Work increase aimed at on a ramp: the upper end of the ERS 5–10 % (the largest expected VO2 rise). */
+const TARGET_WORK_INCREASE = 0.1;
+
 /**
- * VO2 rise over the end of exercise, for the plateau criterion: mean VO2 of the final `windowS` s of
- * exercise minus the mean of the `windowS` s before it (stage tables: last stage minus the one before).
- * ERS 2019 (confirmed) states plateau as ΔVO2 < 2 mL/kg/min for a 5-10% work increase, < 2 SD of earlier
- * increases, or < 2.1 mL/kg/min between stages; applying the between-stage rule to consecutive windows of a
- * ramp is an implementation choice.
+ * VO2 rise over the end of exercise, for the plateau criterion (ERS 2019, Radtke et al., Eur Respir Rev
+ * 2019, confirmed: ΔVO2 < 2 mL/kg/min for a 5–10 % work increase).
+ * - Ramp (breath or time-averaged rows): mean VO2 of the final `windowS` s of exercise minus the mean over a
+ *   `windowS`-s window centred where the work rate was 10 % lower than in the final window (the two windows
+ *   never overlap; when 10 % is reached within one window the windows are consecutive).
+ * - Stage tables: last stage minus the stage before.
+ * The rise is "not determined" when the work increase between the windows is below 5 % or unknown (a
+ * treadmill without work rate), or when the test's own earlier VO2–work slope predicts a rise below the
+ * cut-off for that work increase (low work rates): then a steady rise could not be told from a plateau.
+ * Implementation choice: window placement. Degenerate: no exercise, fewer than two VO2 values, exercise
+ * shorter than two windows → not determined with the reason.
  */
 export function vo2FinalIncrease(test: ConditionedTest, options: { windowS?: number; weightKg?: number } = {}): Vo2FinalIncrease {
   const windowS = options.windowS ?? 30;
   const span = exerciseSpan(test);
   const prov = provenanceOf(
-    test.shape === "stage" ? "vo2-last-stage-increase" : `vo2-final-${windowS}s-increase`,
+    test.shape === "stage" ? "vo2-last-stage-increase" : `vo2-final-${windowS}s-increase-10pct-work`,
     test.shape === "stage"
       ? "VO2 of the last stage minus the stage before"
-      : `mean VO2 of the final ${windowS} s of exercise minus the ${windowS} s before`,
+      : `mean VO2 of the final ${windowS} s of exercise minus the ${windowS} s centred where work was 10 % lower`,
     ["radtke-2019", "implementation-choice"],
   );
-  const nd = (reason: string): Vo2FinalIncrease => ({
-    increaseMlMin: notDetermined("mL/min", prov, reason),
-    increaseMlKgMin: notDetermined("mL/kg/min", prov, reason),
-    workIncreaseW: notDetermined("W", prov, reason),
+  const nd = (reason: string, p = prov, work?: Measured): Vo2FinalIncrease => ({
+    increaseMlMin: notDetermined("mL/min", p, reason),
+    increaseMlKgMin: notDetermined("mL/kg/min", p, reason),
+    workIncreaseW: work ?? notDetermined("W", p, reason),
   });
   if (!span) return nd("no data");
   const vo2 = fieldSeries(test.clean, "vo2MlMin", span);
@@ -283,35 +306,91 @@ export function vo2FinalIncrease(test: ConditionedTest, options: { windowS?: num
   let wa: number;
   let wb: number;
   let window: { startS: number; endS: number };
+  // VO2 and work of an earlier point of the exercise, for the test's own VO2–work slope (expected rise).
+  let ae = NaN;
+  let we = NaN;
   const work = fieldSeries(test.clean, "workW", span);
+  const wm = new WindowMeans(work);
   if (test.shape === "stage") {
     const n = vo2.v.length;
     a = vo2.v[n - 2];
     b = vo2.v[n - 1];
-    const wm = new WindowMeans(work);
     wa = wm.mean(vo2.t[n - 2], vo2.t[n - 2]).mean;
     wb = wm.mean(vo2.t[n - 1], vo2.t[n - 1]).mean;
     window = { startS: vo2.t[n - 2], endS: vo2.t[n - 1] };
+    if (n >= 3) {
+      ae = vo2.v[n - 3];
+      we = wm.mean(vo2.t[n - 3], vo2.t[n - 3]).mean;
+    }
   } else {
     const m = new WindowMeans(vo2);
-    const wm = new WindowMeans(work);
     const end = span.endS;
     if (end - span.startS < 2 * windowS) return nd(`exercise shorter than two ${windowS}-s windows`);
-    a = m.mean(end - 2 * windowS, end - windowS).mean;
-    b = m.mean(end - windowS + 1e-9, end).mean;
-    wa = wm.mean(end - 2 * windowS, end - windowS).mean;
-    wb = wm.mean(end - windowS + 1e-9, end).mean;
-    window = { startS: end - 2 * windowS, endS: end };
+    const finalStart = end - windowS;
+    b = m.mean(finalStart + 1e-9, end).mean;
+    wb = wm.mean(finalStart + 1e-9, end).mean;
+    // Centre of the earlier window: the last time the work rate was at most 90 % of the final window's.
+    let centre = finalStart - windowS / 2;
+    if (Number.isFinite(wb)) {
+      const target = (1 - TARGET_WORK_INCREASE) * wb;
+      for (let i = work.t.length - 1; i >= 0; i--) {
+        if (work.v[i] <= target) {
+          centre = Math.min(work.t[i], finalStart - windowS / 2);
+          break;
+        }
+      }
+    }
+    const lo = Math.max(span.startS, centre - windowS / 2);
+    a = m.mean(lo, centre + windowS / 2).mean;
+    wa = wm.mean(lo, centre + windowS / 2).mean;
+    window = { startS: lo, endS: end };
+    const earlyCentre = (span.startS + centre) / 2;
+    if (earlyCentre - windowS / 2 >= span.startS && earlyCentre + windowS / 2 <= lo) {
+      ae = m.mean(earlyCentre - windowS / 2, earlyCentre + windowS / 2).mean;
+      we = wm.mean(earlyCentre - windowS / 2, earlyCentre + windowS / 2).mean;
+    }
   }
-  const p = { ...prov, window, inputs: { earlierMlMin: a, finalMlMin: b } };
+  const p = { ...prov, window, inputs: { earlierMlMin: a, finalMlMin: b, earlierWorkW: wa, finalWorkW: wb } };
+  const dw = wb - wa;
+  const workIncreaseW = Number.isFinite(dw) ? measured(dw, "W", p) : notDetermined("W", p, "no work-rate data");
+  if (!Number.isFinite(dw) || !(wa > 0))
+    return nd("no work rate to judge the 5–10 % work increase the plateau criterion needs", p, workIncreaseW);
+  if (dw / wa < MIN_WORK_INCREASE)
+    return nd(
+      `work rose only ${(100 * (dw / wa)).toFixed(1)} % between the windows; the plateau criterion needs a 5–10 % increase`,
+      p,
+      workIncreaseW,
+    );
   const inc = b - a;
   const w = options.weightKg;
+  // A plateau is a rise below the cut-off although the work increase should have raised VO2 by more. When the
+  // test's own earlier VO2–work slope predicts a rise below the cut-off for this work increase (low work
+  // rates), a linear rise cannot be told from a plateau: not determined (logical guard, common practice).
+  const gain = (a - ae) / (wa - we);
+  if (w && w > 0 && Number.isFinite(gain) && wa - we > 0) {
+    const expected = (gain * dw) / w;
+    if (expected < VO2_PLATEAU_CRITERION.cutoff)
+      return nd(
+        `at this test's own VO2–work slope (${gain.toFixed(1)} mL/min/W) a ${dw.toFixed(0)}-W increase would raise VO2 by only ${expected.toFixed(2)} mL/kg/min, below the ${VO2_PLATEAU_CRITERION.cutoff} mL/kg/min plateau cut-off; a plateau cannot be told from a steady rise`,
+        { ...p, inputs: { ...p.inputs, expectedRiseMlKgMin: expected } },
+        workIncreaseW,
+      );
+  }
   return {
     increaseMlMin: Number.isFinite(inc) ? measured(inc, "mL/min", p) : notDetermined("mL/min", p, "a window had no VO2 data"),
     increaseMlKgMin:
       Number.isFinite(inc) && w && w > 0
         ? measured(inc / w, "mL/kg/min", { ...p, inputs: { ...p.inputs, weightKg: w } })
         : notDetermined("mL/kg/min", p, w ? "a window had no VO2 data" : "body mass not given"),
-    workIncreaseW: Number.isFinite(wb - wa) ? measured(wb - wa, "W", p) : notDetermined("W", p, "no work-rate data"),
+    workIncreaseW,
   };
+}
+
+/**
+ * The one VO2-plateau determination of the product: `VO2_PLATEAU_CRITERION` (ERS 2019, confirmed) applied
+ * to `vo2FinalIncrease`. The effort criteria set and the interpretation's "VO2 plateau" rule both read it,
+ * so they always agree. Null (not assessable) when the rise could not be measured.
+ */
+export function vo2PlateauPresent(increase: Vo2FinalIncrease): boolean | null {
+  return criterionMet(VO2_PLATEAU_CRITERION, increase.increaseMlKgMin.value);
 }

@@ -1,7 +1,15 @@
 import { describe, it, expect } from "vitest";
-import { assessEffort, EFFORT_CRITERIA_SETS, vo2FinalIncrease } from "../../lib/thresholds/effortCriteria";
+import {
+  assessEffort,
+  EFFORT_CRITERIA_SETS,
+  VO2_PLATEAU_CRITERION,
+  vo2FinalIncrease,
+  vo2PlateauPresent,
+} from "../../lib/thresholds/effortCriteria";
 import { THRESHOLD_SOURCES } from "../../lib/thresholds/sources";
 import { CORE_SOURCES } from "../../lib/core";
+import { conditionTable } from "../../lib/signal";
+import { generateSyntheticTest } from "../../lib/synthetic";
 import { freezeTest, standardRamp } from "./indicesFixture";
 
 const met = (values: Parameters<typeof assessEffort>[0], set: string, id: string) =>
@@ -26,11 +34,11 @@ describe("effort criteria: boundaries exactly as published", () => {
     expect(met({ hrReserveBpm: 15 }, "ers-2019", "hr-reserve-lt-15")).toBe(false);
     expect(met({ hrReserveBpm: 14.9 }, "ers-2019", "hr-reserve-lt-15")).toBe(true);
   });
-  it("VE/MVV ≥ 85% (ERS 2019) and VO2 plateau < 2.1 mL/kg/min (ERS 2019 between-stage rule)", () => {
+  it("VE/MVV ≥ 85% (ERS 2019) and VO2 plateau < 2 mL/kg/min for a 5–10 % work increase (ERS 2019, confirmed)", () => {
     expect(met({ veMvvPercent: 85 }, "ers-2019", "ve-mvv-85")).toBe(true);
     expect(met({ veMvvPercent: 84.9 }, "ers-2019", "ve-mvv-85")).toBe(false);
-    expect(met({ vo2FinalIncreaseMlKgMin: 2.1 }, "ers-2019", "vo2-plateau-2.1-ml-kg")).toBe(false);
-    expect(met({ vo2FinalIncreaseMlKgMin: 2.09 }, "ers-2019", "vo2-plateau-2.1-ml-kg")).toBe(true);
+    expect(met({ vo2FinalIncreaseMlKgMin: 2 }, "ers-2019", "vo2-plateau-2-ml-kg")).toBe(false);
+    expect(met({ vo2FinalIncreaseMlKgMin: 1.99 }, "ers-2019", "vo2-plateau-2-ml-kg")).toBe(true);
   });
   it("composite (Rapp 2018, confirmed): lactate ≥ 8 alone is enough", () => {
     const a = assessEffort({ rerPeak: 1.0, lactatePeakMmolL: 8, hrPercentPredicted: 80 }, "rapp-2018");
@@ -65,13 +73,62 @@ describe("effort set rules", () => {
 });
 
 describe("vo2FinalIncrease on the invented ramp", () => {
-  it("final 30 s minus the 30 s before", () => {
+  // Invented ramp: VO2 = 1000 + 2·(t − 180) mL/min, work = (t − 180)/3 W, one breath every 3 s, exercise 180–780 s.
+  it("final 30 s against the 30 s where work was 10 % lower; a steady rise below the cut-off is not called a plateau", () => {
     const r = vo2FinalIncrease(freezeTest(standardRamp()), { windowS: 30, weightKg: 70 });
-    // earlier window [720, 750]: 11 breaths, mean t = 735 → 1000 + 2·555 = 2110
-    // final window (750, 780]: 10 breaths 753..780, mean t = 766.5 → 1000 + 2·586.5 = 2173; rise 63 mL/min
-    expect(r.increaseMlMin.value).toBeCloseTo(63, 9);
-    expect(r.increaseMlKgMin.value).toBeCloseTo(0.9, 9);
-    // work (t − 180)/3: 185 → 195.5 W, rise 10.5 W
-    expect(r.workIncreaseW.value).toBeCloseTo(10.5, 9);
+    // final window (750, 780]: breaths 753..780, mean t 766.5 → work 195.5 W, VO2 1000 + 2·586.5 = 2173
+    // 90 % of 195.5 = 175.95 W → last breath at or below it t = 705 (175 W); window [690, 720]: mean t 705 →
+    // work 175 W, VO2 1000 + 2·525 = 2050. Work rise 20.5 W (11.7 %, ≥ 5 %).
+    expect(r.workIncreaseW.value).toBeCloseTo(20.5, 9);
+    expect(r.increaseMlMin.provenance.inputs).toMatchObject({ earlierMlMin: 2050, finalMlMin: 2173 });
+    // Own slope: window centred at (180 + 705)/2 = 442.5 → VO2 1525 at 87.5 W; (2050 − 1525)/(175 − 87.5) = 6 mL/min/W.
+    // Expected rise 6·20.5/70 = 1.757 mL/kg/min < 2: a steady rise cannot be told from a plateau → not determined.
+    expect(r.increaseMlKgMin.value).toBeNull();
+    expect(r.increaseMlKgMin.reason).toMatch(/6\.0 mL\/min\/W.*1\.76 mL\/kg\/min/);
+    expect(vo2PlateauPresent(r)).toBeNull();
   });
+  it("the same ramp for a 50-kg patient: expected rise 6·20.5/50 = 2.46 ≥ 2 → measured rise 123/50 = 2.46, no plateau", () => {
+    const r = vo2FinalIncrease(freezeTest(standardRamp()), { windowS: 30, weightKg: 50 });
+    expect(r.increaseMlMin.value).toBeCloseTo(123, 9);
+    expect(r.increaseMlKgMin.value).toBeCloseTo(2.46, 9);
+    expect(vo2PlateauPresent(r)).toBe(false);
+  });
+  it("no work rate (treadmill without work) → not determined, with the reason", () => {
+    const t = standardRamp();
+    const rows = t.clean.map((row) => ({ ...row, workW: undefined }));
+    const r = vo2FinalIncrease(freezeTest({ ...t, clean: rows, averaged: rows }), { windowS: 30, weightKg: 50 });
+    expect(r.increaseMlKgMin.value).toBeNull();
+    expect(r.increaseMlKgMin.reason).toMatch(/work/);
+    expect(vo2PlateauPresent(r)).toBeNull();
+  });
+});
+
+describe("one plateau determination, checked on synthetic tests known by construction", () => {
+  // Synthetic generator (invented data, lib/synthetic): healthy adult, 75 kg, 20 W/min ramp, VO2 gain
+  // 10.3 mL/min/W. With plateau = true the steady-state VO2 is capped at the peak for the last 20 W of the
+  // ramp (a plateau by construction); with plateau = false it rises to the end. Noise "none" and "low".
+  const run = (plateau: boolean, noise: "none" | "low", seed: number) => {
+    const syn = generateSyntheticTest({ plateau, noise, weightKg: 75 }, seed);
+    const test = conditionTable(syn.table);
+    const inc = vo2FinalIncrease(test, { windowS: 30, weightKg: 75 });
+    const effort = assessEffort({ vo2FinalIncreaseMlKgMin: inc.increaseMlKgMin.value }, "ers-2019");
+    const criterion = effort.criteria.find((c) => c.criterion.id === VO2_PLATEAU_CRITERION.id)!;
+    return { inc, present: vo2PlateauPresent(inc), criterionMet: criterion.met };
+  };
+  for (const noise of ["none", "low"] as const) {
+    for (const seed of [1, 2, 3]) {
+      it(`plateau built in → present; effort set agrees (noise ${noise}, seed ${seed})`, () => {
+        const r = run(true, noise, seed);
+        expect(r.present).toBe(true);
+        expect(r.criterionMet).toBe(r.present);
+      });
+      it(`no plateau → absent; effort set agrees (noise ${noise}, seed ${seed})`, () => {
+        const r = run(false, noise, seed);
+        // 10 % of ≈ 210 W ≈ 21 W × 10.3 mL/min/W ≈ 216 mL/min ≈ 2.9 mL/kg/min at 75 kg, above the 2 cut-off.
+        expect(r.inc.increaseMlKgMin.value).toBeGreaterThan(2);
+        expect(r.present).toBe(false);
+        expect(r.criterionMet).toBe(r.present);
+      });
+    }
+  }
 });
