@@ -19,7 +19,7 @@ export function assessEffort(ctx: EvalContext): EffortResult {
         severity: v.severity,
         peakConclusionsAllowed: v.peakConclusionsAllowed,
         criteria,
-        text: `${v.label}: ${criteria.map((c) => c.text).join("; ")}`,
+        text: criteria.map((c) => c.text).join("; "),
       };
     }
   }
@@ -30,6 +30,6 @@ export function assessEffort(ctx: EvalContext): EffortResult {
     severity: o.severity,
     peakConclusionsAllowed: o.peakConclusionsAllowed,
     criteria,
-    text: `${o.label}: ${criteria.map((c) => c.text).join("; ")}`,
+    text: criteria.map((c) => c.text).join("; "),
   };
 }

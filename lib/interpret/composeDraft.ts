@@ -22,7 +22,11 @@ export interface DraftExtras {
     peakBorg?: number;
     notes?: string;
   };
-  /** How VT1 / VT2 were found, in words (method, agreement, overrides). */
+  /**
+   * How VT1 / VT2 were found, in words: either the method ("consensus of …", written after "was found by")
+   * or a whole predicate starting with a participle ("set by the reviewer (name): reason",
+   * "not determinable: reason"), written after "was".
+   */
   thresholdMethods?: { vt1?: string; vt2?: string };
   /** VT2 (RCP) values, if found. */
   vt2?: { vo2MlMin?: number; hrBpm?: number; workW?: number };
@@ -59,6 +63,15 @@ const REFERRAL_TEXT: Record<ReferralQuestion, string> = {
   transplant: "Assessment in the context of heart-transplant listing.",
   training: "Assessment of fitness and intensity domains for exercise training.",
 };
+
+/** Words that already form a predicate ("set by …", "not determinable: …") and take "was", not "was found by". */
+const PREDICATE_START = /^(set|found|entered|placed|moved|chosen|taken|not)\b/i;
+
+/** "VT1 was found by consensus of …" / "VT1 was set by the reviewer (name): reason." */
+function thresholdMethodSentence(name: string, words: string): string {
+  const w = words.trim().replace(/[.\s]+$/, "");
+  return PREDICATE_START.test(w) ? `${name} was ${w}.` : `${name} was found by ${w}.`;
+}
 
 function sentenceCase(s: string): string {
   return s.length ? s[0].toUpperCase() + s.slice(1) : s;
@@ -159,13 +172,13 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     if (have(v.vt1PctPredPeakVo2)) parts.push(`${formatValue("vt1PctPredPeakVo2", v.vt1PctPredPeakVo2)} % of predicted peak VO2`);
     thr.push(`VT1 at VO2 ${parts.join(", ")}.`);
   } else thr.push("No VT1 value was supplied.");
-  if (extras.thresholdMethods?.vt1) thr.push(`VT1 was found by ${extras.thresholdMethods.vt1}.`);
+  if (extras.thresholdMethods?.vt1) thr.push(thresholdMethodSentence("VT1", extras.thresholdMethods.vt1));
   if (extras.vt2?.vo2MlMin !== undefined) {
     thr.push(
       `VT2 (respiratory compensation point) at VO2 ${formatValue("vt1Vo2MlMin", extras.vt2.vo2MlMin)} mL/min${extras.vt2.hrBpm !== undefined ? `, heart rate ${extras.vt2.hrBpm} bpm` : ""}${extras.vt2.workW !== undefined ? `, ${extras.vt2.workW} W` : ""}.`,
     );
   }
-  if (extras.thresholdMethods?.vt2) thr.push(`VT2 was found by ${extras.thresholdMethods.vt2}.`);
+  if (extras.thresholdMethods?.vt2) thr.push(thresholdMethodSentence("VT2", extras.thresholdMethods.vt2));
   sections.push({ id: "thresholds", title: "Thresholds and how they were found", paragraphs: thr });
 
   sections.push({

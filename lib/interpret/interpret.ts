@@ -86,7 +86,7 @@ export function interpret(
       issues.push(makeIssue("info", `not-assessable-${s.nodeId}`, `${s.title}: ${s.finding}.`, { field: `path.${s.nodeId}` }));
     }
   }
-  const patterns = rankPatterns(ctx, effort);
+  const patterns = rankPatterns(ctx, effort, path);
   const applied = applySchemes(ctx, effort, { referral, addSchemes: settings.addSchemes, removeSchemes: settings.removeSchemes });
   issues.push(...applied.issues);
 

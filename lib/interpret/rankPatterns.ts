@@ -1,5 +1,5 @@
 import { conditionVariables, evaluateRule, type EvalContext } from "./evaluateCondition";
-import type { EffortResult, PatternFeatureResult, PatternResult } from "./types";
+import type { EffortResult, PathResult, PatternFeatureResult, PatternResult } from "./types";
 import { variableInfo } from "./variables";
 
 const LEVEL_RANK: Record<PatternResult["support"], number> = {
@@ -15,8 +15,17 @@ const LEVEL_RANK: Record<PatternResult["support"], number> = {
  * by support. Never a single diagnosis: every pattern is worded "consistent with ...". When effort is
  * not shown to be maximal, features resting on effort-dependent values are not assessable (except for
  * patterns that describe effort itself).
+ *
+ * Support needs at least one key feature for the pattern: when every key feature is not assessable the
+ * pattern is "not assessable" (the absence of other findings cannot stand in for its defining finding).
+ * When the stepwise interpretation ends with no limitation identified (end severity 0), a pattern of weak
+ * support is reported as not supported, so the patterns never contradict the conclusion. Engine rules,
+ * not clinical cut-offs (common practice).
+ *
+ * @param path the stepwise interpretation's result; omit to rank the patterns on their own
  */
-export function rankPatterns(ctx: EvalContext, effort: EffortResult): PatternResult[] {
+export function rankPatterns(ctx: EvalContext, effort: EffortResult, path?: PathResult): PatternResult[] {
+  const noLimitation = path?.end?.severity === 0;
   const { supportLevels, patterns } = ctx.data.patterns;
   const results = patterns.map((p): PatternResult => {
     const features: PatternFeatureResult[] = p.features.map((f) => {
@@ -36,19 +45,24 @@ export function rankPatterns(ctx: EvalContext, effort: EffortResult): PatternRes
     const wFor = forF.reduce((s, f) => s + f.weight, 0);
     const wAgainst = against.reduce((s, f) => s + f.weight, 0);
     const score = wFor + wAgainst > 0 ? wFor / (wFor + wAgainst) : null;
+    const keys = features.filter((f) => f.key);
     let support: PatternResult["support"];
+    let supportNote: string | undefined;
     if (score === null) support = "not-assessable";
     else if (against.some((f) => f.key)) support = "not-supported";
-    else if (
-      score >= supportLevels.strong &&
-      forF.length >= supportLevels.minFor &&
-      features.filter((f) => f.key).every((f) => f.evidence === "for")
-    )
+    else if (!keys.some((f) => f.evidence === "for")) {
+      support = "not-assessable";
+      supportNote = `its key finding could not be assessed (${keys.map((f) => ruleLabel(f.ruleId, ctx)).join("; ")}); other findings cannot support it on their own`;
+    } else if (score >= supportLevels.strong && forF.length >= supportLevels.minFor && keys.every((f) => f.evidence === "for"))
       support = "strong";
     else if (score >= supportLevels.moderate) support = "moderate";
     else if (score > 0) support = "weak";
     else support = "not-supported";
     if (na.some((f) => f.key) && (support === "strong" || support === "moderate")) support = "weak";
+    if (noLimitation && support === "weak") {
+      support = "not-supported";
+      supportNote = "support was weak and the stepwise interpretation found no exercise limitation";
+    }
     const statement =
       support === "not-assessable"
         ? `Whether the findings are consistent with ${p.consistentWith} cannot be assessed from the data available.`
@@ -60,6 +74,7 @@ export function rankPatterns(ctx: EvalContext, effort: EffortResult): PatternRes
       label: p.label,
       statement,
       support,
+      ...(supportNote ? { supportNote } : {}),
       score,
       for: forF,
       against,
@@ -78,4 +93,9 @@ export function rankPatterns(ctx: EvalContext, effort: EffortResult): PatternRes
         a.i - b.i,
     )
     .map((x) => x.r);
+}
+
+/** The rule's label (what the pattern needs), for notes. */
+function ruleLabel(ruleId: string, ctx: EvalContext): string {
+  return ctx.data.ruleById.get(ruleId)?.label ?? ruleId;
 }

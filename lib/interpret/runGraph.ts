@@ -36,7 +36,7 @@ export function runGraph(graph: GraphData, ctx: EvalContext): PathResult {
       checks,
       outcome: taken.outcome,
       finding: taken.finding,
-      text: checkText ? `${node.title}: ${checkText} ⇒ ${taken.finding}` : `${node.title}: ${taken.finding}`,
+      text: checkText ? `${checkText} ⇒ ${taken.finding}` : taken.finding,
       sourceIds: unique([...node.sourceIds, ...checks.flatMap((c) => c.sourceIds)]),
       status: weakestStatus([node.status]),
       next: taken.next ?? null,

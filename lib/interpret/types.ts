@@ -197,6 +197,7 @@ export interface EffortResult {
   /** Whether conclusions from peak (effort-dependent) values may be drawn. */
   peakConclusionsAllowed: boolean;
   criteria: RuleResult[];
+  /** The criteria with the patient's values as one readable line; the verdict is in `label` (not repeated here). */
   text: string;
 }
 
@@ -208,7 +209,7 @@ export interface PathStep {
   outcome: string;
   /** Finding in plain words for this step. */
   finding: string;
-  /** The step as one readable line. */
+  /** The step's checks and finding as one readable line; the step's `title` is not repeated here. */
   text: string;
   sourceIds: string[];
   status: EvidenceStatus;
@@ -241,6 +242,11 @@ export interface PatternResult {
   label: string;
   /** Always "consistent with ..." wording, never a diagnosis. */
   statement: string;
+  /**
+   * Why the support level differs from what the feature weights alone would give (no key feature for the
+   * pattern, or weak support set aside because the stepwise interpretation found no limitation).
+   */
+  supportNote?: string;
   support: "strong" | "moderate" | "weak" | "not-supported" | "not-assessable";
   /** Weighted share of assessable features that fit, 0..1 (null when nothing assessable). */
   score: number | null;
