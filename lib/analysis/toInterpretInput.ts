@@ -1,5 +1,5 @@
 import type { Measured } from "../core";
-import type { IndicesResult, ThresholdResult } from "../thresholds";
+import { vo2PlateauPresent, type IndicesResult, type ThresholdResult } from "../thresholds";
 import type { PredictedSet } from "../predicted";
 import type { InterpretInput } from "../interpret";
 import type { PredictedComparisonRow, TestRecord } from "./types";
@@ -46,7 +46,8 @@ export function toInterpretInput(
       peakVo2MlKgMin: v(p.vo2MlKgMin),
       peakVo2PctPred: pct("peakVo2"),
       peakWorkW: v(p.workW),
-      vo2Plateau: null,
+      // one plateau determination for the effort set and the interpretation (`vo2PlateauPresent`)
+      vo2Plateau: vo2PlateauPresent(indices.vo2FinalIncrease),
       vt1Determined: thresholds.vt1.confidence !== "not-determinable" && vt1Vo2 !== null,
       vt1Vo2MlMin: vt1Vo2,
       vt1Vo2MlKgMin: vt1Vo2 !== null && patient.weightKg ? vt1Vo2 / patient.weightKg : null,

@@ -1,0 +1,31 @@
+import { describe, expect, it } from "vitest";
+import { analyse, type TestRecord } from "../../lib/analysis";
+import { DEFAULT_SYNTHETIC_SPEC, generateSyntheticTest } from "../../lib/synthetic";
+import { vo2PlateauPresent } from "../../lib/thresholds";
+
+// Invented synthetic tests (main model, no noise) built with and without a VO2 plateau at the end of the ramp.
+function resultFor(plateau: boolean) {
+  const syn = generateSyntheticTest({ ...DEFAULT_SYNTHETIC_SPEC, noise: "none", plateau }, 3);
+  const record: TestRecord = {
+    patient: { sex: "male", ageY: 45, heightCm: 178, weightKg: 75 },
+    ergometer: "cycle",
+    referral: "general",
+    table: syn.table,
+    columns: [],
+    importIssues: [],
+  };
+  return analyse(record, { bootstrap: 0 });
+}
+
+describe("one VO2-plateau determination for the effort set and the interpretation", () => {
+  for (const plateau of [true, false]) {
+    it(`built ${plateau ? "with" : "without"} a plateau: the interpretation reads the same plateau as the effort criteria`, () => {
+      const r = resultFor(plateau);
+      const own = vo2PlateauPresent(r.indices.vo2FinalIncrease);
+      expect(r.interpretInput.values.vo2Plateau).toBe(own);
+      // by construction the plateau test levels off and the other keeps rising at 10.3 mL/min/W
+      if (plateau) expect(own).toBe(true);
+      else expect(own).not.toBe(true);
+    });
+  }
+});
