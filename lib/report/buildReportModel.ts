@@ -5,6 +5,8 @@ import { analysisCharts } from "./analysisCharts";
 import { ALL_SOURCES } from "./sources";
 import { formatClock, formatNumber } from "../units";
 import { CLINICAL_CAUTION, DRAFT_CAUTION } from "./caution";
+import { PREDICTED_QUANTITIES, type PredictedQuantity } from "../predicted";
+import { formatComparisonCutoff, formatComparisonValue } from "./formatComparison";
 import type { ReportModel, ReportRow, ReportSection } from "./reportModel";
 
 /** The stored state of the report text: from `lib/store/reports` (or a new, unsaved draft). */
@@ -30,14 +32,30 @@ const REFERRAL_WORDS: Record<ReferralQuestion, string> = {
   training: "Training prescription",
 };
 
-/** A measured value as a table row: formatted value or "not determinable" with the reason. */
+const unique = <T>(items: readonly T[]): T[] => [...new Set(items)];
+
+/** Heart rates (and HR differences) are written in whole beats per minute, spelled "bpm" (common practice). */
+const isHeartRate = (label: string, unit: string) => unit === "1/min" && /heart[- ]rate|\bHR\b/i.test(label);
+
+/** Plain words for a predicted quantity, e.g. "predicted peak VO2" (never the internal field name). */
+export function predictedQuantityWords(quantity: string): string {
+  const q = PREDICTED_QUANTITIES[quantity as PredictedQuantity];
+  return `predicted ${q ? q.label : quantity}`;
+}
+
+/**
+ * A measured value as a table row: formatted value or "not determinable" with the reason. Heart
+ * rates are whole bpm whatever `decimals` says; source ids are listed once each.
+ */
 function measuredRow(label: string, m: Measured, decimals: number, format?: (v: number) => string): ReportRow {
+  const hr = isHeartRate(label, m.unit);
+  const d = hr ? 0 : decimals;
   const row: ReportRow = {
     label,
-    value: m.value === null ? "not determinable" : format ? format(m.value) : formatNumber(m.value, decimals),
-    unit: m.unit,
+    value: m.value === null ? "not determinable" : format ? format(m.value) : formatNumber(m.value, d),
+    unit: hr ? "bpm" : m.unit,
     method: m.provenance.label,
-    sourceIds: m.provenance.sourceIds,
+    sourceIds: unique(m.provenance.sourceIds),
   };
   if (m.value === null && m.reason) row.note = m.reason;
   return row;
@@ -86,8 +104,13 @@ export function buildReportModel(
     const row = measuredRow(c.label, c.measured, decimals);
     if (c.predicted && c.predicted.value !== null) {
       row.predicted = formatNumber(c.predicted.value, decimals);
-      row.sourceIds = [...row.sourceIds, ...c.predicted.provenance.sourceIds];
-      row.note = [row.note, `predicted: ${c.predicted.equationId} (${c.predicted.status})`].filter(Boolean).join("; ");
+      row.sourceIds = unique([...row.sourceIds, ...c.predicted.provenance.sourceIds]);
+      row.note = [
+        row.note,
+        `${predictedQuantityWords(c.predicted.quantity)} by ${c.predicted.equationLabel} (evidence: ${c.predicted.status})`,
+      ]
+        .filter(Boolean)
+        .join("; ");
     }
     if (c.percentPredicted !== null) row.pctPredicted = formatNumber(c.percentPredicted, 0);
     if (c.predicted?.lln !== undefined && c.predicted.lln !== null) row.lln = formatNumber(c.predicted.lln, decimals);
@@ -116,31 +139,52 @@ export function buildReportModel(
     [result.thresholds.vt2, ix.atVt2, "VT2 (RCP)"],
   ] as const) {
     const row = measuredRow(name, t.vo2MlMin, 0);
-    const bits = [`confidence ${t.confidence}`];
-    if (t.band) bits.push(`band ${formatNumber(t.band.lowMlMin, 0)}-${formatNumber(t.band.highMlMin, 0)} mL/min`);
-    if (at && t.vo2MlMin.value !== null)
-      bits.push(
-        `${formatNumber(at.vo2MlKgMin.value, 1)} mL/kg/min, ${formatNumber(at.vo2PercentPeak.value, 0)} % of peak, HR ${formatNumber(at.hrBpm.value, 0)}, ${formatNumber(at.workW.value, 0)} W`,
-      );
+    const methodWords = t.vo2MlMin.value !== null || t.overridden ? thresholdMethodWords(t, result.thresholds) : "";
+    const bits: string[] = [];
+    // The method words usually state confidence and band already; say them once.
+    if (!/confidence/.test(methodWords)) bits.push(`confidence ${t.confidence.replace(/-/g, " ")}`);
+    if (t.band && !/band/.test(methodWords))
+      bits.push(`band ${formatNumber(t.band.lowMlMin, 0)}–${formatNumber(t.band.highMlMin, 0)} mL/min`);
+    if (at && t.vo2MlMin.value !== null) {
+      const parts = [
+        at.vo2MlKgMin.value !== null ? `${formatNumber(at.vo2MlKgMin.value, 1)} mL/kg/min` : "",
+        at.vo2PercentPeak.value !== null ? `${formatNumber(at.vo2PercentPeak.value, 0)} % of peak VO2` : "",
+        at.hrBpm.value !== null ? `HR ${formatNumber(at.hrBpm.value, 0)} bpm` : "",
+        at.workW.value !== null ? `${formatNumber(at.workW.value, 0)} W` : "",
+      ];
+      bits.push(parts.filter(Boolean).join(", "));
+    }
     // When not determinable, the reason is already in the row (from the Measured); do not repeat it.
-    if (t.vo2MlMin.value !== null || t.overridden) bits.push(thresholdMethodWords(t, result.thresholds));
+    if (methodWords) bits.push(methodWords);
     row.note = [row.note, ...bits].filter(Boolean).join("; ");
     thresholds.push(row);
   }
-  const path: ReportModel["path"] = result.interpretation.path.steps.map((st, i) => ({
-    step: i + 1,
-    variable: st.title,
-    value: st.checks.map((c) => c.comparisons.map((x) => `${x.label} ${x.value ?? "n/a"}`).join(", ")).join("; ") || "-",
-    cutoff: st.checks.map((c) => c.comparisons.map((x) => `${x.op} ${String(x.cutoff)}`).join(", ")).join("; ") || "-",
-    outcome: st.text,
-    sourceIds: st.sourceIds,
-  }));
+  const path: ReportModel["path"] = result.interpretation.path.steps.map((st, i) => {
+    // A variable read by two rules of one step is listed once (same value, same cut-off).
+    const seen = new Set<string>();
+    const comparisons = st.checks
+      .flatMap((c) => c.comparisons)
+      .filter((x) => {
+        const key = `${x.variable}|${x.op}|${String(x.cutoff)}`;
+        if (seen.has(key)) return false;
+        seen.add(key);
+        return true;
+      });
+    return {
+      step: i + 1,
+      variable: st.title,
+      value: comparisons.map(formatComparisonValue).join("; ") || "-",
+      cutoff: comparisons.map(formatComparisonCutoff).join("; ") || "-",
+      outcome: st.text,
+      sourceIds: unique(st.sourceIds),
+    };
+  });
   const schemes: ReportModel["schemes"] = result.interpretation.schemes.map((sc) => ({
     name: sc.name,
     category: sc.overall ? sc.overall.label : "not assessable",
     severity: sc.overall?.severity ?? -1,
     inputs: [...sc.axes.map((a) => a.text), ...(sc.path?.steps.map((x) => x.text) ?? [])],
-    sourceIds: sc.sourceIds,
+    sourceIds: unique(sc.sourceIds),
   }));
 
   const cited: string[] = [];
@@ -159,7 +203,7 @@ export function buildReportModel(
       .join("; ")}; consensus with confidence and band (${result.thresholds.series.averaging}).`,
     `Display averaging: ${result.conditioned.averaging.label}.`,
     `Predicted values: ${Object.values(result.predicted.values)
-      .flatMap((v) => (v ? [`${v.quantity} by ${v.equationLabel}`] : []))
+      .flatMap((v) => (v ? [`${predictedQuantityWords(v.quantity)} by ${v.equationLabel}`] : []))
       .join("; ")}.`,
     ...result.interpretation.settingsUsed.map(
       (u) => `Cut-off choice: ${u.label}: ${u.optionLabel}${u.isDefault ? " (default)" : ""}.`,

@@ -6,6 +6,37 @@ import { describe, expect, it } from "vitest";
 import { CLINICAL_CAUTION } from "../../lib/report/caution";
 import { renderReportPdf } from "../../lib/report/pdf/renderReportPdf";
 import { exampleReportModel } from "./exampleReportModel";
+import { analyse, buildRecord } from "../../lib/analysis";
+import { buildReportModel } from "../../lib/report/buildReportModel";
+import { initialDraftSections } from "../../lib/report/initialDraftSections";
+import { toWinAnsi } from "../../lib/report/pdf/toWinAnsi";
+import type { ReportModel } from "../../lib/report/reportModel";
+import { DEMO_CASES, demoCsv } from "../../lib/store/demoCases";
+
+/** Every string of a (JSON-like) model. */
+function strings(value: unknown, out: string[] = []): string[] {
+  if (typeof value === "string") out.push(value);
+  else if (Array.isArray(value)) value.forEach((v) => strings(v, out));
+  else if (value && typeof value === "object") Object.values(value).forEach((v) => strings(v, out));
+  return out;
+}
+const questionMarks = (text: string) => (text.match(/\?/g) ?? []).length;
+
+/** The report model of an INVENTED demo case (synthetic generator preset, fixed seed), as a draft. */
+async function demoModel(presetId: string): Promise<ReportModel> {
+  const demo = DEMO_CASES.find((d) => d.presetId === presetId)!;
+  const bytes = new TextEncoder().encode(demoCsv(demo));
+  const built = await buildRecord({
+    bytes,
+    fileName: demo.fileName,
+    patient: demo.patient,
+    ergometer: demo.ergometer,
+    referral: demo.referral,
+  });
+  const record = Object.assign(built.record!, { spirometry: demo.spirometry, conduct: demo.conduct, context: demo.context });
+  const result = analyse(record);
+  return buildReportModel(result, record, demo.label, { status: "draft", sections: initialDraftSections(result) });
+}
 
 function hasTool(name: string): boolean {
   try {
@@ -91,5 +122,42 @@ describe("renderReportPdf", () => {
     expect(all).toContain("[3] Beaver WL, Wasserman K, Whipp BJ. J Appl Physiol 1986;60:2020-2027 - evidence: confirmed");
     expect(all).toContain("V-slope: VCO2 against VO2"); // chart title drawn from the SVG
     expect(all).not.toContain("₂");
+  });
+
+  it("draws every character of the demo reports: no glyph the standard font lacks becomes '?'", async () => {
+    // Every text of every demo report (values, path, schemes, methods, draft text, chart labels).
+    for (const demo of DEMO_CASES) {
+      const texts = strings(await demoModel(demo.presetId));
+      for (const t of texts) expect([t, questionMarks(toWinAnsi(t))]).toEqual([t, questionMarks(t)]);
+    }
+  });
+
+  it("a real draft PDF: '⇒' and the other symbols are drawn, the re-check note is printed, DRAFT and caution on every page", async () => {
+    const model = await demoModel("ventilatory-limitation");
+    const raw = strings(model).join(" ");
+    expect(raw).toContain("⇒"); // the path outcome uses it
+    expect(raw).toMatch(/[≥≤−·²]/);
+    model.sections[model.sections.length - 1] = {
+      ...model.sections[model.sections.length - 1],
+      recheck: {
+        fromVersion: 1,
+        fromReportId: 1,
+        reason: "Your text from report version 1 (draft) was kept, but it was written for an earlier analysis.",
+        changes: ["VT1 (AT): 890 mL/min → 1100 mL/min"],
+        generated: [],
+      },
+    };
+    const pages = pagesText(await renderReportPdf(model));
+    const all = pages.join(" ");
+    // pdftotext shows "?" only where the model itself had one: no undrawable glyph was replaced.
+    expect(questionMarks(all)).toBe(questionMarks(strings(model).join(" ")));
+    expect(all).toContain("not assessable ->");
+    expect(all).toContain("Re-check this text: Your text from report version 1 (draft) was kept");
+    expect(all).toContain("VT1 (AT): 890 mL/min -> 1100 mL/min");
+    expect(all).toContain("Peak RER > 1.05");
+    for (const text of pages) {
+      expect(text).toContain("DRAFT - not signed");
+      expect(text).toContain(CLINICAL_CAUTION);
+    }
   });
 });

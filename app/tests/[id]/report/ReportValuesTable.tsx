@@ -41,7 +41,7 @@ export function ReportValuesTable({
             <td className="how">
               {r.sourceIds
                 .map((id) => sourceNumber.get(id))
-                .filter((n) => n !== undefined)
+                .filter((n, i, all) => n !== undefined && all.indexOf(n) === i)
                 .map((n) => `[${n}]`)
                 .join(" ")}
             </td>
