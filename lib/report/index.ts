@@ -6,3 +6,7 @@ export * from "./reportModel";
 export * from "./buildReportModel";
 export * from "./initialDraftSections";
 export * from "./charts";
+export * from "./formatComparison";
+export * from "./describeValueChanges";
+export * from "./carryForwardSections";
+export * from "./carryForwardDraft";

@@ -24,12 +24,31 @@ export interface ReportRow {
   note?: string;
 }
 
+/**
+ * Why a reviewer's own text must be re-read: it was written for an earlier analysis version (other
+ * thresholds or settings) and carried into this draft. The report cannot be signed while a
+ * section still carries this note; the reviewer clears it by confirming the section was re-checked.
+ */
+export interface SectionRecheck {
+  /** Report version (1-based, per test) and id the reviewer's text was carried from. */
+  fromVersion: number;
+  fromReportId: number;
+  /** Plain-words reason, shown beside the section on the page and in the draft PDF. */
+  reason: string;
+  /** Reported values that changed since the text was written, e.g. "VT1 (AT): 890 → 1100 mL/min". */
+  changes: string[];
+  /** The text generated from the current numbers for this section; empty when it is no longer generated. */
+  generated: string[];
+}
+
 /** An editable block of draft text; paragraphs are plain text (no markup). */
 export interface ReportSection {
   /** Stable id, kebab-case, e.g. `summary`. */
   id: string;
   title: string;
   paragraphs: string[];
+  /** Set when the text is the reviewer's own, carried from an earlier analysis and not yet re-checked. */
+  recheck?: SectionRecheck;
 }
 
 /** One step of the interpretation path: which variable was compared with which cut-off, and the outcome. */

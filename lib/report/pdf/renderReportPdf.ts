@@ -59,7 +59,7 @@ const heading = (text: string): Content => ({ text, style: "h2", margin: [0, 14,
 const sourceRefs = (ids: string[], index: Map<string, number>): string =>
   ids
     .map((id) => index.get(id))
-    .filter((n): n is number => n !== undefined)
+    .filter((n, i, all): n is number => n !== undefined && all.indexOf(n) === i)
     .map((n) => `[${n}]`)
     .join(" ");
 
@@ -197,6 +197,17 @@ export async function renderReportPdf(rawModel: ReportModel): Promise<Buffer> {
   content.push(heading(draft ? "Report text (draft)" : "Report text"));
   for (const section of model.sections) {
     content.push({ text: section.title, style: "h3", margin: [0, 6, 0, 2] });
+    if (section.recheck) {
+      content.push({
+        stack: [
+          { text: `Re-check this text: ${section.recheck.reason}`, bold: true },
+          ...(section.recheck.changes.length ? [{ ul: section.recheck.changes }] : []),
+        ],
+        color: DRAFT_RED,
+        fontSize: 8.5,
+        margin: [0, 0, 0, 4],
+      });
+    }
     for (const p of section.paragraphs) content.push({ text: p, margin: [0, 0, 0, 4] });
   }
 

@@ -2,6 +2,7 @@ import "server-only";
 import { analyse, ENGINE_VERSION, type AnalysisResult } from "@/lib/analysis";
 import { buildReportModel } from "@/lib/report/buildReportModel";
 import { initialDraftSections } from "@/lib/report/initialDraftSections";
+import { carryForwardDraft } from "@/lib/report/carryForwardDraft";
 import type { ReportModel } from "@/lib/report/reportModel";
 import { getOrCreateDraft, getReport, listReports, type StoredReport } from "@/lib/store/reports";
 import { getLabDefaults } from "@/lib/store/labSettings";
@@ -13,6 +14,24 @@ export interface LoadedReport {
   report: StoredReport;
   versions: StoredReport[];
   model: ReportModel;
+}
+
+/**
+ * The text a new draft for analysis `analysisId` starts with: the generated text, or, when an
+ * earlier report version exists (the analysis changed after the reviewer edited or signed), the
+ * reviewer's edited sections carried forward with a re-check note (`carryForwardDraft`). Only
+ * computed when that analysis has no report yet.
+ */
+function firstDraftText(test: StoredTest, analysisId: number, result: AnalysisResult) {
+  const reports = listReports(test.id);
+  if (reports.some((r) => r.analysisId === analysisId)) return [];
+  const generated = initialDraftSections(result);
+  const previous = reports[0];
+  if (!previous || !test.record) return generated;
+  const previousSettings = listAnalysisVersions(test.id).find((v) => v.id === previous.analysisId)?.settings;
+  if (!previousSettings) return generated;
+  const text = { reportId: previous.id, version: previous.version, status: previous.status, sections: previous.sections };
+  return carryForwardDraft(text, analyse(test.record, previousSettings), result, test.record).sections;
 }
 
 /**
@@ -38,7 +57,7 @@ export function loadReport(testId: number, reportId?: number): LoadedReport | nu
       latest = latestSettings(testId)!;
     }
     result = analyse(test.record, latest.settings);
-    report = getOrCreateDraft(testId, latest.id, initialDraftSections(result));
+    report = getOrCreateDraft(testId, latest.id, firstDraftText(test, latest.id, result));
   }
   const model = buildReportModel(result, test.record, test.label, report);
   return { test, result, report, versions: listReports(testId), model };

@@ -1,0 +1,37 @@
+import { displayUnit } from "../units";
+import type { ReportRow } from "./reportModel";
+
+const withUnit = (value: string, unit: string) => {
+  const u = displayUnit(unit);
+  return u && value !== "not determinable" ? `${value} ${u}` : value;
+};
+
+/**
+ * The reported values that differ between two versions of the report's value tables, matched by
+ * row label, as plain sentences: "VT1 (AT): 890 mL/min → 1100 mL/min", "Peak VO2: % predicted 66 →
+ * 70". Values are compared as displayed (already rounded), so a change too small to show is not
+ * listed. A row present in only one version is listed as added or no longer reported.
+ *
+ * @param before rows of the earlier version (key values and thresholds)
+ * @param after rows of the current version
+ * @returns one sentence per changed row, in the order of `after` (then rows that disappeared)
+ */
+export function describeValueChanges(before: readonly ReportRow[], after: readonly ReportRow[]): string[] {
+  const old = new Map(before.map((r) => [r.label, r]));
+  const out: string[] = [];
+  for (const r of after) {
+    const b = old.get(r.label);
+    if (!b) {
+      out.push(`${r.label}: newly reported, ${withUnit(r.value, r.unit)}`);
+      continue;
+    }
+    const bits: string[] = [];
+    if (b.value !== r.value || b.unit !== r.unit) bits.push(`${withUnit(b.value, b.unit)} → ${withUnit(r.value, r.unit)}`);
+    if ((b.pctPredicted ?? "") !== (r.pctPredicted ?? ""))
+      bits.push(`% predicted ${b.pctPredicted ?? "none"} → ${r.pctPredicted ?? "none"}`);
+    if (bits.length) out.push(`${r.label}: ${bits.join(", ")}`);
+  }
+  const now = new Set(after.map((r) => r.label));
+  for (const b of before) if (!now.has(b.label)) out.push(`${b.label}: no longer reported (was ${withUnit(b.value, b.unit)})`);
+  return out;
+}
