@@ -1,18 +1,45 @@
 "use client";
 
-import { useActionState, useState } from "react";
+import { useActionState, useEffect, useState } from "react";
 import { signReportAction, type SignState } from "./actions";
 import { ATTESTATION } from "./schemas";
 
-/** Sign the current draft: the signer's name and an explicit review attestation. */
-export function SignForm(props: { testId: number; reportId: number }) {
+/**
+ * Sign the current draft: the signer's name, an explicit review attestation, and the report text
+ * exactly as it is on screen (hidden fields mirroring the editor), which the server saves and signs
+ * in one step. When the on-screen text has unsaved changes the form says so before signing.
+ */
+export function SignForm(props: {
+  testId: number;
+  reportId: number;
+  sections: { id: string; title: string }[];
+  texts: Record<string, string>;
+  acks: Record<string, boolean>;
+  dirty: boolean;
+  onResult: (state: SignState) => void;
+}) {
   const [state, action, pending] = useActionState<SignState, FormData>(signReportAction, {});
   const [signer, setSigner] = useState(state.values?.signer ?? "");
+  const { onResult } = props;
+  useEffect(() => onResult(state), [state, onResult]);
   const errors = state.errors ?? {};
   return (
     <form action={action} className="stack" data-testid="sign-form">
       <input type="hidden" name="testId" value={props.testId} />
       <input type="hidden" name="reportId" value={props.reportId} />
+      {props.sections.map((s) => (
+        <span key={s.id} hidden>
+          <input type="hidden" name={`title:${s.id}`} value={s.title} />
+          <input type="hidden" name={`section:${s.id}`} value={props.texts[s.id] ?? ""} />
+          {props.acks[s.id] ? <input type="hidden" name={`rechecked:${s.id}`} value="on" /> : null}
+        </span>
+      ))}
+      {props.dirty ? (
+        <p className="sev-warning" data-testid="sign-unsaved-note" style={{ margin: 0 }}>
+          The report text on screen has changes that are not saved yet. Signing saves the text exactly as it is on screen and
+          signs that text; nothing else is signed.
+        </p>
+      ) : null}
       <label>
         Signed by (full name)
         <input
@@ -29,10 +56,19 @@ export function SignForm(props: { testId: number; reportId: number }) {
         <span>{ATTESTATION}</span>
       </label>
       {errors.attest ? <span className="sev-error">{errors.attest}</span> : null}
-      {errors.form ? <span className="sev-error">{errors.form}</span> : null}
+      {errors.text ? (
+        <span className="sev-error" data-testid="sign-error-text">
+          {errors.text}
+        </span>
+      ) : null}
+      {errors.form ? (
+        <span className="sev-error" data-testid="sign-error">
+          {errors.form}
+        </span>
+      ) : null}
       <div>
         <button type="submit" disabled={pending} data-testid="sign-submit">
-          {pending ? "Signing…" : "Sign the report"}
+          {pending ? "Signing…" : props.dirty ? "Save the text on screen and sign" : "Sign the report"}
         </button>
       </div>
     </form>

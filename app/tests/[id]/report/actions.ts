@@ -1,76 +1,79 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
-import { saveDraft, signReport } from "@/lib/store/reports";
-import { ATTESTATION, draftFormSchema, signFormSchema, toParagraphs } from "./schemas";
+import { getReport, saveDraft } from "@/lib/store/reports";
+import { ATTESTATION, draftFormSchema, readSectionsForm, sectionErrors, signFormSchema, toParagraphs } from "./schemas";
+import { mergeRecheck, signDraft } from "./signDraft";
 
 export interface DraftState {
   /** The text as the user sent it, so nothing typed is lost when validation fails. */
   texts?: Record<string, string>;
+  /** Carried-forward sections confirmed as re-checked with this save. */
+  rechecked?: string[];
   errors?: Record<string, string>;
   savedAt?: string;
   /** Set when saving created a new draft version (the report was signed). */
   newVersion?: number;
 }
 
-/** Read `section:<id>` / `title:<id>` fields into the form's section list. */
-function readSections(form: FormData) {
-  const sections: { id: string; title: string; text: string }[] = [];
-  for (const [key, value] of form.entries()) {
-    if (!key.startsWith("section:") || typeof value !== "string") continue;
-    const id = key.slice("section:".length);
-    sections.push({ id, title: String(form.get(`title:${id}`) ?? ""), text: value });
-  }
-  return sections;
-}
-
 export async function saveDraftAction(_prev: DraftState, form: FormData): Promise<DraftState> {
-  const sections = readSections(form);
+  const { sections, rechecked } = readSectionsForm(form);
   const texts = Object.fromEntries(sections.map((s) => [s.id, s.text]));
   const parsed = draftFormSchema.safeParse({ testId: form.get("testId"), reportId: form.get("reportId"), sections });
-  if (!parsed.success) {
-    const errors: Record<string, string> = {};
-    for (const issue of parsed.error.issues) {
-      const key = issue.path[0] === "sections" && typeof issue.path[1] === "number" ? sections[issue.path[1]]?.id : "form";
-      if (key && !errors[key]) errors[key] = issue.message;
-    }
-    return { texts, errors };
-  }
+  if (!parsed.success) return { texts, errors: sectionErrors(parsed.error.issues, sections) };
   const { testId, reportId } = parsed.data;
-  const saved = saveDraft(
-    reportId,
-    parsed.data.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: toParagraphs(s.text) })),
-    "local user",
-  );
-  if (!saved || saved.testId !== testId) return { texts, errors: { form: "This report no longer exists; reload the page." } };
+  const stored = getReport(reportId);
+  if (!stored || stored.testId !== testId) return { texts, errors: { form: "This report no longer exists; reload the page." } };
+  const onScreen = parsed.data.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: toParagraphs(s.text) }));
+  const saved = saveDraft(reportId, mergeRecheck(stored.sections, onScreen, rechecked), "local user");
+  if (!saved) return { texts, errors: { form: "This report no longer exists; reload the page." } };
   revalidatePath(`/tests/${testId}/report`);
-  return { texts, savedAt: new Date().toISOString(), newVersion: saved.id !== reportId ? saved.version : undefined };
+  return { texts, rechecked, savedAt: new Date().toISOString(), newVersion: saved.id !== reportId ? saved.version : undefined };
 }
 
 export interface SignState {
   values?: { signer?: string };
   errors?: Record<string, string>;
   signed?: boolean;
+  /** The on-screen text differed from the stored draft and was saved as part of signing. */
+  textSaved?: boolean;
 }
 
+/**
+ * Sign the report with the text exactly as it is on the reviewer's screen (the sign form carries
+ * it): saved and signed in one transaction by `signDraft`.
+ */
 export async function signReportAction(_prev: SignState, form: FormData): Promise<SignState> {
   const values = { signer: String(form.get("signer") ?? "") };
+  const { sections, rechecked } = readSectionsForm(form);
   const parsed = signFormSchema.safeParse({
     testId: form.get("testId"),
     reportId: form.get("reportId"),
+    sections,
     signer: form.get("signer"),
     attest: form.get("attest") ?? undefined,
   });
   if (!parsed.success) {
     const errors: Record<string, string> = {};
-    for (const issue of parsed.error.issues) {
-      const key = String(issue.path[0] ?? "form");
-      if (!errors[key]) errors[key] = issue.message;
+    const textIssues = parsed.error.issues.filter((i) => i.path[0] === "sections");
+    for (const issue of parsed.error.issues)
+      if (issue.path[0] !== "sections") errors[String(issue.path[0] ?? "form")] ??= issue.message;
+    const first = Object.entries(sectionErrors(textIssues, sections))[0];
+    if (first) {
+      const title = sections.find((s) => s.id === first[0])?.title;
+      errors.text = `Not signed: the report text is not valid${title ? ` in “${title}”` : ""}: ${first[1]}.`;
     }
     return { values, errors };
   }
-  const res = signReport(parsed.data.reportId, parsed.data.signer, ATTESTATION);
-  if (!res.ok) return { values, errors: { form: res.reason } };
+  const res = signDraft({
+    testId: parsed.data.testId,
+    reportId: parsed.data.reportId,
+    signer: parsed.data.signer,
+    attestation: ATTESTATION,
+    sections: parsed.data.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: toParagraphs(s.text) })),
+    rechecked,
+  });
+  if (!res.ok) return { values, errors: res.errors };
   revalidatePath(`/tests/${parsed.data.testId}/report`);
-  return { signed: true };
+  return { signed: true, textSaved: res.textSaved };
 }

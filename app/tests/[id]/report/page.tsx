@@ -2,10 +2,9 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { Chart } from "../../../components/Chart";
 import { IssueList } from "../../../components/IssueList";
-import { DraftEditor } from "./DraftEditor";
+import { DraftWorkspace } from "./DraftWorkspace";
 import { loadReport } from "./loadReport";
 import { ReportValuesTable } from "./ReportValuesTable";
-import { SignForm } from "./SignForm";
 
 export const dynamic = "force-dynamic";
 
@@ -19,6 +18,7 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
   if (!loaded) notFound();
   const { model, report, versions } = loaded;
   const signed = model.status === "signed";
+  const recheck = model.sections.filter((s) => s.recheck);
   const sourceNumber = new Map(model.sources.map((s, i) => [s.id, i + 1]));
 
   return (
@@ -36,6 +36,14 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
           {model.draftMark}
         </p>
       )}
+      {recheck.length ? (
+        <p className="panel sev-warning" data-testid="recheck-banner">
+          <strong>The analysis changed after the text was edited.</strong> Your text in{" "}
+          {recheck.map((s) => `“${s.title}”`).join(", ")} was kept from report version {recheck[0].recheck!.fromVersion}, but the
+          numbers it was written for have changed. Each of these sections is marked below with what changed; re-check it before
+          signing.
+        </p>
+      ) : null}
       <p>
         <a href={`/api/tests/${testId}/report/pdf`} data-testid="pdf-link">
           Download the report as PDF
@@ -125,28 +133,26 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
           ))}
         </section>
       ) : null}
-      <details open={!signed}>
-        <summary>{signed ? "Revise the text (creates a new draft version)" : "Edit the draft text"}</summary>
-        <DraftEditor
-          key={report.id}
-          testId={testId}
-          reportId={report.id}
-          signed={signed}
-          sections={model.sections.map((s) => ({ id: s.id, title: s.title, text: s.paragraphs.join("\n\n") }))}
-        />
-      </details>
-
-      <h2>Signature</h2>
+      <DraftWorkspace
+        key={report.id}
+        testId={testId}
+        reportId={report.id}
+        signed={signed}
+        sections={model.sections.map((s) => ({
+          id: s.id,
+          title: s.title,
+          text: s.paragraphs.join("\n\n"),
+          ...(s.recheck ? { recheck: s.recheck } : {}),
+        }))}
+      />
       {signed ? (
-        <p data-testid="signature">
-          Signed by {model.signedBy} on {when(model.signedAt)}. <span className="how">{report.attestation}</span>
-        </p>
-      ) : (
-        <section className="panel">
-          <p data-testid="signature">Not signed.</p>
-          <SignForm key={report.id} testId={testId} reportId={report.id} />
-        </section>
-      )}
+        <>
+          <h2>Signature</h2>
+          <p data-testid="signature">
+            Signed by {model.signedBy} on {when(model.signedAt)}. <span className="how">{report.attestation}</span>
+          </p>
+        </>
+      ) : null}
 
       <h2>Data quality</h2>
       <IssueList issues={model.issues} />

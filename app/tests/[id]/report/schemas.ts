@@ -22,9 +22,11 @@ export const draftFormSchema = z.object({
 export const ATTESTATION =
   "I have reviewed the data, the values, the charts and the text of this report, and I take clinical responsibility for it as signed.";
 
+/** The sign form: signer, attestation, and the report text exactly as it is on screen. */
 export const signFormSchema = z.object({
   testId: z.coerce.number().int().positive(),
   reportId: z.coerce.number().int().positive(),
+  sections: draftFormSchema.shape.sections,
   signer: z
     .string()
     .trim()
@@ -40,4 +42,42 @@ export function toParagraphs(text: string): string[] {
     .split(/\n\s*\n/)
     .map((p) => p.trim())
     .filter((p) => p.length > 0);
+}
+
+/** One section as sent by the draft or sign form, before validation. */
+export interface SubmittedSection {
+  id: string;
+  title: string;
+  text: string;
+}
+
+/**
+ * Read the report text fields of a form: `section:<id>` (text), `title:<id>` and `rechecked:<id>`
+ * (the reviewer confirmed a carried-forward section against the current values). Sections keep
+ * the order of the form.
+ */
+export function readSectionsForm(form: FormData): { sections: SubmittedSection[]; rechecked: string[] } {
+  const sections: SubmittedSection[] = [];
+  const rechecked: string[] = [];
+  for (const [key, value] of form.entries()) {
+    if (typeof value !== "string") continue;
+    if (key.startsWith("section:")) {
+      const id = key.slice("section:".length);
+      sections.push({ id, title: String(form.get(`title:${id}`) ?? ""), text: value });
+    } else if (key.startsWith("rechecked:") && value === "on") rechecked.push(key.slice("rechecked:".length));
+  }
+  return { sections, rechecked };
+}
+
+/** Validation messages of the section list, keyed by section id ("form" for the list as a whole). */
+export function sectionErrors(
+  issues: readonly { path: readonly PropertyKey[]; message: string }[],
+  sections: SubmittedSection[],
+) {
+  const errors: Record<string, string> = {};
+  for (const issue of issues) {
+    const key = issue.path[0] === "sections" && typeof issue.path[1] === "number" ? sections[issue.path[1]]?.id : "form";
+    if (key && !errors[key]) errors[key] = issue.message;
+  }
+  return errors;
 }
