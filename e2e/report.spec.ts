@@ -6,6 +6,16 @@ class ReportPage {
   constructor(private readonly page: Page) {}
 
   /** Open the invented demo case from the register and go to its report; returns the test id. */
+  /** Open the report of the invented demo case whose register label matches. */
+  async openDemoReportByLabel(label: RegExp): Promise<number> {
+    await this.page.goto("/");
+    await this.page.getByRole("link", { name: label }).click();
+    await this.page.waitForURL(/\/tests\/\d+$/);
+    const id = Number(/\/tests\/(\d+)/.exec(this.page.url())![1]);
+    await this.page.goto(`/tests/${id}/report`);
+    return id;
+  }
+
   async openDemoReport(): Promise<number> {
     await this.page.goto("/");
     await this.page
@@ -63,7 +73,16 @@ test("report: edit the draft, keep text through validation, sign, download the P
   await report.saveDraft();
   await expect(page.getByTestId("section-error-conclusion")).toContainText("at most 4000 characters");
   await expect(report.section("conclusion")).toHaveValue(tooLong);
+  // Unsaved edits: the page flags them and asks before it is left; the reviewer discards them here.
+  await expect(page.getByTestId("draft-unsaved")).toBeVisible();
+  const leave = new Promise<string>((resolve) =>
+    page.once("dialog", (d) => {
+      resolve(d.type());
+      void d.accept();
+    }),
+  );
   await page.reload();
+  expect(await leave).toBe("beforeunload");
   await expect(report.section("conclusion")).toHaveValue(initialConclusion);
 
   // Signing needs the attestation.
@@ -93,4 +112,87 @@ test("report: edit the draft, keep text through validation, sign, download the P
   await expect(page.getByTestId("report-versions")).toContainText("Version 1: signed by Dr E2E Reviewer");
   await expect(page.getByTestId("report-versions")).toContainText("draft");
   expect((await page.request.get(`/api/tests/${testId}/report/pdf?report=999999`)).status()).toBe(404);
+});
+
+test("report: signing signs the text on screen, including edits that were never saved", async ({ page }) => {
+  const report = new ReportPage(page);
+  const testId = await report.openDemoReportByLabel(/COPD, ventilatory limitation/);
+  const typed = "Unsaved conclusion typed just before signing (e2e).";
+  await report.section("conclusion").fill(typed);
+  // No "Save draft": the page says the text is unsaved and that signing saves exactly this text.
+  await expect(page.getByTestId("draft-unsaved")).toBeVisible();
+  await expect(page.getByTestId("sign-unsaved-note")).toContainText("Signing saves the text exactly as it is on screen");
+  await expect(page.getByTestId("sign-submit")).toHaveText("Save the text on screen and sign");
+  await page.screenshot({ path: "reports/screenshots/report-unsaved-before-sign.png", fullPage: true });
+  await report.sign("Dr E2E Signer");
+  await expect(page.getByTestId("signed-by")).toContainText("Signed by Dr E2E Signer");
+  await expect(page.getByTestId("signed-text")).toContainText(typed);
+  // After a reload (nothing unsaved now, so no question) the signed version still holds the typed text.
+  await page.reload();
+  await expect(page.getByTestId("signed-text")).toContainText(typed);
+  await expect(page.getByTestId("draft-mark")).toHaveCount(0);
+  const pdf = await page.request.get(`/api/tests/${testId}/report/pdf`);
+  expect(pdf.status()).toBe(200);
+  expect(pdf.headers()["content-disposition"]).toMatch(/-signed\.pdf/);
+});
+
+/** A threshold as the change list writes it ("not determinable" has no unit). */
+const withMlMin = (v: string) => (/^\d+$/.test(v) ? `${v} mL/min` : v);
+
+test("report: after a threshold override the reviewer's edited text is carried into the new draft with a re-check note", async ({
+  page,
+}) => {
+  const report = new ReportPage(page);
+  const testId = await report.openDemoReportByLabel(/suspected pulmonary vascular/);
+  const mine = "Reviewer's own conclusion written for the first analysis (e2e).";
+  await report.section("conclusion").fill(mine);
+  await report.saveDraft();
+  await expect(page.getByTestId("draft-saved")).toBeVisible();
+  const vt1Before = (
+    await page.getByTestId("report-thresholds").locator("tr", { hasText: "VT1 (AT)" }).locator("td").nth(1).innerText()
+  ).trim();
+
+  // Reviewer override of VT1 on the analysis page: a new analysis version.
+  await page.goto(`/tests/${testId}`);
+  const card = page.getByTestId("threshold-vt1");
+  await card.getByText("set VT1 by hand").click();
+  const vt1New = vt1Before === "1111" ? "1222" : "1111";
+  await card.locator('[name="vo2MlMin"]').fill(vt1New);
+  await card.locator('[name="by"]').fill("E2E Reviewer");
+  await card.locator('[name="reason"]').fill("clear VE/VO2 rise with flat VE/VCO2 at this point");
+  await card.getByRole("button", { name: "Save override" }).click();
+  await expect(card).toContainText("Set by the reviewer (E2E Reviewer)");
+
+  // The new draft keeps the reviewer's conclusion, says the numbers changed and which, and links the earlier version.
+  await page.goto(`/tests/${testId}/report`);
+  await expect(report.section("conclusion")).toHaveValue(mine);
+  await expect(page.getByTestId("recheck-banner")).toContainText("Conclusion");
+  const note = page.getByTestId("recheck-conclusion");
+  await expect(note).toContainText("numbers changed");
+  await expect(page.getByTestId("recheck-changes-conclusion")).toContainText(
+    `VT1 (AT): ${withMlMin(vt1Before)} → ${vt1New} mL/min`,
+  );
+  await expect(note.getByRole("link", { name: /PDF of report version 1/ })).toBeVisible();
+  await page.screenshot({ path: "reports/screenshots/report-carried-forward.png", fullPage: true });
+
+  // Not signable until the section is confirmed as re-checked.
+  await report.sign("Dr E2E Reviewer");
+  await expect(page.getByTestId("sign-error")).toContainText("“Conclusion”");
+  await expect(page.getByTestId("draft-mark")).toBeVisible();
+  await page.getByTestId("rechecked-conclusion").check();
+  await report.sign("Dr E2E Reviewer");
+  await expect(page.getByTestId("signed-by")).toContainText("Signed by Dr E2E Reviewer");
+  await expect(page.getByTestId("signed-text")).toContainText(mine);
+
+  // Removing the override after signing: a new draft again carries the signed text, with the note.
+  await page.goto(`/tests/${testId}`);
+  await page.getByTestId("threshold-vt1").getByRole("button", { name: "Remove override" }).click();
+  await expect(page.getByTestId("threshold-vt1")).not.toContainText("Set by the reviewer");
+  await page.goto(`/tests/${testId}/report`);
+  await expect(page.getByTestId("draft-mark")).toBeVisible();
+  await expect(report.section("conclusion")).toHaveValue(mine);
+  await expect(page.getByTestId("recheck-conclusion")).toContainText("version 2 (signed)");
+  await expect(page.getByTestId("recheck-changes-conclusion")).toContainText(
+    `VT1 (AT): ${vt1New} mL/min → ${withMlMin(vt1Before)}`,
+  );
 });
