@@ -24,8 +24,7 @@ export function DraftWorkspace(props: { testId: number; reportId: number; signed
   // Browsers send line breaks as CRLF: compare texts with line breaks normalised.
   const same = (a = "", b = "") => a.replace(/\r\n?/g, "\n") === b.replace(/\r\n?/g, "\n");
   const dirty =
-    props.sections.some((s) => !same(texts[s.id], saved[s.id])) ||
-    props.sections.some((s) => s.recheck && acks[s.id]);
+    props.sections.some((s) => !same(texts[s.id], saved[s.id])) || props.sections.some((s) => s.recheck && acks[s.id]);
 
   const onSaved = useCallback((t: Record<string, string>) => {
     setSaved(t);
