@@ -5,12 +5,13 @@ import type { Measured } from "@/lib/core";
 import { EQUATIONS } from "@/lib/predicted";
 import { listCutoffChoices } from "@/lib/interpret";
 import { analysisCharts } from "@/lib/report";
-import { renderChartSvg } from "@/lib/report/charts";
 import type { ThresholdEstimate } from "@/lib/thresholds";
-import { displayUnit, formatClock } from "@/lib/units";
+import { displayUnit, formatClock, formatNumber } from "@/lib/units";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { getTest, listAnalysisVersions } from "@/lib/store/tests";
+import { Chart } from "../../components/Chart";
 import { IssueList } from "../../components/IssueList";
+import { TableScroll } from "../../components/TableScroll";
 import { clearOverride } from "./actions";
 import { fmt, HowFound, SourceList } from "./parts/HowFound";
 import { OverrideForm } from "./parts/OverrideForm";
@@ -18,6 +19,21 @@ import { SettingsForm } from "./parts/SettingsForm";
 import { SeverityScale } from "./parts/SeverityScale";
 
 export const dynamic = "force-dynamic";
+
+/** Heart rate is shown in beats per minute everywhere in the app ("1/min" is the canonical unit). */
+const HR_UNIT = "bpm";
+
+/** Decimals of a key value, the same rule as the report (whole mL/min, W and bpm; one decimal otherwise). */
+const keyDecimals = (unit: string) => (unit === "mL/min" || unit === "W" || unit === "1/min" ? 0 : 1);
+
+/** Display unit of a key value: heart rate in bpm, other units as the unit layer writes them. */
+const keyUnit = (key: string, unit: string) => (key === "peakHr" ? HR_UNIT : displayUnit(unit));
+
+/** A number and its unit that never part at a line end ("122 bpm"). */
+const nb = (value: string, unit: string) => `${value}\u00a0${unit}`;
+
+/** Effort criterion outcome in plain words. */
+const OUTCOME_WORD = (o: boolean | null) => (o === true ? "met" : o === false ? "not met" : "not assessable");
 
 const AVERAGING_KEY: Record<string, string> = {
   none: "none",
@@ -66,6 +82,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
   const erg = record.ergometer;
   const p = record.patient;
   const av = result.conditioned.averaging;
+  const effort = result.interpretation.effort;
   const avKey = AVERAGING_KEY[av.kind === "none" ? "none" : `${av.kind}:${av.seconds ?? av.breaths}`] ?? "none";
   const eqOptions = (quantities: string[]) =>
     EQUATIONS.filter(
@@ -114,51 +131,59 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       <section className="panel" data-testid="effort">
         <h3 style={{ marginTop: 0 }}>Test validity and effort</h3>
         <p>
-          <strong>{result.interpretation.effort.label}.</strong> {result.interpretation.effort.text}
+          <strong data-testid="effort-verdict">{effort.label}.</strong>{" "}
+          {effort.peakConclusionsAllowed
+            ? "Peak values are interpreted."
+            : "Peak values are not interpreted; only effort-independent values (VE/VCO2 slope, OUES, VT1) are."}
         </p>
-        <p className="how">
-          Criteria set: {ix.effort.setLabel} — met: {ix.effort.metIds.length > 0 ? ix.effort.metIds.join(", ") : "none"}.
-        </p>
+        <ul className="how" data-testid="effort-criteria">
+          {effort.criteria.map((c) => (
+            <li key={c.ruleId}>
+              {c.outcome === true ? c.label : c.outcome === false ? c.labelFalse : c.label}:{" "}
+              <span className="tag">{OUTCOME_WORD(c.outcome)}</span> — {c.text}
+            </li>
+          ))}
+        </ul>
       </section>
 
       <h2 id="key-results">Key results against predicted</h2>
-      <table data-testid="key-results">
-        <thead>
-          <tr>
-            <th>Measure</th>
-            <th className="num">Measured</th>
-            <th className="num">Predicted</th>
-            <th className="num">% predicted</th>
-            <th>Equation</th>
-            <th>How found</th>
-          </tr>
-        </thead>
-        <tbody>
-          {result.comparisons.map((c) => (
-            <tr key={c.key} data-testid={`row-${c.key}`}>
-              <td>{c.label}</td>
-              <td className="num">
-                {fmt(c.measured, c.measured.unit === "mL/min" ? 0 : 1)} {displayUnit(c.measured.unit)}
-              </td>
-              <td className="num">
-                {c.predicted?.value !== null && c.predicted?.value !== undefined
-                  ? c.predicted.value.toFixed(c.measured.unit === "mL/min" ? 0 : 1)
-                  : "—"}
-                {c.predicted?.lln !== undefined && c.predicted.lln !== null ? (
-                  <div className="how">LLN {c.predicted.lln.toFixed(0)}</div>
-                ) : null}
-              </td>
-              <td className="num">{c.percentPredicted !== null ? `${c.percentPredicted.toFixed(0)} %` : "—"}</td>
-              <td className="how">
-                {c.predicted ? `${c.predicted.equationLabel} (${c.predicted.status})` : "no applicable equation"}
-              </td>
-              <td>
-                <HowFound m={c.measured} />
-              </td>
+      <TableScroll label="Key results against predicted">
+        <table className="wide" data-testid="key-results">
+          <thead>
+            <tr>
+              <th>Measure</th>
+              <th className="num">Measured</th>
+              <th className="num">Predicted</th>
+              <th className="num">% predicted</th>
+              <th>Equation</th>
+              <th>How found</th>
             </tr>
-          ))}
-        </tbody>
-      </table>
+          </thead>
+          <tbody>
+            {result.comparisons.map((c) => (
+              <tr key={c.key} data-testid={`row-${c.key}`}>
+                <td>{c.label}</td>
+                <td className="num">
+                  {fmt(c.measured, keyDecimals(c.measured.unit))} {keyUnit(c.key, c.measured.unit)}
+                </td>
+                <td className="num">
+                  {formatNumber(c.predicted?.value, keyDecimals(c.measured.unit))}
+                  {c.predicted?.lln !== undefined && c.predicted.lln !== null ? (
+                    <div className="how">LLN {formatNumber(c.predicted.lln, keyDecimals(c.measured.unit))}</div>
+                  ) : null}
+                </td>
+                <td className="num">{c.percentPredicted !== null ? `${c.percentPredicted.toFixed(0)} %` : "—"}</td>
+                <td className="how">
+                  {c.predicted ? `${c.predicted.equationLabel} (${c.predicted.status})` : "no applicable equation"}
+                </td>
+                <td>
+                  <HowFound m={c.measured} />
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </TableScroll>
       {result.weightBasis?.actual &&
       result.weightBasis.ideal &&
       (result.weightBasis.changesConclusion || (result.weightBasis.bmiKgM2 ?? 0) >= 30) ? (
@@ -204,131 +229,152 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       </div>
       <details className="panel">
         <summary>Each method&apos;s estimate</summary>
-        <table data-testid="threshold-methods">
-          <thead>
-            <tr>
-              <th>Method</th>
-              <th className="num">VO2 (mL/min)</th>
-              <th className="num">Time</th>
-              <th>Quality</th>
-              <th>Reasons</th>
-            </tr>
-          </thead>
-          <tbody>
-            {result.thresholds.methods.map((m) => (
-              <tr key={m.id}>
-                <td>
-                  {m.which.toUpperCase()} · {m.label}
-                  <SourceList ids={m.sourceIds} />
-                </td>
-                <td className="num">{fmt(m.vo2MlMin)}</td>
-                <td className="num nowrap">{m.timeS !== null ? formatClock(m.timeS) : "—"}</td>
-                <td className="nowrap">{m.quality}</td>
-                <td className="how">{m.reasons.join("; ")}</td>
+        <TableScroll label="Each method's threshold estimate">
+          <table className="wide" data-testid="threshold-methods">
+            <thead>
+              <tr>
+                <th>Method</th>
+                <th className="num">VO2 (mL/min)</th>
+                <th className="num">Time</th>
+                <th>Quality</th>
+                <th>Reasons</th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody>
+              {result.thresholds.methods.map((m) => (
+                <tr key={m.id}>
+                  <td>
+                    {m.which.toUpperCase()} · {m.label}
+                    <SourceList ids={m.sourceIds} />
+                  </td>
+                  <td className="num">{fmt(m.vo2MlMin)}</td>
+                  <td className="num nowrap">{m.timeS !== null ? formatClock(m.timeS) : "—"}</td>
+                  <td className="nowrap">{m.quality}</td>
+                  <td className="how">{m.reasons.join("; ")}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </TableScroll>
       </details>
 
       <h2 id="charts">Charts</h2>
       <div className="grid2" data-testid="charts">
         {charts.map((c) => (
-          <figure
-            key={c.id}
-            style={{ margin: 0 }}
-            className="panel"
-            dangerouslySetInnerHTML={{ __html: renderChartSvg(c, { width: 520, height: 320 }) }}
-          />
+          <Chart key={c.id} spec={c} width={520} height={320} />
         ))}
       </div>
 
       <h2 id="indices">Ventilatory, cardiac and gas-exchange indices</h2>
-      <table data-testid="indices">
-        <tbody>
-          <IndexRow
-            label="VE/VCO2 slope, start of exercise to RCP"
-            m={ix.veVco2.slopeToVt2.slope}
-            d={1}
-            extra={`intercept ${fmt(ix.veVco2.slopeToVt2.intercept, 1)} L/min`}
-          />
-          <IndexRow
-            label="VE/VCO2 slope, whole exercise"
-            m={ix.veVco2.slopeWholeExercise.slope}
-            d={1}
-            extra={`intercept ${fmt(ix.veVco2.slopeWholeExercise.intercept, 1)} L/min`}
-          />
-          <IndexRow label="Lowest VE/VCO2" m={ix.veVco2.nadir} d={1} />
-          <IndexRow label="VE/VCO2 at VT1" m={ix.veVco2.atVt1} d={1} />
-          {ix.oues.fits.map((f) => (
-            <IndexRow key={f.fraction} label={`OUES, first ${Math.round(f.fraction * 100)} % of exercise`} m={f.slope} d={0} />
-          ))}
-          <IndexRow
-            label="ΔVO2/ΔWR on the ramp"
-            m={ix.dVo2dWr.whole.slope}
-            d={1}
-            extra={ix.dVo2dWr.flattening ? "late flattening" : undefined}
-          />
-          <tr>
-            <td>O2 pulse trajectory (last third of exercise)</td>
-            <td className="num">{ix.o2Pulse.pattern ?? "—"}</td>
-            <td>
-              <HowFound m={ix.o2Pulse.finalSlope} />
-            </td>
-          </tr>
-          <IndexRow
-            label={`Breathing reserve (${ix.breathingReserve.mvvLMin.provenance.label})`}
-            m={ix.breathingReserve.reservePercent}
-            d={0}
-            extra={`${fmt(ix.breathingReserve.reserveLMin)} L/min; MVV ${fmt(ix.breathingReserve.mvvLMin)} L/min`}
-          />
-          <IndexRow label="VE/MVV at peak" m={ix.breathingReserve.veMvvPercent} d={0} />
-          <IndexRow label="Heart-rate reserve" m={ix.heartRate.reserveBpm} d={0} />
-          <IndexRow label="Chronotropic index" m={ix.heartRate.chronotropicIndex} d={2} />
-          <IndexRow label="HR recovery at 1 min" m={ix.heartRate.recovery1MinBpm} d={0} />
-          <IndexRow
-            label="SpO2 at rest → lowest"
-            m={ix.spo2.lowestPct}
-            d={0}
-            extra={`rest ${fmt(ix.spo2.restPct)} %, fall ${fmt(ix.spo2.fallPct, 1)} points`}
-          />
-          <IndexRow label="PETCO2 at rest" m={pk.petco2RestMmHg} d={1} extra={`rise to VT1 ${fmt(pk.petco2RiseMmHg, 1)} mmHg`} />
-          {ix.eov.definitions.map((d) => (
-            <tr key={d.id}>
-              <td>Exercise oscillatory ventilation ({d.label})</td>
-              <td className="num">{d.detected === null ? "not assessable" : d.detected ? "present" : "absent"}</td>
+      <TableScroll label="Ventilatory, cardiac and gas-exchange indices">
+        <table data-testid="indices">
+          <tbody>
+            <IndexRow
+              label="VE/VCO2 slope, start of exercise to RCP"
+              m={ix.veVco2.slopeToVt2.slope}
+              d={1}
+              extra={`intercept ${fmt(ix.veVco2.slopeToVt2.intercept, 1)} L/min`}
+            />
+            <IndexRow
+              label="VE/VCO2 slope, whole exercise"
+              m={ix.veVco2.slopeWholeExercise.slope}
+              d={1}
+              extra={`intercept ${fmt(ix.veVco2.slopeWholeExercise.intercept, 1)} L/min`}
+            />
+            <IndexRow label="Lowest VE/VCO2" m={ix.veVco2.nadir} d={1} />
+            <IndexRow label="VE/VCO2 at VT1" m={ix.veVco2.atVt1} d={1} />
+            {ix.oues.fits.map((f) => (
+              <IndexRow key={f.fraction} label={`OUES, first ${Math.round(f.fraction * 100)} % of exercise`} m={f.slope} d={0} />
+            ))}
+            <IndexRow
+              label="ΔVO2/ΔWR on the ramp"
+              m={ix.dVo2dWr.whole.slope}
+              d={1}
+              extra={ix.dVo2dWr.flattening ? "late flattening" : undefined}
+            />
+            <tr>
+              <td>O2 pulse trajectory (last third of exercise)</td>
+              <td className="num">{ix.o2Pulse.pattern ?? "—"}</td>
               <td>
-                <HowFound m={d.detail} />
+                <HowFound m={ix.o2Pulse.finalSlope} />
               </td>
             </tr>
-          ))}
-          {ix.vdVt.map((v) => (
             <IndexRow
-              key={v.timeS}
-              label={`VD/VT at ${v.label ?? formatClock(v.timeS)} (PaCO2 ${v.paCO2MmHg} mmHg)`}
-              m={v.vdVt}
-              d={2}
+              label={`Breathing reserve (${ix.breathingReserve.mvvLMin.provenance.label})`}
+              m={ix.breathingReserve.reservePercent}
+              d={0}
+              extra={`${fmt(ix.breathingReserve.reserveLMin)} L/min; MVV ${fmt(ix.breathingReserve.mvvLMin)} L/min`}
             />
-          ))}
-        </tbody>
-      </table>
+            <IndexRow label="VE/MVV at peak" m={ix.breathingReserve.veMvvPercent} d={0} />
+            <IndexRow label="Heart-rate reserve" m={ix.heartRate.reserveBpm} d={0} unit={HR_UNIT} />
+            <IndexRow label="Chronotropic index" m={ix.heartRate.chronotropicIndex} d={2} />
+            <IndexRow label="HR recovery at 1 min" m={ix.heartRate.recovery1MinBpm} d={0} unit={HR_UNIT} />
+            <IndexRow
+              label="SpO2 at rest → lowest"
+              m={ix.spo2.lowestPct}
+              d={0}
+              extra={`rest ${fmt(ix.spo2.restPct)} %, fall ${fmt(ix.spo2.fallPct, 1)} points`}
+            />
+            <IndexRow label="PETCO2 at rest" m={pk.petco2RestMmHg} d={1} />
+            <IndexRow
+              label="PETCO2 at VT1"
+              m={pk.petco2AtVt1MmHg}
+              d={1}
+              extra={
+                pk.petco2AtVt1MmHg.value !== null && pk.petco2RestMmHg.value !== null
+                  ? `rise from rest ${formatNumber(pk.petco2AtVt1MmHg.value - pk.petco2RestMmHg.value, 1)} mmHg`
+                  : undefined
+              }
+            />
+            <IndexRow
+              label="Highest PETCO2 during exercise"
+              m={pk.petco2PeakMmHg}
+              d={1}
+              extra={
+                pk.petco2RiseMmHg.value !== null
+                  ? `highest exercise value minus rest ${fmt(pk.petco2RiseMmHg, 1)} mmHg`
+                  : undefined
+              }
+            />
+            {ix.eov.definitions.map((d) => (
+              <tr key={d.id}>
+                <td>Exercise oscillatory ventilation ({d.label})</td>
+                <td className="num">{d.detected === null ? "not assessable" : d.detected ? "present" : "absent"}</td>
+                <td>
+                  <HowFound m={d.detail} />
+                </td>
+              </tr>
+            ))}
+            {ix.vdVt.map((v) => (
+              <IndexRow
+                key={v.timeS}
+                label={`VD/VT at ${v.label ?? formatClock(v.timeS)} (PaCO2 ${v.paCO2MmHg} mmHg)`}
+                m={v.vdVt}
+                d={2}
+              />
+            ))}
+          </tbody>
+        </table>
+      </TableScroll>
 
       {ix.lactate ? (
         <>
           <h2>Lactate thresholds</h2>
-          <table data-testid="lactate">
-            <tbody>
-              {ix.lactate.thresholds.map((t) => (
-                <IndexRow
-                  key={t.id}
-                  label={t.intensity.provenance.label}
-                  m={t.intensity}
-                  d={ix.lactate?.axis === "speedKmh" ? 1 : 0}
-                  extra={`lactate ${fmt(t.lactateMmolL, 1)} mmol/L`}
-                />
-              ))}
-            </tbody>
-          </table>
+          <TableScroll label="Lactate thresholds">
+            <table data-testid="lactate">
+              <tbody>
+                {ix.lactate.thresholds.map((t) => (
+                  <IndexRow
+                    key={t.id}
+                    label={t.intensity.provenance.label}
+                    m={t.intensity}
+                    d={ix.lactate?.axis === "speedKmh" ? 1 : 0}
+                    extra={`lactate ${fmt(t.lactateMmolL, 1)} mmol/L`}
+                  />
+                ))}
+              </tbody>
+            </table>
+          </TableScroll>
           <ul>
             {ix.lactate.relations.map((r) => (
               <li key={r.id}>{r.statement}</li>
@@ -338,32 +384,28 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       ) : null}
 
       <h2 id="domains">Intensity domains (for exercise prescription)</h2>
-      <table data-testid="domains">
-        <thead>
-          <tr>
-            <th>Domain</th>
-            <th>Heart rate (1/min)</th>
-            <th>Work rate (W)</th>
-            <th>Speed (km/h)</th>
-          </tr>
-        </thead>
-        <tbody>
-          {ix.domains.domains.map((d) => (
-            <tr key={d.id}>
-              <td>{d.label}</td>
-              <td>
-                {fmt(d.hrBpm.lower)} – {fmt(d.hrBpm.upper)}
-              </td>
-              <td>
-                {fmt(d.workW.lower)} – {fmt(d.workW.upper)}
-              </td>
-              <td>
-                {fmt(d.speedKmh.lower, 1)} – {fmt(d.speedKmh.upper, 1)}
-              </td>
+      <TableScroll label="Intensity domains">
+        <table data-testid="domains">
+          <thead>
+            <tr>
+              <th>Domain</th>
+              <th className="num">Heart rate ({HR_UNIT})</th>
+              <th className="num">Work rate (W)</th>
+              <th className="num">Speed (km/h)</th>
             </tr>
-          ))}
-        </tbody>
-      </table>
+          </thead>
+          <tbody>
+            {ix.domains.domains.map((d) => (
+              <tr key={d.id}>
+                <td>{d.label}</td>
+                <td className="num">{range(d.hrBpm.lower, d.hrBpm.upper, 0)}</td>
+                <td className="num">{range(d.workW.lower, d.workW.upper, 0)}</td>
+                <td className="num">{range(d.speedKmh.lower, d.speedKmh.upper, 1)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </TableScroll>
 
       <h2 id="interpretation">Interpretation path</h2>
       <ol data-testid="interpretation-path">
@@ -385,29 +427,31 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       ) : null}
 
       <h2 id="patterns">Limitation patterns (ranked; never a single diagnosis)</h2>
-      <table data-testid="patterns">
-        <thead>
-          <tr>
-            <th>Pattern</th>
-            <th>Support</th>
-            <th>For</th>
-            <th>Against</th>
-          </tr>
-        </thead>
-        <tbody>
-          {result.interpretation.patterns.map((pt) => (
-            <tr key={pt.patternId}>
-              <td>
-                {pt.statement}
-                <div className="how">evidence: {pt.status}</div>
-              </td>
-              <td>{pt.support}</td>
-              <td className="how">{pt.for.map((f) => outcomeOf(f.text)).join("; ") || "—"}</td>
-              <td className="how">{pt.against.map((f) => outcomeOf(f.text)).join("; ") || "—"}</td>
+      <TableScroll label="Limitation patterns">
+        <table className="wide" data-testid="patterns">
+          <thead>
+            <tr>
+              <th>Pattern</th>
+              <th>Support</th>
+              <th>For</th>
+              <th>Against</th>
             </tr>
-          ))}
-        </tbody>
-      </table>
+          </thead>
+          <tbody>
+            {result.interpretation.patterns.map((pt) => (
+              <tr key={pt.patternId}>
+                <td>
+                  {pt.statement}
+                  <div className="how">evidence: {pt.status}</div>
+                </td>
+                <td className="nowrap">{pt.support.replace(/-/g, " ")}</td>
+                <td className="how">{pt.for.map((f) => outcomeOf(f.text)).join("; ") || "—"}</td>
+                <td className="how">{pt.against.map((f) => outcomeOf(f.text)).join("; ") || "—"}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </TableScroll>
 
       <h2 id="schemes">Published schemes for this referral</h2>
       <div data-testid="schemes">
@@ -479,33 +523,35 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         hrEquations={eqOptions(["hrMaxBpm"])}
         cutoffChoices={listCutoffChoices()}
       />
-      <table data-testid="versions">
-        <thead>
-          <tr>
-            <th>Version</th>
-            <th>When</th>
-            <th>By</th>
-            <th>Note</th>
-          </tr>
-        </thead>
-        <tbody>
-          {versions.map((v) => (
-            <tr key={v.id}>
-              <td>{v.version}</td>
-              <td>{v.createdAt.slice(0, 16).replace("T", " ")}</td>
-              <td>{v.createdBy}</td>
-              <td>{v.note}</td>
-            </tr>
-          ))}
-          {versions.length === 0 ? (
+      <TableScroll label="Analysis versions">
+        <table data-testid="versions">
+          <thead>
             <tr>
-              <td colSpan={4} className="how">
-                Lab default settings (no test-specific version saved yet).
-              </td>
+              <th>Version</th>
+              <th>When</th>
+              <th>By</th>
+              <th>Note</th>
             </tr>
-          ) : null}
-        </tbody>
-      </table>
+          </thead>
+          <tbody>
+            {versions.map((v) => (
+              <tr key={v.id}>
+                <td className="num">{v.version}</td>
+                <td className="nowrap">{v.createdAt.slice(0, 16).replace("T", " ")}</td>
+                <td>{v.createdBy}</td>
+                <td>{v.note}</td>
+              </tr>
+            ))}
+            {versions.length === 0 ? (
+              <tr>
+                <td colSpan={4} className="how">
+                  Lab default settings (no test-specific version saved yet).
+                </td>
+              </tr>
+            ) : null}
+          </tbody>
+        </table>
+      </TableScroll>
     </>
   );
 }
@@ -515,12 +561,22 @@ function outcomeOf(text: string): string {
   return text.split(" → ").pop() ?? text;
 }
 
-function IndexRow({ label, m, d, extra }: { label: string; m: Measured; d: number; extra?: string }) {
+/** A domain's range: "122 – 158", "up to 122" or "from 158" when one end is open, "—" when neither is known. */
+function range(lower: Measured | null | undefined, upper: Measured | null | undefined, decimals: number): string {
+  const lo = fmt(lower, decimals);
+  const hi = fmt(upper, decimals);
+  if (lo === "—" && hi === "—") return "—";
+  if (lo === "—") return `up to ${hi}`;
+  if (hi === "—") return `from ${lo}`;
+  return `${lo} – ${hi}`;
+}
+
+function IndexRow({ label, m, d, extra, unit }: { label: string; m: Measured; d: number; extra?: string; unit?: string }) {
   return (
     <tr>
       <td>{label}</td>
       <td className="num">
-        {fmt(m, d)} {m.value !== null ? displayUnit(m.unit) : ""}
+        {fmt(m, d)} {m.value !== null ? (unit ?? displayUnit(m.unit)) : ""}
         {extra ? <div className="how">{extra}</div> : null}
       </td>
       <td>
@@ -553,14 +609,34 @@ function ThresholdCard({
             {t.vo2MlMin.value.toFixed(0)} <small>mL/min</small>
           </div>
           <p>
-            {fmt(at?.vo2MlKgMin, 1)} mL/kg/min · {fmt(at?.vo2PercentPeak, 0)} % of peak
-            {predVo2 ? ` · ${((100 * t.vo2MlMin.value) / predVo2).toFixed(0)} % of predicted peak` : ""} · HR {fmt(at?.hrBpm)} ·{" "}
-            {fmt(at?.workW)} W · at {t.timeS !== null ? formatClock(t.timeS) : "—"}
+            {[
+              nb(fmt(at?.vo2MlKgMin, 1), "mL/kg/min"),
+              nb(fmt(at?.vo2PercentPeak, 0), "% of peak"),
+              ...(predVo2 ? [nb(((100 * t.vo2MlMin.value) / predVo2).toFixed(0), "% of predicted peak")] : []),
+              `HR\u00a0${nb(fmt(at?.hrBpm), HR_UNIT)}`,
+              nb(fmt(at?.workW), "W"),
+              `at\u00a0${t.timeS !== null ? formatClock(t.timeS) : "—"}`,
+            ].join(" · ")}
           </p>
-          <p>
-            Confidence: <strong data-testid={`confidence-${which}`}>{t.confidence}</strong>
-            {t.band ? ` (band ${t.band.lowMlMin.toFixed(0)}–${t.band.highMlMin.toFixed(0)} mL/min)` : ""}
-          </p>
+          {t.overridden ? (
+            <p data-testid={`set-by-${which}`}>
+              Set by the reviewer ({t.overridden.by}): {t.overridden.reason}
+            </p>
+          ) : (
+            <p>
+              Confidence: <strong data-testid={`confidence-${which}`}>{t.confidence}</strong>
+              {t.band ? (
+                <>
+                  {" "}
+                  <span className="nowrap">
+                    (band {t.band.lowMlMin.toFixed(0)}–{t.band.highMlMin.toFixed(0)} mL/min)
+                  </span>
+                </>
+              ) : (
+                ""
+              )}
+            </p>
+          )}
         </>
       ) : (
         <p>
@@ -569,8 +645,12 @@ function ThresholdCard({
       )}
       {t.overridden ? (
         <div className="sev-warning" style={{ padding: "0.4rem" }}>
-          Set by the reviewer ({t.overridden.by}): {t.overridden.reason}. Automatic estimate was{" "}
-          {t.overridden.automatic.vo2MlMin?.toFixed(0) ?? "not determinable"} mL/min.
+          {t.vo2MlMin.value === null
+            ? `Set by the reviewer (${t.overridden.by}): ${t.overridden.reason}. `
+            : "Reviewer override. "}
+          {t.overridden.automatic.vo2MlMin !== null
+            ? `Automatic estimate was ${formatNumber(t.overridden.automatic.vo2MlMin, 0)} mL/min (confidence ${t.overridden.automatic.confidence}).`
+            : "The automatic estimate was not determinable."}
           <form action={clearOverride}>
             <input type="hidden" name="testId" value={testId} />
             <input type="hidden" name="which" value={which} />
@@ -588,26 +668,28 @@ function ThresholdCard({
 
 function ColumnTable({ columns }: { columns: import("@/lib/breath").ColumnDecision[] }) {
   return (
-    <table data-testid="column-decisions">
-      <thead>
-        <tr>
-          <th>Column in file</th>
-          <th>Read as</th>
-          <th>Why</th>
-        </tr>
-      </thead>
-      <tbody>
-        {columns.map((c) => (
-          <tr key={c.index}>
-            <td>{c.header}</td>
-            <td>
-              {c.field ?? "ignored"}
-              {c.unit ? ` (${c.unit})` : ""}
-            </td>
-            <td className="how">{c.reason}</td>
+    <TableScroll label="How each column of the file was read">
+      <table data-testid="column-decisions">
+        <thead>
+          <tr>
+            <th>Column in file</th>
+            <th>Read as</th>
+            <th>Why</th>
           </tr>
-        ))}
-      </tbody>
-    </table>
+        </thead>
+        <tbody>
+          {columns.map((c) => (
+            <tr key={c.index}>
+              <td>{c.header}</td>
+              <td>
+                {c.field ?? "ignored"}
+                {c.unit ? ` (${c.field === "hrBpm" && c.unit === "1/min" ? HR_UNIT : c.unit})` : ""}
+              </td>
+              <td className="how">{c.reason}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </TableScroll>
   );
 }
