@@ -1,10 +1,14 @@
 import Link from "next/link";
 import { z } from "zod";
 import { analyse } from "@/lib/analysis";
-import { compareTests, INTERPRETATION_DATA } from "@/lib/interpret";
+import type { Patient } from "@/lib/core";
+import { compareTests, INTERPRETATION_DATA, variableInfo, type ReferralQuestion, type SerialItem } from "@/lib/interpret";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { effectiveSettings, getTest, listTests } from "@/lib/store/tests";
+import { formatNumber } from "@/lib/units";
+import { TableScroll } from "../components/TableScroll";
 import { SourceList } from "../tests/[id]/parts/HowFound";
+import { samePatientCheck } from "./samePatientCheck";
 
 export const dynamic = "force-dynamic";
 
@@ -12,7 +16,15 @@ const querySchema = z.object({
   before: z.coerce.number().int().positive().optional(),
   after: z.coerce.number().int().positive().optional(),
   population: z.string().optional(),
+  samePatient: z.literal("confirmed").optional(),
 });
+
+/**
+ * The noise-band population taken when the user has not chosen one: only where both tests' referral
+ * names it (heart-failure referral → heart-failure test–retest data). Otherwise the user chooses; the
+ * page never judges a change against another population's noise without saying so.
+ */
+const POPULATION_FOR_REFERRAL: Partial<Record<ReferralQuestion, string>> = { "heart-failure": "heart-failure" };
 
 function TestSelect({
   name,
@@ -40,6 +52,26 @@ function TestSelect({
   );
 }
 
+function patientWords(p: Patient): string {
+  return [
+    p.sex ?? "sex not given",
+    p.ageY !== undefined ? `${p.ageY} y` : "age not given",
+    p.heightCm !== undefined ? `${p.heightCm} cm` : "height not given",
+    p.weightKg !== undefined ? `${p.weightKg} kg` : "weight not given",
+  ].join(", ");
+}
+
+/** A variable's value with the same decimals as everywhere else (the interpretation layer's variable table). */
+function shown(variable: string, v: number | null): string {
+  return formatNumber(v, variableInfo(variable).decimals ?? 0);
+}
+
+const VERDICT_WORDS: Record<SerialItem["verdict"], string> = {
+  "beyond-noise": "beyond measurement noise",
+  "within-noise": "within measurement noise",
+  "not-judged": "not judged",
+};
+
 /** Two tests of one patient side by side; each change judged against published test–retest variability. */
 export default async function ComparePage({
   searchParams,
@@ -50,18 +82,35 @@ export default async function ComparePage({
   const q = parsed.success ? parsed.data : {};
   const tests = listTests().filter((t) => t.status === "imported");
   const populations = INTERPRETATION_DATA.variability.populations;
-  const population = q.population && populations.some((p) => p.id === q.population) ? q.population : populations[0]?.id;
   const labDefaults = getLabDefaults();
   const a = q.before ? getTest(q.before) : null;
   const b = q.after ? getTest(q.after) : null;
+  const ra = a?.record ?? null;
+  const rb = b?.record ?? null;
+  const referralDefault =
+    ra && rb && ra.referral === rb.referral ? (POPULATION_FOR_REFERRAL[ra.referral] ?? undefined) : undefined;
+  const chosen = q.population && populations.some((p) => p.id === q.population) ? q.population : undefined;
+  const population = chosen ?? referralDefault;
+  const populationLabel = populations.find((p) => p.id === population)?.label;
+  const check = ra && rb ? samePatientCheck(ra.patient, rb.patient) : null;
+  const mismatch = (check?.differences.length ?? 0) > 0;
+  const confirmed = q.samePatient === "confirmed";
+  // Verdicts are shown only for a chosen population and for tests that look like one patient (or that the
+  // user has confirmed are one patient despite a differing detail).
+  const judge = Boolean(population) && (!mismatch || confirmed);
   const comparison =
-    a?.record && b?.record && population
+    ra && rb && a && b
       ? compareTests(
-          analyse(a.record, effectiveSettings(a.id, labDefaults)).interpretInput,
-          analyse(b.record, effectiveSettings(b.id, labDefaults)).interpretInput,
-          population,
+          analyse(ra, effectiveSettings(a.id, labDefaults)).interpretInput,
+          analyse(rb, effectiveSettings(b.id, labDefaults)).interpretInput,
+          population ?? "",
         )
       : null;
+  const issues = (comparison?.issues ?? []).filter((i) => population || i.code !== "unknown-variability-population");
+  const notJudgedWhy = !population
+    ? "not judged: choose the population for the noise bands"
+    : "not judged: the tests may be of different patients";
+
   return (
     <>
       <h1>Compare two tests</h1>
@@ -74,7 +123,8 @@ export default async function ComparePage({
         <TestSelect name="after" label="Later test" tests={tests} value={q.after} />
         <label>
           Population for the noise bands
-          <select name="population" defaultValue={population}>
+          <select name="population" defaultValue={population ?? ""}>
+            {population ? null : <option value="">choose the population…</option>}
             {populations.map((p) => (
               <option key={p.id} value={p.id}>
                 {p.label}
@@ -82,55 +132,106 @@ export default async function ComparePage({
             ))}
           </select>
         </label>
+        {mismatch ? (
+          <label style={{ display: "flex", gap: "0.4rem", alignItems: "center" }}>
+            <input type="checkbox" name="samePatient" value="confirmed" defaultChecked={confirmed} />I have checked: both tests
+            are of the same patient
+          </label>
+        ) : null}
         <button type="submit">Compare</button>
       </form>
-      {comparison ? (
+      {comparison && ra && rb && check ? (
         <section data-testid="comparison">
+          <p className="how" data-testid="compare-patients">
+            Earlier test: {patientWords(ra.patient)} · later test: {patientWords(rb.patient)}
+            {check.unchecked.length > 0 ? ` · not checked for sameness (missing in a test): ${check.unchecked.join(", ")}` : ""}
+          </p>
+          {mismatch ? (
+            <div className="panel sev-error" role="alert" data-testid="patient-mismatch">
+              <strong>These two tests may not be of the same patient.</strong>
+              <ul style={{ margin: "0.3rem 0" }}>
+                {check.differences.map((d) => (
+                  <li key={d.field}>{d.text}</li>
+                ))}
+              </ul>
+              {confirmed ? (
+                <p style={{ margin: 0 }}>
+                  You confirmed both tests are of the same patient: changes are judged below. Correct the patient details of the
+                  wrong test if one was entered in error.
+                </p>
+              ) : (
+                <p style={{ margin: 0 }}>
+                  Test–retest noise describes repeat tests of one person, so the changes below are not judged against measurement
+                  noise. Choose two tests of one patient, or confirm above that they are the same patient.
+                </p>
+              )}
+            </div>
+          ) : null}
           <p>
-            Effort: earlier {comparison.effort.before}, later {comparison.effort.after}
+            Effort: earlier {comparison.effort.before.replace(/-/g, " ")}, later {comparison.effort.after.replace(/-/g, " ")}
             {comparison.effort.comparable ? "" : " — peak values are not judged because the tests are not both maximal"}.
           </p>
-          <table>
-            <thead>
-              <tr>
-                <th>Variable</th>
-                <th className="num">Earlier</th>
-                <th className="num">Later</th>
-                <th className="num">Change</th>
-                <th>Verdict</th>
-                <th>Noise band used</th>
-              </tr>
-            </thead>
-            <tbody>
-              {comparison.items.map((it) => (
-                <tr key={it.variable}>
-                  <td>
-                    {it.label} {it.unit ? <span className="how">({it.unit})</span> : null}
-                  </td>
-                  <td className="num">{it.before?.toFixed(1) ?? "—"}</td>
-                  <td className="num">{it.after?.toFixed(1) ?? "—"}</td>
-                  <td className="num">
-                    {it.change !== null ? `${it.change > 0 ? "+" : ""}${it.change.toFixed(1)}` : "—"}
-                    {it.changePct !== null ? <div className="how">{it.changePct.toFixed(0)} %</div> : null}
-                  </td>
-                  <td>
-                    {it.verdict === "beyond-noise"
-                      ? "beyond measurement noise"
-                      : it.verdict === "within-noise"
-                        ? "within measurement noise"
-                        : "not judged"}
-                  </td>
-                  <td className="how">
-                    {it.text}
-                    {it.noise ? <SourceList ids={it.noise.sourceIds} /> : null}
-                  </td>
+          <p data-testid="compare-population">
+            Noise bands:{" "}
+            {populationLabel ? (
+              <>
+                <strong>{populationLabel}</strong>
+                {chosen ? "" : " (taken from both tests' referral; choose another above)"}
+              </>
+            ) : (
+              <strong>no population chosen — choose one above to judge the changes</strong>
+            )}
+          </p>
+          <TableScroll label="Changes between the two tests">
+            <table className="wide">
+              <thead>
+                <tr>
+                  <th>Variable</th>
+                  <th className="num">Earlier</th>
+                  <th className="num">Later</th>
+                  <th className="num">Change</th>
+                  <th>Verdict</th>
+                  <th>Noise band used</th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
-          {comparison.issues.length > 0 ? (
+              </thead>
+              <tbody>
+                {comparison.items.map((it) => (
+                  <tr key={it.variable} data-testid={`compare-${it.variable}`}>
+                    <td>
+                      {it.label} {it.unit ? <span className="how">({it.unit})</span> : null}
+                    </td>
+                    <td className="num">{shown(it.variable, it.before)}</td>
+                    <td className="num">{shown(it.variable, it.after)}</td>
+                    <td className="num">
+                      {it.change !== null ? `${it.change > 0 ? "+" : ""}${shown(it.variable, it.change)}` : "—"}
+                      {it.changePct !== null ? (
+                        <div className="how">{`${it.changePct > 0 ? "+" : ""}${it.changePct.toFixed(0)} %`}</div>
+                      ) : null}
+                    </td>
+                    <td data-testid="verdict">
+                      {judge ? (
+                        <>
+                          {VERDICT_WORDS[it.verdict]}
+                          {it.noise ? <div className="how">population: {it.noise.population}</div> : null}
+                        </>
+                      ) : it.change !== null ? (
+                        notJudgedWhy
+                      ) : (
+                        "not judged"
+                      )}
+                    </td>
+                    <td className="how">
+                      {judge || it.change === null ? it.text : "—"}
+                      {judge && it.noise ? <SourceList ids={it.noise.sourceIds} /> : null}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </TableScroll>
+          {issues.length > 0 ? (
             <ul className="how">
-              {comparison.issues.map((i, k) => (
+              {issues.map((i, k) => (
                 <li key={k}>{i.message}</li>
               ))}
             </ul>
