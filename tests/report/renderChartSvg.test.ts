@@ -194,7 +194,7 @@ describe("standard chart builders", () => {
     const tc = timeCourseChart({ timeS, vo2MlMin: [300, 800, 1200, 1600], hrBpm: [70, 90, 110, 130], workW: [0, 25, 50, 75] });
     expect(tc.series.map((s) => s.name)).toEqual(["VO2", "Heart rate", "Work rate"]);
     // HR and work go on the right axis, from 0, against time in minutes (0, 60, 120, 180 s → 0, 1, 2, 3 min)
-    expect(tc.y2).toEqual({ label: "Heart rate and work rate", unit: "beats/min, W", min: 0 });
+    expect(tc.y2).toEqual({ label: "Heart rate and work rate", unit: "bpm, W", min: 0 });
     expect(tc.series[1]).toMatchObject({
       axis: "y2",
       points: [
@@ -207,7 +207,7 @@ describe("standard chart builders", () => {
     // the drawn SVG carries the right-axis title (label and unit) and marks both series as right-axis in the legend
     const svg = renderChartSvg(tc);
     checkWellFormed(svg);
-    expect(svg).toMatch(/transform="rotate\(90 [^"]*"[^>]*>Heart rate and work rate \(beats\/min, W\)<\/text>/);
+    expect(svg).toMatch(/transform="rotate\(90 [^"]*"[^>]*>Heart rate and work rate \(bpm, W\)<\/text>/);
     expect(svg).toContain(">Heart rate (right axis)</text>");
     expect(svg).toContain(">Work rate (right axis)</text>");
     const noRight = timeCourseChart({ timeS, vo2MlMin: [300, 800, 1200, 1600] });

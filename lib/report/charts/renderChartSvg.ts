@@ -192,14 +192,15 @@ export function renderChartSvg(spec: ChartSpec, opts: RenderChartOptions = {}): 
     `<text x="8" y="17" ${FONT} font-size="13" font-weight="bold" fill="${AXIS_INK}">${escapeXml(spec.title)}</text>`,
   );
 
-  // Bands behind everything.
+  // Bands behind everything; their labels are drawn after the data (with a white halo) so points never hide them.
+  const bandLabels: string[] = [];
   for (const b of spec.bands ?? []) {
     const a = Math.max(left, Math.min(right, x(Math.min(b.from, b.to))));
     const z = Math.max(left, Math.min(right, x(Math.max(b.from, b.to))));
     if (z - a <= 0) continue;
     out.push(`<rect x="${fmt(a)}" y="${fmt(top)}" width="${fmt(z - a)}" height="${fmt(bottom - top)}" fill="${BAND_FILL}"/>`);
-    out.push(
-      `<text x="${fmt((a + z) / 2)}" y="${fmt(bottom - 5)}" ${FONT} font-size="8" text-anchor="middle" fill="${MUTED_INK}">${escapeXml(b.label)}</text>`,
+    bandLabels.push(
+      `<text x="${fmt((a + z) / 2)}" y="${fmt(bottom - 5)}" ${FONT} font-size="8" text-anchor="middle" fill="${MUTED_INK}" stroke="#ffffff" stroke-width="3" paint-order="stroke">${escapeXml(b.label)}</text>`,
     );
   }
 
@@ -297,6 +298,8 @@ export function renderChartSvg(spec: ChartSpec, opts: RenderChartOptions = {}): 
       }
     }
   });
+
+  out.push(...bandLabels);
 
   // Threshold markers.
   spec.markers.forEach((m, i) => {

@@ -9,7 +9,7 @@ export interface TimeCourseChartInput {
   vo2MlMin: readonly MaybeNumber[];
   /** VCO2, mL/min (left axis). */
   vco2MlMin?: readonly MaybeNumber[];
-  /** Heart rate, beats/min (right axis). */
+  /** Heart rate, bpm (right axis). */
   hrBpm?: readonly MaybeNumber[];
   /** Work rate, W (right axis). */
   workW?: readonly MaybeNumber[];
@@ -40,7 +40,7 @@ export function timeCourseChart(input: TimeCourseChartInput): ChartSpec {
     title: "Time course",
     x: { label: "Time", unit: "min" },
     y: { label: "VO2 and VCO2", unit: "mL/min" },
-    ...(hasRight ? { y2: { label: "Heart rate and work rate", unit: "beats/min, W", min: 0 } } : {}),
+    ...(hasRight ? { y2: { label: "Heart rate and work rate", unit: "bpm, W", min: 0 } } : {}),
     series: all,
     markers: thresholdMarkers(input.vt1TimeS, input.vt2TimeS, min),
     bands,
