@@ -9,6 +9,7 @@ import {
   PLAUSIBLE_RANGE,
   PLAUSIBLE_VO2_PER_KG,
 } from "./inferColumnUnit";
+import { checkPhysiologicalLimits } from "./checkPhysiologicalLimits";
 import { columnMappingSchema, type ColumnMapping, type ColumnOverride } from "./mappingProfile";
 import { isBlankCell, isClockCell, parseClock, parseNumberCell } from "./parseCell";
 import type { Cell } from "./parseDelimited";
@@ -608,6 +609,20 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
   const decisions = columns.map((c) => c.decision);
   if (issues.some((x) => x.severity === "error"))
     return { table: null, columns: decisions, issues, format, events: placedEvents, weight };
+  // values kept but beyond physiological plausibility, and recordings too short to hold a test (warnings)
+  const headerOf = (t: Target) => byTarget.get(t)?.decision.header;
+  issues.push(
+    ...checkPhysiologicalLimits(built, {
+      shape,
+      ...(weight ? { weightKg: weight.kg } : {}),
+      headers: {
+        vo2MlMin: headerOf("vo2MlMin") ?? headerOf("vo2MlKgMin"),
+        vo2MlKgMin: headerOf("vo2MlKgMin") ?? headerOf("vo2MlMin"),
+        veLMin: headerOf("veLMin"),
+        hrBpm: headerOf("hrBpm"),
+      },
+    }),
+  );
   const fields = new Set<NumericField | "phase">();
   for (const r of built) {
     for (const k of Object.keys(r)) if (k !== "sourceRow" && k !== "vo2MlKgMin") fields.add(k as NumericField | "phase");

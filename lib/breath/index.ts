@@ -10,3 +10,5 @@ export * from "./importBreathFile";
 export * from "./importLactateFile";
 export * from "./importBloodGasFile";
 export * from "./parseSpirometry";
+export * from "./checkPhysiologicalLimits";
+export * from "./sources";

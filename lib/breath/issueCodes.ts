@@ -53,6 +53,11 @@ export const BREATH_ISSUE_CODES = {
   "rer-implausible": { severity: "warning", meaning: "the typical VCO2/VO2 ratio lies outside 0.6–1.6" },
   "ve-vo2-implausible": { severity: "warning", meaning: "the typical VE/VO2 ratio lies outside 10–100" },
   "too-few-rows": { severity: "error", meaning: "too few usable rows" },
+  "beyond-physiological-limit": {
+    severity: "warning",
+    meaning: "values kept but beyond physiological plausibility (e.g. VO2 > 7000 mL/min); check the column and its unit",
+  },
+  "short-recording": { severity: "warning", meaning: "the recording is shorter than an exercise test's incremental phase" },
   "stage-table": { severity: "info", meaning: "rows were read as stages, not breaths" },
   "bad-option": { severity: "warning", meaning: "an import option was not valid and was ignored" },
   "no-lactate-column": { severity: "error", meaning: "no lactate column" },
