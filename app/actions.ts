@@ -3,7 +3,7 @@
 import { redirect } from "next/navigation";
 import { buildRecord } from "@/lib/analysis";
 import { getProfile } from "@/lib/store/profiles";
-import { recordImportChoices } from "@/lib/store/reimport";
+import { recordImportChoices, recordUploadDetails } from "@/lib/store/reimport";
 import { getUploadBytes, saveTest, saveUpload } from "@/lib/store/tests";
 import { fieldErrors, testDetailsSchema } from "./schemas";
 
@@ -46,15 +46,17 @@ export async function uploadTest(_prev: UploadState, form: FormData): Promise<Up
   const stored = getUploadBytes(uploadId);
   if (!stored) return { errors: { file: "The kept file could not be found; upload it again." }, values };
   const bytes = new Uint8Array(stored.bytes);
+  const patient = {
+    sex: d.sex === "" ? undefined : d.sex,
+    ageY: d.ageY,
+    heightCm: d.heightCm,
+    weightKg: d.weightKg,
+  };
+  const spirometry = d.fev1L !== undefined || d.mvvLMin !== undefined ? { fev1L: d.fev1L, mvvLMin: d.mvvLMin } : undefined;
   const built = await buildRecord({
     bytes,
     fileName: stored.fileName,
-    patient: {
-      sex: d.sex === "" ? undefined : d.sex,
-      ageY: d.ageY,
-      heightCm: d.heightCm,
-      weightKg: d.weightKg,
-    },
+    patient,
     ergometer: d.ergometer,
     referral: d.referral,
     importOptions: {
@@ -62,9 +64,7 @@ export async function uploadTest(_prev: UploadState, form: FormData): Promise<Up
       ...(d.weightKg !== undefined ? { weightKg: d.weightKg } : {}),
     },
   });
-  if (built.record && (d.fev1L !== undefined || d.mvvLMin !== undefined)) {
-    built.record.spirometry = { fev1L: d.fev1L, mvvLMin: d.mvvLMin };
-  }
+  if (built.record && spirometry) built.record.spirometry = spirometry;
   const id = saveTest({
     uploadId,
     label: d.label || stored.fileName,
@@ -73,6 +73,9 @@ export async function uploadTest(_prev: UploadState, form: FormData): Promise<Up
     issues: built.issues,
     actor: "local user",
   });
+  // A refused file has no record to hold the details entered with it: keep them for when it becomes usable.
+  if (!built.record)
+    recordUploadDetails(id, { patient, ergometer: d.ergometer, referral: d.referral, ...(spirometry ? { spirometry } : {}) });
   if (profile) recordImportChoices(id, { mapping: profile.mapping, profileName: profile.name, weightKg: d.weightKg });
   redirect(`/tests/${id}`);
 }

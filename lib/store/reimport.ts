@@ -1,7 +1,7 @@
 import "server-only";
-import type { TestRecord } from "../analysis";
+import type { ReferralQuestion, TestRecord } from "../analysis";
 import { columnMappingSchema, type ColumnDecision, type ColumnMapping } from "../breath";
-import type { Issue } from "../core";
+import type { Ergometer, Issue, Patient, Spirometry } from "../core";
 import { getDb } from "./db";
 import { audit } from "./tests";
 
@@ -19,10 +19,22 @@ export interface ImportChoices {
   profileName?: string;
 }
 
+/**
+ * Patient and test details entered with an upload whose file was refused. A refused test has no record to
+ * hold them, so they are kept beside the import and used when the file becomes usable.
+ */
+export interface UploadDetails {
+  patient: Patient;
+  ergometer: Ergometer;
+  referral: ReferralQuestion;
+  spirometry?: Spirometry;
+}
+
 interface ImportJson {
   columns: ColumnDecision[];
   issues: Issue[];
   choices?: ImportChoices;
+  details?: UploadDetails;
 }
 
 function readImportJson(testId: number): ImportJson | null {
@@ -48,6 +60,36 @@ export function recordImportChoices(testId: number, choices: ImportChoices, acto
   if (choices.profileName) audit(actor, "mapping-profile-applied", testId, choices.profileName);
 }
 
+/** Keep the details entered with an upload that was refused (see `UploadDetails`). */
+export function recordUploadDetails(testId: number, details: UploadDetails, actor = "local user"): void {
+  const current = readImportJson(testId);
+  if (!current) return;
+  getDb()
+    .prepare("update tests set import_json = ? where id = ?")
+    .run(JSON.stringify({ ...current, details }), testId);
+  audit(actor, "upload-details-kept", testId, describeDetails(details));
+}
+
+/** The details entered with a refused upload; null when none were kept (or the test is unknown). */
+export function getUploadDetails(testId: number): UploadDetails | null {
+  const d = readImportJson(testId)?.details;
+  if (!d || typeof d !== "object" || typeof d.patient !== "object" || d.patient === null) return null;
+  return d;
+}
+
+/** "male, 45 y, 178 cm, 75 kg, cycle, general" (missing ones as "?"). */
+export function describeDetails(d: UploadDetails): string {
+  const p = d.patient;
+  return [
+    p.sex ?? "sex ?",
+    `${p.ageY ?? "?"} y`,
+    `${p.heightCm ?? "?"} cm`,
+    `${p.weightKg ?? "?"} kg`,
+    d.ergometer,
+    d.referral,
+  ].join(", ");
+}
+
 /**
  * Replace a test's reading of its kept file after a re-read with new choices: record (null = the file
  * still cannot be used), column decisions, issues and the choices. The status follows the record
@@ -63,7 +105,13 @@ export function replaceImport(
     .run(
       input.record ? "imported" : "refused",
       input.record ? JSON.stringify(input.record) : null,
-      JSON.stringify({ columns: input.columns, issues: input.issues, choices: input.choices }),
+      JSON.stringify({
+        columns: input.columns,
+        issues: input.issues,
+        choices: input.choices,
+        // details entered with a refused upload stay until the file becomes usable (then the record holds them)
+        ...(input.record ? {} : { details: readImportJson(testId)?.details }),
+      }),
       testId,
     );
   if (info.changes === 0) return false;

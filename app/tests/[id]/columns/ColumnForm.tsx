@@ -3,6 +3,7 @@
 import Link from "next/link";
 import { useActionState, useState } from "react";
 import type { Issue } from "@/lib/core";
+import type { UploadDetails } from "@/lib/store/reimport";
 import { applyColumnChoices, type ColumnFormState } from "./actions";
 import type { FieldOption } from "./fieldChoices";
 import type { ColumnRowView } from "./loadColumnReview";
@@ -20,8 +21,10 @@ export interface ColumnFormProps {
   /** The file has no time column: its rows are read as consecutive stages, this many seconds apart. */
   stageOrder: boolean;
   stageDurationS: number | undefined;
-  /** Refused tests have no stored patient details; the form asks for them. */
+  /** Refused tests have no record: the form shows the details entered with the upload, to check before re-reading. */
   refused: boolean;
+  /** Details entered with the refused upload (null when none were kept). */
+  details: UploadDetails | null;
 }
 
 export function ColumnForm(props: ColumnFormProps) {
@@ -36,7 +39,20 @@ export function ColumnForm(props: ColumnFormProps) {
 
 function ColumnFormBody(props: ColumnFormProps & { state: ColumnFormState; pending: boolean }) {
   const { state, pending } = props;
-  const v = state.values ?? {};
+  const kept = props.details;
+  // What the user sent last wins; else the details kept with the refused upload.
+  const v: Record<string, string> = {
+    ...(kept
+      ? {
+          sex: kept.patient.sex ?? "",
+          ageY: kept.patient.ageY !== undefined ? String(kept.patient.ageY) : "",
+          heightCm: kept.patient.heightCm !== undefined ? String(kept.patient.heightCm) : "",
+          ergometer: kept.ergometer,
+          referral: kept.referral,
+        }
+      : {}),
+    ...state.values,
+  };
   const err = state.errors ?? {};
   const fieldByKey = new Map(props.fields.map((f) => [f.value as string, f]));
   return (
@@ -118,11 +134,14 @@ function ColumnFormBody(props: ColumnFormProps & { state: ColumnFormState; pendi
 
       {props.refused ? (
         <fieldset className="panel">
-          <legend>Patient and test details (the upload was refused, so they were not kept)</legend>
+          <legend>
+            Patient and test details{" "}
+            {kept ? "(as entered with the upload; check them before re-reading)" : "(none were kept with this upload)"}
+          </legend>
           <div className="row">
             <label className={styles.label}>
               Sex
-              <select name="sex" defaultValue={v.sex ?? ""}>
+              <select name="sex" defaultValue={v.sex ?? ""} data-testid="refused-sex">
                 <option value="">not given</option>
                 <option value="male">male</option>
                 <option value="female">female</option>
@@ -130,11 +149,18 @@ function ColumnFormBody(props: ColumnFormProps & { state: ColumnFormState; pendi
             </label>
             <label className={styles.label}>
               Age (years)
-              <input name="ageY" type="number" step="any" size={5} defaultValue={v.ageY ?? ""} />
+              <input name="ageY" type="number" step="any" size={5} defaultValue={v.ageY ?? ""} data-testid="refused-age" />
             </label>
             <label className={styles.label}>
               Height (cm)
-              <input name="heightCm" type="number" step="any" size={5} defaultValue={v.heightCm ?? ""} />
+              <input
+                name="heightCm"
+                type="number"
+                step="any"
+                size={5}
+                defaultValue={v.heightCm ?? ""}
+                data-testid="refused-height"
+              />
             </label>
             <ErgometerReferralFields values={v} labelClassName={styles.label} />
           </div>

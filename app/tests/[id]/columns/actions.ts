@@ -8,7 +8,7 @@ import { importBreathFile, parseUnitText, UNIT_KEYS_BY_FIELD, type ColumnMapping
 import { readTableLayout } from "@/lib/breath/readTableLayout";
 import type { Issue } from "@/lib/core";
 import { saveProfile } from "@/lib/store/profiles";
-import { getImportChoices, replaceImport, type ImportChoices } from "@/lib/store/reimport";
+import { getImportChoices, getUploadDetails, replaceImport, type ImportChoices } from "@/lib/store/reimport";
 import { getTest, getUploadBytes } from "@/lib/store/tests";
 import { fieldErrors, testDetailsSchema } from "../../../schemas";
 import { FIELD_LABEL, unitOptions, type FieldKey } from "./fieldChoices";
@@ -160,7 +160,9 @@ export async function applyColumnChoices(_prev: ColumnFormState, form: FormData)
     };
   }
 
-  // Re-read. A refused test has no stored patient details: take them from this form.
+  // Re-read. A refused test has no record: its details come from this form, which shows the ones kept with the
+  // upload (spirometry entered with the upload is not on this form and is taken from what was kept).
+  const kept = test.record ? null : getUploadDetails(testId);
   let patient: TestRecord["patient"];
   let ergometer: TestRecord["ergometer"];
   let referral: TestRecord["referral"];
@@ -171,7 +173,13 @@ export async function applyColumnChoices(_prev: ColumnFormState, form: FormData)
   } else {
     const d = testDetailsSchema.safeParse(values);
     if (!d.success) return keep(fieldErrors(d.error));
-    patient = { sex: d.data.sex === "" ? undefined : d.data.sex, ageY: d.data.ageY, heightCm: d.data.heightCm, weightKg };
+    patient = {
+      ...kept?.patient,
+      sex: d.data.sex === "" ? undefined : d.data.sex,
+      ageY: d.data.ageY,
+      heightCm: d.data.heightCm,
+      weightKg,
+    };
     ergometer = d.data.ergometer;
     referral = d.data.referral;
   }
@@ -213,7 +221,7 @@ export async function applyColumnChoices(_prev: ColumnFormState, form: FormData)
           importIssues: built.issues,
           upload: built.record.upload,
         }
-      : built.record
+      : { ...built.record, ...(kept?.spirometry ? { spirometry: kept.spirometry } : {}) }
     : null;
   replaceImport(testId, { record, columns: built.columns, issues: built.issues, choices, actor: ACTOR });
   revalidatePath(`/tests/${testId}`);
@@ -225,10 +233,13 @@ export async function applyColumnChoices(_prev: ColumnFormState, form: FormData)
       issues: built.issues,
       stamp,
     };
+  const warnings = built.issues.filter((i) => i.severity === "warning").length;
+  const check =
+    warnings > 0 ? ` ${warnings} warning(s) about the data: read them under "Problems found" before relying on the results.` : "";
   return {
     ok: test.record
-      ? `The file was read again with these choices: ${record.table.rows.length} rows. The analysis is recomputed from the new reading.`
-      : `The file is now usable: ${record.table.rows.length} rows were read. Open the analysis to review it.`,
+      ? `The file was read again with these choices: ${record.table.rows.length} rows. The analysis is recomputed from the new reading.${check}`
+      : `The file is now usable: ${record.table.rows.length} rows were read.${check} Open the analysis to review it.`,
     stamp,
   };
 }

@@ -83,6 +83,15 @@ export function decidedByText(d: ColumnDecision["decidedBy"]): string {
   }
 }
 
+/**
+ * The importer's reason without its leading "who decided" words when the page already shows them as a tag
+ * ("set by user; no unit given, …" under the tag "set by user" → "no unit given, …"), so they are not said twice.
+ */
+export function reasonAfterTag(reason: string, tag: string): string {
+  if (!tag || !reason.toLowerCase().startsWith(tag.toLowerCase())) return reason;
+  return reason.slice(tag.length).replace(/^[\s;:,]+/, "");
+}
+
 /** "VO2 (L/min)", "ignored", "VO2 kept per kg (mL/kg/min)". */
 export function readAsText(c: Pick<ColumnDecision, "field" | "unit" | "storedAs">): string {
   if (c.storedAs === "vo2MlKgMin" && c.field === null) return `VO2 kept per kg${c.unit ? ` (${c.unit})` : ""}`;

@@ -2,9 +2,17 @@ import "server-only";
 import { importBreathFile, parseUnitText, type ColumnDecision, type FileFormat } from "@/lib/breath";
 import { readTableLayout } from "@/lib/breath/readTableLayout";
 import type { Issue } from "@/lib/core";
-import { getImportChoices, type ImportChoices } from "@/lib/store/reimport";
+import { getImportChoices, getUploadDetails, type ImportChoices, type UploadDetails } from "@/lib/store/reimport";
 import { getTest, getUploadBytes, type StoredTest } from "@/lib/store/tests";
-import { decidedByText, fieldOptions, readAsText, unitOptions, type FieldKey, type FieldOption } from "./fieldChoices";
+import {
+  decidedByText,
+  fieldOptions,
+  readAsText,
+  reasonAfterTag,
+  unitOptions,
+  type FieldKey,
+  type FieldOption,
+} from "./fieldChoices";
 
 /** One column of the file as the review page shows it. */
 export interface ColumnRowView {
@@ -43,6 +51,8 @@ export interface ColumnReview {
   stageOrder: boolean;
   /** Stage spacing last used for such a file, s. */
   stageDurationS: number | undefined;
+  /** Refused test: the patient and test details entered with its upload (null when none were kept). */
+  details: UploadDetails | null;
 }
 
 const SAMPLE_COUNT = 4;
@@ -53,7 +63,8 @@ export async function loadColumnReview(testId: number): Promise<ColumnReview | n
   if (!test) return null;
   const stored = test.uploadId ? getUploadBytes(test.uploadId) : null;
   const choices = getImportChoices(testId);
-  const weightKg = test.record?.patient.weightKg ?? choices?.weightKg;
+  const details = test.record ? null : getUploadDetails(testId);
+  const weightKg = test.record?.patient.weightKg ?? choices?.weightKg ?? details?.patient.weightKg;
   const base = {
     test,
     fileName: stored?.fileName ?? test.fileName ?? "(no file)",
@@ -62,6 +73,7 @@ export async function loadColumnReview(testId: number): Promise<ColumnReview | n
     choices,
     weightKg,
     stageDurationS: choices?.stageDurationS,
+    details,
   };
   if (!stored) return { ...base, format: null, rows: [], record: null, perKgColumn: false, stageOrder: false };
   const bytes = new Uint8Array(stored.bytes);
@@ -114,7 +126,7 @@ export async function loadColumnReview(testId: number): Promise<ColumnReview | n
       unitsRow: layout.units[index] ?? null,
       samples,
       readAs: cur ? readAsText(cur) : "not reached (the file was refused before this column was read)",
-      reason: cur?.reason ?? "",
+      reason: cur ? reasonAfterTag(cur.reason, decidedByText(cur.decidedBy)) : "",
       decidedBy: cur ? decidedByText(cur.decidedBy) : "—",
       autoField,
       autoLabel: a ? readAsText(a) : "ignored",

@@ -30,6 +30,9 @@ export default async function ColumnReviewPage({ params }: { params: Promise<{ i
       <h1 data-testid="columns-title">How the file was read — {test.label}</h1>
       <p className="row">
         <Link href={`/tests/${testId}`}>{refused ? "← back to the refused test" : "← back to the analysis"}</Link>
+        <Link href={`/tests/${testId}/patient`} data-testid="patient-link">
+          Patient and test details
+        </Link>
         {!refused ? <Link href={`/tests/${testId}/inputs`}>Lactate, blood gases, spirometry and context →</Link> : null}
         <Link href="/profiles">Saved mapping profiles</Link>
         {test.uploadId ? <a href={`/api/uploads/${test.uploadId}`}>original file</a> : null}
@@ -84,6 +87,7 @@ export default async function ColumnReviewPage({ params }: { params: Promise<{ i
           stageOrder={review.stageOrder}
           stageDurationS={review.stageDurationS}
           refused={refused}
+          details={review.details}
         />
       ) : (
         <p className="sev-error" style={{ padding: "0.5rem" }}>
