@@ -1,0 +1,58 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { z } from "zod";
+import { updatePatientDetails } from "@/lib/store/updatePatientDetails";
+import { fieldErrors, testDetailsSchema } from "../../../schemas";
+
+export interface PatientFormState {
+  ok?: string;
+  errors?: Record<string, string>;
+  /** What the user sent, re-rendered after a validation error so nothing typed is lost. */
+  values?: Record<string, string>;
+  /** Changes on every answer so the form re-mounts with the answer's values. */
+  stamp?: number;
+}
+
+const ACTOR = "local user";
+
+/** Same fields, limits (PLAUSIBLE_LIMITS) and messages as the upload form. */
+const patientSchema = testDetailsSchema
+  .pick({ sex: true, ageY: true, heightCm: true, weightKg: true, ergometer: true, referral: true })
+  .extend({ testId: z.coerce.number().int().positive() });
+
+/**
+ * Correct sex, age, height, weight, ergometer and referral question of a test. The record keeps everything
+ * else; an imported test gets a new analysis version (lib/store/updatePatientDetails.ts).
+ */
+export async function savePatientDetails(_prev: PatientFormState, form: FormData): Promise<PatientFormState> {
+  const values: Record<string, string> = {};
+  for (const [k, v] of form.entries()) if (typeof v === "string") values[k] = v;
+  const stamp = Date.now();
+  const parsed = patientSchema.safeParse(values);
+  if (!parsed.success) return { errors: fieldErrors(parsed.error), values, stamp };
+  const d = parsed.data;
+  const result = updatePatientDetails(
+    d.testId,
+    {
+      sex: d.sex === "" ? undefined : d.sex,
+      ageY: d.ageY,
+      heightCm: d.heightCm,
+      weightKg: d.weightKg,
+      ergometer: d.ergometer,
+      referral: d.referral,
+    },
+    ACTOR,
+  );
+  if (!result.ok) return { errors: { [result.field ?? "form"]: result.message }, values, stamp };
+  for (const p of ["", "/patient", "/columns", "/report"]) revalidatePath(`/tests/${d.testId}${p}`);
+  revalidatePath("/");
+  if (result.changes.length === 0) return { ok: "Nothing was changed: the details are the same as before.", stamp };
+  return {
+    ok:
+      result.version !== null
+        ? `Saved: ${result.changes.join("; ")}. Analysis version ${result.version} was created with them; predicted values, interpretation and the draft are recomputed.`
+        : `Saved: ${result.changes.join("; ")}. They will be used when the file is read successfully.`,
+    stamp,
+  };
+}
