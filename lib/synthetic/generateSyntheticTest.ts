@@ -109,7 +109,7 @@ interface Grid {
  * Beaver, Wasserman & Whipp 1986, confirmed abstract; slope values recalled); VE = intercept + slope·VCO2,
  * plus hyperventilation above the RCP, optional saturation near MVV and EOV; end-tidal gases from the
  * alveolar ventilation and alveolar gas equations (common practice); HR linear in VO2 with optional O2-pulse
- * plateau; tidal volume saturating, breathing frequency = VE/VT; breath noise Gaussian, optionally AR(1)
+ * plateau, and in recovery a first-order fall towards rest whose 1-min drop grows with fitness (invented); tidal volume saturating, breathing frequency = VE/VT; breath noise Gaussian, optionally AR(1)
  * (Lamarra 1987; Liang 1996, both confirmed abstracts) and artefact breaths.
  *
  * @param overrides spec fields differing from `DEFAULT_SYNTHETIC_SPEC`
@@ -168,6 +168,16 @@ export function generateSyntheticTest(overrides: Partial<SyntheticSpec>, seed: n
     spec.hrRestBpm + ((spec.hrPeakBpm - spec.hrRestBpm) * (x - spec.vo2RestMlMin)) / (peak - spec.vo2RestMlMin);
   const pulseVo2 = pulseFrom === null ? Infinity : pulseFrom * peak;
   const pulseAtPlateau = pulseFrom === null ? NaN : pulseVo2 / hrLinear(pulseVo2);
+  // Recovery HR (invented kinetics, source `synthetic-invented`): after the ramp HR falls from its end-of-ramp
+  // value towards rest as a first-order decay, not with VO2 (which would drop it ~80 bpm in the first minute).
+  // The fraction of the HR reserve (end-of-ramp HR − rest) recovered in the first minute grows with fitness
+  // (invented line: 0.065 + 0.0075 per mL/kg/min of peak VO2, kept within 0.10–0.30), giving 1-min recoveries of
+  // ~30 bpm for a fit adult (peak 37 mL/kg/min, reserve 108 bpm) and ~10 bpm for heart failure (14 mL/kg/min,
+  // reserve ~60 bpm). Published context: 1-min HR recovery after exercise is typically ~15–40 bpm in healthy
+  // adults and ≤ 12 bpm is abnormal (Cole et al., N Engl J Med 1999, confirmed: `cole-1999` in lib/thresholds).
+  const recoveredIn1Min = Math.min(0.3, Math.max(0.1, 0.065 + (0.0075 * peak) / spec.weightKg));
+  const tauHrRecoveryS = -60 / Math.log(1 - recoveredIn1Min);
+  let hrAtRampEnd = spec.hrRestBpm;
 
   for (let i = 0; i < n; i++) {
     const t = i;
@@ -210,6 +220,8 @@ export function generateSyntheticTest(overrides: Partial<SyntheticSpec>, seed: n
     const peto2 = PIO2_MMHG - petco2 * (FIO2 + (1 - FIO2) / rer);
     let hr = hrLinear(vo2);
     if (vo2 > pulseVo2) hr = Math.min(vo2 / pulseAtPlateau, spec.hrPeakBpm * 1.03);
+    if (t === rampEndS) hrAtRampEnd = hr;
+    else if (t > rampEndS) hr = spec.hrRestBpm + (hrAtRampEnd - spec.hrRestBpm) * Math.exp(-(t - rampEndS) / tauHrRecoveryS);
     const effort = Math.min(1, Math.max(0, (vo2 - spec.vo2UnloadedMlMin) / (peak - spec.vo2UnloadedMlMin)));
     g.t[i] = t;
     g.workW[i] = w;
