@@ -8,9 +8,9 @@
 import { describe, expect, it } from "vitest";
 import { analyse, buildRecord } from "../../lib/analysis";
 import { DEMO_CASES, demoCsv } from "../../lib/store/demoCases";
-import { generateSyntheticTest, SYNTHETIC_PRESETS } from "../../lib/synthetic";
+import { DEFAULT_SYNTHETIC_SPEC, generateSyntheticTest, SYNTHETIC_PRESETS } from "../../lib/synthetic";
 
-const preset = (id: string) => SYNTHETIC_PRESETS.find((p) => p.id === id)!.spec;
+const preset = (id: string) => ({ ...DEFAULT_SYNTHETIC_SPEC, ...SYNTHETIC_PRESETS.find((p) => p.id === id)!.spec });
 
 /** τ of the recovery fall estimated from two noise-free recovery breaths: (hr2 − rest)/(hr1 − rest) = e^(−Δt/τ). */
 function recoveryTauS(id: string): number {
