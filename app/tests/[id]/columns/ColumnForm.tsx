@@ -257,7 +257,9 @@ function ColumnRow({
       <td className={styles.samples}>{row.samples.length > 0 ? row.samples.join(" · ") : "empty"}</td>
       <td data-testid="read-as">{row.readAs}</td>
       <td className="how" data-testid="reason">
-        <span className="tag">{row.decidedBy}</span> {row.reason}
+        <span className="tag">{row.decidedBy}</span>
+        {/^[;:,]/.test(row.reason) ? "" : " "}
+        {row.reason}
       </td>
       <td>
         <div className="row" style={{ gap: "0.3rem" }}>

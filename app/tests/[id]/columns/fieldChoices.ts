@@ -85,11 +85,12 @@ export function decidedByText(d: ColumnDecision["decidedBy"]): string {
 
 /**
  * The importer's reason without its leading "who decided" words when the page already shows them as a tag
- * ("set by user; no unit given, …" under the tag "set by user" → "no unit given, …"), so they are not said twice.
+ * ("set by user: L/min; …" under the tag "set by user" → ": L/min; …"), so they are not said twice. The
+ * separator is kept, so tag and reason read as one sentence ("set by user: L/min; …").
  */
 export function reasonAfterTag(reason: string, tag: string): string {
   if (!tag || !reason.toLowerCase().startsWith(tag.toLowerCase())) return reason;
-  return reason.slice(tag.length).replace(/^[\s;:,]+/, "");
+  return reason.slice(tag.length).trimStart();
 }
 
 /** "VO2 (L/min)", "ignored", "VO2 kept per kg (mL/kg/min)". */
