@@ -70,7 +70,14 @@ test("comparing two tests judges each change against published test-retest varia
   await form.locator('[name="after"]').selectOption({ label: "Demo (invented): breathless runner, normal study" });
   await form.locator('[name="population"]').selectOption("healthy");
   await form.getByRole("button", { name: "Compare" }).click();
+  // two different invented patients (40 y, 185 cm against 45 y, 178 cm): the page warns and withholds the verdicts
+  await expect(page.getByTestId("patient-mismatch")).toBeVisible();
+  await expect(page.getByTestId("verdict")).toHaveCount(0);
+  // once the reviewer confirms both tests are of one patient, each change is judged against test-retest noise
+  await page.getByTestId("compare-form").locator('[name="samePatient"]').check();
+  await page.getByTestId("compare-form").getByRole("button", { name: "Compare" }).click();
   await expect(page.getByTestId("comparison")).toContainText("measurement noise");
+  expect(await page.getByTestId("verdict").count()).toBeGreaterThan(0);
   await expect(page.getByTestId("clinical-caution")).toBeVisible();
 });
 

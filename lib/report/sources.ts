@@ -1,4 +1,5 @@
 import { CORE_SOURCES, mergeSourceRegistries, type Source } from "../core";
+import { BREATH_SOURCES } from "../breath";
 import { SIGNAL_SOURCES } from "../signal";
 import { THRESHOLD_SOURCES, VT_SOURCES } from "../thresholds";
 import { PREDICTED_SOURCES } from "../predicted";
@@ -10,6 +11,7 @@ import { INTERPRET_SOURCES } from "../interpret";
  */
 export const ALL_SOURCES: Record<string, Source> = mergeSourceRegistries(
   CORE_SOURCES,
+  BREATH_SOURCES,
   SIGNAL_SOURCES,
   THRESHOLD_SOURCES,
   VT_SOURCES,

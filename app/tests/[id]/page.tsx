@@ -109,6 +109,9 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         <Link href={`/tests/${testId}/columns`} data-testid="columns-link">
           How the file was read
         </Link>{" "}
+        <Link href={`/tests/${testId}/patient`} data-testid="patient-link">
+          Patient and test details
+        </Link>{" "}
         <Link href={`/tests/${testId}/inputs`} data-testid="inputs-link">
           Lactate, gases, spirometry, context
         </Link>
