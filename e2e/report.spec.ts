@@ -156,7 +156,8 @@ test("report: after a threshold override the reviewer's edited text is carried i
   await page.goto(`/tests/${testId}`);
   const card = page.getByTestId("threshold-vt1");
   await card.getByText("set VT1 by hand").click();
-  const vt1New = vt1Before === "1111" ? "1222" : "1111";
+  // a VT1 the test can have: 30 mL/min above the automatic one (still below this demo's VT2; impossible values are refused)
+  const vt1New = String(Math.round(Number(vt1Before.replace(/[^\d.]/g, ""))) + 30);
   await card.locator('[name="vo2MlMin"]').fill(vt1New);
   await card.locator('[name="by"]').fill("E2E Reviewer");
   await card.locator('[name="reason"]').fill("clear VE/VO2 rise with flat VE/VCO2 at this point");

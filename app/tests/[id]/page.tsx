@@ -142,8 +142,8 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         <ul className="how" data-testid="effort-criteria">
           {effort.criteria.map((c) => (
             <li key={c.ruleId}>
-              {c.outcome === true ? c.label : c.outcome === false ? c.labelFalse : c.label}:{" "}
-              <span className="tag">{OUTCOME_WORD(c.outcome)}</span> — {c.text}
+              {/* the criterion named by what it asks, then its outcome ("VO2 plateau at peak: not met") */}
+              {c.label}: <span className="tag">{OUTCOME_WORD(c.outcome)}</span> — {c.text}
             </li>
           ))}
         </ul>
