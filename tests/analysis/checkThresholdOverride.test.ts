@@ -1,18 +1,10 @@
 import { describe, expect, it } from "vitest";
-import { analyse, checkThresholdOverride, type TestRecord } from "../../lib/analysis";
-import { generateSyntheticTest, DEFAULT_SYNTHETIC_SPEC } from "../../lib/synthetic";
+import { analyse, checkThresholdOverride } from "../../lib/analysis";
+import { syntheticRecord } from "./syntheticRecord";
 
 // Synthetic test known by construction (main model, default invented healthy adult, no noise): VT1 at 55 % and VT2 at
 // 82 % of its 2600 mL/min peak (DEFAULT_SYNTHETIC_SPEC), so the thresholds and the exercise span are known.
-const syn = generateSyntheticTest({ ...DEFAULT_SYNTHETIC_SPEC, noise: "none" }, 7);
-const record: TestRecord = {
-  patient: { sex: "male", ageY: 45, heightCm: 178, weightKg: 75 },
-  ergometer: "cycle",
-  referral: "general",
-  table: syn.table,
-  columns: [],
-  importIssues: [],
-};
+const { record, syn } = syntheticRecord({ noise: "none" }, 7);
 const result = analyse(record, { bootstrap: 0 });
 const codes = (o: Parameters<typeof checkThresholdOverride>[1]) => checkThresholdOverride(result, o).map((i) => i.code);
 

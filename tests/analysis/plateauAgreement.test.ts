@@ -1,19 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { analyse, type TestRecord } from "../../lib/analysis";
-import { DEFAULT_SYNTHETIC_SPEC, generateSyntheticTest } from "../../lib/synthetic";
+import { analyse } from "../../lib/analysis";
+import { syntheticRecord } from "./syntheticRecord";
 import { vo2PlateauPresent } from "../../lib/thresholds";
 
 // Invented synthetic tests (main model, no noise) built with and without a VO2 plateau at the end of the ramp.
 function resultFor(plateau: boolean) {
-  const syn = generateSyntheticTest({ ...DEFAULT_SYNTHETIC_SPEC, noise: "none", plateau }, 3);
-  const record: TestRecord = {
-    patient: { sex: "male", ageY: 45, heightCm: 178, weightKg: 75 },
-    ergometer: "cycle",
-    referral: "general",
-    table: syn.table,
-    columns: [],
-    importIssues: [],
-  };
+  const { record } = syntheticRecord({ noise: "none", plateau }, 3);
   return analyse(record, { bootstrap: 0 });
 }
 

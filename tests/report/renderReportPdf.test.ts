@@ -6,12 +6,13 @@ import { describe, expect, it } from "vitest";
 import { CLINICAL_CAUTION } from "../../lib/report/caution";
 import { renderReportPdf } from "../../lib/report/pdf/renderReportPdf";
 import { exampleReportModel } from "./exampleReportModel";
-import { analyse, buildRecord } from "../../lib/analysis";
+import { analyse } from "../../lib/analysis";
 import { buildReportModel } from "../../lib/report/buildReportModel";
 import { initialDraftSections } from "../../lib/report/initialDraftSections";
 import { toWinAnsi } from "../../lib/report/pdf/toWinAnsi";
 import type { ReportModel } from "../../lib/report/reportModel";
-import { DEMO_CASES, demoCsv } from "../../lib/store/demoCases";
+import { DEMO_CASES } from "../../lib/store/demoCases";
+import { demoLabel, demoRecord } from "./demoRecord";
 
 /** Every string of a (JSON-like) model. */
 function strings(value: unknown, out: string[] = []): string[] {
@@ -24,18 +25,9 @@ const questionMarks = (text: string) => (text.match(/\?/g) ?? []).length;
 
 /** The report model of an INVENTED demo case (synthetic generator preset, fixed seed), as a draft. */
 async function demoModel(presetId: string): Promise<ReportModel> {
-  const demo = DEMO_CASES.find((d) => d.presetId === presetId)!;
-  const bytes = new TextEncoder().encode(demoCsv(demo));
-  const built = await buildRecord({
-    bytes,
-    fileName: demo.fileName,
-    patient: demo.patient,
-    ergometer: demo.ergometer,
-    referral: demo.referral,
-  });
-  const record = Object.assign(built.record!, { spirometry: demo.spirometry, conduct: demo.conduct, context: demo.context });
+  const record = await demoRecord(presetId);
   const result = analyse(record);
-  return buildReportModel(result, record, demo.label, { status: "draft", sections: initialDraftSections(result) });
+  return buildReportModel(result, record, demoLabel(presetId), { status: "draft", sections: initialDraftSections(result) });
 }
 
 function hasTool(name: string): boolean {

@@ -1,24 +1,10 @@
 import { describe, expect, it } from "vitest";
-import { analyse, buildRecord, type AnalysisSettings, type TestRecord } from "../../lib/analysis";
+import { analyse, buildRecord, type AnalysisSettings } from "../../lib/analysis";
 import { buildReportModel } from "../../lib/report/buildReportModel";
 import { carryForwardDraft } from "../../lib/report/carryForwardDraft";
 import { initialDraftSections } from "../../lib/report/initialDraftSections";
-import { DEMO_CASES, demoCsv } from "../../lib/store/demoCases";
+import { demoRecord } from "./demoRecord";
 import { plainRampCsv } from "../../e2e/fixtures/plain-ramp.csv";
-
-/** An INVENTED demo case (synthetic generator preset, fixed seed) as a test record. */
-async function demoRecord(presetId: string): Promise<TestRecord> {
-  const demo = DEMO_CASES.find((d) => d.presetId === presetId)!;
-  const bytes = new TextEncoder().encode(demoCsv(demo));
-  const built = await buildRecord({
-    bytes,
-    fileName: demo.fileName,
-    patient: demo.patient,
-    ergometer: demo.ergometer,
-    referral: demo.referral,
-  });
-  return Object.assign(built.record!, { spirometry: demo.spirometry, conduct: demo.conduct, context: demo.context });
-}
 
 describe("report wording: rounded numbers with units, cut-offs in words, labels instead of field names", async () => {
   const record = await demoRecord("ventilatory-limitation");
