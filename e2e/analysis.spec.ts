@@ -50,6 +50,12 @@ test("an override the test cannot have (VT1 above peak VO2) is refused with the 
   await expect(card).toContainText("must lie below VT2");
   await expect(card).not.toContainText("Set by the reviewer");
   await expect(card.locator('[name="vo2MlMin"]')).toHaveValue("3500");
+  // a VO2 and a time together: one would be ignored, so the form asks for one of them
+  await card.locator('[name="vo2MlMin"]').fill("1250");
+  await card.locator('[name="time"]').fill("8:30");
+  await card.getByRole("button", { name: "Save override" }).click();
+  await expect(card).toContainText("Give the VO2 or the time, not both");
+  await expect(card).not.toContainText("Set by the reviewer");
 });
 
 test("an override without a reason is refused and the typed values are kept", async ({ page }) => {

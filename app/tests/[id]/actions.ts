@@ -38,6 +38,11 @@ const overrideSchema = z
   .refine((o) => o.vo2MlMin !== undefined || (o.time !== undefined && o.time !== ""), {
     message: "Give the threshold's VO2 or its time",
     path: ["vo2MlMin"],
+  })
+  // one of the two: the engine reads the other from the ramp, so a second value would be silently ignored
+  .refine((o) => !(o.vo2MlMin !== undefined && o.time !== undefined && o.time !== ""), {
+    message: "Give the VO2 or the time, not both (the other is read from the test)",
+    path: ["vo2MlMin"],
   });
 
 function formValues(form: FormData): Record<string, string> {
