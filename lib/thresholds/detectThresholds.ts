@@ -713,6 +713,29 @@ export function applyThresholdOverrides(
         },
       },
     };
+    out.issues = settleAutomaticDoubts(out.issues, o.which, prev.overridden ? null : (prev.reason ?? null));
   }
   return out;
+}
+
+/**
+ * Once a reviewer has set a threshold, the engine's doubt about its automatic value is history, not a current
+ * warning: the `<which>-low-confidence` warning and the `<which>-not-determinable` note become one info line
+ * that says what the automatic value was and that the reviewer set the threshold (code `<which>-set-by-review`).
+ * Other issues are kept as they are.
+ */
+function settleAutomaticDoubts(issues: readonly Issue[], which: ThresholdWhich, automaticReason: string | null): Issue[] {
+  const name = which === "vt1" ? "VT1 (anaerobic threshold)" : "VT2 (respiratory compensation point)";
+  const short = which.toUpperCase();
+  return issues.map((i) => {
+    if (i.code !== `${which}-low-confidence` && i.code !== `${which}-not-determinable`) return i;
+    const why = automaticReason ?? (i.code.endsWith("low-confidence") ? "methods disagree" : "no method succeeded");
+    const was = i.code.endsWith("low-confidence") ? `was uncertain (${why})` : `could not be determined (${why})`;
+    return makeIssue(
+      "info",
+      `${which}-set-by-review`,
+      `The automatic ${name} ${was}; ${short} was set by the reviewer.`,
+      i.where,
+    );
+  });
 }
