@@ -65,7 +65,8 @@ function evaluateAxis(
         sourceIds: unique([...axis.sourceIds, ...b.sourceIds]),
         status: weakestStatus([axis.status, b.status]),
         category: { key: b.key, label: b.label, severity: b.severity },
-        text: `${axis.label}: ${r.text} → ${b.label}`,
+        // a rule's own line may already start with the axis label ("Exercise oscillatory ventilation: yes")
+        text: `${r.text.startsWith(`${axis.label}:`) ? r.text : `${axis.label}: ${r.text}`} → ${b.label}`,
       };
     }
     tried.push(r.text);
@@ -74,6 +75,15 @@ function evaluateAxis(
   issues.push(makeIssue("warning", "value-between-bands", `${axis.label}: ${reason}.`, { field: `${schemeId}.${axis.id}` }));
   return { ...base, category: null, text: `${axis.label}: ${reason}`, reason };
 }
+
+function noCategoryReason(mode: string, axes: readonly SchemeAxisResult[]): string {
+  const a = mode.startsWith("axis:") ? axes.find((x) => `axis:${x.axisId}` === mode) : undefined;
+  if (a) return `${a.label}: ${a.reason ?? "not graded"}`;
+  return "none of the graded variables could be placed in a band";
+}
+
+/** The overall line of a scheme that grades each variable on its own and publishes no combined category. */
+export const UNCOMBINED_SCHEME_TEXT = "Graded variable by variable (the scheme gives no combined category)";
 
 /**
  * Apply the published schemes the referral question selects (schemes.json). Each axis shows the
@@ -106,6 +116,9 @@ export function applySchemes(
         axes: [],
         path,
         overall: path.end ? { ...path.end, basis: "end of the algorithm" } : null,
+        overallText: path.end
+          ? `${path.end.label} (end of the algorithm)`
+          : "No overall result: the algorithm could not be followed to its end with the data given",
         maxSeverity,
         notes: s.notes ?? [],
         choicesUsed: dedupeUses(uses),
@@ -140,6 +153,11 @@ export function applySchemes(
       kind: "bands",
       axes,
       overall,
+      overallText: overall
+        ? `${overall.label} (${overall.basis})`
+        : mode === null
+          ? UNCOMBINED_SCHEME_TEXT
+          : `No overall category: ${noCategoryReason(mode, axes)}`,
       maxSeverity,
       notes: s.notes ?? [],
       choicesUsed: dedupeUses(uses),

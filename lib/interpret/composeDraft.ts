@@ -202,7 +202,7 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   if (interpretation.schemes.length) {
     const sch: string[] = [];
     for (const s of interpretation.schemes) {
-      const overall = s.overall ? `${s.overall.label} (${s.overall.basis})` : "no overall category";
+      const overall = s.overallText;
       const details = s.kind === "graph" ? s.path!.steps.map((st) => `${st.title}: ${st.finding}`) : s.axes.map((a) => a.text);
       sch.push(`${s.name}: ${overall}. ${details.join("; ")}.`);
     }

@@ -3,7 +3,7 @@ import type { InterpretationData } from "./interpretationData";
 import type { ChoiceOptionSchema, Condition } from "./schema";
 import type { ChoiceUse, ComparisonTrace, Outcome, PredictedEquationLabels, RuleResult } from "./types";
 import { variableInfo } from "./variables";
-import { OP_TEXT, formatCutoff, formatValue, unique, weakestStatus } from "./format";
+import { OP_TEXT, categoryText, formatCutoff, formatValue, unique, weakestStatus } from "./format";
 import type { z } from "zod";
 
 export type VarValue = number | string | boolean | null;
@@ -25,6 +25,10 @@ export interface ConditionResult {
   text: string;
   comparisons: ComparisonTrace[];
   choicesUsed: ChoiceUse[];
+  /** A met category test that names a group of patients ("men"): shown as a prefix of its `all` group. */
+  qualifier?: boolean;
+  /** A false `all` group that fails on a category test (e.g. the women's branch for a man): beside the point. */
+  offTopic?: boolean;
 }
 
 function chosen(ctx: EvalContext, choiceId: string, uses: ChoiceUse[]): ChoiceOption {
@@ -70,8 +74,11 @@ function comparisonText(
   if (value === null) return `${info.label}${unit ? ` (${info.unit})` : ""} not available`;
   if (info.kind === "boolean") return `${info.label}: ${formatValue(variable, value)}`;
   if (info.kind === "string") {
-    const c = Array.isArray(cutoff) ? cutoff.join(" / ") : String(cutoff);
-    return `${info.label} ${value} ${OP_TEXT[op]} ${c}`;
+    // categories in words, never as operators: "Sex: male, not female"; "Effort: submaximal, not maximal or …"
+    const says = (v: unknown) => categoryText(variable, String(v));
+    const listed = Array.isArray(cutoff) ? cutoff.map(says).join(" or ") : says(cutoff);
+    const matches = op === "==" || op === "in";
+    return matches ? `${info.label}: ${says(value)}` : `${info.label}: ${says(value)}, not ${listed}`;
   }
   return `${info.label} ${formatValue(variable, value)}${unit}${pred} ${OP_TEXT[op]} ${formatCutoff(variable, cutoff as number)}${unit}`;
 }
@@ -112,7 +119,25 @@ export function evaluateCondition(cond: Condition, ctx: EvalContext): ConditionR
     let outcome: Outcome;
     if (isAll) outcome = outs.includes(false) ? false : outs.includes(null) ? null : true;
     else outcome = outs.includes(true) ? true : outs.includes(null) ? null : false;
-    return done(outcome, parts.map((p) => p.text).join(isAll ? " and " : " or "));
+    if (isAll) {
+      // show what decided: a false group shows its false parts; a group's met category test names the group
+      const lead = parts.filter((p) => p.qualifier && p.outcome === true).map((p) => p.text);
+      const rest = parts.filter((p) => !(p.qualifier && p.outcome === true));
+      const shown = outcome === false ? rest.filter((p) => p.outcome === false) : rest;
+      const offCategory = outcome === false && shown.some((p) => isCategoryMiss(p));
+      const body = (offCategory ? shown.filter(isCategoryMiss) : shown).map((p) => p.text).join(" and ");
+      const text = lead.length && body ? `${lead.join(", ")}: ${body}` : lead.length ? lead.join(", ") : body;
+      return { ...done(outcome, text), ...(offCategory ? { offTopic: true } : {}) };
+    }
+    // an `any` shows the parts that decided it: the met ones, else the undecided ones, else every relevant one
+    const decisive =
+      outcome === true
+        ? parts.filter((p) => p.outcome === true)
+        : outcome === null
+          ? parts.filter((p) => p.outcome === null)
+          : parts;
+    const relevant = decisive.filter((p) => !p.offTopic);
+    return done(outcome, (relevant.length ? relevant : decisive).map((p) => p.text).join(" or "));
   }
   if ("not" in cond) {
     const r = sub(cond.not);
@@ -127,7 +152,17 @@ export function evaluateCondition(cond: Condition, ctx: EvalContext): ConditionR
     const t = parts.filter((p) => p.outcome === true).length;
     const u = parts.filter((p) => p.outcome === null).length;
     const outcome: Outcome = t >= cond.atLeast ? true : t + u < cond.atLeast ? false : null;
-    return done(outcome, `at least ${cond.atLeast} of: ${parts.map((p) => p.text).join("; ")}`);
+    const n = parts.length;
+    const met = parts.filter((p) => p.outcome === true).map((p) => p.text);
+    const unmet = parts.filter((p) => p.outcome !== true).map((p) => p.text);
+    // name the items that count, so the line reads as the reason for the result
+    if (outcome === true) return done(outcome, `${t} of ${n} criteria met (at least ${cond.atLeast} needed): ${met.join("; ")}`);
+    const head = `${t} of ${n} criteria met (at least ${cond.atLeast} needed)`;
+    const tail = [
+      met.length ? `met: ${met.join("; ")}` : "",
+      unmet.length ? `${outcome === null ? "not met or not assessable" : "not met"}: ${unmet.join("; ")}` : "",
+    ];
+    return done(outcome, `${head}; ${tail.filter(Boolean).join("; ")}`);
   }
   // comparison
   const variable = typeof cond.var === "string" ? cond.var : chosen(ctx, cond.var.choice, uses).variable!;
@@ -142,7 +177,15 @@ export function evaluateCondition(cond: Condition, ctx: EvalContext): ConditionR
   const text = comparisonText(ctx, variable, value, outcome === false ? NEGATED[cond.op] : cond.op, cutoff);
   const info = variableInfo(variable);
   comparisons.push({ variable, label: info.label, unit: info.unit, value, op: cond.op, cutoff, outcome, text });
+  const group =
+    info.kind === "string" && outcome === true && cond.op === "==" && value !== null ? info.groups?.[String(value)] : undefined;
+  if (group) return { ...done(outcome, group), qualifier: true };
   return done(outcome, text);
+}
+
+/** A failed test on a category (sex, referral, effort): the part is about other patients. */
+function isCategoryMiss(p: ConditionResult): boolean {
+  return p.outcome === false && p.comparisons.length === 1 && variableInfo(p.comparisons[0].variable).kind === "string";
 }
 
 /** Evaluate a rule by id (memoised in the context): its finding, readable line, sources and status. */

@@ -30,6 +30,11 @@ export function formatCutoff(variable: string, cutoff: number): string {
   return formatNumber(cutoff, Math.max(variableInfo(variable).decimals ?? 0, literalDecimals(cutoff)));
 }
 
+/** A category value in plain words (the variable's `values` map), e.g. "physiological-limit" → "physiological limit". */
+export function categoryText(variable: string, value: string): string {
+  return variableInfo(variable).values?.[value] ?? value.replace(/-/g, " ");
+}
+
 export const OP_TEXT: Record<string, string> = {
   "<": "<",
   "<=": "≤",

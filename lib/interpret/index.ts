@@ -19,3 +19,4 @@ export {
   type RawInterpretationData,
 } from "./interpretationData";
 export { INTERPRET_SOURCES } from "./sources";
+export { UNCOMBINED_SCHEME_TEXT } from "./applySchemes";

@@ -286,6 +286,12 @@ export interface SchemeResult {
   /** Graph schemes: the path through the algorithm. */
   path?: PathResult;
   overall: (BandResult & { basis: string }) | null;
+  /**
+   * The overall result in words, the one line every view shows: the category with its basis; for a scheme
+   * that publishes no combined category, "Graded variable by variable (the scheme gives no combined
+   * category)"; otherwise why no category could be given.
+   */
+  overallText: string;
   /** Highest severity in this scheme (for ordering); number of levels is `maxSeverity + 1`. */
   maxSeverity: number;
   notes: string[];

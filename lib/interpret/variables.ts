@@ -17,11 +17,15 @@ export interface VariableInfo {
   effortDependent?: boolean;
   /** Key into `InterpretInput.predictedEquations` naming the reference equation behind a % predicted value. */
   predictedKey?: "peakVo2" | "hrMax" | "o2Pulse" | "mvv" | "fev1" | "dlco";
+  /** Category values in plain words, for string variables (default: the value with hyphens as spaces). */
+  values?: Readonly<Record<string, string>>;
+  /** For string variables: the group of patients a met `==` test names ("men"); shown as "men: …". */
+  groups?: Readonly<Record<string, string>>;
 }
 
 export const VARIABLES = {
   // patient and context
-  sex: { label: "Sex", unit: "", kind: "string" },
+  sex: { label: "Sex", unit: "", kind: "string", groups: { male: "men", female: "women" } },
   ageY: { label: "Age", unit: "y", kind: "number" },
   heightCm: { label: "Height", unit: "cm", kind: "number" },
   weightKg: { label: "Weight", unit: "kg", kind: "number", decimals: 1 },

@@ -65,7 +65,7 @@ describe("draft report text", () => {
     const r2 = interpret(fx.input, { choices: { "rer-maximal": "at-least-1.10" } });
     const d = composeDraft(fx.input, r2, { comparison: cmp });
     expect(d.sections.find((s) => s.id === "serial")!.paragraphs.join(" ")).toMatch(/beyond measurement noise/);
-    expect(d.sections.find((s) => s.id === "caution")!.paragraphs.join(" ")).toMatch(/Peak RER >= 1.10/);
+    expect(d.sections.find((s) => s.id === "caution")!.paragraphs.join(" ")).toMatch(/Peak RER ≥ 1.10/);
     expect(d.sourceIds).toContain("bensimhon-2008");
   });
 });
