@@ -154,18 +154,28 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
     noComp.petco2FallMmHg <= petFallMax &&
     x.length >= minPoints
   ) {
-    // no respiratory compensation in the test: the slope below the RCP is the whole-exercise line
+    // no respiratory compensation in the test: the line below the RCP runs over the whole exercise phase. It is fitted
+    // on time-bin means like every "to VT2" slope, so it is not the breath-by-breath whole-exercise slope (FRIEND
+    // method), which breath noise in VCO2 flattens; the label says exactly what was fitted.
+    const pet = noComp.petco2FallMmHg;
     const why =
-      `no respiratory compensation: VE/VCO2 ends ${(100 * noComp.ratioRise).toFixed(1)} % above its nadir ` +
-      `(≤ ${(100 * ratioRiseMax).toFixed(1)} %) and PETCO2 ${noComp.petco2FallMmHg.toFixed(1)} mmHg below its ` +
-      `highest 30-s mean (≤ ${petFallMax} mmHg), so the slope below the RCP is the whole-exercise slope`;
+      `no respiratory compensation: VE/VCO2 in the last 30 s ${(100 * noComp.ratioRise).toFixed(1)} % above its nadir ` +
+      `(≤ ${(100 * ratioRiseMax).toFixed(1)} %) and PETCO2 in the last 30 s ` +
+      `${pet < 0.05 ? "not below its highest 30-s mean" : `${pet.toFixed(1)} mmHg below its highest 30-s mean`} (≤ ${petFallMax} mmHg)`;
     const prov = provenanceOf(
       "ve-vco2-slope-to-vt2-no-compensation",
       `VE/VCO2 slope below the RCP: whole exercise phase (${why})`,
       ["ward-2021", "friend-ve-vco2-slope", "common-practice", "implementation-choice", "robergs-2010"],
-      { window: span, inputs: { ratioRise: noComp.ratioRise, petco2FallMmHg: noComp.petco2FallMmHg } },
+      { window: span, inputs: { ratioRise: noComp.ratioRise, petco2FallMmHg: pet } },
     );
-    slopeToVt2 = binnedLine(pairs.t, x, pairs.y, span.startS, x.length, binS, prov, units);
+    const line = binnedLine(pairs.t, x, pairs.y, span.startS, x.length, binS, prov, units);
+    const bins = line.slope.provenance.inputs?.points;
+    const label =
+      `VE/VCO2 slope below the RCP: OLS of VE on VCO2 over the whole exercise phase ` +
+      `(${Math.round(span.startS)}-${Math.round(span.endS)} s) on ${binS}-s time-bin means of the breaths` +
+      `${typeof bins === "number" ? ` (${bins} bins)` : ""}, because the test shows ${why}. ` +
+      `The whole-exercise slope is the same range fitted breath by breath, which breath noise in VCO2 flattens, so the two can differ`;
+    slopeToVt2 = relabel(line, label);
   } else if (!vt2) {
     const reason = noComp
       ? `VT2 (respiratory compensation point) not given and the test shows signs of compensation (VE/VCO2 ends ${(100 * noComp.ratioRise).toFixed(1)} % above its nadir${noComp.petco2FallMmHg === null ? ", PETCO2 missing" : `, PETCO2 ${noComp.petco2FallMmHg.toFixed(1)} mmHg below its highest`}): set VT2 by review`
@@ -231,6 +241,12 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
   return { slopeToVt2, slopeWholeExercise, nadir, atVt1, issues };
 }
 
+/** The same line with another provenance label on each of its values. */
+function relabel(line: LineIndex, label: string): LineIndex {
+  const re = (m: Measured): Measured => ({ ...m, provenance: { ...m.provenance, label } });
+  return { ...line, slope: re(line.slope), intercept: re(line.intercept), r2: re(line.r2) };
+}
+
 /** OLS of y on x over the time-bin means of the first k breaths; n stays the number of breaths used. */
 function binnedLine(
   t: number[],
@@ -284,9 +300,12 @@ function compensationSigns(
   const endRatio = ratio(span.endS - 30, span.endS);
   if (!Number.isFinite(nadir) || !Number.isFinite(endRatio)) return null;
   const endPet = pet?.mean(span.endS - 30, span.endS).mean;
+  // the last 30 s are a window too (off the 10-s grid): a last window above the highest grid window is a fall of 0,
+  // never a negative fall; the same for a last VE/VCO2 below the grid nadir
   return {
-    ratioRise: endRatio / nadir - 1,
-    petco2FallMmHg: endPet !== undefined && Number.isFinite(endPet) && Number.isFinite(petMax) ? petMax - endPet : null,
+    ratioRise: Math.max(0, endRatio / nadir - 1),
+    petco2FallMmHg:
+      endPet !== undefined && Number.isFinite(endPet) && Number.isFinite(petMax) ? Math.max(0, petMax - endPet) : null,
   };
 }
 
