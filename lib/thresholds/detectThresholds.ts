@@ -729,7 +729,9 @@ function settleAutomaticDoubts(issues: readonly Issue[], which: ThresholdWhich, 
   const short = which.toUpperCase();
   return issues.map((i) => {
     if (i.code !== `${which}-low-confidence` && i.code !== `${which}-not-determinable`) return i;
-    const why = automaticReason ?? (i.code.endsWith("low-confidence") ? "methods disagree" : "no method succeeded");
+    // the automatic reason's advice ("confirm by review") has been followed: keep only the finding
+    const found = automaticReason?.replace(/;?\s*(confirm|set)\b[^;]*\bby review\b/gi, "").trim();
+    const why = found || (i.code.endsWith("low-confidence") ? "the methods disagree" : "no method succeeded");
     const was = i.code.endsWith("low-confidence") ? `was uncertain (${why})` : `could not be determined (${why})`;
     return makeIssue(
       "info",

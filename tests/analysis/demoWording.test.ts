@@ -119,5 +119,6 @@ describe("a reviewer's threshold replaces the engine's doubt about the automatic
       /^The automatic VT2 \(respiratory compensation point\) was uncertain \(.+\); VT2 was set by the reviewer\.$/,
     );
     expect(after.issues.map((i) => i.message).join(" ")).not.toMatch(/confirm or set it by review/);
+    expect(info.join(" ")).not.toMatch(/by review/);
   });
 });
