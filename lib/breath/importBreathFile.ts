@@ -18,6 +18,7 @@ import { phaseFromText } from "./phaseFromText";
 import { readTableLayout, type TableLayout } from "./readTableLayout";
 import { recogniseHeader, UNIT_KEYS_BY_FIELD } from "./recogniseHeader";
 import {
+  FIELD_WORDS,
   PLAIN_COLUMNS,
   type BreathRow,
   type BreathTable,
@@ -100,25 +101,7 @@ interface Column {
   timeOffset?: number;
 }
 
-const FIELD_LABEL: Record<Target, string> = {
-  timeS: "time",
-  vo2MlMin: "VO2",
-  vco2MlMin: "VCO2",
-  veLMin: "VE",
-  hrBpm: "heart rate",
-  workW: "work rate",
-  speedKmh: "speed",
-  gradePct: "grade",
-  rrBrMin: "respiratory rate",
-  vtL: "tidal volume",
-  peto2MmHg: "PETO2",
-  petco2MmHg: "PETCO2",
-  spo2Pct: "SpO2",
-  stage: "stage",
-  lactateMmolL: "lactate",
-  phase: "phase",
-  vo2MlKgMin: "VO2 per kg",
-};
+const FIELD_LABEL: Record<Target, string> = FIELD_WORDS; // plain words per field (types.ts)
 
 function failed(issues: Issue[], columns: ColumnDecision[] = [], format: FileFormat | null = null): ImportResult {
   return { table: null, columns, issues, format, events: [], weight: null };

@@ -52,6 +52,27 @@ export const NUMERIC_FIELDS = [
 ] as const;
 export type NumericField = (typeof NUMERIC_FIELDS)[number];
 
+/** Each field in plain words, for messages and labels shown to users. */
+export const FIELD_WORDS: Record<NumericField | "phase" | "vo2MlKgMin", string> = {
+  timeS: "time",
+  vo2MlMin: "VO2",
+  vco2MlMin: "VCO2",
+  veLMin: "VE",
+  hrBpm: "heart rate",
+  workW: "work rate",
+  speedKmh: "speed",
+  gradePct: "grade",
+  rrBrMin: "respiratory rate",
+  vtL: "tidal volume",
+  peto2MmHg: "PETO2",
+  petco2MmHg: "PETCO2",
+  spo2Pct: "SpO2",
+  stage: "stage",
+  lactateMmolL: "lactate",
+  phase: "phase",
+  vo2MlKgMin: "VO2 per kg",
+};
+
 /**
  * The plain column convention (README): header names carry their unit; files in this
  * convention import with no mapping step.

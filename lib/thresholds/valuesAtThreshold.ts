@@ -1,4 +1,4 @@
-import type { NumericField } from "../breath";
+import { FIELD_WORDS, type NumericField } from "../breath";
 import { makeIssue, measured, notDetermined, type Issue, type Measured } from "../core";
 import type { ConditionedTest } from "../signal";
 import { fieldSeries, provenanceOf, WindowMeans } from "./indexSeries";
@@ -51,7 +51,7 @@ export function readAtTime(
         ? "centred-window"
         : "interpolate";
   const scale = options.scale ?? 1;
-  const what = options.denominator ? `${field}/${options.denominator}` : field;
+  const what = options.denominator ? `${FIELD_WORDS[field]}/${FIELD_WORDS[options.denominator]}` : FIELD_WORDS[field];
   const sourceIds = options.sourceIds ?? ["implementation-choice"];
   const read = (f: NumericField): number => {
     if (mode === "interpolate") {
