@@ -139,23 +139,39 @@ export function buildReportModel(
     [result.thresholds.vt2, ix.atVt2, "VT2 (RCP)"],
   ] as const) {
     const row = measuredRow(name, t.vo2MlMin, 0);
-    const methodWords = t.vo2MlMin.value !== null || t.overridden ? thresholdMethodWords(t, result.thresholds) : "";
-    const bits: string[] = [];
-    // The method words usually state confidence and band already; say them once.
-    if (!/confidence/.test(methodWords)) bits.push(`confidence ${t.confidence.replace(/-/g, " ")}`);
-    if (t.band && !/band/.test(methodWords))
-      bits.push(`band ${formatNumber(t.band.lowMlMin, 0)}–${formatNumber(t.band.highMlMin, 0)} mL/min`);
+    const atValues: NonNullable<ReportRow["atValues"]> = [];
     if (at && t.vo2MlMin.value !== null) {
-      const parts = [
-        at.vo2MlKgMin.value !== null ? `${formatNumber(at.vo2MlKgMin.value, 1)} mL/kg/min` : "",
-        at.vo2PercentPeak.value !== null ? `${formatNumber(at.vo2PercentPeak.value, 0)} % of peak VO2` : "",
-        at.hrBpm.value !== null ? `HR ${formatNumber(at.hrBpm.value, 0)} bpm` : "",
-        at.workW.value !== null ? `${formatNumber(at.workW.value, 0)} W` : "",
-      ];
-      bits.push(parts.filter(Boolean).join(", "));
+      const add = (label: string, m: Measured, d: number, unit: string, before = false) => {
+        if (m.value === null) return;
+        const v = formatNumber(m.value, d);
+        atValues.push({ label, value: before ? `${label} ${v} ${unit}` : `${v} ${unit}` });
+      };
+      add("VO2/kg", at.vo2MlKgMin, 1, "mL/kg/min");
+      add("% of peak VO2", at.vo2PercentPeak, 0, "% of peak VO2");
+      add("HR", at.hrBpm, 0, "bpm", true);
+      add("work rate", at.workW, 0, "W");
     }
-    // When not determinable, the reason is already in the row (from the Measured); do not repeat it.
-    if (methodWords) bits.push(methodWords);
+    if (atValues.length) row.atValues = atValues;
+    const bits: string[] = [];
+    if (t.overridden) {
+      // A reviewer's threshold: who set it and why, once, as the method; no detection confidence or band
+      // (they belong to the automatic estimate, which is named by its value only).
+      row.method = thresholdMethodWords(t, result.thresholds);
+      if (atValues.length) bits.push(atValues.map((a) => a.value).join(", "));
+      const auto = t.overridden.automatic.vo2MlMin;
+      bits.push(
+        auto !== null ? `automatic estimate was ${formatNumber(auto, 0)} mL/min` : "the automatic estimate was not determinable",
+      );
+    } else {
+      const methodWords = t.vo2MlMin.value !== null ? thresholdMethodWords(t, result.thresholds) : "";
+      // The method words usually state confidence and band already; say them once.
+      if (!/confidence/.test(methodWords)) bits.push(`confidence ${t.confidence.replace(/-/g, " ")}`);
+      if (t.band && !/band/.test(methodWords))
+        bits.push(`band ${formatNumber(t.band.lowMlMin, 0)}–${formatNumber(t.band.highMlMin, 0)} mL/min`);
+      if (atValues.length) bits.push(atValues.map((a) => a.value).join(", "));
+      // When not determinable, the reason is already in the row (from the Measured); do not repeat it.
+      if (methodWords) bits.push(methodWords);
+    }
     row.note = [row.note, ...bits].filter(Boolean).join("; ");
     thresholds.push(row);
   }

@@ -1,14 +1,16 @@
 import type { AnalysisResult, TestRecord } from "../analysis";
 import { buildReportModel } from "./buildReportModel";
 import { carryForwardSections, type CarryForwardResult, type PreviousReportText } from "./carryForwardSections";
+import { describeInterpretationChanges } from "./describeInterpretationChanges";
 import { describeValueChanges } from "./describeValueChanges";
 import { initialDraftSections } from "./initialDraftSections";
 
 /**
  * The first text of the draft for a new analysis version of a test, given the newest earlier report
- * version: the reviewer's edited sections carried forward with a re-check note listing the
- * displayed values that changed between the two analyses (`describeValueChanges` over key values
- * and thresholds), the other sections newly generated. See `carryForwardSections`.
+ * version: the reviewer's edited sections carried forward with a re-check note listing what changed
+ * between the two analyses: the section's generated text, the interpretation steps, patterns and
+ * scheme grades (`describeInterpretationChanges`), then the displayed values
+ * (`describeValueChanges` over key values and thresholds); the other sections newly generated. See `carryForwardSections`.
  *
  * @param previousResult the analysis the previous report version was written for
  * @param nextResult the new analysis
@@ -25,6 +27,9 @@ export function carryForwardDraft(
     previous,
     previousGenerated: initialDraftSections(previousResult),
     nextGenerated: initialDraftSections(nextResult),
-    changes: describeValueChanges([...before.keyValues, ...before.thresholds], [...after.keyValues, ...after.thresholds]),
+    changes: [
+      ...describeInterpretationChanges(previousResult, nextResult),
+      ...describeValueChanges([...before.keyValues, ...before.thresholds], [...after.keyValues, ...after.thresholds]),
+    ],
   });
 }

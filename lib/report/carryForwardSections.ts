@@ -15,7 +15,10 @@ export interface CarryForwardInput {
   previousGenerated: readonly ReportSection[];
   /** The text generated for the new analysis: the new draft's default. */
   nextGenerated: readonly ReportSection[];
-  /** Reported values that changed between the two analyses (see `describeValueChanges`). */
+  /**
+   * What changed between the two analyses, most decisive first: interpretation findings
+   * (`describeInterpretationChanges`), then displayed values (`describeValueChanges`).
+   */
   changes: readonly string[];
 }
 
@@ -23,6 +26,21 @@ export interface CarryForwardResult {
   sections: ReportSection[];
   /** Titles of the sections whose reviewer text was carried (empty: the new draft is the generated text). */
   carried: string[];
+}
+
+/**
+ * How the text generated for one section changed between two analyses, paragraph by paragraph:
+ * "Generated text now says: “…”" for a paragraph that is new, "Generated text no longer says: “…”"
+ * for one that went (whitespace ignored). These lines come first in a carried section's note.
+ */
+function generatedTextChanges(before: readonly string[] | undefined, after: readonly string[] | undefined): string[] {
+  const clean = (p: string) => p.replace(/\s+/g, " ").trim();
+  const a = (before ?? []).map(clean).filter(Boolean);
+  const b = (after ?? []).map(clean).filter(Boolean);
+  return [
+    ...a.filter((p) => !b.includes(p)).map((p) => `Generated text no longer says: “${p}”`),
+    ...b.filter((p) => !a.includes(p)).map((p) => `Generated text now says: “${p}”`),
+  ];
 }
 
 const normalise = (paragraphs: readonly string[]) =>
@@ -52,11 +70,19 @@ export function carryForwardSections(input: CarryForwardInput): CarryForwardResu
       .map((s) => [s.id, s]),
   );
   const versionWords = `version ${previous.version} (${previous.status === "signed" ? "signed" : "draft"})`;
-  const changeList = (s: ReportSection) => [...new Set([...(s.recheck?.changes ?? []), ...changes])];
+  const generatedBeforeParagraphs = new Map(previousGenerated.map((s) => [s.id, s.paragraphs]));
+  const generatedAfterParagraphs = new Map(nextGenerated.map((s) => [s.id, s.paragraphs]));
+  const changeList = (s: ReportSection) => [
+    ...new Set([
+      ...generatedTextChanges(generatedBeforeParagraphs.get(s.id), generatedAfterParagraphs.get(s.id)),
+      ...(s.recheck?.changes ?? []),
+      ...changes,
+    ]),
+  ];
   const reasonFor = (s: ReportSection, stillGenerated: boolean) => {
     const lead = `Your text from report ${versionWords} was kept, but it was written for an earlier analysis.`;
     const numbers = changeList(s).length
-      ? " The numbers changed since it was written (listed below):"
+      ? " The numbers changed since it was written, and with them what the report concludes (listed below, findings first):"
       : " The analysis settings changed, although no reported value changed:";
     const end = stillGenerated
       ? " re-check the text against the current values before signing."

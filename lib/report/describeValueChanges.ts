@@ -8,8 +8,9 @@ const withUnit = (value: string, unit: string) => {
 
 /**
  * The reported values that differ between two versions of the report's value tables, matched by
- * row label, as plain sentences: "VT1 (AT): 890 mL/min → 1100 mL/min", "Peak VO2: % predicted 66 →
- * 70". Values are compared as displayed (already rounded), so a change too small to show is not
+ * row label, as plain sentences: "VT1 (AT): 890 mL/min → 1100 mL/min, 41 % of peak VO2 → 50 % of
+ * peak VO2, HR 101 bpm → 112 bpm", "Peak VO2: % predicted 66 → 70". Value, predicted, % predicted,
+ * LLN and the values read at a threshold are compared. Values are compared as displayed (already rounded), so a change too small to show is not
  * listed. A row present in only one version is listed as added or no longer reported.
  *
  * @param before rows of the earlier version (key values and thresholds)
@@ -29,6 +30,17 @@ export function describeValueChanges(before: readonly ReportRow[], after: readon
     if (b.value !== r.value || b.unit !== r.unit) bits.push(`${withUnit(b.value, b.unit)} → ${withUnit(r.value, r.unit)}`);
     if ((b.pctPredicted ?? "") !== (r.pctPredicted ?? ""))
       bits.push(`% predicted ${b.pctPredicted ?? "none"} → ${r.pctPredicted ?? "none"}`);
+    if ((b.predicted ?? "") !== (r.predicted ?? ""))
+      bits.push(`predicted ${withUnit(b.predicted ?? "none", b.unit)} → ${withUnit(r.predicted ?? "none", r.unit)}`);
+    if ((b.lln ?? "") !== (r.lln ?? ""))
+      bits.push(`LLN ${withUnit(b.lln ?? "none", b.unit)} → ${withUnit(r.lln ?? "none", r.unit)}`);
+    const oldAt = new Map((b.atValues ?? []).map((a) => [a.label, a.value]));
+    const newAt = new Map((r.atValues ?? []).map((a) => [a.label, a.value]));
+    for (const label of new Set([...oldAt.keys(), ...newAt.keys()])) {
+      const was = oldAt.get(label);
+      const now = newAt.get(label);
+      if (was !== now) bits.push(`${was ?? `${label} none`} → ${now ?? `${label} none`}`);
+    }
     if (bits.length) out.push(`${r.label}: ${bits.join(", ")}`);
   }
   const now = new Set(after.map((r) => r.label));

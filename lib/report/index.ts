@@ -8,5 +8,6 @@ export * from "./initialDraftSections";
 export * from "./charts";
 export * from "./formatComparison";
 export * from "./describeValueChanges";
+export * from "./describeInterpretationChanges";
 export * from "./carryForwardSections";
 export * from "./carryForwardDraft";

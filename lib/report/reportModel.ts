@@ -22,6 +22,11 @@ export interface ReportRow {
   sourceIds: string[];
   /** Why it is missing, or a reviewer's remark. */
   note?: string;
+  /**
+   * Thresholds only: the values read at the threshold, formatted with their unit (e.g. label "HR",
+   * value "HR 112 bpm"); also written into `note`, kept apart so changes between versions can be named.
+   */
+  atValues?: { label: string; value: string }[];
 }
 
 /**

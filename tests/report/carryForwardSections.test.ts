@@ -42,7 +42,12 @@ describe("carryForwardSections", () => {
     expect(conclusion.recheck).toMatchObject({
       fromVersion: 2,
       fromReportId: 7,
-      changes,
+      // How the section's generated text changed comes first (the conclusion matters most), then the values.
+      changes: [
+        "Generated text no longer says: “Reduced capacity.”",
+        "Generated text now says: “Reduced capacity; VT1 not low.”",
+        ...changes,
+      ],
       generated: ["Reduced capacity; VT1 not low."],
     });
     expect(conclusion.recheck!.reason).toMatch(/version 2 \(signed\).*numbers changed.*re-check/);
@@ -52,14 +57,16 @@ describe("carryForwardSections", () => {
 
   it("is never silent: a carried section has a note even when no displayed value changed", () => {
     const previous = { reportId: 3, version: 1, status: "draft" as const, sections: [s("conclusion", "Conclusion", "Edited.")] };
+    // Same generated text before and after: only the settings changed.
     const out = carryForwardSections({
       previous,
-      previousGenerated: generatedBefore,
+      previousGenerated: generatedAfter,
       nextGenerated: generatedAfter,
       changes: [],
     });
     const c = out.sections.find((x) => x.id === "conclusion")!;
     expect(c.paragraphs).toEqual(["Edited."]);
+    expect(c.recheck!.changes).toEqual([]);
     expect(c.recheck!.reason).toMatch(/no reported value changed/);
   });
 
@@ -83,7 +90,12 @@ describe("carryForwardSections", () => {
     });
     const c = out.sections.find((x) => x.id === "conclusion")!;
     expect(c.paragraphs).toEqual(["Reduced capacity."]);
-    expect(c.recheck!.changes).toEqual(["A: 1 → 2", "B: 3 → 4"]);
+    expect(c.recheck!.changes).toEqual([
+      "Generated text no longer says: “Reduced capacity.”",
+      "Generated text now says: “Reduced capacity; VT1 not low.”",
+      "A: 1 → 2",
+      "B: 3 → 4",
+    ]);
     expect(c.recheck!.fromVersion).toBe(3);
   });
 });
@@ -114,6 +126,29 @@ describe("describeValueChanges", () => {
       "VT1 (AT): 890 mL/min → 1100 mL/min",
       "New: newly reported, not determinable",
       "Gone: no longer reported (was 5 W)",
+    ]);
+  });
+});
+
+describe("describeValueChanges: the values read at a threshold", () => {
+  it("names each displayed value at the threshold that changed, and predicted and LLN changes", () => {
+    const at = (kg: string, pct: string, hr: string, w: string) => [
+      { label: "VO2/kg", value: `${kg} mL/kg/min` },
+      { label: "% of peak VO2", value: `${pct} % of peak VO2` },
+      { label: "HR", value: `HR ${hr} bpm` },
+      { label: "work rate", value: `${w} W` },
+    ];
+    const before: ReportRow[] = [
+      { label: "VT1 (AT)", value: "628", unit: "mL/min", method: "m", sourceIds: [], atValues: at("9.7", "61", "120", "44") },
+      { label: "Peak VO2", value: "1030", unit: "mL/min", predicted: "1500", lln: "1200", method: "m", sourceIds: [] },
+    ];
+    const after: ReportRow[] = [
+      { label: "VT1 (AT)", value: "582", unit: "mL/min", method: "m", sourceIds: [], atValues: at("9.0", "56", "113", "44") },
+      { label: "Peak VO2", value: "1030", unit: "mL/min", predicted: "1450", lln: "1200", method: "m", sourceIds: [] },
+    ];
+    expect(describeValueChanges(before, after)).toEqual([
+      "VT1 (AT): 628 mL/min → 582 mL/min, 9.7 mL/kg/min → 9.0 mL/kg/min, 61 % of peak VO2 → 56 % of peak VO2, HR 120 bpm → HR 113 bpm",
+      "Peak VO2: predicted 1500 mL/min → 1450 mL/min",
     ]);
   });
 });
