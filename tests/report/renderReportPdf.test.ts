@@ -72,6 +72,19 @@ function pagesText(pdf: Buffer): string[] {
 
 const signedAt = "2026-12-01T10:00:00.000Z";
 
+/** The text of the whole PDF with its line breaks (pdftotext, poppler), non-breaking spaces as spaces. */
+function rawText(pdf: Buffer): string {
+  requirePoppler();
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), "cpet-report-"));
+  const file = path.join(dir, "r.pdf");
+  fs.writeFileSync(file, pdf);
+  const text = execFileSync("pdftotext", [file, "-"])
+    .toString()
+    .replace(/\u00a0/g, " ");
+  fs.rmSync(dir, { recursive: true, force: true });
+  return text;
+}
+
 describe("renderReportPdf", () => {
   it("writes a PDF", async () => {
     const pdf = await renderReportPdf(exampleReportModel());
@@ -151,5 +164,34 @@ describe("renderReportPdf", () => {
       expect(text).toContain("DRAFT - not signed");
       expect(text).toContain(CLINICAL_CAUTION);
     }
+  });
+
+  it("keeps headers, arrows and 'not determinable' whole: no word split over two lines", async () => {
+    const model = await demoModel("pulmonary-vascular");
+    // INVENTED rows: every value column holds "not determinable", the longest value the report writes.
+    for (const r of model.keyValues.slice(0, 3)) r.value = "not determinable";
+    // The arrow at every position of a line: 60 change lines whose prefix grows by one character, so some
+    // arrow falls at the right margin whatever the font metrics (by construction).
+    model.sections[0] = {
+      ...model.sections[0],
+      recheck: {
+        fromVersion: 1,
+        fromReportId: 1,
+        reason: "Invented note for the layout check.",
+        changes: Array.from(
+          { length: 60 },
+          (_, i) => `${"x".repeat(i + 1)} VT1 (AT): 628 mL/min -> 582 mL/min -> 560 -> 540 -> 520`,
+        ),
+        generated: [],
+      },
+    };
+    const text = rawText(await renderReportPdf(model));
+    expect(text).toMatch(/\bSources\b/);
+    expect(text).not.toMatch(/Source\s*\n\s*s\b/);
+    expect(text).not.toMatch(/-\s*\n\s*>/); // "-" ending one line and ">" starting the next
+    expect(text).toContain("not determinable");
+    expect(text).not.toMatch(/determin\s*\n\s*able/);
+    expect(text).toContain("% pred.");
+    expect(text.split("628 mL/min -> 582 mL/min").length - 1).toBeGreaterThanOrEqual(30);
   });
 });

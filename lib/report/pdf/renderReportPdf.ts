@@ -54,6 +54,45 @@ function formatSignedAt(iso: string | undefined): string {
   return `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
 }
 
+/** Non-breaking space (WinAnsi 0xA0): keeps a short header or phrase on one line. */
+const NBSP = "\u00a0";
+
+/**
+ * Keep tokens that must not be split over two lines in one piece: the arrow "->" (the line
+ * breaker would otherwise break after its hyphen) becomes an unbreakable run, and
+ * "not determinable" is joined by a non-breaking space. Walks the document's text-bearing nodes
+ * only (text, stack, lists, columns, table bodies); chart SVG and style keys are left alone.
+ */
+function keepTokensTogether(node: unknown): unknown {
+  const split = (s: string): unknown => {
+    const t = s.replace(/not determinable/g, `not${NBSP}determinable`);
+    if (!t.includes("->")) return t;
+    const parts = t.split("->");
+    const out: unknown[] = [];
+    parts.forEach((p, i) => {
+      if (i > 0) out.push({ text: "->", noWrap: true });
+      if (p) out.push(p);
+    });
+    return { text: out };
+  };
+  if (typeof node === "string") return split(node);
+  if (Array.isArray(node)) return node.map(keepTokensTogether);
+  if (!node || typeof node !== "object") return node;
+  const o = { ...(node as Record<string, unknown>) };
+  if ("svg" in o) return o;
+  if (typeof o.text === "string") {
+    const t = split(o.text);
+    o.text = typeof t === "string" ? t : (t as { text: unknown[] }).text;
+  } else if (Array.isArray(o.text)) o.text = o.text.map(keepTokensTogether);
+  for (const k of ["stack", "ul", "ol", "columns"]) if (Array.isArray(o[k])) o[k] = (o[k] as unknown[]).map(keepTokensTogether);
+  if (o.table && typeof o.table === "object") {
+    const table = { ...(o.table as Record<string, unknown>) };
+    if (Array.isArray(table.body)) table.body = (table.body as unknown[][]).map((row) => row.map(keepTokensTogether));
+    o.table = table;
+  }
+  return o;
+}
+
 const heading = (text: string): Content => ({ text, style: "h2", margin: [0, 14, 0, 6] });
 
 const sourceRefs = (ids: string[], index: Map<string, number>): string =>
@@ -64,7 +103,7 @@ const sourceRefs = (ids: string[], index: Map<string, number>): string =>
     .join(" ");
 
 function valuesTable(rows: ReportRow[], index: Map<string, number>): Content {
-  const head = ["Measure", "Value", "Unit", "Predicted", "% pred.", "LLN", "Method", "Sources"].map((t): TableCell => ({
+  const head = ["Measure", "Value", "Unit", "Predicted", `%${NBSP}pred.`, "LLN", "Method", "Sources"].map((t): TableCell => ({
     text: t,
     style: "th",
   }));
@@ -82,7 +121,9 @@ function valuesTable(rows: ReportRow[], index: Map<string, number>): Content {
     ]);
   }
   return {
-    table: { headerRows: 1, widths: [78, 38, 44, 40, 30, 30, "*", 30], body },
+    // Number, unit and source columns as wide as their widest header or cell ("auto": pdfmake measures the
+    // longest unbreakable word), so no header or value is split inside a word; the method column takes the rest.
+    table: { headerRows: 1, widths: [78, "auto", "auto", "auto", "auto", "auto", "*", "auto"], body },
     // Light horizontal rules with narrow cell padding, so the method column keeps its width.
     layout: {
       hLineWidth: (i, node) => (i === 0 || i === node.table.body.length ? 0 : i === 1 ? 1 : 0.5),
@@ -169,7 +210,7 @@ export async function renderReportPdf(rawModel: ReportModel): Promise<Buffer> {
       ]),
     ];
     content.push({
-      table: { headerRows: 1, widths: [24, 90, 60, 80, "*", 40], body },
+      table: { headerRows: 1, widths: ["auto", 90, 70, 80, "*", "auto"], body },
       layout: "lightHorizontalLines",
       fontSize: 8.5,
     });
@@ -188,7 +229,7 @@ export async function renderReportPdf(rawModel: ReportModel): Promise<Buffer> {
       ]),
     ];
     content.push({
-      table: { headerRows: 1, widths: [100, 90, 40, "*", 40], body },
+      table: { headerRows: 1, widths: [100, 90, "auto", "*", "auto"], body },
       layout: "lightHorizontalLines",
       fontSize: 8.5,
     });
@@ -287,7 +328,7 @@ export async function renderReportPdf(rawModel: ReportModel): Promise<Buffer> {
         },
       ],
     }),
-    content,
+    content: keepTokensTogether(content) as Content[],
   };
   return pdfmake.createPdf(doc).getBuffer();
 }
