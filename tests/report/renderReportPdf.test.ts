@@ -192,6 +192,7 @@ describe("renderReportPdf", () => {
     expect(text).toContain("not determinable");
     expect(text).not.toMatch(/determin\s*\n\s*able/);
     expect(text).toContain("% pred.");
+    expect(text).not.toMatch(/mL\/\s*\n\s*(kg\/)?min/); // one-word units stay whole
     expect(text.split("628 mL/min -> 582 mL/min").length - 1).toBeGreaterThanOrEqual(30);
   });
 });

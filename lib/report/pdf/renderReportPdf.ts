@@ -111,11 +111,12 @@ function valuesTable(rows: ReportRow[], index: Map<string, number>): Content {
   for (const r of rows) {
     body.push([
       { text: r.label, bold: true },
-      { text: r.value, alignment: "right" },
-      displayUnit(r.unit),
-      { text: r.predicted ?? "", alignment: "right" },
-      { text: r.pctPredicted ?? "", alignment: "right" },
-      { text: r.lln ?? "", alignment: "right" },
+      // Numbers and one-word units ("mL/min", "mL/kg/min") never wrap (a line may break after "/").
+      { text: r.value, alignment: "right", noWrap: true },
+      { text: displayUnit(r.unit), noWrap: !/\s/.test(displayUnit(r.unit)) },
+      { text: r.predicted ?? "", alignment: "right", noWrap: true },
+      { text: r.pctPredicted ?? "", alignment: "right", noWrap: true },
+      { text: r.lln ?? "", alignment: "right", noWrap: true },
       { stack: [{ text: r.method, color: MUTED }, ...(r.note ? [{ text: r.note, color: MUTED, fontSize: 7.5 }] : [])] },
       { text: sourceRefs(r.sourceIds, index), color: MUTED },
     ]);
