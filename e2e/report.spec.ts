@@ -83,11 +83,18 @@ test("report: edit the draft, keep text through validation, sign, download the P
   );
   await page.reload();
   expect(await leave).toBe("beforeunload");
+  // The unsaved text survived the reload (kept in the tab), with a notice and a way to discard it.
+  await expect(page.getByTestId("restored-notice")).toContainText("Unsaved text from your last visit was restored");
+  await expect(report.section("conclusion")).toHaveValue(tooLong);
+  await page.getByTestId("discard-restored").click();
   await expect(report.section("conclusion")).toHaveValue(initialConclusion);
+  await expect(page.getByTestId("restored-notice")).toHaveCount(0);
 
-  // Signing needs the attestation.
+  // Signing needs the attestation; a refusal keeps the name typed so far.
   await report.sign("Dr E2E Reviewer", false);
   await expect(page.getByText("Confirm that you have reviewed the report")).toBeVisible();
+  await expect(page.getByTestId("signer")).toHaveValue("Dr E2E Reviewer");
+  await expect(page.getByTestId("attest")).not.toBeChecked();
   await report.sign("Dr E2E Reviewer");
   await expect(page.getByTestId("signed-by")).toContainText("Signed by Dr E2E Reviewer");
   await expect(page.getByTestId("draft-mark")).toHaveCount(0);
@@ -176,12 +183,20 @@ test("report: after a threshold override the reviewer's edited text is carried i
   await expect(note.getByRole("link", { name: /PDF of report version 1/ })).toBeVisible();
   await page.screenshot({ path: "reports/screenshots/report-carried-forward.png", fullPage: true });
 
-  // Not signable until the section is confirmed as re-checked.
+  // The reviewer's threshold reads once who set it and why, with no detection confidence.
+  const vt1Row = page.getByTestId("report-thresholds").locator("tr", { hasText: "VT1 (AT)" });
+  await expect(vt1Row).toContainText("set by the reviewer (E2E Reviewer): clear VE/VO2 rise with flat VE/VCO2 at this point");
+  expect((await vt1Row.innerText()).split("clear VE/VO2 rise").length - 1).toBe(1);
+  await expect(vt1Row).not.toContainText("confidence");
+
+  // Not signable until the section is confirmed as re-checked; the refusal keeps the name and the ticked box.
   await report.sign("Dr E2E Reviewer");
   await expect(page.getByTestId("sign-error")).toContainText("“Conclusion”");
   await expect(page.getByTestId("draft-mark")).toBeVisible();
+  await expect(page.getByTestId("signer")).toHaveValue("Dr E2E Reviewer");
+  await expect(page.getByTestId("attest")).toBeChecked();
   await page.getByTestId("rechecked-conclusion").check();
-  await report.sign("Dr E2E Reviewer");
+  await page.getByTestId("sign-submit").click();
   await expect(page.getByTestId("signed-by")).toContainText("Signed by Dr E2E Reviewer");
   await expect(page.getByTestId("signed-text")).toContainText(mine);
 
@@ -196,4 +211,35 @@ test("report: after a threshold override the reviewer's edited text is carried i
   await expect(page.getByTestId("recheck-changes-conclusion")).toContainText(
     `VT1 (AT): ${vt1New} mL/min → ${withMlMin(vt1Before)}`,
   );
+});
+
+test("report: unsaved text survives Back and Forward and is restored with a notice; saving clears it", async ({ page }) => {
+  const report = new ReportPage(page);
+  const testId = await report.openDemoReportByLabel(/deconditioning after illness/);
+  const typed = "Unsaved text typed before going Back (e2e).";
+  await report.section("conclusion").fill(typed);
+  await expect(page.getByTestId("draft-unsaved")).toBeVisible();
+  // Leave by an in-app link (it asks; accept), then Back and Forward, which cannot ask.
+  page.on("dialog", (d) => void d.accept());
+  await page.getByRole("link", { name: "Back to the test" }).click();
+  await page.waitForURL(new RegExp(`/tests/${testId}$`));
+  await page.goBack();
+  await page.waitForURL(/\/report$/);
+  await expect(report.section("conclusion")).toHaveValue(typed);
+  await expect(page.getByTestId("restored-notice")).toContainText(
+    "Unsaved text from your last visit was restored — save or discard it",
+  );
+  await page.goForward();
+  await page.waitForURL(new RegExp(`/tests/${testId}$`));
+  await page.goBack();
+  await page.waitForURL(/\/report$/);
+  await expect(report.section("conclusion")).toHaveValue(typed);
+  // Saving keeps the text and clears the kept copy: after a reload there is nothing to restore.
+  await report.saveDraft();
+  await expect(page.getByTestId("draft-saved")).toBeVisible();
+  await expect(page.getByTestId("restored-notice")).toHaveCount(0);
+  await page.reload();
+  await expect(report.section("conclusion")).toHaveValue(typed);
+  await expect(page.getByTestId("restored-notice")).toHaveCount(0);
+  expect(await page.evaluate(() => Object.keys(sessionStorage).filter((k) => k.startsWith("cpet-desk:unsaved")))).toEqual([]);
 });

@@ -1,30 +1,130 @@
 "use client";
 
-import { useCallback, useEffect, useMemo, useRef, useState } from "react";
+import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
 import type { SignState } from "./actions";
+import { createPortal } from "react-dom";
 import { DraftEditor, type EditableSection } from "./DraftEditor";
+import { REPORT_NOTICE_SLOT, toParagraphs } from "./schemas";
 import { SignForm } from "./SignForm";
 
 const LEAVE_WARNING = "The report text has changes that are not saved. Leave this page and lose them?";
+/** Two texts are the same when saving either would store the same paragraphs (CRLF, blank lines and edge spaces aside). */
+const same = (a = "", b = "") => toParagraphs(a).join("\n\n") === toParagraphs(b).join("\n\n");
+
+const RESTORED_NOTICE = "Unsaved text from your last visit was restored — save or discard it.";
+
+/**
+ * Where the unsaved text of one draft version is kept in this browser tab (sessionStorage), so it
+ * survives any way of leaving the page (Back/Forward, reload, a link): per test and draft version.
+ */
+export function unsavedTextKey(testId: number, version: number, reportId: number): string {
+  return `cpet-desk:unsaved-report-text:test-${testId}:version-${version}:report-${reportId}`;
+}
+
+/** Read the kept text; anything unreadable counts as nothing kept. */
+function readKept(key: string): Record<string, string> | null {
+  try {
+    const raw = window.sessionStorage.getItem(key);
+    if (!raw) return null;
+    const parsed: unknown = JSON.parse(raw);
+    if (!parsed || typeof parsed !== "object") return null;
+    const texts = (parsed as { texts?: unknown }).texts;
+    if (!texts || typeof texts !== "object") return null;
+    return Object.fromEntries(Object.entries(texts).filter((e): e is [string, string] => typeof e[1] === "string"));
+  } catch {
+    return null;
+  }
+}
+
 const PDF_WARNING = "The report text has changes that are not saved; the PDF holds the last saved text. Download it anyway?";
 
 /**
  * The report text editor and, while the version is a draft, the sign form, sharing one copy of
  * the on-screen text: what the sign form signs is exactly what the editor shows. Warns before the
  * page is left (reload, close, in-app link) while there are unsaved edits, and before a PDF of
- * the saved text is downloaded.
+ * the saved text is downloaded. Unsaved text is also kept in the tab's sessionStorage (keyed by
+ * test and draft version, see `unsavedTextKey`) while it differs from the saved text, so Back and
+ * Forward, which cannot ask, lose nothing: on return it is restored with a notice and a button to
+ * discard it. It is removed once the text is saved, signed or discarded.
  */
-export function DraftWorkspace(props: { testId: number; reportId: number; signed: boolean; sections: EditableSection[] }) {
+export function DraftWorkspace(props: {
+  testId: number;
+  reportId: number;
+  /** Version number of this report (1-based, per test). */
+  version: number;
+  signed: boolean;
+  sections: EditableSection[];
+}) {
   const initial = useMemo(() => Object.fromEntries(props.sections.map((s) => [s.id, s.text])), [props.sections]);
   const [texts, setTexts] = useState<Record<string, string>>(initial);
   const [saved, setSaved] = useState<Record<string, string>>(initial);
   const [acks, setAcks] = useState<Record<string, boolean>>({});
   const [signErrors, setSignErrors] = useState<Record<string, string>>({});
 
-  // Browsers send line breaks as CRLF: compare texts with line breaks normalised.
-  const same = (a = "", b = "") => a.replace(/\r\n?/g, "\n") === b.replace(/\r\n?/g, "\n");
-  const dirty =
-    props.sections.some((s) => !same(texts[s.id], saved[s.id])) || props.sections.some((s) => s.recheck && acks[s.id]);
+  // The server text changed (saved, signed, or a new analysis): that is now the saved text.
+  const [savedFrom, setSavedFrom] = useState(initial);
+  if (savedFrom !== initial) {
+    setSavedFrom(initial);
+    setSaved(initial);
+  }
+
+  const textDirty = props.sections.some((s) => !same(texts[s.id], saved[s.id]));
+  const dirty = textDirty || props.sections.some((s) => s.recheck && acks[s.id]);
+
+  // Keep unsaved text across navigation. Restored after the first render (the server render knows
+  // nothing of this tab's storage); written only from then on, so the restore is never overwritten.
+  const storageKey = unsavedTextKey(props.testId, props.version, props.reportId);
+  const [hydrated, setHydrated] = useState(false);
+  const [restored, setRestored] = useState(false);
+  // The restore runs once per mount and storage key, against the server text of that moment, before
+  // the first paint (a layout effect), so the saved text never flashes in place of the kept one.
+  const initialRef = useRef(initial);
+  useLayoutEffect(() => {
+    const kept = readKept(storageKey);
+    if (kept) {
+      const first = initialRef.current;
+      const changed = Object.entries(kept).filter(([id, t]) => id in first && !same(t, first[id]));
+      if (changed.length) {
+        // Restoring browser state kept outside React (sessionStorage) once, after hydration.
+        setTexts((t) => ({ ...t, ...Object.fromEntries(changed) }));
+        setRestored(true);
+      }
+    }
+    setHydrated(true);
+  }, [storageKey]);
+  useEffect(() => {
+    if (!hydrated) return;
+    try {
+      if (textDirty) {
+        const unsaved = Object.fromEntries(
+          props.sections.filter((s) => !same(texts[s.id], saved[s.id])).map((s) => [s.id, texts[s.id]]),
+        );
+        window.sessionStorage.setItem(storageKey, JSON.stringify({ texts: unsaved, keptAt: new Date().toISOString() }));
+      } else window.sessionStorage.removeItem(storageKey);
+    } catch {
+      // Storage full or disabled: the leave warnings still protect the text.
+    }
+  }, [hydrated, textDirty, texts, saved, storageKey, props.sections]);
+  const discardRestored = () => {
+    setTexts(saved);
+    setRestored(false);
+  };
+  // Shown at the top of the page (the slot `REPORT_NOTICE_SLOT` that the page provides), where a
+  // returning reviewer sees it first; beside the editor when there is no slot.
+  const [noticeSlot, setNoticeSlot] = useState<HTMLElement | null>(null);
+  useEffect(() => {
+    // Looked up after mount: the slot is server-rendered markup outside this component.
+    setNoticeSlot(document.getElementById(REPORT_NOTICE_SLOT));
+  }, []);
+  const notice =
+    restored && textDirty ? (
+      <p className="panel sev-warning" data-testid="restored-notice" role="status">
+        {RESTORED_NOTICE}{" "}
+        <button type="button" className="secondary" onClick={discardRestored} data-testid="discard-restored">
+          Discard the restored text
+        </button>
+      </p>
+    ) : null;
 
   const onSaved = useCallback((t: Record<string, string>) => {
     setSaved(t);
@@ -71,7 +171,8 @@ export function DraftWorkspace(props: { testId: number; reportId: number; signed
 
   return (
     <>
-      <details open={!props.signed}>
+      {notice && noticeSlot ? createPortal(notice, noticeSlot) : notice}
+      <details open={!props.signed || (restored && textDirty)}>
         <summary>{props.signed ? "Revise the text (creates a new draft version)" : "Edit the draft text"}</summary>
         <DraftEditor
           testId={props.testId}

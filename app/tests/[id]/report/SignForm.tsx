@@ -1,13 +1,16 @@
 "use client";
 
-import { useActionState, useEffect, useState } from "react";
+import { startTransition, useActionState, useEffect, useState, type FormEvent } from "react";
 import { signReportAction, type SignState } from "./actions";
 import { ATTESTATION } from "./schemas";
 
 /**
  * Sign the current draft: the signer's name, an explicit review attestation, and the report text
  * exactly as it is on screen (hidden fields mirroring the editor), which the server saves and signs
- * in one step. When the on-screen text has unsaved changes the form says so before signing.
+ * in one step. When the on-screen text has unsaved changes the form says so before signing. The
+ * name and the attestation box are kept as they were when signing is refused (the form is
+ * submitted by hand, so it is not reset after the action), so the reviewer can fix what was
+ * refused and sign again.
  */
 export function SignForm(props: {
   testId: number;
@@ -20,11 +23,17 @@ export function SignForm(props: {
 }) {
   const [state, action, pending] = useActionState<SignState, FormData>(signReportAction, {});
   const [signer, setSigner] = useState(state.values?.signer ?? "");
+  const [attest, setAttest] = useState(false);
   const { onResult } = props;
   useEffect(() => onResult(state), [state, onResult]);
   const errors = state.errors ?? {};
+  const submit = (e: FormEvent<HTMLFormElement>) => {
+    e.preventDefault();
+    const data = new FormData(e.currentTarget);
+    startTransition(() => action(data));
+  };
   return (
-    <form action={action} className="stack" data-testid="sign-form">
+    <form onSubmit={submit} className="stack" data-testid="sign-form">
       <input type="hidden" name="testId" value={props.testId} />
       <input type="hidden" name="reportId" value={props.reportId} />
       {props.sections.map((s) => (
@@ -52,7 +61,13 @@ export function SignForm(props: {
         {errors.signer ? <span className="sev-error">{errors.signer}</span> : null}
       </label>
       <label style={{ display: "flex", gap: "0.5rem", alignItems: "flex-start" }}>
-        <input type="checkbox" name="attest" data-testid="attest" />
+        <input
+          type="checkbox"
+          name="attest"
+          data-testid="attest"
+          checked={attest}
+          onChange={(e) => setAttest(e.target.checked)}
+        />
         <span>{ATTESTATION}</span>
       </label>
       {errors.attest ? <span className="sev-error">{errors.attest}</span> : null}

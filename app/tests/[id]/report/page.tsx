@@ -5,6 +5,7 @@ import { IssueList } from "../../../components/IssueList";
 import { DraftWorkspace } from "./DraftWorkspace";
 import { loadReport } from "./loadReport";
 import { ReportValuesTable } from "./ReportValuesTable";
+import { REPORT_NOTICE_SLOT } from "./schemas";
 
 export const dynamic = "force-dynamic";
 
@@ -36,6 +37,7 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
           {model.draftMark}
         </p>
       )}
+      <div id={REPORT_NOTICE_SLOT} />
       {recheck.length ? (
         <p className="panel sev-warning" data-testid="recheck-banner">
           <strong>The analysis changed after the text was edited.</strong> Your text in{" "}
@@ -137,6 +139,7 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
         key={report.id}
         testId={testId}
         reportId={report.id}
+        version={report.version}
         signed={signed}
         sections={model.sections.map((s) => ({
           id: s.id,

@@ -1,5 +1,8 @@
 import { z } from "zod";
 
+/** Id of the element near the top of the report page where the restored-text notice is shown. */
+export const REPORT_NOTICE_SLOT = "report-text-notice";
+
 /** Longest text accepted in one section (characters): a generous page of prose. */
 export const SECTION_MAX_CHARS = 4000;
 
