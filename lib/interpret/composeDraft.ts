@@ -214,10 +214,15 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     const rx: string[] = [];
     if (!domains.length) rx.push("Intensity domains were not available; a prescription needs VT1 and VT2.");
     for (const d of domains) {
-      const hr =
-        d.hrFromBpm !== undefined || d.hrToBpm !== undefined ? `heart rate ${d.hrFromBpm ?? "…"}–${d.hrToBpm ?? "…"} bpm` : "";
-      const w =
-        d.workFromW !== undefined || d.workToW !== undefined ? `work rate ${d.workFromW ?? "…"}–${d.workToW ?? "…"} W` : "";
+      // Open-ended ranges in the words of the domains table: "up to 122", "from 158" (common practice).
+      const range = (lo: number | undefined, hi: number | undefined, unit: string) =>
+        lo !== undefined && hi !== undefined
+          ? `${lo}–${hi} ${unit}`
+          : lo === undefined
+            ? `up to ${hi} ${unit}`
+            : `from ${lo} ${unit}`;
+      const hr = d.hrFromBpm !== undefined || d.hrToBpm !== undefined ? `heart rate ${range(d.hrFromBpm, d.hrToBpm, "bpm")}` : "";
+      const w = d.workFromW !== undefined || d.workToW !== undefined ? `work rate ${range(d.workFromW, d.workToW, "W")}` : "";
       rx.push(`${d.name}: ${[hr, w].filter(Boolean).join(", ") || "no range available"}.`);
     }
     if (domains.length)

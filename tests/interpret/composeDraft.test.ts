@@ -51,6 +51,21 @@ describe("draft report text", () => {
     expect(d.sections.find((s) => s.id === "conclusion")!.paragraphs.join(" ")).toMatch(/consistent with a cardiovascular/);
   });
 
+  it("open-ended domain ranges read as the domains table does: 'up to' and 'from', never '…'", () => {
+    const d = composeDraft(fx.input, r, {
+      domains: [
+        { name: "Moderate (below VT1)", hrToBpm: 122, workToW: 90 },
+        { name: "Heavy (VT1 to VT2)", hrFromBpm: 122, hrToBpm: 158, workFromW: 90, workToW: 160 },
+        { name: "Severe (above VT2)", hrFromBpm: 158, workFromW: 160 },
+      ],
+    });
+    const rx = d.sections.find((s) => s.id === "prescription")!.paragraphs.join(" ");
+    expect(rx).toMatch(/Moderate \(below VT1\): heart rate up to 122 bpm, work rate up to 90 W\./);
+    expect(rx).toMatch(/Heavy \(VT1 to VT2\): heart rate 122–158 bpm, work rate 90–160 W\./);
+    expect(rx).toMatch(/Severe \(above VT2\): heart rate from 158 bpm, work rate from 160 W\./);
+    expect(rx).not.toMatch(/…/);
+  });
+
   it("a submaximal test says that only effort-independent variables were interpreted", () => {
     const input = baseInput({ peakRer: 0.95, hrPctPred: 70, hrReserveBpm: 50 });
     const d = composeDraft(input, interpret(input));
