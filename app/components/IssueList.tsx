@@ -6,7 +6,8 @@ export function IssueList({ issues, testId }: { issues: Issue[]; testId?: string
   return (
     <ul className="issues" data-testid={testId ?? "issue-list"}>
       {sortIssues(issues).map((i, k) => (
-        <li key={k} className={`sev-${i.severity}`}>
+        // the issue's code stays available to developers (data-code), never as visible text
+        <li key={k} className={`sev-${i.severity}`} data-code={i.code}>
           <strong>{i.severity}</strong> · {i.message}
           {i.where?.row ? (
             <span className="how">
@@ -15,7 +16,6 @@ export function IssueList({ issues, testId }: { issues: Issue[]; testId?: string
               {i.where.column ? `, column ${i.where.column}` : ""})
             </span>
           ) : null}
-          <span className="how"> [{i.code}]</span>
         </li>
       ))}
     </ul>
