@@ -13,6 +13,8 @@ import { Chart } from "../../components/Chart";
 import { IssueList } from "../../components/IssueList";
 import { TableScroll } from "../../components/TableScroll";
 import { clearOverride } from "./actions";
+import { FIELD_LABEL, readAsShortText, shortFieldLabel, type FieldKey } from "./columns/fieldChoices";
+import { loadColumnReview } from "./columns/loadColumnReview";
 import { fmt, HowFound, SourceList } from "./parts/HowFound";
 import { OverrideForm } from "./parts/OverrideForm";
 import { SettingsForm } from "./parts/SettingsForm";
@@ -53,6 +55,9 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
   if (!test) notFound();
 
   if (!test.record) {
+    // Mapping columns by hand helps only when the kept file reads as a table (the column page says the same).
+    const review = await loadColumnReview(testId);
+    const mappable = Boolean(review?.format);
     return (
       <>
         <h1>{test.label}</h1>
@@ -62,11 +67,19 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           <IssueList issues={test.importIssues} />
           {test.importColumns.length > 0 ? <ColumnTable columns={test.importColumns} /> : null}
           {test.uploadId ? <a href={`/api/uploads/${test.uploadId}`}>Download the original file</a> : null}
-          <p>
-            <Link href={`/tests/${testId}/columns`} data-testid="columns-link">
-              Map the columns by hand and read the file again →
-            </Link>
-          </p>
+          {mappable ? (
+            <p>
+              <Link href={`/tests/${testId}/columns`} data-testid="columns-link">
+                Map the columns by hand and read the file again →
+              </Link>
+            </p>
+          ) : (
+            <p data-testid="not-a-table">
+              This file cannot be read as a table, so there are no columns to map. Export the test again from the recording system
+              as a CSV or XLSX file (one row per breath or stage, one column per quantity, names in the first row) and upload that
+              file from the <Link href="/">test register</Link>.
+            </p>
+          )}
         </section>
       </>
     );
@@ -83,6 +96,8 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
   const p = record.patient;
   const av = result.conditioned.averaging;
   const effort = result.interpretation.effort;
+  // threshold method id → its label, so a consensus's "how was this found?" names its methods in words
+  const methodLabels = Object.fromEntries(result.thresholds.methods.map((m) => [m.id, `${m.which.toUpperCase()} ${m.label}`]));
   const avKey = AVERAGING_KEY[av.kind === "none" ? "none" : `${av.kind}:${av.seconds ?? av.breaths}`] ?? "none";
   const eqOptions = (quantities: string[]) =>
     EQUATIONS.filter(
@@ -180,7 +195,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                   {c.predicted ? `${c.predicted.equationLabel} (${c.predicted.status})` : "no applicable equation"}
                 </td>
                 <td>
-                  <HowFound m={c.measured} />
+                  <HowFound m={c.measured} methodLabels={methodLabels} />
                 </td>
               </tr>
             ))}
@@ -221,6 +236,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           at={ix.atVt1}
           title="VT1 (anaerobic threshold)"
           predVo2={result.predicted.values.vo2PeakMlMin?.value ?? null}
+          methodLabels={methodLabels}
         />
         <ThresholdCard
           testId={testId}
@@ -228,6 +244,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           at={ix.atVt2}
           title="VT2 (respiratory compensation point)"
           predVo2={result.predicted.values.vo2PeakMlMin?.value ?? null}
+          methodLabels={methodLabels}
         />
       </div>
       <details className="panel">
@@ -248,7 +265,13 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                 <tr key={m.id}>
                   <td>
                     {m.which.toUpperCase()} · {m.label}
-                    <SourceList ids={m.sourceIds} />
+                    {/* folded, so a method's several citations do not make its row many screens tall */}
+                    {m.sourceIds.length > 0 ? (
+                      <details className="how">
+                        <summary>sources ({m.sourceIds.length})</summary>
+                        <SourceList ids={m.sourceIds} />
+                      </details>
+                    ) : null}
                   </td>
                   <td className="num">{fmt(m.vo2MlMin)}</td>
                   <td className="num nowrap">{m.timeS !== null ? formatClock(m.timeS) : "—"}</td>
@@ -431,7 +454,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
 
       <h2 id="patterns">Limitation patterns (ranked; never a single diagnosis)</h2>
       <TableScroll label="Limitation patterns">
-        <table className="wide" data-testid="patterns">
+        <table className="wide" data-testid="patterns" style={{ minWidth: "56rem" }}>
           <thead>
             <tr>
               <th>Pattern</th>
@@ -503,7 +526,8 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         <ul className="how">
           {result.conditioned.removed.slice(0, 200).map((r) => (
             <li key={`${r.index}-${r.field}`}>
-              {formatClock(r.timeS)} {r.field} = {r.value.toFixed(1)}: {r.reason}
+              {formatClock(r.timeS)} {r.field in FIELD_LABEL ? shortFieldLabel(r.field as FieldKey) : "value"}{" "}
+              {r.value.toFixed(1)}: {r.reason}
             </li>
           ))}
         </ul>
@@ -595,8 +619,10 @@ function ThresholdCard({
   at,
   title,
   predVo2,
+  methodLabels,
 }: {
   testId: number;
+  methodLabels: Record<string, string>;
   t: ThresholdEstimate;
   at: import("@/lib/thresholds").ValuesAtThreshold | null;
   title: string;
@@ -663,7 +689,7 @@ function ThresholdCard({
           </form>
         </div>
       ) : null}
-      <HowFound m={t.vo2MlMin} />
+      <HowFound m={t.vo2MlMin} methodLabels={methodLabels} />
       <OverrideForm testId={testId} which={which} />
     </section>
   );
@@ -684,10 +710,7 @@ function ColumnTable({ columns }: { columns: import("@/lib/breath").ColumnDecisi
           {columns.map((c) => (
             <tr key={c.index}>
               <td>{c.header}</td>
-              <td>
-                {c.field ?? "ignored"}
-                {c.unit ? ` (${c.field === "hrBpm" && c.unit === "1/min" ? HR_UNIT : c.unit})` : ""}
-              </td>
+              <td>{readAsShortText(c)}</td>
               <td className="how">{c.reason}</td>
             </tr>
           ))}

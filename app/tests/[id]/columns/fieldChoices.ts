@@ -93,9 +93,27 @@ export function reasonAfterTag(reason: string, tag: string): string {
   return reason.slice(tag.length).trimStart();
 }
 
+/** A field's label without its explanatory words, for use beside a unit ("VE (ventilation)" → "VE"). */
+export function shortFieldLabel(field: FieldKey): string {
+  return FIELD_LABEL[field].replace(/\s*\(.*\)$/, "");
+}
+
 /** "VO2 (L/min)", "ignored", "VO2 kept per kg (mL/kg/min)". */
 export function readAsText(c: Pick<ColumnDecision, "field" | "unit" | "storedAs">): string {
   if (c.storedAs === "vo2MlKgMin" && c.field === null) return `VO2 kept per kg${c.unit ? ` (${c.unit})` : ""}`;
   if (!c.field) return "ignored";
   return `${FIELD_LABEL[c.field]}${c.unit ? ` (${c.unit})` : ""}`;
+}
+
+/**
+ * What a column was read as, short, for the analysis page's summary of the file: "Time (s)", "VE (L/min)",
+ * "Heart rate (bpm)", "Respiratory rate (breaths/min)" (per-minute counts named as everywhere on that page),
+ * "ignored".
+ */
+export function readAsShortText(c: Pick<ColumnDecision, "field" | "unit" | "storedAs">): string {
+  if (c.storedAs === "vo2MlKgMin" && c.field === null) return `VO2 kept per kg${c.unit ? ` (${c.unit})` : ""}`;
+  if (!c.field) return "ignored";
+  const perMinute = c.field === "hrBpm" ? "bpm" : c.field === "rrBrMin" ? "breaths/min" : c.unit;
+  const unit = c.unit === "1/min" ? perMinute : c.unit;
+  return `${shortFieldLabel(c.field)}${unit ? ` (${unit})` : ""}`;
 }

@@ -91,7 +91,9 @@ export default async function ColumnReviewPage({ params }: { params: Promise<{ i
         />
       ) : (
         <p className="sev-error" style={{ padding: "0.5rem" }}>
-          The kept file cannot be read as a table at all, so there are no columns to map. See the problems below.
+          The kept file cannot be read as a table at all, so there are no columns to map. See the problems below, then export the
+          test again from the recording system as a CSV or XLSX file and upload that file from the{" "}
+          <Link href="/">test register</Link>.
         </p>
       )}
 
