@@ -1,4 +1,5 @@
-import { DEFAULT_LAB_SETTINGS, EQUATIONS } from "@/lib/predicted";
+import { DEFAULT_LAB_SETTINGS, EQUATIONS, PREDICTED_QUANTITIES, type PredictedQuantity } from "@/lib/predicted";
+import { TableScroll } from "../components/TableScroll";
 
 export const dynamic = "force-static";
 
@@ -7,6 +8,15 @@ const STATUS_WORDS: Record<string, string> = {
   secondary: "seen in a secondary reproduction",
   recalled: "recalled — verify before relying on it",
 };
+
+/** A predicted quantity in words with its unit: "lowest VE/VCO2 (no unit)", "maximal heart rate (bpm)". */
+function quantityWords(quantity: PredictedQuantity): string {
+  const q = PREDICTED_QUANTITIES[quantity];
+  const unit = q.unit === "1" ? "no unit" : q.unit === "1/min" ? "bpm" : q.unit;
+  return `${q.label} (${unit})`;
+}
+
+const ERGOMETER_WORDS: Record<string, string> = { both: "cycle or treadmill" };
 
 /** The reference equations the engine can evaluate, each with its population, source and check values. */
 export default function EquationsPage() {
@@ -19,42 +29,44 @@ export default function EquationsPage() {
         with its citation, evidence status, derivation population and check values that the test suite reproduces. Equations
         marked “lab default” are used unless the lab chooses otherwise.
       </p>
-      <table data-testid="equation-list">
-        <thead>
-          <tr>
-            <th>Id</th>
-            <th>What it predicts</th>
-            <th>Population</th>
-            <th>Source</th>
-            <th>Evidence</th>
-            <th>Checks</th>
-          </tr>
-        </thead>
-        <tbody>
-          {EQUATIONS.map((e) => (
-            <tr key={e.id}>
-              <td>
-                <code>{e.id}</code> {defaults.has(e.id) ? <span className="tag">lab default</span> : null}
-                {e.kind === "performance-estimate" ? <span className="tag">not a predicted normal</span> : null}
-              </td>
-              <td>
-                {e.label}
-                <div className="how">
-                  {e.quantity} ({e.unit}), {e.ergometer}
-                </div>
-              </td>
-              <td className="how">{e.population.cohort}</td>
-              <td className="how">
-                {e.source.authors} ({e.source.year}). {e.source.title}. {e.source.journal}
-                {e.source.volume ? ` ${e.source.volume}` : ""}
-                {e.source.pages ? `:${e.source.pages}` : ""}.
-              </td>
-              <td>{STATUS_WORDS[e.status] ?? e.status}</td>
-              <td className="num">{e.checkValues.length}</td>
+      <TableScroll label="Reference equations">
+        <table className="wide" data-testid="equation-list" style={{ minWidth: "60rem" }}>
+          <thead>
+            <tr>
+              <th>Id</th>
+              <th>What it predicts</th>
+              <th>Population</th>
+              <th>Source</th>
+              <th>Evidence</th>
+              <th>Checks</th>
             </tr>
-          ))}
-        </tbody>
-      </table>
+          </thead>
+          <tbody>
+            {EQUATIONS.map((e) => (
+              <tr key={e.id}>
+                <td>
+                  <code>{e.id}</code> {defaults.has(e.id) ? <span className="tag">lab default</span> : null}
+                  {e.kind === "performance-estimate" ? <span className="tag">not a predicted normal</span> : null}
+                </td>
+                <td>
+                  {e.label}
+                  <div className="how">
+                    {quantityWords(e.quantity)}, {ERGOMETER_WORDS[e.ergometer] ?? e.ergometer}
+                  </div>
+                </td>
+                <td className="how">{e.population.cohort}</td>
+                <td className="how">
+                  {e.source.authors} ({e.source.year}). {e.source.title}. {e.source.journal}
+                  {e.source.volume ? ` ${e.source.volume}` : ""}
+                  {e.source.pages ? `:${e.source.pages}` : ""}.
+                </td>
+                <td>{STATUS_WORDS[e.status] ?? e.status}</td>
+                <td className="num">{e.checkValues.length}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </TableScroll>
     </>
   );
 }
