@@ -83,8 +83,10 @@ export default async function ComparePage({
   const tests = listTests().filter((t) => t.status === "imported");
   const populations = INTERPRETATION_DATA.variability.populations;
   const labDefaults = getLabDefaults();
-  const a = q.before ? getTest(q.before) : null;
-  const b = q.after ? getTest(q.after) : null;
+  // One test chosen as both earlier and later compares nothing: refused with a message, never shown as "no change".
+  const sameTest = q.before !== undefined && q.before === q.after;
+  const a = q.before && !sameTest ? getTest(q.before) : null;
+  const b = q.after && !sameTest ? getTest(q.after) : null;
   const ra = a?.record ?? null;
   const rb = b?.record ?? null;
   const referralDefault =
@@ -153,7 +155,15 @@ export default async function ComparePage({
                 {check.differences.map((d) => (
                   <li key={d.field}>{d.text}</li>
                 ))}
+                {check.withinLimits.map((d) => (
+                  <li key={d.field} data-testid="within-limit">
+                    {d.text}
+                  </li>
+                ))}
               </ul>
+              <p className="how" style={{ margin: "0 0 0.3rem" }}>
+                The limits (age change between repeat tests, height difference) are our choice, not published cut-offs.
+              </p>
               {confirmed ? (
                 <p style={{ margin: 0 }}>
                   You confirmed both tests are of the same patient: changes are judged below. Correct the patient details of the
@@ -165,6 +175,17 @@ export default async function ComparePage({
                   noise. Choose two tests of one patient, or confirm above that they are the same patient.
                 </p>
               )}
+            </div>
+          ) : check.withinLimits.length > 0 ? (
+            <div className="panel sev-info" data-testid="patient-within-limits">
+              Details that differ within the limits we chose for one patient tested twice:
+              <ul style={{ margin: "0.3rem 0 0" }}>
+                {check.withinLimits.map((d) => (
+                  <li key={d.field} data-testid="within-limit">
+                    {d.text}
+                  </li>
+                ))}
+              </ul>
             </div>
           ) : null}
           <p>
@@ -237,6 +258,11 @@ export default async function ComparePage({
             </ul>
           ) : null}
         </section>
+      ) : sameTest ? (
+        <p className="panel sev-error" role="alert" data-testid="same-test">
+          The same test is chosen as both the earlier and the later test. A comparison needs two different tests of one patient:
+          choose another test for one of them.
+        </p>
       ) : (
         <p className="how">Choose two imported tests to compare.</p>
       )}
