@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { ensureDemoData } from "@/lib/store/seedDemo";
 import { listTests } from "@/lib/store/tests";
+import { TableScroll } from "./components/TableScroll";
 import { UploadForm } from "./components/UploadForm";
 
 export const dynamic = "force-dynamic";
@@ -22,28 +23,31 @@ export default async function RegisterPage() {
       </section>
       <section>
         <h2>Tests</h2>
-        <table data-testid="test-list">
-          <thead>
-            <tr>
-              <th>Label</th>
-              <th>File</th>
-              <th>State</th>
-              <th>Imported</th>
-            </tr>
-          </thead>
-          <tbody>
-            {tests.map((t) => (
-              <tr key={t.id}>
-                <td>
-                  <Link href={`/tests/${t.id}`}>{t.label}</Link> {t.demo ? <span className="tag">invented demo</span> : null}
-                </td>
-                <td>{t.fileName}</td>
-                <td>{t.status === "imported" ? "imported" : "refused — see why"}</td>
-                <td>{t.createdAt.slice(0, 16).replace("T", " ")}</td>
+        <TableScroll label="Tests">
+          <table className="register" data-testid="test-list">
+            <thead>
+              <tr>
+                <th>Label</th>
+                <th>File</th>
+                <th>State</th>
+                <th>Imported</th>
               </tr>
-            ))}
-          </tbody>
-        </table>
+            </thead>
+            <tbody>
+              {tests.map((t) => (
+                <tr key={t.id}>
+                  <td>
+                    <Link href={`/tests/${t.id}`}>{t.label}</Link> {t.demo ? <span className="tag">invented demo</span> : null}
+                  </td>
+                  <td>{t.fileName}</td>
+                  <td>{t.status === "imported" ? "imported" : "refused — see why"}</td>
+                  {/* a date and time never break across lines ("2026-12-02 10:15") */}
+                  <td className="nowrap">{t.createdAt.slice(0, 16).replace("T", " ")}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </TableScroll>
       </section>
     </>
   );
