@@ -67,8 +67,8 @@ async function pagesToCheck(page: Page): Promise<string[]> {
     ...tests,
     `/tests/${runner}/report`,
     `/tests/${vascular}/report`,
-    `/compare?before=${runner}&after=${runner}&population=healthy`,
     `/compare?before=${runner}&after=${vascular}&population=healthy`,
+    `/compare?before=${runner}&after=${vascular}&population=healthy&samePatient=confirmed`,
     "/equations",
     "/lab",
     "/",
@@ -182,25 +182,112 @@ test("comparing two different patients warns and withholds the change verdicts",
   await expect(warning).toBeVisible();
   await expect(warning).toContainText("may not be of the same patient");
   await expect(warning).toContainText("sex differs: male in the earlier test, female in the later one");
-  await expect(warning).toContainText("height differs by 13 cm"); // |165 − 178| = 13 cm > 5 cm
+  await expect(warning).toContainText("height differs by 13 cm (178 cm, then 165 cm), more than 5 cm (our choice)"); // |165 − 178| = 13 cm > 5 cm
   const verdicts = page.getByTestId("comparison").getByTestId("verdict");
   await expect(verdicts.first()).toBeVisible();
   for (const text of await verdicts.allInnerTexts()) expect(text).not.toMatch(/(beyond|within) measurement noise/);
   await expect(page.getByTestId("clinical-caution")).toBeVisible();
 });
 
-test("comparing a test with itself names the noise population and rounds as elsewhere", async ({ page }) => {
+test("choosing one test as both the earlier and the later test is refused with a message", async ({ page }) => {
   const runner = await testIdOf(page, /breathless runner/);
+  await page.goto("/compare");
+  const form = page.getByTestId("compare-form");
+  await form.locator('[name="before"]').selectOption(runner);
+  await form.locator('[name="after"]').selectOption(runner);
+  await form.locator('[name="population"]').selectOption("healthy");
+  await form.getByRole("button", { name: "Compare" }).click();
+  await expect(page.getByTestId("same-test")).toContainText("The same test is chosen as both the earlier and the later test");
+  await expect(page.getByTestId("comparison")).toHaveCount(0);
+  await expect(page.getByTestId("verdict")).toHaveCount(0);
+  await expect(page.getByTestId("clinical-caution")).toBeVisible();
+});
+
+test("the sameness check lists details beyond their limit and names those within it", async ({ page }) => {
+  const runner = await testIdOf(page, /breathless runner/); // invented: male, 45 y, 178 cm
+  const heart = await testIdOf(page, /heart failure assessment/); // invented: male, 62 y, 174 cm
+  await page.goto(`/compare?before=${runner}&after=${heart}&population=healthy`);
+  const warning = page.getByTestId("patient-mismatch");
+  // 62 − 45 = 17 y > 3 y between repeat tests (our choice) + 1 y whole-year rounding
+  await expect(warning).toContainText("age differs by 17 y (45 y, then 62 y)");
+  // |174 − 178| = 4 cm ≤ 5 cm (our choice): not a reason to refuse, but named so the reader sees it
+  await expect(warning.getByTestId("within-limit")).toHaveText(
+    "height differs by 4 cm (178 cm, then 174 cm) (within the limit: 5 cm, our choice)",
+  );
+  await expect(warning).toContainText("are our choice, not published cut-offs");
+});
+
+test("confirmed serial tests name the noise population and round as elsewhere", async ({ page }) => {
+  const runner = await testIdOf(page, /breathless runner/);
+  const vascular = await testIdOf(page, /pulmonary vascular/);
   await page.goto(`/tests/${runner}`);
   const peak = (await page.getByTestId("row-peakVo2").locator("td.num").first().innerText()).split(" ")[0];
-  await page.goto(`/compare?before=${runner}&after=${runner}&population=healthy`);
-  await expect(page.getByTestId("patient-mismatch")).toHaveCount(0);
+  await page.goto(`/compare?before=${runner}&after=${vascular}&population=healthy&samePatient=confirmed`);
   await expect(page.getByTestId("compare-population")).toContainText("Healthy adults");
   const row = page.getByTestId("compare-peakVo2MlMin");
   await expect(row.locator("td.num").nth(0)).toHaveText(peak);
-  // The same test twice: every change is 0 by construction, so a judged change is within the noise band.
-  await expect(row.getByTestId("verdict")).toContainText("within measurement noise");
-  await expect(row.getByTestId("verdict")).toContainText(/population: healthy adults/i);
+  await expect(row.getByTestId("verdict")).toContainText(/(beyond|within) measurement noise|not judged/);
+  await expect(page.getByTestId("comparison").getByTestId("verdict").first()).toBeVisible();
+  await expect(page.getByTestId("comparison")).toContainText(/population: healthy adults/i);
+});
+
+test("the analysis page shows messages and plain names, never internal codes", async ({ page }) => {
+  await page.goto(`/tests/${await testIdOf(page, /breathless runner/)}`);
+  await page.evaluate(() => document.querySelectorAll("details").forEach((d) => (d.open = true)));
+  const text = await page.locator("main").innerText();
+  // issue codes stay in a data attribute for developers, not in the text
+  expect(text).not.toMatch(/\[[a-z0-9]+(-[a-z0-9]+)+\]/);
+  const codes = await page.locator("#quality ~ ul.issues li[data-code]").count();
+  expect(codes).toBeGreaterThan(0);
+  // canonical field names and method ids never reach the reader
+  expect(text).not.toMatch(/\b(timeS|vo2MlMin|vco2MlMin|veLMin|hrBpm|vePeakLMin|mvvLMin)\b/);
+  expect(text).not.toMatch(/\bvt[12]-[a-z-]+/);
+  const columns = page.getByTestId("column-decisions");
+  await expect(columns.getByRole("row", { name: /^time_s/ })).toContainText("Time (s)");
+  await expect(columns.getByRole("row", { name: /^ve_l_min/ })).toContainText("VE (L/min)");
+  await expect(columns.getByRole("row", { name: /^hr_bpm/ })).toContainText("Heart rate (bpm)");
+  // provenance inputs in words with units: "MVV 156.0 L/min; VE peak 90.3 L/min", a time as m:ss
+  await expect(page.getByTestId("indices")).toContainText(/VE peak \d+\.\d\sL\/min/);
+  await expect(page.getByTestId("indices")).toContainText(/Inputs: time \d+:\d\d/);
+  await expect(page.getByTestId("threshold-vt1")).toContainText(/Inputs: methods: VT1 /);
+});
+
+test("the equations page names each quantity and its unit in words", async ({ page }) => {
+  await page.goto("/equations");
+  const list = page.getByTestId("equation-list");
+  await expect(list).toContainText("lowest VE/VCO2 (no unit)");
+  await expect(list).toContainText("maximal heart rate (bpm)");
+  await expect(list).not.toContainText("veVco2NadirRatio");
+});
+
+test("at 390 px register dates stay whole and the analysis tables scroll instead of growing tall rows", async ({ page }) => {
+  const runner = await testIdOf(page, /breathless runner/);
+  await page.setViewportSize({ width: 390, height: 844 });
+  await page.goto("/");
+  for (const cell of await page.getByTestId("test-list").locator("tbody td:nth-child(4)").all()) {
+    const text = (await cell.innerText()).trim();
+    expect(text).toMatch(/^\d{4}-\d\d-\d\d \d\d:\d\d$/);
+    const box = await cell.boundingBox();
+    const lines = await cell.evaluate((td) => {
+      const r = document.createRange();
+      r.selectNodeContents(td);
+      return new Set([...r.getClientRects()].filter((x) => x.width > 0).map((x) => Math.round(x.top))).size;
+    });
+    expect(lines, `date "${text}" in ${box?.height} px`).toBe(1);
+  }
+  await page.goto(`/tests/${runner}`);
+  // open the table folded in its own panel; each row's "how was this found?" and sources stay folded
+  await page.getByText("Each method's estimate").click();
+  await expect(page.getByTestId("threshold-methods")).toBeVisible();
+  const tall = await page.evaluate(() =>
+    [...document.querySelectorAll<HTMLElement>("main .table-scroll > table")].flatMap((t) =>
+      [...t.querySelectorAll("tbody > tr")]
+        .map((tr) => tr.getBoundingClientRect().height)
+        .filter((h) => h > 200)
+        .map((h) => `${t.dataset.testid}: row ${Math.round(h)} px`),
+    ),
+  );
+  expect(tall).toEqual([]);
 });
 
 test("the site icon is served", async ({ request }) => {

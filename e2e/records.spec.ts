@@ -118,3 +118,33 @@ test("patient details are corrected on their own page: limits enforced, typed va
   await expect(page.getByTestId("row-peakVo2")).toContainText("2500");
   await expect(page.getByTestId("row-peakVo2PerKg")).toContainText("25");
 });
+
+test("a file that is no table is refused without an offer to map columns, saying what to do instead", async ({ page }) => {
+  const register = new RegisterPage(page);
+  await register.open();
+  // INVENTED bytes that are neither text nor a workbook
+  await register.upload({ name: "not-a-table.csv", content: Buffer.from([0, 1, 2, 255, 254, 0, 7, 8, 9, 0, 0, 13]) });
+  await page.waitForURL(/\/tests\/\d+/);
+  const id = testIdFromUrl(page);
+  const refused = page.getByTestId("refused");
+  await expect(refused).toBeVisible();
+  await expect(refused.getByTestId("columns-link")).toHaveCount(0);
+  await expect(refused.getByTestId("not-a-table")).toContainText("no columns to map");
+  await expect(refused.getByTestId("not-a-table")).toContainText("as a CSV or XLSX file");
+  // the issue is given as its message; its code stays out of the visible text
+  await expect(refused.locator("li[data-code]")).not.toHaveCount(0);
+  expect(await refused.innerText()).not.toMatch(/\[[a-z0-9]+(-[a-z0-9]+)+\]/);
+
+  await page.goto(`/tests/${id}/columns`);
+  await expect(page.getByText("cannot be read as a table at all")).toBeVisible();
+  await expect(page.getByTestId("import-issues").locator("th")).toHaveText(["Severity", "Problem", "Row", "Column"]);
+});
+
+test("a refused file whose columns are only unknown keeps the offer to map them by hand", async ({ page }) => {
+  const register = new RegisterPage(page);
+  await register.open();
+  await register.upload({ name: "unknown-names.csv", content: unknownColumnsCsv() });
+  await page.waitForURL(/\/tests\/\d+/);
+  await expect(page.getByTestId("refused").getByTestId("columns-link")).toBeVisible();
+  await expect(page.getByTestId("not-a-table")).toHaveCount(0);
+});
