@@ -293,7 +293,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
 
       <h2 id="indices">Ventilatory, cardiac and gas-exchange indices</h2>
       <TableScroll label="Ventilatory, cardiac and gas-exchange indices">
-        <table data-testid="indices">
+        <table className="label-value" data-testid="indices">
           <tbody>
             <IndexRow
               label="VE/VCO2 slope, start of exercise to RCP"
@@ -387,7 +387,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         <>
           <h2>Lactate thresholds</h2>
           <TableScroll label="Lactate thresholds">
-            <table data-testid="lactate">
+            <table className="label-value" data-testid="lactate">
               <tbody>
                 {ix.lactate.thresholds.map((t) => (
                   <IndexRow
