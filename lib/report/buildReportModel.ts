@@ -189,15 +189,22 @@ export function buildReportModel(
     return {
       step: i + 1,
       variable: st.title,
-      value: comparisons.map(formatComparisonValue).join("; ") || "-",
-      cutoff: comparisons.map(formatComparisonCutoff).join("; ") || "-",
+      // each value once; category conditions (sex, ergometer …) choose a branch and are not cut-offs
+      value: unique(comparisons.map(formatComparisonValue)).join("; ") || "-",
+      cutoff:
+        unique(
+          comparisons
+            .filter((x) => typeof x.cutoff !== "string" && !(Array.isArray(x.cutoff) && typeof x.cutoff[0] === "string"))
+            .map(formatComparisonCutoff),
+        ).join("; ") || "-",
       outcome: st.text,
       sourceIds: unique(st.sourceIds),
     };
   });
   const schemes: ReportModel["schemes"] = result.interpretation.schemes.map((sc) => ({
     name: sc.name,
-    category: sc.overall ? sc.overall.label : "not assessable",
+    // the scheme's own overall wording: a category, "Graded variable by variable …" or why there is none
+    category: sc.overall ? sc.overall.label : sc.overallText,
     severity: sc.overall?.severity ?? -1,
     inputs: [...sc.axes.map((a) => a.text), ...(sc.path?.steps.map((x) => x.text) ?? [])],
     sourceIds: unique(sc.sourceIds),
