@@ -1,25 +1,8 @@
+import { FIELD_WORDS } from "@/lib/breath";
 import { formatClock, formatNumber } from "@/lib/units";
 
-/**
- * Short plain names of the canonical breath fields, as they read inside a sentence ("VE/VCO2 interpolated
- * at 11:12"). The column page's longer labels (FIELD_LABEL) name a column; these name a quantity.
- */
-const FIELD_WORD: Record<string, string> = {
-  timeS: "time",
-  vo2MlMin: "VO2",
-  vco2MlMin: "VCO2",
-  veLMin: "VE",
-  hrBpm: "heart rate",
-  workW: "work rate",
-  speedKmh: "speed",
-  gradePct: "grade",
-  rrBrMin: "respiratory rate",
-  vtL: "tidal volume",
-  peto2MmHg: "PETO2",
-  petco2MmHg: "PETCO2",
-  spo2Pct: "SpO2",
-  lactateMmolL: "lactate",
-};
+/** Plain names of the canonical breath fields inside a sentence ("VE/VCO2 interpolated at 11:12"). */
+const FIELD_WORD: Record<string, string> = FIELD_WORDS;
 
 /**
  * A provenance label with canonical field names replaced by plain ones and times in seconds given as
