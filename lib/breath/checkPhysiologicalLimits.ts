@@ -115,13 +115,26 @@ export function checkPhysiologicalLimits(rows: readonly BreathRow[], options: Ph
     const parts: string[] = [];
     if (above > 0) parts.push(`${above} value(s) above ${max} ${unit} (highest ${fmt(highest)})`);
     if (below > 0) parts.push(`${below} value(s) below ${min} ${unit} (lowest ${fmt(lowest)})`);
+    const subject = `${name}${derived ? ` (VO2 ÷ body mass ${fmt(weight!)} kg)` : ""} in ${where}: ${parts.join(" and ")}${firstRow !== undefined ? `, first at row ${firstRow}` : ""}`;
+    // A few isolated breaths (a cough, a sigh, a swallow) beyond the limit are artefacts, which conditioning sets
+    // aside; a column whose values lie there in more than 1 % of rows (at least 3) points to a wrong column or unit.
+    // The 1 % / 3-row split is our choice.
+    const count = above + below;
+    const isolated = options.shape !== "stage" && count < Math.max(3, 0.01 * rows.length);
     issues.push(
-      makeIssue(
-        "warning",
-        "beyond-physiological-limit",
-        `${name}${derived ? ` (VO2 ÷ body mass ${fmt(weight!)} kg)` : ""} in ${where}: ${parts.join(" and ")}${firstRow !== undefined ? `, first at row ${firstRow}` : ""}. This is beyond physiological plausibility for an exercise test (common practice): check the column and its unit; results computed from it are not reliable.`,
-        { column: header, row: firstRow, field },
-      ),
+      isolated
+        ? makeIssue(
+            "info",
+            "beyond-physiological-limit",
+            `${subject}. Isolated breaths beyond physiological plausibility (common practice) are artefacts; the artefact screen of conditioning sets such breaths aside.`,
+            { column: header, row: firstRow, field },
+          )
+        : makeIssue(
+            "warning",
+            "beyond-physiological-limit",
+            `${subject}. This is beyond physiological plausibility for an exercise test (common practice): check the column and its unit; results computed from it are not reliable.`,
+            { column: header, row: firstRow, field },
+          ),
     );
   }
 

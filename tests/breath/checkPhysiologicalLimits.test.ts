@@ -46,7 +46,9 @@ describe("checkPhysiologicalLimits (invented rows)", () => {
     const issues = checkPhysiologicalLimits(rows, { headers: { vo2MlMin: "V'O2", veLMin: "VE", hrBpm: "HF" } });
     const byField = new Map(issues.map((i) => [i.where?.field, i]));
     const vo2 = byField.get("vo2MlMin")!;
-    expect(vo2.severity).toBe("warning");
+    // two isolated breaths (fewer than 3 and under 1 % of the rows): artefacts, an info line
+    expect(vo2.severity).toBe("info");
+    expect(vo2.message).toContain("Isolated breaths");
     expect(vo2.code).toBe("beyond-physiological-limit");
     expect(vo2.where).toEqual({ column: "V'O2", row: 102, field: "vo2MlMin" });
     expect(vo2.message).toContain("2 value(s) above 7000 mL/min (highest 7600)");
@@ -60,6 +62,16 @@ describe("checkPhysiologicalLimits (invented rows)", () => {
     expect(issues).toHaveLength(3);
     // input not mutated
     expect(rows[100].vo2MlMin).toBe(7200);
+  });
+
+  it("values beyond the limit in more than 1 % of the rows point to a wrong column or unit: a warning", () => {
+    const rows = normalRows();
+    const n = Math.max(3, Math.ceil(0.02 * rows.length)); // 2 % of the rows, at least 3
+    for (let i = 0; i < n; i++) rows[20 + i] = { ...rows[20 + i], vo2MlMin: 7500 };
+    const [vo2] = checkPhysiologicalLimits(rows);
+    expect(vo2.severity).toBe("warning");
+    expect(vo2.message).toContain(`${n} value(s) above 7000 mL/min (highest 7500)`);
+    expect(vo2.message).toContain("results computed from it are not reliable");
   });
 
   it("per kg: absolute VO2 ÷ body mass, or a per-kg column as given", () => {
