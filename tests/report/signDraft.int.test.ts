@@ -3,7 +3,7 @@ import { closeDb } from "../../lib/store/db";
 import { getOrCreateDraft, getReport, saveDraft } from "../../lib/store/reports";
 import { latestSettings, listAudit, saveAnalysisVersion, saveTest } from "../../lib/store/tests";
 import type { ReportSection } from "../../lib/report/reportModel";
-import { readSectionsForm, signFormSchema, toParagraphs } from "../../app/tests/[id]/report/schemas";
+import { readSignForm } from "../../app/tests/[id]/report/schemas";
 import { mergeRecheck, signDraft } from "../../app/tests/[id]/report/signDraft";
 
 // INVENTED report text (not patient data).
@@ -11,7 +11,6 @@ const generated: ReportSection[] = [
   { id: "results", title: "Results", paragraphs: ["Peak VO2 1284 mL/min."] },
   { id: "conclusion", title: "Conclusion", paragraphs: ["Generated conclusion."] },
 ];
-const ATTEST = "I have reviewed the data, the values, the charts and the text of this report.";
 
 function newDraft(sections: ReportSection[] = generated) {
   const testId = saveTest({ uploadId: null, label: "Sign test (invented)", record: null, columns: [], issues: [] });
@@ -35,24 +34,11 @@ function signForm(testId: number, reportId: number, texts: Record<string, string
   return form;
 }
 
-/** What the server action does with the form (parsing as in actions.ts, then `signDraft`). */
+/** What the server action does with the form: read it as the action does (`readSignForm`), then `signDraft`. */
 function submit(form: FormData) {
-  const { sections, rechecked } = readSectionsForm(form);
-  const parsed = signFormSchema.parse({
-    testId: form.get("testId"),
-    reportId: form.get("reportId"),
-    sections,
-    signer: form.get("signer"),
-    attest: form.get("attest") ?? undefined,
-  });
-  return signDraft({
-    testId: parsed.testId,
-    reportId: parsed.reportId,
-    signer: parsed.signer,
-    attestation: ATTEST,
-    sections: parsed.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: toParagraphs(s.text) })),
-    rechecked,
-  });
+  const { input, error } = readSignForm(form);
+  if (!input) throw error;
+  return signDraft(input);
 }
 
 describe("signDraft: what is signed is exactly the text on screen (SQLite in memory)", () => {

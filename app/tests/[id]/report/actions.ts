@@ -2,7 +2,7 @@
 
 import { revalidatePath } from "next/cache";
 import { getReport, saveDraft } from "@/lib/store/reports";
-import { ATTESTATION, draftFormSchema, readSectionsForm, sectionErrors, signFormSchema, toParagraphs } from "./schemas";
+import { draftFormSchema, readSectionsForm, readSignForm, sectionErrors, toOnScreen } from "./schemas";
 import { mergeRecheck, signDraft } from "./signDraft";
 
 export interface DraftState {
@@ -24,7 +24,7 @@ export async function saveDraftAction(_prev: DraftState, form: FormData): Promis
   const { testId, reportId } = parsed.data;
   const stored = getReport(reportId);
   if (!stored || stored.testId !== testId) return { texts, errors: { form: "This report no longer exists; reload the page." } };
-  const onScreen = parsed.data.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: toParagraphs(s.text) }));
+  const onScreen = toOnScreen(parsed.data.sections);
   const saved = saveDraft(reportId, mergeRecheck(stored.sections, onScreen, rechecked), "local user");
   if (!saved) return { texts, errors: { form: "This report no longer exists; reload the page." } };
   revalidatePath(`/tests/${testId}/report`);
@@ -45,19 +45,11 @@ export interface SignState {
  */
 export async function signReportAction(_prev: SignState, form: FormData): Promise<SignState> {
   const values = { signer: String(form.get("signer") ?? "") };
-  const { sections, rechecked } = readSectionsForm(form);
-  const parsed = signFormSchema.safeParse({
-    testId: form.get("testId"),
-    reportId: form.get("reportId"),
-    sections,
-    signer: form.get("signer"),
-    attest: form.get("attest") ?? undefined,
-  });
-  if (!parsed.success) {
+  const { sections, input, error } = readSignForm(form);
+  if (!input) {
     const errors: Record<string, string> = {};
-    const textIssues = parsed.error.issues.filter((i) => i.path[0] === "sections");
-    for (const issue of parsed.error.issues)
-      if (issue.path[0] !== "sections") errors[String(issue.path[0] ?? "form")] ??= issue.message;
+    const textIssues = error.issues.filter((i) => i.path[0] === "sections");
+    for (const issue of error.issues) if (issue.path[0] !== "sections") errors[String(issue.path[0] ?? "form")] ??= issue.message;
     const first = Object.entries(sectionErrors(textIssues, sections))[0];
     if (first) {
       const title = sections.find((s) => s.id === first[0])?.title;
@@ -65,15 +57,8 @@ export async function signReportAction(_prev: SignState, form: FormData): Promis
     }
     return { values, errors };
   }
-  const res = signDraft({
-    testId: parsed.data.testId,
-    reportId: parsed.data.reportId,
-    signer: parsed.data.signer,
-    attestation: ATTESTATION,
-    sections: parsed.data.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: toParagraphs(s.text) })),
-    rechecked,
-  });
+  const res = signDraft(input);
   if (!res.ok) return { values, errors: res.errors };
-  revalidatePath(`/tests/${parsed.data.testId}/report`);
+  revalidatePath(`/tests/${input.testId}/report`);
   return { signed: true, textSaved: res.textSaved };
 }

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import type { SignDraftInput } from "./signDraft";
 
 /** Id of the element near the top of the report page where the restored-text notice is shown. */
 export const REPORT_NOTICE_SLOT = "report-text-notice";
@@ -47,6 +48,11 @@ export function toParagraphs(text: string): string[] {
     .filter((p) => p.length > 0);
 }
 
+/** Validated sections as report sections: their text split into paragraphs. */
+export function toOnScreen(sections: readonly SubmittedSection[]): { id: string; title: string; paragraphs: string[] }[] {
+  return sections.map((x) => ({ id: x.id, title: x.title, paragraphs: toParagraphs(x.text) }));
+}
+
 /** One section as sent by the draft or sign form, before validation. */
 export interface SubmittedSection {
   id: string;
@@ -83,4 +89,35 @@ export function sectionErrors(
     if (key && !errors[key]) errors[key] = issue.message;
   }
   return errors;
+}
+
+/**
+ * The sign form read and validated, as the sign action uses it: the submitted sections (for messages) and
+ * either the input `signDraft` takes or the validation error.
+ */
+export function readSignForm(
+  form: FormData,
+): { sections: SubmittedSection[] } & ({ input: SignDraftInput; error: null } | { input: null; error: z.ZodError }) {
+  const { sections, rechecked } = readSectionsForm(form);
+  const parsed = signFormSchema.safeParse({
+    testId: form.get("testId"),
+    reportId: form.get("reportId"),
+    sections,
+    signer: form.get("signer"),
+    attest: form.get("attest") ?? undefined,
+  });
+  if (!parsed.success) return { sections, input: null, error: parsed.error };
+  const d = parsed.data;
+  return {
+    sections,
+    error: null,
+    input: {
+      testId: d.testId,
+      reportId: d.reportId,
+      signer: d.signer,
+      attestation: ATTESTATION,
+      sections: toOnScreen(d.sections),
+      rechecked,
+    },
+  };
 }
