@@ -9,6 +9,15 @@ import { plainRampCsv } from "../../e2e/fixtures/plain-ramp.csv";
 const bin = path.resolve(__dirname, "../../bin/cpet.mjs");
 const tmp = fs.mkdtempSync(path.join(os.tmpdir(), "cpet-cli-"));
 
+/** `cpet analyse --json` on the plain ramp with a separate lactate file of the given text. */
+function rampWithLactate(name: string, lactateCsv: string) {
+  const lac = path.join(tmp, `${name}.csv`);
+  fs.writeFileSync(lac, lactateCsv);
+  const file = path.join(tmp, `${name}-ramp.csv`);
+  fs.writeFileSync(file, plainRampCsv());
+  return JSON.parse(execFileSync(process.execPath, [bin, "analyse", file, "--json", "--lactate", lac], { encoding: "utf8" }));
+}
+
 function run(args: string[]) {
   return spawnSync(process.execPath, [bin, ...args], { encoding: "utf8", timeout: 60_000 });
 }
@@ -139,27 +148,15 @@ describe("cpet analyse: full output on real and invented files", () => {
   });
 
   it("accepts a separate lactate file with --lactate", () => {
-    const lac = path.join(tmp, "lactate.csv");
     // INVENTED samples on the plain ramp (work = time / 3 W): 1.0 → 6.0 mmol/L.
-    fs.writeFileSync(lac, "time_s,lactate_mmol_l\n0,1.0\n150,1.1\n300,1.6\n450,2.9\n600,6.0\n");
-    const file = path.join(tmp, "ramp2.csv");
-    fs.writeFileSync(file, plainRampCsv());
-    const json = JSON.parse(
-      execFileSync(process.execPath, [bin, "analyse", file, "--json", "--lactate", lac], { encoding: "utf8" }),
-    );
+    const json = rampWithLactate("lactate", "time_s,lactate_mmol_l\n0,1.0\n150,1.1\n300,1.6\n450,2.9\n600,6.0\n");
     // 4 mmol/L between 450 s (2.9) and 600 s (6.0): t = 450 + 150 × 1.1 / 3.1 = 503.2 s → work = t / 3 = 167.7 W.
     expect(json.lactate.obla4.workW).toBeCloseTo(167.7, 0);
   });
 
   it("a lactate curve that never reaches 4 mmol/L gives null for OBLA with its reason in issues", () => {
-    const lac = path.join(tmp, "lactate-low.csv");
     // INVENTED samples that stay below 4 mmol/L by construction (highest 3.2).
-    fs.writeFileSync(lac, "time_s,lactate_mmol_l\n0,1.0\n150,1.1\n300,1.6\n450,2.4\n600,3.2\n");
-    const file = path.join(tmp, "ramp3.csv");
-    fs.writeFileSync(file, plainRampCsv());
-    const json = JSON.parse(
-      execFileSync(process.execPath, [bin, "analyse", file, "--json", "--lactate", lac], { encoding: "utf8" }),
-    );
+    const json = rampWithLactate("lactate-low", "time_s,lactate_mmol_l\n0,1.0\n150,1.1\n300,1.6\n450,2.4\n600,3.2\n");
     expect(json.lactate.obla4.workW).toBeNull();
     const why = json.issues.filter((i: { message: string }) => /OBLA/.test(i.message));
     expect(why.length).toBeGreaterThan(0);
