@@ -7,3 +7,4 @@ export * from "./breathTableToCsv";
 export * from "./generateVariantTest";
 export * from "./generateHoldoutTest";
 export * from "./generateAuditTest";
+export * from "./generateCrossCheckTest";

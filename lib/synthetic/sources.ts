@@ -138,4 +138,63 @@ export const SYNTHETIC_SOURCES = defineSources({
     status: "confirmed",
     note: "96 healthy adults: VO2 at VT 48.3 ± 10.6 % of measured peak (5th pct 32.6); VE/VCO2 at VT 30.2 ± 3.8; PETCO2 at VT 40.6 ± 4.2 mmHg (clinical-confirmations §9, C). Title recalled.",
   },
+  "cross-check-model-invented": {
+    citation:
+      "Invented values of the cpet-desk cross-check model (lib/synthetic/generateCrossCheckTest.ts): group mix and ranges, protocol choices, lags, lactate curve shape, noise and artefact magnitudes",
+    status: "common-practice",
+    note: "Cross-check model: every number not tied to another source id is invented data, written independently of the threshold detectors for blind checks.",
+  },
+  "wasserman-unloaded-pedalling": {
+    citation:
+      "Wasserman K, Hansen JE, Sue DY et al. Principles of Exercise Testing and Interpretation (textbook): VO2 of unloaded pedalling ≈ 150 + 6·weight (kg) mL/min",
+    status: "recalled",
+    note: "Cross-check model: steady VO2 at 0 W. Equation and attribution from memory.",
+  },
+  "sue-1988-modified-v-slope": {
+    citation:
+      "Sue DY, Wasserman K, Moricca RB, Casaburi R. Metabolic acidosis during exercise in patients with chronic obstructive pulmonary disease. Chest 1988;94:931-8",
+    status: "confirmed",
+    note: "Lower VCO2-vs-VO2 slope ≈ 1 in fed subjects (clinical-reference [S9], C). Author list recalled.",
+  },
+  "jones-1979-petco2-paco2": {
+    citation:
+      "Jones NL, Robertson DG, Kane JW. Difference between end-tidal and arterial PCO2 in exercise. J Appl Physiol 1979;47:954-60",
+    status: "recalled",
+    note: "PaCO2 = 5.5 + 0.90·PETCO2 − 0.0021·VT (mL) (clinical-reference §5.5, M). Cross-check model inverts it to derive PETCO2 from PaCO2 and VT.",
+  },
+  "arena-2007-ventilatory-classes": {
+    citation:
+      "Arena R, Myers J, Abella J et al. Development of a ventilatory classification system in patients with heart failure. Circulation 2007;115:2410-7",
+    status: "confirmed",
+    pmid: "17452607",
+    note: "VE/VCO2 slope classes ≤29 / 30-35.9 / 36-44.9 / ≥45 (clinical-reference §3.2, C). Author list and pages recalled.",
+  },
+  "arena-2006-petco2-rest": {
+    citation:
+      "Arena R, Peberdy MA, Myers J et al. Prognostic value of resting end-tidal carbon dioxide in patients with heart failure. Int J Cardiol 2006;109:351-8",
+    status: "confirmed",
+    note: "121 heart-failure patients, mean resting PETCO2 34.1 mmHg (clinical-confirmations §2, C). Title and authors recalled.",
+  },
+  "friend-ve-vco2-reference": {
+    citation: "FRIEND registry reference standards for the VE/VCO2 slope (treadmill). J Cardiopulm Rehabil Prev",
+    status: "confirmed",
+    note: "50th percentile rises 27.1 → 33.9 (men) and 28.5 → 33.7 (women) from the 3rd to the 8th decade (clinical-reference [S24], C). Year and authors not seen.",
+  },
+  "kaminsky-2017-cycle-standards": {
+    citation:
+      "Kaminsky LA et al. Cardiorespiratory fitness reference standards for cycle ergometry (FRIEND). Mayo Clin Proc 2017",
+    status: "confirmed",
+    note: "Cycle tests included with peak RER ≥ 1.10 (clinical-reference [S8], C).",
+  },
+  "cole-1999-hr-recovery": {
+    citation:
+      "Cole CR, Blackstone EH, Pashkow FJ, Snader CE, Lauer MS. Heart-rate recovery immediately after exercise as a predictor of mortality. N Engl J Med 1999;341:1351-7",
+    status: "confirmed",
+    note: "Heart-rate recovery ≤ 12 bpm at 1 min abnormal (clinical-reference §2, C).",
+  },
+  "hansen-1984-predicted": {
+    citation: "Hansen JE, Sue DY, Wasserman K. Predicted values for clinical exercise testing. Am Rev Respir Dis 1984;129:S49-55",
+    status: "confirmed",
+    note: "AT/VO2max > 40 %; peak VD/VT < 0.28 (clinical-reference §2, C).",
+  },
 });
