@@ -1,7 +1,7 @@
 /**
  * Accuracy bank for ventilatory-threshold detection on synthetic tests (invented data, truth known by
  * construction). Run: `npx tsx scripts/threshold-bank.ts` (BANK_SIZE, BANK_SEED, BANK_BIN_S, BANK_BOOTSTRAP,
- * BANK_GENERATOR = main | variant | holdout | audit env).
+ * BANK_GENERATOR = main | variant | holdout | audit | crosscheck env).
  * Prints per method and for the consensus: median and 90th-percentile absolute error as % of the true VO2,
  * and the no-call rate, by noise level.
  */
@@ -9,7 +9,9 @@ import { pathToFileURL } from "node:url";
 import { conditionTable } from "../lib/signal";
 import {
   auditSpec,
+  crossCheckSpec,
   generateAuditTest,
+  generateCrossCheckTest,
   generateHoldoutTest,
   generateSyntheticTest,
   generateVariantTest,
@@ -53,7 +55,7 @@ interface BankCase {
 
 /**
  * The models a bank can draw from: the test cases for a size, seed and noise levels (default seed per model, as in the
- * committed bank test). "main" chose the settings, "variant" checks them; "holdout" and "audit" were written blind.
+ * committed bank test). "main" chose the settings, "variant" checks them; "holdout", "audit" and "crosscheck" were written blind.
  */
 const GENERATORS = {
   main: (size: number, seed = 2024, levels: NoiseLevel[]): BankCase[] =>
@@ -88,6 +90,14 @@ const GENERATORS = {
         return { table: syn.table, truth: syn.truth, noise: syn.audit.noise };
       },
     })),
+  crosscheck: (size: number, seed = 53, levels: NoiseLevel[]): BankCase[] =>
+    Array.from({ length: size }, (_, i) => ({
+      id: `crosscheck-${i}`,
+      make: () => {
+        const syn = generateCrossCheckTest(crossCheckSpec(i, seed, levels), seed + i);
+        return { table: syn.table, truth: syn.truth, noise: syn.crossCheck.noise };
+      },
+    })),
 };
 
 export type BankGenerator = keyof typeof GENERATORS;
@@ -103,8 +113,8 @@ export interface BankOptions {
   binS?: number;
   bootstrap?: number;
   /**
-   * "main" = generateSyntheticTest bank; "variant" = the independent validation model; "holdout" and "audit" = models
-   * written blind to the methods (measured on, never used alone to choose a setting). @default "main"
+   * "main" = generateSyntheticTest bank; "variant" = the independent validation model; "holdout", "audit" and
+   * "crosscheck" = models written blind to the methods (measured on, never used alone to choose a setting). @default "main"
    */
   generator?: BankGenerator;
   /** Noise levels to run. @default ["low", "moderate", "high"] */
