@@ -1,6 +1,7 @@
 import { solveLinearSystem } from "../numeric";
 import { buildMethodEstimate, seriesWindow, vo2AtTime } from "./consensus";
 import { convexOnsetProfile } from "./convexOnsetProfile";
+import { exponentialOnsetProfile } from "./exponentialOnsetProfile";
 import type { MethodEstimate, MethodQuality, ThresholdSeries } from "./thresholdTypes";
 
 export interface JointVt1Options {
@@ -29,6 +30,14 @@ export interface JointVt1Options {
    * @default 4
    */
   curvedAbovePenalty?: number | null;
+  /**
+   * Let each signal rise exponentially above the break (`exponentialOnsetProfile`: y = line + A·(e^((t − τ)/σ) − 1)₊,
+   * the shape of a lactate rise that is a continuous exponential — Hughson et al. 1987, confirmed abstract) when that
+   * beats both the straight hinge and the curve by more than this many log-likelihood units; null = off. 4 is our
+   * choice (README-thresholds.md, round 10: the same price as the curve; 3 cost the corner models more).
+   * @default 4
+   */
+  exponentialOnsetPenalty?: number | null;
 }
 
 /**
@@ -137,8 +146,9 @@ export function segmentedProfile(
  * `vt-joint-profile-choice`, built on the multisegment regression of Orr et al. 1982, confirmed, and on the
  * signals of the modified V-slope — Sue 1988, confirmed — and of ventilatory equivalents / end-tidal O2 —
  * common practice, secondary). For every candidate time τ (5-s grid) three least-squares fits, each a line in
- * time plus an upward hinge at τ — or a rise that steepens above τ when that fits better by more than
- * `curvedAbovePenalty` (`convexOnsetProfile`) — give residual sums of squares SSE_s(τ): excess CO2 (VCO2 − VO2: the
+ * time plus an upward hinge at τ — or a rise that steepens above τ (`convexOnsetProfile`, `curvedAbovePenalty`) or an
+ * exponential rise from τ (`exponentialOnsetProfile`, `exponentialOnsetPenalty`) when that fits better by more than its
+ * penalty — give residual sums of squares SSE_s(τ): excess CO2 (VCO2 − VO2: the
  * excess-CO2 start of the modified V-slope), VE (VE starts rising faster than VO2) and PETO2 (PETO2 starts
  * rising). VE and PETO2 read data up to `endS` (below the RCP); excess CO2, which does not bend at the RCP,
  * reads up to `excessCo2EndS` (the whole analysed span by default). The joint criterion
@@ -146,7 +156,7 @@ export function segmentedProfile(
  * profile weights exp(−½·(L(τ) − min L)) over τ (more stable than the minimum under noise — our choice,
  * chosen on the synthetic bank); VO2 from the VO2 trend at that time. Confidence rests on the likelihood ratio
  * against no break, the number of signals that bend and the width of the profile (10th–90th percentile).
- * O(n + K log n) per signal.
+ * O(n + K log n) per signal and shape (the exponential: per shape σ of its grid).
  */
 export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {}): MethodEstimate {
   const endS = options.endS ?? series.span.endS;
@@ -187,10 +197,12 @@ export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {})
   const excessEndS = Math.max(endS, options.excessCo2EndS ?? series.span.endS);
   const winExcess = excessEndS > endS ? windowTo(excessEndS) : win;
   const pen = options.curvedAbovePenalty === undefined ? 4 : options.curvedAbovePenalty;
+  const penExp = options.exponentialOnsetPenalty === undefined ? 4 : options.exponentialOnsetPenalty;
+  const shapes = { curvedAbovePenalty: pen, exponentialOnsetPenalty: penExp };
   const signals = [
-    lineSignal("excessCo2", series, winExcess, (i) => series.vco2MlMin[i] - series.vo2MlMin[i], taus, pen),
-    lineSignal("ve", series, win, (i) => series.veLMin[i], taus, pen),
-    lineSignal("peto2", series, win, (i) => series.peto2MmHg[i], taus, pen),
+    lineSignal("excessCo2", series, winExcess, (i) => series.vco2MlMin[i] - series.vo2MlMin[i], taus, shapes),
+    lineSignal("ve", series, win, (i) => series.veLMin[i], taus, shapes),
+    lineSignal("peto2", series, win, (i) => series.peto2MmHg[i], taus, shapes),
   ].filter((s) => s.p.n >= 2 * m + 1 && s.p.sseSingle > 0);
   const summary = summariseJointProfile(signals, taus, temper, series);
   if (!summary) {
@@ -206,7 +218,9 @@ export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {})
   const { tau, vo2At, lowS, highS, widthFraction, lr, bending, fit } = summary;
   fit.excessCo2EndS = excessEndS;
   const jAt = taus.indexOf(tau);
-  const curvedNames = signals.filter((s) => s.curved[jAt] === 1).map((s) => SIGNAL_LABEL[s.name] ?? s.name);
+  const shapeNames = (mark: number) => signals.filter((s) => s.curved[jAt] === mark).map((s) => SIGNAL_LABEL[s.name] ?? s.name);
+  const curvedNames = shapeNames(1);
+  const exponentialNames = shapeNames(2);
   for (const s of signals) fit[`${s.name}CurvedAbove`] = s.curved[jAt];
   const reasons: string[] = [];
   let quality: MethodQuality;
@@ -222,6 +236,8 @@ export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {})
     if (excessEndS > endS)
       reasons.push(`excess CO2 read to ${Math.round(excessEndS)} s, VE and PETO2 to ${Math.round(endS)} s (below the RCP)`);
     if (curvedNames.length > 0) reasons.push(`${curvedNames.join(", ")} rise curvilinearly above the break (fitted as a curve)`);
+    if (exponentialNames.length > 0)
+      reasons.push(`${exponentialNames.join(", ")} rise exponentially above the break (fitted as an exponential)`);
     quality = bending >= 2 && widthFraction <= 0.15 ? "good" : bending >= 1 && widthFraction <= 0.3 ? "fair" : "poor";
     if (quality !== "good") reasons.push(bending < 2 ? "fewer than two signals bend clearly" : "wide profile");
   }
@@ -239,8 +255,9 @@ const SIGNAL_LABEL: Record<string, string> = { excessCo2: "excess CO2", ve: "VE"
 
 /**
  * A signal linear in time below the break, rising faster above it: a straight hinge, or — when it fits better by
- * more than `curvedAbovePenalty` log-likelihood units — a rise that steepens (`convexOnsetProfile`). `curved` marks
- * the candidates where the curve was taken.
+ * more than its penalty in log-likelihood units ((n/2)·log SSE + penalty) — a rise that steepens (`convexOnsetProfile`,
+ * `curvedAbovePenalty`) or an exponential rise (`exponentialOnsetProfile`, `exponentialOnsetPenalty`). `curved` marks
+ * the shape taken at each candidate: 0 straight, 1 curve, 2 exponential.
  */
 function lineSignal(
   name: string,
@@ -248,7 +265,7 @@ function lineSignal(
   win: number[],
   value: (i: number) => number,
   taus: number[],
-  curvedAbovePenalty: number | null,
+  shapes: { curvedAbovePenalty: number | null; exponentialOnsetPenalty: number | null },
 ): { name: string; p: ReturnType<typeof segmentedProfile>; curved: Uint8Array } {
   const idx = win.filter((i) => Number.isFinite(value(i)));
   const ts = idx.map((i) => series.timeS[i]);
@@ -256,16 +273,19 @@ function lineSignal(
   const ys = idx.map(value);
   const p = segmentedProfile(ts, ys, [ts.map(() => 1), ts.map((t) => (t - t0) / 60)], null, taus, "positive");
   const curved = new Uint8Array(taus.length);
-  if (curvedAbovePenalty !== null && p.n > 0) {
-    // the curved fit costs `curvedAbovePenalty` log-likelihood units: (n/2)·log(SSE·e^(2c/n)) = (n/2)·log SSE + c
-    const convex = convexOnsetProfile(ts, ys, taus);
-    const factor = Math.exp((2 * curvedAbovePenalty) / p.n);
+  if (p.n === 0) return { name, p, curved };
+  // a shape with a penalty c costs (n/2)·log(SSE·e^(2c/n)) = (n/2)·log SSE + c
+  const take = (sse: Float64Array, penalty: number | null, mark: number) => {
+    if (penalty === null) return;
+    const factor = Math.exp((2 * penalty) / p.n);
     for (let j = 0; j < taus.length; j++)
-      if (convex.sse[j] * factor < p.sse[j]) {
-        p.sse[j] = convex.sse[j] * factor;
-        curved[j] = 1;
+      if (sse[j] * factor < p.sse[j]) {
+        p.sse[j] = sse[j] * factor;
+        curved[j] = mark;
       }
-  }
+  };
+  if (shapes.curvedAbovePenalty !== null) take(convexOnsetProfile(ts, ys, taus).sse, shapes.curvedAbovePenalty, 1);
+  if (shapes.exponentialOnsetPenalty !== null) take(exponentialOnsetProfile(ts, ys, taus).sse, shapes.exponentialOnsetPenalty, 2);
   return { name, p, curved };
 }
 

@@ -21,6 +21,14 @@ const holdout = runThresholdBank({
 }).stats;
 const auditSize = Number(process.env.AUDIT_SIZE ?? 120);
 const audit = runThresholdBank({ size: auditSize, seed: 41, bootstrap: 20, generator: "audit", noiseLevels: ["moderate"] }).stats;
+const crossCheckSize = Number(process.env.CROSSCHECK_SIZE ?? 120);
+const crossCheck = runThresholdBank({
+  size: crossCheckSize,
+  seed: 53,
+  bootstrap: 20,
+  generator: "crosscheck",
+  noiseLevels: ["moderate"],
+}).stats;
 const stat = (stats: BankStats[], method: string, noise: string) => stats.find((s) => s.method === method && s.noise === noise)!;
 
 describe(`threshold accuracy, main generator (${size} tests)`, () => {
@@ -121,7 +129,8 @@ describe(`threshold accuracy, audit model (${auditSize} tests, moderate noise)`,
   // A fourth model, also written without sight of the methods (generateAuditTest: thresholds set in muscle VO2 and
   // carried to the mouth by delay + lag, excess CO2 that may bend upward above VT1, PaCO2-target hyperventilation,
   // oscillatory ventilation, cycle and treadmill ramps and 1–3-min stages). Measured after round 8 and not used to
-  // choose anything: VT1 5.3 / 14.7 % on this bank (seed 41, 20 resamples), VT2 2.4 %, slope 87 % within ±5 %.
+  // choose anything until round 10 (the exponential rise was measured on it too, so it is no longer blind): VT1
+  // 5.3 / 14.7 % on this bank after round 8 (seed 41, 20 resamples), VT2 2.4 %, slope 87 % within ±5 %.
   // Stepped protocols are its hardest part (3-min stages read late; the engine warns about them). Goals for VT1 and the
   // slope not met on this model; guarded at the level reached.
   it("meets the VT1 no-call and VT2 median goals and keeps VT1 at the level reached (median ≤ 6 %, P90 ≤ 16.5 %)", () => {
@@ -134,5 +143,25 @@ describe(`threshold accuracy, audit model (${auditSize} tests, moderate noise)`,
   });
   it("keeps the slope within ±5 % in ≥ 85 % of tests", () => {
     expect(stat(audit, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(85); // our regression bound at the level reached (README-thresholds.md), not a published value
+  });
+});
+
+describe(`threshold accuracy, cross-check model (${crossCheckSize} tests, moderate noise)`, () => {
+  // A fifth model written without sight of the methods (generateCrossCheckTest: blood lactate flat to VT1 and
+  // exponential above it, La0 + c·(e^z − 1 − z); excess CO2 from its buffering through the CO2 stores; VT1 truth at the
+  // metabolic onset; six groups, cycle and treadmill ramps and stages). Blind figures with the round-9 method (three
+  // banks of 240): VT1 15.7 / 35.6 %, VT2 4.1 %, slope 80 % within ±5 %; noise-free VT1 10.8 / 27.2 %. Its onset is
+  // below what breath data show: excess CO2 rises by a few mL/min in the first minute above VT1 (README-thresholds.md,
+  // round 10). Every goal but VT2 and (on this bank) VT1 no-calls is missed here; guarded at the level reached.
+  it("meets the VT2 median goal and keeps VT1 at the level reached (median ≤ 17 %, P90 ≤ 40 %, no-calls ≤ 7 %)", () => {
+    const s = stat(crossCheck, "vt1-consensus", "moderate");
+    expect(s.n).toBe(crossCheckSize);
+    expect(s.noCallPct).toBeLessThanOrEqual(7); // our regression bound at the level reached (README-thresholds.md), not a published value
+    expect(s.medianPct).toBeLessThanOrEqual(17); // our regression bound at the level reached (README-thresholds.md), not a published value
+    expect(s.p90Pct).toBeLessThanOrEqual(40); // our regression bound at the level reached (README-thresholds.md), not a published value
+    expect(stat(crossCheck, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5); // goal from the issue
+  });
+  it("keeps the slope within ±5 % in ≥ 75 % of tests", () => {
+    expect(stat(crossCheck, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(75); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
 });

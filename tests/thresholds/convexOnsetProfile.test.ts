@@ -108,13 +108,18 @@ describe("joint VT1 profile on a rise that steepens above the threshold", () => 
   });
   // window to 900 s, as below an RCP at about 860 s (a quadratic cannot follow an exponential over any length of ramp)
   const win = { endS: 900, excessCo2EndS: 900 };
-  it("finds the start of the rise within 20 s with the curved fit (default), and says so", () => {
+  it("finds the start of the rise within 20 s with the exponential fit (default), and says so", () => {
     const r = jointVt1(series, win);
+    expect(Math.abs(r.timeS! - 600)).toBeLessThanOrEqual(20);
+    expect(r.reasons.join(" ")).toMatch(/rise exponentially above the break/);
+  });
+  it("finds it within 20 s with the curved fit alone (exponential off), and says so", () => {
+    const r = jointVt1(series, { ...win, exponentialOnsetPenalty: null });
     expect(Math.abs(r.timeS! - 600)).toBeLessThanOrEqual(20);
     expect(r.reasons.join(" ")).toMatch(/rise curvilinearly above the break/);
   });
   it("straight hinges alone put it more than 60 s late", () => {
-    const r = jointVt1(series, { ...win, curvedAbovePenalty: null });
+    const r = jointVt1(series, { ...win, curvedAbovePenalty: null, exponentialOnsetPenalty: null });
     expect(r.timeS! - 600).toBeGreaterThan(60);
   });
   it("leaves a sharp straight break where it is (within 5 s)", () => {

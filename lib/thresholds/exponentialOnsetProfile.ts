@@ -1,0 +1,119 @@
+/**
+ * Profile of the residual sum of squares of a break followed by an exponential rise:
+ * y = a + b·x + A·(e^((x − τ)/σ) − 1)₊, A ≥ 0 (x in minutes from the first point), over candidate break times τ (s),
+ * with the shape σ (minutes) profiled over a fixed grid. Blood lactate rises as a continuous exponential in ramp
+ * exercise (Hughson, Weisiger & Swanson 1987, J Appl Physiol 62:1975 — confirmed abstract), and the excess CO2 its
+ * buffering releases follows its rate of rise, an exponential that starts at the threshold with a small slope; the
+ * family holds the straight hinge as σ grows (A·(e^(u/σ) − 1) → (A/σ)·u), so a sharp corner is still a member. The
+ * rigid shape ties the start of the rise to the level of the whole segment above it (the "− 1" keeps the curve
+ * continuous at τ), which a free quadratic does not. Least squares with τ and σ fixed (Orr et al. 1982 search the
+ * break at the least pooled SSE, confirmed); the grid of σ and the exponential form as a break model are our
+ * implementation choice (`vt-joint-profile-choice`). Suffix sums of g = e^((x − x_end)/σ), g², x·g and y·g per σ and
+ * the partial-regression identity (the line solved once) make each candidate O(log n). Points in ascending t (s).
+ * Returns NaN where no rising exponential fits (A < 0, or fewer than 3 points above τ).
+ */
+export function exponentialOnsetProfile(
+  t: ArrayLike<number>,
+  y: ArrayLike<number>,
+  taus: ArrayLike<number>,
+  sigmasMin: readonly number[] = EXPONENTIAL_ONSET_SIGMAS_MIN,
+): { sse: Float64Array; sigmaMin: Float64Array; n: number } {
+  const n = t.length;
+  const K = taus.length;
+  const sse = new Float64Array(K).fill(NaN);
+  const sigmaMin = new Float64Array(K).fill(NaN);
+  if (n < 6) return { sse, sigmaMin, n };
+  const t0 = t[0];
+  const x = Float64Array.from({ length: n }, (_, i) => (t[i] - t0) / 60);
+  const xEnd = x[n - 1];
+  // line alone (X = [1, x]), once
+  let S0 = 0;
+  let S1 = 0;
+  let S2 = 0;
+  let Y0 = 0;
+  let Y1 = 0;
+  let syy = 0;
+  const P0 = new Float64Array(n + 1);
+  const P1 = new Float64Array(n + 1);
+  const QY = new Float64Array(n + 1);
+  for (let i = n - 1; i >= 0; i--) {
+    S0 += 1;
+    S1 += x[i];
+    S2 += x[i] * x[i];
+    Y0 += y[i];
+    Y1 += y[i] * x[i];
+    syy += y[i] * y[i];
+    P0[i] = P0[i + 1] + 1;
+    P1[i] = P1[i + 1] + x[i];
+    QY[i] = QY[i + 1] + y[i];
+  }
+  const det = S0 * S2 - S1 * S1;
+  if (!(det > 0)) return { sse, sigmaMin, n };
+  const [g00, g01, g11] = [S2 / det, -S1 / det, S0 / det];
+  const b0 = g00 * Y0 + g01 * Y1;
+  const b1 = g01 * Y0 + g11 * Y1;
+  const sseLine = syy - (b0 * Y0 + b1 * Y1);
+  const quad = (u0: number, u1: number) => u0 * (g00 * u0 + g01 * u1) + u1 * (g01 * u0 + g11 * u1);
+  // break index per candidate (first point strictly above τ)
+  const kAt = new Int32Array(K);
+  for (let j = 0; j < K; j++) {
+    const a = (taus[j] - t0) / 60;
+    let lo = 0;
+    let hi = n;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (x[mid] > a) hi = mid;
+      else lo = mid + 1;
+    }
+    kAt[j] = lo;
+  }
+  const E1 = new Float64Array(n + 1);
+  const E2 = new Float64Array(n + 1);
+  const EX = new Float64Array(n + 1);
+  const EY = new Float64Array(n + 1);
+  // candidates on an even grid (the usual case): e^((a − x_end)/σ) by one multiplication per candidate
+  const stepMin = K > 1 ? (taus[1] - taus[0]) / 60 : 0;
+  let even = K > 1 && stepMin > 0;
+  for (let j = 2; even && j < K; j++) even = Math.abs((taus[j] - taus[j - 1]) / 60 - stepMin) < 1e-9;
+  const cAt = new Float64Array(K);
+  for (const sigma of sigmasMin) {
+    if (even) {
+      const ratio = Math.exp(stepMin / sigma);
+      cAt[0] = Math.exp(((taus[0] - t0) / 60 - xEnd) / sigma);
+      for (let j = 1; j < K; j++) cAt[j] = cAt[j - 1] * ratio;
+    } else for (let j = 0; j < K; j++) cAt[j] = Math.exp(((taus[j] - t0) / 60 - xEnd) / sigma);
+    for (let i = n - 1; i >= 0; i--) {
+      const g = Math.exp((x[i] - xEnd) / sigma);
+      E1[i] = E1[i + 1] + g;
+      E2[i] = E2[i + 1] + g * g;
+      EX[i] = EX[i + 1] + x[i] * g;
+      EY[i] = EY[i + 1] + y[i] * g;
+    }
+    for (let j = 0; j < K; j++) {
+      const k = kAt[j];
+      if (n - k < 3) continue;
+      // column scaled by e^(−(x_end − a)/σ) (the fit is scale-free): h = g − c above τ, c = e^((a − x_end)/σ)
+      const c = cAt[j];
+      const sh = E1[k] - c * P0[k];
+      const shh = E2[k] - 2 * c * E1[k] + c * c * P0[k];
+      const sxh = EX[k] - c * P1[k];
+      const syh = EY[k] - c * QY[k];
+      const hMh = shh - quad(sh, sxh);
+      if (!(hMh > 1e-12 * shh)) continue;
+      const hMy = syh - (sh * b0 + sxh * b1);
+      if (!(hMy > 0)) continue; // A ≥ 0: a rise
+      const s = Math.max(0, sseLine - (hMy * hMy) / hMh);
+      if (!(s >= sse[j])) {
+        sse[j] = s;
+        sigmaMin[j] = sigma;
+      }
+    }
+  }
+  return { sse, sigmaMin, n };
+}
+
+/**
+ * Shapes σ of the exponential rise, minutes (our choice): from a rise that doubles its slope every ≈ 30 s to one close
+ * to a straight line over a 10-min ramp.
+ */
+export const EXPONENTIAL_ONSET_SIGMAS_MIN: readonly number[] = [0.5, 0.7, 1, 1.4, 2, 2.8, 4, 5.6, 8];
