@@ -319,10 +319,27 @@ function runMethods(series: ThresholdSeries, agreementFraction: number, rules: V
   // An early VT2 (or a VT1 close to VT2) leaves the segment above VT1 too short to fit; when the first-pass VT1 lies
   // within `vt1MinSpanAboveS` of the window's end, refit once with the window reaching VT1 + that span.
   let pass = runVt1(upper);
-  let vt1TimeS = pass.c.vo2MlMin === null ? null : timeAtLevel(series, series.vo2Trend, pass.c.vo2MlMin);
+  let vt1TimeS: number | null = pass.c.vo2MlMin === null ? null : timeAtLevel(series, series.vo2Trend, pass.c.vo2MlMin);
   if (vt1MinSpanAboveS > 0 && vt2TimeS !== null && vt1TimeS !== null && vt1TimeS + vt1MinSpanAboveS > upper) {
     pass = runVt1(Math.min(series.span.endS, vt1TimeS + vt1MinSpanAboveS));
     vt1TimeS = pass.c.vo2MlMin === null ? null : timeAtLevel(series, series.vo2Trend, pass.c.vo2MlMin);
+  }
+  // An RCP candidate early in the ramp can leave too few bins below it for any VT1 method. Rather than report no VT1,
+  // read VT1 over the whole exercise once, with low confidence at most: the RCP follows the AT (common practice), so a
+  // VT1 found at or above that VT2 puts both in doubt (warning `vt1-not-below-vt2`) instead of hiding the AT.
+  if (pass.c.vo2MlMin === null && vt2TimeS !== null && upper < series.span.endS) {
+    const whole = runVt1(series.span.endS);
+    if (whole.c.vo2MlMin !== null) {
+      pass = {
+        ms: whole.ms,
+        c: {
+          ...whole.c,
+          confidence: "low",
+          reason: `read over the whole exercise: the data below the RCP candidate (${Math.round(vt2.vo2MlMin as number)} mL/min) were too short for any VT1 method`,
+        },
+      };
+      vt1TimeS = timeAtLevel(series, series.vo2Trend, whole.c.vo2MlMin);
+    }
   }
   const { ms: vt1Methods, c: vt1 } = pass;
   return { methods: [...vt1Methods, ...vt2Methods], vt1, vt2, vt1TimeS, vt2TimeS };
@@ -461,6 +478,8 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
     issues.push(makeIssue("warning", "vt1-not-below-vt2", "VT1 does not lie below VT2; review both thresholds."));
     vt1.confidence = "low";
     vt2.confidence = "low";
+    addReason(vt1, "VT1 does not lie below VT2");
+    addReason(vt2, "VT2 does not lie above VT1");
   }
   for (const e of [vt1, vt2]) {
     const name = e.which === "vt1" ? "VT1 (anaerobic threshold)" : "VT2 (respiratory compensation point)";
