@@ -215,6 +215,20 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
         };
       } else slopeToVt2 = binnedLine(pairs.t, x, pairs.y, span.startS, k, binS, binProv, units);
     } else slopeToVt2 = lineIndexFromFit(sums, 0, k, units, toProv, minPoints);
+    const fitted = slopeToVt2.slope.value;
+    if (fitted !== null && !(fitted > 0)) {
+      // ventilation rises with CO2 output in exercise (common practice): a flat or falling line below VT2 is not a
+      // VE/VCO2 slope but too little or too noisy data below an early VT2
+      const reason = `the line of VE on VCO2 below VT2 does not rise (slope ${fitted.toFixed(1)}): too few or too noisy data below VT2 (${Math.round(vt2.timeS)} s); check VT2 by review`;
+      const prov = slopeToVt2.slope.provenance;
+      slopeToVt2 = {
+        slope: notDetermined("1", prov, reason),
+        intercept: notDetermined("L/min", prov, reason),
+        r2: notDetermined("1", prov, reason),
+        n: slopeToVt2.n,
+      };
+      issues.push(makeIssue("warning", "ve-vco2-slope-not-rising", `VE/VCO2 slope to VT2 not determinable: ${reason}.`));
+    }
   }
 
   const nadirProv = provenanceOf(

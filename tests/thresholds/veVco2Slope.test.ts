@@ -59,3 +59,28 @@ describe("VE/VCO2 slope", () => {
     expect(q.issues.map((i) => i.code)).toContain("no-ve-vco2");
   });
 });
+
+describe("VE/VCO2 slope to an early VT2 where ventilation has not yet settled", () => {
+  // Invented: an anxious start — VE falls from 45 to 25 L/min over the first 120 s of exercise while VCO2 rises on the
+  // ramp (VE = 25·VCO2 + 3 after 300 s). A VT2 set at 280 s leaves only the falling part below it: the fitted line
+  // falls, which is not a VE/VCO2 slope (ventilation rises with CO2 output in exercise, common practice).
+  const test = freezeTest(
+    makeTest(
+      buildRows((t, phase) => {
+        const vco2 = phase === "exercise" ? vco2At(t) : 300;
+        const settled = 25 * (vco2 / 1000) + 3;
+        const anxious = phase === "exercise" && t < 300 ? 45 - (20 * (t - EX_START_S)) / 120 : settled;
+        return { vco2MlMin: vco2, vo2MlMin: vco2, veLMin: phase === "exercise" && t < 300 ? anxious : settled };
+      }),
+    ),
+  );
+  const r = veVco2Slope(test, { vt2: { timeS: 280, vo2MlMin: vco2At(280) } });
+  it("is not determinable, with the fitted slope and a check-VT2 reason, and a warning", () => {
+    expect(r.slopeToVt2.slope.value).toBeNull();
+    expect(r.slopeToVt2.slope.reason).toMatch(/does not rise \(slope -\d+\.\d\).*check VT2 by review/);
+    expect(r.issues.find((i) => i.code === "ve-vco2-slope-not-rising")?.severity).toBe("warning");
+  });
+  it("the whole-exercise slope is still given (it rises over the whole test)", () => {
+    expect(r.slopeWholeExercise.slope.value).toBeGreaterThan(0);
+  });
+});
