@@ -535,11 +535,13 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
   const placedEvents = events.filter((e) => Number.isFinite(e.timeS)).sort((a, b) => a.timeS - b.timeS);
   if (!densePhase && placedEvents.some((e) => e.phase)) applyMarkerPhases(built, placedEvents);
 
-  // ---- plausibility --------------------------------------------------------------------------
-  checkPlausibility(built, byTarget, issues);
-
-  // ---- shape ---------------------------------------------------------------------------------
+  // ---- shape (from time and stage columns only; the plausibility screen below needs it) --------
   const shape = stageOrder || looksLikeStages(built, !!stageCol) ? "stage" : "breath";
+
+  // ---- plausibility --------------------------------------------------------------------------
+  checkPlausibility(built, byTarget, issues, shape === "stage");
+
+  // ---- shape issues --------------------------------------------------------------------------
   if (shape === "stage") {
     issues.push(
       makeIssue(
@@ -1140,7 +1142,7 @@ function applyMarkerPhases(rows: BreathRow[], events: readonly MarkerEvent[]): v
   }
 }
 
-function checkPlausibility(rows: BreathRow[], byTarget: Map<Target, Column>, issues: Issue[]): void {
+function checkPlausibility(rows: BreathRow[], byTarget: Map<Target, Column>, issues: Issue[], stageRows: boolean): void {
   const ranges: [Target, [number, number], string][] = [];
   for (const [field, range] of Object.entries(PLAUSIBLE_RANGE) as [NumericField, [number, number]][])
     ranges.push([field, range, CANONICAL_UNIT_OF[field]]);
@@ -1173,11 +1175,15 @@ function checkPlausibility(rows: BreathRow[], byTarget: Map<Target, Column>, iss
         ),
       );
     } else {
+      // A few isolated breaths (a swallow, a cough, a mask leak) are routine artefacts: an info line. More than 1 % of
+      // a column's breaths (at least 3), or any stage row, is a warning. The split is our choice, the same as the
+      // physiological plausibility screen's (checkPhysiologicalLimits.ts).
+      const isolated = !stageRows && out < Math.max(3, 0.01 * present);
       issues.push(
         makeIssue(
-          "warning",
+          isolated ? "info" : "warning",
           "implausible-values",
-          `${out} ${FIELD_LABEL[field]} value(s) lie outside ${lo}–${hi} ${unit} and were set aside (first at row ${firstRow}).`,
+          `${out} ${isolated ? "isolated " : ""}${FIELD_LABEL[field]} value(s) lie outside ${lo}–${hi} ${unit} and were set aside (first at row ${firstRow}).`,
           { column: header, row: firstRow, field },
         ),
       );

@@ -108,12 +108,23 @@ export function rejectArtefacts(rows: readonly BreathRow[], options: ArtefactOpt
       ),
     );
   if (rerCount > 0) {
+    // A few isolated breaths (a swallow, a cough, a sigh) are routine artefacts: an info line. More than 1 % of the
+    // breaths (at least 3), or any stage row, points to a measurement problem: a warning. The split is our choice,
+    // the same as the physiological plausibility screen's (lib/breath/checkPhysiologicalLimits.ts).
+    const limits = rer.max >= 2 ? `above ${rer.max} or below ${rer.min}` : `outside ${rer.min}–${rer.max}`;
+    const isolated = !options.stageRows && rerCount < Math.max(3, 0.01 * rows.length);
     issues.push(
-      makeIssue(
-        "warning",
-        "rer-out-of-range",
-        `${rerCount} breath(s) with RER ${rer.max >= 2 ? `above ${rer.max} or below ${rer.min}` : `outside ${rer.min}–${rer.max}`} were set aside.`,
-      ),
+      isolated
+        ? makeIssue(
+            "info",
+            "rer-out-of-range",
+            `${rerCount} isolated breath(s) with RER ${limits} (swallows, coughs or sighs) were set aside.`,
+          )
+        : makeIssue(
+            "warning",
+            "rer-out-of-range",
+            `${rerCount} ${options.stageRows ? "stage row(s)" : "breath(s)"} with RER ${limits} were set aside (${((100 * rerCount) / Math.max(1, rows.length)).toFixed(1)} % of ${options.stageRows ? "rows" : "breaths"}): check the gas analysers and the mask.`,
+          ),
     );
   }
   // 2. local deviation

@@ -126,6 +126,20 @@ describe("broken files give a clear issue and never throw", () => {
     expect(r.issues.find((i) => i.code === "not-a-number")?.where).toEqual({ column: "vo2_ml_min", row: 6 });
   });
 
+  it("implausible values in proportion: one isolated breath is an info line, more than 1 % of the breaths a warning", async () => {
+    // 400 breaths of a steady invented ramp (VO2 300 + 5·i mL/min); limits 50–8000 mL/min (PLAUSIBLE_RANGE)
+    const one = plain(400, (i) => 300 + 5 * i);
+    one[100] = one[100].replace(/^(\d+),[^,]+/, "$1,20"); // one swallow-like breath at VO2 20 mL/min
+    const a = (await importBreathFile(enc(one.join("\n")))).issues.find((i) => i.code === "implausible-values");
+    expect(a?.severity).toBe("info");
+    expect(a?.message).toMatch(/^1 isolated VO2 value\(s\) lie outside 50–8000 mL\/min/);
+    const many = plain(400, (i) => 300 + 5 * i);
+    for (const k of [50, 90, 130, 170, 210, 250]) many[k] = many[k].replace(/^(\d+),[^,]+/, "$1,20"); // 6 > 1 % of 400
+    const b = (await importBreathFile(enc(many.join("\n")))).issues.find((i) => i.code === "implausible-values");
+    expect(b?.severity).toBe("warning");
+    expect(b?.message).toMatch(/^6 VO2 value\(s\) lie outside/);
+  });
+
   it("gaps, implausible values, too few rows", async () => {
     const lines = plain(30);
     lines[20] = lines[20].replace(/^\d+/, "200"); // a 143-s gap before line 21, then rows continue from 60 s… make the rest later

@@ -67,7 +67,25 @@ describe("rejectArtefacts (local mean ± k SD, convention counted by doi 10.1055
     expect(r.removed.map((x) => x.index)).toEqual([100, 200, 300]);
     expect(r.removed[0].reason).toMatch(/^RER 2\.30 is above 2/);
     expect(r.removed[1].reason).toMatch(/^RER 0\.40 is below 0\.5/);
-    expect(r.issues.find((i) => i.code === "rer-out-of-range")?.message).toMatch(/^2 breath/);
+    // 2 of the series' breaths: isolated artefacts, an info line (fewer than 3 and under 1 %, our split)
+    const rerIssue = r.issues.find((i) => i.code === "rer-out-of-range");
+    expect(rerIssue?.message).toMatch(/^2 isolated breath/);
+    expect(rerIssue?.severity).toBe("info");
+  });
+
+  it("RER out of range in more than 1 % of the breaths (at least 3) is a warning with the share", () => {
+    const rows2 = series([]);
+    const bad = [50, 60, 70, 80, 90, 100, 110];
+    for (const i of bad) rows2[i] = { ...rows2[i], vco2MlMin: rows2[i].vo2MlMin! * 2.5 };
+    const r = rejectArtefacts(rows2);
+    const rerIssue = r.issues.find((i) => i.code === "rer-out-of-range");
+    expect(rows2.length * 0.01).toBeLessThan(bad.length); // the series is short enough that 7 breaths exceed 1 %
+    expect(rerIssue?.severity).toBe("warning");
+    expect(rerIssue?.message).toMatch(
+      new RegExp(
+        `^7 breath\\(s\\) with RER above 2 or below 0\\.5 were set aside \\(${((100 * 7) / rows2.length).toFixed(1).replace(".", "\\.")} % of breaths\\)`,
+      ),
+    );
   });
 
   it("with random (uniform) noise the small 10-breath SD estimate gives a few false removals, as expected of the rule", () => {
