@@ -53,6 +53,16 @@ interface BankCase {
   make: () => { table: Parameters<typeof conditionTable>[0]; truth: SyntheticTruth; noise: NoiseLevel };
 }
 
+/** A model written blind: test i of a bank drawn from its spec function with the bank's seed (seed + i generates). */
+function blindModel(
+  name: string,
+  defaultSeed: number,
+  make: (i: number, seed: number, levels: NoiseLevel[]) => ReturnType<BankCase["make"]>,
+): (size: number, seed: number | undefined, levels: NoiseLevel[]) => BankCase[] {
+  return (size, seed = defaultSeed, levels) =>
+    Array.from({ length: size }, (_, i) => ({ id: `${name}-${i}`, make: () => make(i, seed, levels) }));
+}
+
 /**
  * The models a bank can draw from: the test cases for a size, seed and noise levels (default seed per model, as in the
  * committed bank test). "main" chose the settings, "variant" checks them; "holdout", "audit" and "crosscheck" were written blind.
@@ -74,30 +84,18 @@ const GENERATORS = {
         return { table: syn.table, truth: syn.truth, noise: syn.variant.noise };
       },
     })),
-  holdout: (size: number, seed = 31, levels: NoiseLevel[]): BankCase[] =>
-    Array.from({ length: size }, (_, i) => ({
-      id: `holdout-${i}`,
-      make: () => {
-        const syn = generateHoldoutTest(holdoutSpec(i, seed, levels), seed + i);
-        return { table: syn.table, truth: syn.truth, noise: syn.holdout.noise };
-      },
-    })),
-  audit: (size: number, seed = 41, levels: NoiseLevel[]): BankCase[] =>
-    Array.from({ length: size }, (_, i) => ({
-      id: `audit-${i}`,
-      make: () => {
-        const syn = generateAuditTest(auditSpec(i, seed, levels), seed + i);
-        return { table: syn.table, truth: syn.truth, noise: syn.audit.noise };
-      },
-    })),
-  crosscheck: (size: number, seed = 53, levels: NoiseLevel[]): BankCase[] =>
-    Array.from({ length: size }, (_, i) => ({
-      id: `crosscheck-${i}`,
-      make: () => {
-        const syn = generateCrossCheckTest(crossCheckSpec(i, seed, levels), seed + i);
-        return { table: syn.table, truth: syn.truth, noise: syn.crossCheck.noise };
-      },
-    })),
+  holdout: blindModel("holdout", 31, (i, seed, levels) => {
+    const syn = generateHoldoutTest(holdoutSpec(i, seed, levels), seed + i);
+    return { table: syn.table, truth: syn.truth, noise: syn.holdout.noise };
+  }),
+  audit: blindModel("audit", 41, (i, seed, levels) => {
+    const syn = generateAuditTest(auditSpec(i, seed, levels), seed + i);
+    return { table: syn.table, truth: syn.truth, noise: syn.audit.noise };
+  }),
+  crosscheck: blindModel("crosscheck", 53, (i, seed, levels) => {
+    const syn = generateCrossCheckTest(crossCheckSpec(i, seed, levels), seed + i);
+    return { table: syn.table, truth: syn.truth, noise: syn.crossCheck.noise };
+  }),
 };
 
 export type BankGenerator = keyof typeof GENERATORS;

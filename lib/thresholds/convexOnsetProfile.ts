@@ -1,3 +1,5 @@
+import { firstIndexAbove } from "./firstIndexAbove";
+
 /**
  * Profile of the residual sum of squares of a break that may curve upward above it:
  * y = a + b·x + d·(x − τ)₊ + q·(x − τ)₊², d ≥ 0, q ≥ 0 (x in minutes from the first point), over candidate break
@@ -46,14 +48,7 @@ export function convexOnsetProfile(
   const quad = (u0: number, u1: number, v0: number, v1: number) => u0 * (g00 * v0 + g01 * v1) + u1 * (g01 * v0 + g11 * v1);
   for (let j = 0; j < K; j++) {
     const a = (taus[j] - t0) / 60;
-    let lo = 0;
-    let hi = n;
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (x[mid] > a) hi = mid;
-      else lo = mid + 1;
-    }
-    const k = lo;
+    const k = firstIndexAbove(x, a);
     if (n - k < 3) continue;
     const [p0, p1, p2, p3, p4] = [P[0][k], P[1][k], P[2][k], P[3][k], P[4][k]];
     const [q0, q1, q2] = [Q[0][k], Q[1][k], Q[2][k]];

@@ -1,3 +1,5 @@
+import { firstIndexAbove } from "./firstIndexAbove";
+
 /**
  * Profile of the residual sum of squares of a break followed by an exponential rise:
  * y = a + b·x + A·(e^((x − τ)/σ) − 1)₊, A ≥ 0 (x in minutes from the first point), over candidate break times τ (s),
@@ -55,18 +57,7 @@ export function exponentialOnsetProfile(
   const sseLine = syy - (b0 * Y0 + b1 * Y1);
   const quad = (u0: number, u1: number) => u0 * (g00 * u0 + g01 * u1) + u1 * (g01 * u0 + g11 * u1);
   // break index per candidate (first point strictly above τ)
-  const kAt = new Int32Array(K);
-  for (let j = 0; j < K; j++) {
-    const a = (taus[j] - t0) / 60;
-    let lo = 0;
-    let hi = n;
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (x[mid] > a) hi = mid;
-      else lo = mid + 1;
-    }
-    kAt[j] = lo;
-  }
+  const kAt = Int32Array.from({ length: K }, (_, j) => firstIndexAbove(x, (taus[j] - t0) / 60));
   const E1 = new Float64Array(n + 1);
   const E2 = new Float64Array(n + 1);
   const EX = new Float64Array(n + 1);

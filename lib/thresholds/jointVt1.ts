@@ -2,6 +2,7 @@ import { solveLinearSystem } from "../numeric";
 import { buildMethodEstimate, seriesWindow, vo2AtTime } from "./consensus";
 import { convexOnsetProfile } from "./convexOnsetProfile";
 import { exponentialOnsetProfile } from "./exponentialOnsetProfile";
+import { firstIndexAbove } from "./firstIndexAbove";
 import type { MethodEstimate, MethodQuality, ThresholdSeries } from "./thresholdTypes";
 
 export interface JointVt1Options {
@@ -106,14 +107,7 @@ export function segmentedProfile(
   const hx = new Float64Array(p);
   for (let j = 0; j < K; j++) {
     const tau = taus[j];
-    let lo = 0;
-    let hi = n;
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (t[mid] > tau) hi = mid;
-      else lo = mid + 1;
-    }
-    const k = lo;
+    const k = firstIndexAbove(t, tau);
     if (n - k < 2) {
       sse[j] = sseSingle;
       continue;

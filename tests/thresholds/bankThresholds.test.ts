@@ -1,5 +1,5 @@
 import { describe, it, expect } from "vitest";
-import { runThresholdBank, type BankStats } from "../../scripts/threshold-bank";
+import { runThresholdBank, type BankGenerator, type BankStats } from "../../scripts/threshold-bank";
 
 // Accuracy banks on synthetic tests (invented data, thresholds known by construction), 20-s bins, 20 seeded
 // resamples (the reported value is the resampled median). Two independent models: the main generator (used
@@ -11,24 +11,15 @@ const size = Number(process.env.BANK_SIZE ?? 240);
 const variantSize = Number(process.env.VARIANT_SIZE ?? 150);
 const main = runThresholdBank({ size, bootstrap: 20 }).stats;
 const variant = runThresholdBank({ size: variantSize, bootstrap: 20, generator: "variant" }).stats;
+/** A bank of one model written blind, at moderate noise (20 resamples). */
+const moderateBank = (generator: BankGenerator, seed: number, size: number) =>
+  runThresholdBank({ size, seed, bootstrap: 20, generator, noiseLevels: ["moderate"] }).stats;
 const holdoutSize = Number(process.env.HOLDOUT_SIZE ?? 120);
-const holdout = runThresholdBank({
-  size: holdoutSize,
-  seed: 31,
-  bootstrap: 20,
-  generator: "holdout",
-  noiseLevels: ["moderate"],
-}).stats;
+const holdout = moderateBank("holdout", 31, holdoutSize);
 const auditSize = Number(process.env.AUDIT_SIZE ?? 120);
-const audit = runThresholdBank({ size: auditSize, seed: 41, bootstrap: 20, generator: "audit", noiseLevels: ["moderate"] }).stats;
+const audit = moderateBank("audit", 41, auditSize);
 const crossCheckSize = Number(process.env.CROSSCHECK_SIZE ?? 120);
-const crossCheck = runThresholdBank({
-  size: crossCheckSize,
-  seed: 53,
-  bootstrap: 20,
-  generator: "crosscheck",
-  noiseLevels: ["moderate"],
-}).stats;
+const crossCheck = moderateBank("crosscheck", 53, crossCheckSize);
 const stat = (stats: BankStats[], method: string, noise: string) => stats.find((s) => s.method === method && s.noise === noise)!;
 
 describe(`threshold accuracy, main generator (${size} tests)`, () => {

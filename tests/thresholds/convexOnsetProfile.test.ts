@@ -1,4 +1,5 @@
 import { describe, it, expect } from "vitest";
+import { argmin, bruteSse } from "./profileFitHelpers";
 import { convexOnsetProfile } from "../../lib/thresholds/convexOnsetProfile";
 import { jointVt1, segmentedProfile } from "../../lib/thresholds/jointVt1";
 import type { ThresholdSeries } from "../../lib/thresholds/thresholdTypes";
@@ -8,29 +9,6 @@ import { handBuiltSeries } from "./handBuiltSeries";
 const t = Array.from({ length: 41 }, (_, i) => 100 + 15 * i); // 100 … 700 s
 const taus = Array.from({ length: 61 }, (_, i) => 200 + 5 * i); // 200 … 500 s
 const x = (s: number) => (s - t[0]) / 60;
-const argmin = (v: Float64Array) => {
-  let b = -1;
-  v.forEach((s, j) => {
-    if (Number.isFinite(s) && (b < 0 || s < v[b])) b = j;
-  });
-  return b;
-};
-
-/** Independent least squares: normal equations from the raw columns, Gauss–Jordan (no suffix sums). */
-function bruteSse(cols: number[][], y: number[]): { sse: number; beta: number[] } {
-  const k = cols.length;
-  const m = cols.map((a) => [...cols.map((b) => a.reduce((s, v, i) => s + v * b[i], 0)), a.reduce((s, v, i) => s + v * y[i], 0)]);
-  for (let c = 0; c < k; c++) {
-    for (let r = 0; r < k; r++) {
-      if (r === c) continue;
-      const f = m[r][c] / m[c][c];
-      for (let q = c; q <= k; q++) m[r][q] -= f * m[c][q];
-    }
-  }
-  const beta = m.map((row, i) => row[k] / row[i]);
-  const sse = y.reduce((s, v, i) => s + (v - cols.reduce((f, col, c) => f + beta[c] * col[i], 0)) ** 2, 0);
-  return { sse, beta };
-}
 
 describe("convexOnsetProfile", () => {
   it("a rise that starts at 400 s and steepens (y = 2 + 0.5x + 3(x − a)²₊): zero SSE at 400 s, its minimum", () => {
