@@ -185,33 +185,65 @@ export function hingeFit(x: ArrayLike<number>, y: ArrayLike<number>, options: Hi
     return { sse: Math.max(0, syy - fitted), beta };
   };
 
-  let best: { k: number; x0: number; sse: number; beta: number[] } | null = null;
+  // Screening of candidates by the partial-regression (Schur complement) identity with (X'X)⁻¹ and the one-segment
+  // fit computed once: SSE(x0) = SSE_single − (h'My)² / h'Mh, hinge coefficient h'My / h'Mh (M = I − X(X'X)⁻¹X') —
+  // the same least squares as the full (p+1)² solve, O(p²) per candidate and no allocation; the full solve runs
+  // once, for the best candidate's coefficients. Without an invertible base block every candidate takes the full solve.
+  const ginv: number[][] = [];
+  if (baseBeta)
+    for (let c = 0; c < p; c++) {
+      const e = new Array<number>(p).fill(0);
+      e[c] = 1;
+      const col = solveLinearSystem(gram, e);
+      if (!col) break;
+      ginv.push(col);
+    }
+  const screened = baseBeta !== null && ginv.length === p;
+  const hx = new Float64Array(p);
+  const screen = (k: number, x0: number): number => {
+    if (!screened) return evaluate(k, x0)?.sse ?? NaN;
+    const nu = n - k;
+    for (let i = 0; i < p; i++) hx[i] = sufCX[i][k] - x0 * sufC[i][k];
+    const hh = sufXX[k] - 2 * x0 * sufX[k] + nu * x0 * x0;
+    let hMh = hh;
+    for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) hMh -= hx[a] * ginv[a][b] * hx[b];
+    if (!(hMh > 1e-12 * hh) || !(hMh > tiny * 1e-6)) return NaN;
+    let hMy = sufXY[k] - x0 * sufY[k];
+    for (let i = 0; i < p; i++) hMy -= hx[i] * (baseBeta as number[])[i];
+    const d = hMy / hMh;
+    if ((sign === "positive" && !(d > 0)) || (sign === "negative" && !(d < 0))) return NaN;
+    return Math.max(0, sseSingle - (hMy * hMy) / hMh);
+  };
+
+  let best: { k: number; x0: number; sse: number } | null = null;
   for (let k = m; k <= n - m; k++) {
     const x0 = (xs[k - 1] + xs[k]) / 2;
-    const r = evaluate(k, x0);
-    if (r && (!best || r.sse < best.sse)) best = { k, x0, ...r };
+    const sse = screen(k, x0);
+    if (Number.isFinite(sse) && (!best || sse < best.sse)) best = { k, x0, sse };
   }
   if (!best) return EMPTY(n);
   const kb = best.k;
   for (let k = Math.max(m, kb - 1); k <= Math.min(n - m, kb + 1); k++) {
     for (let s = 0; s <= refineSteps; s++) {
       const x0 = xs[k - 1] + (s / refineSteps) * (xs[k] - xs[k - 1]);
-      const r = evaluate(k, x0);
-      if (r && r.sse < best.sse) best = { k, x0, ...r };
+      const sse = screen(k, x0);
+      if (Number.isFinite(sse) && sse < best.sse) best = { k, x0, sse };
     }
   }
-  const beta = best.beta;
+  const full = evaluate(best.k, best.x0);
+  if (!full) return EMPTY(n);
+  const beta = full.beta;
   const slopeBelow = flat ? 0 : beta[1];
   const hinge = beta[p];
   const dof = n - p - 2;
-  const fStatistic = dof > 0 && best.sse > 0 ? (sseSingle - best.sse) / 2 / (best.sse / dof) : best.sse === 0 ? Infinity : NaN;
+  const fStatistic = dof > 0 && full.sse > 0 ? (sseSingle - full.sse) / 2 / (full.sse / dof) : full.sse === 0 ? Infinity : NaN;
   return {
     breakX: best.x0 + xm,
     slopeBelow,
     slopeAbove: slopeBelow + hinge,
     yAtBreak: beta[0] + slopeBelow * best.x0 + ym,
     coefficients: beta,
-    sse: best.sse,
+    sse: full.sse,
     sseSingle,
     fStatistic,
     n,
