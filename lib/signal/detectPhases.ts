@@ -26,7 +26,7 @@ export interface PhaseDetection {
  * Find the phases of a test.
  * - From phase markers when any row carries one: each run of breaths with the same marker is a span;
  *   the exercise span runs from the first to the last "exercise" breath.
- * - Otherwise from the work rate (or, on a treadmill, speed, then grade): rest = zero load before the
+ * - Otherwise from the work rate (or, on a treadmill, the ACSM walking cost of speed and grade, then grade alone): rest = zero load before the
  *   first loaded breath; warm-up = a first constant low load (≤ half the peak) lasting at least 60 s and,
  *   in a step protocol, 1.5 times the usual step (its level is the median of the first five loaded breaths, so a
  *   breath that straddles the load change does not set it); incremental = from the first rise (on a steady ramp,
@@ -52,19 +52,22 @@ export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions =
   let zero = options.zeroLoadW ?? 1;
   if (!signal.some((x) => x !== undefined && x > zero)) {
     source = "speed";
-    signal = rows.map((r) => r.speedKmh);
-    zero = 0.1;
-    const speeds = signal.filter((x): x is number => x !== undefined);
-    const varies = speeds.length > 0 && Math.max(...speeds) - Math.min(...speeds) > zero;
-    if (!varies) {
-      const grades = rows.map((r) => r.gradePct);
-      if (grades.some((g) => g !== undefined && g > zero)) signal = grades;
-      else if (!speeds.some((s) => s > zero)) {
-        return none(
-          "phases-not-found",
-          "No phase markers and no work rate, speed or grade: the phases of the test could not be found. Add a phase column or a work-rate column.",
-        );
-      }
+    const anySpeed = rows.some((r) => r.speedKmh !== undefined && r.speedKmh > 0.1);
+    const anyGrade = rows.some((r) => r.gradePct !== undefined && r.gradePct > 0.1);
+    if (anySpeed) {
+      // A treadmill load from speed and grade together: the net O2 cost of the ACSM walking equation, 0.1·S + 1.8·S·G
+      // (S m/min, G fraction; source `acsm-metabolic-equations`, secondary). A walking warm-up at 0 % grade then sits
+      // well below the peak of a grade or speed protocol, and a rise in grade alone starts the incremental phase.
+      signal = rows.map((r) => (r.speedKmh === undefined ? undefined : treadmillLoad(r.speedKmh, r.gradePct)));
+      zero = treadmillLoad(0.1, 0);
+    } else if (anyGrade) {
+      signal = rows.map((r) => r.gradePct);
+      zero = 0.1;
+    } else {
+      return none(
+        "phases-not-found",
+        "No phase markers and no work rate, speed or grade: the phases of the test could not be found. Add a phase column or a work-rate column.",
+      );
     }
   }
   // carry the last known value forward over rows without one
@@ -116,18 +119,21 @@ export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions =
     level <= 0.5 * peak &&
     firstRunS >= (options.minWarmupS ?? 60) &&
     (typicalStep < 10 || firstRunS >= 1.5 * typicalStep);
+  // a first rise beyond the constant-load tolerance straight from a breath still at the warm-up level is a step, not
+  // the foot of a ramp (a ramp's loads creep up over the breaths before it, even when rounded to whole watts)
+  const stepTol = tol;
   let incStart = warmup ? runEnd + 1 : firstLoaded;
   if (warmup) {
     // the rise began at the last breath still at the warm-up load (within a small tolerance) …
     const small = Math.max(zero, 0.005 * peak);
     while (incStart - 1 > firstLoaded && x[incStart - 1] > level + small) incStart--;
     // … or, on a steady ramp, where the ramp's first minute extrapolates back to the warm-up load
-    incStart = rampOnset(t, x, incStart, firstLoaded, level);
+    incStart = rampOnset(t, x, incStart, firstLoaded, level, stepTol);
   } else if (firstLoaded > 0) {
     // a ramp straight from rest or unloaded pedalling (0 W): where it extrapolates back to the resting load
     let restLoad = x[0];
     for (let i = 1; i < firstLoaded; i++) restLoad = Math.min(restLoad, x[i]);
-    incStart = rampOnset(t, x, incStart, 0, restLoad);
+    incStart = rampOnset(t, x, incStart, 0, restLoad, stepTol);
   }
   const phases: PhaseSpan[] = [];
   const restEnd = warmup ? firstLoaded : Math.min(firstLoaded, incStart);
@@ -174,14 +180,27 @@ export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions =
   return { phases, exercise: { startS: t[incStart], endS: t[peakLast] }, rampRateWPerMin: rate, rampRateR2: r2, issues };
 }
 
+/** Net O2 cost of treadmill walking, mL/kg/min: 0.1·S + 1.8·S·G (ACSM walking equation, secondary), S in m/min. */
+function treadmillLoad(speedKmh: number, gradePct: number | undefined): number {
+  const s = (speedKmh * 1000) / 60;
+  return 0.1 * s + (1.8 * s * Math.max(0, gradePct ?? 0)) / 100;
+}
+
 /**
  * Back-extrapolate a steady ramp to its onset: OLS of load on time over the first 60 s of the incremental phase; when
  * that is a clean rise (slope > 0, R² ≥ 0.95: a ramp, not a step), the onset is the first breath at or after the time
- * the line meets the warm-up level. Moves the start earlier only. Straight-line extrapolation is common practice; the
+ * the line meets the warm-up level, unless the protocol opens with a step. Moves the start earlier only. Straight-line extrapolation is common practice; the
  * 60-s window and R² ≥ 0.95 are our choice (load-only phases then match the markers within 6–10 s on the synthetic
  * models, tests/signal/phasesWithoutMarkers.test.ts).
  */
-function rampOnset(t: readonly number[], x: Float64Array, incStart: number, lowest: number, level: number): number {
+function rampOnset(
+  t: readonly number[],
+  x: Float64Array,
+  incStart: number,
+  lowest: number,
+  level: number,
+  stepTolerance: number,
+): number {
   const xs: number[] = [];
   const ys: number[] = [];
   for (let i = incStart; i < t.length && t[i] <= t[incStart] + 60; i++) {
@@ -191,6 +210,11 @@ function rampOnset(t: readonly number[], x: Float64Array, incStart: number, lowe
   if (xs.length < 5) return incStart;
   const fit = linearRegression(xs, ys);
   if (!(fit.slope > 0) || !(fit.r2 >= 0.95)) return incStart;
+  // a protocol that opens with a step (a treadmill jump from walking to running, a first stage above the warm-up)
+  // starts at the step: its first breath lies above the warm-up level by more than `stepTolerance`, straight after a
+  // breath at that level
+  const small = Math.max(1e-9, 0.1 * stepTolerance);
+  if (x[incStart] - level > stepTolerance && incStart > lowest && x[incStart - 1] <= level + small) return incStart;
   const onsetS = (level - fit.intercept) / fit.slope;
   let i = incStart;
   while (i - 1 > lowest && t[i - 1] >= onsetS) i--;

@@ -5,6 +5,13 @@ import { defineSources } from "../core/source";
  * project's clinical sheets (C = confirmed, C2 = secondary, M = recalled).
  */
 export const SIGNAL_SOURCES = defineSources({
+  "acsm-metabolic-equations": {
+    citation:
+      "ACSM's Guidelines for Exercise Testing and Prescription, 10th ed., Table 6.3 metabolic calculations, as reproduced by Bushman BA. Metabolic calculations in action part 2. ACSM Health Fit J 2020;24(4):5-8",
+    status: "secondary",
+    doi: "10.1249/FIT.0000000000000577",
+    note: "Walking VO2 = 3.5 + 0.1·S + 1.8·S·G (mL/kg/min, S in m/min, G grade as a fraction), seen in the reproduction. Used as a treadmill load index to find the phases of files without markers.",
+  },
   "outlier-scoping-review-2025": {
     citation:
       "Scoping review of outlier handling in breath-by-breath gas-exchange studies (Thieme journal), doi 10.1055/a-2495-5364",
