@@ -105,20 +105,30 @@ export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions =
   while (runEnd + 1 <= peakLast && Math.abs(x[runEnd + 1] - level) <= tol) runEnd++;
   const firstRunS = (runEnd + 1 < t.length ? t[runEnd + 1] : t[runEnd]) - t[firstLoaded];
   const stepDurations: number[] = [];
+  const stepRises: number[] = [];
   let s0 = runEnd + 1;
   for (let i = runEnd + 2; i <= peakLast + 1; i++) {
     if (i > peakLast || Math.abs(x[i] - x[s0]) > tol) {
-      if (i <= peakLast) stepDurations.push(t[i] - t[s0]);
+      if (i <= peakLast) {
+        stepDurations.push(t[i] - t[s0]);
+        stepRises.push(x[i] - x[s0]);
+      }
       s0 = i;
     }
   }
   stepDurations.sort((a, b) => a - b);
+  stepRises.sort((a, b) => a - b);
   const typicalStep = stepDurations.length > 0 ? stepDurations[Math.floor(stepDurations.length / 2)] : 0;
+  const typicalRise = stepRises.length > 0 ? stepRises[Math.floor(stepRises.length / 2)] : 0;
+  // In a step protocol a warm-up is told from the first stage by its length (1.5 stages) or, when it is as short as a
+  // stage, by the rise out of it: at least twice the usual step (a walking warm-up before running stages). Both
+  // factors are our choice.
+  const riseOut = runEnd + 1 <= peakLast ? x[runEnd + 1] - level : 0;
   const warmup =
     runEnd < peakLast &&
     level <= 0.5 * peak &&
     firstRunS >= (options.minWarmupS ?? 60) &&
-    (typicalStep < 10 || firstRunS >= 1.5 * typicalStep);
+    (typicalStep < 10 || firstRunS >= 1.5 * typicalStep || (typicalRise > 0 && riseOut >= 2 * typicalRise));
   // a first rise beyond the constant-load tolerance straight from a breath still at the warm-up level is a step, not
   // the foot of a ramp (a ramp's loads creep up over the breaths before it, even when rounded to whole watts)
   const stepTol = tol;

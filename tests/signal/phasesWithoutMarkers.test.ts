@@ -47,9 +47,9 @@ describe("phases from the load alone match the phase markers", () => {
   it("treadmill tests of the cross-check model (written blind): the walking warm-up is not exercise", () => {
     // 39 treadmill tests among the first 120 cross-check specs (seed 53; INVENTED data): walking or running ramps and
     // stages after a walking warm-up at 0 % grade. Speed alone put the start at the warm-up in most of them (3 of 39
-    // within 15 s of the markers, median 149 s early); the ACSM walking cost of speed and grade together, and a first
-    // rise that is a step, find it (31 of 39 within 15 s, median 0 s). Some stepped tests still read a warm-up as long
-    // as a stage as the first stage.
+    // within 15 s of the markers, median 149 s early); the ACSM walking cost of speed and grade together, a first rise
+    // that is a step, and a warm-up told from a first stage by the rise out of it find it (33 of 39 within 15 s, median
+    // 0 s). Some stepped tests still read a warm-up as long as a stage, with an ordinary first step, as the first stage.
     const d: number[] = [];
     for (let i = 0; i < 120; i++) {
       const syn = generateCrossCheckTest(crossCheckSpec(i, 53, ["moderate"]), 53 + i);
@@ -60,7 +60,7 @@ describe("phases from the load alone match the phase markers", () => {
     }
     d.sort((a, b) => a - b);
     expect(d.length).toBe(39);
-    expect(d.filter((x) => x <= 15).length).toBeGreaterThanOrEqual(29); // our regression bound at the level reached (31)
+    expect(d.filter((x) => x <= 15).length).toBeGreaterThanOrEqual(31); // our regression bound at the level reached (33)
     expect(d[Math.floor(d.length / 2)]).toBeLessThanOrEqual(5);
   });
 });
