@@ -2,7 +2,7 @@ import fs from "node:fs";
 import path from "node:path";
 import type { Command } from "commander";
 import { analyse, buildRecord, type ReferralQuestion } from "../lib/analysis";
-import { importLactateFile } from "../lib/breath";
+import { importLactateFile, STAGE_DURATION_LIMITS_S } from "../lib/breath";
 import { hasErrors, makeIssue, plausibilityProblem, type PlausibleField } from "../lib/core";
 import { REFERRAL_QUESTIONS } from "../lib/interpret";
 import { CLINICAL_CAUTION, toCliJson, type CliAnalysisJson } from "../lib/report";
@@ -72,8 +72,9 @@ function parseNumber(flag: string, field: PlausibleField) {
 
 function parseStageSeconds(raw: string): number {
   const n = Number(raw);
-  if (raw.trim() === "" || !Number.isFinite(n) || n < 10 || n > 3600)
-    throw new Error(`--stage-duration-s must be a number of seconds between 10 and 3600, got "${raw}"`);
+  const { min, max } = STAGE_DURATION_LIMITS_S;
+  if (raw.trim() === "" || !Number.isFinite(n) || n < min || n > max)
+    throw new Error(`--stage-duration-s must be a number of seconds between ${min} and ${max}, got "${raw}"`);
   return n;
 }
 

@@ -47,6 +47,9 @@ export interface ColumnDecision {
   storedAs?: "vo2MlKgMin";
 }
 
+/** The stage lengths a user may give for a stage table without a time column, s (our choice: 10 s to 1 h). */
+export const STAGE_DURATION_LIMITS_S = { min: 10, max: 3600 } as const;
+
 /**
  * Import options (all optional).
  * - `mapping`: header → { field, unit } decisions that replace the automatic ones ("set by user").
@@ -55,6 +58,7 @@ export interface ColumnDecision {
  * - `stageDurationS`: spacing given to stages when a stage table has no time column. @default 60
  * - `maxGapS`: longest gap between breaths before a warning, s. @default 15
  */
+
 export interface ImportOptions {
   fileName?: string;
   mapping?: ColumnMapping;

@@ -4,13 +4,20 @@ import crypto from "node:crypto";
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { buildRecord, type TestRecord } from "@/lib/analysis";
-import { importBreathFile, parseUnitText, UNIT_KEYS_BY_FIELD, type ColumnMapping, type ColumnOverride } from "@/lib/breath";
+import {
+  importBreathFile,
+  parseUnitText,
+  STAGE_DURATION_LIMITS_S,
+  UNIT_KEYS_BY_FIELD,
+  type ColumnMapping,
+  type ColumnOverride,
+} from "@/lib/breath";
 import { readTableLayout } from "@/lib/breath/readTableLayout";
 import type { Issue } from "@/lib/core";
 import { saveProfile } from "@/lib/store/profiles";
 import { getImportChoices, getUploadDetails, replaceImport, type ImportChoices } from "@/lib/store/reimport";
 import { getTest, getUploadBytes } from "@/lib/store/tests";
-import { fieldErrors, testDetailsSchema } from "../../../schemas";
+import { fieldErrors, optionalNumber, plausibleNumber, testDetailsSchema } from "../../../schemas";
 import { FIELD_LABEL, unitOptions, type FieldKey } from "./fieldChoices";
 
 export interface ColumnFormState {
@@ -27,29 +34,11 @@ export interface ColumnFormState {
 const ACTOR = "local user";
 const FIELD_KEYS = Object.keys(FIELD_LABEL) as FieldKey[];
 
-const optionalKg = z.preprocess(
-  (v) => (v === "" || v === undefined || v === null ? undefined : Number(v)),
-  z
-    .number({ message: "Body mass must be a number (kg)" })
-    .min(20, "Body mass must be at least 20 kg")
-    .max(300, "Body mass must be at most 300 kg")
-    .optional(),
-);
-
-const optionalStageS = z.preprocess(
-  (v) => (v === "" || v === undefined || v === null ? undefined : Number(v)),
-  z
-    .number({ message: "Stage length must be a number of seconds" })
-    .min(10, "Stage length must be at least 10 s")
-    .max(3600, "Stage length must be at most 3600 s")
-    .optional(),
-);
-
 const baseSchema = z.object({
   testId: z.coerce.number().int().positive(),
   intent: z.enum(["reread", "save-profile"]),
-  weightKg: optionalKg,
-  stageDurationS: optionalStageS,
+  weightKg: plausibleNumber("weightKg"),
+  stageDurationS: optionalNumber(STAGE_DURATION_LIMITS_S.min, STAGE_DURATION_LIMITS_S.max, "Stage length (s)"),
   selectColumn: z.string().max(200).optional().default(""),
   selectValue: z.string().trim().max(200).optional().default(""),
   profileName: z.string().trim().max(80, "Keep the profile name under 80 characters").optional().default(""),

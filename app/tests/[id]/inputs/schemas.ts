@@ -1,16 +1,8 @@
 import { z } from "zod";
+import { optionalNumber } from "../../../schemas";
 
-const optionalNumber = (min: number, max: number, what: string, integer = false) =>
-  z.preprocess(
-    (v) => (v === "" || v === null || v === undefined ? undefined : Number(String(v).trim().replace(",", "."))),
-    (integer
-      ? z.number({ message: `${what} must be a number` }).int(`${what} must be a whole number`)
-      : z.number({ message: `${what} must be a number` })
-    )
-      .min(min, `${what} must be at least ${min}`)
-      .max(max, `${what} must be at most ${max}`)
-      .optional(),
-  );
+const formNumber = (min: number, max: number, what: string, integer = false) =>
+  optionalNumber(min, max, what, { integer, decimalComma: true });
 
 const yesNo = z.enum(["", "yes", "no"]).default("");
 const text = (max: number, what: string) =>
@@ -25,11 +17,11 @@ const text = (max: number, what: string) =>
 export const contextSchema = z.object({
   testId: z.coerce.number().int().positive(),
   ischaemicHeartDisease: yesNo,
-  resectedSegments: optionalNumber(0, 19, "Segments to be resected", true),
-  stairClimbM: optionalNumber(0, 200, "Stair climb height (m)"),
-  shuttleWalkM: optionalNumber(0, 3000, "Shuttle walk distance (m)"),
+  resectedSegments: formNumber(0, 19, "Segments to be resected", true),
+  stairClimbM: formNumber(0, 200, "Stair climb height (m)"),
+  shuttleWalkM: formNumber(0, 3000, "Shuttle walk distance (m)"),
   betaBlocker: yesNo,
-  haemoglobinGDl: optionalNumber(3, 25, "Haemoglobin (g/dL)"),
+  haemoglobinGDl: formNumber(3, 25, "Haemoglobin (g/dL)"),
 });
 
 /**
@@ -41,7 +33,7 @@ export const conductSchema = z.object({
   protocol: text(200, "Protocol"),
   reasonForStopping: text(300, "Reason for stopping"),
   symptoms: text(300, "Symptoms"),
-  peakBorg: optionalNumber(6, 20, "Peak Borg rating (6–20)", true),
+  peakBorg: formNumber(6, 20, "Peak Borg rating (6–20)", true),
   bloodPressure: text(120, "Blood pressure"),
   ecgNotes: text(500, "ECG notes"),
   notes: text(1000, "Notes"),
