@@ -118,9 +118,8 @@ export function checkPhysiologicalLimits(rows: readonly BreathRow[], options: Ph
     const subject = `${name}${derived ? ` (VO2 ÷ body mass ${fmt(weight!)} kg)` : ""} in ${where}: ${parts.join(" and ")}${firstRow !== undefined ? `, first at row ${firstRow}` : ""}`;
     // A few isolated breaths (a cough, a sigh, a swallow) beyond the limit are artefacts, which conditioning sets
     // aside; a column whose values lie there in more than 1 % of rows (at least 3) points to a wrong column or unit.
-    // The 1 % / 3-row split is our choice.
     const count = above + below;
-    const isolated = options.shape !== "stage" && count < Math.max(3, 0.01 * rows.length);
+    const isolated = options.shape !== "stage" && isolatedBreaths(count, rows.length);
     issues.push(
       isolated
         ? makeIssue(
@@ -150,6 +149,15 @@ export function checkPhysiologicalLimits(rows: readonly BreathRow[], options: Ph
     );
   }
   return issues;
+}
+
+/**
+ * A few isolated breaths beyond a screen are routine artefacts (a swallow, a cough, a sigh); more than 1 % of the
+ * breaths, and at least 3, point to a measurement or mapping problem. The 1 % / 3-breath split is our choice; the
+ * plausibility screens, the import range check and the RER screen of conditioning share it.
+ */
+export function isolatedBreaths(count: number, breaths: number): boolean {
+  return count < Math.max(3, 0.01 * breaths);
 }
 
 /** Time covered by the rows, s: last − first time; stage rows add their median spacing (each row is a stage). */

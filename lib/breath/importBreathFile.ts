@@ -9,7 +9,7 @@ import {
   PLAUSIBLE_RANGE,
   PLAUSIBLE_VO2_PER_KG,
 } from "./inferColumnUnit";
-import { checkPhysiologicalLimits } from "./checkPhysiologicalLimits";
+import { checkPhysiologicalLimits, isolatedBreaths } from "./checkPhysiologicalLimits";
 import { columnMappingSchema, type ColumnMapping, type ColumnOverride } from "./mappingProfile";
 import { isBlankCell, isClockCell, parseClock, parseNumberCell } from "./parseCell";
 import type { Cell } from "./parseDelimited";
@@ -1179,10 +1179,8 @@ function checkPlausibility(rows: BreathRow[], byTarget: Map<Target, Column>, iss
         ),
       );
     } else {
-      // A few isolated breaths (a swallow, a cough, a mask leak) are routine artefacts: an info line. More than 1 % of
-      // a column's breaths (at least 3), or any stage row, is a warning. The split is our choice, the same as the
-      // physiological plausibility screen's (checkPhysiologicalLimits.ts).
-      const isolated = !stageRows && out < Math.max(3, 0.01 * present);
+      // a few isolated breaths (a swallow, a cough, a mask leak) are an info line; more, or any stage row, a warning
+      const isolated = !stageRows && isolatedBreaths(out, present);
       issues.push(
         makeIssue(
           isolated ? "info" : "warning",

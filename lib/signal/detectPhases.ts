@@ -26,8 +26,8 @@ export interface PhaseDetection {
  * Find the phases of a test.
  * - From phase markers when any row carries one: each run of breaths with the same marker is a span;
  *   the exercise span runs from the first to the last "exercise" breath.
- * - Otherwise from the work rate (or, on a treadmill, the ACSM walking cost of speed and grade, then grade alone): rest = zero load before the
- *   first loaded breath; warm-up = a first constant low load (≤ half the peak) lasting at least 60 s and,
+ * - Otherwise from the work rate (or, on a treadmill, the ACSM walking cost of speed and grade, then grade alone):
+ *   rest = zero load before the first loaded breath; warm-up = a first constant low load (≤ half the peak) lasting at least 60 s and,
  *   in a step protocol, 1.5 times the usual step (its level is the median of the first five loaded breaths, so a
  *   breath that straddles the load change does not set it); incremental = from the first rise (on a steady ramp,
  *   where the ramp's first minute extrapolates back to the warm-up load) to the last breath at peak load;
@@ -129,21 +129,18 @@ export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions =
     level <= 0.5 * peak &&
     firstRunS >= (options.minWarmupS ?? 60) &&
     (typicalStep < 10 || firstRunS >= 1.5 * typicalStep || (typicalRise > 0 && riseOut >= 2 * typicalRise));
-  // a first rise beyond the constant-load tolerance straight from a breath still at the warm-up level is a step, not
-  // the foot of a ramp (a ramp's loads creep up over the breaths before it, even when rounded to whole watts)
-  const stepTol = tol;
   let incStart = warmup ? runEnd + 1 : firstLoaded;
   if (warmup) {
     // the rise began at the last breath still at the warm-up load (within a small tolerance) …
     const small = Math.max(zero, 0.005 * peak);
     while (incStart - 1 > firstLoaded && x[incStart - 1] > level + small) incStart--;
     // … or, on a steady ramp, where the ramp's first minute extrapolates back to the warm-up load
-    incStart = rampOnset(t, x, incStart, firstLoaded, level, stepTol);
+    incStart = rampOnset(t, x, incStart, firstLoaded, level, tol);
   } else if (firstLoaded > 0) {
     // a ramp straight from rest or unloaded pedalling (0 W): where it extrapolates back to the resting load
     let restLoad = x[0];
     for (let i = 1; i < firstLoaded; i++) restLoad = Math.min(restLoad, x[i]);
-    incStart = rampOnset(t, x, incStart, 0, restLoad, stepTol);
+    incStart = rampOnset(t, x, incStart, 0, restLoad, tol);
   }
   const phases: PhaseSpan[] = [];
   const restEnd = warmup ? firstLoaded : Math.min(firstLoaded, incStart);
@@ -199,8 +196,8 @@ function treadmillLoad(speedKmh: number, gradePct: number | undefined): number {
 /**
  * Back-extrapolate a steady ramp to its onset: OLS of load on time over the first 60 s of the incremental phase; when
  * that is a clean rise (slope > 0, R² ≥ 0.95: a ramp, not a step), the onset is the first breath at or after the time
- * the line meets the warm-up level, unless the protocol opens with a step. Moves the start earlier only. Straight-line extrapolation is common practice; the
- * 60-s window and R² ≥ 0.95 are our choice (load-only phases then match the markers within 6–10 s on the synthetic
+ * the line meets the warm-up level, unless the protocol opens with a step. Moves the start earlier only. Straight-line
+ * extrapolation is common practice; the 60-s window and R² ≥ 0.95 are our choice (load-only phases then match the markers within 6–10 s on the synthetic
  * models, tests/signal/phasesWithoutMarkers.test.ts).
  */
 function rampOnset(
@@ -221,8 +218,9 @@ function rampOnset(
   const fit = linearRegression(xs, ys);
   if (!(fit.slope > 0) || !(fit.r2 >= 0.95)) return incStart;
   // a protocol that opens with a step (a treadmill jump from walking to running, a first stage above the warm-up)
-  // starts at the step: its first breath lies above the warm-up level by more than `stepTolerance`, straight after a
-  // breath at that level
+  // starts at the step: its first breath lies above the warm-up level by more than `stepTolerance` (the constant-load
+  // tolerance), straight after a breath at that level; a ramp's loads creep up over the breaths before it, even when
+  // rounded to whole watts (0.1 × the tolerance: our choice)
   const small = Math.max(1e-9, 0.1 * stepTolerance);
   if (x[incStart] - level > stepTolerance && incStart > lowest && x[incStart - 1] <= level + small) return incStart;
   const onsetS = (level - fit.intercept) / fit.slope;

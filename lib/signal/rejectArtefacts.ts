@@ -1,5 +1,5 @@
 import { makeIssue, type Issue } from "../core";
-import type { BreathRow, NumericField } from "../breath";
+import { isolatedBreaths, type BreathRow, type NumericField } from "../breath";
 import type { ArtefactRule, RemovedBreath } from "./types";
 
 /** Default artefact rule: 4 SD from the local mean of 5 breaths on each side, on VO2, VCO2 and VE. */
@@ -108,11 +108,9 @@ export function rejectArtefacts(rows: readonly BreathRow[], options: ArtefactOpt
       ),
     );
   if (rerCount > 0) {
-    // A few isolated breaths (a swallow, a cough, a sigh) are routine artefacts: an info line. More than 1 % of the
-    // breaths (at least 3), or any stage row, points to a measurement problem: a warning. The split is our choice,
-    // the same as the physiological plausibility screen's (lib/breath/checkPhysiologicalLimits.ts).
+    // a few isolated breaths (a swallow, a cough, a sigh) are an info line; more, or any stage row, a warning
     const limits = rer.max >= 2 ? `above ${rer.max} or below ${rer.min}` : `outside ${rer.min}–${rer.max}`;
-    const isolated = !options.stageRows && rerCount < Math.max(3, 0.01 * rows.length);
+    const isolated = !options.stageRows && isolatedBreaths(rerCount, rows.length);
     issues.push(
       isolated
         ? makeIssue(

@@ -269,8 +269,7 @@ function lineSignal(
   const curved = new Uint8Array(taus.length);
   if (p.n === 0) return { name, p, curved };
   // a shape with a penalty c costs (n/2)·log(SSE·e^(2c/n)) = (n/2)·log SSE + c
-  const take = (sse: Float64Array, penalty: number | null, mark: number) => {
-    if (penalty === null) return;
+  const take = (sse: Float64Array, penalty: number, mark: number) => {
     const factor = Math.exp((2 * penalty) / p.n);
     for (let j = 0; j < taus.length; j++)
       if (sse[j] * factor < p.sse[j]) {
