@@ -621,6 +621,19 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
   return { table, columns: decisions, issues, format, events: placedEvents, weight };
 }
 
+/** Whether at least 80 % of the filled cells of column `i` name a phase (rest, warm-up, exercise, recovery). */
+function namesPhases(rows: readonly Cell[][], i: number): boolean {
+  let filled = 0;
+  let named = 0;
+  for (const r of rows) {
+    const cell = r[i] ?? null;
+    if (isBlankCell(cell)) continue;
+    filled++;
+    if (typeof cell === "string" && phaseFromText(cell) !== undefined) named++;
+  }
+  return filled > 0 && named >= 0.8 * filled;
+}
+
 /** Parse a column's numbers, judge its unit from header / units row / user and the values, and fill `col`. */
 function decideColumn(
   col: Column,
@@ -672,6 +685,22 @@ function decideColumn(
       bad++;
       firstBad ??= lines[r];
     }
+  }
+  if (field === "stage" && decision.decidedBy !== "user" && bad > 0.8 * filled && namesPhases(rows, i)) {
+    // "Stage" is also a common header for the phase of the test (rest, exercise, recovery); a text column whose
+    // words name phases is read as the phase column rather than thrown away as a stage number that is not a number
+    col.target = "phase";
+    decision.field = "phase";
+    decision.reason = `${by}, but its text names phases (rest, warm-up, exercise, recovery); read as phases`;
+    issues.push(
+      makeIssue(
+        "info",
+        "stage-column-read-as-phase",
+        `The column "${header}" holds phase names, not stage numbers; it was read as the phase of the test.`,
+        { column: header },
+      ),
+    );
+    return;
   }
   if (bad > 0.8 * filled) {
     decision.reason = `${by}, but the column holds text, not numbers; ignored`;

@@ -119,6 +119,20 @@ describe("broken files give a clear issue and never throw", () => {
     expect(r.table!.fields).not.toContain("hrBpm");
   });
 
+  it("a column headed Stage that names phases is read as the phase, and a Stage column of other text is still set aside", async () => {
+    // by construction: breaths 0-9 rest, 10-24 exercise, 25-29 recovery
+    const name = (i: number) => (i < 10 ? "Rest" : i < 25 ? "Exercise" : "Recovery");
+    const phased = plain(30).map((l, i) => (i === 0 ? `${l},Stage` : `${l},${name(i - 1)}`));
+    const r = await importBreathFile(enc(phased.join("\n")));
+    expect(codes(r)).toContain("stage-column-read-as-phase");
+    expect(codes(r)).not.toContain("column-not-numeric");
+    expect(r.table!.rows.map((row) => row.phase)).toEqual(Array.from({ length: 30 }, (_, i) => name(i).toLowerCase()));
+    const other = plain(30).map((l, i) => (i === 0 ? `${l},Stage` : `${l},level ${i > 15 ? "B" : "A"}`));
+    const r2 = await importBreathFile(enc(other.join("\n")));
+    expect(r2.issues.find((i) => i.code === "column-not-numeric")?.where?.column).toBe("Stage");
+    expect(r2.table!.rows.every((row) => row.phase === undefined)).toBe(true);
+  });
+
   it("a few text cells in a numeric column", async () => {
     const lines = plain(30);
     lines[5] = lines[5].replace(/,[^,]+,/, ",err,");
