@@ -29,7 +29,10 @@ export const BREATH_ISSUE_CODES = {
   "weight-from-file": { severity: "info", meaning: "body mass was read from the file" },
   "duplicate-column": { severity: "warning", meaning: "two columns give the same quantity; the first was used" },
   "empty-column": { severity: "info", meaning: "a recognised column has no values" },
-  "stage-column-read-as-phase": { severity: "info", meaning: "a column headed as stage holds phase names and was read as phases" },
+  "stage-column-read-as-phase": {
+    severity: "info",
+    meaning: "a column headed as stage holds phase names and was read as phases",
+  },
   "column-not-numeric": { severity: "warning", meaning: "a recognised column holds text, not numbers" },
   "not-a-number": { severity: "warning", meaning: "cells that are not numbers were left empty" },
   "several-records": { severity: "error", meaning: "the file holds several tests; choose one" },

@@ -1,6 +1,7 @@
 import { makeIssue, type Issue } from "../core";
 import type { BreathRow } from "../breath";
 import { linearRegression, median } from "../numeric";
+import { phasesFromVo2 } from "./phasesFromVo2";
 import type { PhaseSpan } from "./types";
 
 export interface PhaseOptions {
@@ -34,6 +35,7 @@ export interface PhaseDetection {
  *   recovery = after the peak load drops. Protocol shape as in the ERS statement (≥3 min
  *   rest, ~3 min unloaded, 8–12 min incremental, ≥2–3 min recovery; Radtke et al. 2019, Eur Respir Rev
  *   28:180101, confirmed); the detection rules themselves are common practice.
+ * - With no markers and no load signal at all, from the course of VO2 (`phasesFromVo2`), with a warning.
  * - Ramp rate: OLS slope of work (W) on time (min) over the incremental phase (standard statistics);
  *   for a step protocol this is the mean rate of the steps.
  * Issues say when no phases could be found. O(n).
@@ -64,10 +66,9 @@ export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions =
       signal = rows.map((r) => r.gradePct);
       zero = 0.1;
     } else {
-      return none(
-        "phases-not-found",
-        "No phase markers and no work rate, speed or grade: the phases of the test could not be found. Add a phase column or a work-rate column.",
-      );
+      // last resort: the course of VO2 itself (the warning says how rough it is)
+      const fromVo2 = phasesFromVo2(rows, issues);
+      return { ...fromVo2, rampRateWPerMin: null, rampRateR2: null, issues };
     }
   }
   // carry the last known value forward over rows without one

@@ -89,10 +89,13 @@ describe("detectPhases from the work rate", () => {
     expect(s.rampRateWPerMin).toBeNull();
   });
 
-  it("no load and no markers: a clear issue, no exercise span", () => {
+  it("no load and no markers: the exercise span from the course of VO2, with a warning", () => {
+    // VO2 here is the load delayed by exactly 30 s (by construction), so the span it shows is 390–870 s
     const s = detectPhases(series.map((b) => ({ timeS: b.timeS, vo2MlMin: b.vo2MlMin })));
-    expect(s.exercise).toBeNull();
-    expect(s.issues[0].code).toBe("phases-not-found");
+    expect(Math.abs(s.exercise!.startS - 390)).toBeLessThanOrEqual(10);
+    expect(Math.abs(s.exercise!.endS - 870)).toBeLessThanOrEqual(10);
+    expect(s.rampRateWPerMin).toBeNull();
+    expect(s.issues[0]).toMatchObject({ code: "phases-from-vo2", severity: "warning" });
   });
 });
 

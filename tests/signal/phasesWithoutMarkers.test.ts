@@ -64,3 +64,67 @@ describe("phases from the load alone match the phase markers", () => {
     expect(d[Math.floor(d.length / 2)]).toBeLessThanOrEqual(5);
   });
 });
+
+// Files with only time and gases (no markers, no work rate, speed or grade): the exercise phase from the course of VO2.
+const bare = (t: BreathTable): BreathTable => {
+  const drop = new Set(["phase", "workW", "speedKmh", "gradePct"]);
+  return {
+    ...t,
+    rows: t.rows.map((r) => Object.fromEntries(Object.entries(r).filter(([k]) => !drop.has(k))) as BreathTable["rows"][number]),
+    fields: t.fields.filter((f) => !drop.has(f)),
+  };
+};
+
+describe("phases from VO2 when the file has no markers and no load", () => {
+  it("noise-free by construction: rest, warm-up plateau, ramp and recovery are found at their breaks", () => {
+    // INVENTED: breaths every 3 s; rest 300 mL/min to 180 s, warm-up 600 mL/min from 180 to 360 s, then a straight rise of
+    // 4 mL/min per s to 2 700 mL/min at 885 s, then recovery falling back to 700 mL/min
+    const rows: BreathTable["rows"] = [];
+    for (let t = 0; t <= 1200; t += 3) {
+      const vo2 = t < 180 ? 300 : t <= 360 ? 600 : t <= 885 ? 600 + 4 * (t - 360) : Math.max(700, 2700 - 8 * (t - 885));
+      rows.push({ timeS: t, vo2MlMin: vo2, vco2MlMin: 0.9 * vo2, veLMin: (0.9 * vo2 * 30) / 1000 });
+    }
+    const test = conditionTable({ rows, fields: ["timeS", "vo2MlMin", "vco2MlMin", "veLMin"] } as BreathTable);
+    // the start is a bin time (10-s bins, centred 5 s into each bin); the end is the last breath of the highest 30-s mean
+    // of bins, which straddles the peak: up to 15 s after it
+    expect(Math.abs(test.exercise!.startS - 360)).toBeLessThanOrEqual(10);
+    expect(test.exercise!.endS - 885).toBeGreaterThanOrEqual(0);
+    expect(test.exercise!.endS - 885).toBeLessThanOrEqual(15);
+    expect(test.phases.map((p) => p.phase)).toEqual(["rest", "exercise", "recovery"]);
+    expect(test.phases.every((p) => p.source === "vo2")).toBe(true);
+    expect(test.issues.some((i) => i.code === "phases-from-vo2" && i.severity === "warning")).toBe(true);
+  });
+
+  it("no rise of VO2: no phases, with the reason", () => {
+    const rows: BreathTable["rows"] = [];
+    for (let t = 0; t <= 600; t += 3) rows.push({ timeS: t, vo2MlMin: 300 + (t % 9), vco2MlMin: 270, veLMin: 9 });
+    const test = conditionTable({ rows, fields: ["timeS", "vo2MlMin", "vco2MlMin", "veLMin"] } as BreathTable);
+    expect(test.exercise).toBeNull();
+    expect(test.issues.find((i) => i.code === "phases-not-found")?.message).toMatch(/does not rise 1\.5-fold/);
+  });
+
+  it("main model, 40 tests: start 0–70 s after the markers (VO2 lags the load), end within 70 s", () => {
+    // measured: start −11 to +66 s (median +34), end −61 to +8 s (median −4)
+    for (const c of syntheticBank(40, { seed: 2024, noiseLevels: ["moderate"] })) {
+      const syn = generateSyntheticTest(c.spec, c.seed);
+      const marked = conditionTable(syn.table).exercise!;
+      const fromVo2 = conditionTable(bare(syn.table)).exercise!;
+      expect(fromVo2.startS - marked.startS).toBeGreaterThanOrEqual(-15);
+      expect(fromVo2.startS - marked.startS).toBeLessThanOrEqual(75);
+      expect(Math.abs(fromVo2.endS - marked.endS)).toBeLessThanOrEqual(70);
+    }
+  });
+
+  it("cross-check model (written blind), 120 tests of every group and protocol: start within 100 s in most", () => {
+    // measured: 95 of 120 starts within ±100 s (median −2 s; stepped treadmill tests the widest), ends −70 to +39 s
+    const d: number[] = [];
+    for (let i = 0; i < 120; i++) {
+      const syn = generateCrossCheckTest(crossCheckSpec(i, 53, ["moderate"]), 53 + i);
+      const marked = conditionTable(syn.table).exercise!;
+      const fromVo2 = conditionTable(bare(syn.table)).exercise!;
+      d.push(Math.abs(fromVo2.startS - marked.startS));
+      expect(Math.abs(fromVo2.endS - marked.endS)).toBeLessThanOrEqual(80);
+    }
+    expect(d.filter((x) => x <= 100).length).toBeGreaterThanOrEqual(90); // our regression bound at the level reached (95)
+  });
+});
