@@ -407,7 +407,12 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
   const series = buildThresholdSeries(test, options.series);
   const agreementFraction = options.agreementFraction ?? 0.1;
   if (!series || series.timeS.length < 9) {
-    const reason = !series ? "no incremental exercise phase was found" : `only ${series.timeS.length} time bins of exercise data`;
+    const perKgOnly = !test.clean.some((r) => r.vo2MlMin !== undefined) && test.clean.some((r) => r.vo2MlKgMin !== undefined);
+    const reason = !series
+      ? "no incremental exercise phase was found"
+      : perKgOnly
+        ? "VO2 is given per kg and the body mass is not known (VO2 in mL/min is needed beside VCO2); enter the weight"
+        : `only ${series.timeS.length} time bins of exercise data`;
     issues.push(makeIssue("warning", "thresholds-no-exercise-data", `Ventilatory thresholds cannot be determined: ${reason}.`));
     const empty = (which: ThresholdWhich) => emptyEstimate(which, reason);
     return applyThresholdOverrides(

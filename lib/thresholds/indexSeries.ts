@@ -18,7 +18,7 @@ export interface FieldSeries {
  * The times and values of `field` in time order, optionally limited to `span`.
  * Breaths lacking the field (or holding a non-finite value) are skipped.
  */
-export function fieldSeries(rows: readonly BreathRow[], field: NumericField, span?: TimeSpan | null): FieldSeries {
+export function fieldSeries(rows: readonly BreathRow[], field: NumericField | "vo2MlKgMin", span?: TimeSpan | null): FieldSeries {
   const t: number[] = [];
   const v: number[] = [];
   for (const r of rows) {

@@ -77,8 +77,8 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
       { averaging },
     );
 
-  const means = new Map<NumericField, WindowMeans>();
-  const meansOf = (f: NumericField) => {
+  const means = new Map<NumericField | "vo2MlKgMin", WindowMeans>();
+  const meansOf = (f: NumericField | "vo2MlKgMin") => {
     let m = means.get(f);
     if (!m) {
       m = new WindowMeans(fieldSeries(rows, f, span));
@@ -86,11 +86,11 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
     }
     return m;
   };
-  const ends = (f: NumericField) => fieldSeries(rows, f, span).t;
+  const ends = (f: NumericField | "vo2MlKgMin") => fieldSeries(rows, f, span).t;
   const spanStart = span?.startS ?? 0;
 
   const peakOf = (
-    f: NumericField,
+    f: NumericField | "vo2MlKgMin",
     unit: string,
     what: string,
     kind: "max" | "min" = "max",
@@ -134,8 +134,11 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
 
   const vo2 = peakOf("vo2MlMin", "mL/min", "VO2");
   const w = options.weightKg;
-  const vo2Kg =
-    vo2.m.value !== null && w && w > 0
+  // VO2 given per kg in the file and no body mass yet: the peak per kg straight from that column
+  const perKgOnly = vo2.m.value === null && !(w && w > 0) && rows.some((r) => r.vo2MlKgMin !== undefined);
+  const vo2Kg = perKgOnly
+    ? peakOf("vo2MlKgMin", "mL/kg/min", "VO2 per kg (as given in the file)").m
+    : vo2.m.value !== null && w && w > 0
       ? measured(vo2.m.value / w, "mL/kg/min", { ...vo2.m.provenance, inputs: { ...vo2.m.provenance.inputs, weightKg: w } })
       : notDetermined(
           "mL/kg/min",

@@ -1,4 +1,5 @@
 import { describe, it, expect } from "vitest";
+import { detectThresholds } from "../../lib/thresholds/detectThresholds";
 import { measurePeaks } from "../../lib/thresholds/measurePeaks";
 import { freezeTest, standardRamp } from "./indicesFixture";
 
@@ -60,6 +61,21 @@ describe("measurePeaks on an invented ramp", () => {
     expect(p60.vo2MlMin.provenance.method).toBe("peak-rolling-60s");
     expect(p60.vo2MlKgMin.value).toBeNull();
     expect(p60.vo2MlKgMin.reason).toBe("body mass not given");
+  });
+
+  it("VO2 given only per kg and no body mass: peak VO2 per kg from that column, peak VO2 in mL/min not determinable", () => {
+    // the same ramp with VO2 as the file gave it per kg of an invented 70 kg: 2170 / 70 = 31.0 over [750, 780]
+    const base = standardRamp();
+    const perKg = (rows: typeof base.clean) =>
+      rows.map(({ vo2MlMin, ...r }) => (vo2MlMin === undefined ? r : { ...r, vo2MlKgMin: vo2MlMin / 70 }));
+    const q = measurePeaks({ ...base, clean: perKg(base.clean), averaged: perKg(base.averaged) }, { windowS: 30 });
+    expect(q.vo2MlMin.value).toBeNull();
+    expect(q.vo2MlKgMin.value).toBeCloseTo(31, 9);
+    expect(q.vo2MlKgMin.provenance.window).toEqual({ startS: 750, endS: 780 });
+    // the thresholds need VO2 in mL/min beside VCO2: not determinable, and the reason names the missing body mass
+    const t = detectThresholds({ ...base, clean: perKg(base.clean), averaged: perKg(base.averaged) });
+    expect(t.vt1.vo2MlMin.value).toBeNull();
+    expect(t.vt1.reason).toMatch(/per kg.*enter the weight/);
   });
 
   it("no exercise phase: whole record used, with a warning; empty test is not determinable", () => {
