@@ -11,6 +11,20 @@ export interface PhaseOptions {
   constantFraction?: number;
   /** Shortest constant low load that counts as a warm-up (s). @default 60 */
   minWarmupS?: number;
+  /**
+   * The incremental exercise phase as set by a reviewer (times in s on the file's clock, with the reason). It replaces the
+   * detected span: phases found before its start keep their names (cut at the start), the span is "exercise", the rest
+   * after it "recovery". A span that does not lie inside the record is refused with a warning and detection stands.
+   * @default none
+   */
+  exerciseSpan?: ReviewerExerciseSpan;
+}
+
+/** A reviewer's incremental exercise phase. */
+export interface ReviewerExerciseSpan {
+  startS: number;
+  endS: number;
+  reason: string;
 }
 
 export interface PhaseDetection {
@@ -36,11 +50,61 @@ export interface PhaseDetection {
  *   rest, ~3 min unloaded, 8–12 min incremental, ≥2–3 min recovery; Radtke et al. 2019, Eur Respir Rev
  *   28:180101, confirmed); the detection rules themselves are common practice.
  * - With no markers and no load signal at all, from the course of VO2 (`phasesFromVo2`), with a warning.
+ * - A reviewer's exercise span (`exerciseSpan`) replaces whatever was found.
  * - Ramp rate: OLS slope of work (W) on time (min) over the incremental phase (standard statistics);
  *   for a step protocol this is the mean rate of the steps.
  * Issues say when no phases could be found. O(n).
  */
 export function detectPhases(rows: readonly BreathRow[], options: PhaseOptions = {}): PhaseDetection {
+  const found = detectPhasesFromData(rows, options);
+  return options.exerciseSpan ? withReviewerSpan(rows, found, options.exerciseSpan) : found;
+}
+
+/**
+ * Put a reviewer's exercise span in place of the detected one (see `PhaseOptions.exerciseSpan`); the ramp rate is the
+ * OLS of work on time over it. Refused (warning, detection kept) unless start < end and both lie within the record.
+ */
+function withReviewerSpan(rows: readonly BreathRow[], found: PhaseDetection, span: ReviewerExerciseSpan): PhaseDetection {
+  const first = rows[0]?.timeS ?? NaN;
+  const last = rows[rows.length - 1]?.timeS ?? NaN;
+  const { startS, endS } = span;
+  if (!(Number.isFinite(startS) && Number.isFinite(endS) && startS < endS && startS >= first && endS <= last)) {
+    const issue = makeIssue(
+      "warning",
+      "exercise-span-refused",
+      `The exercise phase set by review (${Math.round(startS)}–${Math.round(endS)} s) does not lie inside the record ` +
+        `(${Math.round(first)}–${Math.round(last)} s) with its start before its end; the detected phases are used.`,
+    );
+    return { ...found, issues: [...found.issues, issue] };
+  }
+  const phases: PhaseSpan[] = [];
+  for (const p of found.phases)
+    if (p.startS < startS && p.phase !== "exercise" && p.phase !== "recovery")
+      phases.push({ ...p, endS: Math.min(p.endS, startS) });
+  if (phases.length === 0 && first < startS) phases.push({ phase: "rest", startS: first, endS: startS, source: "reviewer" });
+  phases.push({ phase: "exercise", startS, endS, source: "reviewer" });
+  if (endS < last) phases.push({ phase: "recovery", startS: endS, endS: last, source: "reviewer" });
+  const hasWork = rows.some((r) => r.workW !== undefined && r.timeS >= startS && r.timeS <= endS);
+  const { rate, r2 } = hasWork ? rampRate(rows, startS, endS) : { rate: null, r2: null };
+  const issue = makeIssue(
+    "info",
+    "exercise-span-by-review",
+    `The incremental exercise phase was set by review to ${Math.round(startS)}–${Math.round(endS)} s (${span.reason}); ` +
+      (found.exercise
+        ? `detection had found ${Math.round(found.exercise.startS)}–${Math.round(found.exercise.endS)} s.`
+        : "detection had found none."),
+  );
+  return {
+    phases,
+    exercise: { startS, endS },
+    rampRateWPerMin: rate,
+    rampRateR2: r2,
+    // the reviewer has answered "check the phases"
+    issues: [...found.issues.filter((i) => i.code !== "phases-not-found" && i.code !== "phases-from-vo2"), issue],
+  };
+}
+
+function detectPhasesFromData(rows: readonly BreathRow[], options: PhaseOptions): PhaseDetection {
   const issues: Issue[] = [];
   const none = (code: string, message: string): PhaseDetection => {
     issues.push(makeIssue("warning", code, message));

@@ -6,7 +6,7 @@ export interface PhaseSpan {
   phase: Phase;
   startS: number;
   endS: number;
-  source: "markers" | "work-rate" | "speed" | "vo2" | "assumed";
+  source: "markers" | "work-rate" | "speed" | "vo2" | "reviewer" | "assumed";
 }
 
 /** A breath (or one value of it) set aside by artefact rejection, with the reason shown to the user. */

@@ -123,3 +123,45 @@ describe("phases from markers and the whole conditioning pass", () => {
     expect(Math.abs(c.rampRateWPerMin! - 25)).toBeLessThan(1);
   });
 });
+
+describe("an exercise phase set by review", () => {
+  // the same invented series: rest 0–180 s, warm-up 180–360 s at 20 W, ramp 25 W/min 360–840 s, recovery
+  it("replaces the detected span, keeps the warm-up before it, and gives the ramp rate over it", () => {
+    const s = detectPhases(noMarkers, { exerciseSpan: { startS: 400, endS: 800, reason: "ramp start read off the chart" } });
+    expect(s.exercise).toEqual({ startS: 400, endS: 800 });
+    // the detected rest and warm-up keep their own breath times (the first breaths at or after 180 and 360 s)
+    const auto = detectPhases(noMarkers).phases;
+    expect(s.phases.map((p) => [p.phase, p.startS, p.endS, p.source])).toEqual([
+      ["rest", 0, auto[0].endS, "work-rate"],
+      ["warmup", auto[1].startS, auto[1].endS, "work-rate"],
+      ["exercise", 400, 800, "reviewer"],
+      ["recovery", 800, noMarkers[noMarkers.length - 1].timeS, "reviewer"],
+    ]);
+    expect(auto[1].endS).toBeLessThan(400);
+    // work = 20 + 25·(t − 360)/60 over 400–800 s: a straight line, so the OLS rate is exactly 25 W/min
+    expect(s.rampRateWPerMin).toBeCloseTo(25, 1);
+    expect(s.issues.find((i) => i.code === "exercise-span-by-review")?.message).toMatch(/ramp start read off the chart/);
+  });
+
+  it("on a file with no load and no markers it stands in for the VO2 estimate", () => {
+    const s = detectPhases(
+      series.map((b) => ({ timeS: b.timeS, vo2MlMin: b.vo2MlMin })),
+      { exerciseSpan: { startS: 360, endS: 840, reason: "from the test log" } },
+    );
+    expect(s.exercise).toEqual({ startS: 360, endS: 840 });
+    expect(s.issues.map((i) => i.code)).toEqual(["exercise-span-by-review"]);
+  });
+
+  it("a span outside the record or ending before it starts is refused, with a warning, and detection stands", () => {
+    const auto = detectPhases(noMarkers);
+    for (const bad of [
+      { startS: 500, endS: 400, reason: "swapped" },
+      { startS: 300, endS: 5000, reason: "past the end" },
+      { startS: Number.NaN, endS: 600, reason: "empty" },
+    ]) {
+      const s = detectPhases(noMarkers, { exerciseSpan: bad });
+      expect(s.exercise).toEqual(auto.exercise);
+      expect(s.issues.some((i) => i.code === "exercise-span-refused" && i.severity === "warning")).toBe(true);
+    }
+  });
+});
