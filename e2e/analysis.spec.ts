@@ -104,3 +104,34 @@ test("lab settings choose the predicted-value equation named on every test witho
   await page.getByTestId("lab-form").getByRole("button", { name: "Save lab defaults" }).click();
   await expect(page.getByTestId("lab-form")).toContainText("Lab defaults saved");
 });
+
+test("a reviewer sets the exercise phase by hand: a new version, refused when the end comes first, and undone", async ({
+  page,
+}) => {
+  await openDemo(page, /deconditioning/);
+  const box = page.getByTestId("exercise-span");
+  await box.getByText("set the exercise phase by hand").click();
+  const start = box.locator('[name="start"]');
+  const end = box.locator('[name="end"]');
+  // the form opens on the detected phase; move its start 30 s later
+  const [m, s] = (await start.inputValue()).split(":").map(Number);
+  const later = m * 60 + s + 30;
+  const laterText = `${Math.floor(later / 60)}:${String(later % 60).padStart(2, "0")}`;
+  const endText = await end.inputValue();
+  await box.locator('[name="by"]').fill("E2E Reviewer");
+  await box.locator('[name="reason"]').fill("ramp start from the test log");
+  // an end before the start is refused and the typed values are kept
+  await end.fill("0:10");
+  await box.getByRole("button", { name: "Save exercise phase" }).click();
+  await expect(box).toContainText("The end must come after the start");
+  await expect(box.locator('[name="reason"]')).toHaveValue("ramp start from the test log");
+  await end.fill(endText);
+  await start.fill(laterText);
+  await box.getByRole("button", { name: "Save exercise phase" }).click();
+  await expect(box).toContainText("Exercise phase saved as a new analysis version");
+  await expect(page.getByTestId("versions")).toContainText(`exercise phase set to ${laterText}`);
+  await expect(page.getByText(`exercise ${laterText}–${endText}`)).toBeVisible();
+  await expect(page.getByTestId("clinical-caution")).toBeVisible();
+  await box.getByRole("button", { name: "Use the detected phase again" }).click();
+  await expect(page.getByTestId("versions")).toContainText("exercise phase set by review removed");
+});

@@ -5,6 +5,7 @@ import { z } from "zod";
 import type { AnalysisSettings } from "@/lib/analysis";
 import { analyse, checkThresholdOverride, ENGINE_VERSION } from "@/lib/analysis";
 import { getLabDefaults } from "@/lib/store/labSettings";
+import { formatClock } from "@/lib/units";
 import { effectiveSettings, getTest, latestSettings, saveAnalysisVersion } from "@/lib/store/tests";
 
 export interface FormState {
@@ -161,4 +162,77 @@ export async function saveSettings(_prev: FormState, form: FormData): Promise<Fo
   saveAnalysisVersion(s.testId, settings, ENGINE_VERSION, "local user", s.note || "settings changed");
   revalidatePath(`/tests/${s.testId}`);
   return { ok: "Settings saved as a new analysis version." };
+}
+
+const clockOrSeconds = (what: string) =>
+  z
+    .string()
+    .trim()
+    .min(1, `Give the ${what} as m:ss or seconds`)
+    .refine((t) => clock.test(t) || (Number.isFinite(Number(t)) && Number(t) >= 0), `${what} as m:ss or seconds`)
+    .transform((t) => {
+      const m = clock.exec(t);
+      return m ? Number(m[1]) * 60 + Number(m[2]) : Number(t);
+    });
+
+const exerciseSpanSchema = z
+  .object({
+    testId: z.coerce.number().int().positive(),
+    start: clockOrSeconds("Start"),
+    end: clockOrSeconds("End"),
+    reason: z.string().trim().min(5, "Give the reason (at least a few words)").max(300),
+    by: z.string().trim().min(2, "Say who is setting the phase").max(80),
+  })
+  .refine((o) => o.end > o.start, { message: "The end must come after the start", path: ["end"] });
+
+/** A reviewer's incremental exercise phase: a new settings version; thresholds and every index are recomputed. */
+export async function saveExerciseSpan(_prev: FormState, form: FormData): Promise<FormState> {
+  const values = formValues(form);
+  const parsed = exerciseSpanSchema.safeParse(values);
+  if (!parsed.success) return { errors: errorsOf(parsed.error), values };
+  const o = parsed.data;
+  const record = getTest(o.testId)?.record;
+  if (!record || record.table.rows.length < 2) return { errors: { form: "This test has no usable data." }, values };
+  const first = record.table.rows[0].timeS;
+  const last = record.table.rows[record.table.rows.length - 1].timeS;
+  if (o.start < first || o.end > last)
+    return {
+      errors: { start: `The phase must lie inside the record (${formatClock(first)} to ${formatClock(last)}).` },
+      values,
+    };
+  const current = effectiveSettings(o.testId, getLabDefaults());
+  const settings: AnalysisSettings = {
+    ...current,
+    conditioning: {
+      ...current.conditioning,
+      phases: {
+        ...current.conditioning?.phases,
+        exerciseSpan: { startS: o.start, endS: o.end, reason: `${o.reason} (${o.by})` },
+      },
+    },
+  };
+  saveAnalysisVersion(
+    o.testId,
+    settings,
+    ENGINE_VERSION,
+    o.by,
+    `exercise phase set to ${formatClock(o.start)}–${formatClock(o.end)}: ${o.reason}`,
+  );
+  revalidatePath(`/tests/${o.testId}`);
+  return { ok: "Exercise phase saved as a new analysis version; thresholds and all indices were recomputed." };
+}
+
+export async function clearExerciseSpan(form: FormData): Promise<void> {
+  const testId = Number(form.get("testId"));
+  const current = latestSettings(testId)?.settings;
+  if (!current?.conditioning?.phases?.exerciseSpan) return;
+  const { exerciseSpan: _gone, ...phases } = current.conditioning.phases;
+  saveAnalysisVersion(
+    testId,
+    { ...current, conditioning: { ...current.conditioning, phases } },
+    ENGINE_VERSION,
+    "local user",
+    "exercise phase set by review removed (detected again)",
+  );
+  revalidatePath(`/tests/${testId}`);
 }

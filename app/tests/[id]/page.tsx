@@ -16,6 +16,7 @@ import { clearOverride } from "./actions";
 import { FIELD_LABEL, readAsShortText, shortFieldLabel, type FieldKey } from "./columns/fieldChoices";
 import { loadColumnReview } from "./columns/loadColumnReview";
 import { fmt, HowFound, SourceList } from "./parts/HowFound";
+import { ExerciseSpanForm } from "./parts/ExerciseSpanForm";
 import { OverrideForm } from "./parts/OverrideForm";
 import { SettingsForm } from "./parts/SettingsForm";
 import { SeverityScale } from "./parts/SeverityScale";
@@ -532,6 +533,15 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           ))}
         </ul>
       </details>
+      <ExerciseSpanForm
+        testId={testId}
+        current={
+          result.conditioned.exercise
+            ? { start: formatClock(result.conditioned.exercise.startS), end: formatClock(result.conditioned.exercise.endS) }
+            : null
+        }
+        byReview={result.conditioned.phases.some((ph) => ph.source === "reviewer")}
+      />
       <h3>How the file was read</h3>
       <ColumnTable columns={test.importColumns} />
 
