@@ -20,6 +20,7 @@ interface AnalyseOptions {
   stageDurationS?: number;
   referral: string;
   select: Record<string, string>;
+  exerciseSpan?: { startS: number; endS: number };
 }
 
 export function registerAnalyse(program: Command): void {
@@ -53,6 +54,11 @@ export function registerAnalyse(program: Command): void {
       {},
     )
     .option("--referral <question>", `referral question: ${REFERRAL_QUESTIONS.join(" | ")}`, "general")
+    .option(
+      "--exercise-span <start-end>",
+      "the incremental exercise phase set by hand, m:ss-m:ss or seconds (e.g. 6:00-16:30), instead of the detected one",
+      parseExerciseSpan,
+    )
     .action(async (file: string, opts: AnalyseOptions) => {
       const result = await runAnalyse(file, opts);
       process.stdout.write(opts.json ? JSON.stringify(result, null, 2) + "\n" : formatText(result));
@@ -76,6 +82,20 @@ function parseStageSeconds(raw: string): number {
   if (raw.trim() === "" || !Number.isFinite(n) || n < min || n > max)
     throw new Error(`--stage-duration-s must be a number of seconds between ${min} and ${max}, got "${raw}"`);
   return n;
+}
+
+/** "6:00-16:30" or "360-990": start and end of the exercise phase on the file's clock, s. */
+function parseExerciseSpan(raw: string): { startS: number; endS: number } {
+  const seconds = (t: string) => {
+    const m = /^(\d+):([0-5]\d(?:\.\d+)?)$/.exec(t.trim());
+    const v = m ? Number(m[1]) * 60 + Number(m[2]) : t.trim() === "" ? NaN : Number(t);
+    return Number.isFinite(v) && v >= 0 ? v : NaN;
+  };
+  const parts = raw.split("-");
+  const [startS, endS] = parts.length === 2 ? parts.map(seconds) : [NaN, NaN];
+  if (!Number.isFinite(startS) || !Number.isFinite(endS) || !(endS > startS))
+    throw new Error(`--exercise-span needs start-end as m:ss-m:ss or seconds with the end after the start, got "${raw}"`);
+  return { startS, endS };
 }
 
 function collectSelect(raw: string, acc: Record<string, string>): Record<string, string> {
@@ -143,7 +163,10 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
     record.lactate = lac.samples;
     record.importIssues = [...record.importIssues, ...lac.issues];
   }
-  return toCliJson(analyse(record), CLINICAL_CAUTION);
+  const settings = opts.exerciseSpan
+    ? { conditioning: { phases: { exerciseSpan: { ...opts.exerciseSpan, reason: "set with --exercise-span" } } } }
+    : {};
+  return toCliJson(analyse(record, settings), CLINICAL_CAUTION);
 }
 
 function formatText(r: CliAnalysisJson): string {

@@ -147,6 +147,21 @@ describe("cpet analyse: full output on real and invented files", () => {
     expect(bad.stderr).toMatch(/--stage-duration-s must be a number of seconds between 10 and 3600/);
   });
 
+  it("--exercise-span sets the incremental phase by hand; a malformed span is refused before any work", () => {
+    const file = path.join(tmp, "ramp-span.csv");
+    fs.writeFileSync(file, plainRampCsv());
+    const json = JSON.parse(
+      execFileSync(process.execPath, [bin, "analyse", file, "--json", "--exercise-span", "0:00-5:00"], { encoding: "utf8" }),
+    );
+    // by construction VO2 = 500 + 2000·t/600: the highest 30-s average inside 0–300 s is the window 270–300 s,
+    // mean t = 285 s → 500 + 2000 × 285 / 600 = 1450 mL/min
+    expect(json.peak.vo2MlMin).toBeCloseTo(1450, 6);
+    expect(json.issues.some((i: { code: string }) => i.code === "exercise-span-by-review")).toBe(true);
+    const bad = run(["analyse", file, "--exercise-span", "5:00-1:00"]);
+    expect(bad.status).toBe(1);
+    expect(bad.stderr).toMatch(/--exercise-span needs start-end/);
+  });
+
   it("accepts a separate lactate file with --lactate", () => {
     // INVENTED samples on the plain ramp (work = time / 3 W): 1.0 → 6.0 mmol/L.
     const json = rampWithLactate("lactate", "time_s,lactate_mmol_l\n0,1.0\n150,1.1\n300,1.6\n450,2.9\n600,6.0\n");
