@@ -8,3 +8,4 @@ export * from "./generateVariantTest";
 export * from "./generateHoldoutTest";
 export * from "./generateAuditTest";
 export * from "./generateCrossCheckTest";
+export * from "./generateSecondOpinionTest";

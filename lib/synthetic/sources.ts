@@ -198,3 +198,134 @@ export const SYNTHETIC_SOURCES = defineSources({
     note: "AT/VO2max > 40 %; peak VD/VT < 0.28 (clinical-reference §2, C).",
   },
 });
+
+/**
+ * Sources behind the second-opinion synthetic model (generateSecondOpinionTest). Its output is invented data;
+ * these sources say where its typical values and equations come from.
+ */
+export const SECOND_OPINION_SOURCES = defineSources({
+  "hansen-1987-vo2-work-rate": {
+    citation:
+      "Relation of oxygen uptake to work rate in normal men and men with circulatory disorders. Am J Cardiol 1987;59:669-74",
+    status: "confirmed",
+    pmid: "3825911",
+    note: "ΔVO2/ΔWR 10.29 ± 1.01 mL/min/W in 54 normal men; 8.29 ± 1.17 in many men with circulatory disorders (abstract, clinical-confirmations §6). Author list recalled (Hansen, Sue, Oren, Wasserman).",
+  },
+  "ozyener-2011-ramp-slope": {
+    citation: "Özyener F et al. J Sports Sci Med 2011;10:584",
+    status: "confirmed",
+    note: "Incremental-ramp ΔVO2/ΔWR 10.3 ± 0.7 mL/min/W in 10 healthy men (abstract, clinical-confirmations §6).",
+  },
+  "beaver-1986-excess-co2": {
+    citation:
+      "Beaver WL, Wasserman K, Whipp BJ. A new method for detecting anaerobic threshold by gas exchange. J Appl Physiol 1986;60:2020-7",
+    status: "confirmed",
+    pmid: "3087938",
+    note: "Excess CO2 from bicarbonate buffering of lactic acid, ≈22 mL CO2 per mEq; respiratory compensation found separately on VE vs VCO2 and always higher (abstract, clinical-confirmations §4). Used for 22.4 mL CO2 per mmol buffered.",
+  },
+  "sue-1988-lower-slope": {
+    citation: "Sue DY, Wasserman K, Moricca RB, Casaburi R. Chest 1988;94:931-8",
+    status: "confirmed",
+    note: "Lower VCO2–VO2 slope ≈ 1 in fed subjects (clinical-reference §5.3, C). Author list recalled.",
+  },
+  "whipp-1982-vo2-kinetics": {
+    citation:
+      "Whipp BJ, Ward SA, Lamarra N, Davis JA, Wasserman K. Parameters of ventilatory and gas exchange dynamics during exercise. J Appl Physiol 1982;52:1506-13",
+    status: "recalled",
+    note: "Phase-2 first-order VO2 kinetics after a transit delay; longer time constants with age and disease. Citation and ranges recalled, not seen.",
+  },
+  "poole-1994-slow-component": {
+    citation: "Poole DC, Barstow TJ, Gaesser GA, Willis WT, Whipp BJ. VO2 slow component. Med Sci Sports Exerc 1994;26:1354-8",
+    status: "recalled",
+    note: "Extra, slowly developing VO2 above the lactate threshold. Citation recalled; sizes invented.",
+  },
+  "ward-2021-ve-vco2": {
+    citation:
+      "Ward SA. Ventilation/carbon dioxide output relationships during exercise in health. Eur Respir Rev 2021 (PMID 33853883)",
+    status: "secondary",
+    pmid: "33853883",
+    note: "Linear VE–VCO2 relation below the respiratory compensation point; slope to the RCP as the physiological definition (clinical-reference §5.5, C2).",
+  },
+  "friend-ve-vco2-slope-reference": {
+    citation: "FRIEND registry reference standards for the VE/VCO2 slope (treadmill). J Cardiopulm Rehabil Prev",
+    status: "confirmed",
+    note: "50th percentile 27.1 → 33.9 (men), 28.5 → 33.7 (women) from the 3rd to the 8th decade (clinical-reference [S24], C). Year and authors not seen.",
+  },
+  "arena-2007-slope-classes": {
+    citation:
+      "Arena R, Myers J, Abella J et al. Development of a ventilatory classification system in patients with heart failure. Circulation 2007;115:2410-7",
+    status: "confirmed",
+    pmid: "17452607",
+    note: "Ventilatory classes I ≤ 29, II 30.0–35.9, III 36.0–44.9, IV ≥ 45.0 (clinical-reference §3.2, C). Title and authors recalled.",
+  },
+  "janicki-1988-weber-classes": {
+    citation:
+      "Janicki JS, Weber KT, McElroy PA. Use of the cardiopulmonary exercise test to evaluate the patient with chronic heart failure. Eur Heart J 1988;9 Suppl H",
+    status: "confirmed",
+    pmid: "3169052",
+    note: "Peak VO2 classes A > 20, B 16–20, C 10–16, D < 10 mL/kg/min (clinical-confirmations §1, C).",
+  },
+  "lewthwaite-2021-normal-vt": {
+    citation: "Lewthwaite H et al. Chest 2021;159:1922 (CanCOLD healthy adults 40–80 y)",
+    status: "confirmed",
+    note: "VO2 at VT 48.3 ± 10.6 % of peak; VE/VCO2 at VT 30.2 ± 3.8; PETCO2 at VT 40.6 ± 4.2 mmHg (clinical-confirmations §9, C).",
+  },
+  "lamarra-1987-breath-fluctuations": {
+    citation:
+      "Lamarra N, Whipp BJ, Ward SA, Wasserman K. Effect of interbreath fluctuations on characterizing exercise gas exchange kinetics. J Appl Physiol 1987",
+    status: "confirmed",
+    note: "Breath noise roughly Gaussian with SD largely independent of metabolic rate (abstract, clinical-confirmations §5). Volume/page recalled.",
+  },
+  "liang-1996-breath-autocorrelation": {
+    citation: "Liang PJ, Pandit JJ, Robbins PA. J Appl Physiol 1996;81:2274",
+    status: "confirmed",
+    note: "Breath-to-breath ventilation autocorrelated (1 of 60 series white) (clinical-confirmations §5, C).",
+  },
+  "radtke-2019-ers-cpet": {
+    citation: "Radtke T et al. ERS statement on standardisation of CPET in chronic lung disease. Eur Respir Rev 2019;28:180101",
+    status: "confirmed",
+    note: "Incremental phase 8–12 min; VEpeak/MVV ≥ 85 % = ventilatory limitation (clinical-reference §2, §5.1, C).",
+  },
+  "eov-definitions-review": {
+    citation: "Exercise oscillatory ventilation criteria table, Cardiology Research 2025;16(6):475",
+    status: "secondary",
+    note: "Cycle length 30–140 s; amplitude ≥ 15 % (rest) to > 25–30 % (concurrent mean VE) across definitions (clinical-reference §5.6, C2).",
+  },
+  "hadeli-2001-desaturation": {
+    citation: "Hadeli KO et al. Chest 2001;120:88",
+    status: "confirmed",
+    note: "Exercise desaturation = SpO2 fall ≥ 4 % (clinical-reference §2, C).",
+  },
+  "tanaka-2001-age-hrmax": {
+    citation: "Tanaka H, Monahan KD, Seals DR. Age-predicted maximal heart rate revisited. J Am Coll Cardiol 2001;37:153-6",
+    status: "secondary",
+    note: "HRmax = 208 − 0.7·age (clinical-reference §2, C2). Pages recalled.",
+  },
+  "acsm-walking-running-cost": {
+    citation: "ACSM's Guidelines for Exercise Testing and Prescription, metabolic equations for walking and running",
+    status: "recalled",
+    note: "Walking VO2 = 3.5 + 0.1·S + 1.8·S·G; running 3.5 + 0.2·S + 0.9·S·G (mL/kg/min, S m/min, G fraction). Recalled, not seen.",
+  },
+  "wasserman-unloaded-cost": {
+    citation: "Wasserman K, Hansen JE, Sue DY et al. Principles of Exercise Testing and Interpretation (textbook)",
+    status: "recalled",
+    note: "VO2 of unloaded pedalling ≈ 150 + 6 × body mass (kg) mL/min; used as 150 + 5.8·kg. Recalled, not seen.",
+  },
+  "jones-1979-petco2": {
+    citation:
+      "Jones NL, Robertson DG, Kane JW. Difference between end-tidal and arterial PCO2 in exercise. J Appl Physiol 1979;47:954-60",
+    status: "recalled",
+    note: "PETCO2 exceeds PaCO2 during exercise, growing with CO2 output and tidal volume. Citation and direction recalled; size invented.",
+  },
+  "alveolar-gas-equations": {
+    citation:
+      "Alveolar ventilation equation PaCO2 = 0.863·VCO2/VA and alveolar gas equation PAO2 = PIO2 − PACO2·(FIO2 + (1 − FIO2)/R) (respiratory physiology textbooks)",
+    status: "common-practice",
+  },
+  "second-opinion-invented": {
+    citation:
+      "Invented values of the cpet-desk second-opinion synthetic model (no published source; plausible physiology chosen by the authors)",
+    status: "common-practice",
+    note: "Group ranges, time constants, lactate shape, buffer pool, compensation gain, noise levels and artefacts are invented data for tests.",
+  },
+});
