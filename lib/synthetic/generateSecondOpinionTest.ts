@@ -425,12 +425,12 @@ export function secondOpinionSpec(i: number, seed: number, noiseLevels: NoiseLev
     lactateRestMmolL: u(0.7, 1.3),
     lactateAtCapacityMmolL: range(g.lactateCap),
     lactateExponent: u(1.9, 2.2),
-    tauLactateRiseS: u(20, 40),
+    tauLactateRiseS: u(10, 25),
     tauLactateClearS: u(600, 1000),
     // ≈22 mL CO2 per mEq of lactic acid buffered by bicarbonate (beaver-1986-excess-co2); the effective pool
     // 0.10–0.15 L/kg is invented, chosen so that peak RER lands near 1.05–1.3 in health.
     bufferVolumeL: weightKg * u(0.1, 0.15),
-    tauExcessCo2S: u(4, 10),
+    tauExcessCo2S: u(3, 8),
     veInterceptLMin: range(g.intercept),
     veVco2Slope: range(g.slope),
     compensationPerMmolL: u(0.04, 0.08),
@@ -468,7 +468,7 @@ export function secondOpinionSpec(i: number, seed: number, noiseLevels: NoiseLev
       spec.rampWPerMin = (stepW * 60) / spec.stepS;
     }
   } else {
-    const running = g.running && vo2Kg > 42 && r.uniform() < 0.5;
+    const running = g.running && vo2Kg > 42 && (r.uniform() < 0.5 || vo2Kg > 50); // walking grades top out near 60
     if (running) {
       // Running starts after a walking warm-up, at a speed costing at most ~45 % of capacity (invented).
       const maxStart = (0.45 * vo2Kg - 3.5) / 0.2 / (1000 / 60);
