@@ -647,7 +647,8 @@ function simulate(spec: SecondOpinionSpec): Grid {
     if (k > 0) laNow += (laSs - laNow) * (laSs >= laNow ? aLaUp : aLaDown);
     la[k] = laNow;
     // Excess CO2 from bicarbonate buffering: 22.4 mL per mmol (beaver-1986-excess-co2), only while lactate
-    // accumulates (CO2 retention during clearance is left out).
+    // accumulates (CO2 retention during clearance is left out). It is released in blood and reaches the lungs
+    // without the tissue CO2 stores that slow the aerobic CO2 (modelling choice).
     const exRaw = 22.4 * spec.bufferVolumeL * Math.max(0, laNow - laPrev) * 60;
     ex += (exRaw - ex) * aEx;
     co2 += (aerobicCo2(met[k]) - co2) * (k > 0 ? aCo2 : 1);
