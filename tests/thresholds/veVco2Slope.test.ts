@@ -46,11 +46,20 @@ describe("VE/VCO2 slope", () => {
     expect(r.atVt1.value).toBeCloseTo(25 + 3 / 1.28, 9);
   });
 
-  it("without VT2 the to-RCP slope is not determinable, with the reason", () => {
+  it("without VT2 the to-RCP slope is the lower line below the break the fit finds (25 by construction), flagged", () => {
     const q = veVco2Slope(test, {});
+    // the break of this invented ramp is at 600 s (exercise 180–780 s: in the second half searched)
+    expect(q.slopeToVt2.slope.value).toBeCloseTo(25, 6);
+    expect(q.slopeToVt2.slope.provenance.method).toBe("ve-vco2-slope-below-fitted-break");
+    expect(Math.abs((q.slopeToVt2.slope.provenance.inputs?.cornerS as number) - VT2_S)).toBeLessThanOrEqual(5);
+    expect(q.issues.map((i) => i.code)).toContain("ve-vco2-slope-below-fitted-break");
+    expect(q.atVt1.value).toBeNull();
+  });
+
+  it("without VT2 and with the fitted break off, the to-RCP slope is not determinable, with the reason", () => {
+    const q = veVco2Slope(test, { fittedBreakWhenNoVt2: false });
     expect(q.slopeToVt2.slope.value).toBeNull();
     expect(q.slopeToVt2.slope.reason).toMatch(/VT2/);
-    expect(q.atVt1.value).toBeNull();
   });
 
   it("no VE column → issues, nothing determinable", () => {
