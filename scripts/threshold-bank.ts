@@ -10,6 +10,8 @@ import { conditionTable } from "../lib/signal";
 import {
   auditSpec,
   crossCheckSpec,
+  generateSecondOpinionTest,
+  secondOpinionSpec,
   generateAuditTest,
   generateCrossCheckTest,
   generateHoldoutTest,
@@ -65,7 +67,7 @@ function blindModel(
 
 /**
  * The models a bank can draw from: the test cases for a size, seed and noise levels (default seed per model, as in the
- * committed bank test). "main" chose the settings, "variant" checks them; "holdout", "audit" and "crosscheck" were written blind.
+ * committed bank test). "main" chose the settings, "variant" checks them; "holdout", "audit", "crosscheck" and "secondopinion" were written blind.
  */
 const GENERATORS = {
   main: (size: number, seed = 2024, levels: NoiseLevel[]): BankCase[] =>
@@ -95,6 +97,10 @@ const GENERATORS = {
   crosscheck: blindModel("crosscheck", 53, (i, seed, levels) => {
     const syn = generateCrossCheckTest(crossCheckSpec(i, seed, levels), seed + i);
     return { table: syn.table, truth: syn.truth, noise: syn.crossCheck.noise };
+  }),
+  secondopinion: blindModel("secondopinion", 67, (i, seed, levels) => {
+    const syn = generateSecondOpinionTest(secondOpinionSpec(i, seed, levels), seed + i);
+    return { table: syn.table, truth: syn.truth, noise: syn.secondOpinion.noise };
   }),
 };
 

@@ -1,7 +1,7 @@
 /**
  * Screening of threshold-method changes on several synthetic banks at one noise level (invented data, truth known by
  * construction). Run: `npx tsx scripts/threshold-screen.ts` — SCREEN_SETS (default
- * "main:2024,main:99,main:5,variant:2024,variant:77,variant:99"; "holdout:<seed>", "audit:<seed>" and "crosscheck:<seed>" add the models
+ * "main:2024,main:99,main:5,variant:2024,variant:77,variant:99"; "holdout:<seed>", "audit:<seed>", "crosscheck:<seed>" and "secondopinion:<seed>" add the models
  * written blind to the methods — measure on them, never choose a setting on them alone), SCREEN_SIZE (tests per bank, default 240),
  * SCREEN_NOISE (low | moderate | high, default moderate), SCREEN_BOOTSTRAP (resamples, default 20).
  * Prints per bank the VT1 consensus and joint-profile median / P90 / no-call %, VT2 and the VE/VCO2 slope hits, then

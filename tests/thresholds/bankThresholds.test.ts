@@ -20,6 +20,8 @@ const auditSize = Number(process.env.AUDIT_SIZE ?? 120);
 const audit = moderateBank("audit", 41, auditSize);
 const crossCheckSize = Number(process.env.CROSSCHECK_SIZE ?? 120);
 const crossCheck = moderateBank("crosscheck", 53, crossCheckSize);
+const secondOpinionSize = Number(process.env.SECOND_OPINION_SIZE ?? 120);
+const secondOpinion = moderateBank("secondopinion", 67, secondOpinionSize);
 const stat = (stats: BankStats[], method: string, noise: string) => stats.find((s) => s.method === method && s.noise === noise)!;
 
 describe(`threshold accuracy, main generator (${size} tests)`, () => {
@@ -154,5 +156,25 @@ describe(`threshold accuracy, cross-check model (${crossCheckSize} tests, modera
   });
   it("keeps the slope within ±5 % in ≥ 75 % of tests", () => {
     expect(stat(crossCheck, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(75); // our regression bound at the level reached (README-thresholds.md), not a published value
+  });
+});
+
+describe(`threshold accuracy, second-opinion model (${secondOpinionSize} tests, moderate noise)`, () => {
+  // A sixth model written without sight of the methods or the other models (generateSecondOpinionTest: lactate-driven
+  // bicarbonate buffering, VT1 truth at the onset of excess CO2 at the mouth, a two-line corner 3-10 % above it by
+  // construction; VE/VT/breath-duration noise that moves VO2, VCO2 and VE together; eight clinical groups). Blind
+  // figures with the round-10 method (three banks of 240): VT1 3.93 / 11.11 %, VT2 2.14 %, slope 81.4 % within ±5 %
+  // (README-thresholds.md, round 11).
+  // This bank of 120 (seed 67) after round 11: VT1 2.98 / 8.40 %, no-calls 0 %; VT2 2.15 %; slope 81.8 % (77 tests with an RCP).
+  it("meets the VT1 goals (median ≤ 4 %, P90 ≤ 10 %, no-calls ≤ 5 %) and the VT2 median goal on this bank", () => {
+    const s = stat(secondOpinion, "vt1-consensus", "moderate");
+    expect(s.n).toBe(secondOpinionSize);
+    expect(s.noCallPct).toBeLessThanOrEqual(5); // goal from the issue
+    expect(s.medianPct).toBeLessThanOrEqual(4); // goal from the issue
+    expect(s.p90Pct).toBeLessThanOrEqual(10); // goal from the issue (met on this bank; the three-bank mean is 11.1 %)
+    expect(stat(secondOpinion, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5); // goal from the issue
+  });
+  it("keeps the slope within ±5 % in ≥ 78 % of tests", () => {
+    expect(stat(secondOpinion, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(78); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
 });
