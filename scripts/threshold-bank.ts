@@ -1,7 +1,7 @@
 /**
  * Accuracy bank for ventilatory-threshold detection on synthetic tests (invented data, truth known by
  * construction). Run: `npx tsx scripts/threshold-bank.ts` (BANK_SIZE, BANK_SEED, BANK_BIN_S, BANK_BOOTSTRAP,
- * BANK_GENERATOR = main | variant | holdout | audit | crosscheck env).
+ * BANK_GENERATOR = main | variant | holdout | audit | crosscheck | secondopinion env).
  * Prints per method and for the consensus: median and 90th-percentile absolute error as % of the true VO2,
  * and the no-call rate, by noise level.
  */
