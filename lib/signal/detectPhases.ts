@@ -89,7 +89,7 @@ function withReviewerSpan(rows: readonly BreathRow[], found: PhaseDetection, spa
   const issue = makeIssue(
     "info",
     "exercise-span-by-review",
-    `The incremental exercise phase was set by review to ${Math.round(startS)}–${Math.round(endS)} s (${span.reason}); ` +
+    `The incremental exercise phase was set by review to ${Math.round(startS)}–${Math.round(endS)} s (reason: ${span.reason}); ` +
       (found.exercise
         ? `detection had found ${Math.round(found.exercise.startS)}–${Math.round(found.exercise.endS)} s.`
         : "detection had found none."),

@@ -207,7 +207,7 @@ export async function saveExerciseSpan(_prev: FormState, form: FormData): Promis
       ...current.conditioning,
       phases: {
         ...current.conditioning?.phases,
-        exerciseSpan: { startS: o.start, endS: o.end, reason: `${o.reason} (${o.by})` },
+        exerciseSpan: { startS: o.start, endS: o.end, reason: `${o.reason}, by ${o.by}` },
       },
     },
   };
