@@ -149,3 +149,15 @@ describe("effort and cut-off choices", () => {
     expect(r.settingsUsed.find((s) => s.choiceId === "rer-maximal")!.optionId).toBe("above-1.05");
   });
 });
+
+describe("effort when peak RER is missing", () => {
+  it("a limit reached without an RER is not called 'RER below the cut-off', and peak values are still read", () => {
+    // HR 95 % of predicted ≥ 85 % (default hr-reached choice: Glaab et al. 2021, secondary) with no peak RER (VO2 given
+    // per kg only, say)
+    const r = interpret(baseInput({ peakRer: null, hrPctPred: 95 }));
+    expect(r.effort.verdict).toBe("limit-without-rer");
+    expect(r.effort.label).not.toMatch(/RER below/);
+    expect(r.effort.label).toMatch(/peak RER not available/);
+    expect(path(r)[0]).toBe("effort:adequate");
+  });
+});
