@@ -221,7 +221,7 @@ test("confirmed serial tests name the noise population and round as elsewhere", 
   const runner = await testIdOf(page, /breathless runner/);
   const vascular = await testIdOf(page, /pulmonary vascular/);
   await page.goto(`/tests/${runner}`);
-  const peak = (await page.getByTestId("row-peakVo2").locator("td.num").first().innerText()).split(" ")[0];
+  const peak = (await page.getByTestId("row-peakVo2").locator("td.num").first().innerText()).split(/\s/)[0];
   await page.goto(`/compare?before=${runner}&after=${vascular}&population=healthy&samePatient=confirmed`);
   await expect(page.getByTestId("compare-population")).toContainText("Healthy adults");
   const row = page.getByTestId("compare-peakVo2MlMin");

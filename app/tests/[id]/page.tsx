@@ -32,8 +32,8 @@ const keyDecimals = (unit: string) => (unit === "mL/min" || unit === "W" || unit
 /** Display unit of a key value: heart rate in bpm, other units as the unit layer writes them. */
 const keyUnit = (key: string, unit: string) => (key === "peakHr" ? HR_UNIT : displayUnit(unit));
 
-/** A number and its unit that never part at a line end ("122 bpm"). */
-const nb = (value: string, unit: string) => `${value}\u00a0${unit}`;
+/** A number and its unit that never part at a line end ("122 bpm"); a missing value ("—") stands without its unit. */
+const nb = (value: string, unit: string) => (value === "—" ? value : `${value}\u00a0${unit}`);
 
 /** Effort criterion outcome in plain words. */
 const OUTCOME_WORD = (o: boolean | null) => (o === true ? "met" : o === false ? "not met" : "not assessable");
@@ -182,9 +182,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
             {result.comparisons.map((c) => (
               <tr key={c.key} data-testid={`row-${c.key}`}>
                 <td>{c.label}</td>
-                <td className="num">
-                  {fmt(c.measured, keyDecimals(c.measured.unit))} {keyUnit(c.key, c.measured.unit)}
-                </td>
+                <td className="num">{nb(fmt(c.measured, keyDecimals(c.measured.unit)), keyUnit(c.key, c.measured.unit))}</td>
                 <td className="num">
                   {formatNumber(c.predicted?.value, keyDecimals(c.measured.unit))}
                   {c.predicted?.lln !== undefined && c.predicted.lln !== null ? (
