@@ -1,8 +1,8 @@
 "use client";
 
 import { useActionState } from "react";
-import { FormMessages } from "../../../components/CutoffChoiceFields";
 import { clearExerciseSpan, saveExerciseSpan, type FormState } from "../actions";
+import { ReasonAndSubmit, ReviewerField } from "./ReviewerFields";
 
 /** Set the incremental exercise phase by hand (start, end, reason), or go back to the detected one. */
 export function ExerciseSpanForm({
@@ -31,21 +31,16 @@ export function ExerciseSpanForm({
             End (m:ss)
             <input name="end" defaultValue={v.end ?? current?.end ?? ""} size={6} placeholder="16:30" />
           </label>
-          <label>
-            Reviewer
-            <input name="by" defaultValue={v.by ?? ""} size={14} />
-          </label>
+          <ReviewerField value={v.by} />
         </div>
-        <label>
-          Reason
-          <input name="reason" defaultValue={v.reason ?? ""} placeholder="e.g. ramp start from the test log" />
-        </label>
-        <FormMessages errors={e} ok={state.ok} />
-        <div>
-          <button type="submit" disabled={pending}>
-            Save exercise phase
-          </button>
-        </div>
+        <ReasonAndSubmit
+          value={v.reason}
+          placeholder="e.g. ramp start from the test log"
+          errors={e}
+          ok={state.ok}
+          pending={pending}
+          submitLabel="Save exercise phase"
+        />
       </form>
       {byReview && (
         <form action={clearExerciseSpan} style={{ marginTop: "0.5rem" }}>

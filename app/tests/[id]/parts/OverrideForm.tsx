@@ -1,8 +1,8 @@
 "use client";
 
 import { useActionState } from "react";
-import { FormMessages } from "../../../components/CutoffChoiceFields";
 import { overrideThreshold, type FormState } from "../actions";
+import { ReasonAndSubmit, ReviewerField } from "./ReviewerFields";
 
 export function OverrideForm({ testId, which }: { testId: number; which: "vt1" | "vt2" }) {
   const [state, action, pending] = useActionState<FormState, FormData>(overrideThreshold, {});
@@ -23,21 +23,16 @@ export function OverrideForm({ testId, which }: { testId: number; which: "vt1" |
             or time (m:ss)
             <input name="time" defaultValue={v.time ?? ""} size={6} placeholder="8:30" />
           </label>
-          <label>
-            Reviewer
-            <input name="by" defaultValue={v.by ?? ""} size={14} />
-          </label>
+          <ReviewerField value={v.by} />
         </div>
-        <label>
-          Reason
-          <input name="reason" defaultValue={v.reason ?? ""} placeholder="e.g. clear VE/VO2 rise at 8:30 with flat VE/VCO2" />
-        </label>
-        <FormMessages errors={e} ok={state.ok} />
-        <div>
-          <button type="submit" disabled={pending}>
-            Save override
-          </button>
-        </div>
+        <ReasonAndSubmit
+          value={v.reason}
+          placeholder="e.g. clear VE/VO2 rise at 8:30 with flat VE/VCO2"
+          errors={e}
+          ok={state.ok}
+          pending={pending}
+          submitLabel="Save override"
+        />
       </form>
     </details>
   );
