@@ -2,7 +2,7 @@ import fs from "node:fs";
 import path from "node:path";
 import type { Command } from "commander";
 import { analyse, buildRecord, type ReferralQuestion } from "../lib/analysis";
-import { importLactateFile, STAGE_DURATION_LIMITS_S } from "../lib/breath";
+import { importLactateFile, parseTimeText, STAGE_DURATION_LIMITS_S } from "../lib/breath";
 import { hasErrors, makeIssue, plausibilityProblem, type PlausibleField } from "../lib/core";
 import { REFERRAL_QUESTIONS } from "../lib/interpret";
 import { CLINICAL_CAUTION, toCliJson, type CliAnalysisJson } from "../lib/report";
@@ -86,13 +86,8 @@ function parseStageSeconds(raw: string): number {
 
 /** "6:00-16:30" or "360-990": start and end of the exercise phase on the file's clock, s. */
 function parseExerciseSpan(raw: string): { startS: number; endS: number } {
-  const seconds = (t: string) => {
-    const m = /^(\d+):([0-5]\d(?:\.\d+)?)$/.exec(t.trim());
-    const v = m ? Number(m[1]) * 60 + Number(m[2]) : t.trim() === "" ? NaN : Number(t);
-    return Number.isFinite(v) && v >= 0 ? v : NaN;
-  };
   const parts = raw.split("-");
-  const [startS, endS] = parts.length === 2 ? parts.map(seconds) : [NaN, NaN];
+  const [startS, endS] = parts.length === 2 ? parts.map(parseTimeText) : [NaN, NaN];
   if (!Number.isFinite(startS) || !Number.isFinite(endS) || !(endS > startS))
     throw new Error(`--exercise-span needs start-end as m:ss-m:ss or seconds with the end after the start, got "${raw}"`);
   return { startS, endS };

@@ -56,6 +56,16 @@ export function parseClock(cell: Cell): number {
   return negative ? -seconds : seconds;
 }
 
+/**
+ * A time typed by a person (a form field, a command-line option): a clock time as in the files ("6:00", "1:02:30")
+ * or plain seconds ("360"). Returns seconds, or NaN when the text is neither or the time is negative.
+ */
+export function parseTimeText(text: string): number {
+  const s = text.trim();
+  const v = isClockCell(s) ? parseClock(s) : s === "" ? NaN : parseNumberCell(s, ".");
+  return v >= 0 ? v : NaN;
+}
+
 /** True when a text cell is a clock time ("m:ss", "h:mm:ss"). */
 export function isClockCell(cell: Cell): boolean {
   return typeof cell === "string" && CLOCK.test(cell.trim());

@@ -3,6 +3,7 @@ import { describe, expect, it } from "vitest";
 import {
   importBloodGasFile,
   importLactateFile,
+  parseTimeText,
   mappingProfileSchema,
   parseSpirometry,
   recogniseHeader,
@@ -131,4 +132,15 @@ describe("mapping profiles and header spellings", () => {
       expect(recogniseHeader(header, PLAIN_COLUMNS).field).toBeUndefined();
     },
   );
+});
+
+describe("parseTimeText (times typed in forms and options)", () => {
+  it("reads m:ss, h:mm:ss and seconds as the files' clock does, and refuses the rest", () => {
+    // by hand: 6:00 = 360 s; 16:30.5 = 990.5 s; 1:02:30 = 3 750 s
+    expect(parseTimeText("6:00")).toBe(360);
+    expect(parseTimeText(" 16:30.5 ")).toBe(990.5);
+    expect(parseTimeText("1:02:30")).toBe(3750);
+    expect(parseTimeText("360")).toBe(360);
+    for (const bad of ["", "six", "-5", "-1:00", "6:00-7:00"]) expect(parseTimeText(bad)).toBeNaN();
+  });
 });

@@ -4,6 +4,7 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import type { AnalysisSettings } from "@/lib/analysis";
 import { analyse, checkThresholdOverride, ENGINE_VERSION } from "@/lib/analysis";
+import { parseTimeText } from "@/lib/breath";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { formatClock } from "@/lib/units";
 import { effectiveSettings, getTest, latestSettings, saveAnalysisVersion } from "@/lib/store/tests";
@@ -13,8 +14,6 @@ export interface FormState {
   errors?: Record<string, string>;
   values?: Record<string, string>;
 }
-
-const clock = /^(\d+):([0-5]\d)$/;
 
 const overrideSchema = z
   .object({
@@ -32,7 +31,7 @@ const overrideSchema = z
       .string()
       .trim()
       .optional()
-      .refine((t) => !t || clock.test(t) || Number.isFinite(Number(t)), "Time as m:ss or seconds"),
+      .refine((t) => !t || Number.isFinite(parseTimeText(t)), "Time as m:ss or seconds"),
     reason: z.string().trim().min(5, "Give the reason for the override (at least a few words)").max(500),
     by: z.string().trim().min(2, "Say who is making the override").max(80),
   })
@@ -66,8 +65,7 @@ export async function overrideThreshold(_prev: FormState, form: FormData): Promi
   const o = parsed.data;
   const record = getTest(o.testId)?.record;
   if (!record) return { errors: { form: "This test has no usable data." }, values };
-  const m = o.time ? clock.exec(o.time) : null;
-  const timeS = o.time ? (m ? Number(m[1]) * 60 + Number(m[2]) : Number(o.time)) : undefined;
+  const timeS = o.time ? parseTimeText(o.time) : undefined;
   const current = effectiveSettings(o.testId, getLabDefaults());
   // refuse a threshold the test cannot have (outside exercise, above peak VO2, VT1 not below VT2)
   const problems = checkThresholdOverride(analyse(record, current), {
@@ -169,11 +167,8 @@ const clockOrSeconds = (what: string) =>
     .string()
     .trim()
     .min(1, `Give the ${what} as m:ss or seconds`)
-    .refine((t) => clock.test(t) || (Number.isFinite(Number(t)) && Number(t) >= 0), `${what} as m:ss or seconds`)
-    .transform((t) => {
-      const m = clock.exec(t);
-      return m ? Number(m[1]) * 60 + Number(m[2]) : Number(t);
-    });
+    .refine((t) => Number.isFinite(parseTimeText(t)), `${what} as m:ss or seconds`)
+    .transform(parseTimeText);
 
 const exerciseSpanSchema = z
   .object({
