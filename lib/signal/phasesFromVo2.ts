@@ -56,22 +56,18 @@ export function phasesFromVo2(rows: readonly BreathRow[], issues: Issue[]): Vo2P
     }
   const w = Math.max(1, Math.round(PEAK_WINDOW_S / BIN_S));
   if (bv.length < w + 8) return fail("too few breaths with VO2 to follow its course");
-  let best = -Infinity;
+  // 30-s means of the bins, each ending at bin b (running sum); the highest, and the lowest before it
+  const windowMean = new Float64Array(bv.length).fill(NaN);
+  let sum = 0;
+  for (let b = 0; b < bv.length; b++) {
+    sum += bv[b] - (b >= w ? bv[b - w] : 0);
+    if (b >= w - 1) windowMean[b] = sum / w;
+  }
   let peakEnd = w - 1;
-  for (let b = w - 1; b < bv.length; b++) {
-    let s = 0;
-    for (let j = b - w + 1; j <= b; j++) s += bv[j];
-    if (s / w > best) {
-      best = s / w;
-      peakEnd = b;
-    }
-  }
+  for (let b = w; b < bv.length; b++) if (windowMean[b] > windowMean[peakEnd]) peakEnd = b;
+  const best = windowMean[peakEnd];
   let lowest = Infinity;
-  for (let b = w - 1; b <= peakEnd; b++) {
-    let s = 0;
-    for (let j = b - w + 1; j <= b; j++) s += bv[j];
-    lowest = Math.min(lowest, s / w);
-  }
+  for (let b = w - 1; b <= peakEnd; b++) lowest = Math.min(lowest, windowMean[b]);
   if (!(best >= MIN_RISE_RATIO * lowest)) return fail("VO2 does not rise 1.5-fold over the record");
   const first = t[0];
   const startS = rampStart(bt, bv, peakEnd) ?? first;

@@ -3,6 +3,7 @@ import { binByTime } from "../numeric/binByTime";
 import { PrefixSums } from "../numeric/linearRegression";
 import type { ConditionedTest } from "../signal";
 import { exerciseSpan, fieldSeries, pairedSeries, provenanceOf, rollingExtreme, WindowMeans } from "./indexSeries";
+import { firstIndexAbove } from "./firstIndexAbove";
 import { readAtTime, type ThresholdPoint } from "./valuesAtThreshold";
 
 /** A straight-line fit reported as three measured values. */
@@ -152,33 +153,38 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
   );
   const binS = test.shape === "stage" ? 0 : (options.toVt2BinS ?? 20);
   let slopeToVt2: LineIndex;
-  let freeBreak: ReturnType<typeof freeBreakLine> = null;
   const noComp =
     !vt2 && span && binS > 0 && (options.wholeExerciseWhenNoCompensation ?? true) ? compensationSigns(test, span, pairs) : null;
   const ratioRiseMax = options.noCompensationRatioRise ?? 0.035;
   const petFallMax = options.noCompensationPetco2FallMmHg ?? 1;
-  if (
-    !vt2 &&
-    span &&
+  // the signs, when they say the test shows no respiratory compensation (PETCO2 needed)
+  const noCompensation =
     noComp &&
     noComp.ratioRise <= ratioRiseMax &&
     noComp.petco2FallMmHg !== null &&
     noComp.petco2FallMmHg <= petFallMax &&
     x.length >= minPoints
-  ) {
+      ? { ratioRise: noComp.ratioRise, petco2FallMmHg: noComp.petco2FallMmHg }
+      : null;
+  // with signs of compensation but no VT2: the break a two-line fit finds for itself (only then is it searched for)
+  const freeBreak =
+    noComp && span && !noCompensation && (options.fittedBreakWhenNoVt2 ?? true)
+      ? freeBreakLine(pairs.t, x, pairs.y, span, binS)
+      : null;
+  if (noCompensation && span) {
     // no respiratory compensation in the test: the line below the RCP runs over the whole exercise phase. It is fitted
     // on time-bin means like every "to VT2" slope, so it is not the breath-by-breath whole-exercise slope (FRIEND
     // method), which breath noise in VCO2 flattens; the label says exactly what was fitted.
-    const pet = noComp.petco2FallMmHg;
+    const pet = noCompensation.petco2FallMmHg;
     const why =
-      `no respiratory compensation: VE/VCO2 in the last 30 s ${(100 * noComp.ratioRise).toFixed(1)} % above its nadir ` +
+      `no respiratory compensation: VE/VCO2 in the last 30 s ${(100 * noCompensation.ratioRise).toFixed(1)} % above its nadir ` +
       `(≤ ${(100 * ratioRiseMax).toFixed(1)} %) and PETCO2 in the last 30 s ` +
       `${pet < 0.05 ? "not below its highest 30-s mean" : `${pet.toFixed(1)} mmHg below its highest 30-s mean`} (≤ ${petFallMax} mmHg)`;
     const prov = provenanceOf(
       "ve-vco2-slope-to-vt2-no-compensation",
       `VE/VCO2 slope below the RCP: whole exercise phase (${why})`,
       ["ward-2021", "friend-ve-vco2-slope", "common-practice", "implementation-choice", "robergs-2010"],
-      { window: span, inputs: { ratioRise: noComp.ratioRise, petco2FallMmHg: pet } },
+      { window: span, inputs: { ratioRise: noCompensation.ratioRise, petco2FallMmHg: pet } },
     );
     const line = binnedLine(pairs.t, x, pairs.y, span.startS, x.length, binS, prov, units);
     const bins = line.slope.provenance.inputs?.points;
@@ -188,14 +194,7 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
       `${typeof bins === "number" ? ` (${bins} bins)` : ""}, because the test shows ${why}. ` +
       `The whole-exercise slope is the same range fitted breath by breath, which breath noise in VCO2 flattens, so the two can differ`;
     slopeToVt2 = relabel(line, label);
-  } else if (
-    !vt2 &&
-    span &&
-    binS > 0 &&
-    noComp &&
-    (options.fittedBreakWhenNoVt2 ?? true) &&
-    (freeBreak = freeBreakLine(pairs.t, x, pairs.y, span, binS))
-  ) {
+  } else if (freeBreak && span) {
     // VT2 not determinable, yet VE/VCO2 shows compensation: the slope below the break that a two-line fit of VE on VCO2
     // finds for itself in the second half of the incremental phase, labelled so and flagged for review
     const p: Provenance = {
@@ -209,12 +208,7 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
       inputs: { cornerS: freeBreak.cornerS, bins: freeBreak.bins },
       averaging: `${binS}-s time-bin means of the artefact-cleaned breaths (${freeBreak.bins} bins)`,
     };
-    slopeToVt2 = {
-      slope: measured(freeBreak.slope, "1", p),
-      intercept: measured(freeBreak.intercept, "L/min", p),
-      r2: measured(freeBreak.r2, "1", p),
-      n: pairs.t.filter((tt) => tt <= freeBreak!.cornerS).length,
-    };
+    slopeToVt2 = cornerLine(freeBreak, pairs.t, p);
     issues.push(
       makeIssue(
         "info",
@@ -233,16 +227,13 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
       n: 0,
     };
   } else {
-    let k = 0;
-    while (k < pairs.t.length && pairs.t[k] <= vt2.timeS) k++;
+    const k = firstIndexAbove(pairs.t, vt2.timeS);
     if (binS > 0 && span && k >= minPoints) {
       const binProv = { ...toProv, sourceIds: [...toProv.sourceIds, "robergs-2010"] };
       const cornerS = options.cornerSearchS ?? 30;
       const refined =
         cornerS > 0 ? cornerRefinedLine(pairs.t, x, pairs.y, span.startS, vt2.timeS, binS, cornerS, 2 * cornerS) : null;
       if (refined) {
-        let kc = 0;
-        while (kc < pairs.t.length && pairs.t[kc] <= refined.cornerS) kc++;
         const p: Provenance = {
           ...binProv,
           label:
@@ -250,15 +241,15 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
             `corner within ±${cornerS} s of VT2`,
           sourceIds: [...binProv.sourceIds, "implementation-choice"],
           window: { startS: span.startS, endS: refined.cornerS },
-          inputs: { cornerS: refined.cornerS, vt2S: vt2.timeS, bins: refined.bins, points: kc },
+          inputs: {
+            cornerS: refined.cornerS,
+            vt2S: vt2.timeS,
+            bins: refined.bins,
+            points: firstIndexAbove(pairs.t, refined.cornerS),
+          },
           averaging: `${binS}-s time-bin means of the artefact-cleaned breaths (${refined.bins} bins)`,
         };
-        slopeToVt2 = {
-          slope: measured(refined.slope, "1", p),
-          intercept: measured(refined.intercept, "L/min", p),
-          r2: measured(refined.r2, "1", p),
-          n: kc,
-        };
+        slopeToVt2 = cornerLine(refined, pairs.t, p);
       } else slopeToVt2 = binnedLine(pairs.t, x, pairs.y, span.startS, k, binS, binProv, units);
     } else slopeToVt2 = lineIndexFromFit(sums, 0, k, units, toProv, minPoints);
     const fitted = slopeToVt2.slope.value;
@@ -319,6 +310,16 @@ function freeBreakLine(
   const len = span.endS - span.startS;
   const [lo, hi] = FREE_BREAK_RANGE;
   return cornerRefinedLine(t, x, y, span.startS, span.startS + ((lo + hi) / 2) * len, binS, ((hi - lo) / 2) * len, len);
+}
+
+/** The lower line of a corner fit as a LineIndex; n = the breaths up to the corner. */
+function cornerLine(fit: NonNullable<ReturnType<typeof cornerRefinedLine>>, t: number[], prov: Provenance): LineIndex {
+  return {
+    slope: measured(fit.slope, "1", prov),
+    intercept: measured(fit.intercept, "L/min", prov),
+    r2: measured(fit.r2, "1", prov),
+    n: firstIndexAbove(t, fit.cornerS),
+  };
 }
 
 /** The same line with another provenance label on each of its values. */
