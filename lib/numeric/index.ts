@@ -2,6 +2,7 @@ export * from "./linearRegression";
 export * from "./seededRandom";
 export * from "./quantile";
 export * from "./runningMedian";
+export * from "./centredMovingMean";
 export * from "./binByTime";
 export * from "./solveLinearSystem";
 export * from "./hingeFit";

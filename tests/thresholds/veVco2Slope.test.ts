@@ -21,13 +21,31 @@ describe("VE/VCO2 slope", () => {
   const test = freezeTest(rampWithRcp());
   const r = veVco2Slope(test, { vt1: { timeS: 420, vo2MlMin: 1280 }, vt2: { timeS: VT2_S, vo2MlMin: 1640 } });
 
-  it("to VT2: slope 25.00, intercept 3 L/min, r² 1 (by construction)", () => {
-    expect(r.slopeToVt2.slope.value).toBeCloseTo(25, 9);
-    expect(r.slopeToVt2.intercept.value).toBeCloseTo(3, 9);
-    expect(r.slopeToVt2.r2.value).toBeCloseTo(1, 12);
+  it("to VT2 without the rolling mean: slope 25.00, intercept 3 L/min, r² 1 (by construction)", () => {
+    const q = veVco2Slope(test, { vt2: { timeS: VT2_S, vo2MlMin: 1640 }, toVt2RollingBins: 1 });
+    expect(q.slopeToVt2.slope.value).toBeCloseTo(25, 9);
+    expect(q.slopeToVt2.intercept.value).toBeCloseTo(3, 9);
+    expect(q.slopeToVt2.r2.value).toBeCloseTo(1, 12);
     // breaths 180..600 every 3 s: 141
-    expect(r.slopeToVt2.n).toBe(141);
-    expect(r.slopeToVt2.slope.provenance.sourceIds).toContain("ward-2021");
+    expect(q.slopeToVt2.n).toBe(141);
+    expect(q.slopeToVt2.slope.provenance.sourceIds).toContain("ward-2021");
+  });
+
+  it("to VT2 with the default 3-bin rolling mean: the straight part is kept, the corner rounded (within 0.5 % of 25)", () => {
+    // the same weights on VE and VCO2 keep VE = 25·VCO2 + 3 exactly; only the bins within one bin of the corner mix the
+    // two lines, which moves the lower line by 0.2 % here
+    expect(Math.abs(r.slopeToVt2.slope.value! - 25) / 25).toBeLessThan(0.005);
+    expect(Math.abs(r.slopeToVt2.intercept.value! - 3)).toBeLessThan(0.1);
+    expect(r.slopeToVt2.r2.value).toBeGreaterThan(0.9999);
+    expect(Math.abs((r.slopeToVt2.slope.provenance.inputs?.cornerS as number) - VT2_S)).toBeLessThanOrEqual(5);
+  });
+
+  it("the rolling mean keeps a straight line exactly: no corner below VT2 + 60 s gives 25 and 3 to 9 digits", () => {
+    // VT2 set at 480 s: the fit runs to 540 s, all on the lower line; the corner search finds no steeper upper line and
+    // the plain binned OLS on the smoothed bins is used
+    const q = veVco2Slope(test, { vt2: { timeS: 480, vo2MlMin: 1400 } });
+    expect(q.slopeToVt2.slope.value).toBeCloseTo(25, 9);
+    expect(q.slopeToVt2.intercept.value).toBeCloseTo(3, 9);
   });
 
   it("whole exercise is steeper once the post-RCP breaths are included", () => {
@@ -48,8 +66,10 @@ describe("VE/VCO2 slope", () => {
 
   it("without VT2 the to-RCP slope is the lower line below the break the fit finds (25 by construction), flagged", () => {
     const q = veVco2Slope(test, {});
-    // the break of this invented ramp is at 600 s (exercise 180–780 s: in the second half searched)
-    expect(q.slopeToVt2.slope.value).toBeCloseTo(25, 6);
+    // the break of this invented ramp is at 600 s (exercise 180–780 s: in the second half searched); the 3-bin rolling
+    // mean rounds the corner (0.5 % here), without it the lower line is exact
+    expect(Math.abs(q.slopeToVt2.slope.value! - 25) / 25).toBeLessThan(0.006);
+    expect(veVco2Slope(test, { toVt2RollingBins: 1 }).slopeToVt2.slope.value).toBeCloseTo(25, 6);
     expect(q.slopeToVt2.slope.provenance.method).toBe("ve-vco2-slope-below-fitted-break");
     expect(Math.abs((q.slopeToVt2.slope.provenance.inputs?.cornerS as number) - VT2_S)).toBeLessThanOrEqual(5);
     expect(q.issues.map((i) => i.code)).toContain("ve-vco2-slope-below-fitted-break");

@@ -31,9 +31,17 @@ describe("VT1 when an early RCP candidate leaves too little data below it", () =
     expect(r.vt2.confidence).toBe("low");
     expect(r.vt2.reason).toMatch(/VT2 does not lie above VT1/);
   });
-  it("the VE/VCO2 slope to that VT2 falls, so it is not determinable (never a negative slope)", () => {
-    const s = veVco2Slope(test, { vt2: { timeS: r.vt2.timeS!, vo2MlMin: r.vt2.vo2MlMin.value! } });
+  it("the VE/VCO2 line below that VT2 falls or fits loosely, so the slope is not determinable (never a negative slope)", () => {
+    const vt2 = { timeS: r.vt2.timeS!, vo2MlMin: r.vt2.vo2MlMin.value! };
+    // without the rolling mean the line falls; with it (the default) it rises to about 11, far below the whole-exercise
+    // slope of 20, with r² 0.46: both are refused with the reason
+    const raw = veVco2Slope(test, { vt2, toVt2RollingBins: 1 });
+    expect(raw.slopeToVt2.slope.value).toBeNull();
+    expect(raw.issues.map((i) => i.code)).toContain("ve-vco2-slope-not-rising");
+    const s = veVco2Slope(test, { vt2 });
     expect(s.slopeToVt2.slope.value).toBeNull();
-    expect(s.issues.map((i) => i.code)).toContain("ve-vco2-slope-not-rising");
+    expect(s.slopeToVt2.slope.reason).toMatch(/r² 0\.\d\d < 0\.5/);
+    expect(s.issues.map((i) => i.code)).toContain("ve-vco2-slope-loose-fit");
+    expect(s.slopeWholeExercise.slope.value).toBeGreaterThan(15);
   });
 });
