@@ -65,11 +65,11 @@ describe(`threshold accuracy, main generator (${size} tests)`, () => {
     expect(s.noCallPct).toBeLessThanOrEqual(7); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
 
-  // Goal: VE/VCO2 slope to the detected RCP within ±5 % of truth in 90 % of tests (no-calls count as misses) — NOT
-  // met on this bank (≈ 83 %: 5 % VT2 no-calls, the rest narrow VCO2 ranges with autocorrelated breath noise, where
-  // even the true RCP gives ≈ 89 %, and early RCP estimates); guarded here.
-  it("keeps the VE/VCO2 slope to RCP within ±5 % of truth in ≥ 82 % of tests at moderate noise (≥ 93 % at low)", () => {
-    expect(stat(main, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(82); // our regression bound at the level reached (README-thresholds.md), not a published value; goal ≥ 90 % not met
+  // Goal: VE/VCO2 slope to the detected RCP within ±5 % of truth in 90 % of tests (no-calls count as misses). Since round
+  // 12 (3-bin moving mean of VE and VCO2 alike) the mean of six 240-test main/variant banks is 90.4 %; this 80-test
+  // slice reads 88.8 % (87.5 % before): narrow VCO2 ranges and early RCP estimates are the misses. Guarded here.
+  it("keeps the VE/VCO2 slope to RCP within ±5 % of truth in ≥ 86 % of tests at moderate noise (≥ 93 % at low)", () => {
+    expect(stat(main, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(86); // our regression bound at the level reached (README-thresholds.md, round 12), not a published value; goal ≥ 90 % met on the six-bank mean, not on this slice
     expect(stat(main, "ve-vco2-slope-to-vt2", "low").within5Pct).toBeGreaterThanOrEqual(93); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
 
@@ -134,8 +134,9 @@ describe(`threshold accuracy, audit model (${auditSize} tests, moderate noise)`,
     expect(s.p90Pct).toBeLessThanOrEqual(16.5); // our regression bound at the level reached (README-thresholds.md), not a published value
     expect(stat(audit, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5); // goal from the issue
   });
-  it("keeps the slope within ±5 % in ≥ 85 % of tests", () => {
-    expect(stat(audit, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(85); // our regression bound at the level reached (README-thresholds.md), not a published value
+  // slope on this bank: 87.9 % before round 12, 91.6 % after
+  it("keeps the slope within ±5 % in ≥ 88 % of tests", () => {
+    expect(stat(audit, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(88); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
 });
 
@@ -154,8 +155,9 @@ describe(`threshold accuracy, cross-check model (${crossCheckSize} tests, modera
     expect(s.p90Pct).toBeLessThanOrEqual(40); // our regression bound at the level reached (README-thresholds.md), not a published value
     expect(stat(crossCheck, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5); // goal from the issue
   });
-  it("keeps the slope within ±5 % in ≥ 75 % of tests", () => {
-    expect(stat(crossCheck, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(75); // our regression bound at the level reached (README-thresholds.md), not a published value
+  // slope on this bank: 78.8 % before round 12, 84.7 % after
+  it("keeps the slope within ±5 % in ≥ 80 % of tests", () => {
+    expect(stat(crossCheck, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(80); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
 });
 
@@ -165,7 +167,8 @@ describe(`threshold accuracy, second-opinion model (${secondOpinionSize} tests, 
   // construction; VE/VT/breath-duration noise that moves VO2, VCO2 and VE together; eight clinical groups). Blind
   // figures with the round-10 method (three banks of 240): VT1 3.93 / 11.11 %, VT2 2.14 %, slope 81.4 % within ±5 %
   // (README-thresholds.md, round 11).
-  // This bank of 120 (seed 67) after round 11: VT1 2.98 / 8.40 %, no-calls 0 %; VT2 2.15 %; slope 81.8 % (77 tests with an RCP).
+  // This bank of 120 (seed 67) after round 11: VT1 2.98 / 8.40 %, no-calls 0 %; VT2 2.15 %; slope 81.8 % (77 tests with an RCP),
+  // 88.3 % after round 12.
   it("meets the VT1 goals (median ≤ 4 %, P90 ≤ 10 %, no-calls ≤ 5 %) and the VT2 median goal on this bank", () => {
     const s = stat(secondOpinion, "vt1-consensus", "moderate");
     expect(s.n).toBe(secondOpinionSize);
@@ -174,7 +177,7 @@ describe(`threshold accuracy, second-opinion model (${secondOpinionSize} tests, 
     expect(s.p90Pct).toBeLessThanOrEqual(10); // goal from the issue (met on this bank; the three-bank mean is 11.1 %)
     expect(stat(secondOpinion, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5); // goal from the issue
   });
-  it("keeps the slope within ±5 % in ≥ 78 % of tests", () => {
-    expect(stat(secondOpinion, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(78); // our regression bound at the level reached (README-thresholds.md), not a published value
+  it("keeps the slope within ±5 % in ≥ 84 % of tests", () => {
+    expect(stat(secondOpinion, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(84); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
 });
