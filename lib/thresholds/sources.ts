@@ -181,6 +181,19 @@ export const THRESHOLD_SOURCES = defineSources({
     status: "secondary",
     note: "Pattern persisting ≥60% of the test with amplitude ≥15% of the average resting value.",
   },
+  "eov-cycle-range": {
+    citation:
+      "EOV cycle lengths as tabulated in Cardiology Research 2025;16(6):475: Ben-Dov 1992 cycles of 30-60 s, Sun 2010 cycles of 40-140 s",
+    status: "secondary",
+    note: "A cycle counts for any EOV rule only if its length lies within 30-140 s, the span of the published cycle-length criteria.",
+  },
+  "brawner-2018": {
+    citation:
+      "Brawner CA et al. Exercise oscillatory ventilation: interreviewer agreement and a novel determination. Med Sci Sports Exerc 2018;50(2):369-374",
+    status: "confirmed",
+    doi: "10.1249/MSS.0000000000001423",
+    note: "Reviewers agreed better on EOV with 30-s rolling averages (kappa 0.429) than with 10-s discrete averages (0.303); positive EOV 14 % vs 18 % of 243 HF patients (abstract).",
+  },
   "sjodin-jacobs-1981": {
     citation:
       "Sjödin B, Jacobs I. Onset of blood lactate accumulation and marathon running performance. Int J Sports Med 1981;2:23-26",
