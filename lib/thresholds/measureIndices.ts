@@ -64,6 +64,7 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
       lactatePeakMmolL: lactatePeak,
     },
     ctx.effortSet,
+    { vo2FinalIncreaseMlKgMin: plateau.seMlKgMin.value, vo2FinalIncreaseMlMin: plateau.seMlMin.value },
   );
   const veVco2 = veVco2Slope(test, { vt1, vt2, nadirWindowS: windowS });
   const ouesR = oues(test);

@@ -1,7 +1,10 @@
 import { describe, it, expect } from "vitest";
 import {
   assessEffort,
+  CRITERION_GUARD_SE,
+  criterionMet,
   EFFORT_CRITERIA_SETS,
+  type EffortCriterion,
   VO2_PLATEAU_CRITERION,
   vo2FinalIncrease,
   vo2PlateauPresent,
@@ -9,7 +12,8 @@ import {
 import { THRESHOLD_SOURCES } from "../../lib/thresholds/sources";
 import { CORE_SOURCES } from "../../lib/core";
 import { conditionTable } from "../../lib/signal";
-import { generateSyntheticTest } from "../../lib/synthetic";
+import { seededRandom } from "../../lib/numeric";
+import { generateSyntheticTest, syntheticBank } from "../../lib/synthetic";
 import { freezeTest, standardRamp } from "./indicesFixture";
 
 const met = (values: Parameters<typeof assessEffort>[0], set: string, id: string) =>
@@ -111,7 +115,9 @@ describe("one plateau determination, checked on synthetic tests known by constru
     const syn = generateSyntheticTest({ plateau, noise, weightKg: 75 }, seed);
     const test = conditionTable(syn.table);
     const inc = vo2FinalIncrease(test, { windowS: 30, weightKg: 75 });
-    const effort = assessEffort({ vo2FinalIncreaseMlKgMin: inc.increaseMlKgMin.value }, "ers-2019");
+    const effort = assessEffort({ vo2FinalIncreaseMlKgMin: inc.increaseMlKgMin.value }, "ers-2019", {
+      vo2FinalIncreaseMlKgMin: inc.seMlKgMin.value,
+    });
     const criterion = effort.criteria.find((c) => c.criterion.id === VO2_PLATEAU_CRITERION.id)!;
     return { inc, present: vo2PlateauPresent(inc), criterionMet: criterion.met };
   };
@@ -131,4 +137,66 @@ describe("one plateau determination, checked on synthetic tests known by constru
       });
     }
   }
+});
+
+describe("guard band: a criterion met only within its standard error is not assessable", () => {
+  // Hand calculation with CRITERION_GUARD_SE = 1.28 (one-sided 90 %, our choice): cut-off 2 mL/kg/min ("<").
+  it("rise 1.0 ± 0.5: 1.0 + 0.64 = 1.64 < 2 → met; rise 1.5 ± 0.5: 2.14 ≥ 2 → not assessable; 2.3 ± 0.5 → not met", () => {
+    expect(CRITERION_GUARD_SE).toBe(1.28);
+    expect(criterionMet(VO2_PLATEAU_CRITERION, 1.0, 0.5)).toBe(true);
+    expect(criterionMet(VO2_PLATEAU_CRITERION, 1.5, 0.5)).toBeNull();
+    expect(criterionMet(VO2_PLATEAU_CRITERION, 2.3, 0.5)).toBe(false);
+    // no SE (or stage data): the published boundary alone
+    expect(criterionMet(VO2_PLATEAU_CRITERION, 1.5)).toBe(true);
+    expect(criterionMet(VO2_PLATEAU_CRITERION, 1.5, null)).toBe(true);
+  });
+  it("for a '≥' criterion the band lies on the other side: RER 1.12 ± 0.03 → 1.0816 < 1.10 → not assessable", () => {
+    const rer: EffortCriterion = { id: "x", label: "x", quantity: "rerPeak", comparator: ">=", cutoff: 1.1, sourceIds: [] };
+    expect(criterionMet(rer, 1.12, 0.03)).toBeNull();
+    expect(criterionMet(rer, 1.2, 0.03)).toBe(true);
+    expect(criterionMet(rer, 1.05, 0.03)).toBe(false);
+  });
+  it("the effort set carries the SE and the guarded outcome", () => {
+    const a = assessEffort({ vo2FinalIncreaseMlKgMin: 1.5 }, "ers-2019", { vo2FinalIncreaseMlKgMin: 0.5 });
+    const c = a.criteria.find((x) => x.criterion.id === VO2_PLATEAU_CRITERION.id)!;
+    expect(c.value).toBe(1.5);
+    expect(c.se).toBe(0.5);
+    expect(c.met).toBeNull();
+  });
+});
+
+describe("standard error of the final VO2 rise, known by construction", () => {
+  // Invented: the standard ramp with white noise of ±σ alternating breath by breath is awkward (r = −1); instead a
+  // seeded Gaussian noise of SD 100 mL/min on VO2 (seededRandom, Box–Muller). Each 30-s window holds 10 breaths (3 s
+  // apart), so SE of the difference of the two window means ≈ 100 × √(1/10 + 1/10) = 44.7 mL/min (white noise; the
+  // lag-1 correction is clipped at 0 for negative r). The estimate from one record scatters: within ±35 %. 50 kg, as
+  // above, so the test's own VO2–work slope expects a rise above the cut-off and the rise is assessed.
+  it("SE ≈ 100·√(2/10) = 44.7 mL/min from white noise of SD 100 mL/min (within ±35 %), and 0 noise-free", () => {
+    const rng = seededRandom(11);
+    const base = standardRamp();
+    const noisy = base.clean.map((r) => ({ ...r, vo2MlMin: r.vo2MlMin! + 100 * rng.normal() }));
+    const r = vo2FinalIncrease(freezeTest({ ...base, clean: noisy, averaged: noisy }), { windowS: 30, weightKg: 50 });
+    expect(r.seMlMin.value!).toBeGreaterThan(44.7 * 0.65);
+    expect(r.seMlMin.value!).toBeLessThan(44.7 * 1.35);
+    expect(r.seMlKgMin.value!).toBeCloseTo(r.seMlMin.value! / 50, 9);
+    const clean = vo2FinalIncrease(freezeTest(standardRamp()), { windowS: 30, weightKg: 50 });
+    expect(clean.seMlMin.value!).toBeLessThan(1e-6);
+  });
+});
+
+describe("false VO2 plateaus under breath noise (synthetic, moderate noise, invented data)", () => {
+  // 60 main-bank tests at moderate noise (lib/synthetic/syntheticBank, seed 2024): tests built without a plateau in which
+  // the criterion still reads one, with and without the guard band (the band can only remove calls, never add them).
+  it("the guard band removes false plateau calls and keeps every noise-free call", () => {
+    let falseWithout = 0;
+    let falseWith = 0;
+    for (const c of syntheticBank(60, { seed: 2024, noiseLevels: ["moderate"] })) {
+      if (c.spec.plateau) continue;
+      const inc = vo2FinalIncrease(conditionTable(generateSyntheticTest(c.spec, c.seed).table), { weightKg: c.spec.weightKg });
+      if (criterionMet(VO2_PLATEAU_CRITERION, inc.increaseMlKgMin.value) === true) falseWithout++;
+      if (vo2PlateauPresent(inc) === true) falseWith++;
+    }
+    expect(falseWithout).toBeGreaterThan(0);
+    expect(falseWith).toBeLessThan(falseWithout);
+  });
 });
