@@ -198,5 +198,14 @@ describe("false VO2 plateaus under breath noise (synthetic, moderate noise, inve
     }
     expect(falseWithout).toBeGreaterThan(0);
     expect(falseWith).toBeLessThan(falseWithout);
+    // noise-free the rise has no scatter (SE 0): every call, with or without a plateau, is the unguarded one
+    let plateausNoiseFree = 0;
+    for (const c of syntheticBank(60, { seed: 2024, noiseLevels: ["moderate"] })) {
+      const syn = generateSyntheticTest({ ...c.spec, noise: "none", artefactRate: 0 }, c.seed);
+      const inc = vo2FinalIncrease(conditionTable(syn.table), { weightKg: c.spec.weightKg });
+      expect(vo2PlateauPresent(inc)).toBe(criterionMet(VO2_PLATEAU_CRITERION, inc.increaseMlKgMin.value));
+      if (vo2PlateauPresent(inc) === true) plateausNoiseFree++;
+    }
+    expect(plateausNoiseFree).toBeGreaterThan(0);
   });
 });
