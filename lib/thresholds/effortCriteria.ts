@@ -88,7 +88,7 @@ export const VO2_PLATEAU_CRITERION: EffortCriterion = {
  * when it still meets it moved this many SE towards the cut-off; within the band the criterion is not assessable (null).
  * A decision rule with measurement uncertainty (guarded acceptance, JCGM 106:2012 — recalled); 1.28 SE (one-sided 90 %)
  * is our choice. On 240 synthetic main tests at moderate breath noise (invented data) the VO2-plateau criterion, which
- * is the only one with an SE, called a plateau in 32 of 132 assessable tests without one; with the band, in 11.
+ * is the only one with an SE, called a plateau in 32 of 132 assessable tests without one; with the band, in 12.
  */
 export const CRITERION_GUARD_SE = 1.28;
 

@@ -177,7 +177,6 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
   if (!Number.isInteger(rollBins) || rollBins < 1 || rollBins % 2 === 0)
     throw new Error("veVco2Slope: toVt2RollingBins must be an odd positive integer");
   const rollHalf = (rollBins - 1) / 2;
-  const rolling = rollBins > 1 ? `, then a centred ${rollBins}-bin moving mean of VE and VCO2 alike` : "";
   let slopeToVt2: LineIndex;
   const noComp =
     !vt2 && span && binS > 0 && (options.wholeExerciseWhenNoCompensation ?? true) ? compensationSigns(test, span, pairs) : null;
@@ -217,7 +216,7 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
     const label =
       `VE/VCO2 slope below the RCP: OLS of VE on VCO2 over the whole exercise phase ` +
       `(${Math.round(span.startS)}-${Math.round(span.endS)} s) on ${binS}-s time-bin means of the breaths` +
-      `${typeof bins === "number" ? ` (${bins} bins)` : ""}${rolling}, because the test shows ${why}. ` +
+      `${typeof bins === "number" ? ` (${bins} bins)` : ""}${rollingWords(rollHalf)}, because the test shows ${why}. ` +
       `The whole-exercise slope is the same range fitted breath by breath, which breath noise in VCO2 flattens, so the two can differ`;
     slopeToVt2 = relabel(line, label);
   } else if (freeBreak && span) {
@@ -232,7 +231,7 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
       sourceIds: [...toProv.sourceIds, "robergs-2010", "implementation-choice"],
       window: { startS: span.startS, endS: freeBreak.cornerS },
       inputs: { cornerS: freeBreak.cornerS, bins: freeBreak.bins },
-      averaging: `${binS}-s time-bin means of the artefact-cleaned breaths (${freeBreak.bins} bins)${rolling}`,
+      averaging: binnedAveraging(binS, freeBreak.bins, rollHalf),
     };
     slopeToVt2 = cornerLine(freeBreak, pairs.t, p);
     issues.push(
@@ -273,7 +272,7 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
             bins: refined.bins,
             points: firstIndexAbove(pairs.t, refined.cornerS),
           },
-          averaging: `${binS}-s time-bin means of the artefact-cleaned breaths (${refined.bins} bins)${rolling}`,
+          averaging: binnedAveraging(binS, refined.bins, rollHalf),
         };
         slopeToVt2 = cornerLine(refined, pairs.t, p);
       } else slopeToVt2 = binnedLine(pairs.t, x, pairs.y, span.startS, k, binS, rollHalf, binProv, units);
@@ -360,6 +359,16 @@ function cornerLine(fit: NonNullable<ReturnType<typeof cornerRefinedLine>>, t: n
   };
 }
 
+/** The smoothing of a "to VT2" line in words ("" without it). */
+function rollingWords(rollHalf: number): string {
+  return rollHalf > 0 ? `, then a centred ${2 * rollHalf + 1}-bin moving mean of VE and VCO2 alike` : "";
+}
+
+/** The averaging of a "to VT2" line fitted on bin means, for its provenance. */
+function binnedAveraging(binS: number, bins: number, rollHalf: number): string {
+  return `${binS}-s time-bin means of the artefact-cleaned breaths (${bins} bins)${rollingWords(rollHalf)}`;
+}
+
 /** The same line with another provenance label on each of its values. */
 function relabel(line: LineIndex, label: string): LineIndex {
   const re = (m: Measured): Measured => ({ ...m, provenance: { ...m.provenance, label } });
@@ -388,9 +397,7 @@ function binnedLine(
     }
   const binProv: Provenance = {
     ...prov,
-    averaging:
-      `${binS}-s time-bin means of the artefact-cleaned breaths (${bx.length} bins)` +
-      (rollHalf > 0 ? `, then a centred ${2 * rollHalf + 1}-bin moving mean of VE and VCO2 alike` : ""),
+    averaging: binnedAveraging(binS, bx.length, rollHalf),
   };
   const sx = Array.from(centredMovingMean(bx, rollHalf));
   const sy = Array.from(centredMovingMean(by, rollHalf));
