@@ -13,6 +13,7 @@ class ReportPage {
     await this.page.waitForURL(/\/tests\/\d+$/);
     const id = Number(/\/tests\/(\d+)/.exec(this.page.url())![1]);
     await this.page.goto(`/tests/${id}/report`);
+    await this.ready();
     return id;
   }
 
@@ -25,7 +26,13 @@ class ReportPage {
     await this.page.waitForURL(/\/tests\/\d+$/);
     const id = Number(/\/tests\/(\d+)/.exec(this.page.url())![1]);
     await this.page.goto(`/tests/${id}/report`);
+    await this.ready();
     return id;
+  }
+
+  /** Wait until the editor has hydrated: text filled in before that can land beside the server text, not in place of it. */
+  async ready() {
+    await expect(this.page.getByTestId("draft-workspace")).toHaveAttribute("data-ready", "true");
   }
 
   section(id: string) {
@@ -65,6 +72,7 @@ test("report: edit the draft, keep text through validation, sign, download the P
   await report.saveDraft();
   await expect(page.getByTestId("draft-saved")).toBeVisible();
   await page.reload();
+  await report.ready();
   await expect(report.section("pathway")).toHaveValue(text);
 
   // Too long: refused with a message, the typed text stays in the box, the saved text is unchanged.
@@ -82,6 +90,7 @@ test("report: edit the draft, keep text through validation, sign, download the P
     }),
   );
   await page.reload();
+  await report.ready();
   expect(await leave).toBe("beforeunload");
   // The unsaved text survived the reload (kept in the tab), with a notice and a way to discard it.
   await expect(page.getByTestId("restored-notice")).toContainText("Unsaved text from your last visit was restored");
@@ -136,6 +145,7 @@ test("report: signing signs the text on screen, including edits that were never 
   await expect(page.getByTestId("signed-text")).toContainText(typed);
   // After a reload (nothing unsaved now, so no question) the signed version still holds the typed text.
   await page.reload();
+  await report.ready();
   await expect(page.getByTestId("signed-text")).toContainText(typed);
   await expect(page.getByTestId("draft-mark")).toHaveCount(0);
   const pdf = await page.request.get(`/api/tests/${testId}/report/pdf`);
@@ -173,6 +183,7 @@ test("report: after a threshold override the reviewer's edited text is carried i
 
   // The new draft keeps the reviewer's conclusion, says the numbers changed and which, and links the earlier version.
   await page.goto(`/tests/${testId}/report`);
+  await report.ready();
   await expect(report.section("conclusion")).toHaveValue(mine);
   await expect(page.getByTestId("recheck-banner")).toContainText("Conclusion");
   const note = page.getByTestId("recheck-conclusion");
@@ -205,6 +216,7 @@ test("report: after a threshold override the reviewer's edited text is carried i
   await page.getByTestId("threshold-vt1").getByRole("button", { name: "Remove override" }).click();
   await expect(page.getByTestId("threshold-vt1")).not.toContainText("Set by the reviewer");
   await page.goto(`/tests/${testId}/report`);
+  await report.ready();
   await expect(page.getByTestId("draft-mark")).toBeVisible();
   await expect(report.section("conclusion")).toHaveValue(mine);
   await expect(page.getByTestId("recheck-conclusion")).toContainText("version 2 (signed)");
@@ -239,6 +251,7 @@ test("report: unsaved text survives Back and Forward and is restored with a noti
   await expect(page.getByTestId("draft-saved")).toBeVisible();
   await expect(page.getByTestId("restored-notice")).toHaveCount(0);
   await page.reload();
+  await report.ready();
   await expect(report.section("conclusion")).toHaveValue(typed);
   await expect(page.getByTestId("restored-notice")).toHaveCount(0);
   expect(await page.evaluate(() => Object.keys(sessionStorage).filter((k) => k.startsWith("cpet-desk:unsaved")))).toEqual([]);

@@ -172,7 +172,12 @@ export function DraftWorkspace(props: {
   return (
     <>
       {notice && noticeSlot ? createPortal(notice, noticeSlot) : notice}
-      <details open={!props.signed || (restored && textDirty)}>
+      {/* data-ready: the editor has hydrated (and restored kept text), so typing now reaches React's state */}
+      <details
+        open={!props.signed || (restored && textDirty)}
+        data-testid="draft-workspace"
+        data-ready={hydrated ? "true" : "false"}
+      >
         <summary>{props.signed ? "Revise the text (creates a new draft version)" : "Edit the draft text"}</summary>
         <DraftEditor
           testId={props.testId}
