@@ -1,7 +1,7 @@
 import type { Measured } from "../core";
-import { vo2PlateauPresent, type IndicesResult, type ThresholdResult } from "../thresholds";
+import { vo2PlateauNotAssessedReason, vo2PlateauPresent, type IndicesResult, type ThresholdResult } from "../thresholds";
 import type { PredictedSet } from "../predicted";
-import type { InterpretInput } from "../interpret";
+import type { InterpretInput, InterpretValues } from "../interpret";
 import type { PredictedComparisonRow, TestRecord } from "./types";
 
 const v = (m: Measured | null | undefined): number | null => (m && m.value !== null && Number.isFinite(m.value) ? m.value : null);
@@ -29,6 +29,36 @@ export function toInterpretInput(
   const eov = indices.eov.definitions;
   const eovPresent = eov.some((d) => d.detected === true) ? true : eov.every((d) => d.detected === false) ? false : null;
   const vdvt = indices.vdVt.length > 0 ? indices.vdVt[indices.vdVt.length - 1] : null;
+  // the engine's reason beside each value a rule may find missing
+  const from: Partial<Record<keyof InterpretValues, Measured | null | undefined>> = {
+    peakVo2MlMin: p.vo2MlMin,
+    peakVo2MlKgMin: p.vo2MlKgMin,
+    vt1Vo2MlMin: thresholds.vt1.vo2MlMin,
+    vt1Vo2MlKgMin: thresholds.vt1.vo2MlMin,
+    vt1PctPredPeakVo2: thresholds.vt1.vo2MlMin,
+    vt1PctPeak: indices.atVt1?.vo2PercentPeak ?? thresholds.vt1.vo2MlMin,
+    peakRer: p.rerMax,
+    peakHrBpm: p.hrBpm,
+    hrPctPred: indices.heartRate.percentPredicted,
+    hrReserveBpm: indices.heartRate.reserveBpm,
+    chronotropicIndex: indices.heartRate.chronotropicIndex,
+    hrr1Bpm: indices.heartRate.recovery1MinBpm,
+    dVo2dWr: indices.dVo2dWr.whole.slope,
+    veVco2SlopeToRcp: indices.veVco2.slopeToVt2.slope,
+    veVco2SlopeWhole: indices.veVco2.slopeWholeExercise.slope,
+    veVco2AtVt1: indices.veVco2.atVt1,
+    breathingReserveLMin: indices.breathingReserve.reserveLMin,
+    breathingReservePct: indices.breathingReserve.reservePercent,
+    veMvvPct: indices.breathingReserve.veMvvPercent,
+    spo2Fall: indices.spo2.fallPct,
+  };
+  const reasons: Partial<Record<keyof InterpretValues, string>> = {};
+  for (const [k, m] of Object.entries(from) as [keyof InterpretValues, Measured | null | undefined][]) {
+    const why = m && m.value === null ? plainReason(m.reason) : null;
+    if (why) reasons[k] = why;
+  }
+  const plateauWhy = vo2PlateauNotAssessedReason(indices.vo2FinalIncrease);
+  if (plateauWhy) reasons.vo2Plateau = plateauWhy;
   return {
     patient: {
       sex: patient.sex,
@@ -94,7 +124,14 @@ export function toInterpretInput(
       o2Pulse: predicted.values.o2PulseMaxMlBeat?.equationLabel,
       mvv: indices.breathingReserve.mvvLMin.provenance.label,
     },
+    reasons,
   };
+}
+
+/** An engine reason without its "not determinable:" lead-in (the rule text already says "not available"). */
+function plainReason(reason: string | undefined): string | null {
+  const r = (reason ?? "").replace(/^not (determinable|determined|assessable)\s*:?\s*/i, "").trim();
+  return r === "" ? null : r;
 }
 
 function lastPaO2(record: TestRecord): number | null {

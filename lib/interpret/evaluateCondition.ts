@@ -16,6 +16,8 @@ export interface EvalContext {
   /** choice id → selected option. */
   choices: Readonly<Record<string, ChoiceOption>>;
   predicted: PredictedEquationLabels;
+  /** Why a variable is missing (`InterpretInput.reasons`), by variable name. */
+  reasons: Readonly<Record<string, string>>;
   /** Memo of rule results (rules are pure functions of vars and choices). */
   ruleCache: Map<string, RuleResult>;
 }
@@ -71,7 +73,10 @@ function comparisonText(
   const info = variableInfo(variable);
   const unit = info.unit ? ` ${info.unit}` : "";
   const pred = info.predictedKey && ctx.predicted[info.predictedKey] ? ` (${ctx.predicted[info.predictedKey]})` : "";
-  if (value === null) return `${info.label}${unit ? ` (${info.unit})` : ""} not available`;
+  if (value === null) {
+    const why = ctx.reasons[variable];
+    return `${info.label}${unit ? ` (${info.unit})` : ""} not available${why ? ` (${why})` : ""}`;
+  }
   if (info.kind === "boolean") return `${info.label}: ${formatValue(variable, value)}`;
   if (info.kind === "string") {
     // categories in words, never as operators: "Sex: male, not female"; "Effort: submaximal, not maximal or …"

@@ -23,6 +23,9 @@ export function makeContext(
     data,
     choices: resolved.options,
     predicted: input.predictedEquations ?? {},
+    reasons: Object.fromEntries(
+      Object.entries(input.reasons ?? {}).filter((e): e is [string, string] => typeof e[1] === "string" && e[1] !== ""),
+    ),
     ruleCache: new Map(),
   };
   return { ctx, resolved };

@@ -142,6 +142,11 @@ export interface InterpretInput {
   ergometer?: Ergometer;
   values: InterpretValues;
   predictedEquations?: PredictedEquationLabels;
+  /**
+   * Why a value is missing, by value name (e.g. `vo2Plateau`: the rise lies within its noise of the cut-off): shown
+   * after "not available" wherever a rule reads that value, so a reader sees why a step could not be assessed.
+   */
+  reasons?: Partial<Record<keyof InterpretValues, string>>;
 }
 
 /** The lab's choices where published cut-offs disagree, and which schemes to add or drop. */

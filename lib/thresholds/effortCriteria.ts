@@ -485,3 +485,21 @@ function riseStandardError(
 export function vo2PlateauPresent(increase: Vo2FinalIncrease): boolean | null {
   return criterionMet(VO2_PLATEAU_CRITERION, increase.increaseMlKgMin.value, increase.seMlKgMin.value);
 }
+
+/**
+ * Why `vo2PlateauPresent` is null, in words for the report; null when it is not (the plateau was assessed). Either the
+ * rise could not be measured (its own reason), or it met the cut-off by less than `CRITERION_GUARD_SE` standard errors.
+ */
+export function vo2PlateauNotAssessedReason(increase: Vo2FinalIncrease): string | null {
+  if (vo2PlateauPresent(increase) !== null) return null;
+  const rise = increase.increaseMlKgMin;
+  if (rise.value === null || !Number.isFinite(rise.value)) {
+    const why = (rise.reason ?? "the end-exercise VO2 rise could not be measured").replace(/^not determin(ed|able):?\s*/i, "");
+    return why;
+  }
+  const se = increase.seMlKgMin.value ?? NaN;
+  return (
+    `end-exercise VO2 rise ${rise.value.toFixed(1)} mL/kg/min lies within ${CRITERION_GUARD_SE} standard errors ` +
+    `(SE ${se.toFixed(1)}) of the ${VO2_PLATEAU_CRITERION.comparator} ${VO2_PLATEAU_CRITERION.cutoff} mL/kg/min cut-off`
+  );
+}

@@ -21,3 +21,16 @@ describe("one VO2-plateau determination for the effort set and the interpretatio
     });
   }
 });
+
+describe("a value the engine could not give carries its reason into the interpretation", () => {
+  it("no spirometry: VE/MVV is 'not available (no spirometry …)' in the effort line; the plateau reason only when it is null", () => {
+    const r = resultFor(true);
+    // the record has no MVV and no FEV1, so the breathing reserve has no denominator
+    expect(r.interpretInput.values.veMvvPct).toBeNull();
+    expect(r.interpretInput.reasons?.veMvvPct).toMatch(/spirometry/);
+    expect(r.interpretation.effort.text).toMatch(/VE\/MVV \(%\) not available \([^)]*spirometry/);
+    // noise-free plateau built in: assessed (true), so no plateau reason
+    expect(r.interpretInput.values.vo2Plateau).toBe(true);
+    expect(r.interpretInput.reasons?.vo2Plateau).toBeUndefined();
+  });
+});

@@ -150,6 +150,16 @@ describe("effort and cut-off choices", () => {
   });
 });
 
+describe("a missing value says why", () => {
+  it("the engine's reason follows 'not available' wherever a rule reads the value", () => {
+    const why = "end-exercise VO2 rise 1.7 mL/kg/min lies within 1.28 standard errors (SE 1.0) of the < 2 mL/kg/min cut-off";
+    const r = interpret({ ...baseInput({ vo2Plateau: null }), reasons: { vo2Plateau: why } });
+    expect(r.effort.text).toContain(`VO2 plateau not available (${why})`);
+    // without a reason the wording is as before
+    expect(interpret(baseInput({ vo2Plateau: null })).effort.text).toMatch(/VO2 plateau not available →/);
+  });
+});
+
 describe("effort when peak RER is missing", () => {
   it("a limit reached without an RER is not called 'RER below the cut-off', and peak values are still read", () => {
     // HR 95 % of predicted ≥ 85 % (default hr-reached choice: Glaab et al. 2021, secondary) with no peak RER (VO2 given

@@ -7,7 +7,9 @@ import {
   type EffortCriterion,
   VO2_PLATEAU_CRITERION,
   vo2FinalIncrease,
+  vo2PlateauNotAssessedReason,
   vo2PlateauPresent,
+  type Vo2FinalIncrease,
 } from "../../lib/thresholds/effortCriteria";
 import { THRESHOLD_SOURCES } from "../../lib/thresholds/sources";
 import { CORE_SOURCES } from "../../lib/core";
@@ -155,6 +157,35 @@ describe("guard band: a criterion met only within its standard error is not asse
     expect(criterionMet(rer, 1.12, 0.03)).toBeNull();
     expect(criterionMet(rer, 1.2, 0.03)).toBe(true);
     expect(criterionMet(rer, 1.05, 0.03)).toBe(false);
+  });
+  it("the reason in words: the rise, the band and the cut-off when guarded; none when the plateau was assessed", () => {
+    // Hand-built rises (invented numbers); only value and SE are read. 1.7 + 1.28·1.0 = 2.98 ≥ 2 → guarded;
+    // 1.0 + 1.28·0.5 = 1.64 < 2 → met; 2.5 → not met (both assessed, no reason).
+    const mk = (rise: number | null, se: number | null, reason?: string): Vo2FinalIncrease => {
+      const prov = { label: "hand-built", sourceIds: [], inputs: {} };
+      const m = (v: number | null, unit: string, why?: string) => ({
+        value: v,
+        unit,
+        provenance: prov,
+        ...(why ? { reason: why } : {}),
+      });
+      return {
+        increaseMlMin: m(rise === null ? null : rise * 70, "mL/min", reason),
+        increaseMlKgMin: m(rise, "mL/kg/min", reason),
+        seMlMin: m(se === null ? null : se * 70, "mL/min"),
+        seMlKgMin: m(se, "mL/kg/min"),
+        workIncreaseW: m(20, "W"),
+      };
+    };
+    expect(vo2PlateauNotAssessedReason(mk(1.7, 1.0))).toBe(
+      "end-exercise VO2 rise 1.7 mL/kg/min lies within 1.28 standard errors (SE 1.0) of the < 2 mL/kg/min cut-off",
+    );
+    expect(vo2PlateauNotAssessedReason(mk(1.0, 0.5))).toBeNull();
+    expect(vo2PlateauNotAssessedReason(mk(2.5, 0.5))).toBeNull();
+    // not measured: its own reason, without the "not determined:" lead-in
+    expect(vo2PlateauNotAssessedReason(mk(null, null, "not determined: no work rate to judge the 5–10 % increase"))).toBe(
+      "no work rate to judge the 5–10 % increase",
+    );
   });
   it("the effort set carries the SE and the guarded outcome", () => {
     const a = assessEffort({ vo2FinalIncreaseMlKgMin: 1.5 }, "ers-2019", { vo2FinalIncreaseMlKgMin: 0.5 });
