@@ -162,7 +162,7 @@ describe("guard band: a criterion met only within its standard error is not asse
     // Hand-built rises (invented numbers); only value and SE are read. 1.7 + 1.28·1.0 = 2.98 ≥ 2 → guarded;
     // 1.0 + 1.28·0.5 = 1.64 < 2 → met; 2.5 → not met (both assessed, no reason).
     const mk = (rise: number | null, se: number | null, reason?: string): Vo2FinalIncrease => {
-      const prov = { label: "hand-built", sourceIds: [], inputs: {} };
+      const prov = { method: "hand-built", label: "hand-built", sourceIds: [] as string[] };
       const m = (v: number | null, unit: string, why?: string) => ({
         value: v,
         unit,
