@@ -13,12 +13,15 @@ import { firstIndexAbove } from "./firstIndexAbove";
  * implementation choice (`vt-joint-profile-choice`). Suffix sums of g = e^((x − x_end)/σ), g², x·g and y·g per σ and
  * the partial-regression identity (the line solved once) make each candidate O(log n). Points in ascending t (s).
  * Returns NaN where no rising exponential fits (A < 0, or fewer than 3 points above τ).
+ * `z` replaces x as the line's regressor (y = a + b·z + A·(e^((x − τ)/σ) − 1)₊): the VT2 profile reads VE against VCO2
+ * below the break and an exponential in time above it.
  */
 export function exponentialOnsetProfile(
   t: ArrayLike<number>,
   y: ArrayLike<number>,
   taus: ArrayLike<number>,
   sigmasMin: readonly number[] = EXPONENTIAL_ONSET_SIGMAS_MIN,
+  z?: ArrayLike<number>,
 ): { sse: Float64Array; sigmaMin: Float64Array; n: number } {
   const n = t.length;
   const K = taus.length;
@@ -28,7 +31,8 @@ export function exponentialOnsetProfile(
   const t0 = t[0];
   const x = Float64Array.from({ length: n }, (_, i) => (t[i] - t0) / 60);
   const xEnd = x[n - 1];
-  // line alone (X = [1, x]), once
+  const zz = z ?? x;
+  // line alone (X = [1, z]), once
   let S0 = 0;
   let S1 = 0;
   let S2 = 0;
@@ -40,13 +44,13 @@ export function exponentialOnsetProfile(
   const QY = new Float64Array(n + 1);
   for (let i = n - 1; i >= 0; i--) {
     S0 += 1;
-    S1 += x[i];
-    S2 += x[i] * x[i];
+    S1 += zz[i];
+    S2 += zz[i] * zz[i];
     Y0 += y[i];
-    Y1 += y[i] * x[i];
+    Y1 += y[i] * zz[i];
     syy += y[i] * y[i];
     P0[i] = P0[i + 1] + 1;
-    P1[i] = P1[i + 1] + x[i];
+    P1[i] = P1[i + 1] + zz[i];
     QY[i] = QY[i + 1] + y[i];
   }
   const det = S0 * S2 - S1 * S1;
@@ -77,7 +81,7 @@ export function exponentialOnsetProfile(
       const g = Math.exp((x[i] - xEnd) / sigma);
       E1[i] = E1[i + 1] + g;
       E2[i] = E2[i + 1] + g * g;
-      EX[i] = EX[i + 1] + x[i] * g;
+      EX[i] = EX[i + 1] + zz[i] * g;
       EY[i] = EY[i + 1] + y[i] * g;
     }
     for (let j = 0; j < K; j++) {

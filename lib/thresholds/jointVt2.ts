@@ -1,4 +1,5 @@
 import { buildMethodEstimate, seriesWindow } from "./consensus";
+import { exponentialOnsetProfile, EXPONENTIAL_ONSET_SIGMAS_MIN } from "./exponentialOnsetProfile";
 import { candidateBreakTimes, segmentedProfile, summariseJointProfile } from "./jointVt1";
 import type { MethodEstimate, MethodQuality, ThresholdSeries } from "./thresholdTypes";
 
@@ -19,6 +20,12 @@ export interface JointVt2Options {
    * choice; a line from the ramp start put the break early on both synthetic models). @default 0.3
    */
   petco2FromFraction?: number;
+  /**
+   * Let VE depart from its line in VCO2 as an exponential in time above the break (`exponentialOnsetProfile` with VCO2
+   * as the line's regressor) when that beats the straight hinge by more than this many log-likelihood units (our
+   * choice, as for VT1); null = straight hinge only. PETCO2 keeps its straight hinge. @default 4
+   */
+  exponentialOnsetPenalty?: number | null;
 }
 
 /**
@@ -27,9 +34,12 @@ export interface JointVt2Options {
  * break time τ is shared by two signals of the respiratory compensation: VE rising out of proportion to VCO2
  * (VE = a + b·VCO2 + d·max(0, t − τ), d > 0: the VE-against-VCO2 break of Beaver, Wasserman & Whipp 1986,
  * confirmed, written in time so it can be pooled) and PETCO2 starting to fall (line in time plus a falling hinge;
- * recalled practice, `vt-rcp-criteria-recalled`). Criterion L(τ) = Σ_s (n_s/2)·log SSE_s(τ) on a 5-s grid (each
- * signal its own noise variance; prefix sums); value = median of the tempered profile weights exp(−½ ΔL), VO2
- * from the VO2 trend. Verdict from the likelihood ratio against no break, the signals that bend and the profile's
+ * recalled practice, `vt-rcp-criteria-recalled`). VE may instead depart from its line as A·(e^((t − τ)/σ) − 1)₊
+ * (`exponentialOnsetPenalty`): the compensation follows the metabolic acidosis (recalled physiology), and blood lactate
+ * rises as a continuous exponential in ramp exercise (Hughson, Weisiger & Swanson 1987, confirmed abstract); a straight
+ * line fitted over such a convex rise meets the lower line after the onset, not at it. Criterion
+ * L(τ) = Σ_s (n_s/2)·log SSE_s(τ) on a 5-s grid (each signal its own noise variance; prefix sums); value = median of
+ * the tempered profile weights exp(−½ ΔL), VO2 from the VO2 trend. Verdict from the likelihood ratio against no break, the signals that bend and the profile's
  * 10–90 % width. Pooling two noisy signals calls the RCP where each alone is too weak. O(n + K log n) per signal.
  */
 export function jointVt2(series: ThresholdSeries, options: JointVt2Options = {}): MethodEstimate {
@@ -69,17 +79,25 @@ export function jointVt2(series: ThresholdSeries, options: JointVt2Options = {})
   const taus = candidateBreakTimes(series, win, m, step);
   const t0 = series.timeS[win[0]];
   const minutes = (i: number) => (series.timeS[i] - t0) / 60;
+  const penExp = options.exponentialOnsetPenalty === undefined ? 4 : options.exponentialOnsetPenalty;
   const signals: { name: string; p: ReturnType<typeof segmentedProfile> }[] = [];
+  // candidates where VE took the exponential departure
+  const veExponential = new Uint8Array(taus.length);
   {
     const t = win.map((i) => series.timeS[i]);
-    const p = segmentedProfile(
-      t,
-      win.map((i) => series.veLMin[i]),
-      [win.map(() => 1), win.map((i) => series.vco2MlMin[i] / 1000)],
-      null,
-      taus,
-      "positive",
-    );
+    const ve = win.map((i) => series.veLMin[i]);
+    const vco2L = win.map((i) => series.vco2MlMin[i] / 1000);
+    const p = segmentedProfile(t, ve, [win.map(() => 1), vco2L], null, taus, "positive");
+    if (penExp !== null && p.n > 0) {
+      // the exponential with a penalty c costs (n/2)·log(SSE·e^(2c/n)) = (n/2)·log SSE + c (as for VT1)
+      const sse = exponentialOnsetProfile(t, ve, taus, EXPONENTIAL_ONSET_SIGMAS_MIN, vco2L).sse;
+      const factor = Math.exp((2 * penExp) / p.n);
+      for (let j = 0; j < taus.length; j++)
+        if (sse[j] * factor < p.sse[j]) {
+          p.sse[j] = sse[j] * factor;
+          veExponential[j] = 1;
+        }
+    }
     signals.push({ name: "ve", p });
   }
   const petFrom = startS + (options.petco2FromFraction ?? 0.3) * (series.span.endS - startS);
@@ -93,6 +111,7 @@ export function jointVt2(series: ThresholdSeries, options: JointVt2Options = {})
       taus,
       "negative",
     );
+    // PETCO2 keeps the straight hinge: an exponential fall fitted to it moved VT2 on noise (README-thresholds, round 13)
     signals.push({ name: "petco2", p });
   }
   const used = signals.filter((s) => s.p.sseSingle > 0 && Number.isFinite(s.p.sseSingle));
@@ -108,6 +127,8 @@ export function jointVt2(series: ThresholdSeries, options: JointVt2Options = {})
     });
   }
   const { tau, vo2At, lowS, highS, widthFraction, lr, bending, fit } = summary;
+  const veExponentialAtTau = veExponential[Math.max(0, taus.indexOf(tau))];
+  fit.veExponentialAbove = veExponentialAtTau;
   const reasons: string[] = [];
   let quality: MethodQuality;
   if (!(lr >= minLr)) {
@@ -119,6 +140,8 @@ export function jointVt2(series: ThresholdSeries, options: JointVt2Options = {})
     reasons.push(
       `${bending} of ${used.length} signals show the compensation at ${Math.round(tau)} s (joint likelihood ratio ${lr.toFixed(1)}); profile 10–90 % ${Math.round(lowS)}–${Math.round(highS)} s`,
     );
+    if (veExponentialAtTau === 1)
+      reasons.push("VE departs exponentially from its line in VCO2 above the break (fitted as an exponential)");
     quality = bending >= 2 && widthFraction <= 0.1 ? "good" : bending >= 1 && widthFraction <= 0.25 ? "fair" : "poor";
     if (quality !== "good") reasons.push(bending < 2 ? "fewer than two signals bend clearly" : "wide profile");
   }
