@@ -63,6 +63,7 @@ export function jointVt2(series: ThresholdSeries, options: JointVt2Options = {})
       "orr-1982-multisegment",
       "beaver-1986-v-slope",
       "vt-rcp-criteria-recalled",
+      "hughson-1987-lactate-continuous",
       "vt-implementation-choice",
     ],
   };

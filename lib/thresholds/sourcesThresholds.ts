@@ -64,14 +64,14 @@ export const VT_SOURCES = defineSources({
   },
   "vt-joint-profile-choice": {
     citation:
-      "Joint profile likelihood of one break time shared by several signals against time (VT1: excess CO2 over the whole ramp, VE and PETO2 below the RCP, each a straight hinge or, when that fits better by more than 4 log-likelihood units, a rise that steepens above the break; VT2: VE against VCO2 and PETCO2), and its combination with the single-plot methods (implementation choice of this software, no published source)",
+      "Joint profile likelihood of one break time shared by several signals against time (VT1: excess CO2 over the whole ramp, VE and PETO2 below the RCP, each a straight hinge or, when that fits better by more than 4 log-likelihood units, a rise that steepens above the break; VT2: VE against VCO2, which may depart from its line as an exponential in time, and PETCO2), and its combination with the single-plot methods (implementation choice of this software, no published source)",
     status: "common-practice",
   },
   "hughson-1987-lactate-continuous": {
     citation:
       "Hughson RL, Weisiger KH, Swanson GD. Blood lactate concentration increases as a continuous function in progressive exercise. J Appl Physiol 1987;62(5):1975-81",
     status: "confirmed",
-    note: "Abstract read: a continuous exponential-plus-constant model of lactate against VO2 fitted 21 of 23 ramp tests better than a threshold model. Basis for letting the joint VT1 profile fit a rise that steepens above the break.",
+    note: "Abstract read: a continuous exponential-plus-constant model of lactate against VO2 fitted 21 of 23 ramp tests better than a threshold model. Basis for letting the joint VT1 profile fit a rise that steepens above the break, and the VT2 profile an exponential departure of VE from its line in VCO2 (the compensation follows the acidosis: recalled physiology).",
   },
   "beaver-1985-log-log": {
     citation:
