@@ -114,6 +114,8 @@ describe(`threshold accuracy, hold-out model (${holdoutSize} tests, moderate noi
   });
   it("meets the VT2 median goal (≤ 5 %) and keeps the slope within ±5 % in ≥ 85 % of tests", () => {
     expect(stat(holdout, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5); // goal from the issue
+    // round 13 (VE's exponential departure in the VT2 joint profile, which then gives the value): 4.86 → 3.61 % on this bank
+    expect(stat(holdout, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(4.3); // our regression bound at the level reached (README-thresholds.md, round 13), not a published value
     expect(stat(holdout, "ve-vco2-slope-to-vt2", "moderate").within5Pct).toBeGreaterThanOrEqual(85); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
 });
@@ -154,6 +156,8 @@ describe(`threshold accuracy, cross-check model (${crossCheckSize} tests, modera
     expect(s.medianPct).toBeLessThanOrEqual(17); // our regression bound at the level reached (README-thresholds.md), not a published value
     expect(s.p90Pct).toBeLessThanOrEqual(40); // our regression bound at the level reached (README-thresholds.md), not a published value
     expect(stat(crossCheck, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(5); // goal from the issue
+    // round 13: 4.50 → 3.53 % on this bank
+    expect(stat(crossCheck, "vt2-consensus", "moderate").medianPct).toBeLessThanOrEqual(4.2); // our regression bound at the level reached (README-thresholds.md, round 13), not a published value
   });
   // slope on this bank: 78.8 % before round 12, 84.7 % after
   it("keeps the slope within ±5 % in ≥ 80 % of tests", () => {
