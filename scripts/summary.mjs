@@ -29,7 +29,11 @@ for (const file of args) {
   const r = JSON.parse(fs.readFileSync(file, "utf8"));
   if ("numPassedTests" in r) {
     passed += r.numPassedTests;
-    failed += r.numFailedTests + (r.numFailedTestSuites ?? 0);
+    // a failed test counts once; a file that failed with no failed test in it (it did not load) counts once more
+    const brokenFiles = (r.testResults ?? []).filter(
+      (f) => f.status === "failed" && !(f.assertionResults ?? []).some((a) => a.status === "failed"),
+    ).length;
+    failed += r.numFailedTests + brokenFiles;
     skipped += (r.numPendingTests ?? 0) + (r.numTodoTests ?? 0);
   } else if (r.stats) {
     passed += r.stats.expected + (r.stats.flaky ?? 0);
