@@ -1,4 +1,4 @@
-import type { Measured } from "../core";
+import { reasonWithoutLeadIn, type Measured } from "../core";
 import { vo2PlateauNotAssessedReason, vo2PlateauPresent, type IndicesResult, type ThresholdResult } from "../thresholds";
 import type { PredictedSet } from "../predicted";
 import type { InterpretInput, InterpretValues } from "../interpret";
@@ -54,7 +54,7 @@ export function toInterpretInput(
   };
   const reasons: Partial<Record<keyof InterpretValues, string>> = {};
   for (const [k, m] of Object.entries(from) as [keyof InterpretValues, Measured | null | undefined][]) {
-    const why = m && m.value === null ? plainReason(m.reason) : null;
+    const why = m && m.value === null ? reasonWithoutLeadIn(m.reason) : null;
     if (why) reasons[k] = why;
   }
   const plateauWhy = vo2PlateauNotAssessedReason(indices.vo2FinalIncrease);
@@ -126,12 +126,6 @@ export function toInterpretInput(
     },
     reasons,
   };
-}
-
-/** An engine reason without its "not determinable:" lead-in (the rule text already says "not available"). */
-function plainReason(reason: string | undefined): string | null {
-  const r = (reason ?? "").replace(/^not (determinable|determined|assessable)\s*:?\s*/i, "").trim();
-  return r === "" ? null : r;
 }
 
 function lastPaO2(record: TestRecord): number | null {

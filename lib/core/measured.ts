@@ -36,3 +36,12 @@ export function measured(value: number, unit: string, provenance: Provenance): M
 export function notDetermined(unit: string, provenance: Provenance, reason: string): Measured {
   return { value: null, unit, provenance, reason };
 }
+
+/**
+ * A missing value's reason without its "not determinable:" (or "not determined" / "not assessable") lead-in, for a
+ * text that already says the value is missing; null when there is no reason.
+ */
+export function reasonWithoutLeadIn(reason: string | undefined): string | null {
+  const r = (reason ?? "").replace(/^not (determinable|determined|assessable)\s*:?\s*/i, "").trim();
+  return r === "" ? null : r;
+}

@@ -1,4 +1,4 @@
-import { measured, notDetermined, type Measured } from "../core";
+import { measured, notDetermined, reasonWithoutLeadIn, type Measured } from "../core";
 import type { ConditionedTest } from "../signal";
 import { linearRegression } from "../numeric/linearRegression";
 import { exerciseSpan, fieldSeries, provenanceOf, WindowMeans } from "./indexSeries";
@@ -493,10 +493,8 @@ export function vo2PlateauPresent(increase: Vo2FinalIncrease): boolean | null {
 export function vo2PlateauNotAssessedReason(increase: Vo2FinalIncrease): string | null {
   if (vo2PlateauPresent(increase) !== null) return null;
   const rise = increase.increaseMlKgMin;
-  if (rise.value === null || !Number.isFinite(rise.value)) {
-    const why = (rise.reason ?? "the end-exercise VO2 rise could not be measured").replace(/^not determin(ed|able):?\s*/i, "");
-    return why;
-  }
+  if (rise.value === null || !Number.isFinite(rise.value))
+    return reasonWithoutLeadIn(rise.reason) ?? "the end-exercise VO2 rise could not be measured";
   const se = increase.seMlKgMin.value ?? NaN;
   return (
     `end-exercise VO2 rise ${rise.value.toFixed(1)} mL/kg/min lies within ${CRITERION_GUARD_SE} standard errors ` +
