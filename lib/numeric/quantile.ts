@@ -23,3 +23,14 @@ export function quantile(values: ArrayLike<number>, p: number): number {
 export function median(values: ArrayLike<number>): number {
   return quantile(values, 0.5);
 }
+
+/**
+ * Robust standard deviation: 1.4826 × the median absolute deviation from `centre` (default: the median of the values);
+ * 1.4826 = 1/Φ⁻¹(0.75) makes it equal the SD for normal data (standard statistics, Rousseeuw & Croux 1993, JASA
+ * 88:1273 — recalled citation). Non-finite values are skipped; NaN when there are none.
+ *
+ * @example robustSd([1, 2, 3, 4, 5]) // 1.4826 (median 3, absolute deviations 2, 1, 0, 1, 2)
+ */
+export function robustSd(values: ArrayLike<number>, centre: number = median(values)): number {
+  return 1.4826 * median(Array.from(values, (v) => Math.abs(v - centre)));
+}

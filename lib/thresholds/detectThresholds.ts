@@ -1,6 +1,6 @@
 import type { BreathRow, NumericField } from "../breath";
 import { makeIssue, measured, notDetermined, type Issue, type Measured, type Provenance } from "../core";
-import { binByTime, linearRegression, PrefixSums, quantile, runningMedian, seededRandom } from "../numeric";
+import { binByTime, linearRegression, PrefixSums, quantile, robustSd, runningMedian, seededRandom } from "../numeric";
 import type { ConditionedTest } from "../signal";
 import { combineEstimates, timeAtLevel, vo2AtTime, type Consensus } from "./consensus";
 import { initialStep } from "./initialStep";
@@ -52,8 +52,7 @@ export function buildThresholdSeries(test: ConditionedTest, options: ThresholdSe
     for (let c = 0; c < 3; c++) {
       const med = runningMedian(cols[c], 4);
       const res = cols[c].map((v, i) => v - med[i]);
-      const mad = quantile(res.map(Math.abs), 0.5);
-      const sd = 1.4826 * mad;
+      const sd = robustSd(res, 0);
       if (!(sd > 0)) continue;
       for (let i = 0; i < res.length; i++) if (Math.abs(res[i]) > 4 * sd) skip[i] = true;
     }

@@ -1,6 +1,6 @@
 import { makeIssue, measured, notDetermined, type Issue, type Measured } from "../core";
 import { interpolateLinear } from "../numeric/interpolate";
-import { quantile, runningMedian } from "../numeric";
+import { robustSd, runningMedian } from "../numeric";
 import type { ConditionedTest } from "../signal";
 import { fieldSeries, provenanceOf, restSpan, WindowMeans } from "./indexSeries";
 
@@ -289,13 +289,7 @@ function smoothedNoiseFraction(t: number[], v: number[], smoothS: number): numbe
   const med = runningMedian(v, 4);
   const rel = v.map((x, i) => (x - med[i]) / med[i]).filter(Number.isFinite);
   if (rel.length < 10) return 0;
-  const centre = quantile(rel, 0.5);
-  const sd =
-    1.4826 *
-    quantile(
-      rel.map((r) => Math.abs(r - centre)),
-      0.5,
-    );
+  const sd = robustSd(rel);
   const perWindow = Math.max(1, (smoothS * v.length) / (t[t.length - 1] - t[0]));
   return sd / Math.sqrt(perWindow);
 }

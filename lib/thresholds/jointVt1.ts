@@ -268,18 +268,32 @@ function lineSignal(
   const p = segmentedProfile(ts, ys, [ts.map(() => 1), ts.map((t) => (t - t0) / 60)], null, taus, "positive");
   const curved = new Uint8Array(taus.length);
   if (p.n === 0) return { name, p, curved };
-  // a shape with a penalty c costs (n/2)·log(SSE·e^(2c/n)) = (n/2)·log SSE + c
-  const take = (sse: Float64Array, penalty: number, mark: number) => {
-    const factor = Math.exp((2 * penalty) / p.n);
-    for (let j = 0; j < taus.length; j++)
-      if (sse[j] * factor < p.sse[j]) {
-        p.sse[j] = sse[j] * factor;
-        curved[j] = mark;
-      }
-  };
-  if (shapes.curvedAbovePenalty !== null) take(convexOnsetProfile(ts, ys, taus).sse, shapes.curvedAbovePenalty, 1);
-  if (shapes.exponentialOnsetPenalty !== null) take(exponentialOnsetProfile(ts, ys, taus).sse, shapes.exponentialOnsetPenalty, 2);
+  if (shapes.curvedAbovePenalty !== null)
+    takeShapeWithPenalty(p, convexOnsetProfile(ts, ys, taus).sse, shapes.curvedAbovePenalty, curved, 1);
+  if (shapes.exponentialOnsetPenalty !== null)
+    takeShapeWithPenalty(p, exponentialOnsetProfile(ts, ys, taus).sse, shapes.exponentialOnsetPenalty, curved, 2);
   return { name, p, curved };
+}
+
+/**
+ * Let another shape above the break replace a signal's straight hinge at each candidate where it fits better by more
+ * than `penalty` log-likelihood units: a shape with penalty c costs (n/2)·log(SSE·e^(2c/n)) = (n/2)·log SSE + c. The
+ * profile's SSE takes the penalised value there and `marks` records `mark` (both joint profiles; our choice).
+ */
+export function takeShapeWithPenalty(
+  p: ReturnType<typeof segmentedProfile>,
+  sse: Float64Array,
+  penalty: number,
+  marks: Uint8Array,
+  mark: number,
+): void {
+  if (p.n === 0) return;
+  const factor = Math.exp((2 * penalty) / p.n);
+  for (let j = 0; j < marks.length; j++)
+    if (sse[j] * factor < p.sse[j]) {
+      p.sse[j] = sse[j] * factor;
+      marks[j] = mark;
+    }
 }
 
 /** The shared reading of a joint break-time profile (VT1 and VT2 joint methods). */

@@ -1,6 +1,6 @@
 import { buildMethodEstimate, seriesWindow } from "./consensus";
 import { exponentialOnsetProfile, EXPONENTIAL_ONSET_SIGMAS_MIN } from "./exponentialOnsetProfile";
-import { candidateBreakTimes, segmentedProfile, summariseJointProfile } from "./jointVt1";
+import { candidateBreakTimes, segmentedProfile, summariseJointProfile, takeShapeWithPenalty } from "./jointVt1";
 import type { MethodEstimate, MethodQuality, ThresholdSeries } from "./thresholdTypes";
 
 export interface JointVt2Options {
@@ -89,16 +89,14 @@ export function jointVt2(series: ThresholdSeries, options: JointVt2Options = {})
     const ve = win.map((i) => series.veLMin[i]);
     const vco2L = win.map((i) => series.vco2MlMin[i] / 1000);
     const p = segmentedProfile(t, ve, [win.map(() => 1), vco2L], null, taus, "positive");
-    if (penExp !== null && p.n > 0) {
-      // the exponential with a penalty c costs (n/2)·log(SSE·e^(2c/n)) = (n/2)·log SSE + c (as for VT1)
-      const sse = exponentialOnsetProfile(t, ve, taus, EXPONENTIAL_ONSET_SIGMAS_MIN, vco2L).sse;
-      const factor = Math.exp((2 * penExp) / p.n);
-      for (let j = 0; j < taus.length; j++)
-        if (sse[j] * factor < p.sse[j]) {
-          p.sse[j] = sse[j] * factor;
-          veExponential[j] = 1;
-        }
-    }
+    if (penExp !== null)
+      takeShapeWithPenalty(
+        p,
+        exponentialOnsetProfile(t, ve, taus, EXPONENTIAL_ONSET_SIGMAS_MIN, vco2L).sse,
+        penExp,
+        veExponential,
+        1,
+      );
     signals.push({ name: "ve", p });
   }
   const petFrom = startS + (options.petco2FromFraction ?? 0.3) * (series.span.endS - startS);
