@@ -20,6 +20,7 @@ import { ventilatoryEquivalents } from "./ventilatoryEquivalents";
 import { vSlope } from "./vSlope";
 import { jointVt1 } from "./jointVt1";
 import { jointVt2 } from "./jointVt2";
+import { areTimeAveragedRows, medianRowIntervalS } from "./rowSpacing";
 
 export interface ThresholdSeriesOptions {
   /** Time-bin length, s (10–20 s keeps curve shape while damping breath noise; 20 s chosen on the synthetic bank). @default 20 */
@@ -28,6 +29,16 @@ export interface ThresholdSeriesOptions {
   excludeRampStartS?: number;
   /** Set aside breaths beyond ±4 SD of a 9-breath running median of VO2, VCO2 or VE. @default true */
   spikeGuard?: boolean;
+  /**
+   * Rows of exercise whose median spacing is at least this many seconds are time averages exported by the cart, not
+   * single breaths (`AVERAGED_ROW_INTERVAL_S`, rowSpacing.ts), and the spike guard is not applied to them. A 9-row
+   * running median then spans 90 s or more: at the end of the ramp it lags the steepening VE and VCO2, and with the little scatter left after
+   * averaging those last rows, where the respiratory compensation shows, stood out as "spikes" (synthetic tests,
+   * invented data, re-averaged to 10 s: 17 of 48 exercise rows set aside in one test, the last 50 s among them).
+   * Single-breath artefacts are diluted by the averaging and gross ones are still set aside by the conditioning's
+   * local-deviation rule. @default 6
+   */
+  averagedRowIntervalS?: number;
 }
 
 const BIN_FIELDS = ["vo2MlMin", "vco2MlMin", "veLMin", "peto2MmHg", "petco2MmHg"] as const;
@@ -48,7 +59,9 @@ export function buildThresholdSeries(test: ConditionedTest, options: ThresholdSe
   const cols = BIN_FIELDS.map((f) => rows.map((r) => (typeof r[f] === "number" ? (r[f] as number) : NaN)));
   const skip = new Array<boolean>(rows.length).fill(false);
   let spikes = 0;
-  if (options.spikeGuard ?? true) {
+  const rowIntervalS = medianRowIntervalS(t);
+  const averagedRows = areTimeAveragedRows(t, options.averagedRowIntervalS);
+  if ((options.spikeGuard ?? true) && !averagedRows) {
     for (let c = 0; c < 3; c++) {
       const med = runningMedian(cols[c], 4);
       const res = cols[c].map((v, i) => v - med[i]);
@@ -82,7 +95,10 @@ export function buildThresholdSeries(test: ConditionedTest, options: ThresholdSe
     vco2Trend: localTrend(timeS, vco2, 3),
     span: { startS, endS: ex.endS },
     spikesRemoved: spikes,
-    averaging: `${binS}-s time bins of the clean breaths from ramp start + ${lead} s to ramp end; ${spikes} spike breath(s) beyond ±4 SD of a 9-breath running median set aside`,
+    timeAveragedRowsS: averagedRows ? rowIntervalS : null,
+    averaging: averagedRows
+      ? `${binS}-s time bins of the clean rows from ramp start + ${lead} s to ramp end; the rows are about ${Math.round(rowIntervalS)}-s time averages, not single breaths, so no breath-level spike screen was applied`
+      : `${binS}-s time bins of the clean breaths from ramp start + ${lead} s to ramp end; ${spikes} spike breath(s) beyond ±4 SD of a 9-breath running median set aside`,
   };
 }
 
@@ -435,6 +451,14 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
       options.overrides ?? [],
     );
   }
+  if (series.timeAveragedRowsS !== null)
+    issues.push(
+      makeIssue(
+        "info",
+        "thresholds-time-averaged-rows",
+        `The exercise rows are about ${Math.round(series.timeAveragedRowsS)} s apart: time averages exported by the cart, not single breaths. The thresholds are read from them as they are; no breath-level spike screen was applied. A breath-by-breath export gives the methods more to work with.`,
+      ),
+    );
   for (const f of ["vco2MlMin", "veLMin"] as const) {
     if (!series[f].some(Number.isFinite))
       issues.push(

@@ -3,6 +3,7 @@ import { interpolateLinear } from "../numeric/interpolate";
 import { robustSd, runningMedian } from "../numeric";
 import type { ConditionedTest } from "../signal";
 import { fieldSeries, provenanceOf, restSpan, WindowMeans } from "./indexSeries";
+import { areTimeAveragedRows } from "./rowSpacing";
 
 export interface EovOptions {
   /** Resampling step, seconds. @default 1 */
@@ -280,14 +281,28 @@ export function eov(test: ConditionedTest, options: EovOptions = {}): EovResult 
 }
 
 /**
+ * Robust SD of white noise about its 9-point running median over that about its 3-point running median: 0.8666 / 0.4607
+ * (simulation, 200 000 standard normal draws; checked in tests/thresholds/eovAveragedRows.test.ts). Known by
+ * construction, not a published value.
+ */
+export const THREE_TO_NINE_POINT_MEDIAN_SD = 0.8666 / 0.4607;
+
+/**
  * Breath noise of VE left in a `smoothS`-s centred average, as a fraction of the VE level: the robust SD (1.4826 ×
  * median absolute deviation) of each breath's relative departure from the 9-breath running median, divided by √(breaths
- * per window). Breath VE noise scales with the level of VE (common practice), hence relative. 0 with too few breaths.
+ * per window); on time-averaged rows a 3-row median, scaled. Breath VE noise scales with the level of VE (common practice), hence relative. 0 with too few breaths.
  */
 function smoothedNoiseFraction(t: number[], v: number[], smoothS: number): number {
   if (v.length < 10 || !(t[t.length - 1] > t[0])) return 0;
-  const med = runningMedian(v, 4);
-  const rel = v.map((x, i) => (x - med[i]) / med[i]).filter(Number.isFinite);
+  // 9 single breaths span about 20-30 s of exercise. Rows that are time averages of the cart (6 s or more apart,
+  // rowSpacing.ts) get a 3-row median instead: 9 such rows span 90 s and more and take in the oscillation itself, which
+  // made the noise estimate, hence the hysteresis, as large as the cycles (synthetic tests re-averaged to 10 s: EOV found
+  // in none of 12). A 3-point median follows each point more closely, so its residuals are scaled to read as the
+  // 9-point ones do on white noise (`THREE_TO_NINE_POINT_MEDIAN_SD`).
+  const averaged = areTimeAveragedRows(t);
+  const med = runningMedian(v, averaged ? 1 : 4);
+  const k = averaged ? THREE_TO_NINE_POINT_MEDIAN_SD : 1;
+  const rel = v.map((x, i) => (k * (x - med[i])) / med[i]).filter(Number.isFinite);
   if (rel.length < 10) return 0;
   const sd = robustSd(rel);
   const perWindow = Math.max(1, (smoothS * v.length) / (t[t.length - 1] - t[0]));

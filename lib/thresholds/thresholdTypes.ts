@@ -30,6 +30,8 @@ export interface ThresholdSeries {
   span: { startS: number; endS: number };
   /** Breaths set aside as spikes before binning. */
   spikesRemoved: number;
+  /** Median spacing of the exercise rows, s, when they are time averages of the cart rather than single breaths; else null. */
+  timeAveragedRowsS: number | null;
   /** Plain words for the smoothing, recorded in every provenance. */
   averaging: string;
 }

@@ -26,6 +26,7 @@ export function handBuiltSeries(s: {
     vco2Trend: s.vco2MlMin,
     span: { startS: s.timeS[0], endS: s.timeS[n - 1] },
     spikesRemoved: 0,
+    timeAveragedRowsS: null,
     averaging: "20-s bins (hand-built test series)",
   };
 }
