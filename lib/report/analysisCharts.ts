@@ -1,6 +1,7 @@
 import type { BreathRow } from "../breath";
 import type { AnalysisResult } from "../analysis";
 import { averageSeries } from "../signal";
+import { slopeToVt2Name } from "../thresholds";
 import type { ChartSpec } from "./charts";
 import { endTidalChart, lactateChart, timeCourseChart, veVsVco2Chart, ventilatoryEquivalentsChart, vSlopeChart } from "./charts";
 
@@ -62,7 +63,7 @@ export function analysisCharts(result: AnalysisResult): ChartSpec[] {
         veLMin: col(exRows, "veLMin"),
         fit:
           slope.slope.value !== null && slope.intercept.value !== null
-            ? { slope: slope.slope.value, interceptLMin: slope.intercept.value, label: "VE/VCO2 slope to RCP" }
+            ? { slope: slope.slope.value, interceptLMin: slope.intercept.value, label: slopeToVt2Name(slope) }
             : null,
         vt2Vco2MlMin: vt2Vco2 ?? null,
       }),

@@ -6,6 +6,7 @@ import { ALL_SOURCES } from "./sources";
 import { formatClock, formatNumber } from "../units";
 import { CLINICAL_CAUTION, DRAFT_CAUTION } from "./caution";
 import { PREDICTED_QUANTITIES, type PredictedQuantity } from "../predicted";
+import { slopeToVt2Name } from "../thresholds";
 import { formatComparisonCutoff, formatComparisonValue } from "./formatComparison";
 import type { ReportModel, ReportRow, ReportSection } from "./reportModel";
 
@@ -120,7 +121,7 @@ export function buildReportModel(
   const extra: [string, Measured | undefined, number][] = [
     ["Peak RER", pk.rerMax, 2],
     ["Peak VE", pk.veLMin, 0],
-    ["VE/VCO2 slope to RCP", ix.veVco2.slopeToVt2.slope, 1],
+    [slopeToVt2Name(ix.veVco2.slopeToVt2), ix.veVco2.slopeToVt2.slope, 1],
     ["VE/VCO2 slope, whole exercise", ix.veVco2.slopeWholeExercise.slope, 1],
     ["OUES (whole exercise)", oues?.slope, 0],
     ["ΔVO2/ΔWR", ix.dVo2dWr.whole.slope, 1],

@@ -128,6 +128,22 @@ export function lineIndexFromFit(
 }
 
 /**
+ * A short name for the slope "to VT2" that says what it was fitted to: the RCP, the whole exercise phase when the test
+ * shows no respiratory compensation, or a break the fit placed itself when VT2 was not determinable. Screens, report and
+ * chart legend use it so a slope with no RCP behind it is never labelled "to RCP".
+ */
+export function slopeToVt2Name(line: LineIndex): string {
+  switch (line.slope.provenance.method) {
+    case "ve-vco2-slope-to-vt2-no-compensation":
+      return "VE/VCO2 slope, whole exercise (no respiratory compensation reached)";
+    case "ve-vco2-slope-below-fitted-break":
+      return "VE/VCO2 slope to a fitted break (RCP not determinable)";
+    default:
+      return "VE/VCO2 slope, start of exercise to RCP";
+  }
+}
+
+/**
  * VE/VCO2 slope (OLS of VE in L/min on VCO2 in L/min; clinical-reference §5.5) from the start of exercise to
  * VT2 (Ward 2021, secondary) and over the whole exercise phase (FRIEND reference standards, confirmed;
  * the two differ by about 4 units, Healthcare 2023, confirmed); lowest VE/VCO2 over a rolling window

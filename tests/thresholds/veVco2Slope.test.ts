@@ -1,5 +1,5 @@
 import { describe, it, expect } from "vitest";
-import { veVco2Slope } from "../../lib/thresholds/veVco2Slope";
+import { slopeToVt2Name, veVco2Slope } from "../../lib/thresholds/veVco2Slope";
 import { buildRows, EX_START_S, freezeTest, makeTest } from "./indicesFixture";
 
 // Invented: VCO2 = 800 + 2·(t − 180) mL/min in exercise; VE = 25·VCO2(L) + 3 up to VT2 (600 s), then
@@ -71,6 +71,7 @@ describe("VE/VCO2 slope", () => {
     expect(Math.abs(q.slopeToVt2.slope.value! - 25) / 25).toBeLessThan(0.006);
     expect(veVco2Slope(test, { toVt2RollingBins: 1 }).slopeToVt2.slope.value).toBeCloseTo(25, 6);
     expect(q.slopeToVt2.slope.provenance.method).toBe("ve-vco2-slope-below-fitted-break");
+    expect(slopeToVt2Name(q.slopeToVt2)).toBe("VE/VCO2 slope to a fitted break (RCP not determinable)");
     expect(Math.abs((q.slopeToVt2.slope.provenance.inputs?.cornerS as number) - VT2_S)).toBeLessThanOrEqual(5);
     expect(q.issues.map((i) => i.code)).toContain("ve-vco2-slope-below-fitted-break");
     expect(q.atVt1.value).toBeNull();

@@ -2,7 +2,7 @@ import { describe, it, expect } from "vitest";
 import type { BreathTable } from "../../lib/breath/types";
 import { conditionTable } from "../../lib/signal";
 import { generateSyntheticTest, SYNTHETIC_PRESETS } from "../../lib/synthetic";
-import { veVco2Slope } from "../../lib/thresholds/veVco2Slope";
+import { slopeToVt2Name, veVco2Slope } from "../../lib/thresholds/veVco2Slope";
 
 // Known by construction (invented data): the ventilatory-limitation preset (no RCP) with VE rewritten as an exact
 // straight line of VCO2, VE = 3 + 30 × VCO2 (L/min), so VE/VCO2 falls to the end (no compensation) and every fit of
@@ -30,6 +30,10 @@ function straightLineTest(vco2NoiseMlMin: number) {
   return conditionTable(table);
 }
 
+function test0End(): number {
+  return straightLineTest(0).exercise!.endS;
+}
+
 describe("VE/VCO2 slope below the RCP with no compensation: the label says what was fitted", () => {
   it("on an exact line, the slope below the RCP equals the whole-exercise slope (30.0) and the PETCO2 fall reads 0", () => {
     const r = veVco2Slope(straightLineTest(0), { vt2: null });
@@ -39,6 +43,11 @@ describe("VE/VCO2 slope below the RCP with no compensation: the label says what 
     expect(r.slopeWholeExercise.slope.value!).toBeCloseTo(30, 6);
     expect(r.slopeToVt2.intercept.value!).toBeCloseTo(3, 6);
     expect(below.provenance.inputs?.petco2FallMmHg).toBe(0);
+    // the name on screens, report and chart never says "to RCP" when no RCP was reached
+    expect(slopeToVt2Name(r.slopeToVt2)).toBe("VE/VCO2 slope, whole exercise (no respiratory compensation reached)");
+    // with an RCP given, the same data are named "to RCP"
+    const atRcp = veVco2Slope(straightLineTest(0), { vt2: { timeS: test0End() - 120, vo2MlMin: 1000 } });
+    expect(slopeToVt2Name(atRcp.slopeToVt2)).toBe("VE/VCO2 slope, start of exercise to RCP");
     expect(below.provenance.label).toContain("PETCO2 in the last 30 s not below its highest 30-s mean");
     expect(below.provenance.label).not.toMatch(/-\d+(\.\d+)? mmHg/);
   });

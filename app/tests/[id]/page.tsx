@@ -5,7 +5,7 @@ import type { Measured } from "@/lib/core";
 import { EQUATIONS } from "@/lib/predicted";
 import { listCutoffChoices } from "@/lib/interpret";
 import { analysisCharts } from "@/lib/report";
-import type { ThresholdEstimate } from "@/lib/thresholds";
+import { slopeToVt2Name, type ThresholdEstimate } from "@/lib/thresholds";
 import { displayUnit, formatClock, formatNumber } from "@/lib/units";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { getTest, listAnalysisVersions } from "@/lib/store/tests";
@@ -295,7 +295,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         <table className="label-value" data-testid="indices">
           <tbody>
             <IndexRow
-              label="VE/VCO2 slope, start of exercise to RCP"
+              label={slopeToVt2Name(ix.veVco2.slopeToVt2)}
               m={ix.veVco2.slopeToVt2.slope}
               d={1}
               extra={`intercept ${fmt(ix.veVco2.slopeToVt2.intercept, 1)} L/min`}
