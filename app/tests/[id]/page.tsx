@@ -676,9 +676,7 @@ function ThresholdCard({
           )}
         </>
       ) : (
-        <p>
-          <strong>Not determinable.</strong> {t.reason ?? t.vo2MlMin.reason}
-        </p>
+        <NotDeterminable reason={t.reason ?? t.vo2MlMin.reason ?? ""} />
       )}
       {t.overridden ? (
         <div className="sev-warning" style={{ padding: "0.4rem" }}>
@@ -725,5 +723,28 @@ function ColumnTable({ columns }: { columns: import("@/lib/breath").ColumnDecisi
         </tbody>
       </table>
     </TableScroll>
+  );
+}
+
+/** "Not determinable" with its reason; the methods' reasons, joined by " | " in the engine, as a list. */
+function NotDeterminable({ reason }: { reason: string }) {
+  const parts = reason.split(" | ").filter((p) => p.trim() !== "");
+  if (parts.length < 2)
+    return (
+      <p>
+        <strong>Not determinable.</strong> {reason}
+      </p>
+    );
+  return (
+    <>
+      <p>
+        <strong>Not determinable.</strong> What each method found:
+      </p>
+      <ul className="compact-list">
+        {parts.map((p, i) => (
+          <li key={i}>{p}</li>
+        ))}
+      </ul>
+    </>
   );
 }
