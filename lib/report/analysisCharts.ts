@@ -42,7 +42,12 @@ export function analysisCharts(result: AnalysisResult): ChartSpec[] {
   ];
   if (exRows.some((r) => r.vco2MlMin !== undefined)) {
     charts.push(
-      vSlopeChart({ vo2MlMin: col(exRows, "vo2MlMin"), vco2MlMin: col(exRows, "vco2MlMin"), vt1Vo2MlMin: vt1.vo2MlMin.value }),
+      vSlopeChart({
+        vo2MlMin: col(exRows, "vo2MlMin"),
+        vco2MlMin: col(exRows, "vco2MlMin"),
+        vt1Vo2MlMin: vt1.vo2MlMin.value,
+        fit: vSlopeLines(result, rows),
+      }),
     );
   }
   if (rows.some((r) => r.veLMin !== undefined)) {
@@ -93,6 +98,26 @@ export function analysisCharts(result: AnalysisResult): ChartSpec[] {
     );
   }
   return charts;
+}
+
+/**
+ * The V-slope method's two lines for the chart, over the VO2 range of the display rows in its data window, or null
+ * when the method gave no estimate. The thresholds layer owns the fit; this only reads it.
+ */
+function vSlopeLines(result: AnalysisResult, rows: readonly BreathRow[]) {
+  const m = result.thresholds.methods.find((e) => e.id === "vt1-v-slope");
+  if (!m || m.vo2MlMin.value === null) return null;
+  const { s1, s2, intercept1, intercept2, intersectionVo2 } = m.fit;
+  if (s1 == null || s2 == null || intercept1 == null || intercept2 == null || intersectionVo2 == null) return null;
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const r of rows)
+    if (r.timeS >= m.window.startS && r.timeS <= m.window.endS && typeof r.vo2MlMin === "number") {
+      lo = Math.min(lo, r.vo2MlMin);
+      hi = Math.max(hi, r.vo2MlMin);
+    }
+  if (!(lo < intersectionVo2 && intersectionVo2 < hi)) return null;
+  return { s1, s2, intercept1, intercept2, fromVo2MlMin: lo, crossVo2MlMin: intersectionVo2, toVo2MlMin: hi };
 }
 
 function nearest(rows: readonly BreathRow[], timeS: number): BreathRow | undefined {

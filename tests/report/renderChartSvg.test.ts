@@ -176,6 +176,29 @@ describe("standard chart builders", () => {
     expect(spec.markers).toEqual([{ x: 1200, label: "VT1", kind: "vt1" }]);
     expect(spec.refLines).toEqual([{ slope: 1, intercept: 0, label: "slope 1 (VCO2 = VO2)" }]);
   });
+  it("V-slope: the method's two lines meet at their crossing and run over its VO2 range", () => {
+    // invented lines: VCO2 = 0.95·VO2 − 20 below, 1.35·VO2 − 600 above; they cross at VO2 = 580 / 0.40 = 1450 mL/min
+    const fit = {
+      s1: 0.95,
+      intercept1: -20,
+      s2: 1.35,
+      intercept2: -600,
+      fromVo2MlMin: 600,
+      crossVo2MlMin: 1450,
+      toVo2MlMin: 2400,
+    };
+    const spec = vSlopeChart({ vo2MlMin: [600, 2400], vco2MlMin: [550, 2640], vt1Vo2MlMin: 1500, fit });
+    const lines = spec.series[1];
+    expect(lines.kind).toBe("line");
+    expect(lines.name).toBe("V-slope lines (S1 0.95, S2 1.35)");
+    expect(lines.points[0]).toEqual([600, 550]);
+    expect(lines.points[1][0]).toBe(1450);
+    expect(lines.points[1][1]).toBeCloseTo(1357.5, 9);
+    expect(1.35 * 1450 - 600).toBeCloseTo(1357.5, 9);
+    expect(lines.points[2]).toEqual([2400, 2640]);
+    checkWellFormed(renderChartSvg(spec));
+    expect(vSlopeChart({ vo2MlMin: [], vco2MlMin: [], fit: null }).series).toHaveLength(1);
+  });
   it("time-based charts draw time in minutes (s / 60) and place VT markers in minutes", () => {
     const ve = ventilatoryEquivalentsChart({
       timeS,
