@@ -227,6 +227,19 @@ export interface DetectThresholdsOptions {
    */
   dropLowVt2BelowVt1?: boolean;
   /**
+   * Do not report an RCP candidate that no sign of respiratory compensation follows: past the RCP, VE/VCO2 rises and
+   * PETCO2 falls until the end of exercise (RCP definition, clinical reference §5.4 — recalled; Whipp, Davis & Wasserman
+   * 1989, Respir Physiol — recalled, not seen). When, from the 20-s bins within ±30 s of the candidate to those of the
+   * last 30 s of exercise, VE/VCO2 rises by less than 2 % and PETCO2 falls by less than 0.5 mmHg, VT2 is "not
+   * determinable" with that reason (issue `vt2-compensation-not-sustained`). The candidate still bounds the data the VT1
+   * methods read, so VT1 does not move. Both cut-offs are our choice, set on synthetic tests (invented data;
+   * README-thresholds round 14): on one moderate 240-test bank of each of six models, RCPs reported on the 204 tests
+   * without one fell from 45 to 21, and 9 of 1 201 calls on tests with an RCP were dropped, 8 of them 10–41 % off. Needs
+   * PETCO2; without it nothing is dropped.
+   * @default true
+   */
+  dropUnsustainedVt2?: boolean;
+  /**
    * Warn when exercise starts with a step this many times larger than the ramp's own rise over the first 75 s
    * (`initialStep`), and mark a VT1 within 3 minutes of it low confidence. 3 is our choice: ≤ 2.0 in 99 % of the
    * main and variant synthetic tests (ramps after unloaded pedalling), 5–10 on treadmill protocols that jump from
@@ -302,6 +315,46 @@ interface Vt1WindowRules {
   vt1BeyondVt2S: number;
   vt1MinSpanAboveS: number;
   vt1StopAtVeVco2Rise: boolean;
+}
+
+/** Smallest VE/VCO2 rise (fraction) and PETCO2 fall (mmHg) from an RCP candidate to the end that still count as compensation. */
+const SUSTAINED_RATIO_RISE = 0.02;
+const SUSTAINED_PETCO2_FALL_MMHG = 0.5;
+
+/**
+ * VE/VCO2 (ratio of bin-mean sums) and PETCO2 (mean of bin means) around an RCP candidate (bins within ±30 s) and over
+ * the last 30 s of the series: how much the ratio rose (fraction) and PETCO2 fell (mmHg) from one to the other. Null
+ * when either window holds no bin with the signals.
+ */
+export function compensationAfter(
+  series: ThresholdSeries,
+  timeS: number,
+): { ratioRise: number; petco2FallMmHg: number | null } | null {
+  const end = series.span.endS;
+  const window = (a: number, b: number) => {
+    let ve = 0;
+    let vco2 = 0;
+    let pet = 0;
+    let nPet = 0;
+    for (let i = 0; i < series.timeS.length; i++) {
+      const t = series.timeS[i];
+      if (t < a || t > b) continue;
+      if (Number.isFinite(series.veLMin[i]) && Number.isFinite(series.vco2MlMin[i])) {
+        ve += series.veLMin[i];
+        vco2 += series.vco2MlMin[i];
+      }
+      if (Number.isFinite(series.petco2MmHg[i])) {
+        pet += series.petco2MmHg[i];
+        nPet++;
+      }
+    }
+    return { ratio: vco2 > 0 ? ve / vco2 : NaN, pet: nPet > 0 ? pet / nPet : NaN };
+  };
+  const at = window(timeS - 30, timeS + 30);
+  const last = window(end - 30, end);
+  if (!Number.isFinite(at.ratio) || !Number.isFinite(last.ratio)) return null;
+  const fall = at.pet - last.pet;
+  return { ratioRise: last.ratio / at.ratio - 1, petco2FallMmHg: Number.isFinite(fall) ? fall : null };
 }
 
 /**
@@ -483,6 +536,32 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
   // VT2 keeps the single-pass value: resampling around a 5-bin smoothed series rounds the compensation corner
   // near the end of the record and pulled the resampled median early (about −2 % on both synthetic models)
   let vt2 = toEstimate("vt2", core.vt2, core.vt2TimeS, series, test, boot?.vt2 ?? null, false);
+  // past the RCP VE/VCO2 rises and PETCO2 falls to the end of exercise: a candidate that neither follows is not reported
+  // (it still bounded the data the VT1 methods read, as any RCP candidate does)
+  const after =
+    (options.dropUnsustainedVt2 ?? true) && vt2.vo2MlMin.value !== null && core.vt2TimeS !== null
+      ? compensationAfter(series, core.vt2TimeS)
+      : null;
+  if (
+    after &&
+    vt2.vo2MlMin.value !== null &&
+    after.petco2FallMmHg !== null &&
+    after.ratioRise < SUSTAINED_RATIO_RISE &&
+    after.petco2FallMmHg < SUSTAINED_PETCO2_FALL_MMHG
+  ) {
+    const at = Math.round(vt2.vo2MlMin.value);
+    vt2 = emptyEstimate(
+      "vt2",
+      `no respiratory compensation follows the RCP candidate (${at} mL/min): from there to the last 30 s of exercise VE/VCO2 changes by ${(100 * after.ratioRise).toFixed(1)} % (an RCP needs a rise of ${100 * SUSTAINED_RATIO_RISE} % or more) and PETCO2 by ${(-after.petco2FallMmHg).toFixed(1)} mmHg (or a fall of ${SUSTAINED_PETCO2_FALL_MMHG} mmHg or more)`,
+    );
+    issues.push(
+      makeIssue(
+        "info",
+        "vt2-compensation-not-sustained",
+        `An RCP candidate at ${at} mL/min is not reported: neither VE/VCO2 rises nor PETCO2 falls from there to the end of exercise, as they do past a respiratory compensation point. Set VT2 by review if the test shows one.`,
+      ),
+    );
+  }
   if (
     (options.dropLowVt2BelowVt1 ?? true) &&
     vt1.vo2MlMin.value !== null &&

@@ -288,8 +288,11 @@ describe("a lone RCP candidate at or below VT1 is not reported", () => {
   it("VT2 is not determinable, with the candidate named; VT1 keeps its own confidence", () => {
     for (const syn of cases) {
       const test = conditionTable(syn.table);
-      const on = detectThresholds(test, { bootstrap: 0 });
-      const off = detectThresholds(test, { bootstrap: 0, dropLowVt2BelowVt1: false });
+      // this rule alone: the later rule that drops a candidate no compensation follows is off in both runs
+      const on = detectThresholds(test, { bootstrap: 0, dropUnsustainedVt2: false });
+      const off = detectThresholds(test, { bootstrap: 0, dropLowVt2BelowVt1: false, dropUnsustainedVt2: false });
+      // with every rule on (the defaults) no RCP is reported either
+      expect(detectThresholds(test, { bootstrap: 0 }).vt2.vo2MlMin.value).toBeNull();
       // without the rule: a low-confidence candidate at or below VT1, and both confidences lowered
       expect(off.vt2.confidence).toBe("low");
       expect(off.vt2.vo2MlMin.value!).toBeLessThanOrEqual(off.vt1.vo2MlMin.value!);
