@@ -552,7 +552,7 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
     const at = Math.round(vt2.vo2MlMin.value);
     vt2 = emptyEstimate(
       "vt2",
-      `no respiratory compensation follows the RCP candidate (${at} mL/min): from there to the last 30 s of exercise VE/VCO2 changes by ${(100 * after.ratioRise).toFixed(1)} % (an RCP needs a rise of ${100 * SUSTAINED_RATIO_RISE} % or more) and PETCO2 by ${(-after.petco2FallMmHg).toFixed(1)} mmHg (or a fall of ${SUSTAINED_PETCO2_FALL_MMHG} mmHg or more)`,
+      `no respiratory compensation follows the RCP candidate (${at} mL/min): from there to the last 30 s of exercise VE/VCO2 changes by ${signed(100 * after.ratioRise)} % and PETCO2 by ${signed(-after.petco2FallMmHg)} mmHg, while past an RCP VE/VCO2 rises (here by ${100 * SUSTAINED_RATIO_RISE} % or more) or PETCO2 falls (by ${SUSTAINED_PETCO2_FALL_MMHG} mmHg or more)`,
     );
     issues.push(
       makeIssue(
@@ -620,6 +620,11 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
     series: { binS: series.binS, span: series.span, averaging: series.averaging, bins: series.timeS.length },
   };
   return applyThresholdOverrides(test, result, options.overrides ?? [], series);
+}
+
+/** A change with its sign, one decimal ("+1.2", "−0.4"). */
+function signed(x: number): string {
+  return `${x >= 0 ? "+" : "−"}${Math.abs(x).toFixed(1)}`;
 }
 
 /** Append a reason to an estimate's reason list. */

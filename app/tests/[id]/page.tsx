@@ -732,7 +732,7 @@ function NotDeterminable({ reason }: { reason: string }) {
   if (parts.length < 2)
     return (
       <p>
-        <strong>Not determinable.</strong> {reason}
+        <strong>Not determinable.</strong> {reason.charAt(0).toUpperCase() + reason.slice(1)}
       </p>
     );
   return (
