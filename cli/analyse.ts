@@ -172,7 +172,7 @@ function formatText(r: CliAnalysisJson): string {
     `peak RER ${n(r.peak.rer, 2)}, HR ${n(r.peak.hrBpm, 0, " bpm")}, work rate ${n(r.peak.workW, 0, " W")}`,
     `VT1             ${n(r.vt1.vo2MlMin, 0, " mL/min")} (confidence ${r.vt1.confidence})`,
     `VT2             ${n(r.vt2.vo2MlMin, 0, " mL/min")} (confidence ${r.vt2.confidence})`,
-    `VE/VCO2 slope   ${n(r.veVco2Slope.toRcp, 1)} to RCP, ${n(r.veVco2Slope.whole, 1)} whole exercise`,
+    `VE/VCO2 slope   ${n(r.veVco2Slope.toRcp, 1)} (${r.veVco2Slope.toRcpFittedTo.replace(/^VE\/VCO2 slope,? /, "")}); ${n(r.veVco2Slope.whole, 1)} (whole exercise, breath by breath)`,
     `OUES            ${n(r.oues)}`,
     `ΔVO2/ΔWR        ${n(r.dVo2dWr, 1, " mL/min/W")}`,
     `breathing reserve ${r.breathingReserve.pct === null ? "not determinable (give --mvv-l-min or --fev1-l)" : n(r.breathingReserve.pct, 0, " %")}`,

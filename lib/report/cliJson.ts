@@ -1,6 +1,6 @@
 import type { Issue, Measured } from "../core";
 import type { AnalysisResult } from "../analysis";
-import type { ThresholdEstimate } from "../thresholds";
+import { slopeToVt2Name, type ThresholdEstimate } from "../thresholds";
 
 /**
  * The CLI's JSON object: a stable projection of the analysis result, documented by
@@ -30,6 +30,8 @@ export interface CliAnalysisJson {
   vt2: CliThreshold;
   veVco2Slope: {
     toRcp: number | null;
+    /** What the slope "to RCP" was fitted to, in words (the RCP, the whole exercise, or a fitted break). */
+    toRcpFittedTo: string;
     toRcpIntercept: number | null;
     whole: number | null;
     wholeIntercept: number | null;
@@ -180,6 +182,7 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
     vt2: threshold(result.thresholds.vt2, ix.atVt2),
     veVco2Slope: {
       toRcp: nd("VE/VCO2 slope to RCP", ix.veVco2.slopeToVt2.slope),
+      toRcpFittedTo: slopeToVt2Name(ix.veVco2.slopeToVt2),
       toRcpIntercept: val(ix.veVco2.slopeToVt2.intercept),
       whole: nd("VE/VCO2 slope, whole exercise", ix.veVco2.slopeWholeExercise.slope),
       wholeIntercept: val(ix.veVco2.slopeWholeExercise.intercept),

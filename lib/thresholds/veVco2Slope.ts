@@ -135,7 +135,7 @@ export function lineIndexFromFit(
 export function slopeToVt2Name(line: LineIndex): string {
   switch (line.slope.provenance.method) {
     case "ve-vco2-slope-to-vt2-no-compensation":
-      return "VE/VCO2 slope, whole exercise (no respiratory compensation reached)";
+      return "VE/VCO2 slope, whole exercise on 20-s bin means (no respiratory compensation reached)";
     case "ve-vco2-slope-below-fitted-break":
       return "VE/VCO2 slope to a fitted break (RCP not determinable)";
     default:

@@ -99,6 +99,9 @@ describe("cpet analyse: full output on real and invented files", () => {
     );
     const json = JSON.parse(out);
     expect(schema.safeParse(json).success).toBe(true);
+    // this demo reaches no determinable RCP: the slope "to RCP" says what it was fitted to instead
+    expect(json.vt2.vo2MlMin).toBeNull();
+    expect(json.veVco2Slope.toRcpFittedTo).toBe("VE/VCO2 slope to a fitted break (RCP not determinable)");
     // The schema really constrains: a missing stable key or a wrong confidence word is refused.
     const { vt1: _omit, ...withoutVt1 } = json;
     expect(schema.safeParse(withoutVt1).success).toBe(false);

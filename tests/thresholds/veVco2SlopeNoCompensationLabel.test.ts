@@ -44,7 +44,9 @@ describe("VE/VCO2 slope below the RCP with no compensation: the label says what 
     expect(r.slopeToVt2.intercept.value!).toBeCloseTo(3, 6);
     expect(below.provenance.inputs?.petco2FallMmHg).toBe(0);
     // the name on screens, report and chart never says "to RCP" when no RCP was reached
-    expect(slopeToVt2Name(r.slopeToVt2)).toBe("VE/VCO2 slope, whole exercise (no respiratory compensation reached)");
+    expect(slopeToVt2Name(r.slopeToVt2)).toBe(
+      "VE/VCO2 slope, whole exercise on 20-s bin means (no respiratory compensation reached)",
+    );
     // with an RCP given, the same data are named "to RCP"
     const atRcp = veVco2Slope(straightLineTest(0), { vt2: { timeS: test0End() - 120, vo2MlMin: 1000 } });
     expect(slopeToVt2Name(atRcp.slopeToVt2)).toBe("VE/VCO2 slope, start of exercise to RCP");
