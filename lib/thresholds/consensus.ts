@@ -108,6 +108,9 @@ export function weightedMedian(values: readonly number[], weights: readonly numb
   return values[order[order.length - 1]];
 }
 
+/** Joins each method's reason in a "not determinable" consensus reason; screens split on it to list them. */
+export const METHOD_REASON_SEPARATOR = " | ";
+
 export interface Consensus {
   vo2MlMin: number | null;
   confidence: ThresholdConfidence;
@@ -131,7 +134,7 @@ export function combineEstimates(methods: readonly MethodEstimate[], options: Co
   const pref = options.preference ?? [];
   const usable = methods.filter((m) => m.quality !== "failed" && m.vo2MlMin.value !== null);
   if (usable.length === 0) {
-    const why = methods.map((m) => `${m.label}: ${m.vo2MlMin.reason ?? m.reasons.join("; ")}`).join(" | ");
+    const why = methods.map((m) => `${m.label}: ${m.vo2MlMin.reason ?? m.reasons.join("; ")}`).join(METHOD_REASON_SEPARATOR);
     return { vo2MlMin: null, confidence: "not-determinable", methodIds: [], band: null, reason: why || "no method could run" };
   }
   const v = (m: MethodEstimate) => m.vo2MlMin.value as number;

@@ -32,9 +32,10 @@ export interface ThresholdSeriesOptions {
   /**
    * Rows of exercise whose median spacing is at least this many seconds are time averages exported by the cart, not
    * single breaths (`AVERAGED_ROW_INTERVAL_S`, rowSpacing.ts), and the spike guard is not applied to them. A 9-row
-   * running median then spans 90 s or more: at the end of the ramp it lags the steepening VE and VCO2, and with the little scatter left after
-   * averaging those last rows, where the respiratory compensation shows, stood out as "spikes" (synthetic tests,
-   * invented data, re-averaged to 10 s: 17 of 48 exercise rows set aside in one test, the last 50 s among them).
+   * running median then spans 90 s or more: at the end of the ramp it lags the steepening VE and VCO2, and with the
+   * little scatter left after averaging those last rows, where the respiratory compensation shows, stood out as
+   * "spikes" (synthetic tests, invented data, re-averaged to 10 s: 17 of 48 exercise rows set aside in one test, the
+   * last 50 s among them).
    * Single-breath artefacts are diluted by the averaging and gross ones are still set aside by the conditioning's
    * local-deviation rule. @default 6
    */

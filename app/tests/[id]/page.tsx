@@ -5,7 +5,7 @@ import type { Measured } from "@/lib/core";
 import { EQUATIONS } from "@/lib/predicted";
 import { listCutoffChoices } from "@/lib/interpret";
 import { analysisCharts } from "@/lib/report";
-import { slopeToVt2Name, type ThresholdEstimate } from "@/lib/thresholds";
+import { METHOD_REASON_SEPARATOR, slopeToVt2Name, type ThresholdEstimate } from "@/lib/thresholds";
 import { displayUnit, formatClock, formatNumber } from "@/lib/units";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { getTest, listAnalysisVersions } from "@/lib/store/tests";
@@ -726,9 +726,9 @@ function ColumnTable({ columns }: { columns: import("@/lib/breath").ColumnDecisi
   );
 }
 
-/** "Not determinable" with its reason; the methods' reasons, joined by " | " in the engine, as a list. */
+/** "Not determinable" with its reason; the methods' reasons, joined by the engine, as a list. */
 function NotDeterminable({ reason }: { reason: string }) {
-  const parts = reason.split(" | ").filter((p) => p.trim() !== "");
+  const parts = reason.split(METHOD_REASON_SEPARATOR).filter((p) => p.trim() !== "");
   if (parts.length < 2)
     return (
       <p>
