@@ -567,7 +567,7 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
     (options.dropLowVt2BelowVt1 ?? true) &&
     vt1.vo2MlMin.value !== null &&
     vt2.vo2MlMin.value !== null &&
-    vt2.confidence === "low" &&
+    core.vt2.confidence === "low" &&
     vt1.confidence !== "low" &&
     vt2.vo2MlMin.value <= vt1.vo2MlMin.value
   ) {
@@ -764,7 +764,15 @@ function toEstimate(
     c = { ...c, vo2MlMin: bootstrap.medianMlMin };
     timeS = timeAtLevel(series, series.vo2Trend, c.vo2MlMin as number);
     prov.inputs = { ...prov.inputs, value: "median of the resampled consensus values" };
+  } else if (outsideAgreeingMethods(c)) {
+    // the pooled value (weighted median of every usable method) lies outside the range of the methods that agree: no
+    // agreeing pair supports it (round 15: such VT2 values err about twice as much as other "moderate" ones)
+    confidence = "low";
+    reason = `the pooled value lies outside the range of the methods that agree (${Math.round(c.band?.lowMlMin ?? NaN)}–${Math.round(c.band?.highMlMin ?? NaN)} mL/min); confirm by review`;
   }
+  // the band always holds the reported value
+  if (band && c.vo2MlMin !== null)
+    band = { lowMlMin: Math.min(band.lowMlMin, c.vo2MlMin), highMlMin: Math.max(band.highMlMin, c.vo2MlMin) };
   if (confidence === "high" && band && c.vo2MlMin !== null && (band.highMlMin - band.lowMlMin) / c.vo2MlMin > 0.2) {
     confidence = "moderate";
     reason = "resampling band wider than 20 % of the value";
@@ -784,6 +792,19 @@ function toEstimate(
     ...(reason ? { reason } : {}),
     bootstrap,
   };
+}
+
+/**
+ * True when a consensus of two or more agreeing methods reports a value outside their range: the pooled value is the
+ * weighted median of every usable method (`combineEstimates`), so a heavy method that disagrees can carry it outside.
+ */
+export function outsideAgreeingMethods(c: Consensus): boolean {
+  return (
+    c.vo2MlMin !== null &&
+    c.band !== null &&
+    (c.confidence === "moderate" || c.confidence === "high") &&
+    (c.vo2MlMin < c.band.lowMlMin || c.vo2MlMin > c.band.highMlMin)
+  );
 }
 
 /**
