@@ -9,7 +9,9 @@ export function thresholdMethodWords(t: ThresholdEstimate, result: ThresholdResu
     return `not determinable: ${t.reason ?? t.vo2MlMin.reason ?? "no method gave an estimate"}`;
   const labels = result.methods.filter((m) => t.methodIds.includes(m.id)).map((m) => m.label);
   const band = t.band ? `, band ${Math.round(t.band.lowMlMin)}–${Math.round(t.band.highMlMin)} mL/min` : "";
-  return `consensus of ${labels.join(", ") || "the available methods"} (confidence ${t.confidence}${band})`;
+  // a confidence below "high" says why (methods that disagree, one method only, a wide band, a stepped protocol, …)
+  const why = t.reason && t.confidence !== "high" ? `; why: ${t.reason}` : "";
+  return `consensus of ${labels.join(", ") || "the available methods"} (confidence ${t.confidence}${band}${why})`;
 }
 
 /** Rounded for prose (display only; the engine keeps full precision). */

@@ -170,7 +170,7 @@ export function combineEstimates(methods: readonly MethodEstimate[], options: Co
       confidence === "high"
         ? undefined
         : !allAgree
-          ? `${usable.length - best.length} method(s) disagreed beyond ${Math.round(tol * 100)} %`
+          ? `${usable.length - best.length === 1 ? "one method disagreed" : `${usable.length - best.length} methods disagreed`} beyond ${Math.round(tol * 100)} %`
           : `methods agree within ${Math.round(spread * 100)} %`;
     return {
       vo2MlMin: est,

@@ -3,6 +3,7 @@ import { conditionTable } from "../../lib/signal";
 import { generateSyntheticTest } from "../../lib/synthetic";
 import { buildThresholdSeries, detectThresholds, outsideAgreeingMethods } from "../../lib/thresholds/detectThresholds";
 import { combineEstimates } from "../../lib/thresholds/consensus";
+import { thresholdMethodWords } from "../../lib/analysis/draftExtras";
 import { rcpVeVco2 } from "../../lib/thresholds/rcpVeVco2";
 import type { MethodEstimate, MethodQuality } from "../../lib/thresholds/thresholdTypes";
 
@@ -69,6 +70,8 @@ describe("a pooled threshold value outside the methods that agree", () => {
     expect(r.vt2.reason).toMatch(/outside the range of the methods that agree/);
     expect(r.vt2.band!.lowMlMin).toBeLessThanOrEqual(v);
     expect(r.vt2.band!.highMlMin).toBeGreaterThanOrEqual(v);
+    // the report's method words say why the confidence is low, after the band
+    expect(thresholdMethodWords(r.vt2, r)).toMatch(/\(confidence low, band \d+–\d+ mL\/min; why: the pooled value lies outside/);
   });
 
   it("never leaves a reported value outside its band (ten main-model tests, both thresholds)", () => {

@@ -672,6 +672,12 @@ function ThresholdCard({
               ) : (
                 ""
               )}
+              {t.reason && t.confidence !== "high" ? (
+                <>
+                  <br />
+                  <small data-testid={`confidence-reason-${which}`}>Why: {t.reason}</small>
+                </>
+              ) : null}
             </p>
           )}
         </>
