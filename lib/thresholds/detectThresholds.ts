@@ -228,15 +228,16 @@ export interface DetectThresholdsOptions {
    */
   dropLowVt2BelowVt1?: boolean;
   /**
-   * Do not report an RCP candidate that no sign of respiratory compensation follows: past the RCP, VE/VCO2 rises and
+   * Do not report an RCP candidate that respiratory compensation does not follow: past the RCP, VE/VCO2 rises and
    * PETCO2 falls until the end of exercise (RCP definition, clinical reference §5.4 — recalled; Whipp, Davis & Wasserman
    * 1989, Respir Physiol — recalled, not seen). When, from the 20-s bins within ±30 s of the candidate to those of the
-   * last 30 s of exercise, VE/VCO2 rises by less than 2 % and PETCO2 falls by less than 0.5 mmHg, VT2 is "not
-   * determinable" with that reason (issue `vt2-compensation-not-sustained`). The candidate still bounds the data the VT1
-   * methods read, so VT1 does not move. Both cut-offs are our choice, set on synthetic tests (invented data;
-   * README-thresholds round 14): on one moderate 240-test bank of each of six models, RCPs reported on the 204 tests
-   * without one fell from 45 to 21, and 9 of 1 201 calls on tests with an RCP were dropped, 8 of them 10–41 % off. Needs
-   * PETCO2; without it nothing is dropped.
+   * last 30 s of exercise, PETCO2 falls by less than 0.5 mmHg and VE/VCO2 does not rise by 2 % or more while PETCO2
+   * falls at all (`compensationFollows`), VT2 is "not determinable" with that reason (issue
+   * `vt2-compensation-not-sustained`). The candidate still bounds the data the VT1 methods read, so VT1 does not move.
+   * The rule and cut-offs are our choice, set on synthetic tests (invented data; README-thresholds rounds 14–15): on one
+   * moderate 240-test bank of each of six models, RCPs reported on the 204 tests without one fell from 49 to 13
+   * ("moderate" or "high" 12 to 1), and 11 of 1 202 calls on tests with an RCP were dropped, 9 of them more than 5 % off.
+   * Needs PETCO2; without it nothing is dropped.
    * @default true
    */
   dropUnsustainedVt2?: boolean;
@@ -318,9 +319,19 @@ interface Vt1WindowRules {
   vt1StopAtVeVco2Rise: boolean;
 }
 
-/** Smallest VE/VCO2 rise (fraction) and PETCO2 fall (mmHg) from an RCP candidate to the end that still count as compensation. */
+/** Smallest VE/VCO2 rise (fraction) and PETCO2 fall (mmHg) from an RCP candidate to the end that count as compensation. */
 const SUSTAINED_RATIO_RISE = 0.02;
 const SUSTAINED_PETCO2_FALL_MMHG = 0.5;
+
+/**
+ * Respiratory compensation follows an RCP candidate when PETCO2 falls clearly (≥ 0.5 mmHg) to the end of exercise, or
+ * when VE/VCO2 rises clearly (≥ 2 %) while PETCO2 falls at all: both signs point the same way and one of them clearly
+ * (our rule, README-thresholds rounds 14–15; round 14 took either sign alone, and a VE/VCO2 rise with PETCO2 flat or
+ * rising let 17 of 22 false RCPs through on six synthetic models).
+ */
+export function compensationFollows(ratioRise: number, petco2FallMmHg: number): boolean {
+  return petco2FallMmHg >= SUSTAINED_PETCO2_FALL_MMHG || (ratioRise >= SUSTAINED_RATIO_RISE && petco2FallMmHg > 0);
+}
 
 /**
  * VE/VCO2 (ratio of bin-mean sums) and PETCO2 (mean of bin means) around an RCP candidate (bins within ±30 s) and over
@@ -537,8 +548,8 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
   // VT2 keeps the single-pass value: resampling around a 5-bin smoothed series rounds the compensation corner
   // near the end of the record and pulled the resampled median early (about −2 % on both synthetic models)
   let vt2 = toEstimate("vt2", core.vt2, core.vt2TimeS, series, test, boot?.vt2 ?? null, false);
-  // past the RCP VE/VCO2 rises and PETCO2 falls to the end of exercise: a candidate that neither follows is not reported
-  // (it still bounded the data the VT1 methods read, as any RCP candidate does)
+  // past the RCP PETCO2 falls and VE/VCO2 rises to the end of exercise: a candidate not followed by both signs, one of
+  // them clearly, is not reported (it still bounded the data the VT1 methods read, as any RCP candidate does)
   const after =
     (options.dropUnsustainedVt2 ?? true) && vt2.vo2MlMin.value !== null && core.vt2TimeS !== null
       ? compensationAfter(series, core.vt2TimeS)
@@ -547,19 +558,18 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
     after &&
     vt2.vo2MlMin.value !== null &&
     after.petco2FallMmHg !== null &&
-    after.ratioRise < SUSTAINED_RATIO_RISE &&
-    after.petco2FallMmHg < SUSTAINED_PETCO2_FALL_MMHG
+    !compensationFollows(after.ratioRise, after.petco2FallMmHg)
   ) {
     const at = Math.round(vt2.vo2MlMin.value);
     vt2 = emptyEstimate(
       "vt2",
-      `no respiratory compensation follows the RCP candidate (${at} mL/min): from there to the last 30 s of exercise VE/VCO2 changes by ${signed(100 * after.ratioRise)} % and PETCO2 by ${signed(-after.petco2FallMmHg)} mmHg, while past an RCP VE/VCO2 rises (here by ${100 * SUSTAINED_RATIO_RISE} % or more) or PETCO2 falls (by ${SUSTAINED_PETCO2_FALL_MMHG} mmHg or more)`,
+      `no respiratory compensation follows the RCP candidate (${at} mL/min): from there to the last 30 s of exercise PETCO2 changes by ${signed(-after.petco2FallMmHg)} mmHg and VE/VCO2 by ${signed(100 * after.ratioRise)} %, while past an RCP PETCO2 falls (here by ${SUSTAINED_PETCO2_FALL_MMHG} mmHg or more, or at all with VE/VCO2 rising by ${100 * SUSTAINED_RATIO_RISE} % or more)`,
     );
     issues.push(
       makeIssue(
         "info",
         "vt2-compensation-not-sustained",
-        `An RCP candidate at ${at} mL/min is not reported: neither VE/VCO2 rises nor PETCO2 falls from there to the end of exercise, as they do past a respiratory compensation point. Set VT2 by review if the test shows one.`,
+        `An RCP candidate at ${at} mL/min is not reported: PETCO2 does not fall clearly from there to the end of exercise, nor VE/VCO2 rise while PETCO2 falls, as past a respiratory compensation point. Set VT2 by review if the test shows one.`,
       ),
     );
   }

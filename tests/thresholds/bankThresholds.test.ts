@@ -59,12 +59,14 @@ describe(`threshold accuracy, main generator (${size} tests)`, () => {
   // VT2 no-calls 5.0 → 6.25 % here (one test) since a lone RCP candidate at or below VT1 is no longer reported: on the
   // six 240-test banks at all noise levels every such candidate was 8–49 % early (README-thresholds.md, round 8); and
   // 6.25 → 7.5 % (one more test) since a candidate that no compensation follows is set aside (round 14: of the 9 true-RCP
-  // calls so dropped on six 240-test models, 8 were 10–41 % off).
-  it("keeps VT2 at the level reached (moderate: median ≤ 4 %, P90 ≤ 10 %, no-calls ≤ 8 %)", () => {
+  // calls so dropped on six 240-test models, 8 were 10–41 % off); 7.5 → 8.75 % (one more test) since compensation needs
+  // both signs in the same direction, one clearly (round 15: false RCPs on the 204 tests without one 22 → 13, "moderate"
+  // or "high" 7 → 1, for 2 more of 1 202 true calls set aside).
+  it("keeps VT2 at the level reached (moderate: median ≤ 4 %, P90 ≤ 10 %, no-calls ≤ 9 %)", () => {
     const s = stat(main, "vt2-consensus", "moderate");
     expect(s.medianPct).toBeLessThanOrEqual(4); // our regression bound at the level reached (README-thresholds.md), not a published value; tighter than the goal ≤ 5 %
     expect(s.p90Pct).toBeLessThanOrEqual(10); // our regression bound at the level reached (README-thresholds.md), not a published value
-    expect(s.noCallPct).toBeLessThanOrEqual(8); // our regression bound at the level reached (README-thresholds.md), not a published value
+    expect(s.noCallPct).toBeLessThanOrEqual(9); // our regression bound at the level reached (README-thresholds.md), not a published value
   });
 
   // Goal: VE/VCO2 slope to the detected RCP within ±5 % of truth in 90 % of tests (no-calls count as misses). Since round

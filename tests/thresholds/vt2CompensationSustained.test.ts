@@ -12,7 +12,7 @@ import {
   secondOpinionSpec,
   type SyntheticTruth,
 } from "../../lib/synthetic";
-import { compensationAfter, detectThresholds } from "../../lib/thresholds/detectThresholds";
+import { compensationAfter, compensationFollows, detectThresholds } from "../../lib/thresholds/detectThresholds";
 import { handBuiltSeries } from "./handBuiltSeries";
 
 // Past the respiratory compensation point VE/VCO2 rises and PETCO2 falls to the end of exercise (common practice). An
@@ -103,5 +103,17 @@ describe("RCPs on synthetic tests with and without one by construction (models w
     expect(counts.falseOn).toBeLessThanOrEqual(Math.floor(counts.falseOff / 2));
     expect(counts.trueLost).toBeLessThanOrEqual(Math.ceil(0.02 * counts.withRcp));
     expect(counts.trueLostWithin10).toBeLessThanOrEqual(1);
+  });
+});
+
+describe("the compensation rule (both signs the same way, one of them clearly)", () => {
+  it("takes a clear PETCO2 fall alone, or a clear VE/VCO2 rise with PETCO2 falling at all", () => {
+    expect(compensationFollows(0, 0.5)).toBe(true); // PETCO2 falls by the cut-off, VE/VCO2 flat
+    expect(compensationFollows(0.02, 0.1)).toBe(true); // VE/VCO2 rises by the cut-off, PETCO2 falls a little
+  });
+  it("refuses a VE/VCO2 rise with PETCO2 flat or rising, and small changes of both", () => {
+    expect(compensationFollows(0.065, 0)).toBe(false); // the round-15 false RCPs: VE/VCO2 up 2–7 %, PETCO2 not falling
+    expect(compensationFollows(0.065, -0.6)).toBe(false);
+    expect(compensationFollows(0.019, 0.49)).toBe(false);
   });
 });
