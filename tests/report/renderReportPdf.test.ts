@@ -185,6 +185,15 @@ describe("renderReportPdf", () => {
         generated: [],
       },
     };
+    // Units at every position of a line in free text (issue messages), by construction as for the arrows.
+    model.issues = [
+      ...model.issues,
+      ...Array.from({ length: 60 }, (_, i) => ({
+        severity: "info" as const,
+        code: "invented-layout-check",
+        message: `${"y".repeat(i + 1)} VO2 1234 mL/min, 15.2 mL/kg/min, VE/VCO2 31.0, PETCO2 38 mmHg, 12.3 mL/beat`,
+      })),
+    ];
     const text = rawText(await renderReportPdf(model));
     expect(text).toMatch(/\bSources\b/);
     expect(text).not.toMatch(/Source\s*\n\s*s\b/);
@@ -193,6 +202,8 @@ describe("renderReportPdf", () => {
     expect(text).not.toMatch(/determin\s*\n\s*able/);
     expect(text).toContain("% pred.");
     expect(text).not.toMatch(/mL\/\s*\n\s*(kg\/)?min/); // one-word units stay whole
+    expect(text).not.toMatch(/mL\/kg\/\s*\n\s*min|VE\/\s*\n\s*VCO2|mL\/\s*\n\s*beat/);
+    expect(text.split("15.2 mL/kg/min").length - 1).toBeGreaterThanOrEqual(30);
     expect(text.split("628 mL/min -> 582 mL/min").length - 1).toBeGreaterThanOrEqual(30);
   });
 });

@@ -58,21 +58,32 @@ function formatSignedAt(iso: string | undefined): string {
 const NBSP = "\u00a0";
 
 /**
- * Keep tokens that must not be split over two lines in one piece: the arrow "->" (the line
- * breaker would otherwise break after its hyphen) becomes an unbreakable run, and
- * "not determinable" is joined by a non-breaking space. Walks the document's text-bearing nodes
- * only (text, stack, lists, columns, table bodies); chart SVG and style keys are left alone.
+ * Tokens kept on one line: the arrow "->" (the line breaker would otherwise break after its hyphen) and short
+ * slash-joined words — units and ratios such as mL/min, mL/kg/min, VE/VCO2 (it breaks after a slash too). Longer
+ * slash-joined runs (addresses in the sources) may still wrap.
+ */
+const UNBREAKABLE = /->|[\p{L}\p{N}.%]+(?:\/[\p{L}\p{N}.%]+)+/gu;
+const UNBREAKABLE_MAX_CHARS = 16;
+
+/**
+ * Keep tokens that must not be split over two lines in one piece: the arrow and short slash-joined
+ * words (`UNBREAKABLE`) become unbreakable runs, and "not determinable" is joined by a non-breaking
+ * space. Walks the document's text-bearing nodes only (text, stack, lists, columns, table bodies);
+ * chart SVG and style keys are left alone.
  */
 function keepTokensTogether(node: unknown): unknown {
   const split = (s: string): unknown => {
     const t = s.replace(/not determinable/g, `not${NBSP}determinable`);
-    if (!t.includes("->")) return t;
-    const parts = t.split("->");
     const out: unknown[] = [];
-    parts.forEach((p, i) => {
-      if (i > 0) out.push({ text: "->", noWrap: true });
-      if (p) out.push(p);
-    });
+    let last = 0;
+    for (const m of t.matchAll(UNBREAKABLE)) {
+      if (m[0] !== "->" && m[0].length > UNBREAKABLE_MAX_CHARS) continue;
+      if (m.index > last) out.push(t.slice(last, m.index));
+      out.push({ text: m[0], noWrap: true });
+      last = m.index + m[0].length;
+    }
+    if (out.length === 0) return t;
+    if (last < t.length) out.push(t.slice(last));
     return { text: out };
   };
   if (typeof node === "string") return split(node);
