@@ -618,7 +618,7 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
         makeIssue(
           "warning",
           `${e.which}-low-confidence`,
-          `${name} is uncertain (${e.reason ?? "methods disagree"}); confirm or set it by review.`,
+          `${name} is uncertain (${(e.reason && withoutReviewAdvice(e.reason)) || "methods disagree"}); confirm or set it by review.`,
           { timeS: e.timeS ?? undefined },
         ),
       );
@@ -631,6 +631,11 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
     series: { binS: series.binS, span: series.span, averaging: series.averaging, bins: series.timeS.length },
   };
   return applyThresholdOverrides(test, result, options.overrides ?? [], series);
+}
+
+/** A reason without its advice to review ("…; confirm by review"): for messages that give that advice themselves. */
+function withoutReviewAdvice(reason: string): string {
+  return reason.replace(/;?\s*(confirm|set)\b[^;]*\bby review\b/gi, "").trim();
 }
 
 /** A change with its sign, one decimal ("+1.2", "−0.4"). */
@@ -897,7 +902,7 @@ function settleAutomaticDoubts(issues: readonly Issue[], which: ThresholdWhich, 
   return issues.map((i) => {
     if (i.code !== `${which}-low-confidence` && i.code !== `${which}-not-determinable`) return i;
     // the automatic reason's advice ("confirm by review") has been followed: keep only the finding
-    const found = automaticReason?.replace(/;?\s*(confirm|set)\b[^;]*\bby review\b/gi, "").trim();
+    const found = automaticReason ? withoutReviewAdvice(automaticReason) : "";
     const why = found || (i.code.endsWith("low-confidence") ? "the methods disagree" : "no method succeeded");
     const was = i.code.endsWith("low-confidence") ? `was uncertain (${why})` : `could not be determined (${why})`;
     return makeIssue(

@@ -70,6 +70,12 @@ describe("a pooled threshold value outside the methods that agree", () => {
     expect(r.vt2.reason).toMatch(/outside the range of the methods that agree/);
     expect(r.vt2.band!.lowMlMin).toBeLessThanOrEqual(v);
     expect(r.vt2.band!.highMlMin).toBeGreaterThanOrEqual(v);
+    // the warning gives the advice to review once, not the reason's own "confirm by review" as well
+    const warning = r.issues.find((i) => i.code === "vt2-low-confidence")!;
+    expect(warning.message).toMatch(
+      /outside the range of the methods that agree \(\d+–\d+ mL\/min\)\); confirm or set it by review\.$/,
+    );
+    expect(warning.message.match(/by review/g)).toHaveLength(1);
     // the report's method words say why the confidence is low, after the band
     expect(thresholdMethodWords(r.vt2, r)).toMatch(/\(confidence low, band \d+–\d+ mL\/min; why: the pooled value lies outside/);
   });
