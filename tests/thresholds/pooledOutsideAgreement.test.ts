@@ -21,16 +21,19 @@ describe("a pooled threshold value outside the methods that agree", () => {
   });
   // the VT2 pool's weights (detectThresholds): joint profile 2 (halved when "poor"), break 1, equivalents 0 (agreement only)
   const weights = { "vt2-joint-profile": 2, "vt2-ve-vco2-break": 1, "vt2-ventilatory-equivalents": 0 };
-
-  it("is recognised: two methods agree, a poor heavy one does not, and the weighted median falls between the camps", () => {
-    const c = combineEstimates(
+  // the joint profile at a given value and verdict, beside a good break at 2130 and a fair VE/VCO2 at 2160 (invented)
+  const pool = (jointMlMin: number, jointQuality: MethodQuality) =>
+    combineEstimates(
       [
-        as("vt2-joint-profile", 1570, "poor"),
+        as("vt2-joint-profile", jointMlMin, jointQuality),
         as("vt2-ve-vco2-break", 2130, "good"),
         as("vt2-ventilatory-equivalents", 2160, "fair"),
       ],
       { weights },
     );
+
+  it("is recognised: two methods agree, a poor heavy one does not, and the weighted median falls between the camps", () => {
+    const c = pool(1570, "poor");
     expect(c.confidence).toBe("moderate");
     expect(c.band).toEqual({ lowMlMin: 2130, highMlMin: 2160 });
     expect(c.vo2MlMin).toBeCloseTo((1570 + 2130) / 2, 6); // equal weights 1 and 1: the mean of the two
@@ -38,14 +41,7 @@ describe("a pooled threshold value outside the methods that agree", () => {
   });
 
   it("is not flagged when the value lies within the agreeing methods' range or when confidence is already low", () => {
-    const inside = combineEstimates(
-      [
-        as("vt2-joint-profile", 2140, "good"),
-        as("vt2-ve-vco2-break", 2130, "good"),
-        as("vt2-ventilatory-equivalents", 2160, "fair"),
-      ],
-      { weights },
-    );
+    const inside = pool(2140, "good");
     expect(outsideAgreeingMethods(inside)).toBe(false);
     const lone = combineEstimates([as("vt2-joint-profile", 1570, "poor"), as("vt2-ve-vco2-break", 2130, "good")], { weights });
     expect(lone.confidence).toBe("low");
