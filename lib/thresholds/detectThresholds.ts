@@ -783,7 +783,7 @@ function toEstimate(
     // the pooled value (weighted median of every usable method) lies outside the range of the methods that agree: no
     // agreeing pair supports it (round 15: such VT2 values err about twice as much as other "moderate" ones)
     confidence = "low";
-    reason = `the pooled value lies outside the range of the methods that agree (${Math.round(c.band?.lowMlMin ?? NaN)}–${Math.round(c.band?.highMlMin ?? NaN)} mL/min); confirm by review`;
+    reason = `the pooled value lies outside the range of the methods that agree (${Math.round(c.band.lowMlMin)}–${Math.round(c.band.highMlMin)} mL/min); confirm by review`;
   }
   // the band always holds the reported value
   if (band && c.vo2MlMin !== null)
@@ -813,7 +813,9 @@ function toEstimate(
  * True when a consensus of two or more agreeing methods reports a value outside their range: the pooled value is the
  * weighted median of every usable method (`combineEstimates`), so a heavy method that disagrees can carry it outside.
  */
-export function outsideAgreeingMethods(c: Consensus): boolean {
+export function outsideAgreeingMethods(
+  c: Consensus,
+): c is Consensus & { vo2MlMin: number; band: NonNullable<Consensus["band"]> } {
   return (
     c.vo2MlMin !== null &&
     c.band !== null &&

@@ -134,8 +134,11 @@ export function lineIndexFromFit(
  */
 export function slopeToVt2Name(line: LineIndex): string {
   switch (line.slope.provenance.method) {
-    case "ve-vco2-slope-to-vt2-no-compensation":
-      return "VE/VCO2 slope, whole exercise on 20-s bin means (no respiratory compensation reached)";
+    case "ve-vco2-slope-to-vt2-no-compensation": {
+      // the bin length as the fit wrote it into its averaging (`binnedAveraging`; 20 s by default, `toVt2BinS`)
+      const binS = /^(\d+(?:\.\d+)?)-s time-bin means/.exec(line.slope.provenance.averaging ?? "")?.[1];
+      return `VE/VCO2 slope, whole exercise on ${binS ? `${binS}-s ` : ""}bin means (no respiratory compensation reached)`;
+    }
     case "ve-vco2-slope-below-fitted-break":
       return "VE/VCO2 slope to a fitted break (RCP not determinable)";
     default:

@@ -47,6 +47,10 @@ describe("VE/VCO2 slope below the RCP with no compensation: the label says what 
     expect(slopeToVt2Name(r.slopeToVt2)).toBe(
       "VE/VCO2 slope, whole exercise on 20-s bin means (no respiratory compensation reached)",
     );
+    // a bin length set by option is named as fitted, not as the default
+    expect(slopeToVt2Name(veVco2Slope(straightLineTest(0), { vt2: null, toVt2BinS: 15 }).slopeToVt2)).toBe(
+      "VE/VCO2 slope, whole exercise on 15-s bin means (no respiratory compensation reached)",
+    );
     // with an RCP given, the same data are named "to RCP"
     const atRcp = veVco2Slope(straightLineTest(0), { vt2: { timeS: test0End() - 120, vo2MlMin: 1000 } });
     expect(slopeToVt2Name(atRcp.slopeToVt2)).toBe("VE/VCO2 slope, start of exercise to RCP");
