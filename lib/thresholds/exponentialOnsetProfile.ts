@@ -29,7 +29,8 @@ export function exponentialOnsetProfile(
   const sigmaMin = new Float64Array(K).fill(NaN);
   if (n < 6) return { sse, sigmaMin, n };
   const t0 = t[0];
-  const x = Float64Array.from({ length: n }, (_, i) => (t[i] - t0) / 60);
+  const x = new Float64Array(n);
+  for (let i = 0; i < n; i++) x[i] = (t[i] - t0) / 60;
   const xEnd = x[n - 1];
   const zz = z ?? x;
   // line alone (X = [1, z]), once
@@ -59,9 +60,9 @@ export function exponentialOnsetProfile(
   const b0 = g00 * Y0 + g01 * Y1;
   const b1 = g01 * Y0 + g11 * Y1;
   const sseLine = syy - (b0 * Y0 + b1 * Y1);
-  const quad = (u0: number, u1: number) => u0 * (g00 * u0 + g01 * u1) + u1 * (g01 * u0 + g11 * u1);
   // break index per candidate (first point strictly above τ)
-  const kAt = Int32Array.from({ length: K }, (_, j) => firstIndexAbove(x, (taus[j] - t0) / 60));
+  const kAt = new Int32Array(K);
+  for (let j = 0; j < K; j++) kAt[j] = firstIndexAbove(x, (taus[j] - t0) / 60);
   const E1 = new Float64Array(n + 1);
   const E2 = new Float64Array(n + 1);
   const EX = new Float64Array(n + 1);
@@ -93,7 +94,7 @@ export function exponentialOnsetProfile(
       const shh = E2[k] - 2 * c * E1[k] + c * c * P0[k];
       const sxh = EX[k] - c * P1[k];
       const syh = EY[k] - c * QY[k];
-      const hMh = shh - quad(sh, sxh);
+      const hMh = shh - (sh * (g00 * sh + g01 * sxh) + sxh * (g01 * sh + g11 * sxh));
       if (!(hMh > 1e-12 * shh)) continue;
       const hMy = syh - (sh * b0 + sxh * b1);
       if (!(hMy > 0)) continue; // A ≥ 0: a rise

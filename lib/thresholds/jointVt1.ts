@@ -80,19 +80,27 @@ export function segmentedProfile(
   }
   const single = solveLinearSystem(gram, bty);
   const sseSingle = single ? Math.max(0, syy - single.reduce((s, b, j) => s + b * bty[j], 0)) : NaN;
-  // suffix sums (index k: points k..n−1)
-  const suf = (f: (i: number) => number) => {
-    const s = new Float64Array(n + 1);
-    for (let i = n - 1; i >= 0; i--) s[i] = s[i + 1] + f(i);
-    return s;
-  };
-  const sCUT = base.map((c) => suf((i) => c[i] * uu(i) * t[i]));
-  const sCU = base.map((c) => suf((i) => c[i] * uu(i)));
-  const sUUTT = suf((i) => uu(i) * uu(i) * t[i] * t[i]);
-  const sUUT = suf((i) => uu(i) * uu(i) * t[i]);
-  const sUU = suf((i) => uu(i) * uu(i));
-  const sYUT = suf((i) => y[i] * uu(i) * t[i]);
-  const sYU = suf((i) => y[i] * uu(i));
+  // suffix sums (index k: points k..n−1), one pass over the points
+  const sCUT = base.map(() => new Float64Array(n + 1));
+  const sCU = base.map(() => new Float64Array(n + 1));
+  const sUUTT = new Float64Array(n + 1);
+  const sUUT = new Float64Array(n + 1);
+  const sUU = new Float64Array(n + 1);
+  const sYUT = new Float64Array(n + 1);
+  const sYU = new Float64Array(n + 1);
+  for (let i = n - 1; i >= 0; i--) {
+    const ui = uu(i);
+    const ti = t[i];
+    for (let c = 0; c < p; c++) {
+      sCUT[c][i] = sCUT[c][i + 1] + base[c][i] * ui * ti;
+      sCU[c][i] = sCU[c][i + 1] + base[c][i] * ui;
+    }
+    sUUTT[i] = sUUTT[i + 1] + ui * ui * ti * ti;
+    sUUT[i] = sUUT[i + 1] + ui * ui * ti;
+    sUU[i] = sUU[i + 1] + ui * ui;
+    sYUT[i] = sYUT[i + 1] + y[i] * ui * ti;
+    sYU[i] = sYU[i + 1] + y[i] * ui;
+  }
   // With the break fixed, the hinge column h enters by the partial-regression (Schur complement) identity:
   // SSE(τ) = SSE_single − (h'My)² / (h'Mh), M = I − X(X'X)⁻¹X', d = h'My / h'Mh — the same least-squares fit as
   // solving the (p+1)² normal equations, with (X'X)⁻¹ and β_single computed once (no allocation per candidate).
