@@ -171,7 +171,9 @@ export function combineEstimates(methods: readonly MethodEstimate[], options: Co
         ? undefined
         : !allAgree
           ? `${usable.length - best.length === 1 ? "one method disagreed" : `${usable.length - best.length} methods disagreed`} beyond ${Math.round(tol * 100)} %`
-          : `methods agree within ${Math.round(spread * 100)} %`;
+          : spread > highSpread
+            ? `methods agree within ${Math.ceil(spread * 100)} % (high confidence needs ${Math.round(highSpread * 100)} %)`
+            : `methods agree within ${Math.max(1, Math.ceil(spread * 100))} %, but no method's fit is rated good`;
     return {
       vo2MlMin: est,
       confidence,
