@@ -4,18 +4,14 @@ import { generateSyntheticTest } from "../../lib/synthetic";
 import { buildThresholdSeries } from "../../lib/thresholds/detectThresholds";
 import { combineEstimates } from "../../lib/thresholds/consensus";
 import { vSlope } from "../../lib/thresholds/vSlope";
-import type { MethodEstimate, MethodQuality } from "../../lib/thresholds/thresholdTypes";
+import type { MethodQuality } from "../../lib/thresholds/thresholdTypes";
+import { methodWithValue } from "./methodWithValue";
 
 // Method values are invented; the estimate shape comes from the main synthetic model's test with seed 11.
 describe("why agreeing methods give moderate rather than high confidence", () => {
   const series = buildThresholdSeries(conditionTable(generateSyntheticTest({}, 11).table))!;
   const base = vSlope(series);
-  const as = (id: string, vo2MlMin: number, quality: MethodQuality): MethodEstimate => ({
-    ...base,
-    id,
-    quality,
-    vo2MlMin: { ...base.vo2MlMin, value: vo2MlMin },
-  });
+  const as = (id: string, vo2MlMin: number, quality: MethodQuality) => methodWithValue(base, id, vo2MlMin, quality);
 
   it("names the missing good fit when the methods agree closely (0.4 % apart reads 'within 1 %', never 'within 0 %')", () => {
     const c = combineEstimates([as("a", 836, "poor"), as("b", 838, "fair"), as("c", 839.5, "poor")]);

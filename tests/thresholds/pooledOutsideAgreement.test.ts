@@ -5,7 +5,8 @@ import { buildThresholdSeries, detectThresholds, outsideAgreeingMethods } from "
 import { combineEstimates } from "../../lib/thresholds/consensus";
 import { thresholdMethodWords } from "../../lib/analysis/draftExtras";
 import { rcpVeVco2 } from "../../lib/thresholds/rcpVeVco2";
-import type { MethodEstimate, MethodQuality } from "../../lib/thresholds/thresholdTypes";
+import type { MethodQuality } from "../../lib/thresholds/thresholdTypes";
+import { methodWithValue } from "./methodWithValue";
 
 // Synthetic data (invented): the main model's test with seed 11, moderate noise, true RCP by construction.
 
@@ -13,12 +14,7 @@ describe("a pooled threshold value outside the methods that agree", () => {
   const syn = generateSyntheticTest({}, 11);
   const series = buildThresholdSeries(conditionTable(syn.table))!;
   const base = rcpVeVco2(series);
-  const as = (id: string, vo2MlMin: number, quality: MethodQuality): MethodEstimate => ({
-    ...base,
-    id,
-    quality,
-    vo2MlMin: { ...base.vo2MlMin, value: vo2MlMin },
-  });
+  const as = (id: string, vo2MlMin: number, quality: MethodQuality) => methodWithValue(base, id, vo2MlMin, quality);
   // the VT2 pool's weights (detectThresholds): joint profile 2 (halved when "poor"), break 1, equivalents 0 (agreement only)
   const weights = { "vt2-joint-profile": 2, "vt2-ve-vco2-break": 1, "vt2-ventilatory-equivalents": 0 };
   // the joint profile at a given value and verdict, beside a good break at 2130 and a fair VE/VCO2 at 2160 (invented)
