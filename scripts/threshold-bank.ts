@@ -35,6 +35,10 @@ export interface BankRow {
   /** Absolute error as % of the true VO2; null = no call. */
   errorPct: number | null;
   confidence?: string;
+  /** Consensus rows: the value, the truth and the band reported (mL/min). */
+  valueMlMin?: number | null;
+  truthMlMin?: number;
+  band?: { lowMlMin: number; highMlMin: number } | null;
 }
 
 export interface BankStats {
@@ -47,6 +51,10 @@ export interface BankStats {
   noCallPct: number;
   /** Share of all tests (no-calls count as misses) with error ≤ 5 %. */
   within5Pct: number;
+  /** Consensus only: share of the calls whose band holds the true VO2. */
+  bandCoverPct?: number;
+  /** Consensus only: median band width as % of the value. */
+  bandWidthPct?: number;
 }
 
 /** A synthetic test with its truth and noise level, as every model returns it. */
@@ -123,6 +131,8 @@ export interface BankOptions {
   generator?: BankGenerator;
   /** Noise levels to run. @default ["low", "moderate", "high"] */
   noiseLevels?: NoiseLevel[];
+  /** Report the calibrated band (false: the raw band, for `scripts/band-calibration.ts`). @default true */
+  calibrateBand?: boolean;
 }
 
 /** Run the bank and return one row per (test, threshold, method) plus the consensus rows. */
@@ -134,7 +144,12 @@ export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats
   for (const c of cases) {
     const syn = c.make();
     const test = conditionTable(syn.table);
-    const res = detectThresholds(test, { bootstrap: options.bootstrap ?? 0, seed: 1, series: { binS: options.binS ?? 20 } });
+    const res = detectThresholds(test, {
+      bootstrap: options.bootstrap ?? 0,
+      seed: 1,
+      series: { binS: options.binS ?? 20 },
+      calibrateBand: options.calibrateBand ?? true,
+    });
     const noise = syn.noise;
     // VE/VCO2 slope to the detected VT2 (lib/thresholds/veVco2Slope.ts) against the noise-free truth
     if (syn.truth.vt2 && res.vt2.timeS !== null && res.vt2.vo2MlMin.value !== null) {
@@ -168,6 +183,9 @@ export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats
         method: `${which}-consensus`,
         errorPct: err(res[which].vo2MlMin.value),
         confidence: res[which].confidence,
+        valueMlMin: res[which].vo2MlMin.value,
+        truthMlMin: truth.vo2MlMin,
+        band: res[which].band,
       });
       for (const m of res.methods.filter((x) => x.which === which))
         rows.push({ id: c.id, noise, which, method: m.id, errorPct: err(m.vo2MlMin.value) });
@@ -182,6 +200,8 @@ export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats
       const sel = rows.filter((r) => r.which === which && r.method === method && (noise === "all" || r.noise === noise));
       if (sel.length === 0) continue;
       const errs = sel.filter((r) => r.errorPct !== null).map((r) => r.errorPct as number);
+      const banded = sel.filter((r) => r.band && r.truthMlMin !== undefined);
+      const held = banded.filter((r) => r.band!.lowMlMin <= r.truthMlMin! && r.truthMlMin! <= r.band!.highMlMin).length;
       stats.push({
         method,
         which,
@@ -191,6 +211,15 @@ export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats
         within5Pct: (100 * errs.filter((e) => e <= 5).length) / sel.length,
         p90Pct: quantile(errs, 0.9),
         noCallPct: (100 * (sel.length - errs.length)) / sel.length,
+        ...(banded.length > 0
+          ? {
+              bandCoverPct: (100 * held) / banded.length,
+              bandWidthPct: quantile(
+                banded.map((r) => (100 * (r.band!.highMlMin - r.band!.lowMlMin)) / (r.valueMlMin as number)),
+                0.5,
+              ),
+            }
+          : {}),
       });
     }
   }
@@ -209,10 +238,10 @@ function main(): void {
   console.log(
     `threshold bank: ${size} synthetic tests (invented data), ${(ms / 1000).toFixed(1)} s, ${(ms / size).toFixed(1)} ms per test`,
   );
-  console.log("method                          noise     n   median%  P90%   no-call%  ≤5%");
+  console.log("method                          noise     n   median%  P90%   no-call%  ≤5%  band holds truth%");
   for (const s of stats) {
     console.log(
-      `${s.method.padEnd(32)}${s.noise.padEnd(9)}${String(s.n).padStart(4)}${s.medianPct.toFixed(1).padStart(9)}${s.p90Pct.toFixed(1).padStart(7)}${s.noCallPct.toFixed(1).padStart(10)}${s.within5Pct.toFixed(0).padStart(6)}`,
+      `${s.method.padEnd(32)}${s.noise.padEnd(9)}${String(s.n).padStart(4)}${s.medianPct.toFixed(1).padStart(9)}${s.p90Pct.toFixed(1).padStart(7)}${s.noCallPct.toFixed(1).padStart(10)}${s.within5Pct.toFixed(0).padStart(6)}${s.bandCoverPct === undefined ? "" : s.bandCoverPct.toFixed(0).padStart(8)}`,
     );
   }
   const conf = rows.filter((r) => r.method.endsWith("consensus"));
