@@ -27,3 +27,4 @@ export * from "./valuesAtThreshold";
 export * from "./vdVt";
 export * from "./veVco2Slope";
 export * from "./ventilatoryEquivalents";
+export * from "./bandCalibration";

@@ -80,6 +80,19 @@ describe(`threshold accuracy, main generator (${size} tests)`, () => {
   it("meets the VT1 median goal (≤ 4 %) at low noise", () => {
     expect(stat(main, "vt1-consensus", "low").medianPct).toBeLessThanOrEqual(4); // goal from the issue
   });
+
+  // The band reported is calibrated to hold the truth in 8 of 10 tests (lib/thresholds/bandCalibration.ts, fitted on
+  // main seeds 99 and 5 and variant seeds 2024 and 99 at moderate noise). This bank (seed 2024) is not in that set.
+  // Round 17 (README-thresholds.md): before calibration the band held VT1 in 66 % and VT2 in 48 % of main/variant
+  // moderate tests; here, after it, VT1 91 / 71 / 64 % and VT2 88 / 78 / 56 % at low / moderate / high noise.
+  it("gives bands that hold the true threshold in about 3 of 4 tests over all noise levels, and stay under 25 % wide", () => {
+    for (const which of ["vt1", "vt2"]) {
+      const all = stat(main, `${which}-consensus`, "all");
+      expect(all.bandCoverPct).toBeGreaterThanOrEqual(70); // our regression bound at the level reached (README-thresholds.md, round 17), not a published value
+      expect(stat(main, `${which}-consensus`, "moderate").bandCoverPct).toBeGreaterThanOrEqual(65); // our regression bound, as above
+      expect(stat(main, `${which}-consensus`, "moderate").bandWidthPct).toBeLessThanOrEqual(25); // our bound: a band as wide as the error range of the single-signal methods would say nothing
+    }
+  });
 });
 
 describe(`threshold accuracy, independent variant model (${variantSize} tests)`, () => {
@@ -100,6 +113,13 @@ describe(`threshold accuracy, independent variant model (${variantSize} tests)`,
     const s = stat(variant, "vt1-consensus", "moderate");
     expect(s.medianPct).toBeLessThanOrEqual(4.2); // our regression bound at the level reached (README-thresholds.md), not a published value
     expect(s.p90Pct).toBeLessThanOrEqual(13.5); // our regression bound at the level reached (README-thresholds.md), not a published value
+  });
+
+  // Bands on the variant model (its seed 2024 is also one of the calibration banks, so this is not an independent check;
+  // main seed 2024 above and the blind models in README-thresholds.md are): VT1 held in 88 / 88 / 74 %, VT2 in 94 / 74 / 69 % at low / moderate / high noise (round 17).
+  it("gives bands that hold the true threshold in about 3 of 4 tests over all noise levels", () => {
+    for (const which of ["vt1", "vt2"])
+      expect(stat(variant, `${which}-consensus`, "all").bandCoverPct).toBeGreaterThanOrEqual(72); // our regression bound at the level reached (README-thresholds.md, round 17), not a published value
   });
 });
 
