@@ -12,6 +12,8 @@ test("the analysis view shows thresholds, predicted values, interpretation and s
   await expect(page.getByTestId("clinical-caution")).toBeVisible();
   await expect(page.getByTestId("row-peakVo2")).toContainText("Hansen");
   await expect(page.getByTestId("threshold-vt1")).toContainText("mL/min");
+  // the band beside each threshold says what it is: its calibration on invented recordings, not a promise
+  await expect(page.getByTestId("band-meaning")).toContainText("about 8 of 10 invented recordings");
   await expect(page.getByTestId("charts").locator("svg")).toHaveCount(5);
   await expect(page.getByTestId("interpretation-path")).toContainText("Peak VO2");
   await expect(page.getByTestId("schemes")).toContainText("Weber");

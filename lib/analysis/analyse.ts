@@ -21,8 +21,11 @@ import type { AnalysisResult, AnalysisSettings, PredictedComparisonRow, TestReco
 import { toInterpretInput } from "./toInterpretInput";
 import { draftExtras } from "./draftExtras";
 
-/** Version of the analysis code; stored with every analysis version and printed on reports. */
-export const ENGINE_VERSION = "0.2.0";
+/**
+ * Version of the analysis code; stored with every analysis version and printed on reports. Raised when a change moves
+ * what a report states (0.3.0: the threshold bands are calibrated, README-thresholds.md round 17).
+ */
+export const ENGINE_VERSION = "0.3.0";
 
 /**
  * The whole analysis as one pure, deterministic function of (record, settings):

@@ -6,7 +6,7 @@ import { ALL_SOURCES } from "./sources";
 import { formatClock, formatNumber } from "../units";
 import { CLINICAL_CAUTION, DRAFT_CAUTION } from "./caution";
 import { PREDICTED_QUANTITIES, type PredictedQuantity } from "../predicted";
-import { slopeToVt2Name } from "../thresholds";
+import { BAND_MEANING, slopeToVt2Name } from "../thresholds";
 import { formatComparisonCutoff, formatComparisonValue } from "./formatComparison";
 import type { ReportModel, ReportRow, ReportSection } from "./reportModel";
 
@@ -224,7 +224,7 @@ export function buildReportModel(
     `VT1 and VT2: ${result.thresholds.methods
       .map((m) => m.label)
       .filter((l, i, a) => a.indexOf(l) === i)
-      .join("; ")}; consensus with confidence and band (${result.thresholds.series.averaging}).`,
+      .join("; ")}; consensus with confidence and band (${result.thresholds.series.averaging}). ${BAND_MEANING}`,
     `Display averaging: ${result.conditioned.averaging.label}.`,
     `Predicted values: ${Object.values(result.predicted.values)
       .flatMap((v) => (v ? [`${predictedQuantityWords(v.quantity)} by ${v.equationLabel}`] : []))

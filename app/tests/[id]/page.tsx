@@ -5,7 +5,7 @@ import type { Measured } from "@/lib/core";
 import { EQUATIONS } from "@/lib/predicted";
 import { listCutoffChoices } from "@/lib/interpret";
 import { analysisCharts } from "@/lib/report";
-import { METHOD_REASON_SEPARATOR, slopeToVt2Name, type ThresholdEstimate } from "@/lib/thresholds";
+import { BAND_MEANING, METHOD_REASON_SEPARATOR, slopeToVt2Name, type ThresholdEstimate } from "@/lib/thresholds";
 import { displayUnit, formatClock, formatNumber } from "@/lib/units";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { getTest, listAnalysisVersions } from "@/lib/store/tests";
@@ -246,6 +246,9 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           methodLabels={methodLabels}
         />
       </div>
+      <p data-testid="band-meaning">
+        <small>{BAND_MEANING}</small>
+      </p>
       <details className="panel">
         <summary>Each method&apos;s estimate</summary>
         <TableScroll label="Each method's threshold estimate">
