@@ -246,9 +246,11 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           methodLabels={methodLabels}
         />
       </div>
-      <p data-testid="band-meaning">
-        <small>{BAND_MEANING}</small>
-      </p>
+      {[result.thresholds.vt1, result.thresholds.vt2].some((t) => t.band && !t.overridden) ? (
+        <p data-testid="band-meaning">
+          <small>{BAND_MEANING}</small>
+        </p>
+      ) : null}
       <details className="panel">
         <summary>Each method&apos;s estimate</summary>
         <TableScroll label="Each method's threshold estimate">
