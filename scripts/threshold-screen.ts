@@ -4,8 +4,8 @@
  * "main:2024,main:99,main:5,variant:2024,variant:77,variant:99"; "holdout:<seed>", "audit:<seed>", "crosscheck:<seed>" and "secondopinion:<seed>" add the models
  * written blind to the methods — measure on them, never choose a setting on them alone), SCREEN_SIZE (tests per bank, default 240),
  * SCREEN_NOISE (low | moderate | high, default moderate), SCREEN_BOOTSTRAP (resamples, default 20).
- * Prints per bank the VT1 consensus and joint-profile median / P90 / no-call %, VT2 and the VE/VCO2 slope hits, then
- * the mean over banks. The mean of six 240-test banks moves by about ±0.2 points between equivalent settings
+ * Prints per bank the VT1 consensus and joint-profile median / P90 / no-call %, VT2 and the VE/VCO2 slope hits, how
+ * often the band holds the true VT1 and VT2, then the mean over banks. The mean of six 240-test banks moves by about ±0.2 points between equivalent settings
  * (README-thresholds.md, round 7): read smaller differences as noise.
  */
 import { pathToFileURL } from "node:url";
@@ -14,9 +14,9 @@ import { bankGenerator, runThresholdBank, type BankGenerator } from "./threshold
 
 export interface ScreenLine {
   bank: string;
-  vt1: { medianPct: number; p90Pct: number; noCallPct: number };
+  vt1: { medianPct: number; p90Pct: number; noCallPct: number; bandCoverPct: number };
   joint: { medianPct: number; p90Pct: number };
-  vt2: { medianPct: number; p90Pct: number; noCallPct: number };
+  vt2: { medianPct: number; p90Pct: number; noCallPct: number; bandCoverPct: number };
   slopeWithin5Pct: number;
 }
 
@@ -35,9 +35,19 @@ export function screenBanks(
     const sl = get("ve-vco2-slope-to-vt2");
     return {
       bank: `${generator}:${seed}`,
-      vt1: { medianPct: v1?.medianPct ?? NaN, p90Pct: v1?.p90Pct ?? NaN, noCallPct: v1?.noCallPct ?? NaN },
+      vt1: {
+        medianPct: v1?.medianPct ?? NaN,
+        p90Pct: v1?.p90Pct ?? NaN,
+        noCallPct: v1?.noCallPct ?? NaN,
+        bandCoverPct: v1?.bandCoverPct ?? NaN,
+      },
       joint: { medianPct: j?.medianPct ?? NaN, p90Pct: j?.p90Pct ?? NaN },
-      vt2: { medianPct: v2?.medianPct ?? NaN, p90Pct: v2?.p90Pct ?? NaN, noCallPct: v2?.noCallPct ?? NaN },
+      vt2: {
+        medianPct: v2?.medianPct ?? NaN,
+        p90Pct: v2?.p90Pct ?? NaN,
+        noCallPct: v2?.noCallPct ?? NaN,
+        bandCoverPct: v2?.bandCoverPct ?? NaN,
+      },
       slopeWithin5Pct: sl?.within5Pct ?? NaN,
     };
   });
@@ -57,7 +67,7 @@ function main(): void {
   console.log(`threshold screen: ${sets.length} banks × ${size} tests (invented data), ${noise} noise, ${bootstrap} resamples`);
   for (const l of lines)
     console.log(
-      `${l.bank.padEnd(13)} VT1 ${f(l.vt1.medianPct)} / ${f(l.vt1.p90Pct)} / ${l.vt1.noCallPct.toFixed(1)}  joint ${f(l.joint.medianPct)} / ${f(l.joint.p90Pct)}  VT2 ${f(l.vt2.medianPct)} / ${f(l.vt2.p90Pct)} / ${l.vt2.noCallPct.toFixed(1)}  slope ±5 % ${l.slopeWithin5Pct.toFixed(1)}`,
+      `${l.bank.padEnd(13)} VT1 ${f(l.vt1.medianPct)} / ${f(l.vt1.p90Pct)} / ${l.vt1.noCallPct.toFixed(1)}  joint ${f(l.joint.medianPct)} / ${f(l.joint.p90Pct)}  VT2 ${f(l.vt2.medianPct)} / ${f(l.vt2.p90Pct)} / ${l.vt2.noCallPct.toFixed(1)}  slope ±5 % ${l.slopeWithin5Pct.toFixed(1)}  band holds VT1 ${l.vt1.bandCoverPct.toFixed(0)} %, VT2 ${l.vt2.bandCoverPct.toFixed(0)} %`,
     );
   const mean = (g: (l: ScreenLine) => number) => lines.reduce((a, l) => a + g(l), 0) / lines.length;
   console.log(
