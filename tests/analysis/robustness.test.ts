@@ -6,10 +6,12 @@ import { z } from "zod";
 import { analyse, type TestRecord } from "../../lib/analysis";
 import type { BreathTable, NumericField } from "../../lib/breath";
 import { CLINICAL_CAUTION, toCliJson } from "../../lib/report";
+import { buildReportModel } from "../../lib/report/buildReportModel";
+import { initialDraftSections } from "../../lib/report/initialDraftSections";
 import * as S from "../../lib/synthetic";
 
-// Whatever a recording looks like, the analysis answers: no exception, no NaN or infinity anywhere in what the page,
-// the PDF and the CLI read, thresholds inside the exercise and in order, a band that holds its value, and CLI JSON that
+// Whatever a recording looks like, the analysis answers: no exception, no NaN or infinity in the CLI JSON or in the
+// words of the draft report, thresholds inside the exercise and in order, a band that holds its value, and CLI JSON that
 // its schema accepts. Recordings are INVENTED: the six synthetic models (two written with the methods, four written
 // blind), any noise level, with signals removed as carts and exports sometimes leave them out, stopped early (down to
 // 5 % of the rows) and with a stretch of rows lost. 40 cases per run (FUZZ_RUNS and FUZZ_SEED widen the search: 600
@@ -56,6 +58,14 @@ function withoutFields(table: BreathTable, drop: NumericField[]): BreathTable {
   return { ...table, rows, fields: table.fields.filter((f) => !drop.includes(f as NumericField)) };
 }
 
+/** Every string of a (JSON-like) model. */
+function strings(value: unknown, out: string[] = []): string[] {
+  if (typeof value === "string") out.push(value);
+  else if (Array.isArray(value)) value.forEach((v) => strings(v, out));
+  else if (value && typeof value === "object") Object.values(value).forEach((v) => strings(v, out));
+  return out;
+}
+
 /** Paths of every number that is not finite, walking plain objects and arrays. */
 function nonFinite(value: unknown, at = "", out: string[] = []): string[] {
   if (typeof value === "number") {
@@ -66,7 +76,7 @@ function nonFinite(value: unknown, at = "", out: string[] = []): string[] {
 }
 
 describe("the analysis of any recording", () => {
-  it("answers without NaN, keeps thresholds inside the exercise and in order, and gives schema-valid CLI JSON", () => {
+  it("answers without NaN in its CLI JSON or draft report, keeps thresholds inside the exercise and in order, and gives schema-valid CLI JSON", () => {
     fc.assert(
       fc.property(
         fc.constantFrom(...MODELS),
@@ -94,6 +104,12 @@ describe("the analysis of any recording", () => {
           expect(nonFinite(json)).toEqual([]);
           expect(schema.safeParse(json).success).toBe(true);
           expect(nonFinite(result.indices.peaks)).toEqual([]);
+          // the draft report's words: no number printed as NaN, Infinity or undefined
+          const report = buildReportModel(result, record, "invented recording", {
+            status: "draft",
+            sections: initialDraftSections(result),
+          });
+          expect(strings(report).filter((t) => /\bNaN\b|Infinity|undefined|\[object/.test(t))).toEqual([]);
           const peak = result.indices.peaks.vo2MlMin.value;
           for (const which of ["vt1", "vt2"] as const) {
             const t = result.thresholds[which];
