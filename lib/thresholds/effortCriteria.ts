@@ -390,7 +390,11 @@ export function vo2FinalIncrease(test: ConditionedTest, options: { windowS?: num
       we = wm.mean(earlyCentre - windowS / 2, earlyCentre + windowS / 2).mean;
     }
   }
-  const p = { ...prov, window, inputs: { earlierMlMin: a, finalMlMin: b, earlierWorkW: wa, finalWorkW: wb } };
+  // inputs that could not be read (no work rate on a treadmill) are left out rather than recorded as NaN
+  const inputs = Object.fromEntries(
+    Object.entries({ earlierMlMin: a, finalMlMin: b, earlierWorkW: wa, finalWorkW: wb }).filter(([, v]) => Number.isFinite(v)),
+  );
+  const p = { ...prov, window, inputs };
   const dw = wb - wa;
   const workIncreaseW = Number.isFinite(dw) ? measured(dw, "W", p) : notDetermined("W", p, "no work-rate data");
   if (!Number.isFinite(dw) || !(wa > 0))
