@@ -10,12 +10,12 @@ import { buildReportModel } from "../../lib/report/buildReportModel";
 import { initialDraftSections } from "../../lib/report/initialDraftSections";
 import * as S from "../../lib/synthetic";
 
-// Whatever a recording looks like, the analysis answers: no exception, no NaN or infinity in the CLI JSON, the indices (their provenance too) or the
-// words of the draft report, thresholds inside the exercise and in order, a band that holds its value, and CLI JSON that
-// its schema accepts. Recordings are INVENTED: the six synthetic models (two written with the methods, four written
-// blind), any noise level, with signals removed as carts and exports sometimes leave them out, stopped early (down to
-// 5 % of the rows) and with a stretch of rows lost. 40 cases per run (FUZZ_RUNS and FUZZ_SEED widen the search: 600
-// cases on two other seeds passed when this was written).
+// Whatever a recording looks like, the analysis answers: no exception, no NaN or infinity in the CLI JSON, the indices
+// (their provenance too) or the words of the draft report, thresholds inside the exercise and in order, a band that
+// holds its value, and CLI JSON that its schema accepts. Recordings are INVENTED: the six synthetic models (two written
+// with the methods, four written blind), any noise level, with signals removed as carts and exports sometimes leave
+// them out, stopped early (down to 5 % of the rows) and with a stretch of rows lost. 40 cases per run (FUZZ_RUNS and
+// FUZZ_SEED widen the search: 300–600 cases on four other seeds passed when this was written).
 const schema = z.fromJSONSchema(JSON.parse(fs.readFileSync(path.resolve(__dirname, "../../cli/analyse.schema.json"), "utf8")));
 
 const MODELS = ["main", "variant", "holdout", "audit", "crosscheck", "secondopinion"] as const;
