@@ -25,7 +25,8 @@ import {
 } from "../lib/synthetic";
 import { detectThresholds } from "../lib/thresholds/detectThresholds";
 import { quantile } from "../lib/numeric";
-import { veVco2Slope } from "../lib/thresholds/veVco2Slope";
+import { slopeRelativeScale } from "../lib/thresholds/bandCalibration";
+import { veVco2Slope, type LineIndex } from "../lib/thresholds/veVco2Slope";
 
 export interface BankRow {
   id: string;
@@ -35,10 +36,12 @@ export interface BankRow {
   /** Absolute error as % of the true VO2; null = no call. */
   errorPct: number | null;
   confidence?: string;
-  /** Consensus rows: the value, the truth and the band reported (mL/min). */
-  valueMlMin?: number | null;
-  truthMlMin?: number;
-  band?: { lowMlMin: number; highMlMin: number } | null;
+  /** Consensus and slope rows: the value, the truth and the band reported (VO2 in mL/min; the slope unitless). */
+  value?: number | null;
+  truth?: number;
+  band?: { low: number; high: number } | null;
+  /** Slope rows: the slope's relative standard error from r² and its points (`slopeRelativeScale`). */
+  scale?: number | null;
 }
 
 export interface BankStats {
@@ -51,9 +54,9 @@ export interface BankStats {
   noCallPct: number;
   /** Share of all tests (no-calls count as misses) with error ≤ 5 %. */
   within5Pct: number;
-  /** Consensus only: share of the calls whose band holds the true VO2. */
+  /** Consensus and slope only: share of the calls whose band holds the truth. */
   bandCoverPct?: number;
-  /** Consensus only: median band width as % of the value. */
+  /** Consensus and slope only: median band width as % of the value. */
   bandWidthPct?: number;
 }
 
@@ -135,6 +138,24 @@ export interface BankOptions {
   calibrateBand?: boolean;
 }
 
+/** The row of the VE/VCO2 slope to VT2 against the noise-free truth, with its band and scale. */
+function slopeRow(id: string, noise: NoiseLevel, line: LineIndex, truth: number): BankRow {
+  const v = line.slope.value;
+  const inputs = line.slope.provenance.inputs ?? {};
+  const points = typeof inputs.bins === "number" ? inputs.bins : typeof inputs.points === "number" ? inputs.points : null;
+  return {
+    id,
+    noise,
+    which: "vt2",
+    method: "ve-vco2-slope-to-vt2",
+    errorPct: v === null ? null : (100 * Math.abs(v - truth)) / truth,
+    value: v,
+    truth,
+    band: line.band ?? null,
+    scale: slopeRelativeScale(line.r2.value, points),
+  };
+}
+
 /** Run the bank and return one row per (test, threshold, method) plus the consensus rows. */
 export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats: BankStats[]; ms: number } {
   const levels = options.noiseLevels ?? ["low", "moderate", "high"];
@@ -153,24 +174,11 @@ export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats
     const noise = syn.noise;
     // VE/VCO2 slope to the detected VT2 (lib/thresholds/veVco2Slope.ts) against the noise-free truth
     if (syn.truth.vt2 && res.vt2.timeS !== null && res.vt2.vo2MlMin.value !== null) {
-      const sl = veVco2Slope(test, { vt2: { timeS: res.vt2.timeS, vo2MlMin: res.vt2.vo2MlMin.value } }).slopeToVt2.slope.value;
-      rows.push({
-        id: c.id,
-        noise,
-        which: "vt2",
-        method: "ve-vco2-slope-to-vt2",
-        errorPct: sl === null ? null : (100 * Math.abs(sl - syn.truth.veVco2SlopeToVt2)) / syn.truth.veVco2SlopeToVt2,
-      });
+      const line = veVco2Slope(test, { vt2: { timeS: res.vt2.timeS, vo2MlMin: res.vt2.vo2MlMin.value } }).slopeToVt2;
+      rows.push(slopeRow(c.id, noise, line, syn.truth.veVco2SlopeToVt2));
     } else if (syn.truth.vt2) {
       // VT2 not found: the slope module still reports the whole-exercise slope when the test shows no compensation
-      const sl = veVco2Slope(test, { vt2: null }).slopeToVt2.slope.value;
-      rows.push({
-        id: c.id,
-        noise,
-        which: "vt2",
-        method: "ve-vco2-slope-to-vt2",
-        errorPct: sl === null ? null : (100 * Math.abs(sl - syn.truth.veVco2SlopeToVt2)) / syn.truth.veVco2SlopeToVt2,
-      });
+      rows.push(slopeRow(c.id, noise, veVco2Slope(test, { vt2: null }).slopeToVt2, syn.truth.veVco2SlopeToVt2));
     }
     for (const which of ["vt1", "vt2"] as const) {
       const truth = syn.truth[which];
@@ -183,9 +191,9 @@ export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats
         method: `${which}-consensus`,
         errorPct: err(res[which].vo2MlMin.value),
         confidence: res[which].confidence,
-        valueMlMin: res[which].vo2MlMin.value,
-        truthMlMin: truth.vo2MlMin,
-        band: res[which].band,
+        value: res[which].vo2MlMin.value,
+        truth: truth.vo2MlMin,
+        band: res[which].band ? { low: res[which].band.lowMlMin, high: res[which].band.highMlMin } : null,
       });
       for (const m of res.methods.filter((x) => x.which === which))
         rows.push({ id: c.id, noise, which, method: m.id, errorPct: err(m.vo2MlMin.value) });
@@ -200,8 +208,8 @@ export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats
       const sel = rows.filter((r) => r.which === which && r.method === method && (noise === "all" || r.noise === noise));
       if (sel.length === 0) continue;
       const errs = sel.filter((r) => r.errorPct !== null).map((r) => r.errorPct as number);
-      const banded = sel.filter((r) => r.band && r.truthMlMin !== undefined);
-      const held = banded.filter((r) => r.band!.lowMlMin <= r.truthMlMin! && r.truthMlMin! <= r.band!.highMlMin).length;
+      const banded = sel.filter((r) => r.band && r.truth !== undefined && typeof r.value === "number");
+      const held = banded.filter((r) => r.band!.low <= r.truth! && r.truth! <= r.band!.high).length;
       stats.push({
         method,
         which,
@@ -215,7 +223,7 @@ export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats
           ? {
               bandCoverPct: (100 * held) / banded.length,
               bandWidthPct: quantile(
-                banded.map((r) => (100 * (r.band!.highMlMin - r.band!.lowMlMin)) / (r.valueMlMin as number)),
+                banded.map((r) => (100 * (r.band!.high - r.band!.low)) / (r.value as number)),
                 0.5,
               ),
             }

@@ -77,4 +77,37 @@ export function conformalFactor(scores: readonly number[], coverage: number): nu
 
 /** What the band means, in the words the page and the report show beside it (the figures are those of the calibration). */
 export const BAND_MEANING =
-  "Band: the range that held the true threshold in about 8 of 10 invented recordings with moderate breath noise (fewer when the threshold is a gradual onset or the breaths are noisier). It says how closely the data place the threshold, not that the reading is right: check it on the plots.";
+  "Band: the range that held the true value in about 8 of 10 invented recordings with moderate breath noise (fewer when a threshold is a gradual onset or the breaths are noisier); for VT1, VT2 and the VE/VCO2 slope to VT2. It says how closely the data place the value, not that the reading is right: check it on the plots.";
+
+/**
+ * Relative standard error of a fitted line's slope from its r² and point count, √((1 − r²) / (r² · (n − 2))): the
+ * textbook identity t = r·√(n − 2)/√(1 − r²) for a simple least-squares line (common practice). The VE/VCO2 lines are
+ * fitted on smoothed bin means (autocorrelated) and some as the lower line of a two-line fit, so this is used as a scale
+ * only, calibrated below; null when it cannot be formed (r² ≤ 0 or ≥ 1, fewer than 3 points).
+ */
+export function slopeRelativeScale(r2: number | null, points: number | null): number | null {
+  if (r2 === null || points === null || !(r2 > 0 && r2 < 1) || !(points >= 3)) return null;
+  return Math.sqrt((1 - r2) / (r2 * (points - 2)));
+}
+
+/**
+ * Factor on `slopeRelativeScale` for the band of the VE/VCO2 slope "to VT2": the ⌈(n + 1)·0.8⌉-th smallest score
+ * |truth − slope| / (slope · scale) over the 638 moderate-noise tests with a slope of main seeds 99 and 5 and variant
+ * seeds 2024 and 99 (split conformal, Lei et al. 2018, as for the thresholds; `scripts/band-calibration.ts`). On the
+ * check banks (main 2024, variant 77) it held the true slope in 77 / 80 / 85 % at low / moderate / high noise (median
+ * width 3.1 / 5.1 / 8.6 % of the slope); at moderate noise on the models written blind hold-out 68, audit 84,
+ * cross-check 81, second-opinion 75 % (README-thresholds.md, round 17).
+ */
+export const SLOPE_BAND_FACTOR = 2.8;
+
+/** Band of a slope: value × (1 ± factor · scale); null without a scale. */
+export function slopeBand(
+  slope: number,
+  r2: number | null,
+  points: number | null,
+  factor = SLOPE_BAND_FACTOR,
+): { low: number; high: number } | null {
+  const scale = slopeRelativeScale(r2, points);
+  if (scale === null) return null;
+  return { low: slope * (1 - factor * scale), high: slope * (1 + factor * scale) };
+}

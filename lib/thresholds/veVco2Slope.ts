@@ -4,6 +4,7 @@ import { centredMovingMean } from "../numeric/centredMovingMean";
 import { PrefixSums } from "../numeric/linearRegression";
 import type { ConditionedTest } from "../signal";
 import { exerciseSpan, fieldSeries, pairedSeries, provenanceOf, rollingExtreme, WindowMeans } from "./indexSeries";
+import { slopeBand } from "./bandCalibration";
 import { firstIndexAbove } from "./firstIndexAbove";
 import { readAtTime, type ThresholdPoint } from "./valuesAtThreshold";
 
@@ -14,6 +15,11 @@ export interface LineIndex {
   r2: Measured;
   /** Breaths used. */
   n: number;
+  /**
+   * Uncertainty band of the slope (the "to VT2" slope only): slope × (1 ± factor × relative SE from r² and the points
+   * fitted), the factor calibrated on invented tests to hold the true slope in about 8 of 10 (`bandCalibration.ts`).
+   */
+  band?: { low: number; high: number } | null;
 }
 
 export interface VeVco2Options {
@@ -296,16 +302,25 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
         slopeToVt2 = cornerLine(refined, pairs.t, p);
       } else slopeToVt2 = binnedLine(pairs.t, x, pairs.y, span.startS, k, binS, rollHalf, binProv, units);
     } else slopeToVt2 = lineIndexFromFit(sums, 0, k, units, toProv, minPoints);
+  }
+  {
+    // every branch: ventilation rises with CO2 output in exercise (common practice), so a flat or falling line, or one
+    // that VE follows only loosely, is not a VE/VCO2 slope but too little or too noisy data (below an early VT2, below a
+    // fitted break, or over a short exercise phase)
     const fitted = slopeToVt2.slope.value;
     const r2 = slopeToVt2.r2.value;
     const minR2 = options.minToVt2R2 ?? 0.5;
     const notRising = fitted !== null && !(fitted > 0);
     if (notRising || (fitted !== null && r2 !== null && r2 < minR2)) {
-      // ventilation rises with CO2 output in exercise (common practice): a flat or falling line below VT2, or one that
-      // VE follows only loosely, is not a VE/VCO2 slope but too little or too noisy data below an early VT2
+      const where = vt2
+        ? `below VT2 (${Math.round(vt2.timeS)} s)`
+        : slopeToVt2.slope.provenance.method === "ve-vco2-slope-below-fitted-break"
+          ? "below the fitted break"
+          : "over the exercise phase";
+      const check = vt2 ? "check VT2 by review" : "check the exercise phase and VT2 by review";
       const reason = notRising
-        ? `the line of VE on VCO2 below VT2 does not rise (slope ${fitted.toFixed(1)}): too few or too noisy data below VT2 (${Math.round(vt2.timeS)} s); check VT2 by review`
-        : `VE follows VCO2 only loosely below VT2 (r² ${r2!.toFixed(2)} < ${minR2}; slope ${fitted.toFixed(1)}): too little VCO2 range or too noisy data below VT2 (${Math.round(vt2.timeS)} s); check VT2 by review`;
+        ? `the line of VE on VCO2 ${where} does not rise (slope ${fitted.toFixed(1)}): too few or too noisy data; ${check}`
+        : `VE follows VCO2 only loosely ${where} (r² ${r2!.toFixed(2)} < ${minR2}; slope ${fitted.toFixed(1)}): too little VCO2 range or too noisy data; ${check}`;
       const prov = slopeToVt2.slope.provenance;
       slopeToVt2 = {
         slope: notDetermined("1", prov, reason),
@@ -313,6 +328,9 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
         r2: notDetermined("1", prov, reason),
         n: slopeToVt2.n,
       };
+      // the line set aside is not offered for review as a fitted-break slope either
+      const offered = issues.findIndex((i) => i.code === "ve-vco2-slope-below-fitted-break");
+      if (offered >= 0) issues.splice(offered, 1);
       issues.push(
         makeIssue(
           "warning",
@@ -344,6 +362,13 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
     issues.push(
       makeIssue("info", "no-ve-vco2", "No breaths with both VE and VCO2 in exercise: VE/VCO2 indices not determinable."),
     );
+  // the band of the slope "to VT2": its relative standard error from r² and the points (bins) fitted, widened by a
+  // factor calibrated on invented tests (README-thresholds.md, round 17)
+  if (slopeToVt2.slope.value !== null) {
+    const inputs = slopeToVt2.slope.provenance.inputs ?? {};
+    const points = typeof inputs.bins === "number" ? inputs.bins : typeof inputs.points === "number" ? inputs.points : null;
+    slopeToVt2 = { ...slopeToVt2, band: slopeBand(slopeToVt2.slope.value, slopeToVt2.r2.value, points) };
+  }
   return { slopeToVt2, slopeWholeExercise, nadir, atVt1, issues };
 }
 

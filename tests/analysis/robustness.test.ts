@@ -125,6 +125,11 @@ describe("the analysis of any recording", () => {
               expect(t.band.highMlMin).toBeGreaterThanOrEqual(v);
             }
           }
+          const slope = result.indices.veVco2.slopeToVt2;
+          if (slope.band && slope.slope.value !== null) {
+            expect(slope.band.low).toBeLessThanOrEqual(slope.slope.value);
+            expect(slope.band.high).toBeGreaterThanOrEqual(slope.slope.value);
+          }
           const v1 = result.thresholds.vt1;
           const v2 = result.thresholds.vt2;
           const firm = (c: string) => c === "moderate" || c === "high";

@@ -1,6 +1,13 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { BAND_CALIBRATION, bandScore, calibrateBand, conformalFactor } from "../../lib/thresholds/bandCalibration";
+import {
+  BAND_CALIBRATION,
+  bandScore,
+  calibrateBand,
+  conformalFactor,
+  slopeBand,
+  slopeRelativeScale,
+} from "../../lib/thresholds/bandCalibration";
 
 // Answers known by construction (the arithmetic of a locally scaled split-conformal band, Lei et al. 2018, J Am Stat
 // Assoc — confirmed abstract); the values below are invented.
@@ -54,5 +61,37 @@ describe("calibrated threshold band", () => {
       expect(b.lowMlMin).toBeLessThanOrEqual(1400);
       expect(b.highMlMin).toBeGreaterThanOrEqual(1550);
     }
+  });
+});
+
+describe("slope band", () => {
+  // The relative standard error from r² and n equals the textbook OLS standard error of the slope divided by the slope,
+  // SE(b) = √(SSE/(n − 2) / Sxx), computed here directly on invented points (answer known by construction).
+  it("matches the OLS standard error of the slope computed from the residuals", () => {
+    const x = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10];
+    const y = x.map((v, i) => 4 + 30 * v + [0.5, -1.2, 0.8, 0.1, -0.6, 1.4, -0.9, 0.3, -0.2, 0.7][i]);
+    const n = x.length;
+    const mx = x.reduce((a, b) => a + b, 0) / n;
+    const my = y.reduce((a, b) => a + b, 0) / n;
+    const sxx = x.reduce((a, v) => a + (v - mx) ** 2, 0);
+    const sxy = x.reduce((a, v, i) => a + (v - mx) * (y[i] - my), 0);
+    const syy = y.reduce((a, v) => a + (v - my) ** 2, 0);
+    const b = sxy / sxx;
+    const a0 = my - b * mx;
+    const sse = y.reduce((acc, v, i) => acc + (v - a0 - b * x[i]) ** 2, 0);
+    const se = Math.sqrt(sse / (n - 2) / sxx);
+    const r2 = (sxy * sxy) / (sxx * syy);
+    expect(slopeRelativeScale(r2, n)).toBeCloseTo(se / b, 12);
+  });
+
+  it("is symmetric about the slope, widens with the scale, and is absent when it cannot be formed", () => {
+    const band = slopeBand(30, 0.99, 27, 2)!;
+    const scale = Math.sqrt(0.01 / (0.99 * 25));
+    expect(band.low).toBeCloseTo(30 * (1 - 2 * scale), 12);
+    expect(band.high).toBeCloseTo(30 * (1 + 2 * scale), 12);
+    expect(slopeBand(30, 0.9, 27, 2)!.high).toBeGreaterThan(band.high); // looser fit, wider band
+    expect(slopeBand(30, 1, 27)).toBeNull(); // a perfect line has no scale
+    expect(slopeBand(30, 0.99, 2)).toBeNull();
+    expect(slopeBand(30, null, 27)).toBeNull();
   });
 });
