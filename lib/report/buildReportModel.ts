@@ -131,6 +131,13 @@ export function buildReportModel(
     ["Lowest SpO2", ix.spo2.lowestPct, 0],
   ];
   for (const [label, m, d] of extra) if (m) keyValues.push(measuredRow(label, m, d));
+  // the slope to VT2 carries its calibrated band (its meaning is stated in the methods)
+  const slopeBand = ix.veVco2.slopeToVt2.band;
+  const slopeRow = keyValues.find((r) => r.label === slopeToVt2Name(ix.veVco2.slopeToVt2));
+  if (slopeBand && slopeRow)
+    slopeRow.note = [slopeRow.note, `band ${formatNumber(slopeBand.low, 1)}–${formatNumber(slopeBand.high, 1)}`]
+      .filter(Boolean)
+      .join("; ");
   keyValues.push(measuredRow("Recording duration", pk.testDurationS, 0, formatClock));
   keyValues[keyValues.length - 1].unit = "min:s";
 

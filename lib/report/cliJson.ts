@@ -33,6 +33,8 @@ export interface CliAnalysisJson {
     /** What the slope "to RCP" was fitted to, in words (the RCP, the whole exercise, or a fitted break). */
     toRcpFittedTo: string;
     toRcpIntercept: number | null;
+    /** Calibrated band of the slope to RCP (about 8 of 10 invented tests), or null. */
+    toRcpBand: { low: number; high: number } | null;
     whole: number | null;
     wholeIntercept: number | null;
     nadir: number | null;
@@ -184,6 +186,7 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       toRcp: nd("VE/VCO2 slope to RCP", ix.veVco2.slopeToVt2.slope),
       toRcpFittedTo: slopeToVt2Name(ix.veVco2.slopeToVt2),
       toRcpIntercept: val(ix.veVco2.slopeToVt2.intercept),
+      toRcpBand: ix.veVco2.slopeToVt2.band ?? null,
       whole: nd("VE/VCO2 slope, whole exercise", ix.veVco2.slopeWholeExercise.slope),
       wholeIntercept: val(ix.veVco2.slopeWholeExercise.intercept),
       nadir: val(ix.veVco2.nadir),

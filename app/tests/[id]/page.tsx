@@ -246,7 +246,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           methodLabels={methodLabels}
         />
       </div>
-      {[result.thresholds.vt1, result.thresholds.vt2].some((t) => t.band && !t.overridden) ? (
+      {[result.thresholds.vt1, result.thresholds.vt2].some((t) => t.band && !t.overridden) || ix.veVco2.slopeToVt2.band ? (
         <p data-testid="band-meaning">
           <small>{BAND_MEANING}</small>
         </p>
@@ -303,7 +303,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
               label={slopeToVt2Name(ix.veVco2.slopeToVt2)}
               m={ix.veVco2.slopeToVt2.slope}
               d={1}
-              extra={`intercept ${fmt(ix.veVco2.slopeToVt2.intercept, 1)} L/min`}
+              extra={`intercept ${fmt(ix.veVco2.slopeToVt2.intercept, 1)} L/min${slopeBandWords(ix.veVco2.slopeToVt2.band)}`}
             />
             <IndexRow
               label="VE/VCO2 slope, whole exercise"
@@ -609,6 +609,11 @@ function range(lower: Measured | null | undefined, upper: Measured | null | unde
   if (lo === "—") return `up to ${hi}`;
   if (hi === "—") return `from ${lo}`;
   return `${lo} – ${hi}`;
+}
+
+/** "; band a–b" for a slope's calibrated band (see the band's meaning under the threshold panels), or "". */
+function slopeBandWords(band: { low: number; high: number } | null | undefined): string {
+  return band ? `; band ${formatNumber(band.low, 1)}–${formatNumber(band.high, 1)}` : "";
 }
 
 function IndexRow({ label, m, d, extra, unit }: { label: string; m: Measured; d: number; extra?: string; unit?: string }) {
