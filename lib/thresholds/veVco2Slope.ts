@@ -164,8 +164,9 @@ export function slopeToVt2Name(line: LineIndex): string {
  * compensation, the lower line of a two-line fit whose break the fit places itself (`fittedBreakWhenNoVt2`). The whole-exercise
  * slope stays breath by breath. One prefix-sum pass for the whole slope; O(n) for the binned one.
  *
- * Degenerate cases: fewer than 10 breaths in a range → not determinable; a line below VT2 that does not rise or has
- * r² < 0.5 (`minToVt2R2`) → not determinable with the reason and a warning.
+ * Degenerate cases: fewer than 10 breaths in a range → not determinable; a "to VT2" line (below VT2, below a fitted
+ * break, or over the whole exercise) that does not rise or has r² < 0.5 (`minToVt2R2`) → not determinable with the
+ * reason and a warning. The "to VT2" slope carries a calibrated band (`slopeBand`, README-thresholds.md round 17).
  */
 export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}): VeVco2Result {
   const issues: Issue[] = [];
