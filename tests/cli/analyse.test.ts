@@ -196,7 +196,8 @@ describe("cpet analyse: full output on real and invented files", () => {
       expect(r.stdout).toBe("");
       expect(r.stderr).toMatch(text);
     }
-  });
+    // four CLI processes in one test: 13–14 s on a quiet 2-core machine, 30 s once under load; the default 20 s is for one
+  }, 90_000);
 
   it("a usage error is one line and a pointer to the help, not the whole help text", () => {
     const r = run(["analyse", "--no-such-option"]);
