@@ -37,13 +37,18 @@ export const BAND_CALIBRATION: Record<ThresholdWhich, BandCalibration> = {
   vt2: { factor: 1.46, floorFraction: 0.03 },
 };
 
+/** Least length of a band side before widening: the floor, and never below a rounding step of the value. */
+function sideFloor(valueMlMin: number, floorFraction: number): number {
+  return Math.max(floorFraction * valueMlMin, Number.EPSILON * valueMlMin);
+}
+
 /** Widen a raw band about the value: each side × factor, each side at least floorFraction × value before widening. */
 export function calibrateBand(
   raw: { lowMlMin: number; highMlMin: number },
   valueMlMin: number,
   cal: BandCalibration,
 ): { lowMlMin: number; highMlMin: number } {
-  const floor = cal.floorFraction * valueMlMin;
+  const floor = sideFloor(valueMlMin, cal.floorFraction);
   const below = Math.max(valueMlMin - raw.lowMlMin, floor);
   const above = Math.max(raw.highMlMin - valueMlMin, floor);
   return { lowMlMin: valueMlMin - cal.factor * below, highMlMin: valueMlMin + cal.factor * above };
@@ -59,7 +64,7 @@ export function bandScore(
   truthMlMin: number,
   floorFraction: number,
 ): number {
-  const floor = Math.max(floorFraction * valueMlMin, Number.EPSILON * valueMlMin);
+  const floor = sideFloor(valueMlMin, floorFraction);
   return truthMlMin < valueMlMin
     ? (valueMlMin - truthMlMin) / Math.max(valueMlMin - raw.lowMlMin, floor)
     : (truthMlMin - valueMlMin) / Math.max(raw.highMlMin - valueMlMin, floor);
