@@ -12,7 +12,7 @@
 import { pathToFileURL } from "node:url";
 import { quantile } from "../lib/numeric";
 import type { NoiseLevel } from "../lib/synthetic";
-import { bandScore, conformalFactor } from "../lib/thresholds/bandCalibration";
+import { bandScore, calibrateBand, conformalFactor } from "../lib/thresholds/bandCalibration";
 import { runThresholdBank, type BankGenerator, type BankRow } from "./threshold-bank";
 
 const LEVELS: NoiseLevel[] = ["low", "moderate", "high"];
@@ -55,9 +55,8 @@ export function coverage(rows: BankRow[], factor: number, floor: number): { cove
   for (const r of rows) {
     const v = r.value as number;
     if (bandScore(raw(r), v, r.truth as number, floor) <= factor) held++;
-    const below = Math.max(v - r.band!.low, floor * v);
-    const above = Math.max(r.band!.high - v, floor * v);
-    widths.push((100 * factor * (below + above)) / v);
+    const b = calibrateBand(raw(r), v, { factor, floorFraction: floor });
+    widths.push((100 * (b.highMlMin - b.lowMlMin)) / v);
   }
   return { coverPct: (100 * held) / rows.length, widthPct: quantile(widths, 0.5) };
 }

@@ -26,7 +26,7 @@ import {
 import { detectThresholds } from "../lib/thresholds/detectThresholds";
 import { quantile } from "../lib/numeric";
 import { slopeRelativeScale } from "../lib/thresholds/bandCalibration";
-import { veVco2Slope, type LineIndex } from "../lib/thresholds/veVco2Slope";
+import { fittedPoints, veVco2Slope, type LineIndex } from "../lib/thresholds/veVco2Slope";
 
 export interface BankRow {
   id: string;
@@ -141,8 +141,6 @@ export interface BankOptions {
 /** The row of the VE/VCO2 slope to VT2 against the noise-free truth, with its band and scale. */
 function slopeRow(id: string, noise: NoiseLevel, line: LineIndex, truth: number): BankRow {
   const v = line.slope.value;
-  const inputs = line.slope.provenance.inputs ?? {};
-  const points = typeof inputs.bins === "number" ? inputs.bins : typeof inputs.points === "number" ? inputs.points : null;
   return {
     id,
     noise,
@@ -152,7 +150,7 @@ function slopeRow(id: string, noise: NoiseLevel, line: LineIndex, truth: number)
     value: v,
     truth,
     band: line.band ?? null,
-    scale: slopeRelativeScale(line.r2.value, points),
+    scale: slopeRelativeScale(line.r2.value, fittedPoints(line)),
   };
 }
 

@@ -5,8 +5,8 @@
  * written blind to the methods — measure on them, never choose a setting on them alone), SCREEN_SIZE (tests per bank, default 240),
  * SCREEN_NOISE (low | moderate | high, default moderate), SCREEN_BOOTSTRAP (resamples, default 20).
  * Prints per bank the VT1 consensus and joint-profile median / P90 / no-call %, VT2 and the VE/VCO2 slope hits, how
- * often the band holds the true VT1 and VT2, then the mean over banks. The mean of six 240-test banks moves by about ±0.2 points between equivalent settings
- * (README-thresholds.md, round 7): read smaller differences as noise.
+ * often the band holds the true VT1 and VT2, then the mean over banks. The mean of six 240-test banks moves by about
+ * ±0.2 points between equivalent settings (README-thresholds.md, round 7): read smaller differences as noise.
  */
 import { pathToFileURL } from "node:url";
 import type { NoiseLevel } from "../lib/synthetic";

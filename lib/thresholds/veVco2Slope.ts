@@ -101,6 +101,12 @@ export interface VeVco2Result {
   issues: Issue[];
 }
 
+/** The points a line was fitted to: its bins when fitted on bin means, else its breaths (or stages); null if unrecorded. */
+export function fittedPoints(line: LineIndex): number | null {
+  const inputs = line.slope.provenance.inputs ?? {};
+  return typeof inputs.bins === "number" ? inputs.bins : typeof inputs.points === "number" ? inputs.points : null;
+}
+
 /** Report an OLS fit over indices [from, to) of prefix sums as a LineIndex with shared provenance. */
 export function lineIndexFromFit(
   sums: PrefixSums,
@@ -365,11 +371,8 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
     );
   // the band of the slope "to VT2": its relative standard error from r² and the points (bins) fitted, widened by a
   // factor calibrated on invented tests (README-thresholds.md, round 17)
-  if (slopeToVt2.slope.value !== null) {
-    const inputs = slopeToVt2.slope.provenance.inputs ?? {};
-    const points = typeof inputs.bins === "number" ? inputs.bins : typeof inputs.points === "number" ? inputs.points : null;
-    slopeToVt2 = { ...slopeToVt2, band: slopeBand(slopeToVt2.slope.value, slopeToVt2.r2.value, points) };
-  }
+  if (slopeToVt2.slope.value !== null)
+    slopeToVt2 = { ...slopeToVt2, band: slopeBand(slopeToVt2.slope.value, slopeToVt2.r2.value, fittedPoints(slopeToVt2)) };
   return { slopeToVt2, slopeWholeExercise, nadir, atVt1, issues };
 }
 
