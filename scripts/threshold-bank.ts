@@ -61,9 +61,15 @@ export interface BankStats {
 }
 
 /** A synthetic test with its truth and noise level, as every model returns it. */
-interface BankCase {
+export interface BankCase {
   id: string;
-  make: () => { table: Parameters<typeof conditionTable>[0]; truth: SyntheticTruth; noise: NoiseLevel };
+  make: () => {
+    table: Parameters<typeof conditionTable>[0];
+    /** The same breaths without noise or artefacts. */
+    noiseFree: Parameters<typeof conditionTable>[0];
+    truth: SyntheticTruth;
+    noise: NoiseLevel;
+  };
 }
 
 /** A model written blind: test i of a bank drawn from its spec function with the bank's seed (seed + i generates). */
@@ -86,7 +92,7 @@ const GENERATORS = {
       id: c.id,
       make: () => {
         const syn = generateSyntheticTest(c.spec, c.seed);
-        return { table: syn.table, truth: syn.truth, noise: syn.spec.noise };
+        return { table: syn.table, noiseFree: syn.noiseFree, truth: syn.truth, noise: syn.spec.noise };
       },
     })),
   variant: (size: number, seed = 77, levels: NoiseLevel[]): BankCase[] =>
@@ -94,28 +100,33 @@ const GENERATORS = {
       id: `variant-${i}`,
       make: () => {
         const syn = generateVariantTest(variantSpec(i, seed, levels), 5000 + i);
-        return { table: syn.table, truth: syn.truth, noise: syn.variant.noise };
+        return { table: syn.table, noiseFree: syn.noiseFree, truth: syn.truth, noise: syn.variant.noise };
       },
     })),
   holdout: blindModel("holdout", 31, (i, seed, levels) => {
     const syn = generateHoldoutTest(holdoutSpec(i, seed, levels), seed + i);
-    return { table: syn.table, truth: syn.truth, noise: syn.holdout.noise };
+    return { table: syn.table, noiseFree: syn.noiseFree, truth: syn.truth, noise: syn.holdout.noise };
   }),
   audit: blindModel("audit", 41, (i, seed, levels) => {
     const syn = generateAuditTest(auditSpec(i, seed, levels), seed + i);
-    return { table: syn.table, truth: syn.truth, noise: syn.audit.noise };
+    return { table: syn.table, noiseFree: syn.noiseFree, truth: syn.truth, noise: syn.audit.noise };
   }),
   crosscheck: blindModel("crosscheck", 53, (i, seed, levels) => {
     const syn = generateCrossCheckTest(crossCheckSpec(i, seed, levels), seed + i);
-    return { table: syn.table, truth: syn.truth, noise: syn.crossCheck.noise };
+    return { table: syn.table, noiseFree: syn.noiseFree, truth: syn.truth, noise: syn.crossCheck.noise };
   }),
   secondopinion: blindModel("secondopinion", 67, (i, seed, levels) => {
     const syn = generateSecondOpinionTest(secondOpinionSpec(i, seed, levels), seed + i);
-    return { table: syn.table, truth: syn.truth, noise: syn.secondOpinion.noise };
+    return { table: syn.table, noiseFree: syn.noiseFree, truth: syn.truth, noise: syn.secondOpinion.noise };
   }),
 };
 
 export type BankGenerator = keyof typeof GENERATORS;
+
+/** The test cases of one bank (generated lazily by `make`): the model, size, seed (default per model) and noise levels. */
+export function bankCases(generator: BankGenerator, size: number, seed: number | undefined, levels: NoiseLevel[]): BankCase[] {
+  return GENERATORS[generator](size, seed, levels);
+}
 
 /** A generator name from text (an env var or a screen set), "main" when it names none. */
 export function bankGenerator(name: string | undefined): BankGenerator {
@@ -157,7 +168,7 @@ function slopeRow(id: string, noise: NoiseLevel, line: LineIndex, truth: number)
 /** Run the bank and return one row per (test, threshold, method) plus the consensus rows. */
 export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats: BankStats[]; ms: number } {
   const levels = options.noiseLevels ?? ["low", "moderate", "high"];
-  const cases = GENERATORS[options.generator ?? "main"](options.size, options.seed, levels);
+  const cases = bankCases(options.generator ?? "main", options.size, options.seed, levels);
   const rows: BankRow[] = [];
   const t0 = performance.now();
   for (const c of cases) {
