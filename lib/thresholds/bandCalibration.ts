@@ -82,7 +82,7 @@ export function conformalFactor(scores: readonly number[], coverage: number): nu
 
 /** What the band means, in the words the page and the report show beside it (the figures are those of the calibration). */
 export const BAND_MEANING =
-  "Band: the range that held the true value in about 8 of 10 invented recordings with moderate breath noise (fewer when a threshold is a gradual onset or the breaths are noisier); for VT1, VT2 and the VE/VCO2 slope to VT2. It says how closely the data place the value, not that the reading is right: check it on the plots.";
+  "Band: the range that held the true value in about 8 of 10 invented recordings with moderate breath noise (fewer when a threshold is a gradual onset or the breaths are noisier); for VT1, VT2, the VE/VCO2 slopes, OUES and ΔVO2/ΔWR. It says how closely the data place the value, not that the reading is right: check it on the plots.";
 
 /**
  * Relative standard error of a fitted line's slope from its r² and point count, √((1 − r²) / (r² · (n − 2))): the
@@ -112,7 +112,56 @@ export function slopeBand(
   points: number | null,
   factor = SLOPE_BAND_FACTOR,
 ): { low: number; high: number } | null {
-  const scale = slopeRelativeScale(r2, points);
-  if (scale === null) return null;
-  return { low: slope * (1 - factor * scale), high: slope * (1 + factor * scale) };
+  return bandFromScale(slope, slopeRelativeScale(r2, points), factor);
 }
+
+/** value × (1 ± factor · scale), low ≤ high whatever the sign of the value; null without a scale. */
+export function bandFromScale(value: number, scale: number | null, factor: number): { low: number; high: number } | null {
+  if (scale === null || !Number.isFinite(value)) return null;
+  const a = value * (1 - factor * scale);
+  const b = value * (1 + factor * scale);
+  return { low: Math.min(a, b), high: Math.max(a, b) };
+}
+
+/** The slope indices with a calibrated band beside the VE/VCO2 slope to VT2. */
+export type SlopeIndexName = "veVco2Whole" | "oues" | "dVo2dWr";
+
+/** Largest residual lag-1 autocorrelation `autocorrelatedSlopeScale` takes (our choice: keeps the inflation ≤ √39 ≈ 6.2). */
+export const MAX_RESIDUAL_LAG1 = 0.95;
+
+/**
+ * Relative standard error of a slope fitted breath by breath, allowing for serially correlated residuals:
+ * `slopeRelativeScale` × √((1 + ρ)/(1 − ρ)), ρ the residuals' lag-1 autocorrelation clamped to [0, 0.95]. This is the
+ * plain standard error with the points counted as the effective number of independent ones, n·(1 − ρ)/(1 + ρ), the
+ * adjustment used for trends in serially correlated series (Santer et al. 2008, Int J Climatol 28:1703 — secondary: a
+ * replication lists its lag-1 autocorrelation and effective-n columns; the formula is recalled). Breath noise that
+ * persists over a few breaths and any curvature of the relation make neighbouring residuals alike, so the plain scale,
+ * which counts every breath as independent, tracks the error of these slopes less well: with factors fitted alike, this
+ * one's band held the truth more often on 11 of 12 pairs of blind model and index at moderate noise (ΔVO2/ΔWR on the
+ * hold-out 44 → 61 %), and on 18 real recordings (ACTES) ρ was 0.53–0.87 (README-thresholds.md, round 18). Null without
+ * a scale.
+ */
+export function autocorrelatedSlopeScale(r2: number | null, points: number | null, lag1: number | null): number | null {
+  const plain = slopeRelativeScale(r2, points);
+  if (plain === null || lag1 === null || !Number.isFinite(lag1)) return plain;
+  const rho = Math.min(MAX_RESIDUAL_LAG1, Math.max(0, lag1));
+  return plain * Math.sqrt((1 + rho) / (1 - rho));
+}
+
+/**
+ * Factors on the band scale (`lineBandScale` in veVco2Slope.ts: `autocorrelatedSlopeScale`, divided by the reliability
+ * when the band is centred on a dilution-corrected slope) for the whole-exercise VE/VCO2 slope, OUES (one factor for its
+ * 100, 90 and 75 % fits) and ΔVO2/ΔWR: the ⌈(n + 1)·0.8⌉-th smallest score |truth − centre| / (centre · scale) over the
+ * moderate-noise tests of main seeds 99 and 5 and variant seeds 2024 and 99, 80 per seed (split conformal, Lei et al.
+ * 2018, as for the thresholds; `INDEX_CALIBRATE=1 npx tsx scripts/index-bank.ts` prints them). Truth: the same
+ * least-squares line through the noise-free breaths of the true incremental phase. Check banks (main 2024, variant 77)
+ * at low / moderate / high noise, the band held the truth in: VE/VCO2 whole 89 / 79 / 79 % (median width 2.6 / 3.3 /
+ * 6.0 % of the value), OUES 88 / 77 / 72 % (3.3 / 4.2 / 6.3 %), ΔVO2/ΔWR 84 / 86 / 80 % (2.8 / 5.4 / 8.7 %); the
+ * models written blind at moderate noise 58–80, 59–78 and 63–88 % (README-thresholds.md, round 18). Breath-by-breath
+ * recordings only: stage tables get no band.
+ */
+export const INDEX_BAND_FACTORS: Record<SlopeIndexName, number> = {
+  veVco2Whole: 0.89,
+  oues: 0.97,
+  dVo2dWr: 1.3,
+};

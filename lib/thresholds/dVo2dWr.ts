@@ -3,7 +3,7 @@ import { PrefixSums } from "../numeric/linearRegression";
 import type { ConditionedTest } from "../signal";
 import { exerciseSpan, pairedSeries, provenanceOf } from "./indexSeries";
 import type { ThresholdPoint } from "./valuesAtThreshold";
-import { lineIndexFromFit, type LineIndex } from "./veVco2Slope";
+import { lineIndexFromFit, withIndexBand, type LineIndex } from "./veVco2Slope";
 
 export interface DVo2dWrOptions {
   /** Start of the ramp excluded for the VO2 response lag, seconds (method detail recalled). Stage tables: 0. @default 60 */
@@ -55,7 +55,7 @@ export function dVo2dWr(test: ConditionedTest, options: DVo2dWrOptions = {}): DV
   const minPoints = stage ? 3 : 10;
   const sourceIds = ["hansen-1987-vo2-wr", "vo2-lag-exclusion"];
   const averaging = stage ? "stage values" : "breath by breath (artefact-cleaned)";
-  const whole = lineIndexFromFit(
+  const wholeFit = lineIndexFromFit(
     sums,
     0,
     pairs.x.length,
@@ -72,6 +72,8 @@ export function dVo2dWr(test: ConditionedTest, options: DVo2dWrOptions = {}): DV
     ),
     minPoints,
   );
+  // breath-by-breath recordings: the calibrated band (README-thresholds.md round 18); stage tables: none
+  const whole = stage ? wholeFit : withIndexBand(wholeFit, pairs.x, pairs.y, 0, pairs.x.length, "dVo2dWr");
   let splitS: number | null = null;
   let splitBy: DVo2dWrResult["splitBy"] = null;
   if (fitSpan && pairs.t.length > 0) {

@@ -2,7 +2,7 @@ import { makeIssue, type Issue } from "../core";
 import { PrefixSums } from "../numeric/linearRegression";
 import type { ConditionedTest } from "../signal";
 import { exerciseSpan, pairedSeries, provenanceOf } from "./indexSeries";
-import { lineIndexFromFit, type LineIndex } from "./veVco2Slope";
+import { lineIndexFromFit, withIndexBand, type LineIndex } from "./veVco2Slope";
 
 export interface OuesOptions {
   /** Fractions of exercise duration (from its start) to fit over. @default [1, 0.9, 0.75] */
@@ -22,7 +22,8 @@ export interface OuesResult {
 /**
  * Oxygen uptake efficiency slope (Baba et al. 1996 JACC, confirmed): VO2 (mL/min) = a·log10 VE (L/min) + b;
  * OUES = a, in mL/min per log10(L/min), fitted over the first 100%, 90% and 75% of exercise duration.
- * One prefix-sum pass; each fraction is a prefix range, O(1) after O(n).
+ * One prefix-sum pass; each fraction is a prefix range, O(1) after O(n) (the band's residual pass is O(n) per fit).
+ * Breath-by-breath fits carry a calibrated band (`withIndexBand`, README-thresholds.md round 18).
  *
  * Degenerate cases: breaths with VE ≤ 0 are skipped; fewer than 10 breaths (3 stages) → not determinable.
  */
@@ -57,10 +58,8 @@ export function oues(test: ConditionedTest, options: OuesOptions = {}): OuesResu
         inputs: { fraction },
       },
     );
-    return {
-      fraction,
-      ...lineIndexFromFit(sums, 0, k, { slope: "mL/min per log10(L/min)", intercept: "mL/min" }, prov, minPoints),
-    };
+    const line = lineIndexFromFit(sums, 0, k, { slope: "mL/min per log10(L/min)", intercept: "mL/min" }, prov, minPoints);
+    return { fraction, ...(test.shape === "breath" ? withIndexBand(line, x, y, 0, k, "oues") : line) };
   });
   if (x.length === 0)
     issues.push(makeIssue("info", "no-ve-vo2", "No breaths with both VE and VO2 in exercise: OUES not determinable."));

@@ -1,10 +1,17 @@
 import { makeIssue, measured, notDetermined, type Issue, type Measured, type Provenance } from "../core";
 import { binByTime } from "../numeric/binByTime";
 import { centredMovingMean } from "../numeric/centredMovingMean";
-import { PrefixSums } from "../numeric/linearRegression";
+import { dilutionCorrectedSlope, PrefixSums, residualLag1 } from "../numeric/linearRegression";
 import type { ConditionedTest } from "../signal";
 import { exerciseSpan, fieldSeries, pairedSeries, provenanceOf, rollingExtreme, WindowMeans } from "./indexSeries";
-import { slopeBand } from "./bandCalibration";
+import {
+  autocorrelatedSlopeScale,
+  bandFromScale,
+  INDEX_BAND_FACTORS,
+  slopeBand,
+  slopeRelativeScale,
+  type SlopeIndexName,
+} from "./bandCalibration";
 import { firstIndexAbove } from "./firstIndexAbove";
 import { readAtTime, type ThresholdPoint } from "./valuesAtThreshold";
 
@@ -16,8 +23,10 @@ export interface LineIndex {
   /** Breaths used. */
   n: number;
   /**
-   * Uncertainty band of the slope (the "to VT2" slope only): slope × (1 ± factor × relative SE from r² and the points
-   * fitted), the factor calibrated on invented tests to hold the true slope in about 8 of 10 (`bandCalibration.ts`).
+   * Uncertainty band of the slope: slope × (1 ± factor × relative SE from r² and the points fitted — for the
+   * breath-by-breath indices also their residuals' lag-1 autocorrelation), the factor calibrated on invented tests to
+   * hold the true slope in about 8 of 10 (`bandCalibration.ts`). Set on the "to VT2" and whole-exercise VE/VCO2 slopes,
+   * the OUES fits and the whole ΔVO2/ΔWR; absent elsewhere.
    */
   band?: { low: number; high: number } | null;
 }
@@ -140,6 +149,75 @@ export function lineIndexFromFit(
 }
 
 /**
+ * The same line with its calibrated band, traceable from its provenance inputs:
+ * - `residualLag1`: the residuals' lag-1 autocorrelation, which with r² and the points fitted gives the band's relative
+ *   scale (`lineBandScale`);
+ * - for the VE/VCO2 and OUES lines, whose x (VCO2, log10 VE) carries breath noise, `dilutionCorrected` and
+ *   `reliability`: the slope with that noise taken out of the moments (`dilutionCorrectedSlope`). Breath noise in x
+ *   flattens a least-squares slope (regression dilution): on invented tests at moderate noise the whole-exercise VE/VCO2
+ *   slope read a median −1.2 to −2.0 % on four of six models and +2.6 % on one whose VE and VCO2 noise move together;
+ *   OUES −5.4 % on the noisiest. The corrected slope's median error was −0.1 to +1.9 % on all six (README-thresholds.md,
+ *   round 18). The reported value stays the published least-squares slope, which reference values and cut-offs were
+ *   built on; the band is centred on the corrected slope and always holds the reported one.
+ * The band: centre × (1 ± `INDEX_BAND_FACTORS[family]` × scale), joined with the reported value. x and y are the arrays
+ * the line was fitted to over [from, to), in time order. A line not determined is returned unchanged.
+ */
+export function withIndexBand(
+  line: LineIndex,
+  x: ArrayLike<number>,
+  y: ArrayLike<number>,
+  from: number,
+  to: number,
+  family: SlopeIndexName,
+): LineIndex {
+  const slope = line.slope.value;
+  const intercept = line.intercept.value;
+  if (slope === null || intercept === null) return line;
+  const lag1 = residualLag1(x, y, from, to, slope, intercept);
+  // ΔVO2/ΔWR: x is the ergometer's work rate, set by the protocol, not measured breath by breath: nothing to correct
+  const corrected = family === "dVo2dWr" ? null : dilutionCorrectedSlope(x, y, from, to);
+  const inputs = {
+    ...line.slope.provenance.inputs,
+    residualLag1: Number.isFinite(lag1) ? lag1 : null,
+    ...(corrected
+      ? {
+          dilutionCorrected: Number.isFinite(corrected.slope) ? corrected.slope : null,
+          reliability: Number.isFinite(corrected.reliability) ? corrected.reliability : null,
+        }
+      : {}),
+  };
+  const re = (m: Measured): Measured => ({ ...m, provenance: { ...m.provenance, inputs } });
+  const banded: LineIndex = { ...line, slope: re(line.slope), intercept: re(line.intercept), r2: re(line.r2) };
+  const around = bandFromScale(bandCentre(banded) ?? slope, lineBandScale(banded), INDEX_BAND_FACTORS[family]);
+  return {
+    ...banded,
+    band: around && { low: Math.min(around.low, slope), high: Math.max(around.high, slope) },
+  };
+}
+
+/** Where a line's band is centred: its dilution-corrected slope when one was recorded (`withIndexBand`), else its slope. */
+export function bandCentre(line: LineIndex): number | null {
+  const c = line.slope.provenance.inputs?.dilutionCorrected;
+  return typeof c === "number" && Number.isFinite(c) ? c : line.slope.value;
+}
+
+/**
+ * The relative scale a line's band is built on: `autocorrelatedSlopeScale` when its provenance records the residuals'
+ * lag-1 autocorrelation (`withIndexBand`), else `slopeRelativeScale` from r² and the points fitted; null without one.
+ */
+export function lineBandScale(line: LineIndex): number | null {
+  const inputs = line.slope.provenance.inputs ?? {};
+  const lag1 = inputs.residualLag1;
+  if (typeof lag1 !== "number") return slopeRelativeScale(line.r2.value, fittedPoints(line));
+  const scale = autocorrelatedSlopeScale(line.r2.value, fittedPoints(line), lag1);
+  // a dilution-corrected centre divides the moments by the reliability, and its scatter grows by as much (Fuller 1987)
+  const reliability = inputs.reliability;
+  return scale !== null && typeof inputs.dilutionCorrected === "number" && typeof reliability === "number" && reliability > 0
+    ? scale / reliability
+    : scale;
+}
+
+/**
  * A short name for the slope "to VT2" that says what it was fitted to: the RCP, the whole exercise phase when the test
  * shows no respiratory compensation, or a break the fit placed itself when VT2 was not determinable. Screens, report and
  * chart legend use it so a slope with no RCP behind it is never labelled "to RCP".
@@ -192,7 +270,8 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
       averaging: "breath by breath (artefact-cleaned)",
     },
   );
-  const slopeWholeExercise = lineIndexFromFit(sums, 0, x.length, units, wholeProv, minPoints);
+  const wholeFit = lineIndexFromFit(sums, 0, x.length, units, wholeProv, minPoints);
+  const slopeWholeExercise = test.shape === "breath" ? withIndexBand(wholeFit, x, pairs.y, 0, x.length, "veVco2Whole") : wholeFit;
 
   const vt2 = options.vt2;
   const toProv = provenanceOf(

@@ -11,8 +11,8 @@ import { initialDraftSections } from "../../lib/report/initialDraftSections";
 import * as S from "../../lib/synthetic";
 
 // Whatever a recording looks like, the analysis answers: no exception, no NaN or infinity in the CLI JSON, the indices
-// (their provenance too) or the words of the draft report, thresholds inside the exercise and in order, a band that
-// holds its value, and CLI JSON that its schema accepts. Recordings are INVENTED: the six synthetic models (two written
+// (their provenance too) or the words of the draft report, thresholds inside the exercise and in order, bands (thresholds,
+// VE/VCO2 slopes, OUES, ΔVO2/ΔWR) that hold their values, and CLI JSON that its schema accepts. Recordings are INVENTED: the six synthetic models (two written
 // with the methods, four written blind), any noise level, with signals removed as carts and exports sometimes leave
 // them out, stopped early (down to 5 % of the rows) and with a stretch of rows lost. 40 cases per run (FUZZ_RUNS and
 // FUZZ_SEED widen the search: 300–600 cases on four other seeds passed when this was written).
@@ -125,11 +125,13 @@ describe("the analysis of any recording", () => {
               expect(t.band.highMlMin).toBeGreaterThanOrEqual(v);
             }
           }
-          const slope = result.indices.veVco2.slopeToVt2;
-          if (slope.band && slope.slope.value !== null) {
-            expect(slope.band.low).toBeLessThanOrEqual(slope.slope.value);
-            expect(slope.band.high).toBeGreaterThanOrEqual(slope.slope.value);
-          }
+          const ix = result.indices;
+          for (const line of [ix.veVco2.slopeToVt2, ix.veVco2.slopeWholeExercise, ix.dVo2dWr.whole, ...ix.oues.fits])
+            if (line.band && line.slope.value !== null) {
+              expect(line.band.low).toBeLessThanOrEqual(line.slope.value);
+              expect(line.band.high).toBeGreaterThanOrEqual(line.slope.value);
+              expect(Number.isFinite(line.band.low) && Number.isFinite(line.band.high)).toBe(true);
+            }
           const v1 = result.thresholds.vt1;
           const v2 = result.thresholds.vt2;
           const firm = (c: string) => c === "moderate" || c === "high";

@@ -5,6 +5,9 @@ import {
   bandScore,
   calibrateBand,
   conformalFactor,
+  autocorrelatedSlopeScale,
+  bandFromScale,
+  MAX_RESIDUAL_LAG1,
   slopeBand,
   slopeRelativeScale,
 } from "../../lib/thresholds/bandCalibration";
@@ -102,5 +105,27 @@ describe("slope band", () => {
     expect(slopeBand(30, 1, 27)).toBeNull(); // a perfect line has no scale
     expect(slopeBand(30, 0.99, 2)).toBeNull();
     expect(slopeBand(30, null, 27)).toBeNull();
+  });
+});
+
+// The effective number of independent points of a serially correlated series, n·(1 − ρ)/(1 + ρ) (Santer et al. 2008, Int J
+// Climatol — secondary; formula recalled): the standard error grows by √((1 + ρ)/(1 − ρ)). Arithmetic by construction.
+describe("slope scale with serially correlated residuals", () => {
+  it("is the plain scale at ρ ≤ 0, twice it at ρ = 0.6, and stops growing at the clamp", () => {
+    const plain = slopeRelativeScale(0.98, 300)!;
+    expect(autocorrelatedSlopeScale(0.98, 300, 0)).toBeCloseTo(plain, 15);
+    expect(autocorrelatedSlopeScale(0.98, 300, -0.4)).toBeCloseTo(plain, 15);
+    expect(autocorrelatedSlopeScale(0.98, 300, 0.6)).toBeCloseTo(2 * plain, 12); // √(1.6/0.4) = 2
+    const top = Math.sqrt((1 + MAX_RESIDUAL_LAG1) / (1 - MAX_RESIDUAL_LAG1));
+    expect(autocorrelatedSlopeScale(0.98, 300, 0.999)).toBeCloseTo(top * plain, 12);
+    expect(autocorrelatedSlopeScale(0.98, 300, null)).toBeCloseTo(plain, 15);
+    expect(autocorrelatedSlopeScale(1, 300, 0.5)).toBeNull();
+  });
+
+  it("gives a band low ≤ high for either sign of the value, none without a scale", () => {
+    expect(bandFromScale(10, 0.1, 2)).toEqual({ low: 8, high: 12 });
+    expect(bandFromScale(-10, 0.1, 2)).toEqual({ low: -12, high: -8 });
+    expect(bandFromScale(10, null, 2)).toBeNull();
+    expect(bandFromScale(NaN, 0.1, 2)).toBeNull();
   });
 });
