@@ -167,14 +167,17 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
 function formatText(r: CliAnalysisJson): string {
   // a value with its unit, or "not determinable" without one
   const n = (x: number | null, d = 0, unit = "") => (x === null ? "not determinable" : `${x.toFixed(d)}${unit}`);
+  // a calibrated band after its value ("band" means what the JSON Schema says), or nothing
+  const b = (band: { low: number; high: number } | null, d = 0) =>
+    band ? `, band ${band.low.toFixed(d)}-${band.high.toFixed(d)}` : "";
   const lines = [
     `peak VO2        ${n(r.peak.vo2MlMin, 0, " mL/min")}, ${r.peak.vo2MlKgMin === null ? "per kg not determinable (give --weight-kg)" : n(r.peak.vo2MlKgMin, 1, " mL/kg/min")} (${r.peak.method})`,
     `peak RER ${n(r.peak.rer, 2)}, HR ${n(r.peak.hrBpm, 0, " bpm")}, work rate ${n(r.peak.workW, 0, " W")}`,
     `VT1             ${n(r.vt1.vo2MlMin, 0, " mL/min")} (confidence ${r.vt1.confidence})`,
     `VT2             ${n(r.vt2.vo2MlMin, 0, " mL/min")} (confidence ${r.vt2.confidence})`,
-    `VE/VCO2 slope   ${n(r.veVco2Slope.toRcp, 1)} (${r.veVco2Slope.toRcpFittedTo.replace(/^VE\/VCO2 slope,? /, "")}); ${n(r.veVco2Slope.whole, 1)} (whole exercise, breath by breath)`,
-    `OUES            ${n(r.oues)}`,
-    `ΔVO2/ΔWR        ${n(r.dVo2dWr, 1, " mL/min/W")}`,
+    `VE/VCO2 slope   ${n(r.veVco2Slope.toRcp, 1)} (${r.veVco2Slope.toRcpFittedTo.replace(/^VE\/VCO2 slope,? /, "")}${b(r.veVco2Slope.toRcpBand, 1)}); ${n(r.veVco2Slope.whole, 1)} (whole exercise, breath by breath${b(r.veVco2Slope.wholeBand, 1)})`,
+    `OUES            ${n(r.oues)}${r.ouesBand ? ` (${b(r.ouesBand).slice(2)})` : ""}`,
+    `ΔVO2/ΔWR        ${n(r.dVo2dWr, 1, " mL/min/W")}${r.dVo2dWrBand ? ` (${b(r.dVo2dWrBand, 1).slice(2)})` : ""}`,
     `breathing reserve ${r.breathingReserve.pct === null ? "not determinable (give --mvv-l-min or --fev1-l)" : n(r.breathingReserve.pct, 0, " %")}`,
     ...(r.lactate
       ? [

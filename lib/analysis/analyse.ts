@@ -23,9 +23,10 @@ import { draftExtras } from "./draftExtras";
 
 /**
  * Version of the analysis code; stored with every analysis version and printed on reports. Raised when a change moves
- * what a report states (0.3.0: the threshold bands are calibrated, README-thresholds.md round 17).
+ * what a report states (0.3.0: the threshold bands are calibrated, README-thresholds.md round 17; 0.4.0: the whole-exercise
+ * VE/VCO2 slope, OUES and ΔVO2/ΔWR carry calibrated bands, round 18).
  */
-export const ENGINE_VERSION = "0.3.0";
+export const ENGINE_VERSION = "0.4.0";
 
 /**
  * The whole analysis as one pure, deterministic function of (record, settings):

@@ -118,26 +118,27 @@ export function buildReportModel(
     return row;
   });
   const oues = ix.oues.fits.find((f) => f.fraction === 1);
-  const extra: [string, Measured | undefined, number][] = [
+  type Band = { low: number; high: number } | null | undefined;
+  const extra: [string, Measured | undefined, number, Band?][] = [
     ["Peak RER", pk.rerMax, 2],
     ["Peak VE", pk.veLMin, 0],
-    [slopeToVt2Name(ix.veVco2.slopeToVt2), ix.veVco2.slopeToVt2.slope, 1],
-    ["VE/VCO2 slope, whole exercise", ix.veVco2.slopeWholeExercise.slope, 1],
-    ["OUES (whole exercise)", oues?.slope, 0],
-    ["ΔVO2/ΔWR", ix.dVo2dWr.whole.slope, 1],
+    [slopeToVt2Name(ix.veVco2.slopeToVt2), ix.veVco2.slopeToVt2.slope, 1, ix.veVco2.slopeToVt2.band],
+    ["VE/VCO2 slope, whole exercise", ix.veVco2.slopeWholeExercise.slope, 1, ix.veVco2.slopeWholeExercise.band],
+    ["OUES (whole exercise)", oues?.slope, 0, oues?.band],
+    ["ΔVO2/ΔWR", ix.dVo2dWr.whole.slope, 1, ix.dVo2dWr.whole.band],
     ["Breathing reserve", ix.breathingReserve.reservePercent, 0],
     ["Heart-rate reserve", ix.heartRate.reserveBpm, 0],
     ["HR recovery at 1 min", ix.heartRate.recovery1MinBpm, 0],
     ["Lowest SpO2", ix.spo2.lowestPct, 0],
   ];
-  for (const [label, m, d] of extra) if (m) keyValues.push(measuredRow(label, m, d));
-  // the slope to VT2 carries its calibrated band (its meaning is stated in the methods)
-  const slopeBand = ix.veVco2.slopeToVt2.band;
-  const slopeRow = keyValues.find((r) => r.label === slopeToVt2Name(ix.veVco2.slopeToVt2));
-  if (slopeBand && slopeRow)
-    slopeRow.note = [slopeRow.note, `band ${formatNumber(slopeBand.low, 1)}–${formatNumber(slopeBand.high, 1)}`]
-      .filter(Boolean)
-      .join("; ");
+  for (const [label, m, d, band] of extra) {
+    if (!m) continue;
+    const row = measuredRow(label, m, d);
+    // the slopes carry their calibrated bands (their meaning is stated in the methods)
+    if (band && m.value !== null)
+      row.note = [row.note, `band ${formatNumber(band.low, d)}–${formatNumber(band.high, d)}`].filter(Boolean).join("; ");
+    keyValues.push(row);
+  }
   keyValues.push(measuredRow("Recording duration", pk.testDurationS, 0, formatClock));
   keyValues[keyValues.length - 1].unit = "min:s";
 

@@ -36,13 +36,19 @@ export interface CliAnalysisJson {
     /** Calibrated band of the slope to RCP (about 8 of 10 invented tests), or null. */
     toRcpBand: { low: number; high: number } | null;
     whole: number | null;
+    /** Calibrated band of the whole-exercise slope, centred on the dilution-corrected slope, or null. */
+    wholeBand: { low: number; high: number } | null;
     wholeIntercept: number | null;
     nadir: number | null;
   };
   oues: number | null;
+  /** Calibrated band of OUES (whole exercise), or null. */
+  ouesBand: { low: number; high: number } | null;
   oues90: number | null;
   oues75: number | null;
   dVo2dWr: number | null;
+  /** Calibrated band of ΔVO2/ΔWR, or null. */
+  dVo2dWrBand: { low: number; high: number } | null;
   o2PulsePattern: string | null;
   breathingReserve: {
     pct: number | null;
@@ -188,13 +194,16 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       toRcpIntercept: val(ix.veVco2.slopeToVt2.intercept),
       toRcpBand: ix.veVco2.slopeToVt2.band ?? null,
       whole: nd("VE/VCO2 slope, whole exercise", ix.veVco2.slopeWholeExercise.slope),
+      wholeBand: ix.veVco2.slopeWholeExercise.band ?? null,
       wholeIntercept: val(ix.veVco2.slopeWholeExercise.intercept),
       nadir: val(ix.veVco2.nadir),
     },
     oues: nd("OUES", ix.oues.fits.find((x) => Math.abs(x.fraction - 1) < 1e-9)?.slope),
+    ouesBand: ix.oues.fits.find((x) => Math.abs(x.fraction - 1) < 1e-9)?.band ?? null,
     oues90: oues(0.9),
     oues75: oues(0.75),
     dVo2dWr: nd("ΔVO2/ΔWR", ix.dVo2dWr.whole.slope),
+    dVo2dWrBand: ix.dVo2dWr.whole.band ?? null,
     o2PulsePattern: ix.o2Pulse.pattern,
     breathingReserve: {
       pct: nd("Breathing reserve", ix.breathingReserve.reservePercent),

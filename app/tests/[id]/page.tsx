@@ -309,18 +309,28 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
               label="VE/VCO2 slope, whole exercise"
               m={ix.veVco2.slopeWholeExercise.slope}
               d={1}
-              extra={`intercept ${fmt(ix.veVco2.slopeWholeExercise.intercept, 1)} L/min`}
+              extra={`intercept ${fmt(ix.veVco2.slopeWholeExercise.intercept, 1)} L/min${slopeBandWords(ix.veVco2.slopeWholeExercise.band)}`}
             />
             <IndexRow label="Lowest VE/VCO2" m={ix.veVco2.nadir} d={1} />
             <IndexRow label="VE/VCO2 at VT1" m={ix.veVco2.atVt1} d={1} />
             {ix.oues.fits.map((f) => (
-              <IndexRow key={f.fraction} label={`OUES, first ${Math.round(f.fraction * 100)} % of exercise`} m={f.slope} d={0} />
+              <IndexRow
+                key={f.fraction}
+                label={`OUES, first ${Math.round(f.fraction * 100)} % of exercise`}
+                m={f.slope}
+                d={0}
+                extra={slopeBandWords(f.band, 0).replace(/^; /, "") || undefined}
+              />
             ))}
             <IndexRow
               label="ΔVO2/ΔWR on the ramp"
               m={ix.dVo2dWr.whole.slope}
               d={1}
-              extra={ix.dVo2dWr.flattening ? "late flattening" : undefined}
+              extra={
+                [ix.dVo2dWr.flattening ? "late flattening" : "", slopeBandWords(ix.dVo2dWr.whole.band).replace(/^; /, "")]
+                  .filter(Boolean)
+                  .join("; ") || undefined
+              }
             />
             <tr>
               <td>O2 pulse trajectory (last third of exercise)</td>
@@ -386,6 +396,11 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           </tbody>
         </table>
       </TableScroll>
+      {[ix.veVco2.slopeToVt2, ix.veVco2.slopeWholeExercise, ix.dVo2dWr.whole, ...ix.oues.fits].some((l) => l.band) ? (
+        <p data-testid="index-band-meaning">
+          <small>{BAND_MEANING}</small>
+        </p>
+      ) : null}
 
       {ix.lactate ? (
         <>
@@ -611,9 +626,9 @@ function range(lower: Measured | null | undefined, upper: Measured | null | unde
   return `${lo} – ${hi}`;
 }
 
-/** "; band a–b" for a slope's calibrated band (see the band's meaning under the threshold panels), or "". */
-function slopeBandWords(band: { low: number; high: number } | null | undefined): string {
-  return band ? `; band ${formatNumber(band.low, 1)}–${formatNumber(band.high, 1)}` : "";
+/** "; band a–b" for a slope's calibrated band (its meaning is stated under the indices table), or "". */
+function slopeBandWords(band: { low: number; high: number } | null | undefined, decimals = 1): string {
+  return band ? `; band ${formatNumber(band.low, decimals)}–${formatNumber(band.high, decimals)}` : "";
 }
 
 function IndexRow({ label, m, d, extra, unit }: { label: string; m: Measured; d: number; extra?: string; unit?: string }) {
