@@ -68,16 +68,19 @@ describe("ΔVO2/ΔWR bands on real breath-by-breath recordings (ACTES, ODC-By 1.
   // testing (version 1.0.0). PhysioNet; 2022. https://doi.org/10.13026/2qs3-kh43. Licensed under the Open Data Commons
   // Attribution License v1.0. 18 graded cycle tests with breath VO2 and power: no truth, but the residuals show how
   // serially correlated real breaths are, which is what the band's scale allows for.
-  it("each band holds its value, the residuals are serially correlated, and a looser fit gets a wider band", async () => {
+  it("each band holds its value, the residuals are serially correlated, a looser fit gets a wider band and a loose one a warning", async () => {
     const { readFileSync } = await import("node:fs");
     const { importBreathFile } = await import("../../lib/breath");
     const bytes = new Uint8Array(
       readFileSync(new URL("../fixtures/open-data/actes/actes_vo2_breaths_derived.csv", import.meta.url)),
     );
     const rows: { r2: number; widthPct: number; lag1: number }[] = [];
+    const warned: number[] = [];
     for (let id = 1; id <= 18; id++) {
       const imported = await importBreathFile(bytes, { select: { ID: String(id) } });
-      const line = dVo2dWr(conditionTable(imported.table!)).whole;
+      const result = dVo2dWr(conditionTable(imported.table!));
+      const line = result.whole;
+      if (result.issues.some((i) => i.code === "dvo2-dwr-loose-fit")) warned.push(id);
       const v = line.slope.value!;
       expect(line.band!.low).toBeLessThanOrEqual(v);
       expect(line.band!.high).toBeGreaterThanOrEqual(v);
@@ -87,6 +90,8 @@ describe("ΔVO2/ΔWR bands on real breath-by-breath recordings (ACTES, ODC-By 1.
         lag1: line.slope.provenance.inputs!.residualLag1 as number,
       });
     }
+    // the one recording whose VO2 follows the load loosely (r² 0.28: about 1.4 L/min at 170 W) is flagged, no other
+    expect(warned).toEqual([7]);
     // measured: lag-1 autocorrelation 0.53–0.87 on all 18 (the plain standard error would be 1.8–3.8 times too small)
     expect(Math.min(...rows.map((r) => r.lag1))).toBeGreaterThan(0.4);
     // the 6 tightest fits (r² ≥ 0.92) have narrower bands than the 6 loosest (r² ≤ 0.83)
