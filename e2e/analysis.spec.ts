@@ -14,6 +14,10 @@ test("the analysis view shows thresholds, predicted values, interpretation and s
   await expect(page.getByTestId("threshold-vt1")).toContainText("mL/min");
   // the band beside each threshold says what it is: its calibration on invented recordings, not a promise
   await expect(page.getByTestId("band-meaning")).toContainText("about 8 of 10 invented recordings");
+  // the slope indices carry their bands too, with the same words under their table
+  await expect(page.getByTestId("indices")).toContainText(/VE\/VCO2 slope, whole exercise[\s\S]*band \d/);
+  await expect(page.getByTestId("indices")).toContainText(/ΔVO2\/ΔWR on the ramp[\s\S]*band \d/);
+  await expect(page.getByTestId("index-band-meaning")).toContainText("OUES and ΔVO2/ΔWR");
   await expect(page.getByTestId("charts").locator("svg")).toHaveCount(5);
   await expect(page.getByTestId("interpretation-path")).toContainText("Peak VO2");
   await expect(page.getByTestId("schemes")).toContainText("Weber");

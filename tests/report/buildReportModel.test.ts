@@ -46,6 +46,23 @@ describe("buildReportModel", () => {
     expect(sections.map((x) => x.paragraphs.join(" ")).join(" ")).toMatch(/2500 mL\/min/);
   });
 
+  it("writes each slope's calibrated band beside it, at the slope's own precision", async () => {
+    const record = await rampRecord();
+    const result = analyse(record);
+    const model = buildReportModel(result, record, "Synthetic ramp", { status: "draft", sections: initialDraftSections(result) });
+    const row = (label: string) => model.keyValues.find((r) => r.label === label)!;
+    const oues = result.indices.oues.fits.find((f) => f.fraction === 1)!;
+    // the invented ramp's VO2 is not log-linear in VE, so OUES has a band of some width; shown to whole units like OUES
+    expect(row("OUES (whole exercise)").note).toContain(`band ${Math.round(oues.band!.low)}–${Math.round(oues.band!.high)}`);
+    const whole = result.indices.veVco2.slopeWholeExercise;
+    expect(row("VE/VCO2 slope, whole exercise").note).toContain(
+      `band ${whole.band!.low.toFixed(1)}–${whole.band!.high.toFixed(1)}`,
+    );
+    // a perfect line (this ramp's VO2 against work) has no scale, so no band is written
+    expect(result.indices.dVo2dWr.whole.band).toBeNull();
+    expect(row("ΔVO2/ΔWR").note ?? "").not.toContain("band");
+  });
+
   it("shows the signer only for a signed report and never drops an unknown source id", async () => {
     const record = await rampRecord();
     const result = analyse(record);
