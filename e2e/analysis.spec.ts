@@ -17,6 +17,7 @@ test("the analysis view shows thresholds, predicted values, interpretation and s
   // the slope indices carry their bands too, with the same words under their table
   await expect(page.getByTestId("indices")).toContainText(/VE\/VCO2 slope, whole exercise[\s\S]*band \d/);
   await expect(page.getByTestId("indices")).toContainText(/ΔVO2\/ΔWR on the ramp[\s\S]*band \d/);
+  await expect(page.getByTestId("indices")).toContainText(/VE\/VCO2 slope, whole exercise[\s\S]*corrected for breath noise \d/);
   await expect(page.getByTestId("index-band-meaning")).toContainText("OUES and ΔVO2/ΔWR");
   await expect(page.getByTestId("charts").locator("svg")).toHaveCount(5);
   await expect(page.getByTestId("interpretation-path")).toContainText("Peak VO2");

@@ -6,7 +6,8 @@ import { ALL_SOURCES } from "./sources";
 import { formatClock, formatNumber } from "../units";
 import { CLINICAL_CAUTION, DRAFT_CAUTION } from "./caution";
 import { PREDICTED_QUANTITIES, type PredictedQuantity } from "../predicted";
-import { BAND_MEANING, slopeToVt2Name } from "../thresholds";
+import { BAND_MEANING, slopeToVt2Name, type LineIndex } from "../thresholds";
+import { bandNote } from "./bandNote";
 import { formatComparisonCutoff, formatComparisonValue } from "./formatComparison";
 import type { ReportModel, ReportRow, ReportSection } from "./reportModel";
 
@@ -118,25 +119,23 @@ export function buildReportModel(
     return row;
   });
   const oues = ix.oues.fits.find((f) => f.fraction === 1);
-  type Band = { low: number; high: number } | null | undefined;
-  const extra: [string, Measured | undefined, number, Band?][] = [
+  const extra: [string, Measured | undefined, number, LineIndex?][] = [
     ["Peak RER", pk.rerMax, 2],
     ["Peak VE", pk.veLMin, 0],
-    [slopeToVt2Name(ix.veVco2.slopeToVt2), ix.veVco2.slopeToVt2.slope, 1, ix.veVco2.slopeToVt2.band],
-    ["VE/VCO2 slope, whole exercise", ix.veVco2.slopeWholeExercise.slope, 1, ix.veVco2.slopeWholeExercise.band],
-    ["OUES (whole exercise)", oues?.slope, 0, oues?.band],
-    ["ΔVO2/ΔWR", ix.dVo2dWr.whole.slope, 1, ix.dVo2dWr.whole.band],
+    [slopeToVt2Name(ix.veVco2.slopeToVt2), ix.veVco2.slopeToVt2.slope, 1, ix.veVco2.slopeToVt2],
+    ["VE/VCO2 slope, whole exercise", ix.veVco2.slopeWholeExercise.slope, 1, ix.veVco2.slopeWholeExercise],
+    ["OUES (whole exercise)", oues?.slope, 0, oues],
+    ["ΔVO2/ΔWR", ix.dVo2dWr.whole.slope, 1, ix.dVo2dWr.whole],
     ["Breathing reserve", ix.breathingReserve.reservePercent, 0],
     ["Heart-rate reserve", ix.heartRate.reserveBpm, 0],
     ["HR recovery at 1 min", ix.heartRate.recovery1MinBpm, 0],
     ["Lowest SpO2", ix.spo2.lowestPct, 0],
   ];
-  for (const [label, m, d, band] of extra) {
+  for (const [label, m, d, line] of extra) {
     if (!m) continue;
     const row = measuredRow(label, m, d);
     // the slopes carry their calibrated bands (their meaning is stated in the methods)
-    if (band && m.value !== null)
-      row.note = [row.note, `band ${formatNumber(band.low, d)}–${formatNumber(band.high, d)}`].filter(Boolean).join("; ");
+    row.note = [row.note, bandNote(line, d)].filter(Boolean).join("; ") || row.note;
     keyValues.push(row);
   }
   keyValues.push(measuredRow("Recording duration", pk.testDurationS, 0, formatClock));

@@ -1,6 +1,6 @@
 import type { Issue, Measured } from "../core";
 import type { AnalysisResult } from "../analysis";
-import { slopeToVt2Name, type ThresholdEstimate } from "../thresholds";
+import { slopeToVt2Name, type LineIndex, type ThresholdEstimate } from "../thresholds";
 
 /**
  * The CLI's JSON object: a stable projection of the analysis result, documented by
@@ -38,12 +38,16 @@ export interface CliAnalysisJson {
     whole: number | null;
     /** Calibrated band of the whole-exercise slope, centred on the dilution-corrected slope, or null. */
     wholeBand: { low: number; high: number } | null;
+    /** The whole-exercise slope corrected for breath noise in VCO2 (the band's centre), or null. */
+    wholeNoiseCorrected: number | null;
     wholeIntercept: number | null;
     nadir: number | null;
   };
   oues: number | null;
   /** Calibrated band of OUES (whole exercise), or null. */
   ouesBand: { low: number; high: number } | null;
+  /** OUES corrected for breath noise in log10 VE (the band's centre), or null. */
+  ouesNoiseCorrected: number | null;
   oues90: number | null;
   oues75: number | null;
   dVo2dWr: number | null;
@@ -95,6 +99,12 @@ export interface CliThreshold {
 
 const val = (m: Measured | null | undefined): number | null =>
   m && m.value !== null && Number.isFinite(m.value) ? m.value : null;
+
+/** A line's slope corrected for breath noise in its x (the band's centre), when one was recorded; else null. */
+const noiseCorrected = (line: LineIndex | undefined): number | null => {
+  const c = line?.slope.provenance.inputs?.dilutionCorrected;
+  return typeof c === "number" && Number.isFinite(c) ? c : null;
+};
 
 export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJson {
   const ix = result.indices;
@@ -195,11 +205,13 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       toRcpBand: ix.veVco2.slopeToVt2.band ?? null,
       whole: nd("VE/VCO2 slope, whole exercise", ix.veVco2.slopeWholeExercise.slope),
       wholeBand: ix.veVco2.slopeWholeExercise.band ?? null,
+      wholeNoiseCorrected: noiseCorrected(ix.veVco2.slopeWholeExercise),
       wholeIntercept: val(ix.veVco2.slopeWholeExercise.intercept),
       nadir: val(ix.veVco2.nadir),
     },
     oues: nd("OUES", ix.oues.fits.find((x) => Math.abs(x.fraction - 1) < 1e-9)?.slope),
     ouesBand: ix.oues.fits.find((x) => Math.abs(x.fraction - 1) < 1e-9)?.band ?? null,
+    ouesNoiseCorrected: noiseCorrected(ix.oues.fits.find((x) => Math.abs(x.fraction - 1) < 1e-9)),
     oues90: oues(0.9),
     oues75: oues(0.75),
     dVo2dWr: nd("ΔVO2/ΔWR", ix.dVo2dWr.whole.slope),

@@ -11,3 +11,4 @@ export * from "./describeValueChanges";
 export * from "./describeInterpretationChanges";
 export * from "./carryForwardSections";
 export * from "./carryForwardDraft";
+export * from "./bandNote";

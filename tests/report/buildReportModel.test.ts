@@ -58,6 +58,9 @@ describe("buildReportModel", () => {
     expect(row("VE/VCO2 slope, whole exercise").note).toContain(
       `band ${whole.band!.low.toFixed(1)}–${whole.band!.high.toFixed(1)}`,
     );
+    // the band's centre, the slope corrected for breath noise in VCO2, is written beside it
+    const corrected = whole.slope.provenance.inputs!.dilutionCorrected as number;
+    expect(row("VE/VCO2 slope, whole exercise").note).toContain(`corrected for breath noise ${corrected.toFixed(1)}`);
     // a perfect line (this ramp's VO2 against work) has no scale, so no band is written
     expect(result.indices.dVo2dWr.whole.band).toBeNull();
     expect(row("ΔVO2/ΔWR").note ?? "").not.toContain("band");

@@ -4,7 +4,7 @@ import { analyse } from "@/lib/analysis";
 import type { Measured } from "@/lib/core";
 import { EQUATIONS } from "@/lib/predicted";
 import { listCutoffChoices } from "@/lib/interpret";
-import { analysisCharts } from "@/lib/report";
+import { analysisCharts, bandNote } from "@/lib/report";
 import { BAND_MEANING, METHOD_REASON_SEPARATOR, slopeToVt2Name, type ThresholdEstimate } from "@/lib/thresholds";
 import { displayUnit, formatClock, formatNumber } from "@/lib/units";
 import { getLabDefaults } from "@/lib/store/labSettings";
@@ -303,13 +303,20 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
               label={slopeToVt2Name(ix.veVco2.slopeToVt2)}
               m={ix.veVco2.slopeToVt2.slope}
               d={1}
-              extra={`intercept ${fmt(ix.veVco2.slopeToVt2.intercept, 1)} L/min${slopeBandWords(ix.veVco2.slopeToVt2.band)}`}
+              extra={[`intercept ${fmt(ix.veVco2.slopeToVt2.intercept, 1)} L/min`, bandNote(ix.veVco2.slopeToVt2, 1)]
+                .filter(Boolean)
+                .join("; ")}
             />
             <IndexRow
               label="VE/VCO2 slope, whole exercise"
               m={ix.veVco2.slopeWholeExercise.slope}
               d={1}
-              extra={`intercept ${fmt(ix.veVco2.slopeWholeExercise.intercept, 1)} L/min${slopeBandWords(ix.veVco2.slopeWholeExercise.band)}`}
+              extra={[
+                `intercept ${fmt(ix.veVco2.slopeWholeExercise.intercept, 1)} L/min`,
+                bandNote(ix.veVco2.slopeWholeExercise, 1),
+              ]
+                .filter(Boolean)
+                .join("; ")}
             />
             <IndexRow label="Lowest VE/VCO2" m={ix.veVco2.nadir} d={1} />
             <IndexRow label="VE/VCO2 at VT1" m={ix.veVco2.atVt1} d={1} />
@@ -319,7 +326,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                 label={`OUES, first ${Math.round(f.fraction * 100)} % of exercise`}
                 m={f.slope}
                 d={0}
-                extra={slopeBandWords(f.band, 0).replace(/^; /, "") || undefined}
+                extra={bandNote(f, 0) || undefined}
               />
             ))}
             <IndexRow
@@ -327,9 +334,8 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
               m={ix.dVo2dWr.whole.slope}
               d={1}
               extra={
-                [ix.dVo2dWr.flattening ? "late flattening" : "", slopeBandWords(ix.dVo2dWr.whole.band).replace(/^; /, "")]
-                  .filter(Boolean)
-                  .join("; ") || undefined
+                [ix.dVo2dWr.flattening ? "late flattening" : "", bandNote(ix.dVo2dWr.whole, 1)].filter(Boolean).join("; ") ||
+                undefined
               }
             />
             <tr>
@@ -624,11 +630,6 @@ function range(lower: Measured | null | undefined, upper: Measured | null | unde
   if (lo === "—") return `up to ${hi}`;
   if (hi === "—") return `from ${lo}`;
   return `${lo} – ${hi}`;
-}
-
-/** "; band a–b" for a slope's calibrated band (its meaning is stated under the indices table), or "". */
-function slopeBandWords(band: { low: number; high: number } | null | undefined, decimals = 1): string {
-  return band ? `; band ${formatNumber(band.low, decimals)}–${formatNumber(band.high, decimals)}` : "";
 }
 
 function IndexRow({ label, m, d, extra, unit }: { label: string; m: Measured; d: number; extra?: string; unit?: string }) {

@@ -1,0 +1,17 @@
+import { bandCentre, type LineIndex } from "../thresholds/veVco2Slope";
+import { formatNumber } from "../units/format";
+
+/**
+ * The words written beside a slope that carries a calibrated band, at the slope's own precision: "band a–b", and where
+ * the band is centred on a slope corrected for breath noise in its x (whole-exercise VE/VCO2, OUES) that slope too,
+ * "corrected for breath noise c". "" without a band. The page and the report use the same words; what the band means
+ * is stated once beside them (`BAND_MEANING`).
+ */
+export function bandNote(line: LineIndex | undefined, decimals: number): string {
+  if (!line?.band || line.slope.value === null) return "";
+  const words = [`band ${formatNumber(line.band.low, decimals)}–${formatNumber(line.band.high, decimals)}`];
+  const centre = bandCentre(line);
+  if (typeof line.slope.provenance.inputs?.dilutionCorrected === "number" && centre !== null)
+    words.push(`corrected for breath noise ${formatNumber(centre, decimals)}`);
+  return words.join("; ");
+}
