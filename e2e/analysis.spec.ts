@@ -22,6 +22,8 @@ test("the analysis view shows thresholds, predicted values, interpretation and s
   await expect(page.getByTestId("charts").locator("svg")).toHaveCount(5);
   await expect(page.getByTestId("interpretation-path")).toContainText("Peak VO2");
   await expect(page.getByTestId("schemes")).toContainText("Weber");
+  // a class near a cut-off says where its measurement's band reaches (invented demo: slope 39.8, band up to 46.5)
+  await expect(page.getByTestId("schemes")).toContainText("band 39.2–46.5 reaches Ventilatory class IV");
   await expect(page.getByTestId("patterns")).toContainText("consistent with");
   // a criterion that cannot be read says why: on this ramp a 5–10 % work increase raises VO2 by less than the plateau
   // cut-off at the test's own VO2–work slope, so the plateau cannot be told from a steady rise

@@ -1,7 +1,13 @@
 import { reasonWithoutLeadIn, type Measured } from "../core";
-import { vo2PlateauNotAssessedReason, vo2PlateauPresent, type IndicesResult, type ThresholdResult } from "../thresholds";
+import {
+  vo2PlateauNotAssessedReason,
+  vo2PlateauPresent,
+  type IndicesResult,
+  type LineIndex,
+  type ThresholdResult,
+} from "../thresholds";
 import type { PredictedSet } from "../predicted";
-import type { InterpretInput, InterpretValues } from "../interpret";
+import type { InterpretInput, InterpretValues, UncertainValue } from "../interpret";
 import type { PredictedComparisonRow, TestRecord } from "./types";
 
 const v = (m: Measured | null | undefined): number | null => (m && m.value !== null && Number.isFinite(m.value) ? m.value : null);
@@ -59,6 +65,35 @@ export function toInterpretInput(
   }
   const plateauWhy = vo2PlateauNotAssessedReason(indices.vo2FinalIncrease);
   if (plateauWhy) reasons.vo2Plateau = plateauWhy;
+  // the calibrated bands, as the values at each end (everything computed from VT1 moves with it)
+  const uncertainty: UncertainValue[] = [];
+  const vt1Band = thresholds.vt1.band;
+  if (vt1Vo2 !== null && vt1Band && !thresholds.vt1.overridden) {
+    const vt1At = (vo2: number): Partial<InterpretValues> => ({
+      vt1Vo2MlMin: vo2,
+      vt1Vo2MlKgMin: patient.weightKg ? vo2 / patient.weightKg : null,
+      vt1PctPredPeakVo2: predVo2 ? (100 * vo2) / predVo2 : null,
+      vt1PctPeak: v(p.vo2MlMin) ? (100 * vo2) / (v(p.vo2MlMin) as number) : null,
+    });
+    uncertainty.push({
+      words: `VT1 band ${Math.round(vt1Band.lowMlMin)}–${Math.round(vt1Band.highMlMin)} mL/min`,
+      low: vt1At(vt1Band.lowMlMin),
+      high: vt1At(vt1Band.highMlMin),
+    });
+  }
+  const slopes: [keyof InterpretValues, string, LineIndex | undefined, number][] = [
+    ["veVco2SlopeWhole", "whole-exercise VE/VCO2 slope", indices.veVco2.slopeWholeExercise, 1],
+    ["veVco2SlopeToRcp", "VE/VCO2 slope to RCP", indices.veVco2.slopeToVt2, 1],
+    ["oues", "OUES", oues, 0],
+    ["dVo2dWr", "ΔVO2/ΔWR", indices.dVo2dWr.whole, 1],
+  ];
+  for (const [key, name, line, d] of slopes)
+    if (line?.band && v(line.slope) !== null)
+      uncertainty.push({
+        words: `${name} band ${line.band.low.toFixed(d)}–${line.band.high.toFixed(d)}`,
+        low: { [key]: line.band.low },
+        high: { [key]: line.band.high },
+      });
   return {
     patient: {
       sex: patient.sex,
@@ -125,6 +160,7 @@ export function toInterpretInput(
       mvv: indices.breathingReserve.mvvLMin.provenance.label,
     },
     reasons,
+    uncertainty,
   };
 }
 

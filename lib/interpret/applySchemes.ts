@@ -60,13 +60,15 @@ function evaluateAxis(
       return { ...base, category: null, text: `${axis.label}: ${reason}`, reason };
     }
     if (r.outcome) {
+      const reaches = bandReaches(bands, ctx, b.key);
       return {
         ...base,
         sourceIds: unique([...axis.sourceIds, ...b.sourceIds]),
         status: weakestStatus([axis.status, b.status]),
         category: { key: b.key, label: b.label, severity: b.severity },
         // a rule's own line may already start with the axis label ("Exercise oscillatory ventilation: yes")
-        text: `${r.text.startsWith(`${axis.label}:`) ? r.text : `${axis.label}: ${r.text}`} → ${b.label}`,
+        text: `${r.text.startsWith(`${axis.label}:`) ? r.text : `${axis.label}: ${r.text}`} → ${b.label}${reaches ? `; ${reaches}` : ""}`,
+        ...(reaches ? { bandReaches: reaches } : {}),
       };
     }
     tried.push(r.text);
@@ -74,6 +76,33 @@ function evaluateAxis(
   const reason = `value lies between the published bands (${tried.join("; ")})`;
   issues.push(makeIssue("warning", "value-between-bands", `${axis.label}: ${reason}.`, { field: `${schemeId}.${axis.id}` }));
   return { ...base, category: null, text: `${axis.label}: ${reason}`, reason };
+}
+
+/** The first band whose condition holds with these variables, or null (not assessable, or between bands). */
+function categoryWith(bands: BandData[], ctx: EvalContext, vars: EvalContext["vars"]): BandData | null {
+  const alt: EvalContext = { ...ctx, vars, ruleCache: new Map() };
+  for (const b of bands) {
+    const r = evaluateCondition(b.when, alt);
+    if (r.outcome === null) return null;
+    if (r.outcome) return b;
+  }
+  return null;
+}
+
+/**
+ * Where an end of a measurement's uncertainty band (`EvalContext.bandEnds`) falls in another category of this axis, in
+ * words ("the VT1 band 731–902 mL/min reaches Class C (…)"); "" when every band stays in `key`. The value decides the
+ * category; this only says how near a boundary it lies, as the clinician reading a class near a cut-off would ask.
+ */
+function bandReaches(bands: BandData[], ctx: EvalContext, key: string): string {
+  const parts: string[] = [];
+  for (const end of ctx.bandEnds ?? []) {
+    const other = [categoryWith(bands, ctx, end.low), categoryWith(bands, ctx, end.high)]
+      .filter((b): b is BandData => b !== null && b.key !== key)
+      .map((b) => b.label);
+    if (other.length > 0) parts.push(`the ${end.words} reaches ${unique(other).join(" and ")}`);
+  }
+  return parts.join("; ");
 }
 
 function noCategoryReason(mode: string, axes: readonly SchemeAxisResult[]): string {

@@ -20,6 +20,8 @@ export interface EvalContext {
   reasons: Readonly<Record<string, string>>;
   /** Memo of rule results (rules are pure functions of vars and choices). */
   ruleCache: Map<string, RuleResult>;
+  /** The variables at each end of a measurement's uncertainty band (`InterpretInput.uncertainty`), for the schemes. */
+  bandEnds?: readonly { words: string; low: Readonly<Record<string, VarValue>>; high: Readonly<Record<string, VarValue>> }[];
 }
 
 export interface ConditionResult {

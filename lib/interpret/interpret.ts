@@ -27,6 +27,11 @@ export function makeContext(
       Object.entries(input.reasons ?? {}).filter((e): e is [string, string] => typeof e[1] === "string" && e[1] !== ""),
     ),
     ruleCache: new Map(),
+    bandEnds: (input.uncertainty ?? []).map((u) => ({
+      words: u.words,
+      low: buildVariables({ ...input, values: { ...input.values, ...u.low } }, data),
+      high: buildVariables({ ...input, values: { ...input.values, ...u.high } }, data),
+    })),
   };
   return { ctx, resolved };
 }

@@ -147,6 +147,20 @@ export interface InterpretInput {
    * after "not available" wherever a rule reads that value, so a reader sees why a step could not be assessed.
    */
   reasons?: Partial<Record<keyof InterpretValues, string>>;
+  /**
+   * Measurements that carry an uncertainty band: the values at each end of the band (every value that moves with it,
+   * e.g. VT1 in mL/min, per kg and as % of predicted peak VO2). A scheme whose category would differ at an end of the
+   * band says so beside its category; nothing else reads them.
+   */
+  uncertainty?: UncertainValue[];
+}
+
+/** One measurement's band as the interpretation reads it. */
+export interface UncertainValue {
+  /** The band in words, e.g. "VT1 band 731–902 mL/min". */
+  words: string;
+  low: Partial<InterpretValues>;
+  high: Partial<InterpretValues>;
 }
 
 /** The lab's choices where published cut-offs disagree, and which schemes to add or drop. */
@@ -279,6 +293,11 @@ export interface SchemeAxisResult {
   status: EvidenceStatus;
   inCombination: boolean;
   population?: string;
+  /**
+   * The other categories an end of a measurement's uncertainty band falls in, in words ("the VE/VCO2 slope band
+   * 39.2–46.5 reaches Ventilatory class IV …"); absent when the whole band stays in the category.
+   */
+  bandReaches?: string;
 }
 
 export interface SchemeResult {
