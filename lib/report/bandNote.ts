@@ -9,7 +9,10 @@ import { formatNumber } from "../units/format";
  */
 export function bandNote(line: LineIndex | undefined, decimals: number): string {
   if (!line?.band || line.slope.value === null) return "";
-  const words = [`band ${formatNumber(line.band.low, decimals)}–${formatNumber(line.band.high, decimals)}`];
+  const low = formatNumber(line.band.low, decimals);
+  const high = formatNumber(line.band.high, decimals);
+  // a band inside one step of the last digit shown ("28.0–28.0") says that, not a range of one number
+  const words = [low === high ? "band narrower than the last digit shown" : `band ${low}–${high}`];
   const centre = bandCentre(line);
   if (typeof line.slope.provenance.inputs?.dilutionCorrected === "number" && centre !== null)
     words.push(`corrected for breath noise ${formatNumber(centre, decimals)}`);
