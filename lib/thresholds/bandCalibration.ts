@@ -138,8 +138,8 @@ export const MAX_RESIDUAL_LAG1 = 0.95;
  * persists over a few breaths and any curvature of the relation make neighbouring residuals alike, so the plain scale,
  * which counts every breath as independent, tracks the error of these slopes less well: with factors fitted alike, this
  * one's band held the truth more often on 11 of 12 pairs of blind model and index at moderate noise (ΔVO2/ΔWR on the
- * hold-out 44 → 61 %), and on 18 real recordings (ACTES) ρ was 0.53–0.87 (README-thresholds.md, round 18). Null without
- * a scale.
+ * hold-out 44 → 61 %), and for ΔVO2/ΔWR on 18 real recordings (ACTES) ρ was 0.53–0.87 (README-thresholds.md, round
+ * 18). Null without a scale.
  */
 export function autocorrelatedSlopeScale(r2: number | null, points: number | null, lag1: number | null): number | null {
   const plain = slopeRelativeScale(r2, points);

@@ -155,9 +155,9 @@ export function lineIndexFromFit(
  * - for the VE/VCO2 and OUES lines, whose x (VCO2, log10 VE) carries breath noise, `dilutionCorrected` and
  *   `reliability`: the slope with that noise taken out of the moments (`dilutionCorrectedSlope`). Breath noise in x
  *   flattens a least-squares slope (regression dilution): on invented tests at moderate noise the whole-exercise VE/VCO2
- *   slope read a median −1.2 to −2.0 % on four of six models and +2.6 % on one whose VE and VCO2 noise move together;
- *   OUES −5.4 % on the noisiest. The corrected slope's median error was −0.1 to +1.9 % on all six (README-thresholds.md,
- *   round 18). The reported value stays the published least-squares slope, which reference values and cut-offs were
+ *   slope read a median −0.9 to −2.0 % on four of six models, 0.0 % on one and +2.6 % on one whose VE and VCO2 noise move
+ *   together; OUES down to −5.4 % on the noisiest. The corrected slopes' median errors were −1.1 to +1.9 % on all six
+ *   (README-thresholds.md, round 18). The reported value stays the published least-squares slope, which reference values and cut-offs were
  *   built on; the band is centred on the corrected slope and always holds the reported one.
  * The band: centre × (1 ± `INDEX_BAND_FACTORS[family]` × scale), joined with the reported value. x and y are the arrays
  * the line was fitted to over [from, to), in time order. A line not determined is returned unchanged.
@@ -210,7 +210,8 @@ export function lineBandScale(line: LineIndex): number | null {
   const lag1 = inputs.residualLag1;
   if (typeof lag1 !== "number") return slopeRelativeScale(line.r2.value, fittedPoints(line));
   const scale = autocorrelatedSlopeScale(line.r2.value, fittedPoints(line), lag1);
-  // a dilution-corrected centre divides the moments by the reliability, and its scatter grows by as much (Fuller 1987)
+  // a dilution-corrected centre divides the moments by the reliability, and its scatter grows about as much (Fuller 1987,
+  // recalled; the factors are calibrated with this scale)
   const reliability = inputs.reliability;
   return scale !== null && typeof inputs.dilutionCorrected === "number" && typeof reliability === "number" && reliability > 0
     ? scale / reliability
