@@ -78,9 +78,8 @@ function evaluateAxis(
   return { ...base, category: null, text: `${axis.label}: ${reason}`, reason };
 }
 
-/** The first band whose condition holds with these variables, or null (not assessable, or between bands). */
-function categoryWith(bands: BandData[], ctx: EvalContext, vars: EvalContext["vars"]): BandData | null {
-  const alt: EvalContext = { ...ctx, vars, ruleCache: new Map() };
+/** The first band whose condition holds in this context, or null (not assessable, or between bands). */
+function categoryWith(bands: BandData[], alt: EvalContext): BandData | null {
   for (const b of bands) {
     const r = evaluateCondition(b.when, alt);
     if (r.outcome === null) return null;
@@ -97,7 +96,7 @@ function categoryWith(bands: BandData[], ctx: EvalContext, vars: EvalContext["va
 function bandReaches(bands: BandData[], ctx: EvalContext, key: string): string {
   const parts: string[] = [];
   for (const end of ctx.bandEnds ?? []) {
-    const other = [categoryWith(bands, ctx, end.low), categoryWith(bands, ctx, end.high)]
+    const other = [categoryWith(bands, end.low), categoryWith(bands, end.high)]
       .filter((b): b is BandData => b !== null && b.key !== key)
       .map((b) => b.label);
     if (other.length > 0) parts.push(`the ${end.words} reaches ${unique(other).join(" and ")}`);

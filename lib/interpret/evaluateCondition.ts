@@ -20,8 +20,11 @@ export interface EvalContext {
   reasons: Readonly<Record<string, string>>;
   /** Memo of rule results (rules are pure functions of vars and choices). */
   ruleCache: Map<string, RuleResult>;
-  /** The variables at each end of a measurement's uncertainty band (`InterpretInput.uncertainty`), for the schemes. */
-  bandEnds?: readonly { words: string; low: Readonly<Record<string, VarValue>>; high: Readonly<Record<string, VarValue>> }[];
+  /**
+   * The contexts at each end of a measurement's uncertainty band (`InterpretInput.uncertainty`), for the schemes: the
+   * variables recomputed with the band's end, each with its own rule memo.
+   */
+  bandEnds?: readonly { words: string; low: EvalContext; high: EvalContext }[];
 }
 
 export interface ConditionResult {

@@ -27,12 +27,19 @@ export function makeContext(
       Object.entries(input.reasons ?? {}).filter((e): e is [string, string] => typeof e[1] === "string" && e[1] !== ""),
     ),
     ruleCache: new Map(),
-    bandEnds: (input.uncertainty ?? []).map((u) => ({
-      words: u.words,
-      low: buildVariables({ ...input, values: { ...input.values, ...u.low } }, data),
-      high: buildVariables({ ...input, values: { ...input.values, ...u.high } }, data),
-    })),
   };
+  // one context per end of each band, sharing everything but the variables (and the rule memo, a function of them)
+  const at = (values: InterpretInput["values"]): EvalContext => ({
+    ...ctx,
+    vars: buildVariables({ ...input, values }, data),
+    ruleCache: new Map(),
+    bandEnds: [],
+  });
+  ctx.bandEnds = (input.uncertainty ?? []).map((u) => ({
+    words: u.words,
+    low: at({ ...input.values, ...u.low }),
+    high: at({ ...input.values, ...u.high }),
+  }));
   return { ctx, resolved };
 }
 
