@@ -1,5 +1,6 @@
 import { reasonWithoutLeadIn, type Measured } from "../core";
 import {
+  slopeToVt2Name,
   vo2PlateauNotAssessedReason,
   vo2PlateauPresent,
   type IndicesResult,
@@ -83,7 +84,8 @@ export function toInterpretInput(
   }
   const slopes: [keyof InterpretValues, string, LineIndex | undefined, number][] = [
     ["veVco2SlopeWhole", "whole-exercise VE/VCO2 slope", indices.veVco2.slopeWholeExercise, 1],
-    ["veVco2SlopeToRcp", "VE/VCO2 slope to RCP", indices.veVco2.slopeToVt2, 1],
+    // named for what it was fitted to (to the RCP, the whole exercise, or a break the fit placed)
+    ["veVco2SlopeToRcp", slopeToVt2Name(indices.veVco2.slopeToVt2), indices.veVco2.slopeToVt2, 1],
     ["oues", "OUES", oues, 0],
     ["dVo2dWr", "ΔVO2/ΔWR", indices.dVo2dWr.whole, 1],
   ];
