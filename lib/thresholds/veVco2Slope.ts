@@ -156,7 +156,7 @@ export function lineIndexFromFit(
  *   `reliability`: the slope with that noise taken out of the moments (`dilutionCorrectedSlope`). Breath noise in x
  *   flattens a least-squares slope (regression dilution): on invented tests at moderate noise the whole-exercise VE/VCO2
  *   slope read a median −0.9 to −2.0 % on four of six models, 0.0 % on one and +2.6 % on one whose VE and VCO2 noise move
- *   together; OUES down to −5.4 % on the noisiest. The corrected slopes' median errors were −1.1 to +1.9 % on all six
+ *   together; OUES down to −5.4 % on the noisiest. The corrected slopes' median errors were −0.8 to +0.8 % on all six
  *   (README-thresholds.md, round 18). The reported value stays the published least-squares slope, which reference values and cut-offs were
  *   built on; the band is centred on the corrected slope and always holds the reported one.
  * The band: centre × (1 ± `INDEX_BAND_FACTORS[family]` × scale), joined with the reported value. x and y are the arrays

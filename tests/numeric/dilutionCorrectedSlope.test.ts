@@ -37,13 +37,36 @@ describe("dilution-corrected slope", () => {
     expect(Math.abs(c.slope - 30)).toBeLessThan(1.5);
   });
 
+  it("takes noise that neighbouring points share (lag 2 by default); differences of neighbours miss half of it", () => {
+    // MA(1) noise in x, e_i = u_i + u_{i−1}: variance 2σᵤ², neighbours share σᵤ². Half the mean square difference of
+    // neighbours is σᵤ² (half the noise), of points two apart 2σᵤ² (all of it).
+    const rng = seededRandom(29);
+    const n = 6000;
+    const x: number[] = [];
+    const y: number[] = [];
+    let prev = 0.12 * rng.normal();
+    for (let i = 0; i < n; i++) {
+      const u = 0.12 * rng.normal();
+      const xTrue = i / n;
+      x.push(xTrue + u + prev);
+      y.push(2 + 30 * xTrue + 0.5 * rng.normal());
+      prev = u;
+    }
+    // var(x_true) = 1/12, noise 2 × 0.0144 = 0.0288: plain slope 30 × 0.0833/0.1121 ≈ 22.3
+    expect(linearRegression(x, y).slope).toBeLessThan(23.5);
+    const lag2 = dilutionCorrectedSlope(x, y, 0, n);
+    expect(Math.abs(lag2.slope - 30)).toBeLessThan(1.2);
+    const lag1 = dilutionCorrectedSlope(x, y, 0, n, 0.5, 1);
+    expect(lag1.slope).toBeLessThan(27.5); // ≈ 30 × 0.0833/(0.0833 + 0.0144) ≈ 25.6: under-corrected
+  });
+
   it("leaves a noise-free line as it is", () => {
     const x = Array.from({ length: 50 }, (_, i) => i);
     const y = x.map((v) => 3 + 0.5 * v);
     const c = dilutionCorrectedSlope(x, y, 0, 50);
-    // the successive differences of a ramp are its trend steps, in x and y alike: both moments lose the same share
-    // (reliability 1 − n·(1/2)/Sxx, close to 1) and the slope stays exact
-    expect(c.reliability).toBeGreaterThan(0.99);
+    // the differences of a ramp are its trend steps, in x and y alike: both moments lose the same share (reliability
+    // 1 − n·(2²/2)/Sxx at lag 2, close to 1) and the slope stays exact
+    expect(c.reliability).toBeGreaterThan(0.98);
     expect(c.slope).toBeCloseTo(0.5, 12);
   });
 
@@ -52,8 +75,9 @@ describe("dilution-corrected slope", () => {
     const c = dilutionCorrectedSlope(x, y, 0, x.length);
     expect(c.reliability).toBeLessThan(0.5);
     expect(c.slope).toBeNaN();
-    expect(dilutionCorrectedSlope([1, 2], [1, 2], 0, 2).slope).toBeNaN();
-    expect(dilutionCorrectedSlope([1, 1, 1], [1, 2, 3], 0, 3).slope).toBeNaN();
+    expect(dilutionCorrectedSlope([1, 2, 3], [1, 2, 3], 0, 3).slope).toBeNaN(); // lag 2 needs 4 points
+    expect(dilutionCorrectedSlope([1, 1, 1, 1], [1, 2, 3, 4], 0, 4).slope).toBeNaN();
+    expect(() => dilutionCorrectedSlope([1, 2, 3, 4], [1, 2, 3, 4], 0, 4, 0.5, 0)).toThrow();
   });
 
   it("works on a sub-range", () => {
