@@ -15,11 +15,13 @@ import { quantile } from "../lib/numeric";
 import { PrefixSums } from "../lib/numeric/linearRegression";
 import { conditionTable } from "../lib/signal";
 import type { NoiseLevel, SyntheticTruth } from "../lib/synthetic";
-import { conformalFactor, type SlopeIndexName } from "../lib/thresholds/bandCalibration";
+import { conformalFactor, indexBand, type SlopeIndexName } from "../lib/thresholds/bandCalibration";
 import { dVo2dWr } from "../lib/thresholds/dVo2dWr";
 import { oues } from "../lib/thresholds/oues";
 import { bandCentre, lineBandScale, veVco2Slope, type LineIndex } from "../lib/thresholds/veVco2Slope";
 import { bankCases, bankGenerator } from "./threshold-bank";
+
+const LEVELS: NoiseLevel[] = ["low", "moderate", "high"];
 
 /** One index of one test: what the engine reported and the noise-free truth. */
 export interface IndexRow {
@@ -122,8 +124,6 @@ export function runIndexBank(options: {
   return rows;
 }
 
-const LEVELS: NoiseLevel[] = ["low", "moderate", "high"];
-
 /** Accuracy and band coverage per index and noise level (and over all levels). */
 export function indexStats(rows: IndexRow[]): IndexStats[] {
   const stats: IndexStats[] = [];
@@ -175,13 +175,8 @@ function calibrate(size: number): void {
   const check = [...bank("main", 2024), ...bank("variant", 77)];
   const blindSeeds = { holdout: 31, audit: 41, crosscheck: 53, secondopinion: 67 };
   const blind = Object.entries(blindSeeds).map(([g, seed]) => ({ g, rows: bank(g, seed, ["moderate"], Math.round(size / 3)) }));
-  // the band as the engine builds it with factor f: centre × (1 ± f·scale) joined with the value
-  const bandOf = (r: IndexRow, f: number) => {
-    const c = r.centre as number;
-    const a = c * (1 - f * (r.scale as number));
-    const b = c * (1 + f * (r.scale as number));
-    return { low: Math.min(a, b, r.value as number), high: Math.max(a, b, r.value as number) };
-  };
+  // the band as the engine builds it with factor f
+  const bandOf = (r: IndexRow, f: number) => indexBand(r.centre as number, r.value as number, r.scale, f)!;
   const banded = (rows: IndexRow[]) => rows.filter((r) => Number.isFinite(indexScore(r)) && r.value !== null);
   const cover = (rows: IndexRow[], f: number) => {
     const s = banded(rows);

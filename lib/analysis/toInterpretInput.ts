@@ -69,12 +69,13 @@ export function toInterpretInput(
   // the calibrated bands, as the values at each end (everything computed from VT1 moves with it)
   const uncertainty: UncertainValue[] = [];
   const vt1Band = thresholds.vt1.band;
+  const peakVo2 = v(p.vo2MlMin);
   if (vt1Vo2 !== null && vt1Band && !thresholds.vt1.overridden) {
     const vt1At = (vo2: number): Partial<InterpretValues> => ({
       vt1Vo2MlMin: vo2,
       vt1Vo2MlKgMin: patient.weightKg ? vo2 / patient.weightKg : null,
       vt1PctPredPeakVo2: predVo2 ? (100 * vo2) / predVo2 : null,
-      vt1PctPeak: v(p.vo2MlMin) ? (100 * vo2) / (v(p.vo2MlMin) as number) : null,
+      vt1PctPeak: peakVo2 ? (100 * vo2) / peakVo2 : null,
     });
     uncertainty.push({
       words: `VT1 band ${Math.round(vt1Band.lowMlMin)}–${Math.round(vt1Band.highMlMin)} mL/min`,

@@ -1,4 +1,4 @@
-import { bandCentre, type LineIndex } from "../thresholds/veVco2Slope";
+import { noiseCorrectedSlope, type LineIndex } from "../thresholds/veVco2Slope";
 import { formatNumber } from "../units/format";
 
 /**
@@ -13,8 +13,7 @@ export function bandNote(line: LineIndex | undefined, decimals: number): string 
   const high = formatNumber(line.band.high, decimals);
   // a band inside one step of the last digit shown ("28.0–28.0") says that, not a range of one number
   const words = [low === high ? "band narrower than the last digit shown" : `band ${low}–${high}`];
-  const centre = bandCentre(line);
-  if (typeof line.slope.provenance.inputs?.dilutionCorrected === "number" && centre !== null)
-    words.push(`corrected for breath noise ${formatNumber(centre, decimals)}`);
+  const corrected = noiseCorrectedSlope(line);
+  if (corrected !== null) words.push(`corrected for breath noise ${formatNumber(corrected, decimals)}`);
   return words.join("; ");
 }

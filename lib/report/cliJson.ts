@@ -1,6 +1,6 @@
 import type { Issue, Measured } from "../core";
 import type { AnalysisResult } from "../analysis";
-import { slopeToVt2Name, type LineIndex, type ThresholdEstimate } from "../thresholds";
+import { noiseCorrectedSlope, slopeToVt2Name, type ThresholdEstimate } from "../thresholds";
 
 /**
  * The CLI's JSON object: a stable projection of the analysis result, documented by
@@ -100,12 +100,6 @@ export interface CliThreshold {
 const val = (m: Measured | null | undefined): number | null =>
   m && m.value !== null && Number.isFinite(m.value) ? m.value : null;
 
-/** A line's slope corrected for breath noise in its x (the band's centre), when one was recorded; else null. */
-const noiseCorrected = (line: LineIndex | undefined): number | null => {
-  const c = line?.slope.provenance.inputs?.dilutionCorrected;
-  return typeof c === "number" && Number.isFinite(c) ? c : null;
-};
-
 export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJson {
   const ix = result.indices;
   const p = ix.peaks;
@@ -140,7 +134,9 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       reason: t.reason ?? null,
     };
   };
-  const oues = (f: number) => val(ix.oues.fits.find((x) => Math.abs(x.fraction - f) < 1e-9)?.slope);
+  const ouesFit = (f: number) => ix.oues.fits.find((x) => Math.abs(x.fraction - f) < 1e-9);
+  const oues = (f: number) => val(ouesFit(f)?.slope);
+  const ouesWhole = ouesFit(1);
   const predicted: CliAnalysisJson["predicted"] = {};
   const seen = new Set(issues.map((i) => `${i.code}|${i.message}`));
   const addOnce = (i: Issue) => {
@@ -205,13 +201,13 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       toRcpBand: ix.veVco2.slopeToVt2.band ?? null,
       whole: nd("VE/VCO2 slope, whole exercise", ix.veVco2.slopeWholeExercise.slope),
       wholeBand: ix.veVco2.slopeWholeExercise.band ?? null,
-      wholeNoiseCorrected: noiseCorrected(ix.veVco2.slopeWholeExercise),
+      wholeNoiseCorrected: noiseCorrectedSlope(ix.veVco2.slopeWholeExercise),
       wholeIntercept: val(ix.veVco2.slopeWholeExercise.intercept),
       nadir: val(ix.veVco2.nadir),
     },
-    oues: nd("OUES", ix.oues.fits.find((x) => Math.abs(x.fraction - 1) < 1e-9)?.slope),
-    ouesBand: ix.oues.fits.find((x) => Math.abs(x.fraction - 1) < 1e-9)?.band ?? null,
-    ouesNoiseCorrected: noiseCorrected(ix.oues.fits.find((x) => Math.abs(x.fraction - 1) < 1e-9)),
+    oues: nd("OUES", ouesWhole?.slope),
+    ouesBand: ouesWhole?.band ?? null,
+    ouesNoiseCorrected: noiseCorrectedSlope(ouesWhole),
     oues90: oues(0.9),
     oues75: oues(0.75),
     dVo2dWr: nd("ΔVO2/ΔWR", ix.dVo2dWr.whole.slope),

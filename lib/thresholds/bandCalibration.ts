@@ -123,6 +123,20 @@ export function bandFromScale(value: number, scale: number | null, factor: numbe
   return { low: Math.min(a, b), high: Math.max(a, b) };
 }
 
+/**
+ * Band of a slope index: centre × (1 ± factor · scale), joined with the reported value so it always holds it; null
+ * without a scale. The centre is the dilution-corrected slope where there is one (`withIndexBand` in veVco2Slope.ts).
+ */
+export function indexBand(
+  centre: number,
+  value: number,
+  scale: number | null,
+  factor: number,
+): { low: number; high: number } | null {
+  const around = bandFromScale(centre, scale, factor);
+  return around && { low: Math.min(around.low, value), high: Math.max(around.high, value) };
+}
+
 /** The slope indices with a calibrated band beside the VE/VCO2 slope to VT2. */
 export type SlopeIndexName = "veVco2Whole" | "oues" | "dVo2dWr";
 

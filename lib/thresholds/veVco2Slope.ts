@@ -6,8 +6,8 @@ import type { ConditionedTest } from "../signal";
 import { exerciseSpan, fieldSeries, pairedSeries, provenanceOf, rollingExtreme, WindowMeans } from "./indexSeries";
 import {
   autocorrelatedSlopeScale,
-  bandFromScale,
   INDEX_BAND_FACTORS,
+  indexBand,
   slopeBand,
   slopeRelativeScale,
   type SlopeIndexName,
@@ -188,17 +188,21 @@ export function withIndexBand(
   };
   const re = (m: Measured): Measured => ({ ...m, provenance: { ...m.provenance, inputs } });
   const banded: LineIndex = { ...line, slope: re(line.slope), intercept: re(line.intercept), r2: re(line.r2) };
-  const around = bandFromScale(bandCentre(banded) ?? slope, lineBandScale(banded), INDEX_BAND_FACTORS[family]);
   return {
     ...banded,
-    band: around && { low: Math.min(around.low, slope), high: Math.max(around.high, slope) },
+    band: indexBand(bandCentre(banded) ?? slope, slope, lineBandScale(banded), INDEX_BAND_FACTORS[family]),
   };
+}
+
+/** A line's slope corrected for breath noise in its x, when `withIndexBand` recorded one; else null. */
+export function noiseCorrectedSlope(line: LineIndex | undefined): number | null {
+  const c = line?.slope.provenance.inputs?.dilutionCorrected;
+  return typeof c === "number" && Number.isFinite(c) ? c : null;
 }
 
 /** Where a line's band is centred: its dilution-corrected slope when one was recorded (`withIndexBand`), else its slope. */
 export function bandCentre(line: LineIndex): number | null {
-  const c = line.slope.provenance.inputs?.dilutionCorrected;
-  return typeof c === "number" && Number.isFinite(c) ? c : line.slope.value;
+  return noiseCorrectedSlope(line) ?? line.slope.value;
 }
 
 /**
@@ -213,7 +217,7 @@ export function lineBandScale(line: LineIndex): number | null {
   // a dilution-corrected centre divides the moments by the reliability, and its scatter grows about as much (Fuller 1987,
   // recalled; the factors are calibrated with this scale)
   const reliability = inputs.reliability;
-  return scale !== null && typeof inputs.dilutionCorrected === "number" && typeof reliability === "number" && reliability > 0
+  return scale !== null && noiseCorrectedSlope(line) !== null && typeof reliability === "number" && reliability > 0
     ? scale / reliability
     : scale;
 }

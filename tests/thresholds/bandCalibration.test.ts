@@ -7,6 +7,7 @@ import {
   conformalFactor,
   autocorrelatedSlopeScale,
   bandFromScale,
+  indexBand,
   MAX_RESIDUAL_LAG1,
   slopeBand,
   slopeRelativeScale,
@@ -127,5 +128,11 @@ describe("slope scale with serially correlated residuals", () => {
     expect(bandFromScale(-10, 0.1, 2)).toEqual({ low: -12, high: -8 });
     expect(bandFromScale(10, null, 2)).toBeNull();
     expect(bandFromScale(NaN, 0.1, 2)).toBeNull();
+  });
+
+  it("centres an index band on its centre and stretches it to hold the reported value", () => {
+    expect(indexBand(42, 41, 0.05, 1)).toEqual({ low: 39.9, high: 44.1 }); // 42 × (1 ± 0.05), holds 41 already
+    expect(indexBand(44, 40, 0.02, 1)).toEqual({ low: 40, high: 44.88 }); // 44 × 0.98 = 43.12 > 40: stretched down
+    expect(indexBand(44, 40, null, 1)).toBeNull();
   });
 });
