@@ -14,7 +14,7 @@ import type { BreathTable } from "../lib/breath";
 import { quantile } from "../lib/numeric";
 import { PrefixSums } from "../lib/numeric/linearRegression";
 import { conditionTable } from "../lib/signal";
-import type { NoiseLevel, SyntheticTruth } from "../lib/synthetic";
+import { recolourNoise, type NoiseLevel, type SyntheticTruth } from "../lib/synthetic";
 import { conformalFactor, indexBand, type SlopeIndexName } from "../lib/thresholds/bandCalibration";
 import { dVo2dWr } from "../lib/thresholds/dVo2dWr";
 import { oues } from "../lib/thresholds/oues";
@@ -97,12 +97,14 @@ export function runIndexBank(options: {
   size: number;
   seed?: number;
   noiseLevels?: NoiseLevel[];
+  /** Lag-1 correlation given to the breath noise (`recolourNoise`; 0 = each model's own noise). */
+  noiseRho?: number;
 }): IndexRow[] {
   const rows: IndexRow[] = [];
   const cases = bankCases(bankGenerator(options.generator), options.size, options.seed, options.noiseLevels ?? LEVELS);
   for (const c of cases) {
     const syn = c.make();
-    const test = conditionTable(syn.table);
+    const test = conditionTable(options.noiseRho ? recolourNoise(syn.table, syn.noiseFree, options.noiseRho) : syn.table);
     rows.push(
       row(
         c.id,
@@ -220,13 +222,16 @@ function main(): void {
   const size = Number(process.env.INDEX_SIZE ?? 240);
   if (process.env.INDEX_CALIBRATE === "1") return calibrate(size);
   const sets = (process.env.INDEX_SETS ?? "main:2024,variant:77,holdout:31,audit:41,crosscheck:53,secondopinion:67").split(",");
-  console.log(`index bank: ${size} synthetic tests per set (invented data); errors as % of the noise-free truth`);
+  const noiseRho = Number(process.env.INDEX_RHO ?? 0);
+  console.log(
+    `index bank: ${size} synthetic tests per set (invented data)${noiseRho ? `, breath noise re-coloured to lag-1 correlation ${noiseRho}` : ""}; errors as % of the noise-free truth`,
+  );
   console.log(
     "set            index                noise       n  signed%  median%  P90%  no-call%  ≤5%  band holds%  width%  centre: signed%  ≤5%",
   );
   for (const set of sets) {
     const [generator, seed] = set.split(":");
-    for (const s of indexStats(runIndexBank({ generator, seed: Number(seed), size }))) {
+    for (const s of indexStats(runIndexBank({ generator, seed: Number(seed), size, noiseRho }))) {
       console.log(
         `${generator.padEnd(15)}${s.index.padEnd(21)}${s.noise.padEnd(9)}${String(s.n).padStart(5)}${s.signedMedianPct.toFixed(1).padStart(9)}${s.medianPct.toFixed(1).padStart(9)}${s.p90Pct.toFixed(1).padStart(6)}${s.noCallPct.toFixed(1).padStart(10)}${s.within5Pct.toFixed(0).padStart(5)}${(Number.isNaN(s.bandCoverPct) ? "–" : s.bandCoverPct.toFixed(0)).padStart(13)}${(Number.isNaN(s.bandWidthPct) ? "–" : s.bandWidthPct.toFixed(1)).padStart(8)}${s.centreSignedMedianPct.toFixed(1).padStart(17)}${s.centreWithin5Pct.toFixed(0).padStart(5)}`,
       );

@@ -18,6 +18,7 @@ import {
   generateSyntheticTest,
   generateVariantTest,
   holdoutSpec,
+  recolourNoise,
   syntheticBank,
   variantSpec,
   type NoiseLevel,
@@ -147,6 +148,8 @@ export interface BankOptions {
   noiseLevels?: NoiseLevel[];
   /** Report the calibrated band (false: the raw band, for `scripts/band-calibration.ts`). @default true */
   calibrateBand?: boolean;
+  /** Lag-1 correlation given to the breath noise (`recolourNoise`; 0 = each model's own noise). @default 0 */
+  noiseRho?: number;
 }
 
 /** The row of the VE/VCO2 slope to VT2 against the noise-free truth, with its band and scale. */
@@ -173,7 +176,7 @@ export function runThresholdBank(options: BankOptions): { rows: BankRow[]; stats
   const t0 = performance.now();
   for (const c of cases) {
     const syn = c.make();
-    const test = conditionTable(syn.table);
+    const test = conditionTable(options.noiseRho ? recolourNoise(syn.table, syn.noiseFree, options.noiseRho) : syn.table);
     const res = detectThresholds(test, {
       bootstrap: options.bootstrap ?? 0,
       seed: 1,

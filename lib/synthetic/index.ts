@@ -9,3 +9,4 @@ export * from "./generateHoldoutTest";
 export * from "./generateAuditTest";
 export * from "./generateCrossCheckTest";
 export * from "./generateSecondOpinionTest";
+export * from "./recolourNoise";
