@@ -1,4 +1,6 @@
 import { expect, test } from "@playwright/test";
+import fs from "node:fs";
+import path from "node:path";
 import { plainRampCsv } from "./fixtures/plain-ramp.csv";
 import { RegisterPage } from "./pages/RegisterPage";
 
@@ -44,4 +46,33 @@ test("invalid details keep the uploaded file and explain the problem", async ({ 
   await page.getByTestId("upload-submit").click();
   await page.waitForURL(/\/tests\/\d+/);
   await expect(page.getByTestId("row-peakVo2")).toContainText("2500");
+});
+
+test("breaths exported smoothed: oscillatory ventilation is reported with a warning to check the VE trace", async ({ page }) => {
+  // The INVENTED heart-failure demo (tests/fixtures/cases) as a cart would export it with a 3-breath trailing mean.
+  const csv = fs.readFileSync(path.resolve(__dirname, "../tests/fixtures/cases/heart-failure.csv"), "utf8");
+  const lines = csv.trim().split("\n");
+  const headerAt = lines.findIndex((l) => !l.startsWith("#"));
+  const header = lines[headerAt].split(",");
+  const cols = ["vo2_ml_min", "vco2_ml_min", "ve_l_min", "rr_br_min", "vt_l", "peto2_mmhg", "petco2_mmhg"].map((c) =>
+    header.indexOf(c),
+  );
+  const rows = lines.slice(headerAt + 1).map((l) => l.split(","));
+  const smoothed = rows.map((r, i) =>
+    r.map((cell, j) => (i < 2 || !cols.includes(j) ? cell : ((+rows[i][j] + +rows[i - 1][j] + +rows[i - 2][j]) / 3).toFixed(3))),
+  );
+  const register = new RegisterPage(page);
+  await register.open();
+  await register.upload(
+    {
+      name: "hf-smoothed.csv",
+      content: [...lines.slice(0, headerAt + 1), ...smoothed.map((r) => r.join(","))].join("\n") + "\n",
+    },
+    { label: "E2E smoothed breaths", weightKg: "78", sex: "male", ageY: "62", heightCm: "174" },
+  );
+  await page.waitForURL(/\/tests\/\d+/);
+  await expect(page.getByTestId("eov-carry-over").first()).toContainText("breath noise carries over");
+  await expect(page.getByTestId("eov-carry-over").first()).toContainText("check the VE trace");
+  await expect(page.getByText(/Breath VE noise carries over from one breath to the next/).first()).toBeVisible();
+  await expect(page.getByTestId("clinical-caution")).toContainText("qualified clinician");
 });

@@ -1,5 +1,6 @@
 import { reasonWithoutLeadIn, type Measured } from "../core";
 import {
+  EOV_CARRY_OVER_CODE,
   slopeToVt2Name,
   vo2PlateauNotAssessedReason,
   vo2PlateauPresent,
@@ -90,6 +91,14 @@ export function toInterpretInput(
     ["oues", "OUES", oues, 0],
     ["dVo2dWr", "ΔVO2/ΔWR", indices.dVo2dWr.whole, 1],
   ];
+  // an EOV call on breaths whose noise carries over may be noise (eov.ts): say the other category is within reach
+  const carryOver = indices.eov.breathNoiseCarryOver;
+  if (eovPresent === true && indices.eov.issues.some((i) => i.code === EOV_CARRY_OVER_CODE) && carryOver !== null)
+    uncertainty.push({
+      words: `EOV call on breaths whose noise carries over (lag-1 correlation ${carryOver.toFixed(2)}; check the VE trace)`,
+      low: { eovPresent: false },
+      high: { eovPresent: true },
+    });
   for (const [key, name, line, d] of slopes)
     if (line?.band && v(line.slope) !== null)
       uncertainty.push({

@@ -58,6 +58,12 @@ export interface EovResult {
   cycles: EovCycle[];
   restingVeLMin: Measured;
   definitions: EovDefinitionResult[];
+  /**
+   * Lag-1 correlation of the breaths' departures from their 9-breath running median of exercise VE
+   * (`breathNoiseCarryOver`); null when not read (time-averaged rows, too few breaths, VE not assessable). Above
+   * `CARRY_OVER_WARNING` a call carries the `eov-breath-noise-carries-over` warning.
+   */
+  breathNoiseCarryOver: number | null;
   issues: Issue[];
 }
 
@@ -283,7 +289,7 @@ export function eov(test: ConditionedTest, options: EovOptions = {}): EovResult 
     issues.push(
       makeIssue(
         "warning",
-        "eov-breath-noise-carries-over",
+        EOV_CARRY_OVER_CODE,
         `Breath VE noise carries over from one breath to the next (lag-1 correlation ${carryOver.toFixed(2)} of the ` +
           `breaths' departures from their 9-breath running median, above ${CARRY_OVER_WARNING}), as when breaths are exported ` +
           "smoothed. The oscillation rules assume breath-by-breath noise and may count that noise as cycles: check the VE " +
@@ -291,7 +297,13 @@ export function eov(test: ConditionedTest, options: EovOptions = {}): EovResult 
         { field: "veLMin" },
       ),
     );
-  return { cycles, restingVeLMin, definitions: [leite, corra], issues };
+  return {
+    cycles,
+    restingVeLMin,
+    definitions: [leite, corra],
+    breathNoiseCarryOver: Number.isFinite(carryOver) ? carryOver : null,
+    issues,
+  };
 }
 
 /**
@@ -303,6 +315,9 @@ export function eov(test: ConditionedTest, options: EovOptions = {}): EovResult 
  * correlation 0.43–0.67 about a 15-breath median.
  */
 export const CARRY_OVER_WARNING = 0.3;
+
+/** Issue code of the warning on an EOV call made on breaths whose noise carries over. */
+export const EOV_CARRY_OVER_CODE = "eov-breath-noise-carries-over";
 
 /**
  * Lag-1 correlation of each breath's relative departure from the 9-breath running median of exercise VE, the departures

@@ -5,7 +5,13 @@ import type { Measured } from "@/lib/core";
 import { EQUATIONS } from "@/lib/predicted";
 import { listCutoffChoices } from "@/lib/interpret";
 import { analysisCharts, bandNote } from "@/lib/report";
-import { BAND_MEANING, METHOD_REASON_SEPARATOR, slopeToVt2Name, type ThresholdEstimate } from "@/lib/thresholds";
+import {
+  BAND_MEANING,
+  EOV_CARRY_OVER_CODE,
+  METHOD_REASON_SEPARATOR,
+  slopeToVt2Name,
+  type ThresholdEstimate,
+} from "@/lib/thresholds";
 import { displayUnit, formatClock, formatNumber } from "@/lib/units";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { getTest, listAnalysisVersions } from "@/lib/store/tests";
@@ -385,7 +391,18 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
             {ix.eov.definitions.map((d) => (
               <tr key={d.id}>
                 <td>Exercise oscillatory ventilation ({d.label})</td>
-                <td className="num">{d.detected === null ? "not assessable" : d.detected ? "present" : "absent"}</td>
+                <td className="num">
+                  {d.detected === null ? "not assessable" : d.detected ? "present" : "absent"}
+                  {d.detected &&
+                  ix.eov.breathNoiseCarryOver !== null &&
+                  ix.eov.issues.some((i) => i.code === EOV_CARRY_OVER_CODE) ? (
+                    <small data-testid="eov-carry-over">
+                      {" "}
+                      (breath noise carries over, lag-1 correlation {formatNumber(ix.eov.breathNoiseCarryOver, 2)}: check the VE
+                      trace)
+                    </small>
+                  ) : null}
+                </td>
                 <td>
                   <HowFound m={d.detail} />
                 </td>

@@ -1,0 +1,81 @@
+/**
+ * An EOV call on breaths whose noise carries over (as when a cart exports smoothed breaths) reaches the reader's
+ * scheme: the heart-failure demo (INVENTED, tests/fixtures/cases) exported as a 3-breath trailing mean, against the same
+ * demo as generated. Why the warning exists: lib/thresholds/eov.ts (`CARRY_OVER_WARNING`), README-thresholds.md round 19.
+ */
+import fs from "node:fs";
+import path from "node:path";
+import { beforeAll, describe, expect, it } from "vitest";
+import { analyse, buildRecord, type AnalysisResult } from "../../lib/analysis";
+
+const dir = path.resolve(__dirname, "../fixtures/cases");
+const SMOOTHED = ["vo2_ml_min", "vco2_ml_min", "ve_l_min", "rr_br_min", "vt_l", "peto2_mmhg", "petco2_mmhg"];
+
+/** The CSV with each gas and ventilation column replaced by the mean of the breath and the two before it. */
+function threeBreathMean(csv: string): string {
+  const lines = csv.trim().split("\n");
+  const headerAt = lines.findIndex((l) => !l.startsWith("#"));
+  const header = lines[headerAt].split(",");
+  const cols = SMOOTHED.map((c) => header.indexOf(c)).filter((i) => i >= 0);
+  const rows = lines.slice(headerAt + 1).map((l) => l.split(","));
+  const out = rows.map((r, i) =>
+    r.map((cell, j) =>
+      i < 2 || !cols.includes(j) ? cell : ((Number(rows[i][j]) + Number(rows[i - 1][j]) + Number(rows[i - 2][j])) / 3).toFixed(3),
+    ),
+  );
+  return [...lines.slice(0, headerAt + 1), ...out.map((r) => r.join(","))].join("\n") + "\n";
+}
+
+const results = new Map<string, AnalysisResult>();
+
+beforeAll(async () => {
+  const meta = JSON.parse(fs.readFileSync(path.join(dir, "heart-failure.json"), "utf8"));
+  expect(meta.invented).toBe(true);
+  const csv = fs.readFileSync(path.join(dir, "heart-failure.csv"), "utf8");
+  for (const [id, text] of [
+    ["as generated", csv],
+    ["3-breath mean", threeBreathMean(csv)],
+  ] as const) {
+    const built = await buildRecord({
+      bytes: new TextEncoder().encode(text),
+      fileName: "heart-failure.csv",
+      patient: meta.patient,
+      ergometer: meta.ergometer,
+      referral: meta.referral,
+    });
+    results.set(id, analyse({ ...built.record!, conduct: meta.conduct, context: meta.context }, { bootstrap: 0 }));
+  }
+}, 60_000);
+
+const eovAxes = (r: AnalysisResult) =>
+  r.interpretation.schemes.flatMap((s) => s.axes).filter((a) => a.category?.label === "EOV present");
+
+describe("EOV on breaths exported smoothed (invented heart-failure demo)", () => {
+  it("as generated: EOV is found, breath noise does not carry over, and the scheme says nothing more", () => {
+    const r = results.get("as generated")!;
+    expect(r.indices.eov.definitions.every((d) => d.detected === true)).toBe(true);
+    expect(r.indices.eov.breathNoiseCarryOver).not.toBeNull();
+    expect(r.indices.eov.breathNoiseCarryOver!).toBeLessThan(0.3);
+    expect(r.issues.some((i) => i.code === "eov-breath-noise-carries-over")).toBe(false);
+    expect(eovAxes(r).length).toBeGreaterThan(0);
+    for (const a of eovAxes(r)) expect(a.bandReaches).toBeUndefined();
+  });
+
+  it("3-breath mean: EOV is still found, with the warning, and the scheme says the call reaches EOV absent", () => {
+    const r = results.get("3-breath mean")!;
+    expect(r.indices.eov.definitions.every((d) => d.detected === true)).toBe(true);
+    // a 3-breath moving mean of independent noise has lag-1 correlation 2/3 (common practice); read about the median: 0.43
+    expect(r.indices.eov.breathNoiseCarryOver!).toBeGreaterThan(0.3);
+    const warning = r.issues.find((i) => i.code === "eov-breath-noise-carries-over");
+    expect(warning?.severity).toBe("warning");
+    expect(warning?.message).toContain("check the VE trace");
+    const axes = eovAxes(r);
+    expect(axes.length).toBeGreaterThan(0);
+    for (const a of axes) {
+      expect(a.bandReaches).toMatch(
+        /EOV call on breaths whose noise carries over \(lag-1 correlation 0\.\d\d; check the VE trace\) reaches EOV absent/,
+      );
+      expect(a.text).toContain("reaches EOV absent");
+    }
+  });
+});
