@@ -1,6 +1,6 @@
 import { makeIssue, measured, notDetermined, type Issue, type Measured } from "../core";
 import { interpolateLinear } from "../numeric/interpolate";
-import { robustSd, runningMedian } from "../numeric";
+import { residualLag1, robustSd, runningMedian } from "../numeric";
 import type { ConditionedTest } from "../signal";
 import { fieldSeries, provenanceOf, restSpan, WindowMeans } from "./indexSeries";
 import { areTimeAveragedRows } from "./rowSpacing";
@@ -331,14 +331,8 @@ export function breathNoiseCarryOver(t: number[], v: number[]): number {
   if (rel.length < 20) return NaN;
   const limit = 3 * robustSd(rel);
   const x = rel.map((r) => Math.max(-limit, Math.min(limit, r)));
-  const m = x.reduce((a, b) => a + b, 0) / x.length;
-  let num = 0;
-  let den = 0;
-  for (let i = 0; i < x.length; i++) {
-    den += (x[i] - m) ** 2;
-    if (i > 0) num += (x[i] - m) * (x[i - 1] - m);
-  }
-  return den > 0 ? num / den : NaN;
+  // the lag-1 autocorrelation of the departures about their mean: the residuals of the flat line at that mean
+  return residualLag1(x, x, 0, x.length, 0, x.reduce((a, b) => a + b, 0) / x.length);
 }
 
 /**
