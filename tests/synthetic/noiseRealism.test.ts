@@ -24,6 +24,18 @@ function median(values: number[]): number {
   return quantile(values, 0.5);
 }
 
+/** Lag-1 sample autocorrelation about the mean (common practice), written here apart from the code under test. */
+function lag1(x: number[]): number {
+  const m = x.reduce((a, b) => a + b, 0) / x.length;
+  let num = 0;
+  let den = 0;
+  for (let i = 0; i < x.length; i++) {
+    den += (x[i] - m) ** 2;
+    if (i > 0) num += (x[i] - m) * (x[i - 1] - m);
+  }
+  return num / den;
+}
+
 /** Robust spread (%) and lag-1 correlation of breath residuals around a centred 15-breath running median. */
 function breathNoise(vo2: number[]): { spreadPct: number; lag1: number } {
   const res: number[] = [];
@@ -32,14 +44,7 @@ function breathNoise(vo2: number[]): { spreadPct: number; lag1: number } {
     res.push(vo2[i] / m - 1);
   }
   const mid = median(res);
-  const mean = res.reduce((a, b) => a + b, 0) / res.length;
-  let num = 0;
-  let den = 0;
-  for (let i = 0; i < res.length; i++) {
-    den += (res[i] - mean) ** 2;
-    if (i > 0) num += (res[i] - mean) * (res[i - 1] - mean);
-  }
-  return { spreadPct: 100 * 1.4826 * median(res.map((r) => Math.abs(r - mid))), lag1: num / den };
+  return { spreadPct: 100 * 1.4826 * median(res.map((r) => Math.abs(r - mid))), lag1: lag1(res) };
 }
 
 /** ACTES: per recording, the breaths of the second half of the loaded exercise (time > 0, power > 0). */
@@ -128,16 +133,6 @@ describe("recolourNoise (by construction)", () => {
   const sd = (x: number[]) => {
     const m = x.reduce((a, b) => a + b, 0) / x.length;
     return Math.sqrt(x.reduce((a, b) => a + (b - m) ** 2, 0) / (x.length - 1));
-  };
-  const lag1 = (x: number[]) => {
-    const m = x.reduce((a, b) => a + b, 0) / x.length;
-    let num = 0;
-    let den = 0;
-    for (let i = 0; i < x.length; i++) {
-      den += (x[i] - m) ** 2;
-      if (i > 0) num += (x[i] - m) * (x[i - 1] - m);
-    }
-    return num / den;
   };
 
   it("gives white noise the lag-1 correlation asked for and keeps its spread", () => {
