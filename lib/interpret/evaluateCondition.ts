@@ -3,7 +3,7 @@ import type { InterpretationData } from "./interpretationData";
 import type { ChoiceOptionSchema, Condition } from "./schema";
 import type { ChoiceUse, ComparisonTrace, Outcome, PredictedEquationLabels, RuleResult } from "./types";
 import { variableInfo } from "./variables";
-import { OP_TEXT, categoryText, formatCutoff, formatValue, unique, weakestStatus } from "./format";
+import { OP_TEXT, categoryText, formatCutoff, formatValue, formatValueAgainst, unique, weakestStatus } from "./format";
 import type { z } from "zod";
 
 export type VarValue = number | string | boolean | null;
@@ -90,7 +90,11 @@ function comparisonText(
     const matches = op === "==" || op === "in";
     return matches ? `${info.label}: ${says(value)}` : `${info.label}: ${says(value)}, not ${listed}`;
   }
-  return `${info.label} ${formatValue(variable, value)}${unit}${pred} ${OP_TEXT[op]} ${formatCutoff(variable, cutoff as number)}${unit}`;
+  const shown =
+    typeof value === "number" && typeof cutoff === "number"
+      ? formatValueAgainst(variable, value, cutoff)
+      : formatValue(variable, value);
+  return `${info.label} ${shown}${unit}${pred} ${OP_TEXT[op]} ${formatCutoff(variable, cutoff as number)}${unit}`;
 }
 
 /**

@@ -25,6 +25,19 @@ export function formatValue(variable: string, value: number | string | boolean |
   return formatNumber(value, variableInfo(variable).decimals ?? 0);
 }
 
+/**
+ * A value shown beside a cut-off: with the variable's decimals, or with up to three more when those would show it equal
+ * to a cut-off it is not ("Peak RER 1.054 > 1.05", not "1.05 > 1.05"; a value that equals the cut-off stays as it is).
+ */
+export function formatValueAgainst(variable: string, value: number, cutoff: number): string {
+  const base = variableInfo(variable).decimals ?? 0;
+  const shown = formatNumber(value, base);
+  if (value === cutoff || shown !== formatCutoff(variable, cutoff)) return shown;
+  for (let d = base + 1; d <= base + 3; d++)
+    if (formatNumber(value, d) !== formatNumber(cutoff, d)) return formatNumber(value, d);
+  return shown;
+}
+
 /** A cut-off for display: at least the variable's decimals, never fewer than the literal has. */
 export function formatCutoff(variable: string, cutoff: number): string {
   return formatNumber(cutoff, Math.max(variableInfo(variable).decimals ?? 0, literalDecimals(cutoff)));

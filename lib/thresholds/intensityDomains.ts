@@ -28,7 +28,7 @@ export interface IntensityDomainsResult {
  * Exercise-intensity domains for prescription (common practice in exercise physiology): moderate below VT1,
  * heavy from VT1 to VT2, severe above VT2 (up to the peak values). Each domain gives its HR, work-rate and
  * speed range from the values at VT1/VT2 and the peaks. Without VT1 or VT2 the domains that need it are
- * left out, with an issue.
+ * left out, with an issue; with VT2 not above VT1 none is given, with a warning.
  */
 export function intensityDomains(
   atVt1: ValuesAtThreshold | null,
@@ -38,6 +38,22 @@ export function intensityDomains(
   const issues: Issue[] = [];
   const domains: IntensityDomain[] = [];
   const usable = (m: Measured | undefined | null) => (m && m.value !== null ? m : null);
+  // the RCP follows the AT (common practice): with VT2 at or below VT1 (or before it in time) one of them is wrong, and
+  // ranges read between them would run backwards ("VT1 to VT2: 102–95 bpm"); no prescription is drawn from them
+  const v1 = atVt1?.vo2MlMin.value ?? null;
+  const v2 = atVt2?.vo2MlMin.value ?? null;
+  const t1 = atVt1?.timeS.value ?? null;
+  const t2 = atVt2?.timeS.value ?? null;
+  if ((v1 !== null && v2 !== null && v2 <= v1) || (t1 !== null && t2 !== null && t2 <= t1)) {
+    issues.push(
+      makeIssue(
+        "warning",
+        "domains-thresholds-out-of-order",
+        "Intensity domains are not given: VT2 does not lie above VT1 (in VO2 or in time), so at least one of them is wrong. Review both thresholds; the domains follow once they are in order.",
+      ),
+    );
+    return { domains, sourceIds: ["intensity-domains"], issues };
+  }
   if (atVt1) {
     domains.push({
       id: "moderate",

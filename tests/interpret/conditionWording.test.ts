@@ -76,3 +76,22 @@ describe("condition wording", () => {
     expect(weber.overallText).toBe(`${weber.overall!.label} (${weber.overall!.basis})`);
   });
 });
+
+// A value that rounds to its cut-off is shown with the decimals that tell them apart. Peak RER cut-off 1.05 as used in
+// rules.json (the effort criterion's value, cited there); the RER values are invented.
+describe("a value that rounds to its cut-off", () => {
+  const rer = (peakRer: number) =>
+    evaluateCondition({ var: "peakRer", op: ">", value: 1.05 }, makeContext(baseInput({ peakRer })).ctx).text;
+
+  it("shows the decimal that tells it from the cut-off, never '1.05 > 1.05'", () => {
+    expect(rer(1.054)).toBe("Peak RER 1.054 > 1.05");
+    // a condition that does not hold is written with the operator that does ("≤")
+    expect(rer(1.046)).toBe("Peak RER 1.046 ≤ 1.05");
+    expect(rer(1.0501)).toBe("Peak RER 1.0501 > 1.05");
+  });
+
+  it("keeps the variable's decimals otherwise, and for a value equal to the cut-off", () => {
+    expect(rer(1.12)).toBe("Peak RER 1.12 > 1.05");
+    expect(rer(1.05)).toBe("Peak RER 1.05 ≤ 1.05");
+  });
+});

@@ -33,3 +33,19 @@ describe("intensity domains (invented ramp, VT1 at 420 s, VT2 at 660 s)", () => 
     expect(r.issues.map((i) => i.code)).toContain("domains-incomplete");
   });
 });
+
+describe("intensity domains when the thresholds are out of order (invented ramp)", () => {
+  const test = standardRamp();
+  const peaks = measurePeaks(test);
+  it("gives no domain, and a warning, when VT2 lies at or below VT1 or before it — never a range that runs backwards", () => {
+    // as seen on a smoothed export: VT1 739 mL/min at 626 s, VT2 631 mL/min at 552 s gave "VT1 to VT2: 102–95 bpm"
+    const a1 = valuesAtThreshold(test, { timeS: 660, vo2MlMin: 1960 }, { name: "VT1" });
+    const a2 = valuesAtThreshold(test, { timeS: 420, vo2MlMin: 1480 }, { name: "VT2" });
+    const r = intensityDomains(a1, a2, peaks);
+    expect(r.domains).toEqual([]);
+    expect(r.issues.map((i) => [i.severity, i.code])).toEqual([["warning", "domains-thresholds-out-of-order"]]);
+    // equal VO2 is not "above" either
+    const same = valuesAtThreshold(test, { timeS: 700, vo2MlMin: 1960 }, { name: "VT2" });
+    expect(intensityDomains(a1, same, peaks).domains).toEqual([]);
+  });
+});

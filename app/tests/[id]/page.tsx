@@ -463,6 +463,16 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
             </tr>
           </thead>
           <tbody>
+            {ix.domains.domains.length === 0 ? (
+              <tr data-testid="domains-none">
+                <td colSpan={4}>
+                  {ix.domains.issues
+                    .filter((i) => i.severity !== "info" || i.code === "domains-incomplete")
+                    .map((i) => i.message)
+                    .join(" ") || "No domain can be given."}
+                </td>
+              </tr>
+            ) : null}
             {ix.domains.domains.map((d) => (
               <tr key={d.id}>
                 <td>{d.label}</td>
