@@ -1,5 +1,5 @@
 import type { DraftExtras } from "../interpret";
-import type { IndicesResult, ThresholdEstimate, ThresholdResult } from "../thresholds";
+import { DOMAINS_OUT_OF_ORDER, type IndicesResult, type ThresholdEstimate, type ThresholdResult } from "../thresholds";
 import type { TestRecord } from "./types";
 
 /** Words for how a threshold was found: method agreement, confidence, or the reviewer's override. */
@@ -42,5 +42,6 @@ export function draftExtras(record: TestRecord, thresholds: ThresholdResult, ind
       workFromW: whole(d.workW.lower?.value),
       workToW: whole(d.workW.upper?.value),
     })),
+    domainsWithheld: indices.domains.issues.find((i) => i.code === DOMAINS_OUT_OF_ORDER)?.message,
   };
 }

@@ -31,6 +31,8 @@ export interface DraftExtras {
   /** VT2 (RCP) values, if found. */
   vt2?: { vo2MlMin?: number; hrBpm?: number; workW?: number };
   domains?: IntensityDomain[];
+  /** Why no domain is given when both thresholds are there (they are out of order), in words for the draft. */
+  domainsWithheld?: string;
   comparison?: SerialComparison;
 }
 
@@ -212,7 +214,8 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   const domains = extras.domains ?? [];
   if (domains.length || interpretation.referral === "training") {
     const rx: string[] = [];
-    if (!domains.length) rx.push("Intensity domains were not available; a prescription needs VT1 and VT2.");
+    if (!domains.length)
+      rx.push(extras.domainsWithheld ?? "Intensity domains were not available; a prescription needs VT1 and VT2.");
     for (const d of domains) {
       // Open-ended ranges in the words of the domains table: "up to 122", "from 158" (common practice).
       const range = (lo: number | undefined, hi: number | undefined, unit: string) =>

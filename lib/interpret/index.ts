@@ -20,3 +20,4 @@ export {
 } from "./interpretationData";
 export { INTERPRET_SOURCES } from "./sources";
 export { UNCOMBINED_SCHEME_TEXT } from "./applySchemes";
+export { formatValueAgainst } from "./format";

@@ -1,5 +1,5 @@
 import type { ComparisonTrace } from "../interpret";
-import { variableInfo } from "../interpret";
+import { formatValueAgainst, variableInfo } from "../interpret";
 import { formatNumber } from "../units";
 
 /**
@@ -42,7 +42,10 @@ export function formatComparisonValue(c: ComparisonTrace): string {
   if (c.value === null || c.value === undefined) return `${c.label}: not available`;
   if (typeof c.value === "boolean") return booleanPhrase(c.variable, c.label, c.value);
   if (typeof c.value === "string") return `${c.label}: ${c.value}`;
-  return `${c.label} ${withUnit(formatNumber(c.value, info.decimals ?? 0), c.unit)}`;
+  // beside a numeric cut-off, a value that rounds to it shows the decimal that tells them apart ("1.054", not "1.05")
+  const shown =
+    typeof c.cutoff === "number" ? formatValueAgainst(c.variable, c.value, c.cutoff) : formatNumber(c.value, info.decimals ?? 0);
+  return `${c.label} ${withUnit(shown, c.unit)}`;
 }
 
 /**

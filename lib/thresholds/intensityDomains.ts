@@ -4,6 +4,9 @@ import type { ValuesAtThreshold } from "./valuesAtThreshold";
 
 export type DomainId = "moderate" | "heavy" | "severe";
 
+/** Issue code when no domain is given because VT2 does not lie above VT1. */
+export const DOMAINS_OUT_OF_ORDER = "domains-thresholds-out-of-order";
+
 /** A range on one variable; a null bound means open (below VT1 / up to peak not determinable). */
 export interface DomainRange {
   lower: Measured | null;
@@ -48,7 +51,7 @@ export function intensityDomains(
     issues.push(
       makeIssue(
         "warning",
-        "domains-thresholds-out-of-order",
+        DOMAINS_OUT_OF_ORDER,
         "Intensity domains are not given: VT2 does not lie above VT1 (in VO2 or in time), so at least one of them is wrong. Review both thresholds; the domains follow once they are in order.",
       ),
     );

@@ -66,6 +66,18 @@ describe("draft report text", () => {
     expect(rx).not.toMatch(/…/);
   });
 
+  it("a training referral with thresholds out of order says why there is no prescription", () => {
+    const training = { ...fx.input, referral: "training" as const };
+    const withheld =
+      "Intensity domains are not given: VT2 does not lie above VT1 (in VO2 or in time), so at least one of them is wrong.";
+    const rx = (extras: Parameters<typeof composeDraft>[2]) =>
+      composeDraft(training, interpret(training), extras)
+        .sections.find((s) => s.id === "prescription")!
+        .paragraphs.join(" ");
+    expect(rx({ domains: [], domainsWithheld: withheld })).toBe(withheld);
+    expect(rx({ domains: [] })).toBe("Intensity domains were not available; a prescription needs VT1 and VT2.");
+  });
+
   it("a submaximal test says that only effort-independent variables were interpreted", () => {
     const input = baseInput({ peakRer: 0.95, hrPctPred: 70, hrReserveBpm: 50 });
     const d = composeDraft(input, interpret(input));

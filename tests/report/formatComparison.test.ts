@@ -34,6 +34,13 @@ describe("formatComparisonValue / formatComparisonCutoff", () => {
     expect(formatComparisonValue(vo2kg)).toBe("Peak VO2 18.3 mL/kg/min");
   });
 
+  it("shows the decimal that tells a value from a cut-off it rounds to (Peak RER > 1.05, Radtke et al. 2019, confirmed)", () => {
+    // invented peak RER 1.054: at two decimals "1.05", the cut-off itself; with three, "1.054"
+    const near = trace({ variable: "peakRer", label: "Peak RER", unit: "", value: 1.054, op: ">", cutoff: 1.05 });
+    expect(formatComparisonValue(near)).toBe("Peak RER 1.054");
+    expect(formatComparisonValue({ ...near, value: 1.05 })).toBe("Peak RER 1.05");
+  });
+
   it("writes cut-offs as a clinician reads them, keeping the published decimals", () => {
     // Peak RER > 1.05: ERS statement, Radtke et al. 2019, Eur Respir Rev 28:180101, Table 3 (confirmed).
     expect(

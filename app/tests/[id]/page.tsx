@@ -7,6 +7,7 @@ import { listCutoffChoices } from "@/lib/interpret";
 import { analysisCharts, bandNote } from "@/lib/report";
 import {
   BAND_MEANING,
+  DOMAINS_OUT_OF_ORDER,
   EOV_CARRY_OVER_CODE,
   METHOD_REASON_SEPARATOR,
   slopeToVt2Name,
@@ -467,7 +468,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
               <tr data-testid="domains-none">
                 <td colSpan={4}>
                   {ix.domains.issues
-                    .filter((i) => i.severity !== "info" || i.code === "domains-incomplete")
+                    .filter((i) => i.code === DOMAINS_OUT_OF_ORDER || i.code === "domains-incomplete")
                     .map((i) => i.message)
                     .join(" ") || "No domain can be given."}
                 </td>
