@@ -11,8 +11,9 @@ import { initialDraftSections } from "../../lib/report/initialDraftSections";
 import * as S from "../../lib/synthetic";
 
 // Whatever a recording looks like, the analysis answers: no exception, no NaN or infinity in the CLI JSON, the indices
-// (their provenance too) or the words of the draft report, thresholds inside the exercise and in order, bands (thresholds,
-// VE/VCO2 slopes, OUES, ΔVO2/ΔWR) that hold their values, and CLI JSON that its schema accepts. Recordings are INVENTED: the six synthetic models (two written
+// (their provenance too) or the words of the draft report, thresholds inside the exercise and in order, intensity domains
+// whose work-rate ranges never run backwards, bands (thresholds, VE/VCO2 slopes, OUES, ΔVO2/ΔWR) that hold their values,
+// and CLI JSON that its schema accepts. Recordings are INVENTED: the six synthetic models (two written
 // with the methods, four written blind), any noise level, with signals removed as carts and exports sometimes leave
 // them out, stopped early (down to 5 % of the rows) and with a stretch of rows lost. 40 cases per run (FUZZ_RUNS and
 // FUZZ_SEED widen the search: 300–600 cases on four other seeds passed when this was written).
@@ -132,6 +133,13 @@ describe("the analysis of any recording", () => {
               expect(line.band.high).toBeGreaterThanOrEqual(line.slope.value);
               expect(Number.isFinite(line.band.low) && Number.isFinite(line.band.high)).toBe(true);
             }
+          // intensity domains never run backwards: on these ramps work rate rises with time (before the fix, 150 runs found
+          // ["main", 35, 7, "high", [], { keep: 0.39, … }] with VT2 below VT1 and a "VT1 to VT2" range that fell)
+          for (const d of ix.domains.domains) {
+            const lo = d.workW.lower?.value ?? null;
+            const hi = d.workW.upper?.value ?? null;
+            if (lo !== null && hi !== null) expect(lo).toBeLessThanOrEqual(hi + 1e-9);
+          }
           const v1 = result.thresholds.vt1;
           const v2 = result.thresholds.vt2;
           const firm = (c: string) => c === "moderate" || c === "high";
