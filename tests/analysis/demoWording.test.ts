@@ -52,8 +52,15 @@ describe("demo cases: plain clinical words", () => {
         expect(l, id).not.toMatch(/weber-combination|peak-vo2-normal|vevco2-slope-definition/);
         expect(l, id).not.toMatch(/ (==|!=|<=|>=) /);
         expect(l, id).not.toMatch(/Sex \w+ [=≠]/);
+        // "a" before a number said with a vowel sound ("a 11-W increase", "a 8 %"): English wants "an" (common usage)
+        expect(l, id).not.toMatch(/\ba (8|11|18)(\d{0,2})?\b(?![.,]\d)/);
       }
     }
+  });
+
+  it("heart failure: the plateau criterion says why it cannot be judged in words that read ('a rise of 11 W')", () => {
+    const r = results.get("heart-failure")!;
+    expect(lines(r).join(" ")).toMatch(/a rise of \d+ W would raise VO2 by only/);
   });
 
   it("heart failure: the haemoglobin check reads 'men: Haemoglobin … not available' (the women's branch is left out)", () => {
