@@ -24,9 +24,10 @@ import { draftExtras } from "./draftExtras";
 /**
  * Version of the analysis code; stored with every analysis version and printed on reports. Raised when a change moves
  * what a report states (0.3.0: the threshold bands are calibrated, README-thresholds.md round 17; 0.4.0: the whole-exercise
- * VE/VCO2 slope, OUES and ΔVO2/ΔWR carry calibrated bands, round 18).
+ * VE/VCO2 slope, OUES and ΔVO2/ΔWR carry calibrated bands, round 18; 0.5.0: an EOV call on breaths whose noise carries
+ * over is marked, in the schemes too, round 19, and no intensity domain is drawn from thresholds out of order).
  */
-export const ENGINE_VERSION = "0.4.0";
+export const ENGINE_VERSION = "0.5.0";
 
 /**
  * The whole analysis as one pure, deterministic function of (record, settings):
