@@ -93,7 +93,8 @@ export function toInterpretInput(
   ];
   // an EOV call on breaths whose noise carries over may be noise (eov.ts): say the other category is within reach
   const carryOver = indices.eov.breathNoiseCarryOver;
-  if (eovPresent === true && indices.eov.issues.some((i) => i.code === EOV_CARRY_OVER_CODE) && carryOver !== null)
+  // (the warning is only raised on a call, so EOV is present whenever it is there)
+  if (carryOver !== null && indices.eov.issues.some((i) => i.code === EOV_CARRY_OVER_CODE))
     uncertainty.push({
       words: `EOV call on breaths whose noise carries over (lag-1 correlation ${carryOver.toFixed(2)}; check the VE trace)`,
       low: { eovPresent: false },

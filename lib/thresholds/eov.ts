@@ -131,8 +131,11 @@ export function eov(test: ConditionedTest, options: EovOptions = {}): EovResult 
       return (prefix[b + 1] - prefix[a]) / (b - a + 1);
     });
     // the hysteresis at each point: the fixed one, or more where breath noise left in the smoothed VE is larger
-    const noisePerLevel = noiseSd > 0 ? smoothedNoiseFraction(s.t, s.v, smoothS) * noiseSd : 0;
-    carryOver = breathNoiseCarryOver(s.t, s.v);
+    // each breath's departure from the running median, read once for the noise level and for its carry-over
+    const averaged = areTimeAveragedRows(s.t);
+    const departures = averaged ? veDepartures(s.v, 1, THREE_TO_NINE_POINT_MEDIAN_SD) : veDepartures(s.v, 4);
+    const noisePerLevel = noiseSd > 0 ? smoothedNoiseFraction(s.t, s.v.length, smoothS, departures) * noiseSd : 0;
+    carryOver = averaged ? NaN : carryOverOf(departures);
     const hAt = (i: number) => Math.max(h, noisePerLevel * sm[i]);
     // turning points with hysteresis (single pass)
     const turns: { i: number; kind: "peak" | "nadir" }[] = [];
@@ -325,9 +328,11 @@ export const EOV_CARRY_OVER_CODE = "eov-breath-noise-carries-over";
  * neighbours share no breaths) or too few breaths.
  */
 export function breathNoiseCarryOver(t: number[], v: number[]): number {
-  if (v.length < 20 || areTimeAveragedRows(t)) return NaN;
-  const med = runningMedian(v, 4);
-  const rel = v.map((x, i) => (x - med[i]) / med[i]).filter(Number.isFinite);
+  return areTimeAveragedRows(t) ? NaN : carryOverOf(veDepartures(v, 4));
+}
+
+/** The carry-over of breath departures (`veDepartures`, 9-breath median): NaN with fewer than 20. */
+function carryOverOf(rel: number[]): number {
   if (rel.length < 20) return NaN;
   const limit = 3 * robustSd(rel);
   const x = rel.map((r) => Math.max(-limit, Math.min(limit, r)));
@@ -343,23 +348,25 @@ export function breathNoiseCarryOver(t: number[], v: number[]): number {
 export const THREE_TO_NINE_POINT_MEDIAN_SD = 0.8666 / 0.4607;
 
 /**
- * Breath noise of VE left in a `smoothS`-s centred average, as a fraction of the VE level: the robust SD (1.4826 ×
- * median absolute deviation) of each breath's relative departure from the 9-breath running median, divided by √(breaths
- * per window); on time-averaged rows a 3-row median, scaled. Breath VE noise scales with the level of VE (common practice), hence relative. 0 with too few breaths.
+ * Each row's relative departure of VE from its running median over 2·half + 1 rows, times `scale` (finite ones only).
+ * Breath VE noise scales with the level of VE (common practice), hence relative. 9 single breaths (half 4) span about
+ * 20-30 s of exercise. Rows that are time averages of the cart (6 s or more apart, rowSpacing.ts) get a 3-row median
+ * (half 1) instead: 9 such rows span 90 s and more and take in the oscillation itself, which made the noise estimate,
+ * hence the hysteresis, as large as the cycles (synthetic tests re-averaged to 10 s: EOV found in none of 12). A 3-point
+ * median follows each point more closely, so its departures are scaled to read as the 9-point ones do on white noise
+ * (`THREE_TO_NINE_POINT_MEDIAN_SD`).
  */
-function smoothedNoiseFraction(t: number[], v: number[], smoothS: number): number {
-  if (v.length < 10 || !(t[t.length - 1] > t[0])) return 0;
-  // 9 single breaths span about 20-30 s of exercise. Rows that are time averages of the cart (6 s or more apart,
-  // rowSpacing.ts) get a 3-row median instead: 9 such rows span 90 s and more and take in the oscillation itself, which
-  // made the noise estimate, hence the hysteresis, as large as the cycles (synthetic tests re-averaged to 10 s: EOV found
-  // in none of 12). A 3-point median follows each point more closely, so its residuals are scaled to read as the
-  // 9-point ones do on white noise (`THREE_TO_NINE_POINT_MEDIAN_SD`).
-  const averaged = areTimeAveragedRows(t);
-  const med = runningMedian(v, averaged ? 1 : 4);
-  const k = averaged ? THREE_TO_NINE_POINT_MEDIAN_SD : 1;
-  const rel = v.map((x, i) => (k * (x - med[i])) / med[i]).filter(Number.isFinite);
-  if (rel.length < 10) return 0;
-  const sd = robustSd(rel);
-  const perWindow = Math.max(1, (smoothS * v.length) / (t[t.length - 1] - t[0]));
-  return sd / Math.sqrt(perWindow);
+function veDepartures(v: number[], half: number, scale = 1): number[] {
+  const med = runningMedian(v, half);
+  return v.map((x, i) => (scale * (x - med[i])) / med[i]).filter(Number.isFinite);
+}
+
+/**
+ * Breath noise of VE left in a `smoothS`-s centred average, as a fraction of the VE level: the robust SD (1.4826 ×
+ * median absolute deviation) of the rows' departures (`veDepartures`) divided by √(rows per window). 0 with too few rows.
+ */
+function smoothedNoiseFraction(t: number[], rows: number, smoothS: number, departures: number[]): number {
+  if (rows < 10 || !(t[t.length - 1] > t[0]) || departures.length < 10) return 0;
+  const perWindow = Math.max(1, (smoothS * rows) / (t[t.length - 1] - t[0]));
+  return robustSd(departures) / Math.sqrt(perWindow);
 }

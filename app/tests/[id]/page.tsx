@@ -7,7 +7,6 @@ import { listCutoffChoices } from "@/lib/interpret";
 import { analysisCharts, bandNote } from "@/lib/report";
 import {
   BAND_MEANING,
-  DOMAINS_OUT_OF_ORDER,
   EOV_CARRY_OVER_CODE,
   METHOD_REASON_SEPARATOR,
   slopeToVt2Name,
@@ -99,6 +98,8 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
   const result = analyse(record, settings);
   const ix = result.indices;
   const pk = ix.peaks;
+  // the carry-over of breath VE noise, when an EOV call was marked for it
+  const eovCarryOver = ix.eov.issues.some((i) => i.code === EOV_CARRY_OVER_CODE) ? ix.eov.breathNoiseCarryOver : null;
   const charts = analysisCharts(result);
   const erg = record.ergometer;
   const p = record.patient;
@@ -394,13 +395,10 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                 <td>Exercise oscillatory ventilation ({d.label})</td>
                 <td className="num">
                   {d.detected === null ? "not assessable" : d.detected ? "present" : "absent"}
-                  {d.detected &&
-                  ix.eov.breathNoiseCarryOver !== null &&
-                  ix.eov.issues.some((i) => i.code === EOV_CARRY_OVER_CODE) ? (
+                  {d.detected && eovCarryOver !== null ? (
                     <small data-testid="eov-carry-over">
                       {" "}
-                      (breath noise carries over, lag-1 correlation {formatNumber(ix.eov.breathNoiseCarryOver, 2)}: check the VE
-                      trace)
+                      (breath noise carries over, lag-1 correlation {formatNumber(eovCarryOver, 2)}: check the VE trace)
                     </small>
                   ) : null}
                 </td>
@@ -467,10 +465,8 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
             {ix.domains.domains.length === 0 ? (
               <tr data-testid="domains-none">
                 <td colSpan={4}>
-                  {ix.domains.issues
-                    .filter((i) => i.code === DOMAINS_OUT_OF_ORDER || i.code === "domains-incomplete")
-                    .map((i) => i.message)
-                    .join(" ") || "No domain can be given."}
+                  {/* with no domain, its issues are the reason (thresholds missing or out of order) */}
+                  {ix.domains.issues.map((i) => i.message).join(" ") || "No domain can be given."}
                 </td>
               </tr>
             ) : null}
