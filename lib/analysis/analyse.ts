@@ -25,9 +25,10 @@ import { draftExtras } from "./draftExtras";
  * Version of the analysis code; stored with every analysis version and printed on reports. Raised when a change moves
  * what a report states (0.3.0: the threshold bands are calibrated, README-thresholds.md round 17; 0.4.0: the whole-exercise
  * VE/VCO2 slope, OUES and ΔVO2/ΔWR carry calibrated bands, round 18; 0.5.0: an EOV call on breaths whose noise carries
- * over is marked, in the schemes too, round 19, and no intensity domain is drawn from thresholds out of order).
+ * over is marked, in the schemes too, round 19, and no intensity domain is drawn from thresholds out of order; 0.6.0:
+ * VE/VCO2 at VT1 is read over 60 s of breaths and at the ends of the VT1 band, which the schemes read too, round 20).
  */
-export const ENGINE_VERSION = "0.5.0";
+export const ENGINE_VERSION = "0.6.0";
 
 /**
  * The whole analysis as one pure, deterministic function of (record, settings):
@@ -89,7 +90,9 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
 }
 
 function thresholdPoint(t: ThresholdEstimate): ThresholdPoint | null {
-  return t.timeS !== null && t.vo2MlMin.value !== null ? { timeS: t.timeS, vo2MlMin: t.vo2MlMin.value } : null;
+  return t.timeS !== null && t.vo2MlMin.value !== null
+    ? { timeS: t.timeS, vo2MlMin: t.vo2MlMin.value, bandTimes: t.overridden ? null : (t.bandTimes ?? null) }
+    : null;
 }
 
 /** Measured MVV when given; otherwise FEV1 × 40 (the choice is named on the result). */

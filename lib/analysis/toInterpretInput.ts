@@ -72,16 +72,29 @@ export function toInterpretInput(
   const vt1Band = thresholds.vt1.band;
   const peakVo2 = v(p.vo2MlMin);
   if (vt1Vo2 !== null && vt1Band && !thresholds.vt1.overridden) {
-    const vt1At = (vo2: number): Partial<InterpretValues> => ({
+    // VE/VCO2 at VT1 as read where the VO2 trend reached each end of the band (valuesAtThreshold)
+    const ends = indices.atVt1?.veVco2AtBandEnds ?? null;
+    const vt1At = (vo2: number, veVco2: Measured | null): Partial<InterpretValues> => ({
       vt1Vo2MlMin: vo2,
       vt1Vo2MlKgMin: patient.weightKg ? vo2 / patient.weightKg : null,
       vt1PctPredPeakVo2: predVo2 ? (100 * vo2) / predVo2 : null,
       vt1PctPeak: peakVo2 ? (100 * vo2) / peakVo2 : null,
+      ...(v(veVco2) !== null ? { veVco2AtVt1: v(veVco2) } : {}),
     });
+    const lowVeVco2 = v(ends?.low);
+    const highVeVco2 = v(ends?.high);
     uncertainty.push({
       words: `VT1 band ${Math.round(vt1Band.lowMlMin)}–${Math.round(vt1Band.highMlMin)} mL/min`,
-      low: vt1At(vt1Band.lowMlMin),
-      high: vt1At(vt1Band.highMlMin),
+      low: vt1At(vt1Band.lowMlMin, ends?.low ?? null),
+      high: vt1At(vt1Band.highMlMin, ends?.high ?? null),
+      ...(lowVeVco2 !== null && highVeVco2 !== null
+        ? {
+            detail: {
+              variables: ["veVco2AtVt1"],
+              words: `VE/VCO2 ${lowVeVco2.toFixed(1)} and ${highVeVco2.toFixed(1)} at its ends`,
+            },
+          }
+        : {}),
     });
   }
   const slopes: [keyof InterpretValues, string, LineIndex | undefined, number][] = [

@@ -99,9 +99,23 @@ function bandReaches(bands: BandData[], ctx: EvalContext, key: string): string {
     const other = [categoryWith(bands, end.low), categoryWith(bands, end.high)]
       .filter((b): b is BandData => b !== null && b.key !== key)
       .map((b) => b.label);
-    if (other.length > 0) parts.push(`the ${end.words} reaches ${unique(other).join(" and ")}`);
+    if (other.length > 0) {
+      const detail = end.detail && end.detail.variables.some((name) => bandsRead(bands, name)) ? ` (${end.detail.words})` : "";
+      parts.push(`the ${end.words}${detail} reaches ${unique(other).join(" and ")}`);
+    }
   }
   return parts.join("; ");
+}
+
+/** True when a band's condition reads the variable `name` itself (a `var` anywhere in its tree). */
+function bandsRead(bands: readonly BandData[], name: string): boolean {
+  const reads = (node: unknown): boolean =>
+    Array.isArray(node)
+      ? node.some(reads)
+      : typeof node === "object" && node !== null
+        ? Object.entries(node).some(([k, v]) => (k === "var" && v === name) || reads(v))
+        : false;
+  return bands.some((b) => reads(b.when));
 }
 
 function noCategoryReason(mode: string, axes: readonly SchemeAxisResult[]): string {

@@ -24,7 +24,12 @@ export interface EvalContext {
    * The contexts at each end of a measurement's uncertainty band (`InterpretInput.uncertainty`), for the schemes: the
    * variables recomputed with the band's end, each with its own rule memo.
    */
-  bandEnds?: readonly { words: string; low: EvalContext; high: EvalContext }[];
+  bandEnds?: readonly {
+    words: string;
+    low: EvalContext;
+    high: EvalContext;
+    detail?: { variables: readonly string[]; words: string };
+  }[];
 }
 
 export interface ConditionResult {

@@ -39,6 +39,7 @@ export function makeContext(
     words: u.words,
     low: at({ ...input.values, ...u.low }),
     high: at({ ...input.values, ...u.high }),
+    ...(u.detail ? { detail: u.detail } : {}),
   }));
   return { ctx, resolved };
 }

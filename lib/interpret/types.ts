@@ -161,6 +161,11 @@ export interface UncertainValue {
   words: string;
   low: Partial<InterpretValues>;
   high: Partial<InterpretValues>;
+  /**
+   * More words for the schemes whose bands read one of `variables` (e.g. VE/VCO2 at VT1 at the ends of the VT1 band,
+   * said only where VE/VCO2 at VT1 is graded).
+   */
+  detail?: { variables: (keyof InterpretValues)[]; words: string };
 }
 
 /** The lab's choices where published cut-offs disagree, and which schemes to add or drop. */

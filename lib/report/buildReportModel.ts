@@ -6,7 +6,7 @@ import { ALL_SOURCES } from "./sources";
 import { formatClock, formatNumber } from "../units";
 import { CLINICAL_CAUTION, DRAFT_CAUTION } from "./caution";
 import { PREDICTED_QUANTITIES, type PredictedQuantity } from "../predicted";
-import { BAND_MEANING, slopeToVt2Name, type LineIndex } from "../thresholds";
+import { BAND_MEANING, slopeToVt2Name, veVco2BandEndsWords, type LineIndex } from "../thresholds";
 import { bandNote } from "./bandNote";
 import { formatComparisonCutoff, formatComparisonValue } from "./formatComparison";
 import type { ReportModel, ReportRow, ReportSection } from "./reportModel";
@@ -158,6 +158,11 @@ export function buildReportModel(
       add("% of peak VO2", at.vo2PercentPeak, 0, "% of peak VO2");
       add("HR", at.hrBpm, 0, "bpm", true);
       add("work rate", at.workW, 0, "W");
+      // VE/VCO2 at the AT enters the pre-operative schemes; said with what it is at the band's ends
+      if (t.which === "vt1" && at.veVco2.value !== null) {
+        const ends = t.overridden ? null : veVco2BandEndsWords(at, "VT1");
+        atValues.push({ label: "VE/VCO2", value: `VE/VCO2 ${formatNumber(at.veVco2.value, 1)}${ends ? ` (${ends})` : ""}` });
+      }
     }
     if (atValues.length) row.atValues = atValues;
     const bits: string[] = [];

@@ -42,6 +42,10 @@ export interface CliAnalysisJson {
     wholeNoiseCorrected: number | null;
     wholeIntercept: number | null;
     nadir: number | null;
+    /** VE/VCO2 at VT1 (ratio of the window means of VE and VCO2 around VT1), or null. */
+    atVt1: number | null;
+    /** VE/VCO2 read where the VO2 trend reached the low and the high end of the VT1 band, or null. */
+    atVt1BandEnds: { low: number; high: number } | null;
   };
   oues: number | null;
   /** Calibrated band of OUES (whole exercise), or null. */
@@ -99,6 +103,13 @@ export interface CliThreshold {
 
 const val = (m: Measured | null | undefined): number | null =>
   m && m.value !== null && Number.isFinite(m.value) ? m.value : null;
+
+/** Two readings as { low, high } when both are numbers, else null. */
+const bandEnds = (ends: { low: Measured; high: Measured } | null | undefined): { low: number; high: number } | null => {
+  const low = val(ends?.low);
+  const high = val(ends?.high);
+  return low !== null && high !== null ? { low, high } : null;
+};
 
 export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJson {
   const ix = result.indices;
@@ -204,6 +215,8 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       wholeNoiseCorrected: noiseCorrectedSlope(ix.veVco2.slopeWholeExercise),
       wholeIntercept: val(ix.veVco2.slopeWholeExercise.intercept),
       nadir: val(ix.veVco2.nadir),
+      atVt1: val(ix.veVco2.atVt1),
+      atVt1BandEnds: bandEnds(result.thresholds.vt1.overridden ? null : ix.atVt1?.veVco2AtBandEnds),
     },
     oues: nd("OUES", ouesWhole?.slope),
     ouesBand: ouesWhole?.band ?? null,

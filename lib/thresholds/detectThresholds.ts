@@ -811,6 +811,15 @@ function toEstimate(
   }
   const vo2 =
     c.vo2MlMin === null ? notDetermined("mL/min", prov, c.reason ?? "no method succeeded") : measured(c.vo2MlMin, "mL/min", prov);
+  const reported = c.vo2MlMin === null ? null : band;
+  // when the VO2 trend reached the band's ends (values read there show what the band means for them), kept around the time
+  const bandTimes =
+    reported && timeS !== null
+      ? {
+          lowS: Math.min(timeS, timeAtLevel(series, series.vo2Trend, reported.lowMlMin)),
+          highS: Math.max(timeS, timeAtLevel(series, series.vo2Trend, reported.highMlMin)),
+        }
+      : null;
   return {
     which,
     timeS,
@@ -819,7 +828,8 @@ function toEstimate(
     hrBpm: readAt(test, "hrBpm", "1/min", timeS, 10, "heart rate at the threshold time (10-s centred mean)"),
     speedKmh: readAt(test, "speedKmh", "km/h", timeS, 0, "treadmill speed at the threshold time (linear interpolation)"),
     confidence,
-    band: c.vo2MlMin === null ? null : band,
+    band: reported,
+    bandTimes: bandTimes && Number.isFinite(bandTimes.lowS) && Number.isFinite(bandTimes.highS) ? bandTimes : null,
     methodIds: c.methodIds,
     ...(reason ? { reason } : {}),
     bootstrap,

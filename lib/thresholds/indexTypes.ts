@@ -11,7 +11,7 @@ import type { PeakValues } from "./measurePeaks";
 import type { O2PulseResult } from "./o2Pulse";
 import type { OuesResult } from "./oues";
 import type { DesaturationDefinitionId, Spo2Result } from "./spo2";
-import type { ReadAtTimeOptions, ThresholdPoint, ValuesAtThreshold } from "./valuesAtThreshold";
+import type { ThresholdPoint, ThresholdReadOptions, ValuesAtThreshold } from "./valuesAtThreshold";
 import type { VdVtPoint } from "./vdVt";
 import type { VeVco2Result } from "./veVco2Slope";
 
@@ -37,8 +37,8 @@ export interface IndicesContext {
   desaturationDefinition?: DesaturationDefinitionId;
   /** Effort criteria set id or a custom set. @default "ers-2019" */
   effortSet?: string | EffortCriteriaSet;
-  /** How values are read at VT1/VT2 and blood-gas times. @default { mode: "auto", windowS: 30 } */
-  readAtTime?: ReadAtTimeOptions;
+  /** How values are read at VT1/VT2 and blood-gas times. @default { mode: "auto", windowS: 30, veVco2WindowS: 60 } */
+  readAtTime?: ThresholdReadOptions;
   /** ΔVO2/ΔWR lag exclusion, s. @default 60 */
   dVo2dWrLagS?: number;
 }

@@ -66,7 +66,7 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
     ctx.effortSet,
     { vo2FinalIncreaseMlKgMin: plateau.seMlKgMin.value, vo2FinalIncreaseMlMin: plateau.seMlMin.value },
   );
-  const veVco2 = veVco2Slope(test, { vt1, vt2, nadirWindowS: windowS });
+  const veVco2 = veVco2Slope(test, { vt1, vt2, nadirWindowS: windowS, readAtTime: ctx.readAtTime });
   const ouesR = oues(test);
   const dv = dVo2dWr(test, { vt1, vt2, lagS: ctx.dVo2dWrLagS });
   const o2p = o2Pulse(test);

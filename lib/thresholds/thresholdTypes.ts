@@ -80,6 +80,11 @@ export interface ThresholdEstimate {
   confidence: ThresholdConfidence;
   /** Plausible range: agreeing methods' spread joined with the resampling interval. */
   band: { lowMlMin: number; highMlMin: number } | null;
+  /**
+   * When the smoothed VO2 trend the methods read first reached the band's low and high end, seconds (kept on either side
+   * of `timeS`); null without a band. Values read there say what the band means for them (VE/VCO2 at VT1).
+   */
+  bandTimes?: { lowS: number; highS: number } | null;
   /** Methods that agreed and made the estimate. */
   methodIds: string[];
   /** Why not determinable, or why confidence is reduced. */

@@ -13,7 +13,7 @@ import {
   type SlopeIndexName,
 } from "./bandCalibration";
 import { firstIndexAbove } from "./firstIndexAbove";
-import { readAtTime, type ThresholdPoint } from "./valuesAtThreshold";
+import { veVco2AtTime, type ThresholdPoint, type ThresholdReadOptions } from "./valuesAtThreshold";
 
 /** A straight-line fit reported as three measured values. */
 export interface LineIndex {
@@ -34,7 +34,10 @@ export interface LineIndex {
 export interface VeVco2Options {
   /** Respiratory compensation point (VT2): end of the "to RCP" slope. */
   vt2?: ThresholdPoint | null;
+  /** VT1: where VE/VCO2 at VT1 is read (`veVco2AtTime`). */
   vt1?: ThresholdPoint | null;
+  /** How VE/VCO2 at VT1 is read (as `valuesAtThreshold` reads it, so the two agree). */
+  readAtTime?: ThresholdReadOptions;
   /** Window for the lowest VE/VCO2, seconds. @default 30 */
   nadirWindowS?: number;
   /**
@@ -447,7 +450,7 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
     ? measured(best.value, "1", { ...nadirProv, window: { startS: best.startS, endS: best.endS } })
     : notDetermined("1", nadirProv, "no window with VE and VCO2 in exercise");
   const atVt1 = options.vt1
-    ? readAtTime(test, "veLMin", options.vt1.timeS, "1", { denominator: "vco2MlMin", scale: 1000 })
+    ? veVco2AtTime(test, options.vt1.timeS, options.readAtTime)
     : notDetermined("1", provenanceOf("at-vt1", "VE/VCO2 at VT1", ["common-practice"]), "VT1 not given");
   if (x.length === 0)
     issues.push(

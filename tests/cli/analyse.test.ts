@@ -121,6 +121,10 @@ describe("cpet analyse: full output on real and invented files", { timeout: CLI_
     expect(json.interpretation.schemes.length).toBeGreaterThan(0);
     expect(json.caution).toMatch(/qualified clinician/);
     expect(json.lactate).toBeNull();
+    // VE/VCO2 at VT1 and at the ends of the VT1 band (the heart-failure demo's ratio is high, about 45, at all three)
+    expect(json.veVco2Slope.atVt1).toBeGreaterThan(35);
+    expect(Object.keys(json.veVco2Slope.atVt1BandEnds).sort()).toEqual(["high", "low"]);
+    expect(schema.safeParse({ ...json, veVco2Slope: { ...json.veVco2Slope, atVt1BandEnds: { low: 1 } } }).success).toBe(false);
   });
 
   it("stage data with lactate (Sylta 2016, CC0) gives OBLA equal to the hand interpolation", () => {

@@ -45,3 +45,41 @@ describe("a category near a cut-off", () => {
     expect(at.bandReaches).toMatch(/VT1 band 731–902 mL\/min reaches Class B/);
   });
 });
+
+describe("VE/VCO2 at VT1 moves with the VT1 band", () => {
+  // Cut-offs: VE/VCO2 at the AT > 34 and AT ≤ 10.9 mL/kg/min (Wilson et al. 2010, Br J Anaesth — confirmed, clinical-confirmations C25b) and the
+  // three-tier scheme (AT 8–10.9 mL/kg/min, VE/VCO2 at AT > 34; clinical-reference S34, confirmed). Values invented:
+  // 70 kg, VT1 840 mL/min = 12.0 mL/kg/min with VE/VCO2 33.2; where the VO2 trend reached the band's low end (770 mL/min
+  // = 11.0) VE/VCO2 reads 34.6, at its high end (910 mL/min) 32.8.
+  const band = {
+    words: "VT1 band 770–910 mL/min",
+    low: { vt1Vo2MlMin: 770, vt1Vo2MlKgMin: 11, veVco2AtVt1: 34.6 },
+    high: { vt1Vo2MlMin: 910, vt1Vo2MlKgMin: 13, veVco2AtVt1: 32.8 },
+    detail: { variables: ["veVco2AtVt1" as const], words: "VE/VCO2 34.6 and 32.8 at its ends" },
+  };
+  const values = { vt1Vo2MlMin: 840, vt1Vo2MlKgMin: 12, veVco2AtVt1: 33.2, peakVo2MlKgMin: 19 };
+
+  it("the axis grading VE/VCO2 at the AT says which side of 34 the band's ends read, and why", () => {
+    const s = schemeWith("preop-published-thresholds", values, [band]);
+    const axis = s.axes.find((a) => a.axisId === "wilson-2010-vevco2")!;
+    expect(axis.category?.key).toBe("within");
+    expect(axis.bandReaches).toBe("the VT1 band 770–910 mL/min (VE/VCO2 34.6 and 32.8 at its ends) reaches Beyond the threshold");
+  });
+
+  it("an axis that grades the AT alone names the band without the VE/VCO2 words", () => {
+    const s = schemeWith("preop-published-thresholds", { ...values, vt1Vo2MlKgMin: 11.2 }, [
+      { ...band, low: { ...band.low, vt1Vo2MlKgMin: 10.9 } },
+    ]);
+    // Wilson 2010 AT cut-off ≤ 10.9 mL/kg/min: 11.2 is not beyond it, the band's low end 10.9 is
+    const at = s.axes.find((a) => a.axisId === "wilson-2010-at")!;
+    expect(at.bandReaches).toMatch(/^the VT1 band 770–910 mL\/min reaches /);
+    expect(at.bandReaches).not.toContain("VE/VCO2");
+  });
+
+  it("without the VE/VCO2 reading at the band's ends the ratio stays put and the axis says nothing", () => {
+    const s = schemeWith("preop-published-thresholds", values, [
+      { words: band.words, low: { vt1Vo2MlMin: 770, vt1Vo2MlKgMin: 11 }, high: { vt1Vo2MlMin: 910, vt1Vo2MlKgMin: 13 } },
+    ]);
+    expect(s.axes.find((a) => a.axisId === "wilson-2010-vevco2")!.bandReaches).toBeUndefined();
+  });
+});

@@ -10,6 +10,7 @@ import {
   EOV_CARRY_OVER_CODE,
   METHOD_REASON_SEPARATOR,
   slopeToVt2Name,
+  veVco2BandEndsWords,
   type ThresholdEstimate,
 } from "@/lib/thresholds";
 import { displayUnit, formatClock, formatNumber } from "@/lib/units";
@@ -327,7 +328,12 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                 .join("; ")}
             />
             <IndexRow label="Lowest VE/VCO2" m={ix.veVco2.nadir} d={1} />
-            <IndexRow label="VE/VCO2 at VT1" m={ix.veVco2.atVt1} d={1} />
+            <IndexRow
+              label="VE/VCO2 at VT1"
+              m={ix.veVco2.atVt1}
+              d={1}
+              extra={ix.veVco2.atVt1.value !== null ? (veVco2BandEndsWords(ix.atVt1, "VT1") ?? undefined) : undefined}
+            />
             {ix.oues.fits.map((f) => (
               <IndexRow
                 key={f.fraction}
