@@ -19,6 +19,10 @@ test("the analysis view shows thresholds, predicted values, interpretation and s
   await expect(page.getByTestId("indices")).toContainText(/ΔVO2\/ΔWR on the ramp[\s\S]*band \d/);
   await expect(page.getByTestId("indices")).toContainText(/VE\/VCO2 slope, whole exercise[\s\S]*corrected for breath noise \d/);
   await expect(page.getByTestId("index-band-meaning")).toContainText("OUES and ΔVO2/ΔWR");
+  // VE/VCO2 at VT1 with what it reads at the two ends of the VT1 band (lib/thresholds/valuesAtThreshold.ts)
+  await expect(page.getByTestId("indices").getByRole("row", { name: /^VE\/VCO2 at VT1/ })).toContainText(
+    /\d+\.\d[\s\S]*at the VT1 band's ends \d+\.\d and \d+\.\d/,
+  );
   await expect(page.getByTestId("charts").locator("svg")).toHaveCount(5);
   await expect(page.getByTestId("interpretation-path")).toContainText("Peak VO2");
   await expect(page.getByTestId("schemes")).toContainText("Weber");
