@@ -22,6 +22,7 @@ import { vSlope } from "./vSlope";
 import { jointVt1 } from "./jointVt1";
 import { jointVt2 } from "./jointVt2";
 import { areTimeAveragedRows, medianRowIntervalS } from "./rowSpacing";
+import { breathNoiseCarryOver, CARRY_OVER_WARNING } from "./eov";
 
 export interface ThresholdSeriesOptions {
   /** Time-bin length, s (10–20 s keeps curve shape while damping breath noise; 20 s chosen on the synthetic bank). @default 20 */
@@ -603,6 +604,9 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
     );
   }
   issues.push(...protocolCautions(test, vt1, vt2, options.largeInitialStepRatio ?? 3));
+  issues.push(...smoothedRowsCaution(test, series, vt1, vt2));
+  if (vt1.vo2MlMin.value !== null && vt2.vo2MlMin.value !== null && vt1.vo2MlMin.value < vt2.vo2MlMin.value)
+    clipBandsToOrder(series, vt1, vt2);
   if (vt1.vo2MlMin.value !== null && vt2.vo2MlMin.value !== null && vt1.vo2MlMin.value >= vt2.vo2MlMin.value) {
     issues.push(makeIssue("warning", "vt1-not-below-vt2", "VT1 does not lie below VT2; review both thresholds."));
     vt1.confidence = "low";
@@ -653,6 +657,73 @@ function signed(x: number): string {
 /** Append a reason to an estimate's reason list. */
 function addReason(e: ThresholdEstimate, why: string): void {
   e.reason = e.reason ? `${e.reason}; ${why}` : why;
+}
+
+/** Issue code of the cap on confidence for rows exported averaged or smoothed. */
+export const SMOOTHED_ROWS_CODE = "thresholds-smoothed-rows";
+
+/**
+ * Rows exported as time averages, or breaths exported smoothed (their departures from a 9-breath running median of VE
+ * carry over with a lag-1 correlation above `CARRY_OVER_WARNING`, as a rolling mean makes them): at most moderate
+ * confidence, in place, with a note. The methods' agreement and the resampling read the breath noise such an export has
+ * averaged away, so they look surer than the data are (an invented pre-operative case exported as a 5-breath rolling
+ * mean read "high" with a band that missed the value built into it; README-thresholds.md round 20). Averaging hides
+ * information, it adds none (common practice).
+ */
+function smoothedRowsCaution(
+  test: ConditionedTest,
+  series: ThresholdSeries,
+  vt1: ThresholdEstimate,
+  vt2: ThresholdEstimate,
+): Issue[] {
+  const span = series.span;
+  const rows = test.clean.filter((r) => r.timeS >= span.startS && r.timeS <= span.endS && typeof r.veLMin === "number");
+  const carry =
+    series.timeAveragedRowsS === null
+      ? breathNoiseCarryOver(
+          rows.map((r) => r.timeS),
+          rows.map((r) => r.veLMin as number),
+        )
+      : NaN;
+  const why =
+    series.timeAveragedRowsS !== null
+      ? `the rows are about ${Math.round(series.timeAveragedRowsS)}-s time averages`
+      : carry > CARRY_OVER_WARNING
+        ? `the breaths look exported smoothed (breath-to-breath noise carries over: lag-1 correlation ${carry.toFixed(2)})`
+        : null;
+  if (!why) return [];
+  const capped = [vt1, vt2].filter((e) => e.confidence === "high");
+  for (const e of capped) {
+    e.confidence = "moderate";
+    addReason(e, `at most moderate: ${why}`);
+  }
+  return [
+    makeIssue(
+      "info",
+      SMOOTHED_ROWS_CODE,
+      `${why[0].toUpperCase()}${why.slice(1)}: the methods' agreement and the resampling read less breath noise than the test had, so threshold confidence is at most moderate${capped.length ? ` (${capped.map((e) => e.which.toUpperCase()).join(" and ")} lowered from high)` : ""}. A breath-by-breath export without smoothing gives the methods more to work with.`,
+    ),
+  ];
+}
+
+/**
+ * The respiratory compensation point follows the anaerobic threshold (common practice): VT2's band does not reach below
+ * the VT1 value, nor VT1's above the VT2 value (a band from the methods' spread once reached resting VO2 for VT2 when a
+ * poor method placed it below VT1; invented pre-operative demo, README-thresholds.md round 20). In place.
+ */
+function clipBandsToOrder(series: ThresholdSeries, vt1: ThresholdEstimate, vt2: ThresholdEstimate): void {
+  const v1 = vt1.vo2MlMin.value as number;
+  const v2 = vt2.vo2MlMin.value as number;
+  // the band's times move with its ends (`bandTimes`: when the VO2 trend reached them)
+  const at = (level: number) => timeAtLevel(series, series.vo2Trend, level);
+  if (vt2.band && vt2.band.lowMlMin < v1) {
+    vt2.band = { ...vt2.band, lowMlMin: v1 };
+    if (vt2.bandTimes && vt2.timeS !== null) vt2.bandTimes = { ...vt2.bandTimes, lowS: Math.min(vt2.timeS, at(v1)) };
+  }
+  if (vt1.band && vt1.band.highMlMin > v2) {
+    vt1.band = { ...vt1.band, highMlMin: v2 };
+    if (vt1.bandTimes && vt1.timeS !== null) vt1.bandTimes = { ...vt1.bandTimes, highS: Math.max(vt1.timeS, at(v2)) };
+  }
 }
 
 /**

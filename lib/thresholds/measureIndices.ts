@@ -1,3 +1,4 @@
+import { makeIssue } from "../core";
 import type { ConditionedTest } from "../signal";
 import { breathingReserve } from "./breathingReserve";
 import { dVo2dWr } from "./dVo2dWr";
@@ -66,7 +67,18 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
     ctx.effortSet,
     { vo2FinalIncreaseMlKgMin: plateau.seMlKgMin.value, vo2FinalIncreaseMlMin: plateau.seMlMin.value },
   );
-  const veVco2 = veVco2Slope(test, { vt1, vt2, nadirWindowS: windowS, readAtTime: ctx.readAtTime });
+  // the slope "to the RCP" is not fitted to a VT2 that does not lie above VT1 (the RCP follows the AT; common practice):
+  // it then goes as without a VT2 (README-thresholds.md round 20)
+  const vt2InOrder = vt2 && vt1 && !(vt2.vo2MlMin > vt1.vo2MlMin && vt2.timeS > vt1.timeS) ? null : vt2;
+  const veVco2 = veVco2Slope(test, { vt1, vt2: vt2InOrder, nadirWindowS: windowS, readAtTime: ctx.readAtTime });
+  if (vt2 && !vt2InOrder)
+    veVco2.issues.push(
+      makeIssue(
+        "warning",
+        "ve-vco2-slope-vt2-out-of-order",
+        "VT2 does not lie above VT1: the VE/VCO2 slope to the RCP is not fitted to it, but read as when VT2 is not determinable.",
+      ),
+    );
   const ouesR = oues(test);
   const dv = dVo2dWr(test, { vt1, vt2, lagS: ctx.dVo2dWrLagS });
   const o2p = o2Pulse(test);

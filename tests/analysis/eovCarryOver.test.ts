@@ -7,25 +7,9 @@ import fs from "node:fs";
 import path from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
 import { analyse, buildRecord, type AnalysisResult } from "../../lib/analysis";
+import { threeBreathMean } from "./smoothedExport";
 
 const dir = path.resolve(__dirname, "../fixtures/cases");
-const SMOOTHED = ["vo2_ml_min", "vco2_ml_min", "ve_l_min", "rr_br_min", "vt_l", "peto2_mmhg", "petco2_mmhg"];
-
-/** The CSV with each gas and ventilation column replaced by the mean of the breath and the two before it. */
-function threeBreathMean(csv: string): string {
-  const lines = csv.trim().split("\n");
-  const headerAt = lines.findIndex((l) => !l.startsWith("#"));
-  const header = lines[headerAt].split(",");
-  const cols = SMOOTHED.map((c) => header.indexOf(c)).filter((i) => i >= 0);
-  const rows = lines.slice(headerAt + 1).map((l) => l.split(","));
-  const out = rows.map((r, i) =>
-    r.map((cell, j) =>
-      i < 2 || !cols.includes(j) ? cell : ((Number(rows[i][j]) + Number(rows[i - 1][j]) + Number(rows[i - 2][j])) / 3).toFixed(3),
-    ),
-  );
-  return [...lines.slice(0, headerAt + 1), ...out.map((r) => r.join(","))].join("\n") + "\n";
-}
-
 const results = new Map<string, AnalysisResult>();
 
 beforeAll(async () => {
