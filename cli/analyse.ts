@@ -13,6 +13,7 @@ interface AnalyseOptions {
   age?: number;
   heightCm?: number;
   weightKg?: number;
+  betaBlocker?: boolean;
   ergometer: string;
   fev1L?: number;
   mvvLMin?: number;
@@ -34,6 +35,7 @@ export function registerAnalyse(program: Command): void {
     .option("--age <years>", "age in years", parseNumber("--age", "ageY"))
     .option("--height-cm <cm>", "height in cm", parseNumber("--height-cm", "heightCm"))
     .option("--weight-kg <kg>", "body weight in kg", parseNumber("--weight-kg", "weightKg"))
+    .option("--beta-blocker", "the patient takes a beta-blocker (heart-rate criteria and cut-offs read accordingly)")
     .option("--ergometer <kind>", "cycle | treadmill", "cycle")
     .option(
       "--fev1-l <litres>",
@@ -125,7 +127,13 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
   const built = await buildRecord({
     bytes,
     fileName: path.basename(file),
-    patient: { sex: opts.sex as "male" | "female" | undefined, ageY: opts.age, heightCm: opts.heightCm, weightKg: opts.weightKg },
+    patient: {
+      sex: opts.sex as "male" | "female" | undefined,
+      ageY: opts.age,
+      heightCm: opts.heightCm,
+      weightKg: opts.weightKg,
+      ...(opts.betaBlocker ? { betaBlocker: true } : {}),
+    },
     ergometer: opts.ergometer,
     referral: opts.referral as ReferralQuestion,
     importOptions: {
@@ -175,7 +183,7 @@ function formatText(r: CliAnalysisJson): string {
     `peak RER ${n(r.peak.rer, 2)}, HR ${n(r.peak.hrBpm, 0, " bpm")}, work rate ${n(r.peak.workW, 0, " W")}`,
     `VT1             ${n(r.vt1.vo2MlMin, 0, " mL/min")} (confidence ${r.vt1.confidence})`,
     `VT2             ${n(r.vt2.vo2MlMin, 0, " mL/min")} (confidence ${r.vt2.confidence})`,
-    `VE/VCO2 slope   ${n(r.veVco2Slope.toRcp, 1)} (${r.veVco2Slope.toRcpFittedTo.replace(/^VE\/VCO2 slope,? /, "")}${b(r.veVco2Slope.toRcpBand, 1)}); ${n(r.veVco2Slope.whole, 1)} (whole exercise, breath by breath${b(r.veVco2Slope.wholeBand, 1)})`,
+    `VE/VCO2 slope   ${n(r.veVco2Slope.toRcp, 1)} (${r.veVco2Slope.toRcpFittedTo.replace(/^VE\/VCO2 slope,? /, "")}${b(r.veVco2Slope.toRcpBand, 1)}); ${n(r.veVco2Slope.whole, 1)} (whole exercise, ${r.averaging.startsWith("breath by breath") ? "breath by breath" : "on the rows as exported"}${b(r.veVco2Slope.wholeBand, 1)})`,
     `OUES            ${n(r.oues)}${r.ouesBand ? ` (${b(r.ouesBand).slice(2)})` : ""}`,
     `ΔVO2/ΔWR        ${n(r.dVo2dWr, 1, " mL/min/W")}${r.dVo2dWrBand ? ` (${b(r.dVo2dWrBand, 1).slice(2)})` : ""}`,
     `breathing reserve ${r.breathingReserve.pct === null ? "not determinable (give --mvv-l-min or --fev1-l)" : n(r.breathingReserve.pct, 0, " %")}`,

@@ -37,6 +37,7 @@ export async function buildRecord(input: BuildRecordInput): Promise<BuildRecordR
         ),
       );
   }
+  issues.push(...ergometerMismatch(imported.table.rows, input.ergometer));
   const record: TestRecord = {
     patient,
     ergometer: input.ergometer,
@@ -47,4 +48,24 @@ export async function buildRecord(input: BuildRecordInput): Promise<BuildRecordR
     upload: { fileName: input.fileName, sha256: input.sha256 ?? "", sizeBytes: input.bytes.byteLength },
   };
   return { record, columns: imported.columns, issues };
+}
+
+/**
+ * The ergometer chosen against the load columns of the file: treadmill speed and no work rate on a "cycle" test, or a work
+ * rate and no speed on a "treadmill" one. The ergometer picks the predicted-value equations (cycle and treadmill peak VO2
+ * differ by about 10–20 %, common practice), so a wrong choice moves every % predicted.
+ */
+function ergometerMismatch(rows: readonly { workW?: number; speedKmh?: number }[], ergometer: Ergometer): Issue[] {
+  const work = rows.some((r) => typeof r.workW === "number" && r.workW > 0);
+  const speed = rows.some((r) => typeof r.speedKmh === "number" && r.speedKmh > 0);
+  const other =
+    ergometer === "cycle" && speed && !work ? "treadmill" : ergometer === "treadmill" && work && !speed ? "cycle" : null;
+  if (!other) return [];
+  return [
+    makeIssue(
+      "warning",
+      "ergometer-differs-from-file",
+      `The file has ${other === "treadmill" ? "treadmill speed and no work rate" : "a work rate and no treadmill speed"}, but the test is set as a ${ergometer} test: the ${ergometer} predicted values are used. Set the ergometer to ${other} if the test was done on one.`,
+    ),
+  ];
 }

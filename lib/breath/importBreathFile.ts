@@ -323,8 +323,19 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
 
   // ---- per kg → absolute ---------------------------------------------------------------------
   let weight: ImportResult["weight"] = null;
-  if (opts.weightKg !== undefined) weight = { kg: opts.weightKg, from: "options" };
-  else {
+  if (opts.weightKg !== undefined) {
+    weight = { kg: opts.weightKg, from: "options" };
+    // the file may state another body mass (its details lines or a weight column): the entered one is used, said so
+    const fileKg = weightFromMetadata(formatBase.metadata) ?? bodyMassFromColumn;
+    if (fileKg !== undefined && Math.abs(fileKg - opts.weightKg) > 0.5)
+      issues.push(
+        makeIssue(
+          "warning",
+          "weight-differs-from-file",
+          `The file states a body mass of ${fmt(fileKg)} kg; the ${fmt(opts.weightKg)} kg entered is used for every per-kg value. Check which is right.`,
+        ),
+      );
+  } else {
     const metaKg = weightFromMetadata(formatBase.metadata);
     if (metaKg !== undefined) weight = { kg: metaKg, from: "metadata" };
     else if (bodyMassFromColumn !== undefined) weight = { kg: bodyMassFromColumn, from: "column" };

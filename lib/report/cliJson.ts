@@ -23,6 +23,9 @@ export interface CliAnalysisJson {
     rer: number | null;
     hrBpm: number | null;
     workW: number | null;
+    /** Treadmill: highest speed (km/h) and grade (%) in exercise; null on a cycle. */
+    speedKmh?: number | null;
+    gradePct?: number | null;
     o2PulseMlBeat: number | null;
   };
   predicted: Record<string, { value: number | null; unit: string; equationId: string; percentPredicted: number | null }>;
@@ -80,7 +83,13 @@ export interface CliAnalysisJson {
     thresholds: { method: string; value: number | null; lactateMmolL: number | null }[];
     relations: string[];
   };
-  domains: { id: string; label: string; hrBpm: [number | null, number | null]; workW: [number | null, number | null] }[];
+  domains: {
+    id: string;
+    label: string;
+    hrBpm: [number | null, number | null];
+    workW: [number | null, number | null];
+    speedKmh?: [number | null, number | null];
+  }[];
   interpretation: unknown;
   issues: Issue[];
 }
@@ -91,6 +100,8 @@ export interface CliThreshold {
   timeS: number | null;
   hrBpm: number | null;
   workW: number | null;
+  /** Treadmill speed at the threshold time, km/h; null on a cycle. */
+  speedKmh?: number | null;
   pctPeak: number | null;
   /** VO2 at the threshold as % of the predicted peak VO2 (lab's equation). */
   pctPredictedPeak: number | null;
@@ -134,6 +145,7 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       timeS: t.timeS,
       hrBpm: val(at?.hrBpm) ?? val(t.hrBpm),
       workW: val(at?.workW) ?? val(t.workW),
+      speedKmh: val(at?.speedKmh) ?? val(t.speedKmh),
       pctPeak: val(at?.vo2PercentPeak),
       pctPredictedPeak: t.vo2MlMin.value !== null && predVo2 ? (100 * t.vo2MlMin.value) / predVo2 : null,
       confidence: t.confidence,
@@ -184,6 +196,8 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       code: "not-determinable",
       message: `lactate.obla4.workW: the lactate samples are placed by ${lac.axis === "speedKmh" ? "speed" : lac.axis}, so OBLA is given on that axis`,
     });
+  // on a treadmill the load is speed and grade: a missing work rate is expected there, a missing speed is not
+  const treadmill = result.conditioned.clean.some((r) => typeof r.speedKmh === "number");
   const json: CliAnalysisJson = {
     engineVersion: result.engineVersion,
     caution,
@@ -199,8 +213,10 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       veLMin: val(p.veLMin),
       rer: nd("Peak RER", p.rerMax),
       hrBpm: nd("Peak HR", p.hrBpm),
-      workW: nd("Peak work rate", p.workW),
-      o2PulseMlBeat: val(p.o2PulseMlBeat),
+      workW: treadmill ? val(p.workW) : nd("Peak work rate", p.workW),
+      speedKmh: treadmill ? nd("Peak speed", p.speedKmh) : val(p.speedKmh),
+      gradePct: val(p.gradePct),
+      o2PulseMlBeat: nd("Peak O2 pulse", p.o2PulseMlBeat),
     },
     predicted,
     vt1: threshold(result.thresholds.vt1, ix.atVt1),
@@ -234,9 +250,9 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       veMvvPct: val(ix.breathingReserve.veMvvPercent),
     },
     heartRate: {
-      reserveBpm: val(ix.heartRate.reserveBpm),
-      chronotropicIndex: val(ix.heartRate.chronotropicIndex),
-      recovery1MinBpm: val(ix.heartRate.recovery1MinBpm),
+      reserveBpm: nd("HR reserve", ix.heartRate.reserveBpm),
+      chronotropicIndex: nd("Chronotropic index", ix.heartRate.chronotropicIndex),
+      recovery1MinBpm: nd("HR recovery at 1 min", ix.heartRate.recovery1MinBpm),
       percentPredicted: val(ix.heartRate.percentPredicted),
     },
     spo2: { restPct: val(ix.spo2.restPct), lowestPct: val(ix.spo2.lowestPct), fallPct: val(ix.spo2.fallPct) },
@@ -258,6 +274,7 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       label: d.label,
       hrBpm: [val(d.hrBpm.lower), val(d.hrBpm.upper)],
       workW: [val(d.workW.lower), val(d.workW.upper)],
+      speedKmh: [val(d.speedKmh.lower), val(d.speedKmh.upper)],
     })),
     interpretation: {
       referral: result.interpretation.referral,

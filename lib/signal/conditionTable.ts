@@ -1,3 +1,4 @@
+import { AVERAGED_ROW_INTERVAL_S, medianRowIntervalS } from "./rowSpacing";
 import type { BreathTable } from "../breath";
 import { averageSeries, averagingLabel } from "./averageSeries";
 import { detectPhases, type PhaseOptions } from "./detectPhases";
@@ -23,10 +24,14 @@ export interface ConditioningSettings {
  */
 export function conditionTable(table: BreathTable, settings: ConditioningSettings = {}): ConditionedTest {
   const requested = settings.averaging ?? { kind: "none", label: averagingLabel({ kind: "none" }) };
+  // rows the cart exported as time averages are not breaths: the label says what the rows are, not "breath by breath"
+  const rowIntervalS = medianRowIntervalS(table.rows.map((r) => r.timeS));
   const averaging: AveragingSpec =
     table.shape === "stage"
       ? { kind: "none", label: "stage values (no averaging)" }
-      : { ...requested, label: requested.label || averagingLabel(requested) };
+      : requested.kind === "none" && rowIntervalS >= AVERAGED_ROW_INTERVAL_S
+        ? { ...requested, label: `rows as exported: about ${Math.round(rowIntervalS)}-s time averages (no further averaging)` }
+        : { ...requested, label: requested.label || averagingLabel(requested) };
   const record: ConditioningRecord = {
     averaging,
     artefacts: { ...DEFAULT_ARTEFACT_RULE, ...settings.artefacts },

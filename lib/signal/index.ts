@@ -6,3 +6,4 @@ export * from "./averageSeries";
 export * from "./resampleToGrid";
 export * from "./detectPhases";
 export * from "./conditionTable";
+export * from "./rowSpacing";
