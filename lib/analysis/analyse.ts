@@ -50,6 +50,8 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
     spirometry: record.spirometry,
     predictedHrMaxBpm: hrMax?.value ?? undefined,
     predictedHrMaxEquationId: hrMax?.equationId,
+    // one predicted HRmax per result: when the lab's equation cannot give one, no other stands in for it
+    predictedHrMaxNotDeterminedReason: hrMax && hrMax.value === null ? (hrMax.reason ?? "not determinable") : undefined,
     vt1: thresholdPoint(thresholds.vt1),
     vt2: thresholdPoint(thresholds.vt2),
     peakWindowS: settings.peakWindowS ?? 30,

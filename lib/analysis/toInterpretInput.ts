@@ -65,6 +65,9 @@ export function toInterpretInput(
     const why = m && m.value === null ? reasonWithoutLeadIn(m.reason) : null;
     if (why) reasons[k] = why;
   }
+  const hrr = indices.heartRate;
+  if (hrr.recovery1MinBpm.value !== null && hrr.recovery1MinAbnormal === null)
+    reasons.hrr1Bpm = "read from time-averaged rows, whose margin holds the 12-bpm cut-off (see the issues)";
   const plateauWhy = vo2PlateauNotAssessedReason(indices.vo2FinalIncrease);
   if (plateauWhy) reasons.vo2Plateau = plateauWhy;
   // the calibrated bands, as the values at each end (everything computed from VT1 moves with it)
@@ -150,7 +153,8 @@ export function toInterpretInput(
       hrPctPred: v(indices.heartRate.percentPredicted),
       hrReserveBpm: v(indices.heartRate.reserveBpm),
       chronotropicIndex: v(indices.heartRate.chronotropicIndex),
-      hrr1Bpm: v(indices.heartRate.recovery1MinBpm),
+      // read from time-averaged rows with the 12-bpm cut-off inside its margin, the call is withheld (heartRateIndices)
+      hrr1Bpm: indices.heartRate.recovery1MinAbnormal === null ? null : v(indices.heartRate.recovery1MinBpm),
       o2PulsePeakMlBeat: v(p.o2PulseMlBeat),
       o2PulsePctPred: pct("peakO2Pulse"),
       o2PulsePlateau: plateauOrFall,

@@ -1,7 +1,9 @@
 import { makeIssue, measured, notDetermined, type Issue, type Measured } from "../core";
+import type { BreathRow } from "../breath";
 import type { ConditionedTest } from "../signal";
+import { CHANNEL_GAP_MIN_S, channelGaps, describeChannelGap } from "./channelGaps";
 import { fieldSeries, provenanceOf, restSpan, WindowMeans } from "./indexSeries";
-import { interpolateLinear } from "../numeric/interpolate";
+import { AVERAGED_ROW_INTERVAL_S, medianRowIntervalS } from "./rowSpacing";
 
 export interface HeartRateOptions {
   /** Peak HR as measured (see measurePeaks). */
@@ -10,6 +12,11 @@ export interface HeartRateOptions {
   predictedHrMaxBpm?: number;
   /** Id of the equation behind `predictedHrMaxBpm`, carried into provenance. */
   predictedHrMaxEquationId?: string;
+  /**
+   * The lab's chosen HRmax equation could not give a value (e.g. "needs sex"): predicted HRmax is then not
+   * determinable with this reason, and 220 − age is not put in its place, so one result holds one predicted HRmax.
+   */
+  predictedHrMaxNotDeterminedReason?: string;
   ageY?: number;
   betaBlocker?: boolean;
   /** Resting HR = mean of the last `restLastS` s of rest. @default 60 */
@@ -47,6 +54,17 @@ export const CHRONOTROPIC_INDEX_CUTOFF_BETA_BLOCKER = 0.62;
 export const HR_RECOVERY_1MIN_ABNORMAL_BPM = 12;
 /** HR recovery at 2 min ≤ 42 bpm abnormal (Cole 2000 Ann Intern Med 132:552, confirmed). */
 export const HR_RECOVERY_2MIN_ABNORMAL_BPM = 42;
+/**
+ * HR recovery is not read from rows this many seconds apart or more (time averages exported by the cart, or stage
+ * values): our choice, measured on the INVENTED normal-adult and heart-failure demo tests exported as 10-, 15- and 30-s
+ * bins and compared with the same tests' breaths (answers known by construction; breaths 27.9 and 12.7 bpm at 1 min).
+ * Read as breaths, the bins gave 24.2/15.8/10.0 and 9.5/7.9/6.0 bpm. With the end of exercise placed inside the row that
+ * spans it (`placeEndOfExercise`) they gave 28.0/26.4/25.0 and 11.3/11.0/10.6 bpm, within the stated margin of one
+ * row's HR fall, which was ±4.5/±7.0/±13.5 and ±2.3/±2.7/±4.9 bpm. From 15 s on the margin is more than half the
+ * 12-bpm cut-off in the normal test and a 15-s row spans a quarter of the minute being measured, so the value is
+ * withheld rather than given with a margin that large.
+ */
+export const HR_RECOVERY_MAX_ROW_INTERVAL_S = 15;
 
 /**
  * Heart-rate indices: resting HR (mean of the last minute of rest, implementation choice), HR reserve
@@ -68,7 +86,7 @@ export function heartRateIndices(test: ConditionedTest, options: HeartRateOption
   const restV = rest ? new WindowMeans(hr).mean(rest.startS, rest.endS).mean : NaN;
   const resting = Number.isFinite(restV)
     ? measured(restV, "1/min", restProv)
-    : notDetermined("1/min", restProv, rest ? "no HR at rest" : "no rest phase marked");
+    : notDetermined("1/min", restProv, rest ? "no HR in the rest phase" : "the recording has no rest phase");
 
   let predicted: Measured;
   if (options.predictedHrMaxBpm && options.predictedHrMaxBpm > 0) {
@@ -80,6 +98,14 @@ export function heartRateIndices(test: ConditionedTest, options: HeartRateOption
         "predicted HRmax (chosen equation)",
         options.predictedHrMaxEquationId ? [options.predictedHrMaxEquationId] : ["common-practice"],
       ),
+    );
+  } else if (options.predictedHrMaxNotDeterminedReason) {
+    predicted = notDetermined(
+      "1/min",
+      provenanceOf(options.predictedHrMaxEquationId ?? "predicted-hrmax", "predicted HRmax (chosen equation)", [
+        options.predictedHrMaxEquationId ?? "common-practice",
+      ]),
+      `predicted HRmax not determinable: ${options.predictedHrMaxNotDeterminedReason}`,
     );
   } else if (options.ageY !== undefined && options.ageY > 0) {
     predicted = measured(
@@ -112,12 +138,12 @@ export function heartRateIndices(test: ConditionedTest, options: HeartRateOption
   const reserve =
     pk !== null && pr !== null
       ? measured(pr - pk, "1/min", reserveProv)
-      : notDetermined("1/min", reserveProv, "peak or predicted HR not determinable");
+      : notDetermined("1/min", reserveProv, hrInputReason(peak, predicted));
   const pctProv = provenanceOf("hr-percent-predicted", "peak HR as % of predicted HRmax", ["respir-res-2021-guide"], { inputs });
   const pct =
     pk !== null && pr !== null
       ? measured((100 * pk) / pr, "%", pctProv)
-      : notDetermined("%", pctProv, "peak or predicted HR not determinable");
+      : notDetermined("%", pctProv, hrInputReason(peak, predicted));
 
   const cutoff = options.betaBlocker ? CHRONOTROPIC_INDEX_CUTOFF_BETA_BLOCKER : CHRONOTROPIC_INDEX_CUTOFF;
   const ciProv = provenanceOf(
@@ -127,31 +153,81 @@ export function heartRateIndices(test: ConditionedTest, options: HeartRateOption
     { inputs: { ...inputs, cutoff } },
   );
   let ci: Measured;
-  if (pk === null || pr === null || rs === null)
-    ci = notDetermined("1", ciProv, "peak, predicted or resting HR not determinable");
+  if (pk === null) ci = notDetermined("1", ciProv, `no peak HR: ${peak.reason ?? "not determinable"}`);
+  else if (pr === null) ci = notDetermined("1", ciProv, `no predicted HRmax: ${predicted.reason ?? "not determinable"}`);
+  else if (rs === null) ci = notDetermined("1", ciProv, `no resting HR: ${resting.reason ?? "not determinable"}`);
   else if (!(pr - rs > 0)) ci = notDetermined("1", ciProv, "predicted HRmax is not above resting HR");
   else ci = measured((pk - rs) / (pr - rs), "1", ciProv);
 
   const ex = test.exercise;
+  const end = ex ? placeEndOfExercise(test, ex.endS) : null;
+  const endGap = channelGaps(test, "hrBpm").find((g) => g.reachesExerciseEnd) ?? null;
+  const rowsAfterEnd = ex ? test.clean.filter((r) => r.timeS > ex.endS) : [];
+  const coarse = end !== null && end.rowIntervalS >= HR_RECOVERY_MAX_ROW_INTERVAL_S;
+  const rowKind = test.shape === "stage" ? "time averages or stage values" : "time averages";
+  const margins: string[] = [];
   const recovery = (afterS: number, abnormalAt: number, sourceId: string): { m: Measured; abnormal: boolean | null } => {
     const prov = provenanceOf(
       `hr-recovery-${afterS}s`,
       `HR recovery: peak HR − HR ${afterS} s after the end of exercise (interpolated)`,
       [sourceId],
       {
-        window: ex ? { startS: ex.endS, endS: ex.endS + afterS } : undefined,
+        window: end ? { startS: end.readS, endS: end.readS + afterS } : undefined,
         inputs: { peakBpm: pk, abnormalAtOrBelowBpm: abnormalAt },
+        averaging: end?.averaged ? `rows about ${Math.round(end.rowIntervalS)} s apart (${rowKind})` : undefined,
       },
     );
-    if (!ex) return { m: notDetermined("1/min", prov, "end of exercise not known"), abnormal: null };
-    if (pk === null) return { m: notDetermined("1/min", prov, "peak HR not determinable"), abnormal: null };
-    const v = interpolateLinear(hr.t, hr.v, ex.endS + afterS);
-    if (!Number.isFinite(v)) return { m: notDetermined("1/min", prov, `no HR data ${afterS} s into recovery`), abnormal: null };
-    const d = pk - v;
-    return { m: measured(d, "1/min", { ...prov, inputs: { ...prov.inputs, recoveryHrBpm: v } }), abnormal: d <= abnormalAt };
+    const nd = (reason: string) => ({ m: notDetermined("1/min", prov, reason), abnormal: null });
+    if (!ex || !end) return nd("end of exercise not known");
+    if (pk === null) return nd(`no peak HR: ${peak.reason ?? "not determinable"}`);
+    if (coarse)
+      return nd(
+        `the rows are ${rowKind} about ${Math.round(end.rowIntervalS)} s apart: HR ${afterS} s after the end of exercise cannot be placed from them (the end of exercise falls inside one row and HR falls fastest early in recovery); breath-by-breath HR or averages shorter than ${HR_RECOVERY_MAX_ROW_INTERVAL_S} s are needed`,
+      );
+    if (endGap) return nd(`${describeChannelGap(endGap)}: HR at the end of exercise is unknown`);
+    if (rowsAfterEnd.length === 0) return nd("no recovery recorded: the record ends with exercise");
+    if (!rowsAfterEnd.some((r) => typeof r.hrBpm === "number" && Number.isFinite(r.hrBpm))) return nd("no HR in recovery");
+    const at = end.readS + afterS;
+    const read = readHrAt(hr, at);
+    if (read === "after-last") {
+      const lastS = hr.t[hr.t.length - 1];
+      return nd(
+        `recovery HR recorded for only ${Math.max(0, Math.round(lastS - ex.endS))} s after the end of exercise (${afterS} s needed)`,
+      );
+    }
+    if (typeof read !== "number")
+      return nd(`HR missing from ${Math.round(read.fromS)} to ${Math.round(read.toS)} s, around ${afterS} s into recovery`);
+    const d = pk - read;
+    const inputs: Record<string, number | string | null> = { ...prov.inputs, recoveryHrBpm: read };
+    if (!end.averaged) return { m: measured(d, "1/min", { ...prov, inputs }), abnormal: d <= abnormalAt };
+    // time-averaged rows: a margin of one row's HR fall at the reading (our choice): the row labelled as the last of
+    // exercise may itself hold the first seconds of recovery, so the end can be off by up to one row
+    const slope = (readHrNumber(hr, at + end.rowIntervalS) - readHrNumber(hr, at - end.rowIntervalS)) / (2 * end.rowIntervalS);
+    const marginBpm = Number.isFinite(slope) ? Math.abs(slope) * end.rowIntervalS : NaN;
+    const withheld = !(Math.abs(d - abnormalAt) > marginBpm);
+    margins.push(
+      `±${Number.isFinite(marginBpm) ? marginBpm.toFixed(1) : "?"} bpm at ${afterS / 60} min` +
+        (withheld ? ` (the ≤ ${abnormalAt} bpm call is withheld: the cut-off lies within it)` : ""),
+    );
+    return {
+      m: measured(d, "1/min", {
+        ...prov,
+        inputs: { ...inputs, marginBpm, endFractionOfRow: end.fraction, hrAtEndBpm: readHrNumber(hr, end.readS) },
+      }),
+      abnormal: withheld ? null : d <= abnormalAt,
+    };
   };
   const r1 = recovery(60, HR_RECOVERY_1MIN_ABNORMAL_BPM, "cole-1999");
   const r2 = recovery(120, HR_RECOVERY_2MIN_ABNORMAL_BPM, "cole-2000");
+  if (end?.averaged && !coarse && margins.length > 0)
+    issues.push(
+      makeIssue(
+        "info",
+        "hr-recovery-from-averaged-rows",
+        `HR recovery is read from ${rowKind} about ${Math.round(end.rowIntervalS)} s apart, not single breaths: the end of exercise was placed ${Math.round(100 * end.fraction)} % of the way into the row that spans it (${end.how}), and the values are approximate (${margins.join("; ")}).`,
+        { field: "hrBpm" },
+      ),
+    );
   return {
     restingBpm: resting,
     peakBpm: peak,
@@ -167,4 +243,80 @@ export function heartRateIndices(test: ConditionedTest, options: HeartRateOption
     recovery2MinAbnormal: r2.abnormal,
     issues,
   };
+}
+
+/** Reason for a null HR reserve or % predicted: which input is missing, and why. */
+function hrInputReason(peak: Measured, predicted: Measured): string {
+  if (peak.value === null) return `no peak HR: ${peak.reason ?? "not determinable"}`;
+  return `no predicted HRmax: ${predicted.reason ?? "not determinable"}`;
+}
+
+/** Where HR recovery readings start, on the rows' own time labels. */
+interface EndOfExercise {
+  /** Time label from which "60 s after the end of exercise" is counted. s */
+  readS: number;
+  /** Median spacing of the rows from the exercise start on. s */
+  rowIntervalS: number;
+  /** Rows are time averages (or stage values), not single breaths (`AVERAGED_ROW_INTERVAL_S`). */
+  averaged: boolean;
+  /** Averaged rows: fraction of the row spanning the end of exercise that was still exercise (0–1). */
+  fraction: number;
+  /** Averaged rows: how the end was placed, in plain words. */
+  how: string;
+}
+
+/**
+ * Breaths: the end of exercise is the last exercise breath (unchanged). Time-averaged rows: the last exercise row
+ * holds only exercise, so the end lies in the row after it, which mixes exercise and recovery. Its work rate (or speed)
+ * between the last exercise row's and the next row's gives the fraction of it still in exercise (our choice; half a
+ * row when there is no load signal). On the rows' own labels a row's value sits at its label and rows meet halfway
+ * between labels, so the end is read at lastLabel + interval/2 + fraction × interval whether the cart labels a row
+ * by its start, centre or end, and the +60 s reading shifts with it.
+ */
+function placeEndOfExercise(test: ConditionedTest, exEndS: number): EndOfExercise {
+  const rows = test.clean;
+  const startS = test.exercise?.startS ?? -Infinity;
+  const rowIntervalS = medianRowIntervalS(rows.filter((r) => r.timeS >= startS).map((r) => r.timeS));
+  const averaged = rowIntervalS >= AVERAGED_ROW_INTERVAL_S;
+  if (!averaged) return { readS: exEndS, rowIntervalS, averaged, fraction: 0, how: "last exercise breath" };
+  let i = -1;
+  for (let k = 0; k < rows.length && rows[k].timeS <= exEndS; k++) i = k;
+  const prev = rows[i];
+  const next = rows[i + 1];
+  if (!prev || !next) return { readS: exEndS, rowIntervalS, averaged, fraction: 0, how: "last exercise row" };
+  const dS = next.timeS - prev.timeS;
+  const after = rows[i + 2];
+  const loadOf = (r: BreathRow | undefined): number =>
+    r === undefined ? NaN : typeof r.workW === "number" ? r.workW : typeof r.speedKmh === "number" ? r.speedKmh : NaN;
+  const [wPrev, wNext, wAfter] = [loadOf(prev), loadOf(next), loadOf(after)];
+  const byLoad = [wPrev, wNext, wAfter].every(Number.isFinite) && wPrev - wAfter > 0;
+  const fraction = byLoad ? Math.min(1, Math.max(0, (wNext - wAfter) / (wPrev - wAfter))) : 0.5;
+  return {
+    readS: prev.timeS + dS / 2 + fraction * dS,
+    rowIntervalS,
+    averaged,
+    fraction,
+    how: byLoad ? "from its work rate" : "halfway, with no load signal to place it",
+  };
+}
+
+/**
+ * HR at `atS` by linear interpolation between the rows carrying HR; "after-last" beyond the last one, or the
+ * bracketing rows when they are `CHANNEL_GAP_MIN_S` or more apart (HR missing there).
+ */
+function readHrAt(hr: { t: number[]; v: number[] }, atS: number): number | "after-last" | { fromS: number; toS: number } {
+  const n = hr.t.length;
+  if (n === 0 || atS > hr.t[n - 1]) return "after-last";
+  let hi = 0;
+  while (hi < n && hr.t[hi] < atS) hi++;
+  if (hr.t[hi] === atS) return hr.v[hi];
+  if (hi === 0) return { fromS: atS, toS: hr.t[0] };
+  const lo = hi - 1;
+  if (hr.t[hi] - hr.t[lo] >= CHANNEL_GAP_MIN_S) return { fromS: hr.t[lo], toS: hr.t[hi] };
+  return hr.v[lo] + ((atS - hr.t[lo]) / (hr.t[hi] - hr.t[lo])) * (hr.v[hi] - hr.v[lo]);
+}
+
+function readHrNumber(hr: { t: number[]; v: number[] }, atS: number): number {
+  const v = readHrAt(hr, atS);
+  return typeof v === "number" ? v : NaN;
 }

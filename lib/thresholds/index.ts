@@ -1,4 +1,5 @@
 export * from "./breathingReserve";
+export * from "./channelGaps";
 export * from "./consensus";
 export * from "./dVo2dWr";
 export * from "./detectThresholds";

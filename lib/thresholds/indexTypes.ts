@@ -22,6 +22,8 @@ export interface IndicesContext {
   /** Predicted HRmax from the chosen equation; without it 220 − age (Fox, as used by Cole 1999). */
   predictedHrMaxBpm?: number;
   predictedHrMaxEquationId?: string;
+  /** Why the chosen HRmax equation gave no value (e.g. it needs sex): HR % predicted then stays empty with it. */
+  predictedHrMaxNotDeterminedReason?: string;
   vt1?: ThresholdPoint | null;
   vt2?: ThresholdPoint | null;
   /** Peak averaging window, s. @default 30 */

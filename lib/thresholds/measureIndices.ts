@@ -1,6 +1,7 @@
 import { makeIssue } from "../core";
 import type { ConditionedTest } from "../signal";
 import { breathingReserve } from "./breathingReserve";
+import { hrGapIssues } from "./channelGaps";
 import { dVo2dWr } from "./dVo2dWr";
 import { assessEffort, vo2FinalIncrease } from "./effortCriteria";
 import { eov } from "./eov";
@@ -40,6 +41,7 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
     peakHr: peaks.hrBpm,
     predictedHrMaxBpm: ctx.predictedHrMaxBpm,
     predictedHrMaxEquationId: ctx.predictedHrMaxEquationId,
+    predictedHrMaxNotDeterminedReason: ctx.predictedHrMaxNotDeterminedReason,
     ageY: ctx.patient.ageY,
     betaBlocker: ctx.patient.betaBlocker,
   });
@@ -91,6 +93,7 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
     ...(atVt1?.issues ?? []),
     ...(atVt2?.issues ?? []),
     ...br.issues,
+    ...hrGapIssues(test),
     ...hr.issues,
     ...veVco2.issues,
     ...ouesR.issues,

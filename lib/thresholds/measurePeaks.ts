@@ -4,6 +4,9 @@ import type { ConditionedTest } from "../signal";
 import { exerciseSpan, fieldSeries, provenanceOf, restSpan, rollingExtreme, WindowMeans, type TimeSpan } from "./indexSeries";
 import { readAtTime, type ThresholdPoint } from "./valuesAtThreshold";
 
+/** Plain names of the fields read as ratios over the peak VO2 window, for the "not determinable" reasons. */
+const RATIO_FIELD_LABEL: Partial<Record<NumericField, string>> = { vo2MlMin: "VO2", vco2MlMin: "VCO2", hrBpm: "HR" };
+
 export interface MeasurePeaksOptions {
   /** Averaging window for peak values, seconds. @default 30 */
   windowS?: number;
@@ -118,10 +121,18 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
   ) => {
     const prov = provenanceOf(method, label, sourceIds, { averaging, window: win ?? undefined });
     if (!win) return notDetermined(unit, prov, "peak-VO2 window not determinable");
-    const v = (meansOf(num).mean(win.startS, win.endS).mean / meansOf(den).mean(win.startS, win.endS).mean) * scale;
-    return Number.isFinite(v)
-      ? measured(v, unit, prov)
-      : notDetermined(unit, prov, `no ${num} or ${den} data in the peak-VO2 window`);
+    const n = meansOf(num).mean(win.startS, win.endS);
+    const d = meansOf(den).mean(win.startS, win.endS);
+    const v = (n.mean / d.mean) * scale;
+    if (Number.isFinite(v)) return measured(v, unit, prov);
+    // name the missing channel, e.g. "no HR in the peak VO2 window (1288–1318 s)"
+    const missing = [num, den].filter((f) => !((f === num ? n : d).count > 0)).map((f) => RATIO_FIELD_LABEL[f] ?? f);
+    const where = `the peak VO2 window (${Math.round(win.startS)}–${Math.round(win.endS)} s)`;
+    return notDetermined(
+      unit,
+      prov,
+      missing.length > 0 ? `no ${missing.join(" or ")} in ${where}` : `${label}: not a finite ratio in ${where}`,
+    );
   };
   const maxOf = (f: NumericField, unit: string, what: string) => {
     const prov = provenanceOf("max-value", `${what}: highest value reached in exercise`, ["common-practice"]);

@@ -1,6 +1,7 @@
 import { makeIssue, measured, notDetermined, type Issue, type Measured } from "../core";
 import { linearRegression } from "../numeric/linearRegression";
 import type { ConditionedTest } from "../signal";
+import { channelGaps, describeChannelGap, type ChannelGap } from "./channelGaps";
 import { exerciseSpan, fieldSeries, provenanceOf, WindowMeans } from "./indexSeries";
 
 export interface O2PulseOptions {
@@ -26,6 +27,8 @@ export interface O2PulseResult {
   earlierSlope: Measured;
   /** rising / flat / falling in the final part; null when not determinable. */
   pattern: "rising" | "flat" | "falling" | null;
+  /** Why `pattern` is null (null when it is given). */
+  patternReason: string | null;
   issues: Issue[];
 }
 
@@ -36,7 +39,11 @@ export interface O2PulseResult {
  * rising above it. The flag's arithmetic is an implementation choice; the clinical pattern "O2 pulse flat" is
  * from the CCJM patterns table (secondary).
  *
- * Degenerate cases: fewer than 2 bins in either part → not determinable.
+ * Degenerate cases: fewer than 2 bins in either part → not determinable. HR missing for 30 s or more of exercise
+ * while gas exchange continues (`channelGaps`, CHANNEL_GAP_MIN_S) → the bins touching the gap are left out, the slope
+ * of each part the gap touches is not determinable and the pattern is not assessed: both parts are read (the earlier
+ * slope sets the band the final slope is judged against), and a bin holding VO2 over its whole width but HR over only
+ * part of it gives a ratio that is not an O2 pulse.
  */
 export function o2Pulse(test: ConditionedTest, options: O2PulseOptions = {}): O2PulseResult {
   const binS = options.binS ?? 30;
@@ -44,6 +51,8 @@ export function o2Pulse(test: ConditionedTest, options: O2PulseOptions = {}): O2
   const flatFraction = options.flatFraction ?? 0.25;
   const issues: Issue[] = [];
   const span = exerciseSpan(test);
+  const gaps = channelGaps(test, "hrBpm");
+  const touchesGap = (a: number, b: number) => gaps.some((g) => a < g.endS && b > g.startS);
   const trajectory: O2PulsePoint[] = [];
   if (span) {
     const vo2 = new WindowMeans(fieldSeries(test.clean, "vo2MlMin", span));
@@ -58,6 +67,7 @@ export function o2Pulse(test: ConditionedTest, options: O2PulseOptions = {}): O2
     } else {
       for (let a = span.startS; a + binS <= span.endS + 1e-9; a += binS) {
         const b = a + binS - 1e-9;
+        if (touchesGap(a, b)) continue;
         const v = vo2.mean(a, b).mean / hr.mean(a, b).mean;
         if (Number.isFinite(v)) trajectory.push({ timeS: a + binS / 2, o2PulseMlBeat: v });
       }
@@ -66,7 +76,9 @@ export function o2Pulse(test: ConditionedTest, options: O2PulseOptions = {}): O2
   const cut = span ? span.endS - finalFraction * (span.endS - span.startS) : 0;
   const early = trajectory.filter((p) => p.timeS < cut);
   const late = trajectory.filter((p) => p.timeS >= cut);
-  const slopeOf = (pts: O2PulsePoint[], which: string): Measured => {
+  const gapIn = (a: number, b: number): ChannelGap | undefined => gaps.find((g) => a < g.endS && b > g.startS);
+  const gapReason = (g: ChannelGap) => `${describeChannelGap(g)}: the O2 pulse trajectory is not assessed across a gap in HR`;
+  const slopeOf = (pts: O2PulsePoint[], which: string, partStartS: number, partEndS: number): Measured => {
     const prov = provenanceOf(
       `o2-pulse-slope-${which}`,
       `O2 pulse vs time, OLS slope over the ${which} part of exercise`,
@@ -77,6 +89,8 @@ export function o2Pulse(test: ConditionedTest, options: O2PulseOptions = {}): O2
         inputs: { bins: pts.length },
       },
     );
+    const gap = span ? gapIn(partStartS, partEndS) : undefined;
+    if (gap) return notDetermined("mL/beat/min", prov, gapReason(gap));
     if (pts.length < 2) return notDetermined("mL/beat/min", prov, `fewer than 2 bins in the ${which} part`);
     const f = linearRegression(
       pts.map((p) => p.timeS / 60),
@@ -84,10 +98,22 @@ export function o2Pulse(test: ConditionedTest, options: O2PulseOptions = {}): O2
     );
     return measured(f.slope, "mL/beat/min", prov);
   };
-  const finalSlope = slopeOf(late, "final");
-  const earlierSlope = slopeOf(early, "earlier");
+  const finalSlope = slopeOf(late, "final", cut, span?.endS ?? 0);
+  const earlierSlope = slopeOf(early, "earlier", span?.startS ?? 0, cut);
   let pattern: O2PulseResult["pattern"] = null;
-  if (finalSlope.value !== null && earlierSlope.value !== null) {
+  let patternReason: string | null = null;
+  const firstGap = span ? gapIn(span.startS, span.endS) : undefined;
+  if (firstGap) {
+    patternReason = gapReason(firstGap);
+    issues.push(
+      makeIssue("info", "o2-pulse-pattern-not-assessed", `O2 pulse pattern: ${patternReason}.`, {
+        field: "hrBpm",
+        timeS: Math.round(firstGap.startS),
+      }),
+    );
+  } else if (finalSlope.value === null || earlierSlope.value === null) {
+    patternReason = finalSlope.reason ?? earlierSlope.reason ?? "O2 pulse slopes not determinable";
+  } else {
     const band = flatFraction * Math.max(0, earlierSlope.value);
     if (finalSlope.value < -band) pattern = "falling";
     else if (finalSlope.value <= band) pattern = "flat";
@@ -97,5 +123,5 @@ export function o2Pulse(test: ConditionedTest, options: O2PulseOptions = {}): O2
     issues.push(
       makeIssue("info", "no-o2-pulse", "No bins with both VO2 and HR in exercise: O2 pulse trajectory not determinable."),
     );
-  return { trajectory, finalSlope, earlierSlope, pattern, issues };
+  return { trajectory, finalSlope, earlierSlope, pattern, patternReason, issues };
 }
