@@ -105,7 +105,10 @@ export interface VeVco2Options {
 export interface VeVco2Result {
   /** OLS of VE (L/min) on VCO2 (L/min), start of exercise to VT2 (Ward 2021, secondary). */
   slopeToVt2: LineIndex;
-  /** OLS of VE on VCO2 over the whole exercise phase (FRIEND reference method, confirmed). */
+  /**
+   * OLS of VE on VCO2 over the whole exercise phase (FRIEND reference method, confirmed); not determinable over a short
+   * exercise phase or far below the lowest VE/VCO2 (`wholeSlopeGuard`).
+   */
   slopeWholeExercise: LineIndex;
   /** Lowest rolling-window VE/VCO2 (ratio of window means) in exercise (Sun et al. 2002, confirmed). */
   nadir: Measured;
@@ -258,7 +261,10 @@ export function slopeToVt2Name(line: LineIndex): string {
  *
  * Degenerate cases: fewer than 10 breaths in a range → not determinable; a "to VT2" line (below VT2, below a fitted
  * break, or over the whole exercise) that does not rise or has r² < 0.5 (`minToVt2R2`) → not determinable with the
- * reason and a warning. The "to VT2" slope carries a calibrated band (`slopeBand`, README-thresholds.md round 17).
+ * reason and a warning. The whole-exercise slope over an exercise phase shorter than `MIN_WHOLE_SLOPE_EXERCISE_S`, or
+ * below `MIN_WHOLE_SLOPE_TO_NADIR` × the lowest VE/VCO2 → not determinable with the reason and a warning
+ * (ve-vco2-slope-whole-short-exercise, ve-vco2-slope-whole-below-nadir). The "to VT2" slope carries a calibrated band
+ * (`slopeBand`, README-thresholds.md round 17).
  */
 export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}): VeVco2Result {
   const issues: Issue[] = [];
@@ -279,7 +285,7 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
     },
   );
   const wholeFit = lineIndexFromFit(sums, 0, x.length, units, wholeProv, minPoints);
-  const slopeWholeExercise = test.shape === "breath" ? withIndexBand(wholeFit, x, pairs.y, 0, x.length, "veVco2Whole") : wholeFit;
+  const wholeBanded = test.shape === "breath" ? withIndexBand(wholeFit, x, pairs.y, 0, x.length, "veVco2Whole") : wholeFit;
 
   const vt2 = options.vt2;
   const toProv = provenanceOf(
@@ -460,7 +466,80 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
   // factor calibrated on invented tests (README-thresholds.md, round 17)
   if (slopeToVt2.slope.value !== null)
     slopeToVt2 = { ...slopeToVt2, band: slopeBand(slopeToVt2.slope.value, slopeToVt2.r2.value, fittedPoints(slopeToVt2)) };
-  return { slopeToVt2, slopeWholeExercise, nadir, atVt1, issues };
+  const whole = wholeSlopeGuard(wholeBanded, span, nadir);
+  if (whole.issue) issues.push(whole.issue);
+  return { slopeToVt2, slopeWholeExercise: whole.line, nadir, atVt1, issues };
+}
+
+/**
+ * Shortest exercise phase over which the whole-exercise VE/VCO2 slope is reported, s. Over the first minutes of a ramp
+ * VCO2 spans a narrow range, so breath noise in it flattens the least-squares slope (regression dilution) and the
+ * on-kinetics of VE and VCO2 tilt the line. 180 s is our choice, measured on invented tests (six synthetic models × 120
+ * tests at low, moderate and high noise, the breath table cut 60–480 s into the ramp, the truth kept as the complete
+ * test's noise-free slope to peak): cut at 60 / 90 / 120 / 150 / 180 s the slope read a median
+ * −49 / −37 / −28 / −23 / −21 % from it (10th percentile −87 to −55 %), within ±10 % in only 10–18 % of tests; against
+ * the slope below the RCP, which a test stopped early can at most show, still −43 to −12 %. It matches the shortest
+ * exercise phase over which a VO2 plateau is assessed (`MIN_PLATEAU_EXERCISE_S`, effortCriteria.ts). No complete test
+ * of the six models is shorter than 262 s; an exercise test has an incremental phase of 8–12 min (ERS statement,
+ * Radtke et al. 2019, Eur Respir Rev — confirmed).
+ */
+export const MIN_WHOLE_SLOPE_EXERCISE_S = 180;
+
+/**
+ * Smallest whole-exercise slope still reported, as a fraction of the lowest VE/VCO2 ratio (nadir). Along a line
+ * VE = a + b·VCO2 the ratio is b + a/VCO2, so a slope far below every ratio in the test needs a large positive intercept:
+ * the line of a narrow VCO2 range flattened by breath noise, not the test's VE–VCO2 relation (logical check, common
+ * practice). 0.6 is our choice, measured on the same invented tests: on the 720 complete tests the slope fell below
+ * 0.6 × nadir in 3 (one model at moderate and high noise, slopes 26–38 % below the truth), none within ±10 % of the
+ * truth, and next lowest 0.83 × nadir elsewhere (0.7 would withhold 5); on the six demo cases and their exported
+ * variants the lowest was 0.87 (ventilatory limitation). It caught 24 % of all cut tests, among them the
+ * heart-failure demo stopped 233 s into the ramp (slope 17.0, nadir 40.6: 0.42; complete test 39.8).
+ */
+export const MIN_WHOLE_SLOPE_TO_NADIR = 0.6;
+
+/**
+ * The whole-exercise slope, or the same line made not determinable with the reason and a warning when the exercise phase
+ * is shorter than `MIN_WHOLE_SLOPE_EXERCISE_S` or the slope lies below `MIN_WHOLE_SLOPE_TO_NADIR` × the lowest VE/VCO2.
+ */
+function wholeSlopeGuard(
+  line: LineIndex,
+  span: { startS: number; endS: number } | null,
+  nadir: Measured,
+): { line: LineIndex; issue: Issue | null } {
+  const slope = line.slope.value;
+  if (slope === null || !span) return { line, issue: null };
+  const exerciseS = span.endS - span.startS;
+  const lowest = nadir.value;
+  const intercept = line.intercept.value;
+  let code: string;
+  let reason: string;
+  if (exerciseS < MIN_WHOLE_SLOPE_EXERCISE_S) {
+    code = "ve-vco2-slope-whole-short-exercise";
+    reason =
+      `the exercise phase lasted only ${Math.round(exerciseS)} s (< ${MIN_WHOLE_SLOPE_EXERCISE_S} s; fitted slope ${slope.toFixed(1)}): ` +
+      `over so short a stretch VCO2 spans too narrow a range, and VE and VCO2 still lag the work rate, so the line reads far too low`;
+  } else if (lowest !== null && slope < MIN_WHOLE_SLOPE_TO_NADIR * lowest) {
+    code = "ve-vco2-slope-whole-below-nadir";
+    reason =
+      `the fitted line (slope ${slope.toFixed(1)}${intercept === null ? "" : `, intercept ${intercept.toFixed(1)} L/min`}) lies far below ` +
+      `the lowest VE/VCO2 of the test (${lowest.toFixed(1)}; slope < ${MIN_WHOLE_SLOPE_TO_NADIR} × lowest): a line over too narrow ` +
+      `a VCO2 range, flattened by breath noise, not the test's VE–VCO2 relation; check the exercise phase`;
+  } else return { line, issue: null };
+  const inputs = { ...line.slope.provenance.inputs, exerciseS, nadir: lowest, fittedSlope: slope, fittedIntercept: intercept };
+  const prov: Provenance = {
+    ...line.slope.provenance,
+    sourceIds: [...line.slope.provenance.sourceIds, "implementation-choice"],
+    inputs,
+  };
+  return {
+    line: {
+      slope: notDetermined("1", prov, reason),
+      intercept: notDetermined("L/min", prov, reason),
+      r2: notDetermined("1", prov, reason),
+      n: line.n,
+    },
+    issue: makeIssue("warning", code, `VE/VCO2 slope (whole exercise) not determinable: ${reason}.`),
+  };
 }
 
 /** Where the fitted break may lie when no VT2 is given: this share of the exercise phase (our choice: 0.35–0.95, 0.25–0.95
