@@ -61,6 +61,8 @@ export interface CliAnalysisJson {
   /** Calibrated band of ΔVO2/ΔWR, or null. */
   dVo2dWrBand: { low: number; high: number } | null;
   o2PulsePattern: string | null;
+  /** Why the O2 pulse pattern is null (e.g. HR missing in exercise), or null. */
+  o2PulsePatternReason?: string | null;
   breathingReserve: {
     pct: number | null;
     lMin: number | null;
@@ -242,6 +244,7 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
     dVo2dWr: nd("ΔVO2/ΔWR", ix.dVo2dWr.whole.slope),
     dVo2dWrBand: ix.dVo2dWr.whole.band ?? null,
     o2PulsePattern: ix.o2Pulse.pattern,
+    o2PulsePatternReason: ix.o2Pulse.pattern === null ? (ix.o2Pulse.patternReason ?? null) : null,
     breathingReserve: {
       pct: nd("Breathing reserve", ix.breathingReserve.reservePercent),
       lMin: val(ix.breathingReserve.reserveLMin),
