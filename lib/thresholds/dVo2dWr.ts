@@ -1,7 +1,7 @@
 import { makeIssue, measured, notDetermined, type Issue, type Measured } from "../core";
 import { PrefixSums } from "../numeric/linearRegression";
 import type { ConditionedTest } from "../signal";
-import { exerciseSpan, pairedSeries, provenanceOf } from "./indexSeries";
+import { breathLevelBands, exerciseSpan, pairedSeries, provenanceOf } from "./indexSeries";
 import type { ThresholdPoint } from "./valuesAtThreshold";
 import { lineIndexFromFit, withIndexBand, type LineIndex } from "./veVco2Slope";
 
@@ -80,8 +80,8 @@ export function dVo2dWr(test: ConditionedTest, options: DVo2dWrOptions = {}): DV
     ),
     minPoints,
   );
-  // breath-by-breath recordings: the calibrated band (README-thresholds.md round 18); stage tables: none
-  const whole = stage ? wholeFit : withIndexBand(wholeFit, pairs.x, pairs.y, 0, pairs.x.length, "dVo2dWr");
+  // single breaths: the calibrated band (README-thresholds.md round 18); stage tables and time-averaged rows: none
+  const whole = breathLevelBands(test) ? withIndexBand(wholeFit, pairs.x, pairs.y, 0, pairs.x.length, "dVo2dWr") : wholeFit;
   let splitS: number | null = null;
   let splitBy: DVo2dWrResult["splitBy"] = null;
   if (fitSpan && pairs.t.length > 0) {

@@ -1,6 +1,6 @@
 import type { BreathRow, NumericField } from "../breath";
 import type { Provenance } from "../core";
-import type { ConditionedTest } from "../signal";
+import { areTimeAveragedRows, type ConditionedTest } from "../signal";
 
 /** A time span in seconds from the start of the record (inclusive at both ends). */
 export interface TimeSpan {
@@ -153,4 +153,17 @@ export function provenanceOf(
   if (extra.inputs) p.inputs = extra.inputs;
   if (extra.averaging) p.averaging = extra.averaging;
   return p;
+}
+
+/**
+ * The calibrated bands of the slope indices (and their breath-noise correction) apply: single breaths, not stage values
+ * nor rows the cart exported as time averages. The bands and the correction were calibrated on breaths
+ * (README-thresholds.md round 18); on 10-s averages of an oscillating test the correction took the oscillation for
+ * breath noise and moved OUES by +30 % (round 20).
+ */
+export function breathLevelBands(test: ConditionedTest): boolean {
+  if (test.shape !== "breath") return false;
+  const span = exerciseSpan(test);
+  const t = test.clean.filter((r) => !span || (r.timeS >= span.startS && r.timeS <= span.endS)).map((r) => r.timeS);
+  return !areTimeAveragedRows(t);
 }

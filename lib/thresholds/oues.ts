@@ -1,7 +1,7 @@
 import { makeIssue, type Issue } from "../core";
 import { PrefixSums } from "../numeric/linearRegression";
 import type { ConditionedTest } from "../signal";
-import { exerciseSpan, pairedSeries, provenanceOf } from "./indexSeries";
+import { breathLevelBands, exerciseSpan, pairedSeries, provenanceOf } from "./indexSeries";
 import { lineIndexFromFit, withIndexBand, type LineIndex } from "./veVco2Slope";
 
 export interface OuesOptions {
@@ -44,6 +44,7 @@ export function oues(test: ConditionedTest, options: OuesOptions = {}): OuesResu
   }
   const sums = new PrefixSums(x, y);
   const minPoints = test.shape === "stage" ? 3 : 10;
+  const bands = breathLevelBands(test);
   const fits = fractions.map((fraction): OuesFit => {
     const endS = span ? span.startS + fraction * (span.endS - span.startS) : 0;
     let k = 0;
@@ -59,7 +60,7 @@ export function oues(test: ConditionedTest, options: OuesOptions = {}): OuesResu
       },
     );
     const line = lineIndexFromFit(sums, 0, k, { slope: "mL/min per log10(L/min)", intercept: "mL/min" }, prov, minPoints);
-    return { fraction, ...(test.shape === "breath" ? withIndexBand(line, x, y, 0, k, "oues") : line) };
+    return { fraction, ...(bands ? withIndexBand(line, x, y, 0, k, "oues") : line) };
   });
   if (x.length === 0)
     issues.push(makeIssue("info", "no-ve-vo2", "No breaths with both VE and VO2 in exercise: OUES not determinable."));

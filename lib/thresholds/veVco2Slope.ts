@@ -3,7 +3,15 @@ import { binByTime } from "../numeric/binByTime";
 import { centredMovingMean } from "../numeric/centredMovingMean";
 import { dilutionCorrectedSlope, PrefixSums, residualLag1 } from "../numeric/linearRegression";
 import type { ConditionedTest } from "../signal";
-import { exerciseSpan, fieldSeries, pairedSeries, provenanceOf, rollingExtreme, WindowMeans } from "./indexSeries";
+import {
+  breathLevelBands,
+  exerciseSpan,
+  fieldSeries,
+  pairedSeries,
+  provenanceOf,
+  rollingExtreme,
+  WindowMeans,
+} from "./indexSeries";
 import {
   autocorrelatedSlopeScale,
   INDEX_BAND_FACTORS,
@@ -285,7 +293,7 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
     },
   );
   const wholeFit = lineIndexFromFit(sums, 0, x.length, units, wholeProv, minPoints);
-  const wholeBanded = test.shape === "breath" ? withIndexBand(wholeFit, x, pairs.y, 0, x.length, "veVco2Whole") : wholeFit;
+  const wholeBanded = breathLevelBands(test) ? withIndexBand(wholeFit, x, pairs.y, 0, x.length, "veVco2Whole") : wholeFit;
 
   const vt2 = options.vt2;
   const toProv = provenanceOf(

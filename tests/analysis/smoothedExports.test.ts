@@ -62,6 +62,32 @@ describe("smoothed or averaged exports: confidence at most moderate", () => {
   });
 });
 
+describe("time-averaged rows: what was calibrated on breaths is not claimed", () => {
+  it("the slope indices keep their values but carry no band and no breath-noise correction; the breaths do", () => {
+    const lines = (r: AnalysisResult) => [
+      r.indices.veVco2.slopeWholeExercise,
+      r.indices.dVo2dWr.whole,
+      ...r.indices.oues.fits.filter((f) => f.fraction === 1),
+    ];
+    for (const l of lines(results.get("normal")!)) expect(l.band).toBeTruthy();
+    const averaged = results.get("normal 10-s")!;
+    for (const l of lines(averaged)) {
+      expect(l.slope.value).not.toBeNull();
+      expect(l.band ?? null).toBeNull();
+      expect(l.slope.provenance.inputs?.dilutionCorrected).toBeUndefined();
+    }
+    expect(averaged.conditioned.averaging.label).toBe("rows as exported: about 10-s time averages (no further averaging)");
+  });
+
+  it("HR recovery from 10-s rows says it is approximate, and stays near the breaths' value", () => {
+    const breaths = results.get("normal")!.indices.heartRate.recovery1MinBpm.value!;
+    const averaged = results.get("normal 10-s")!;
+    expect(averaged.issues.map((i) => i.code)).toContain("hr-recovery-from-averaged-rows");
+    // the margin is one row's HR fall at the reading (about ±4.5 bpm here): the two agree within it
+    expect(Math.abs(averaged.indices.heartRate.recovery1MinBpm.value! - breaths)).toBeLessThan(5);
+  });
+});
+
 describe("thresholds in order", () => {
   it("VT2's band does not reach below VT1, nor VT1's above VT2 (pre-operative demo)", () => {
     const { vt1, vt2 } = results.get("pre-operative")!.thresholds;
