@@ -68,6 +68,10 @@ export function toInterpretInput(
   const hrr = indices.heartRate;
   if (hrr.recovery1MinBpm.value !== null && hrr.recovery1MinAbnormal === null)
     reasons.hrr1Bpm = "read from time-averaged rows, whose margin holds the 12-bpm cut-off (see the issues)";
+  // predicted-HRmax equations do not describe a beta-blocked heart (common practice): HR % predicted and HR reserve are
+  // not read against them; the chronotropic index has its own beta-blocker cut-off (rules.json)
+  const betaBlocked = patient.betaBlocker === true;
+  if (betaBlocked) for (const k of ["hrPctPred", "hrReserveBpm"] as const) reasons[k] = "the patient takes a beta-blocker";
   const plateauWhy = vo2PlateauNotAssessedReason(indices.vo2FinalIncrease);
   if (plateauWhy) reasons.vo2Plateau = plateauWhy;
   // the calibrated bands, as the values at each end (everything computed from VT1 moves with it)
@@ -150,8 +154,8 @@ export function toInterpretInput(
       peakRer: v(p.rerMax),
       peakHrBpm: v(p.hrBpm),
       restHrBpm: v(indices.heartRate.restingBpm),
-      hrPctPred: v(indices.heartRate.percentPredicted),
-      hrReserveBpm: v(indices.heartRate.reserveBpm),
+      hrPctPred: betaBlocked ? null : v(indices.heartRate.percentPredicted),
+      hrReserveBpm: betaBlocked ? null : v(indices.heartRate.reserveBpm),
       chronotropicIndex: v(indices.heartRate.chronotropicIndex),
       // read from time-averaged rows with the 12-bpm cut-off inside its margin, the call is withheld (heartRateIndices)
       hrr1Bpm: indices.heartRate.recovery1MinAbnormal === null ? null : v(indices.heartRate.recovery1MinBpm),

@@ -59,8 +59,9 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
   const effort = assessEffort(
     {
       rerPeak: peaks.rerMax.value,
-      hrPercentPredicted: hr.percentPredicted.value,
-      hrReserveBpm: hr.reserveBpm.value,
+      // on a beta-blocker HR does not reach a predicted maximum: the HR criteria are not read (common practice)
+      hrPercentPredicted: ctx.patient.betaBlocker ? null : hr.percentPredicted.value,
+      hrReserveBpm: ctx.patient.betaBlocker ? null : hr.reserveBpm.value,
       veMvvPercent: br.veMvvPercent.value,
       vo2FinalIncreaseMlKgMin: plateau.increaseMlKgMin.value,
       vo2FinalIncreaseMlMin: plateau.increaseMlMin.value,
