@@ -26,7 +26,9 @@ import { draftExtras } from "./draftExtras";
  * what a report states (0.3.0: the threshold bands are calibrated, README-thresholds.md round 17; 0.4.0: the whole-exercise
  * VE/VCO2 slope, OUES and ΔVO2/ΔWR carry calibrated bands, round 18; 0.5.0: an EOV call on breaths whose noise carries
  * over is marked, in the schemes too, round 19, and no intensity domain is drawn from thresholds out of order; 0.6.0:
- * VE/VCO2 at VT1 is read over 60 s of breaths and at the ends of the VT1 band, which the schemes read too, round 20).
+ * VE/VCO2 at VT1 is read over 60 s of breaths and at the ends of the VT1 band, which the schemes read too; smoothed or
+ * averaged exports cap threshold confidence and drop the breath-calibrated bands; short tests show no plateau or
+ * whole-exercise slope; HR gaps, HR recovery from averaged rows and beta-blockers are read as such; round 20).
  */
 export const ENGINE_VERSION = "0.6.0";
 
