@@ -537,7 +537,9 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
         makeIssue(
           "warning",
           "thresholds-missing-signal",
-          `No ${f === "vco2MlMin" ? "VCO2" : "VE"} data in the exercise phase: gas-exchange thresholds need it.`,
+          f === "vco2MlMin"
+            ? "No VCO2 data in the exercise phase: the gas-exchange thresholds need it."
+            : "No VE data in the exercise phase: only the V-slope methods (VCO2 against VO2) can place VT1, and VT2 (read from ventilation) cannot be found.",
           { field: f },
         ),
       );

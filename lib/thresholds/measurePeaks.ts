@@ -1,6 +1,6 @@
 import type { NumericField } from "../breath";
 import { makeIssue, measured, notDetermined, type Issue, type Measured, type Provenance } from "../core";
-import type { ConditionedTest } from "../signal";
+import { medianRowIntervalS, type ConditionedTest } from "../signal";
 import { exerciseSpan, fieldSeries, provenanceOf, restSpan, rollingExtreme, WindowMeans, type TimeSpan } from "./indexSeries";
 import { readAtTime, type ThresholdPoint } from "./valuesAtThreshold";
 
@@ -204,16 +204,20 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
     : notDetermined("mmHg", vt1Prov, "VT1 not given");
 
   const durProv = (label: string) => provenanceOf("duration", label, ["common-practice"]);
+  // a stage row stands for a whole stage: the first stage's length is counted too (rows equally spaced; whether a stage
+  // is labelled at its start, centre or end, n stages span n × the spacing)
+  const stageS = test.shape === "stage" && rows.length > 1 ? medianRowIntervalS(rows.map((r) => r.timeS)) : 0;
+  const stageWords = stageS > 0 ? `, plus one stage (${Math.round(stageS)} s)` : "";
   const testDuration =
     rows.length > 1
-      ? measured(rows[rows.length - 1].timeS - rows[0].timeS, "s", {
-          ...durProv("test duration: first to last row"),
+      ? measured(rows[rows.length - 1].timeS - rows[0].timeS + stageS, "s", {
+          ...durProv(`test duration: first to last row${stageWords}`),
           window: { startS: rows[0].timeS, endS: rows[rows.length - 1].timeS },
         })
       : notDetermined("s", durProv("test duration"), "fewer than two rows");
   const exerciseDuration = test.exercise
-    ? measured(test.exercise.endS - test.exercise.startS, "s", {
-        ...durProv("incremental exercise phase: start to end"),
+    ? measured(test.exercise.endS - test.exercise.startS + stageS, "s", {
+        ...durProv(`incremental exercise phase: start to end${stageWords}`),
         window: test.exercise,
       })
     : notDetermined("s", durProv("exercise duration"), "the incremental exercise phase was not found");

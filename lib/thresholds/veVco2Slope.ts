@@ -474,7 +474,8 @@ export function veVco2Slope(test: ConditionedTest, options: VeVco2Options = {}):
   // factor calibrated on invented tests (README-thresholds.md, round 17)
   if (slopeToVt2.slope.value !== null)
     slopeToVt2 = { ...slopeToVt2, band: slopeBand(slopeToVt2.slope.value, slopeToVt2.r2.value, fittedPoints(slopeToVt2)) };
-  const whole = wholeSlopeGuard(wholeBanded, span, nadir);
+  // stage means are read at steady state: the on-kinetics behind the duration rule do not apply to them
+  const whole = wholeSlopeGuard(wholeBanded, span, nadir, test.shape === "breath");
   if (whole.issue) issues.push(whole.issue);
   return { slopeToVt2, slopeWholeExercise: whole.line, nadir, atVt1, issues };
 }
@@ -513,6 +514,7 @@ function wholeSlopeGuard(
   line: LineIndex,
   span: { startS: number; endS: number } | null,
   nadir: Measured,
+  checkDuration: boolean,
 ): { line: LineIndex; issue: Issue | null } {
   const slope = line.slope.value;
   if (slope === null || !span) return { line, issue: null };
@@ -521,7 +523,7 @@ function wholeSlopeGuard(
   const intercept = line.intercept.value;
   let code: string;
   let reason: string;
-  if (exerciseS < MIN_WHOLE_SLOPE_EXERCISE_S) {
+  if (checkDuration && exerciseS < MIN_WHOLE_SLOPE_EXERCISE_S) {
     code = "ve-vco2-slope-whole-short-exercise";
     reason =
       `the exercise phase lasted only ${Math.round(exerciseS)} s (< ${MIN_WHOLE_SLOPE_EXERCISE_S} s; fitted slope ${slope.toFixed(1)}): ` +

@@ -149,8 +149,8 @@ describe("cpet analyse: full output on real and invented files", { timeout: CLI_
     const file = path.resolve(__dirname, "../fixtures/open-data/sylta2016-cycling/cyclingstudy_stages_long.csv");
     const args = ["analyse", file, "--json", "--select", "subject=1", "--select", "timepoint=pre"];
     const json = JSON.parse(execFileSync(process.execPath, [bin, ...args, "--stage-duration-s", "300"], { encoding: "utf8" }));
-    // subject 1, pre: 5 stage rows (README: 5-min steady-state steps) → last row at 4 × 300 = 1200 s
-    expect(json.durationS).toBe(1200);
+    // subject 1, pre: 5 stage rows (README: 5-min steady-state steps) 300 s apart → 5 × 300 = 1500 s, the first stage too
+    expect(json.durationS).toBe(1500);
     expect(
       json.issues.some((i: { message: string }) => /5 rows were read as consecutive stages 300 s apart/.test(i.message)),
     ).toBe(true);

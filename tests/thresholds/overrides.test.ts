@@ -28,9 +28,12 @@ function withDoubts(): ThresholdResult {
         "vt2-not-determinable",
         "VT2 (respiratory compensation point) could not be determined: no method succeeded.",
       ),
-      makeIssue("warning", "thresholds-missing-signal", "No VE data in the exercise phase: gas-exchange thresholds need it.", {
-        field: "veLMin",
-      }),
+      makeIssue(
+        "warning",
+        "thresholds-missing-signal",
+        "No VE data in the exercise phase: only the V-slope methods (VCO2 against VO2) can place VT1, and VT2 (read from ventilation) cannot be found.",
+        { field: "veLMin" },
+      ),
     ],
   });
 }
