@@ -144,11 +144,20 @@ export function checkPhysiologicalLimits(rows: readonly BreathRow[], options: Ph
       makeIssue(
         "warning",
         "short-recording",
-        `The recording covers ${fmt(spanS / 60)} min (${rows.length} ${options.shape === "stage" ? "stage(s)" : "row(s)"}); an exercise test has an incremental phase of 8–12 min on its own (ERS statement, Radtke et al. 2019, confirmed). This file cannot hold a complete test: peak values and effort criteria read from it are not reliable.`,
+        `The recording covers ${fmt(spanS / 60)} min (${rows.length} ${options.shape === "stage" ? "stage(s)" : "row(s)"}); an exercise test has an incremental phase of 8–12 min on its own (ERS statement, Radtke et al. 2019, confirmed). This file cannot hold a complete test: peak values and effort criteria read from it are not reliable.${timeLooksLikeMinutes(rows.length, spanS, options.shape ?? "breath") ? ` ${rows.length} breaths in ${fmt(spanS)} s would be about ${Math.round((60 * rows.length) / spanS)} a minute: the time column is probably in minutes, not seconds; check its unit.` : ""}`,
       ),
     );
   }
   return issues;
+}
+
+/**
+ * Breath rows faster than 120 a minute on average over a short recording: no one breathes that fast for long (exercise
+ * breathing reaches about 40–60 breaths/min, common practice), so the time column is more likely in minutes read as
+ * seconds. 120 is our choice (twice the fastest exercise breathing).
+ */
+function timeLooksLikeMinutes(rowCount: number, spanS: number, shape: "breath" | "stage"): boolean {
+  return shape === "breath" && rowCount >= 20 && spanS > 0 && (60 * rowCount) / spanS > 120;
 }
 
 /**

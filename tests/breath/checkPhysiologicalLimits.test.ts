@@ -105,6 +105,20 @@ describe("checkPhysiologicalLimits (invented rows)", () => {
     expect(checkPhysiologicalLimits(stages(8)).map((i) => i.code)).toEqual(["short-recording"]);
   });
 
+  it("breaths far faster than anyone breathes: the time column is probably in minutes, and the message says so", () => {
+    // 400 breaths 3 s apart (20 a minute) written in minutes: 0.05 min apart, 19.95 "s" in all → about 1203 a minute;
+    // exercise breathing reaches about 40–60 breaths/min (common practice)
+    const asMinutes: BreathRow[] = Array.from({ length: 400 }, (_, i) => ({ timeS: i * 0.05, vo2MlMin: 1000 + i }));
+    const m = checkPhysiologicalLimits(asMinutes);
+    expect(m.map((i) => i.code)).toEqual(["short-recording"]);
+    expect(m[0].message).toContain("400 breaths in 20 s would be about 1203 a minute: the time column is probably in minutes");
+    // the same 400 breaths in seconds: no short recording and no such hint
+    expect(checkPhysiologicalLimits(asMinutes.map((r) => ({ ...r, timeS: r.timeS * 60 })))).toEqual([]);
+    // a short test breathed at 30 a minute is short, not mislabelled
+    const slow = checkPhysiologicalLimits(Array.from({ length: 100 }, (_, i) => ({ timeS: i * 2, vo2MlMin: 1000 })));
+    expect(slow[0].message).not.toContain("minutes, not seconds");
+  });
+
   it("no rows: nothing to say", () => {
     expect(checkPhysiologicalLimits([])).toEqual([]);
   });
