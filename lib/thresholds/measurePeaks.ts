@@ -143,10 +143,21 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
     return measured(s.v[k], unit, { ...prov, window: { startS: s.t[k], endS: s.t[k] } });
   };
 
-  const vo2 = peakOf("vo2MlMin", "mL/min", "VO2");
   const w = options.weightKg;
   // VO2 given per kg in the file and no body mass yet: the peak per kg straight from that column
-  const perKgOnly = vo2.m.value === null && !(w && w > 0) && rows.some((r) => r.vo2MlKgMin !== undefined);
+  const perKgOnly = !rows.some((r) => r.vo2MlMin !== undefined) && !(w && w > 0) && rows.some((r) => r.vo2MlKgMin !== undefined);
+  const vo2Found = peakOf("vo2MlMin", "mL/min", "VO2");
+  // say what is missing: the body mass, not the VO2
+  const vo2 = perKgOnly
+    ? {
+        ...vo2Found,
+        m: notDetermined(
+          "mL/min",
+          vo2Found.m.provenance,
+          "VO2 is given per kg only and the body mass is not known; enter the weight",
+        ),
+      }
+    : vo2Found;
   const vo2Kg = perKgOnly
     ? peakOf("vo2MlKgMin", "mL/kg/min", "VO2 per kg (as given in the file)").m
     : vo2.m.value !== null && w && w > 0

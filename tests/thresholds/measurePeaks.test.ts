@@ -85,4 +85,14 @@ describe("measurePeaks on an invented ramp", () => {
     expect(empty.vo2MlMin.value).toBeNull();
     expect(empty.testDurationS.value).toBeNull();
   });
+
+  it("VO2 given per kg only, no body mass: the peak per kg from that column, and peak VO2 in mL/min says the weight is missing", () => {
+    const base = standardRamp();
+    const rows = base.clean.map(({ vo2MlMin, ...r }) => ({ ...r, vo2MlKgMin: vo2MlMin! / 70 }));
+    const perKg = measurePeaks({ ...base, clean: rows, averaged: rows }, { windowS: 30 });
+    // the same last 30-s window as above: 2170 / 70 = 31.0 mL/kg/min
+    expect(perKg.vo2MlKgMin.value).toBeCloseTo(2170 / 70, 6);
+    expect(perKg.vo2MlMin.value).toBeNull();
+    expect(perKg.vo2MlMin.reason).toMatch(/given per kg only and the body mass is not known; enter the weight/);
+  });
 });
