@@ -81,7 +81,7 @@ export function hrGapIssues(test: ConditionedTest, gaps: readonly ChannelGap[] =
       "hr-missing-in-exercise",
       `${describeChannelGap(g)}: ${g.rowsWithout} ${rowWord} carry gas exchange but no HR. The O2 pulse trajectory is not assessed across it` +
         (g.reachesExerciseEnd
-          ? "; HR at the end of exercise is unknown, so peak HR (and HR reserve, % predicted HR and the chronotropic index built on it) may be understated and HR recovery is not determined."
+          ? "; HR at the end of exercise is unknown, so peak HR (and HR reserve, % predicted HR and the chronotropic index built on it) and HR recovery are not determined."
           : ", and O2 pulse is not read where HR is missing.") +
         " Check the HR recording (chest strap, ECG lead).",
       { field: "hrBpm", timeS: Math.round(g.startS) },

@@ -2,6 +2,7 @@ import type { NumericField } from "../breath";
 import { makeIssue, measured, notDetermined, type Issue, type Measured, type Provenance } from "../core";
 import { medianRowIntervalS, type ConditionedTest } from "../signal";
 import { exerciseSpan, fieldSeries, provenanceOf, restSpan, rollingExtreme, WindowMeans, type TimeSpan } from "./indexSeries";
+import { channelGaps, describeChannelGap } from "./channelGaps";
 import { readAtTime, type ThresholdPoint } from "./valuesAtThreshold";
 
 /** Plain names of the fields read as ratios over the peak VO2 window, for the "not determinable" reasons. */
@@ -168,6 +169,13 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
           vo2.m.value === null ? (vo2.m.reason ?? "peak VO2 not determinable") : "body mass not given",
         );
 
+  // HR missing up to the end of exercise: the highest HR may lie in the gap, so no peak HR is claimed (channelGaps.ts)
+  const peakHr = (): Measured => {
+    const endGap = channelGaps(test, "hrBpm").find((g) => g.reachesExerciseEnd);
+    return endGap
+      ? notDetermined("1/min", peakProv("HR"), `${describeChannelGap(endGap)}: the highest HR may lie in the gap`)
+      : peakOf("hrBpm", "1/min", "HR").m;
+  };
   const rerMaxProv = peakProv("RER");
   const rerBest = span
     ? rollingExtreme(
@@ -249,7 +257,7 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
       ["peak-rolling-average"],
     ),
     rerMax,
-    hrBpm: peakOf("hrBpm", "1/min", "HR").m,
+    hrBpm: peakHr(),
     workW: maxOf("workW", "W", "work rate"),
     speedKmh: maxOf("speedKmh", "km/h", "speed"),
     gradePct: maxOf("gradePct", "%", "grade"),
