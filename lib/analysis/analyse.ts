@@ -65,7 +65,7 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
   const peakVo2 = indices.peaks.vo2MlMin.value;
   const weightBasis = peakVo2 !== null ? assessWeightBasis(peakVo2, record.patient, record.ergometer, { labSettings }) : null;
   const peakRr = peakOverWindow(test.clean, "rrBrMin", { unit: "1/min", windowS: settings.peakWindowS ?? 30 });
-  const interpretInput = toInterpretInput(record, thresholds, indices, predicted, comparisons, peakRr.value);
+  const interpretInput = toInterpretInput(record, thresholds, indices, predicted, comparisons, peakRr.value, weightBasis);
   const interpretation = interpret(interpretInput, settings.interpret ?? {});
   const draft = composeDraft(interpretInput, interpretation, draftExtras(record, thresholds, indices));
   const issues: Issue[] = [

@@ -8,7 +8,7 @@ import {
   type LineIndex,
   type ThresholdResult,
 } from "../thresholds";
-import type { PredictedSet } from "../predicted";
+import { OBESITY_BMI_KG_M2, type PredictedSet, type WeightBasisAssessment } from "../predicted";
 import type { InterpretInput, InterpretValues, UncertainValue } from "../interpret";
 import type { PredictedComparisonRow, TestRecord } from "./types";
 
@@ -25,6 +25,7 @@ export function toInterpretInput(
   predicted: PredictedSet,
   comparisons: PredictedComparisonRow[],
   peakRrBrMin: number | null,
+  weightBasis: WeightBasisAssessment | null = null,
 ): InterpretInput {
   const pct = (key: string) => comparisons.find((c) => c.key === key)?.percentPredicted ?? null;
   const p = indices.peaks;
@@ -120,6 +121,23 @@ export function toInterpretInput(
       low: { eovPresent: false },
       high: { eovPresent: true },
     });
+  // obesity: per-kg values on actual weight understate capacity (lean or predicted-weight normalisation, Osman et al.
+  // 2000, J Am Coll Cardiol — recalled); the reading on predicted body mass goes beside every per-kg category
+  const ideal = weightBasis?.ideal;
+  const bmiKgM2 = weightBasis?.bmiKgM2 ?? null;
+  if (ideal && bmiKgM2 !== null && bmiKgM2 >= OBESITY_BMI_KG_M2 && patient.weightKg && v(p.vo2MlMin) !== null) {
+    const basis = `on predicted body mass (${ideal.weightKg.toFixed(0)} kg; BMI ${bmiKgM2.toFixed(1)})`;
+    const peakOnIdeal = { peakVo2MlKgMin: ideal.measuredMlKgMin };
+    uncertainty.push({
+      words: `peak VO2 ${ideal.measuredMlKgMin.toFixed(1)} mL/kg/min ${basis}`,
+      low: peakOnIdeal,
+      high: peakOnIdeal,
+    });
+    if (vt1Vo2 !== null) {
+      const atOnIdeal = { vt1Vo2MlKgMin: vt1Vo2 / ideal.weightKg };
+      uncertainty.push({ words: `AT ${atOnIdeal.vt1Vo2MlKgMin.toFixed(1)} mL/kg/min ${basis}`, low: atOnIdeal, high: atOnIdeal });
+    }
+  }
   for (const [key, name, line, d] of slopes)
     if (line?.band && v(line.slope) !== null)
       uncertainty.push({

@@ -24,6 +24,38 @@ describe("analyse: weight basis for an obese patient", () => {
   });
 });
 
+describe("analyse: a per-kg class in obesity says where predicted body mass puts it", () => {
+  // Weber classes (Janicki, Weber & McElroy 1988, Eur Heart J — confirmed: C 10–16, D < 10 mL/kg/min peak VO2); per-kg values on
+  // actual weight understate capacity in obesity (Osman et al. 2000, J Am Coll Cardiol — recalled). INVENTED heart-failure
+  // demo file; the patient details are invented: 174 cm, 160 kg (BMI 52.8) and 80 kg (BMI 26.4).
+  const run = async (weightKg: number) => {
+    const bytes = new Uint8Array(fs.readFileSync(path.resolve(__dirname, "../fixtures/cases/heart-failure.csv")));
+    const patient = { sex: "male" as const, ageY: 62, heightCm: 174, weightKg };
+    const built = await buildRecord({ bytes, fileName: "hf.csv", patient, ergometer: "cycle", referral: "heart-failure" });
+    return analyse(built.record!, { bootstrap: 0 });
+  };
+
+  it("160 kg: the peak-VO2 axis keeps the class of actual weight and names the class on predicted weight", async () => {
+    const r = await run(160);
+    const ideal = r.weightBasis!.ideal!;
+    // predicted weight for men 0.79·H − 60.7 (Hansen/Wasserman, secondary): 0.79·174 − 60.7 = 76.76 kg
+    expect(ideal.weightKg).toBeCloseTo(76.76, 6);
+    const axis = r.interpretation.schemes
+      .find((s) => s.schemeId === "weber")!
+      .axes.find((a) => a.bandReaches?.includes("peak VO2") && a.bandReaches.includes("predicted body mass"))!;
+    expect(axis.category?.label).toMatch(/^Class D/);
+    expect(axis.bandReaches).toBe(
+      `the peak VO2 ${ideal.measuredMlKgMin.toFixed(1)} mL/kg/min on predicted body mass (77 kg; BMI 52.8) reaches Class C (peak VO2 10.0-15.99 mL/kg/min)`,
+    );
+  });
+
+  it("80 kg (not obese): no such reading", async () => {
+    const r = await run(80);
+    const all = r.interpretation.schemes.flatMap((s) => s.axes).map((a) => a.bandReaches ?? "");
+    expect(all.some((t) => t.includes("predicted body mass"))).toBe(false);
+  });
+});
+
 describe("buildRecord: body mass from the file", () => {
   const file = path.resolve(__dirname, "../fixtures/layouts/aligned_units_row_per_kg.txt");
   const bytes = () => new Uint8Array(fs.readFileSync(file));
