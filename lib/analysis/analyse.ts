@@ -28,7 +28,8 @@ import { draftExtras } from "./draftExtras";
  * over is marked, in the schemes too, round 19, and no intensity domain is drawn from thresholds out of order; 0.6.0:
  * VE/VCO2 at VT1 is read over 60 s of breaths and at the ends of the VT1 band, which the schemes read too; smoothed or
  * averaged exports cap threshold confidence and drop the breath-calibrated bands; short tests show no plateau or
- * whole-exercise slope; HR gaps, HR recovery from averaged rows and beta-blockers are read as such; round 20).
+ * whole-exercise slope or OUES; HR gaps, HR recovery from averaged rows and beta-blockers are read as such; an effort
+ * verdict near its cut-off and a per-kg class in obesity say so; round 20).
  */
 export const ENGINE_VERSION = "0.6.0";
 

@@ -121,6 +121,18 @@ export function toInterpretInput(
       low: { eovPresent: false },
       high: { eovPresent: true },
     });
+  // peak RER ± 2 standard errors of its window's breaths (measurePeaks): the effort verdict says when either end would
+  // change it (a verdict resting on the fourth decimal of peak RER)
+  const rer = v(p.rerMax);
+  const rerSe = p.rerMax.provenance.inputs?.rerSe;
+  if (rer !== null && typeof rerSe === "number" && rerSe > 0) {
+    const [lo, hi] = [rer - 2 * rerSe, rer + 2 * rerSe];
+    uncertainty.push({
+      words: `peak RER ${lo.toFixed(2)}–${hi.toFixed(2)} (±2 standard errors over its window)`,
+      low: { peakRer: lo },
+      high: { peakRer: hi },
+    });
+  }
   // obesity: per-kg values on actual weight understate capacity (lean or predicted-weight normalisation, Osman et al.
   // 2000, J Am Coll Cardiol — recalled); the reading on predicted body mass goes beside every per-kg category
   const ideal = weightBasis?.ideal;

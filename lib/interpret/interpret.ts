@@ -76,6 +76,15 @@ export function interpret(
 
   const effort = assessEffort(ctx);
   ctx.vars = { ...ctx.vars, effortVerdict: effort.verdict };
+  if (effort.borderline)
+    issues.push(
+      makeIssue(
+        "warning",
+        "effort-verdict-borderline",
+        `The effort verdict (${effort.label}) rests on a value near its cut-off: ${effort.borderline}. Read the verdict, and the conclusions it allows, with that in mind.`,
+        { field: "effort" },
+      ),
+    );
   if (!effort.peakConclusionsAllowed) {
     issues.push(
       makeIssue(

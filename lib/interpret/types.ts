@@ -223,6 +223,8 @@ export interface EffortResult {
   criteria: RuleResult[];
   /** The criteria with the patient's values as one readable line; the verdict is in `label` (not repeated here). */
   text: string;
+  /** Where an end of a measurement's band gives another verdict, in words ("the peak RER 1.02–1.08 (…) reaches …"). */
+  borderline?: string;
 }
 
 export interface PathStep {

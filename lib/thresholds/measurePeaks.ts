@@ -1,4 +1,4 @@
-import type { NumericField } from "../breath";
+import type { BreathRow, NumericField } from "../breath";
 import { makeIssue, measured, notDetermined, type Issue, type Measured, type Provenance } from "../core";
 import { medianRowIntervalS, type ConditionedTest } from "../signal";
 import { exerciseSpan, fieldSeries, provenanceOf, restSpan, rollingExtreme, WindowMeans, type TimeSpan } from "./indexSeries";
@@ -187,7 +187,11 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
       )
     : null;
   const rerMax = rerBest
-    ? measured(rerBest.value, "1", { ...rerMaxProv, window: { startS: rerBest.startS, endS: rerBest.endS } })
+    ? measured(rerBest.value, "1", {
+        ...rerMaxProv,
+        window: { startS: rerBest.startS, endS: rerBest.endS },
+        inputs: { ...rerMaxProv.inputs, ...rerSpread(rows, rerBest.startS, rerBest.endS) },
+      })
     : notDetermined("1", rerMaxProv, "no window with both VO2 and VCO2 in exercise");
 
   // resting and peak PETCO2
@@ -279,4 +283,20 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
     exerciseDurationS: exerciseDuration,
     issues,
   };
+}
+
+/**
+ * The breath-to-breath spread of RER inside the peak window: the breaths counted and the standard error of their mean RER
+ * (SD / √n; common practice, neighbouring breaths taken as independent, so it understates a smoothed export's; on
+ * time-averaged rows the rows' own spread). Null with fewer than 3 (a stage value).
+ */
+function rerSpread(rows: readonly BreathRow[], startS: number, endS: number): { rerBreaths: number; rerSe: number | null } {
+  const r: number[] = [];
+  for (const row of rows)
+    if (row.timeS >= startS && row.timeS <= endS && (row.vo2MlMin ?? 0) > 0 && typeof row.vco2MlMin === "number")
+      r.push(row.vco2MlMin / (row.vo2MlMin as number));
+  if (r.length < 3) return { rerBreaths: r.length, rerSe: null };
+  const mean = r.reduce((a, b) => a + b, 0) / r.length;
+  const sd = Math.sqrt(r.reduce((a, b) => a + (b - mean) ** 2, 0) / (r.length - 1));
+  return { rerBreaths: r.length, rerSe: sd / Math.sqrt(r.length) };
 }

@@ -83,3 +83,34 @@ describe("VE/VCO2 at VT1 moves with the VT1 band", () => {
     expect(s.axes.find((a) => a.axisId === "wilson-2010-vevco2")!.bandReaches).toBeUndefined();
   });
 });
+
+describe("an effort verdict resting on a value near its cut-off", () => {
+  // Peak RER > 1.05 (ERS statement, Radtke et al. 2019 — confirmed) is the default RER criterion; values invented.
+  const effortWith = (peakRer: number, band: [number, number]) =>
+    interpret({
+      ...baseInput({ peakRer }),
+      uncertainty: [
+        {
+          words: `peak RER ${band[0].toFixed(2)}–${band[1].toFixed(2)} (±2 standard errors over its window)`,
+          low: { peakRer: band[0] },
+          high: { peakRer: band[1] },
+        },
+      ],
+    });
+
+  it("1.055 with a band 1.035–1.075: the verdict stands, and says which other verdict the band reaches", () => {
+    const r = effortWith(1.055, [1.035, 1.075]);
+    const plain = interpret(baseInput({ peakRer: 1.055 })).effort;
+    expect(r.effort.verdict).toBe(plain.verdict);
+    expect(r.effort.borderline).toMatch(/^the peak RER 1\.03–1\.07 \(±2 standard errors over its window\) reaches /);
+    expect(r.effort.borderline).not.toContain(plain.label);
+    expect(r.effort.text).toContain("; borderline: the peak RER");
+    expect(r.issues.map((i) => i.code)).toContain("effort-verdict-borderline");
+  });
+
+  it("1.12 with a band 1.10–1.14: nothing borderline", () => {
+    const r = effortWith(1.12, [1.1, 1.14]);
+    expect(r.effort.borderline).toBeUndefined();
+    expect(r.issues.map((i) => i.code)).not.toContain("effort-verdict-borderline");
+  });
+});

@@ -1,7 +1,7 @@
 import { describe, it, expect } from "vitest";
 import { detectThresholds } from "../../lib/thresholds/detectThresholds";
 import { measurePeaks } from "../../lib/thresholds/measurePeaks";
-import { freezeTest, standardRamp } from "./indicesFixture";
+import { buildRows, freezeTest, makeTest, standardRamp, STEP_S } from "./indicesFixture";
 
 // Invented ramp (see indicesFixture.standardRamp); answers by hand below.
 describe("measurePeaks on an invented ramp", () => {
@@ -94,5 +94,28 @@ describe("measurePeaks on an invented ramp", () => {
     expect(perKg.vo2MlKgMin.value).toBeCloseTo(2170 / 70, 6);
     expect(perKg.vo2MlMin.value).toBeNull();
     expect(perKg.vo2MlMin.reason).toMatch(/given per kg only and the body mass is not known; enter the weight/);
+  });
+
+  it("peak RER carries the standard error of its window's breaths (by construction: breath RER alternating 1.0 / 1.1)", () => {
+    // VO2 1000 mL/min on every breath; VCO2 alternating 1000 / 1100 from breath to breath: in any window the breath RERs
+    // are k values of 1.1 and m of 1.0, whose SD and standard error follow from k and m alone
+    const rows = buildRows((t, phase) => ({
+      vo2MlMin: 1000,
+      vco2MlMin: phase === "exercise" && Math.round(t / STEP_S) % 2 === 0 ? 1100 : 1000,
+    }));
+    const p2 = measurePeaks(makeTest(rows), { windowS: 30 });
+    const win = p2.rerMax.provenance.window!;
+    const inWin = rows.filter((r) => r.timeS >= win.startS && r.timeS <= win.endS);
+    const k = inWin.filter((r) => r.vco2MlMin === 1100).length;
+    const m = inWin.length - k;
+    expect(k).toBeGreaterThan(0);
+    expect(m).toBeGreaterThan(0);
+    const mean = (1.1 * k + 1.0 * m) / (k + m);
+    const sd = Math.sqrt((k * (1.1 - mean) ** 2 + m * (1.0 - mean) ** 2) / (k + m - 1));
+    expect(p2.rerMax.provenance.inputs?.rerBreaths).toBe(k + m);
+    expect(p2.rerMax.provenance.inputs?.rerSe as number).toBeCloseTo(sd / Math.sqrt(k + m), 12);
+    // about 0.05 / √10: a 30-s window of 3-s breaths
+    expect(p2.rerMax.provenance.inputs?.rerSe as number).toBeGreaterThan(0.012);
+    expect(p2.rerMax.provenance.inputs?.rerSe as number).toBeLessThan(0.02);
   });
 });

@@ -172,6 +172,11 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
             </li>
           ))}
         </ul>
+        {effort.borderline ? (
+          <p className="how" data-testid="effort-borderline">
+            Near a cut-off: {effort.borderline}.
+          </p>
+        ) : null}
       </section>
 
       <h2 id="key-results">Key results against predicted</h2>
