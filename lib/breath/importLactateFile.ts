@@ -83,6 +83,14 @@ export async function importLactateFile(bytes: Uint8Array, options: LactateImpor
         { row: firstOut },
       ),
     );
+  if (laFactor !== 1 && samples.length > 0)
+    issues.push(
+      makeIssue(
+        "info",
+        "lactate-converted",
+        `Lactate was given in mg/dL and converted to mmol/L (÷ ${+(1 / laFactor).toFixed(3)}, from the molar mass of lactate) for every threshold read from it.`,
+      ),
+    );
   if (samples.length === 0) issues.push(makeIssue("error", "too-few-rows", "No usable lactate samples were found."));
   return { samples, issues };
 }

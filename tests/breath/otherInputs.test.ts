@@ -43,6 +43,13 @@ describe("importLactateFile", () => {
     ]);
     // 9.008 mg/dL ÷ 9.008 = 1 mmol/L, 18.016 ÷ 9.008 = 2; 999 mg/dL ÷ 9.008 = 110.9 mmol/L lies outside 0.1–30
     expect(r.issues.find((i) => i.code === "implausible-values")?.where?.row).toBe(4);
+    // the conversion is said, so the thresholds read from these samples can be traced to it
+    expect(r.issues.find((i) => i.code === "lactate-converted")?.message).toBe(
+      "Lactate was given in mg/dL and converted to mmol/L (÷ 9.008, from the molar mass of lactate) for every threshold read from it.",
+    );
+    expect((await importLactateFile(enc("Time;Lactate (mmol/L)\n3:00;1,2\n6:00;2,4\n"))).issues.map((i) => i.code)).not.toContain(
+      "lactate-converted",
+    );
   });
 
   it("no lactate column, or nothing to place the samples by", async () => {
