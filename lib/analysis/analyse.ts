@@ -96,7 +96,7 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
 
 function thresholdPoint(t: ThresholdEstimate): ThresholdPoint | null {
   return t.timeS !== null && t.vo2MlMin.value !== null
-    ? { timeS: t.timeS, vo2MlMin: t.vo2MlMin.value, bandTimes: t.overridden ? null : (t.bandTimes ?? null) }
+    ? { timeS: t.timeS, vo2MlMin: t.vo2MlMin.value, bandTimes: t.bandTimes ?? null }
     : null;
 }
 

@@ -1,6 +1,7 @@
 import { reasonWithoutLeadIn, type Measured } from "../core";
 import {
   EOV_CARRY_OVER_CODE,
+  HR_RECOVERY_1MIN_ABNORMAL_BPM,
   slopeToVt2Name,
   vo2PlateauNotAssessedReason,
   vo2PlateauPresent,
@@ -68,7 +69,7 @@ export function toInterpretInput(
   }
   const hrr = indices.heartRate;
   if (hrr.recovery1MinBpm.value !== null && hrr.recovery1MinAbnormal === null)
-    reasons.hrr1Bpm = "read from time-averaged rows, whose margin holds the 12-bpm cut-off (see the issues)";
+    reasons.hrr1Bpm = `read from time-averaged rows, whose margin holds the ${HR_RECOVERY_1MIN_ABNORMAL_BPM}-bpm cut-off (see the issues)`;
   // predicted-HRmax equations do not describe a beta-blocked heart (common practice): HR % predicted and HR reserve are
   // not read against them; the chronotropic index has its own beta-blocker cut-off (rules.json)
   const betaBlocked = patient.betaBlocker === true;
@@ -82,19 +83,19 @@ export function toInterpretInput(
   if (vt1Vo2 !== null && vt1Band && !thresholds.vt1.overridden) {
     // VE/VCO2 at VT1 as read where the VO2 trend reached each end of the band (valuesAtThreshold)
     const ends = indices.atVt1?.veVco2AtBandEnds ?? null;
-    const vt1At = (vo2: number, veVco2: Measured | null): Partial<InterpretValues> => ({
+    const lowVeVco2 = v(ends?.low);
+    const highVeVco2 = v(ends?.high);
+    const vt1At = (vo2: number, veVco2: number | null): Partial<InterpretValues> => ({
       vt1Vo2MlMin: vo2,
       vt1Vo2MlKgMin: patient.weightKg ? vo2 / patient.weightKg : null,
       vt1PctPredPeakVo2: predVo2 ? (100 * vo2) / predVo2 : null,
       vt1PctPeak: peakVo2 ? (100 * vo2) / peakVo2 : null,
-      ...(v(veVco2) !== null ? { veVco2AtVt1: v(veVco2) } : {}),
+      ...(veVco2 !== null ? { veVco2AtVt1: veVco2 } : {}),
     });
-    const lowVeVco2 = v(ends?.low);
-    const highVeVco2 = v(ends?.high);
     uncertainty.push({
       words: `VT1 band ${Math.round(vt1Band.lowMlMin)}–${Math.round(vt1Band.highMlMin)} mL/min`,
-      low: vt1At(vt1Band.lowMlMin, ends?.low ?? null),
-      high: vt1At(vt1Band.highMlMin, ends?.high ?? null),
+      low: vt1At(vt1Band.lowMlMin, lowVeVco2),
+      high: vt1At(vt1Band.highMlMin, highVeVco2),
       ...(lowVeVco2 !== null && highVeVco2 !== null
         ? {
             detail: {
@@ -121,8 +122,8 @@ export function toInterpretInput(
       low: { eovPresent: false },
       high: { eovPresent: true },
     });
-  // peak RER ± 2 standard errors of its window's breaths (measurePeaks): the effort verdict says when either end would
-  // change it (a verdict resting on the fourth decimal of peak RER)
+  // peak RER ± 2 standard errors of its window's breaths (measurePeaks; about a 95 % interval, common practice): the
+  // effort verdict says when either end would change it (a verdict resting on the fourth decimal of peak RER)
   const rer = v(p.rerMax);
   const rerSe = p.rerMax.provenance.inputs?.rerSe;
   if (rer !== null && typeof rerSe === "number" && rerSe > 0) {
@@ -137,7 +138,7 @@ export function toInterpretInput(
   // 2000, J Am Coll Cardiol — recalled); the reading on predicted body mass goes beside every per-kg category
   const ideal = weightBasis?.ideal;
   const bmiKgM2 = weightBasis?.bmiKgM2 ?? null;
-  if (ideal && bmiKgM2 !== null && bmiKgM2 >= OBESITY_BMI_KG_M2 && patient.weightKg && v(p.vo2MlMin) !== null) {
+  if (ideal && bmiKgM2 !== null && bmiKgM2 >= OBESITY_BMI_KG_M2 && patient.weightKg && peakVo2 !== null) {
     const basis = `on predicted body mass (${ideal.weightKg.toFixed(0)} kg; BMI ${bmiKgM2.toFixed(1)})`;
     const peakOnIdeal = { peakVo2MlKgMin: ideal.measuredMlKgMin };
     uncertainty.push({

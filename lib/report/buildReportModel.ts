@@ -160,7 +160,7 @@ export function buildReportModel(
       add("work rate", at.workW, 0, "W");
       // VE/VCO2 at the AT enters the pre-operative schemes; said with what it is at the band's ends
       if (t.which === "vt1" && at.veVco2.value !== null) {
-        const ends = t.overridden ? null : veVco2BandEndsWords(at, "VT1");
+        const ends = veVco2BandEndsWords(at, "VT1");
         atValues.push({ label: "VE/VCO2", value: `VE/VCO2 ${formatNumber(at.veVco2.value, 1)}${ends ? ` (${ends})` : ""}` });
       }
     }

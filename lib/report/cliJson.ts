@@ -234,7 +234,7 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       wholeIntercept: val(ix.veVco2.slopeWholeExercise.intercept),
       nadir: val(ix.veVco2.nadir),
       atVt1: val(ix.veVco2.atVt1),
-      atVt1BandEnds: bandEnds(result.thresholds.vt1.overridden ? null : ix.atVt1?.veVco2AtBandEnds),
+      atVt1BandEnds: bandEnds(ix.atVt1?.veVco2AtBandEnds),
     },
     oues: nd("OUES", ouesWhole?.slope),
     ouesBand: ouesWhole?.band ?? null,
