@@ -83,7 +83,10 @@ export function hingeFit(x: ArrayLike<number>, y: ArrayLike<number>, options: Hi
   }
   const n = idx.length;
   if (n < 2 * m) return EMPTY(n);
-  idx.sort((a, b) => x[a] - x[b]);
+  // the sort is stable, so x already in order (time, or a rising VO2) keeps its order without a comparator pass
+  let ordered = true;
+  for (let k = 1; k < n && ordered; k++) ordered = x[idx[k]] >= x[idx[k - 1]];
+  if (!ordered) idx.sort((a, b) => x[a] - x[b]);
   let xm = 0;
   let ym = 0;
   for (const i of idx) {

@@ -9,10 +9,13 @@
  */
 export function quantile(values: ArrayLike<number>, p: number): number {
   if (!(p >= 0 && p <= 1)) throw new Error("quantile requires p in [0, 1]");
-  const sorted: number[] = [];
-  for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i])) sorted.push(values[i]);
-  if (sorted.length === 0) return NaN;
-  sorted.sort((a, b) => a - b);
+  let m = 0;
+  for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i])) m++;
+  if (m === 0) return NaN;
+  // a typed array sorts numerically without a comparator callback (several times faster on thousands of breaths)
+  const sorted = new Float64Array(m);
+  for (let i = 0, k = 0; i < values.length; i++) if (Number.isFinite(values[i])) sorted[k++] = values[i];
+  sorted.sort();
   const h = (sorted.length - 1) * p;
   const lo = Math.floor(h);
   const hi = Math.min(sorted.length - 1, lo + 1);

@@ -10,7 +10,7 @@ import { firstIndexAbove } from "./firstIndexAbove";
  * slope step is negative (d < 0) the fit is redone with d = 0 (a rise that starts with zero slope). Least squares with
  * the break fixed (Orr et al. 1982 search the break at the least pooled SSE, confirmed). Suffix sums of x⁰…x⁴ and
  * y·x⁰…y·x² and the partial-regression identity (the line solved once, a 2 × 2 system per candidate) make each
- * candidate O(log n) with no allocation. Points in ascending t (s).
+ * candidate O(1) with no allocation (ascending candidates walk the break index on). Points in ascending t (s).
  */
 export function convexOnsetProfile(
   t: ArrayLike<number>,
@@ -46,12 +46,24 @@ export function convexOnsetProfile(
   const b1 = g01 * Y0 + g11 * Y1;
   const sseLine = syy - (b0 * Y0 + b1 * Y1);
   const quad = (u0: number, u1: number, v0: number, v1: number) => u0 * (g00 * v0 + g01 * v1) + u1 * (g01 * v0 + g11 * v1);
+  const [P0, P1, P2, P3, P4] = P;
+  const [Q0, Q1, Q2] = Q;
+  let k = 0;
   for (let j = 0; j < K; j++) {
     const a = (taus[j] - t0) / 60;
-    const k = firstIndexAbove(x, a);
+    // the first point strictly above the break: candidates ascend, so walk on (search again if one steps back)
+    if (j > 0 && taus[j] >= taus[j - 1]) while (k < n && !(x[k] > a)) k++;
+    else k = firstIndexAbove(x, a);
     if (n - k < 3) continue;
-    const [p0, p1, p2, p3, p4] = [P[0][k], P[1][k], P[2][k], P[3][k], P[4][k]];
-    const [q0, q1, q2] = [Q[0][k], Q[1][k], Q[2][k]];
+    // plain locals, not an array per candidate (this loop runs for every candidate of every resample)
+    const p0 = P0[k];
+    const p1 = P1[k];
+    const p2 = P2[k];
+    const p3 = P3[k];
+    const p4 = P4[k];
+    const q0 = Q0[k];
+    const q1 = Q1[k];
+    const q2 = Q2[k];
     // sums over the points above the break of the hinge columns h₁ = x − a, h₂ = (x − a)² and their products
     const h1 = p1 - a * p0;
     const h11 = p2 - 2 * a * p1 + a * a * p0;

@@ -11,7 +11,7 @@ import { firstIndexAbove } from "./firstIndexAbove";
  * continuous at τ), which a free quadratic does not. Least squares with τ and σ fixed (Orr et al. 1982 search the
  * break at the least pooled SSE, confirmed); the grid of σ and the exponential form as a break model are our
  * implementation choice (`vt-joint-profile-choice`). Suffix sums of g = e^((x − x_end)/σ), g², x·g and y·g per σ and
- * the partial-regression identity (the line solved once) make each candidate O(log n). Points in ascending t (s).
+ * the partial-regression identity (the line solved once) make each candidate O(1) per σ (ascending candidates walk the break index on). Points in ascending t (s).
  * Returns NaN where no rising exponential fits (A < 0, or fewer than 3 points above τ).
  * `z` replaces x as the line's regressor (y = a + b·z + A·(e^((x − τ)/σ) − 1)₊): the VT2 profile reads VE against VCO2
  * below the break and an exponential in time above it.
@@ -29,7 +29,11 @@ export function exponentialOnsetProfile(
   const sigmaMin = new Float64Array(K).fill(NaN);
   if (n < 6) return { sse, sigmaMin, n };
   const t0 = t[0];
-  const x = new Float64Array(n);
+  const S = sigmasMin.length;
+  const buf = scratch(n + 3 * (n + 1) + 4 * (n + 1) * S + 2 * S);
+  let off = 0;
+  const take = (len: number) => buf.subarray(off, (off += len));
+  const x = take(n);
   for (let i = 0; i < n; i++) x[i] = (t[i] - t0) / 60;
   const xEnd = x[n - 1];
   const zz = z ?? x;
@@ -40,9 +44,12 @@ export function exponentialOnsetProfile(
   let Y0 = 0;
   let Y1 = 0;
   let syy = 0;
-  const P0 = new Float64Array(n + 1);
-  const P1 = new Float64Array(n + 1);
-  const QY = new Float64Array(n + 1);
+  const P0 = take(n + 1);
+  const P1 = take(n + 1);
+  const QY = take(n + 1);
+  P0[n] = 0;
+  P1[n] = 0;
+  QY[n] = 0;
   for (let i = n - 1; i >= 0; i--) {
     S0 += 1;
     S1 += zz[i];
@@ -60,50 +67,69 @@ export function exponentialOnsetProfile(
   const b0 = g00 * Y0 + g01 * Y1;
   const b1 = g01 * Y0 + g11 * Y1;
   const sseLine = syy - (b0 * Y0 + b1 * Y1);
-  // break index per candidate (first point strictly above τ)
-  const kAt = new Int32Array(K);
-  for (let j = 0; j < K; j++) kAt[j] = firstIndexAbove(x, (taus[j] - t0) / 60);
-  const E1 = new Float64Array(n + 1);
-  const E2 = new Float64Array(n + 1);
-  const EX = new Float64Array(n + 1);
-  const EY = new Float64Array(n + 1);
   // candidates on an even grid (the usual case): e^((a − x_end)/σ) by one multiplication per candidate
   const stepMin = K > 1 ? (taus[1] - taus[0]) / 60 : 0;
   let even = K > 1 && stepMin > 0;
   for (let j = 2; even && j < K; j++) even = Math.abs((taus[j] - taus[j - 1]) / 60 - stepMin) < 1e-9;
-  const cAt = new Float64Array(K);
-  for (const sigma of sigmasMin) {
-    if (even) {
-      const ratio = Math.exp(stepMin / sigma);
-      cAt[0] = Math.exp(((taus[0] - t0) / 60 - xEnd) / sigma);
-      for (let j = 1; j < K; j++) cAt[j] = cAt[j - 1] * ratio;
-    } else for (let j = 0; j < K; j++) cAt[j] = Math.exp(((taus[j] - t0) / 60 - xEnd) / sigma);
+  // per shape σ, suffix sums of g = e^((x − x_end)/σ), g², z·g and y·g, stored shape-minor ([k·S + s]) so that one
+  // candidate reads all shapes from adjacent memory
+  const E1 = take((n + 1) * S);
+  const E2 = take((n + 1) * S);
+  const EX = take((n + 1) * S);
+  const EY = take((n + 1) * S);
+  const c = take(S);
+  const ratio = take(S);
+  for (let s = 0; s < S; s++) {
+    const sigma = sigmasMin[s];
+    const at = n * S + s;
+    E1[at] = E2[at] = EX[at] = EY[at] = 0;
+    ratio[s] = even ? Math.exp(stepMin / sigma) : NaN;
+    c[s] = Math.exp(((taus[0] - t0) / 60 - xEnd) / sigma);
     for (let i = n - 1; i >= 0; i--) {
       const g = Math.exp((x[i] - xEnd) / sigma);
-      E1[i] = E1[i + 1] + g;
-      E2[i] = E2[i + 1] + g * g;
-      EX[i] = EX[i + 1] + zz[i] * g;
-      EY[i] = EY[i + 1] + y[i] * g;
+      const here = i * S + s;
+      const next = here + S;
+      E1[here] = E1[next] + g;
+      E2[here] = E2[next] + g * g;
+      EX[here] = EX[next] + zz[i] * g;
+      EY[here] = EY[next] + y[i] * g;
     }
-    for (let j = 0; j < K; j++) {
-      const k = kAt[j];
-      if (n - k < 3) continue;
-      // column scaled by e^(−(x_end − a)/σ) (the fit is scale-free): h = g − c above τ, c = e^((a − x_end)/σ)
-      const c = cAt[j];
-      const sh = E1[k] - c * P0[k];
-      const shh = E2[k] - 2 * c * E1[k] + c * c * P0[k];
-      const sxh = EX[k] - c * P1[k];
-      const syh = EY[k] - c * QY[k];
+  }
+  let k = 0;
+  for (let j = 0; j < K; j++) {
+    // c = e^((a − x_end)/σ) at this candidate: the running product on an even grid
+    if (j > 0) for (let s = 0; s < S; s++) c[s] = even ? c[s] * ratio[s] : Math.exp(((taus[j] - t0) / 60 - xEnd) / sigmasMin[s]);
+    // break index: the first point strictly above τ (candidates ascend: walk on; otherwise search)
+    const a = (taus[j] - t0) / 60;
+    if (j > 0 && taus[j] >= taus[j - 1]) while (k < n && !(x[k] > a)) k++;
+    else k = firstIndexAbove(x, a);
+    if (n - k < 3) continue;
+    const p0 = P0[k];
+    const p1 = P1[k];
+    const qy = QY[k];
+    let best = NaN;
+    let bestSigma = NaN;
+    for (let s = 0; s < S; s++) {
+      // column scaled by e^(−(x_end − a)/σ) (the fit is scale-free): h = g − c above τ
+      const cs = c[s];
+      const at = k * S + s;
+      const e1 = E1[at];
+      const sh = e1 - cs * p0;
+      const shh = E2[at] - 2 * cs * e1 + cs * cs * p0;
+      const sxh = EX[at] - cs * p1;
+      const syh = EY[at] - cs * qy;
       const hMh = shh - (sh * (g00 * sh + g01 * sxh) + sxh * (g01 * sh + g11 * sxh));
       if (!(hMh > 1e-12 * shh)) continue;
       const hMy = syh - (sh * b0 + sxh * b1);
       if (!(hMy > 0)) continue; // A ≥ 0: a rise
-      const s = Math.max(0, sseLine - (hMy * hMy) / hMh);
-      if (!(s >= sse[j])) {
-        sse[j] = s;
-        sigmaMin[j] = sigma;
+      const v = Math.max(0, sseLine - (hMy * hMy) / hMh);
+      if (!(v >= best)) {
+        best = v;
+        bestSigma = sigmasMin[s];
       }
     }
+    sse[j] = best;
+    sigmaMin[j] = bestSigma;
   }
   return { sse, sigmaMin, n };
 }
@@ -113,3 +139,10 @@ export function exponentialOnsetProfile(
  * to a straight line over a 10-min ramp.
  */
 export const EXPONENTIAL_ONSET_SIGMAS_MIN: readonly number[] = [0.5, 0.7, 1, 1.4, 2, 2.8, 4, 5.6, 8];
+
+let scratchBuffer = new Float64Array(0);
+/** A reused work buffer (these profiles run for every resample; fresh large typed arrays cost more than the sums). */
+function scratch(size: number): Float64Array {
+  if (scratchBuffer.length < size) scratchBuffer = new Float64Array(Math.max(size, 2 * scratchBuffer.length));
+  return scratchBuffer;
+}

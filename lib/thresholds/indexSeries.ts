@@ -16,20 +16,74 @@ export interface FieldSeries {
 
 /**
  * The times and values of `field` in time order, optionally limited to `span`.
- * Breaths lacking the field (or holding a non-finite value) are skipped.
+ * Breaths lacking the field (or holding a non-finite value) are skipped. The caller owns the arrays returned.
  */
 export function fieldSeries(rows: readonly BreathRow[], field: NumericField | "vo2MlKgMin", span?: TimeSpan | null): FieldSeries {
+  const c = fieldColumn(rows, field);
+  if (!span) return { t: c.t.slice(), v: c.v.slice() };
+  const { startS, endS } = span;
+  if (c.ascending) {
+    // first time not below startS, first time above endS (NaN bounds keep every breath, as the scan below does)
+    const a = firstIndexWhere(c.t, (x) => !(x < startS));
+    const b = Math.max(
+      a,
+      firstIndexWhere(c.t, (x) => x > endS),
+    );
+    return { t: c.t.slice(a, b), v: c.v.slice(a, b) };
+  }
   const t: number[] = [];
   const v: number[] = [];
+  for (let i = 0; i < c.t.length; i++) {
+    if (c.t[i] < startS || c.t[i] > endS) continue;
+    t.push(c.t[i]);
+    v.push(c.v[i]);
+  }
+  return { t, v };
+}
+
+interface FieldColumn extends FieldSeries {
+  rowCount: number;
+  ascending: boolean;
+}
+
+/**
+ * One field's finite values, read from the rows once per rows array: the indices read the same few fields of the same
+ * thousands of breaths dozens of times per analysis (values at each threshold, peaks, slopes), and a keyed property
+ * read per breath cost more than the arithmetic. Rows are not edited after conditioning; a changed length rebuilds.
+ */
+const fieldColumns = new WeakMap<readonly BreathRow[], Map<string, FieldColumn>>();
+
+function fieldColumn(rows: readonly BreathRow[], field: NumericField | "vo2MlKgMin"): FieldColumn {
+  let byField = fieldColumns.get(rows);
+  if (!byField) fieldColumns.set(rows, (byField = new Map()));
+  const cached = byField.get(field);
+  if (cached && cached.rowCount === rows.length) return cached;
+  const t: number[] = [];
+  const v: number[] = [];
+  let ascending = true;
   for (const r of rows) {
-    if (span && (r.timeS < span.startS || r.timeS > span.endS)) continue;
     const x = r[field];
     if (typeof x === "number" && Number.isFinite(x)) {
+      if (t.length > 0 && !(r.timeS >= t[t.length - 1])) ascending = false;
       t.push(r.timeS);
       v.push(x);
     }
   }
-  return { t, v };
+  const column = { t, v, rowCount: rows.length, ascending };
+  byField.set(field, column);
+  return column;
+}
+
+/** First index whose value meets a predicate that is false then true along the array (its length when never). */
+function firstIndexWhere(values: readonly number[], meets: (x: number) => boolean): number {
+  let lo = 0;
+  let hi = values.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (meets(values[mid])) hi = mid;
+    else lo = mid + 1;
+  }
+  return lo;
 }
 
 /** Paired values of two fields at the breaths that carry both, optionally limited to `span`. */

@@ -44,7 +44,7 @@ export interface JointVt1Options {
 /**
  * Profile of the residual sum of squares of y = Σ β_j·base_j + d·u·max(0, t − τ) over candidate break
  * times τ (least squares with the break fixed; Orr et al. 1982 search the break at the least pooled SSE,
- * confirmed). Points must be in ascending t. O(n·p² + K·(log n + p²)) with suffix sums and the
+ * confirmed). Points must be in ascending t. O(n·p² + K·p²) with suffix sums (ascending candidates walk the break index on) and the
  * partial-regression identity. When the best hinge
  * coefficient has the wrong sign the profile takes the no-break SSE (constrained fit).
  */
@@ -113,21 +113,40 @@ export function segmentedProfile(
     ginv.push(col);
   }
   const hx = new Float64Array(p);
+  // typed copies of β and (X'X)⁻¹ (row-major) for the candidate loop, the hot path of every resample
+  const beta = Float64Array.from(single as number[]);
+  const gi = new Float64Array(p * p);
+  for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) gi[a * p + b] = ginv[a][b];
+  let k = 0;
   for (let j = 0; j < K; j++) {
     const tau = taus[j];
-    const k = firstIndexAbove(t, tau);
+    // candidates usually ascend: walk the break index forward, search again when one steps back
+    if (j > 0 && tau >= taus[j - 1]) while (k < n && !(t[k] > tau)) k++;
+    else k = firstIndexAbove(t, tau);
     if (n - k < 2) {
       sse[j] = sseSingle;
       continue;
     }
     let hMy = sYUT[k] - tau * sYU[k];
-    for (let c = 0; c < p; c++) {
-      hx[c] = sCUT[c][k] - tau * sCU[c][k];
-      hMy -= hx[c] * (single as number[])[c];
-    }
     const hh = sUUTT[k] - 2 * tau * sUUT[k] + tau * tau * sUU[k];
     let hMh = hh;
-    for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) hMh -= hx[a] * ginv[a][b] * hx[b];
+    if (p === 2) {
+      // the usual base [1, t] unrolled (the same operations in the same order as the general loops below)
+      const h0 = sCUT[0][k] - tau * sCU[0][k];
+      const h1 = sCUT[1][k] - tau * sCU[1][k];
+      hMy -= h0 * beta[0];
+      hMy -= h1 * beta[1];
+      hMh -= h0 * gi[0] * h0;
+      hMh -= h0 * gi[1] * h1;
+      hMh -= h1 * gi[2] * h0;
+      hMh -= h1 * gi[3] * h1;
+    } else {
+      for (let c = 0; c < p; c++) {
+        hx[c] = sCUT[c][k] - tau * sCU[c][k];
+        hMy -= hx[c] * beta[c];
+      }
+      for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) hMh -= hx[a] * gi[a * p + b] * hx[b];
+    }
     if (!(hMh > 1e-10 * hh)) {
       sse[j] = sseSingle;
       continue;
@@ -158,7 +177,7 @@ export function segmentedProfile(
  * profile weights exp(−½·(L(τ) − min L)) over τ (more stable than the minimum under noise — our choice,
  * chosen on the synthetic bank); VO2 from the VO2 trend at that time. Confidence rests on the likelihood ratio
  * against no break, the number of signals that bend and the width of the profile (10th–90th percentile).
- * O(n + K log n) per signal and shape (the exponential: per shape σ of its grid).
+ * O(n + K) per signal and shape (the exponential: per shape σ of its grid).
  */
 export function jointVt1(series: ThresholdSeries, options: JointVt1Options = {}): MethodEstimate {
   const endS = options.endS ?? series.span.endS;
