@@ -158,6 +158,19 @@ export function toInterpretInput(
         low: { [key]: line.band.low },
         high: { [key]: line.band.high },
       });
+  // read from brief, submaximal exercise these run low (briefExercise.ts): a category that the median correction would
+  // change says so; the value itself is not changed
+  for (const [key, name, line, d] of slopes) {
+    const value = line ? v(line.slope) : null;
+    const brief = line?.briefExercise;
+    if (!brief || value === null) continue;
+    const rer = brief.peakRer === null ? "no peak RER" : `peak RER ${brief.peakRer.toFixed(2)}`;
+    uncertainty.push({
+      words: `${name} ${value.toFixed(d)} from ${Math.round(brief.exerciseS)} s of exercise ending at ${rer} (brief, submaximal exercise reads a median ${Math.abs(brief.medianLowPct).toFixed(0)} % low: ${brief.likelyValue.toFixed(d)})`,
+      low: { [key]: value },
+      high: { [key]: brief.likelyValue },
+    });
+  }
   return {
     patient: {
       sex: patient.sex,

@@ -16,6 +16,7 @@ export * from "./measurePeaks";
 export * from "./modifiedVSlope";
 export * from "./o2Pulse";
 export * from "./oues";
+export * from "./briefExercise";
 export * from "./peak";
 export * from "./rcpVeVco2";
 export * from "./rcpVentilatoryEquivalents";

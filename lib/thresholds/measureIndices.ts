@@ -1,5 +1,6 @@
 import { makeIssue } from "../core";
 import type { ConditionedTest } from "../signal";
+import { briefExerciseIssue, briefExerciseReading, type BriefExerciseIndex } from "./briefExercise";
 import { breathingReserve } from "./breathingReserve";
 import { hrGapIssues } from "./channelGaps";
 import { dVo2dWr } from "./dVo2dWr";
@@ -15,7 +16,7 @@ import { oues } from "./oues";
 import { spo2 } from "./spo2";
 import { valuesAtThreshold } from "./valuesAtThreshold";
 import { vdVt } from "./vdVt";
-import { veVco2Slope } from "./veVco2Slope";
+import { veVco2Slope, type LineIndex } from "./veVco2Slope";
 
 /**
  * Measure every index of a conditioned test: peaks, effort criteria, VE/VCO2 slope and nadir, OUES,
@@ -83,6 +84,21 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
       ),
     );
   const ouesR = oues(test);
+  // indices read from brief, submaximal exercise run low (briefExercise.ts): each says so and how far
+  const exerciseS = test.exercise ? test.exercise.endS - test.exercise.startS : NaN;
+  const brief: [BriefExerciseIndex, LineIndex | undefined][] = [
+    ["oues", ouesR.fits.find((f) => f.fraction === 1)],
+    ["veVco2SlopeWhole", veVco2.slopeWholeExercise],
+    ["veVco2SlopeToRcp", veVco2.slopeToVt2],
+  ];
+  const briefReadings: Parameters<typeof briefExerciseIssue>[0] = [];
+  for (const [index, line] of brief) {
+    const reading = line ? briefExerciseReading(index, line.slope.value, exerciseS, peaks.rerMax.value) : null;
+    if (!line || !reading) continue;
+    line.briefExercise = reading;
+    briefReadings.push({ index, value: line.slope.value as number, reading });
+  }
+  const briefIssue = briefExerciseIssue(briefReadings);
   const dv = dVo2dWr(test, { vt1, vt2, lagS: ctx.dVo2dWrLagS });
   const o2p = o2Pulse(test);
   const sp = spo2(test, { windowS, definition: ctx.desaturationDefinition });
@@ -98,6 +114,7 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
     ...hr.issues,
     ...veVco2.issues,
     ...ouesR.issues,
+    ...(briefIssue ? [briefIssue] : []),
     ...dv.issues,
     ...o2p.issues,
     ...sp.issues,

@@ -1,3 +1,4 @@
+import type { BriefExerciseReading } from "./briefExercise";
 import { makeIssue, measured, notDetermined, type Issue, type Measured, type Provenance } from "../core";
 import { binByTime } from "../numeric/binByTime";
 import { centredMovingMean } from "../numeric/centredMovingMean";
@@ -37,6 +38,11 @@ export interface LineIndex {
    * the OUES fits and the whole ΔVO2/ΔWR; absent elsewhere.
    */
   band?: { low: number; high: number } | null;
+  /**
+   * Set when the value comes from brief, submaximal exercise (`briefExercise.ts`): how low such readings run and the
+   * value that would undo the median. The value itself is not changed.
+   */
+  briefExercise?: BriefExerciseReading | null;
 }
 
 export interface VeVco2Options {
