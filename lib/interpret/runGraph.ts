@@ -18,25 +18,27 @@ export function runGraph(graph: GraphData, ctx: EvalContext): PathResult {
   while (id) {
     const node: NodeData = nodes.get(id)!;
     const checks = node.checks.map((c) => evaluateRule(c, ctx));
-    let found: BranchData | null = null;
-    let sawUnknown = false;
-    for (const c of node.cases) {
-      const r = evaluateCondition(c.when, ctx);
-      if (r.outcome === true) {
-        found = c;
-        break;
-      }
-      if (r.outcome === null) sawUnknown = true;
-    }
-    const taken: BranchData = found ?? (sawUnknown ? node.unknown : node.otherwise);
+    const taken = branchTaken(node, ctx);
     const checkText = checks.map((c) => c.text).join("; ");
+    // where an end of a measurement's uncertainty band takes another branch here, say so (as schemes and the effort
+    // verdict do); the walk goes on along the value's branch
+    const parts: string[] = [];
+    for (const end of ctx.bandEnds ?? []) {
+      const other = [branchTaken(node, end.low), branchTaken(node, end.high)]
+        .filter((b) => b.outcome !== taken.outcome && b.outcome !== "not-assessable")
+        .map((b) => `"${b.finding}"`);
+      if (other.length > 0) parts.push(`the ${end.words} reaches ${unique(other).join(" and ")}`);
+    }
+    const borderline = parts.join("; ");
+    const line = checkText ? `${checkText} ⇒ ${taken.finding}` : taken.finding;
     steps.push({
       nodeId: node.id,
       title: node.title,
       checks,
       outcome: taken.outcome,
       finding: taken.finding,
-      text: checkText ? `${checkText} ⇒ ${taken.finding}` : taken.finding,
+      text: borderline ? `${line} (borderline: ${borderline})` : line,
+      ...(borderline ? { borderline } : {}),
       sourceIds: unique([...node.sourceIds, ...checks.flatMap((c) => c.sourceIds)]),
       status: weakestStatus([node.status]),
       next: taken.next ?? null,
@@ -45,4 +47,15 @@ export function runGraph(graph: GraphData, ctx: EvalContext): PathResult {
     id = taken.next;
   }
   return { steps, end };
+}
+
+/** The branch a node takes in a context: its first true case, else `unknown` when an input was missing, else `otherwise`. */
+function branchTaken(node: NodeData, ctx: EvalContext): BranchData {
+  let sawUnknown = false;
+  for (const c of node.cases) {
+    const r = evaluateCondition(c.when, ctx);
+    if (r.outcome === true) return c;
+    if (r.outcome === null) sawUnknown = true;
+  }
+  return sawUnknown ? node.unknown : node.otherwise;
 }

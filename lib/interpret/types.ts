@@ -237,6 +237,11 @@ export interface PathStep {
   finding: string;
   /** The step's checks and finding as one readable line; the step's `title` is not repeated here. */
   text: string;
+  /**
+   * Where an end of a measurement's uncertainty band (`InterpretInput.uncertainty`) takes another branch at this step,
+   * in words ("the VT1 band 731–902 mL/min reaches \"AT reduced\""); absent when none does.
+   */
+  borderline?: string;
   sourceIds: string[];
   status: EvidenceStatus;
   next: string | null;

@@ -114,3 +114,32 @@ describe("an effort verdict resting on a value near its cut-off", () => {
     expect(r.issues.map((i) => i.code)).not.toContain("effort-verdict-borderline");
   });
 });
+
+describe("a flow step resting on a value near its cut-off", () => {
+  // (peak VO2 70 % of predicted: reduced, so the flow reads the AT next) AT low below 40 % of predicted peak VO2 (Hansen, Sue & Wasserman 1984 via the ATS/ACCP 2003 flow — secondary, as
+  // flow.json marks it); the values and bands are invented.
+  const atStep = (pct: number, uncertainty: InterpretInput["uncertainty"]) =>
+    interpret({ ...baseInput({ peakVo2PctPred: 70, vt1PctPredPeakVo2: pct, vt1Determined: true }), uncertainty }).path.steps.find(
+      (s) => s.nodeId === "at",
+    )!;
+
+  it("VT1 at 38 % with a band reaching 45 %: the step stays 'low' and says the band reaches 'VT1 not low'", () => {
+    const step = atStep(38, [
+      { words: "VT1 band 731–902 mL/min", low: { vt1PctPredPeakVo2: 34 }, high: { vt1PctPredPeakVo2: 45 } },
+    ]);
+    expect(step.outcome).toBe("low");
+    expect(step.borderline).toBe('the VT1 band 731–902 mL/min reaches "VT1 not low"');
+    expect(step.text).toMatch(
+      /⇒ low VT1: oxygen delivery or utilisation limitation \(borderline: the VT1 band 731–902 mL\/min reaches "VT1 not low"\)$/,
+    );
+  });
+
+  it("says nothing when the band stays on one side, or when its end only makes the step not assessable", () => {
+    expect(
+      atStep(30, [{ words: "VT1 band", low: { vt1PctPredPeakVo2: 28 }, high: { vt1PctPredPeakVo2: 33 } }]).borderline,
+    ).toBeUndefined();
+    const missing = atStep(38, [{ words: "VT1 band", low: { vt1PctPredPeakVo2: 36 }, high: { vt1PctPredPeakVo2: null } }]);
+    expect(missing.outcome).toBe("low");
+    expect(missing.borderline).toBeUndefined();
+  });
+});
