@@ -126,10 +126,13 @@ export function toInterpretInput(
   // effort verdict says when either end would change it (a verdict resting on the fourth decimal of peak RER)
   const rer = v(p.rerMax);
   const rerSe = p.rerMax.provenance.inputs?.rerSe;
+  const rerCarry = p.rerMax.provenance.inputs?.rerCarryOver;
   if (rer !== null && typeof rerSe === "number" && rerSe > 0) {
     const [lo, hi] = [rer - 2 * rerSe, rer + 2 * rerSe];
+    const carried =
+      typeof rerCarry === "number" ? `, breath noise carrying over with lag-1 correlation ${rerCarry.toFixed(2)}` : "";
     uncertainty.push({
-      words: `peak RER ${lo.toFixed(2)}–${hi.toFixed(2)} (±2 standard errors over its window)`,
+      words: `peak RER ${lo.toFixed(2)}–${hi.toFixed(2)} (±2 standard errors over its window${carried})`,
       low: { peakRer: lo },
       high: { peakRer: hi },
     });

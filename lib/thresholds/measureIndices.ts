@@ -30,7 +30,9 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
   const weightKg = ctx.patient.weightKg;
   const vt1 = ctx.vt1 ?? null;
   const vt2 = ctx.vt2 ?? null;
-  const peaks = measurePeaks(test, { windowS, weightKg, vt1 });
+  // breath noise that carries over (a smoothed export) widens the peak RER's standard error (measurePeaks.ts)
+  const ev = eov(test, ctx.eovDefinition);
+  const peaks = measurePeaks(test, { windowS, weightKg, vt1, noiseCarryOver: ev.breathNoiseCarryOver });
   const atVt1 = vt1
     ? valuesAtThreshold(test, vt1, { ...ctx.readAtTime, name: "VT1", weightKg, peakVo2MlMin: peaks.vo2MlMin.value })
     : null;
@@ -103,7 +105,6 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
   const o2p = o2Pulse(test);
   const sp = spo2(test, { windowS, definition: ctx.desaturationDefinition });
   const vd = vdVt(test, ctx.bloodGases, ctx.readAtTime);
-  const ev = eov(test, ctx.eovDefinition);
   const domains = intensityDomains(atVt1, atVt2, peaks);
   const issues = [
     ...peaks.issues,

@@ -1,6 +1,7 @@
 import type { BreathRow, NumericField } from "../breath";
 import { makeIssue, measured, notDetermined, type Issue, type Measured, type Provenance } from "../core";
 import { medianRowIntervalS, type ConditionedTest } from "../signal";
+import { CARRY_OVER_WARNING } from "./eov";
 import { exerciseSpan, fieldSeries, provenanceOf, restSpan, rollingExtreme, WindowMeans, type TimeSpan } from "./indexSeries";
 import { channelGaps, describeChannelGap } from "./channelGaps";
 import { readAtTime, type ThresholdPoint } from "./valuesAtThreshold";
@@ -17,6 +18,11 @@ export interface MeasurePeaksOptions {
   weightKg?: number;
   /** VT1, for PETCO2 at VT1. */
   vt1?: ThresholdPoint | null;
+  /**
+   * Lag-1 correlation of the breath noise (`EovResult.breathNoiseCarryOver`; null or absent = not read). Above
+   * `CARRY_OVER_WARNING` it widens the standard error of peak RER to that of fewer independent breaths (`rerSpread`).
+   */
+  noiseCarryOver?: number | null;
 }
 
 export interface PeakValues {
@@ -190,7 +196,7 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
     ? measured(rerBest.value, "1", {
         ...rerMaxProv,
         window: { startS: rerBest.startS, endS: rerBest.endS },
-        inputs: { ...rerMaxProv.inputs, ...rerSpread(rows, rerBest.startS, rerBest.endS) },
+        inputs: { ...rerMaxProv.inputs, ...rerSpread(rows, rerBest.startS, rerBest.endS, options.noiseCarryOver ?? null) },
       })
     : notDetermined("1", rerMaxProv, "no window with both VO2 and VCO2 in exercise");
 
@@ -286,11 +292,19 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
 }
 
 /**
- * The breath-to-breath spread of RER inside the peak window: the breaths counted and the standard error of their mean RER
- * (SD / √n; common practice, neighbouring breaths taken as independent, so it understates a smoothed export's; on
- * time-averaged rows the rows' own spread). Null with fewer than 3 (a stage value).
+ * The breath-to-breath spread of RER inside the peak window: the breaths counted and the standard error of their mean RER,
+ * SD / √n_eff. With breath noise that carries over (lag-1 correlation ρ > 0, as in a smoothed export) n breaths hold as
+ * much as n_eff = n·(1 − ρ)/(1 + ρ) independent ones, the effective size of the mean of an AR(1) series (standard
+ * time-series result, e.g. Bretherton et al. 1999, J Climate 12:1990 — recalled). Read only where the breaths look
+ * exported smoothed (ρ above `CARRY_OVER_WARNING`, 0.3: with breath-by-breath noise the estimate scatters about 0 by
+ * ±0.1); otherwise n_eff = n. ρ is capped at 0.9. On time-averaged rows the rows' own spread. Null with fewer than 3 (a stage value).
  */
-function rerSpread(rows: readonly BreathRow[], startS: number, endS: number): { rerBreaths: number; rerSe: number | null } {
+function rerSpread(
+  rows: readonly BreathRow[],
+  startS: number,
+  endS: number,
+  carryOver: number | null,
+): { rerBreaths: number; rerSe: number | null; rerCarryOver?: number } {
   const r: number[] = [];
   for (const row of rows)
     if (row.timeS >= startS && row.timeS <= endS && (row.vo2MlMin ?? 0) > 0 && typeof row.vco2MlMin === "number")
@@ -298,5 +312,7 @@ function rerSpread(rows: readonly BreathRow[], startS: number, endS: number): { 
   if (r.length < 3) return { rerBreaths: r.length, rerSe: null };
   const mean = r.reduce((a, b) => a + b, 0) / r.length;
   const sd = Math.sqrt(r.reduce((a, b) => a + (b - mean) ** 2, 0) / (r.length - 1));
-  return { rerBreaths: r.length, rerSe: sd / Math.sqrt(r.length) };
+  const rho = carryOver !== null && carryOver > CARRY_OVER_WARNING ? Math.min(0.9, carryOver) : 0;
+  const nEff = (r.length * (1 - rho)) / (1 + rho);
+  return { rerBreaths: r.length, rerSe: sd / Math.sqrt(nEff), ...(rho > 0 ? { rerCarryOver: rho } : {}) };
 }

@@ -7,6 +7,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
 import { analyse, buildRecord, type AnalysisResult } from "../../lib/analysis";
+import { measurePeaks } from "../../lib/thresholds/measurePeaks";
 import { threeBreathMean } from "./smoothedExport";
 
 const dir = path.resolve(__dirname, "../fixtures/cases");
@@ -61,5 +62,30 @@ describe("EOV on breaths exported smoothed (invented heart-failure demo)", () =>
       );
       expect(a.text).toContain("reaches EOV absent");
     }
+  });
+});
+
+describe("peak RER's standard error on breaths exported smoothed (invented heart-failure demo)", () => {
+  // n breaths of AR(1) noise with lag-1 correlation ρ carry n(1 − ρ)/(1 + ρ) independent breaths' worth of information
+  // (standard time-series result, e.g. Bretherton et al. 1999 — recalled): the SE grows by √((1 + ρ)/(1 − ρ)).
+  it("as generated: the SE is SD/√n, with no carry-over read into it", () => {
+    const inputs = results.get("as generated")!.indices.peaks.rerMax.provenance.inputs!;
+    expect(inputs.rerSe).toBeGreaterThan(0);
+    expect(inputs.rerCarryOver).toBeUndefined();
+  });
+
+  it("3-breath mean: the SE is widened by exactly √((1 + ρ)/(1 − ρ)) for the carry-over measured, and the band says so", () => {
+    const r = results.get("3-breath mean")!;
+    const rho = r.indices.eov.breathNoiseCarryOver!;
+    expect(rho).toBeGreaterThan(0.3);
+    const inputs = r.indices.peaks.rerMax.provenance.inputs!;
+    expect(inputs.rerCarryOver).toBe(rho);
+    // the same window read without the carry-over (measurePeaks with noiseCarryOver null) gives the plain SE
+    const plain = measurePeaks(r.conditioned, { windowS: 30, weightKg: 80, noiseCarryOver: null }).rerMax.provenance.inputs!;
+    expect(plain.rerBreaths).toBe(inputs.rerBreaths);
+    expect((inputs.rerSe as number) / (plain.rerSe as number)).toBeCloseTo(Math.sqrt((1 + rho) / (1 - rho)), 9);
+    expect(r.interpretation.effort.borderline ?? "").toMatch(
+      /standard errors over its window, breath noise carrying over with lag-1 correlation 0\.\d\d\)/,
+    );
   });
 });
