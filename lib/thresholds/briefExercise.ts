@@ -23,7 +23,7 @@ export const BRIEF_EXERCISE_MAXIMAL_RER = 1.1;
  * the cuts reading peak RER below 1.10, binned by the exercise phase the conditioning found; median signed error in % of
  * the complete test's value (OUES over 100 % of exercise, the slope to the true RCP, the whole-exercise slope to peak;
  * README-thresholds.md, round 21). `ouesQuartilePct`: a quarter of the cuts read at least this low. The complete tests
- * read −0.9 % (OUES), −0.2 % (to the RCP) and −0.9 % (whole). The whole-exercise slope of a brief test lacks the steeper
+ * read −1.1 % (OUES), −0.2 % (to the RCP) and −0.8 % (whole). The whole-exercise slope of a brief test lacks the steeper
  * part above the RCP that the complete test's includes.
  */
 export const BRIEF_EXERCISE_LOW_READING: readonly {
