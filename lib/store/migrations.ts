@@ -91,4 +91,20 @@ export const MIGRATIONS: { id: number; name: string; sql: string }[] = [
       );
     `,
   },
+  {
+    id: 4,
+    name: "pin_the_record_of_each_analysis_version",
+    // An analysis version is its settings AND the record they were applied to: a signed report is rebuilt from the
+    // record it was signed on, not from one corrected later (patient details, spirometry, a re-read file). Records are
+    // kept once per content (sha256 of the record JSON); versions saved before this migration have none and fall back
+    // to the test's current record. `revision` counts saves of a draft, so a save from a stale page is refused.
+    sql: `
+      create table record_snapshots (
+        sha256 text primary key,
+        record_json text not null
+      );
+      alter table analyses add column record_sha256 text references record_snapshots(sha256);
+      alter table reports add column revision integer not null default 0;
+    `,
+  },
 ];

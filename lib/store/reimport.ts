@@ -1,9 +1,9 @@
 import "server-only";
-import type { ReferralQuestion, TestRecord } from "../analysis";
+import { ENGINE_VERSION, type ReferralQuestion, type TestRecord } from "../analysis";
 import { columnMappingSchema, type ColumnDecision, type ColumnMapping } from "../breath";
 import type { Ergometer, Issue, Patient, Spirometry } from "../core";
 import { getDb } from "./db";
-import { audit } from "./tests";
+import { audit, latestSettings, saveAnalysisVersion } from "./tests";
 
 /** The choices a file was last read with (kept beside the column decisions so the review page can show them). */
 export interface ImportChoices {
@@ -93,10 +93,18 @@ export function describeDetails(d: UploadDetails): string {
 /**
  * Replace a test's reading of its kept file after a re-read with new choices: record (null = the file
  * still cannot be used), column decisions, issues and the choices. The status follows the record
- * (a refused test becomes imported). The audit trail says who re-read it, with what, and the outcome.
+ * (a refused test becomes imported). The audit trail says who re-read it, with what, and the outcome; a test already
+ * analysed gets a new analysis version pinning the new reading (reports signed on the old one keep theirs).
  * Returns false when the test does not exist.
  */
 export function replaceImport(
+  testId: number,
+  input: { record: TestRecord | null; columns: ColumnDecision[]; issues: Issue[]; choices: ImportChoices; actor: string },
+): boolean {
+  return getDb().transaction(() => replaceImportNow(testId, input))();
+}
+
+function replaceImportNow(
   testId: number,
   input: { record: TestRecord | null; columns: ColumnDecision[]; issues: Issue[]; choices: ImportChoices; actor: string },
 ): boolean {
@@ -127,5 +135,7 @@ export function replaceImport(
     .filter(Boolean)
     .join("; ");
   audit(input.actor, "import-re-read", testId, detail);
+  const latest = input.record ? latestSettings(testId) : null;
+  if (latest) saveAnalysisVersion(testId, latest.settings, ENGINE_VERSION, input.actor, `file re-read: ${detail}`);
   return true;
 }

@@ -22,6 +22,11 @@ export interface StoredReport {
   /** The attestation text the signer confirmed. */
   attestation: string | null;
   createdAt: string;
+  /**
+   * How many times the draft text was saved (0 when created). A page carries the revision it showed, so a save or a
+   * signature from a page opened before someone else's save is refused instead of overwriting that text.
+   */
+  revision: number;
 }
 
 /** JSON kept in `reports.draft_json`. */
@@ -40,6 +45,7 @@ interface ReportRow {
   signed_at: string | null;
   created_at: string;
   version: number;
+  revision: number;
 }
 
 const now = () => new Date().toISOString();
@@ -59,6 +65,7 @@ function toReport(row: ReportRow): StoredReport {
     signedAt: row.signed_at,
     attestation: json.attestation ?? null,
     createdAt: row.created_at,
+    revision: row.revision,
   };
 }
 
@@ -113,7 +120,7 @@ export function saveDraft(reportId: number, sections: ReportSection[], actor: st
     const current = getReport(reportId);
     if (!current) return null;
     if (current.status === "draft") {
-      db.prepare("update reports set draft_json = ? where id = ? and status = 'draft'").run(
+      db.prepare("update reports set draft_json = ?, revision = revision + 1 where id = ? and status = 'draft'").run(
         JSON.stringify({ sections } satisfies DraftJson),
         reportId,
       );

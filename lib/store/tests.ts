@@ -1,7 +1,6 @@
 import "server-only";
 import crypto from "node:crypto";
-import type { TestRecord } from "../analysis";
-import type { AnalysisSettings } from "../analysis";
+import { ENGINE_VERSION, type AnalysisSettings, type TestRecord } from "../analysis";
 import type { ColumnDecision } from "../breath";
 import type { Issue } from "../core";
 import { getDb } from "./db";
@@ -17,6 +16,8 @@ export interface StoredTestSummary {
 
 export interface StoredTest extends StoredTestSummary {
   record: TestRecord | null;
+  /** sha256 of the stored record JSON (null for a refused file): the snapshot an analysis version pins. */
+  recordSha256: string | null;
   importColumns: ColumnDecision[];
   importIssues: Issue[];
   uploadId: number | null;
@@ -67,9 +68,24 @@ export function saveTest(input: {
   return id;
 }
 
-export function updateTestRecord(id: number, record: TestRecord, actor: string): void {
-  getDb().prepare("update tests set record_json = ? where id = ?").run(JSON.stringify(record), id);
-  audit(actor, "test-details-updated", id, null);
+/**
+ * Replace a test's record. When the test has been analysed, a new analysis version with its current settings pins the new
+ * record (`note` says what changed), so every report version keeps the record it was written on; returns that version's
+ * number, or null when the test has no analysis version yet (the first one pins the record when it is made).
+ */
+export function updateTestRecord(id: number, record: TestRecord, actor: string, note = "test inputs changed"): number | null {
+  const db = getDb();
+  return db.transaction((): number | null => {
+    db.prepare("update tests set record_json = ? where id = ?").run(JSON.stringify(record), id);
+    audit(actor, "test-details-updated", id, note);
+    const latest = latestSettings(id);
+    return latest ? saveAnalysisVersion(id, latest.settings, ENGINE_VERSION, actor, note) : null;
+  })();
+}
+
+/** sha256 of a record's stored JSON. */
+function recordSha(json: string): string {
+  return crypto.createHash("sha256").update(json).digest("hex");
 }
 
 interface TestRow {
@@ -117,6 +133,7 @@ export function getTest(id: number): StoredTest | null {
     fileName: r.file_name,
     uploadId: r.upload_id,
     record: r.record_json ? (JSON.parse(r.record_json) as TestRecord) : null,
+    recordSha256: r.record_json ? recordSha(r.record_json) : null,
     importColumns: imp.columns,
     importIssues: imp.issues,
   };
@@ -126,7 +143,10 @@ export function countTests(): number {
   return (getDb().prepare("select count(*) as n from tests").get() as { n: number }).n;
 }
 
-/** Settings versions: an override or a changed choice is a new version; old ones are kept. */
+/**
+ * Analysis versions: an override, a changed choice or changed inputs make a new version; old ones are kept. Each pins
+ * the settings and the test's record as it is now (`record_snapshots`, one row per distinct record).
+ */
 export function saveAnalysisVersion(
   testId: number,
   settings: AnalysisSettings,
@@ -135,19 +155,38 @@ export function saveAnalysisVersion(
   note?: string,
 ): number {
   const db = getDb();
-  const last = db.prepare("select max(version) as v from analyses where test_id = ?").get(testId) as { v: number | null };
-  const version = (last.v ?? 0) + 1;
-  db.prepare(
-    "insert into analyses (test_id, version, settings_json, engine_version, note, created_by, created_at) values (?, ?, ?, ?, ?, ?, ?)",
-  ).run(testId, version, JSON.stringify(settings), engineVersion, note ?? null, actor, now());
-  audit(actor, "analysis-version", testId, `v${version}${note ? `: ${note}` : ""}`);
-  return version;
+  return db.transaction((): number => {
+    const last = db.prepare("select max(version) as v from analyses where test_id = ?").get(testId) as { v: number | null };
+    const version = (last.v ?? 0) + 1;
+    const row = db.prepare("select record_json from tests where id = ?").get(testId) as
+      { record_json: string | null } | undefined;
+    const sha = row?.record_json ? recordSha(row.record_json) : null;
+    if (sha) db.prepare("insert or ignore into record_snapshots (sha256, record_json) values (?, ?)").run(sha, row!.record_json);
+    db.prepare(
+      "insert into analyses (test_id, version, settings_json, engine_version, note, created_by, created_at, record_sha256) values (?, ?, ?, ?, ?, ?, ?, ?)",
+    ).run(testId, version, JSON.stringify(settings), engineVersion, note ?? null, actor, now(), sha);
+    audit(actor, "analysis-version", testId, `v${version}${note ? `: ${note}` : ""}`);
+    return version;
+  })();
+}
+
+/**
+ * The record an analysis version was made on (`record_snapshots`); null when the version predates the snapshots (then
+ * the test's current record stands in) or does not exist.
+ */
+export function analysisRecord(analysisId: number): TestRecord | null {
+  const row = getDb()
+    .prepare("select s.record_json from analyses a join record_snapshots s on s.sha256 = a.record_sha256 where a.id = ?")
+    .get(analysisId) as { record_json: string } | undefined;
+  return row ? (JSON.parse(row.record_json) as TestRecord) : null;
 }
 
 export interface AnalysisVersion {
   id: number;
   version: number;
   settings: AnalysisSettings;
+  /** sha256 of the record the version pins (null: saved before records were pinned). */
+  recordSha256: string | null;
   engineVersion: string;
   note: string | null;
   createdBy: string | null;
@@ -157,7 +196,7 @@ export interface AnalysisVersion {
 export function listAnalysisVersions(testId: number): AnalysisVersion[] {
   const rows = getDb()
     .prepare(
-      "select id, version, settings_json, engine_version, note, created_by, created_at from analyses where test_id = ? order by version desc",
+      "select id, version, settings_json, engine_version, note, created_by, created_at, record_sha256 from analyses where test_id = ? order by version desc",
     )
     .all(testId) as {
     id: number;
@@ -167,11 +206,13 @@ export function listAnalysisVersions(testId: number): AnalysisVersion[] {
     note: string | null;
     created_by: string | null;
     created_at: string;
+    record_sha256: string | null;
   }[];
   return rows.map((r) => ({
     id: r.id,
     version: r.version,
     settings: JSON.parse(r.settings_json) as AnalysisSettings,
+    recordSha256: r.record_sha256,
     engineVersion: r.engine_version,
     note: r.note,
     createdBy: r.created_by,

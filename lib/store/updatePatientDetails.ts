@@ -102,8 +102,9 @@ export function updatePatientDetails(testId: number, change: PatientDetailsChang
   const settings = effectiveSettings(testId, getLabDefaults());
   let version = 0;
   getDb().transaction(() => {
-    updateTestRecord(testId, next, actor);
-    version = saveAnalysisVersion(testId, settings, ENGINE_VERSION, actor, `patient details changed: ${changes.join("; ")}`);
+    const note = `patient details changed: ${changes.join("; ")}`;
+    // a new analysis version pins the corrected record (the first one when the test was never analysed)
+    version = updateTestRecord(testId, next, actor, note) ?? saveAnalysisVersion(testId, settings, ENGINE_VERSION, actor, note);
     audit(actor, "patient-details-changed", testId, changes.join("; "));
   })();
   return { ok: true, changes, version };

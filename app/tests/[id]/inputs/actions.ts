@@ -32,10 +32,12 @@ function loadRecord(testId: number): TestRecord | null {
 }
 
 function done(testId: number, record: TestRecord, action: string, detail: string): void {
-  updateTestRecord(testId, record, ACTOR);
+  // a new analysis version pins the changed inputs; a report already signed keeps the record it was signed on
+  updateTestRecord(testId, record, ACTOR, `${action.replace(/-/g, " ")}: ${detail}`);
   audit(ACTOR, action, testId, detail);
   revalidatePath(`/tests/${testId}`);
   revalidatePath(`/tests/${testId}/inputs`);
+  revalidatePath(`/tests/${testId}/report`);
 }
 
 async function readFile(form: FormData): Promise<{ name: string; bytes: Uint8Array } | { error: string }> {

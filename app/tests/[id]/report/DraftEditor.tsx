@@ -80,6 +80,8 @@ function RecheckNote(props: {
 export function DraftEditor(props: {
   testId: number;
   reportId: number;
+  /** The draft revision this tab last saw (refused saves leave it; see `DRAFT_CHANGED_ELSEWHERE`). */
+  revision: number;
   signed: boolean;
   sections: EditableSection[];
   texts: Record<string, string>;
@@ -89,18 +91,19 @@ export function DraftEditor(props: {
   signErrors?: Record<string, string>;
   onText: (id: string, text: string) => void;
   onAck: (id: string, acked: boolean) => void;
-  onSaved: (texts: Record<string, string>) => void;
+  onSaved: (texts: Record<string, string>, revision?: number) => void;
 }) {
   const [state, action, pending] = useActionState<DraftState, FormData>(saveDraftAction, {});
   const { onSaved } = props;
   useEffect(() => {
-    if (state.savedAt && !state.errors && state.texts) onSaved(state.texts);
+    if (state.savedAt && !state.errors && state.texts) onSaved(state.texts, state.newVersion ? undefined : state.revision);
   }, [state, onSaved]);
   const errors = { ...(props.signErrors ?? {}), ...(state.errors ?? {}) };
   return (
     <form action={action} className="stack" data-testid="draft-form">
       <input type="hidden" name="testId" value={props.testId} />
       <input type="hidden" name="reportId" value={props.reportId} />
+      <input type="hidden" name="revision" value={props.revision} />
       {props.signed ? (
         <p className="how" data-testid="revise-note">
           This version is signed and cannot change. Saving edited text creates a new draft version; the signed version stays as it

@@ -52,6 +52,8 @@ export function DraftWorkspace(props: {
   reportId: number;
   /** Version number of this report (1-based, per test). */
   version: number;
+  /** The draft's saved revision this page shows (`StoredReport.revision`), sent back with each save and signature. */
+  revision: number;
   signed: boolean;
   sections: EditableSection[];
 }) {
@@ -60,6 +62,9 @@ export function DraftWorkspace(props: {
   const [saved, setSaved] = useState<Record<string, string>>(initial);
   const [acks, setAcks] = useState<Record<string, boolean>>({});
   const [signErrors, setSignErrors] = useState<Record<string, string>>({});
+  // The revision this tab last saw: from the server render, or from this tab's own save (whichever is newer).
+  const [revision, setRevision] = useState(props.revision);
+  if (props.revision > revision) setRevision(props.revision);
 
   // The server text changed (saved, signed, or a new analysis): that is now the saved text.
   const [savedFrom, setSavedFrom] = useState(initial);
@@ -126,9 +131,10 @@ export function DraftWorkspace(props: {
       </p>
     ) : null;
 
-  const onSaved = useCallback((t: Record<string, string>) => {
+  const onSaved = useCallback((t: Record<string, string>, savedRevision?: number) => {
     setSaved(t);
     setAcks({});
+    if (savedRevision !== undefined) setRevision((r) => Math.max(r, savedRevision));
   }, []);
   // The text at the time a sign result arrives is the text that was submitted and signed.
   const textsRef = useRef(texts);
@@ -182,6 +188,7 @@ export function DraftWorkspace(props: {
         <DraftEditor
           testId={props.testId}
           reportId={props.reportId}
+          revision={revision}
           signed={props.signed}
           sections={props.sections}
           texts={texts}
@@ -201,6 +208,7 @@ export function DraftWorkspace(props: {
             <SignForm
               testId={props.testId}
               reportId={props.reportId}
+              revision={revision}
               sections={props.sections.map((s) => ({ id: s.id, title: s.title }))}
               texts={texts}
               acks={acks}

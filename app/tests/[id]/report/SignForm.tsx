@@ -15,6 +15,7 @@ import { ATTESTATION } from "./schemas";
 export function SignForm(props: {
   testId: number;
   reportId: number;
+  revision: number;
   sections: { id: string; title: string }[];
   texts: Record<string, string>;
   acks: Record<string, boolean>;
@@ -36,6 +37,7 @@ export function SignForm(props: {
     <form onSubmit={submit} className="stack" data-testid="sign-form">
       <input type="hidden" name="testId" value={props.testId} />
       <input type="hidden" name="reportId" value={props.reportId} />
+      <input type="hidden" name="revision" value={props.revision} />
       {props.sections.map((s) => (
         <span key={s.id} hidden>
           <input type="hidden" name={`title:${s.id}`} value={s.title} />

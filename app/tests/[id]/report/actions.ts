@@ -2,7 +2,7 @@
 
 import { revalidatePath } from "next/cache";
 import { getReport, saveDraft } from "@/lib/store/reports";
-import { draftFormSchema, readSectionsForm, readSignForm, sectionErrors, toOnScreen } from "./schemas";
+import { DRAFT_CHANGED_ELSEWHERE, draftFormSchema, readSectionsForm, readSignForm, sectionErrors, toOnScreen } from "./schemas";
 import { mergeRecheck, signDraft } from "./signDraft";
 
 export interface DraftState {
@@ -14,21 +14,37 @@ export interface DraftState {
   savedAt?: string;
   /** Set when saving created a new draft version (the report was signed). */
   newVersion?: number;
+  /** The draft's revision after this save (the page sends it with its next save or signature). */
+  revision?: number;
 }
 
 export async function saveDraftAction(_prev: DraftState, form: FormData): Promise<DraftState> {
   const { sections, rechecked } = readSectionsForm(form);
   const texts = Object.fromEntries(sections.map((s) => [s.id, s.text]));
-  const parsed = draftFormSchema.safeParse({ testId: form.get("testId"), reportId: form.get("reportId"), sections });
+  const parsed = draftFormSchema.safeParse({
+    testId: form.get("testId"),
+    reportId: form.get("reportId"),
+    revision: form.get("revision") ?? undefined,
+    sections,
+  });
   if (!parsed.success) return { texts, errors: sectionErrors(parsed.error.issues, sections) };
   const { testId, reportId } = parsed.data;
   const stored = getReport(reportId);
   if (!stored || stored.testId !== testId) return { texts, errors: { form: "This report no longer exists; reload the page." } };
+  // checked and saved in one synchronous step: no other request runs between them
+  if (stored.status === "draft" && parsed.data.revision !== undefined && stored.revision !== parsed.data.revision)
+    return { texts, errors: { form: DRAFT_CHANGED_ELSEWHERE } };
   const onScreen = toOnScreen(parsed.data.sections);
   const saved = saveDraft(reportId, mergeRecheck(stored.sections, onScreen, rechecked), "local user");
   if (!saved) return { texts, errors: { form: "This report no longer exists; reload the page." } };
   revalidatePath(`/tests/${testId}/report`);
-  return { texts, rechecked, savedAt: new Date().toISOString(), newVersion: saved.id !== reportId ? saved.version : undefined };
+  return {
+    texts,
+    rechecked,
+    savedAt: new Date().toISOString(),
+    newVersion: saved.id !== reportId ? saved.version : undefined,
+    revision: saved.revision,
+  };
 }
 
 export interface SignState {

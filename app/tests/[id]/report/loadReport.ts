@@ -6,59 +6,87 @@ import { carryForwardDraft } from "@/lib/report/carryForwardDraft";
 import type { ReportModel } from "@/lib/report/reportModel";
 import { getOrCreateDraft, getReport, listReports, type StoredReport } from "@/lib/store/reports";
 import { getLabDefaults } from "@/lib/store/labSettings";
-import { getTest, latestSettings, listAnalysisVersions, saveAnalysisVersion, type StoredTest } from "@/lib/store/tests";
+import {
+  analysisRecord,
+  getTest,
+  latestSettings,
+  listAnalysisVersions,
+  saveAnalysisVersion,
+  type StoredTest,
+} from "@/lib/store/tests";
+import type { TestRecord } from "@/lib/analysis";
 
 export interface LoadedReport {
   test: StoredTest;
+  /** The record this report version's analysis was made on (pinned by its analysis version). */
+  record: TestRecord;
   result: AnalysisResult;
   report: StoredReport;
   versions: StoredReport[];
   model: ReportModel;
 }
 
+/** The record an analysis version pinned; versions saved before records were pinned fall back to the current one. */
+function recordOf(test: StoredTest & { record: TestRecord }, analysisId: number): TestRecord {
+  return analysisRecord(analysisId) ?? test.record;
+}
+
 /**
  * The text a new draft for analysis `analysisId` starts with: the generated text, or, when an
- * earlier report version exists (the analysis changed after the reviewer edited or signed), the
- * reviewer's edited sections carried forward with a re-check note (`carryForwardDraft`). Only
- * computed when that analysis has no report yet.
+ * earlier report version exists (the analysis or its inputs changed after the reviewer edited or signed), the
+ * reviewer's edited sections carried forward with a re-check note (`carryForwardDraft`), the changes read between the
+ * earlier version's record and settings and these. Only computed when that analysis has no report yet.
  */
-function firstDraftText(test: StoredTest, analysisId: number, result: AnalysisResult) {
+function firstDraftText(
+  test: StoredTest & { record: TestRecord },
+  analysisId: number,
+  result: AnalysisResult,
+  record: TestRecord,
+) {
   const reports = listReports(test.id);
   if (reports.some((r) => r.analysisId === analysisId)) return [];
   const generated = initialDraftSections(result);
   const previous = reports[0];
-  if (!previous || !test.record) return generated;
+  if (!previous) return generated;
   const previousSettings = listAnalysisVersions(test.id).find((v) => v.id === previous.analysisId)?.settings;
   if (!previousSettings) return generated;
   const text = { reportId: previous.id, version: previous.version, status: previous.status, sections: previous.sections };
-  return carryForwardDraft(text, analyse(test.record, previousSettings), result, test.record).sections;
+  return carryForwardDraft(text, analyse(recordOf(test, previous.analysisId), previousSettings), result, record).sections;
 }
 
 /**
- * The report of a test: a given version (`reportId`), or the current one for the latest analysis
- * version (created as a draft with neutral text on first view). Null when the test does not exist,
- * was refused on import, or `reportId` belongs to another test.
+ * The report of a test: a given version (`reportId`), rebuilt from the record and settings its analysis version pinned
+ * (a signed report never changes when the test's inputs are corrected later), or the current one for the latest
+ * analysis version (created as a draft with neutral text on first view). Null when the test does not exist, was
+ * refused on import, or `reportId` belongs to another test.
  */
 export function loadReport(testId: number, reportId?: number): LoadedReport | null {
-  const test = getTest(testId);
-  if (!test?.record) return null;
+  const found = getTest(testId);
+  if (!found?.record) return null;
+  const test = found as StoredTest & { record: TestRecord };
   let report: StoredReport | null;
   let result: AnalysisResult;
+  let record: TestRecord;
   if (reportId !== undefined) {
     report = getReport(reportId);
     if (!report || report.testId !== testId) return null;
     const analysisId = report.analysisId;
     const settings = listAnalysisVersions(testId).find((v) => v.id === analysisId)?.settings ?? {};
-    result = analyse(test.record, settings);
+    record = recordOf(test, analysisId);
+    result = analyse(record, settings);
   } else {
     let latest = latestSettings(testId);
-    if (!latest) {
-      saveAnalysisVersion(testId, getLabDefaults(), ENGINE_VERSION, "system", "first analysis, lab default settings");
+    const pinned = latest ? listAnalysisVersions(testId)[0].recordSha256 : null;
+    // no version yet, or the record changed without one (a database from before records were pinned): pin it now
+    if (!latest || (pinned !== null && pinned !== test.recordSha256)) {
+      const note = latest ? "test record changed since the last analysis version" : "first analysis, lab default settings";
+      saveAnalysisVersion(testId, latest?.settings ?? getLabDefaults(), ENGINE_VERSION, "system", note);
       latest = latestSettings(testId)!;
     }
-    result = analyse(test.record, latest.settings);
-    report = getOrCreateDraft(testId, latest.id, firstDraftText(test, latest.id, result));
+    record = test.record;
+    result = analyse(record, latest.settings);
+    report = getOrCreateDraft(testId, latest.id, firstDraftText(test, latest.id, result, record));
   }
-  const model = buildReportModel(result, test.record, test.label, report);
-  return { test, result, report, versions: listReports(testId), model };
+  const model = buildReportModel(result, record, test.label, report);
+  return { test, record, result, report, versions: listReports(testId), model };
 }

@@ -140,6 +140,7 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
         testId={testId}
         reportId={report.id}
         version={report.version}
+        revision={report.revision}
         signed={signed}
         sections={model.sections.map((s) => ({
           id: s.id,

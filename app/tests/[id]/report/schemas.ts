@@ -11,6 +11,8 @@ export const SECTION_MAX_CHARS = 4000;
 export const draftFormSchema = z.object({
   testId: z.coerce.number().int().positive(),
   reportId: z.coerce.number().int().positive(),
+  /** The draft's revision the page showed (`StoredReport.revision`); absent from forms of older pages. */
+  revision: z.coerce.number().int().min(0).optional(),
   sections: z
     .array(
       z.object({
@@ -23,6 +25,12 @@ export const draftFormSchema = z.object({
     .max(20),
 });
 
+/** Why a save from a page opened before another save is refused (nothing is overwritten). */
+export const DRAFT_CHANGED_ELSEWHERE =
+  "Not saved: this draft was saved elsewhere (another tab or another person) after this page was opened, and saving " +
+  "now would overwrite that text. Your text is still on screen: copy what you need, reload the page to see the saved " +
+  "draft, and bring your changes into it.";
+
 export const ATTESTATION =
   "I have reviewed the data, the values, the charts and the text of this report, and I take clinical responsibility for it as signed.";
 
@@ -30,6 +38,7 @@ export const ATTESTATION =
 export const signFormSchema = z.object({
   testId: z.coerce.number().int().positive(),
   reportId: z.coerce.number().int().positive(),
+  revision: draftFormSchema.shape.revision,
   sections: draftFormSchema.shape.sections,
   signer: z
     .string()
@@ -102,6 +111,7 @@ export function readSignForm(
   const parsed = signFormSchema.safeParse({
     testId: form.get("testId"),
     reportId: form.get("reportId"),
+    revision: form.get("revision") ?? undefined,
     sections,
     signer: form.get("signer"),
     attest: form.get("attest") ?? undefined,
@@ -114,6 +124,7 @@ export function readSignForm(
     input: {
       testId: d.testId,
       reportId: d.reportId,
+      ...(d.revision !== undefined ? { revision: d.revision } : {}),
       signer: d.signer,
       attestation: ATTESTATION,
       sections: toOnScreen(d.sections),

@@ -41,6 +41,8 @@ export interface SignDraftInput {
   sections: OnScreenSection[];
   /** Ids of carried-forward sections the reviewer confirmed as re-checked. */
   rechecked: string[];
+  /** The draft revision the page showed; a different stored revision means someone saved since (refused). */
+  revision?: number;
 }
 
 export type SignDraftResult =
@@ -71,6 +73,13 @@ export function signDraft(input: SignDraftInput): SignDraftResult {
         throw new Refusal({
           form: `This version was already signed by ${current.signedBy} on ${current.signedAt}. Reload the page to see it.`,
         });
+      if (input.revision !== undefined && current.revision !== input.revision)
+        throw new Refusal({
+          form:
+            "Not signed: this draft was saved elsewhere (another tab or another person) after this page was opened, so the " +
+            "text on your screen is not the saved draft and signing it would overwrite that text. Your text is still on " +
+            "screen: copy what you need, reload the page, and sign the current draft.",
+        });
       const latest = latestSettings(input.testId);
       if (latest && latest.id !== current.analysisId)
         throw new Refusal({
@@ -88,6 +97,13 @@ export function signDraft(input: SignDraftInput): SignDraftResult {
         for (const s of pending) errors[s.id] = "Re-check this section against the current values before signing.";
         throw new Refusal(errors);
       }
+      // the report's own caution section may be reworded, not emptied (the page and PDF caution stay regardless)
+      const caution = sections.find((s) => s.id === "caution");
+      if (caution && caution.paragraphs.every((p) => p.trim() === ""))
+        throw new Refusal({
+          form: "Not signed: the “Caution” section is empty. A signed report keeps its clinical caution; write or restore it.",
+          caution: "The caution may be reworded but not left empty.",
+        });
       const textSaved = !sameText(current.sections, sections);
       if (textSaved && !saveDraft(current.id, sections, input.signer))
         throw new Refusal({ form: "This report no longer exists; reload the page." });

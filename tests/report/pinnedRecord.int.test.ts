@@ -1,0 +1,180 @@
+/**
+ * A signed report is rebuilt from the record and settings its analysis version pinned, so correcting the test's inputs
+ * later (patient details, spirometry, a re-read file) gives a new analysis version and a new draft, never a changed signed
+ * report; a draft saved from a page opened before someone else's save is refused; the caution section cannot be signed
+ * empty. SQLite in a temporary file; the test is the INVENTED normal-adult demo case (tests/fixtures/cases).
+ */
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+
+vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
+
+import { buildRecord, type TestRecord } from "../../lib/analysis";
+import { closeDb } from "../../lib/store/db";
+import { getReport, listReports } from "../../lib/store/reports";
+import { analysisRecord, getTest, listAnalysisVersions, saveTest, updateTestRecord } from "../../lib/store/tests";
+import { updatePatientDetails } from "../../lib/store/updatePatientDetails";
+import { loadReport } from "../../app/tests/[id]/report/loadReport";
+import { saveDraftAction } from "../../app/tests/[id]/report/actions";
+import { DRAFT_CHANGED_ELSEWHERE } from "../../app/tests/[id]/report/schemas";
+import { signDraft } from "../../app/tests/[id]/report/signDraft";
+
+const cases = path.resolve(__dirname, "../fixtures/cases");
+let dir = "";
+let record: TestRecord;
+
+beforeEach(async () => {
+  closeDb();
+  dir = fs.mkdtempSync(path.join(os.tmpdir(), "cpet-pinned-"));
+  process.env.CPET_DB = path.join(dir, "test.sqlite");
+  const meta = JSON.parse(fs.readFileSync(path.join(cases, "normal-adult.json"), "utf8"));
+  expect(meta.invented).toBe(true);
+  const built = await buildRecord({
+    bytes: new Uint8Array(fs.readFileSync(path.join(cases, "normal-adult.csv"))),
+    fileName: "normal-adult.csv",
+    patient: meta.patient,
+    ergometer: meta.ergometer,
+    referral: meta.referral,
+  });
+  record = { ...built.record!, spirometry: { fev1L: 4.2 } };
+});
+afterEach(() => {
+  closeDb();
+  fs.rmSync(dir, { recursive: true, force: true });
+});
+
+/** A test with its first draft (as opening the report page makes it), signed as shown. */
+function signedTest() {
+  const testId = saveTest({ uploadId: null, label: "Pinned (invented)", record, columns: [], issues: [] });
+  const first = loadReport(testId)!;
+  const signed = signDraft({
+    testId,
+    reportId: first.report.id,
+    revision: first.report.revision,
+    signer: "Dr A Example",
+    attestation: "reviewed",
+    sections: first.report.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: s.paragraphs })),
+    rechecked: [],
+  });
+  expect(signed.ok).toBe(true);
+  return { testId, first };
+}
+
+const tables = (r: ReturnType<typeof loadReport>) =>
+  JSON.stringify([r!.model.patientLine, r!.model.keyValues, r!.model.thresholds]);
+
+describe("a signed report keeps the record it was signed on", () => {
+  it("a corrected body mass makes a new analysis version and draft; the signed version still reads the old mass and values", () => {
+    const { testId, first } = signedTest();
+    const peakPerKg = first.result.indices.peaks.vo2MlKgMin.value!;
+    const before = listAnalysisVersions(testId).length;
+    const weightKg = record.patient.weightKg!;
+    const change = updatePatientDetails(
+      testId,
+      { ...record.patient, weightKg: weightKg + 15, ergometer: record.ergometer, referral: record.referral },
+      "tester",
+    );
+    expect(change.ok).toBe(true);
+    expect(listAnalysisVersions(testId)).toHaveLength(before + 1); // one version, not two
+    const again = loadReport(testId, first.report.id)!;
+    expect(again.report.status).toBe("signed");
+    expect(again.record.patient.weightKg).toBe(weightKg);
+    expect(again.result.indices.peaks.vo2MlKgMin.value).toBe(peakPerKg);
+    expect(tables(again)).toBe(tables(first));
+    const current = loadReport(testId)!;
+    expect(current.report.id).not.toBe(first.report.id);
+    expect(current.report.status).toBe("draft");
+    expect(current.record.patient.weightKg).toBe(weightKg + 15);
+    // the same VO2 over 15 kg more: per kg by weight / (weight + 15), as the arithmetic says
+    expect(current.result.indices.peaks.vo2MlKgMin.value!).toBeCloseTo((peakPerKg * weightKg) / (weightKg + 15), 6);
+  });
+
+  it("spirometry entered after signing: the signed breathing reserve stays, the new draft reads the new FEV1", () => {
+    const { testId, first } = signedTest();
+    const br = first.result.indices.breathingReserve.reservePercent.value;
+    const version = updateTestRecord(testId, { ...record, spirometry: { fev1L: 2.0 } }, "tester", "spirometry updated");
+    expect(version).not.toBeNull();
+    const signed = loadReport(testId, first.report.id)!;
+    expect(signed.result.indices.breathingReserve.reservePercent.value).toBe(br);
+    expect(signed.record.spirometry?.fev1L).toBe(4.2);
+    const current = loadReport(testId)!;
+    expect(current.record.spirometry?.fev1L).toBe(2.0);
+    // MVV = FEV1 × 40 (the engine's default; Campbell 1982 — recalled attribution): half the FEV1, a smaller reserve
+    expect(current.result.indices.breathingReserve.reservePercent.value!).toBeLessThan(br!);
+    // the new draft carries the reviewer's signed text forward for re-checking
+    expect(listReports(testId)).toHaveLength(2);
+  });
+
+  it("each version pins its record once per content (a settings-only version shares the snapshot)", () => {
+    const { testId, first } = signedTest();
+    const v1 = listAnalysisVersions(testId)[0];
+    expect(v1.recordSha256).toBe(getTest(testId)!.recordSha256);
+    expect(analysisRecord(v1.id)).toEqual(record);
+    expect(first.report.analysisId).toBe(v1.id);
+  });
+});
+
+describe("two pages on one draft", () => {
+  const form = (testId: number, reportId: number, revision: number, sections: { id: string; title: string; text: string }[]) => {
+    const f = new FormData();
+    f.set("testId", String(testId));
+    f.set("reportId", String(reportId));
+    f.set("revision", String(revision));
+    for (const s of sections) {
+      f.set(`title:${s.id}`, s.title);
+      f.set(`section:${s.id}`, s.text);
+    }
+    return f;
+  };
+
+  it("the second save from a page opened before the first is refused, keeping both texts", async () => {
+    const testId = saveTest({ uploadId: null, label: "Two tabs (invented)", record, columns: [], issues: [] });
+    const opened = loadReport(testId)!.report; // both tabs show revision 0
+    const texts = opened.sections.map((s) => ({ id: s.id, title: s.title, text: s.paragraphs.join("\n\n") }));
+    const tabA = texts.map((s) => (s.id === "conclusion" ? { ...s, text: "TAB-A conclusion" } : s));
+    const a = await saveDraftAction({}, form(testId, opened.id, opened.revision, tabA));
+    expect(a.errors).toBeUndefined();
+    expect(a.revision).toBe(opened.revision + 1);
+    const tabB = texts.map((s) => (s.id === "referral" ? { ...s, text: "TAB-B referral" } : s));
+    const b = await saveDraftAction({}, form(testId, opened.id, opened.revision, tabB));
+    expect(b.errors?.form).toBe(DRAFT_CHANGED_ELSEWHERE);
+    expect(b.texts?.referral).toBe("TAB-B referral"); // tab B's text comes back to its screen
+    const stored = getReport(opened.id)!;
+    expect(stored.sections.find((s) => s.id === "conclusion")!.paragraphs).toEqual(["TAB-A conclusion"]);
+    // signing from tab B's stale page is refused too; from the page that saw revision 1 it goes through
+    const sign = (revision: number) =>
+      signDraft({
+        testId,
+        reportId: opened.id,
+        revision,
+        signer: "Dr A Example",
+        attestation: "reviewed",
+        sections: stored.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: s.paragraphs })),
+        rechecked: [],
+      });
+    const stale = sign(opened.revision);
+    expect(stale.ok).toBe(false);
+    expect(!stale.ok && stale.errors.form).toMatch(/saved elsewhere/);
+    expect(sign(a.revision!).ok).toBe(true);
+  });
+
+  it("an emptied caution section is not signed", () => {
+    const testId = saveTest({ uploadId: null, label: "Caution (invented)", record, columns: [], issues: [] });
+    const opened = loadReport(testId)!.report;
+    expect(opened.sections.some((s) => s.id === "caution")).toBe(true);
+    const res = signDraft({
+      testId,
+      reportId: opened.id,
+      revision: opened.revision,
+      signer: "Dr A Example",
+      attestation: "reviewed",
+      sections: opened.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: s.id === "caution" ? [] : s.paragraphs })),
+      rechecked: [],
+    });
+    expect(res.ok).toBe(false);
+    expect(!res.ok && res.errors.caution).toMatch(/not left empty/);
+    expect(getReport(opened.id)!.status).toBe("draft");
+  });
+});
