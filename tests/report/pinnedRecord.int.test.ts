@@ -91,6 +91,35 @@ describe("a signed report keeps the record it was signed on", () => {
     expect(current.result.indices.peaks.vo2MlKgMin.value!).toBeCloseTo((peakPerKg * weightKg) / (weightKg + 15), 6);
   });
 
+  it("the reviewer's signed text carried into the new draft lists the values the corrected mass changed", () => {
+    const testId = saveTest({ uploadId: null, label: "Carried (invented)", record, columns: [], issues: [] });
+    const first = loadReport(testId)!;
+    const signed = signDraft({
+      testId,
+      reportId: first.report.id,
+      revision: first.report.revision,
+      signer: "Dr A Example",
+      attestation: "reviewed",
+      sections: first.report.sections.map((s) => ({
+        id: s.id,
+        title: s.title,
+        paragraphs: s.id === "conclusion" ? ["Reviewer's own conclusion (invented)."] : s.paragraphs,
+      })),
+      rechecked: [],
+    });
+    expect(signed.ok).toBe(true);
+    const weightKg = record.patient.weightKg!;
+    updatePatientDetails(
+      testId,
+      { ...record.patient, weightKg: weightKg + 15, ergometer: record.ergometer, referral: record.referral },
+      "tester",
+    );
+    const carried = loadReport(testId)!.report.sections.find((s) => s.id === "conclusion")!;
+    expect(carried.paragraphs).toEqual(["Reviewer's own conclusion (invented)."]);
+    expect(carried.recheck?.reason).toMatch(/The numbers changed since it was written/);
+    expect(carried.recheck?.changes.join("; ")).toMatch(/mL\/kg\/min/);
+  });
+
   it("spirometry entered after signing: the signed breathing reserve stays, the new draft reads the new FEV1", () => {
     const { testId, first } = signedTest();
     const br = first.result.indices.breathingReserve.reservePercent.value;
