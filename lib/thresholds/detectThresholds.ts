@@ -721,10 +721,12 @@ function clipBandsToOrder(series: ThresholdSeries, vt1: ThresholdEstimate, vt2: 
   if (vt2.band && vt2.band.lowMlMin < v1) {
     vt2.band = { ...vt2.band, lowMlMin: v1 };
     if (vt2.bandTimes && vt2.timeS !== null) vt2.bandTimes = { ...vt2.bandTimes, lowS: Math.min(vt2.timeS, at(v1)) };
+    addReason(vt2, `band cut at VT1 (${Math.round(v1)} mL/min): the RCP lies above the AT`);
   }
   if (vt1.band && vt1.band.highMlMin > v2) {
     vt1.band = { ...vt1.band, highMlMin: v2 };
     if (vt1.bandTimes && vt1.timeS !== null) vt1.bandTimes = { ...vt1.bandTimes, highS: Math.max(vt1.timeS, at(v2)) };
+    addReason(vt1, `band cut at VT2 (${Math.round(v2)} mL/min): the AT lies below the RCP`);
   }
 }
 

@@ -97,6 +97,10 @@ describe("thresholds in order", () => {
     expect(vt1.band!.highMlMin).toBeLessThanOrEqual(vt2.vo2MlMin.value!);
     // the band's times follow its ends
     expect(vt2.bandTimes!.lowS).toBeGreaterThanOrEqual(vt1.timeS! - 30);
+    // and where a band was cut, its reason says so (a low end equal to VT1 is the cut, not a measured limit)
+    if (vt2.band!.lowMlMin === vt1.vo2MlMin.value)
+      expect(vt2.reason).toContain(`band cut at VT1 (${Math.round(vt1.vo2MlMin.value!)} mL/min)`);
+    else expect(vt2.reason ?? "").not.toContain("band cut at VT1");
   });
 
   it("a VT2 below VT1 is not where the slope 'to the RCP' ends (heart-failure demo as a 3-breath rolling mean)", () => {
