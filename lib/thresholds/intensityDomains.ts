@@ -19,6 +19,8 @@ export interface IntensityDomain {
   hrBpm: DomainRange;
   workW: DomainRange;
   speedKmh: DomainRange;
+  /** Treadmill grade over the same range, % (the speed is prescribed with its grade). */
+  gradePct: DomainRange;
 }
 
 export interface IntensityDomainsResult {
@@ -29,8 +31,8 @@ export interface IntensityDomainsResult {
 
 /**
  * Exercise-intensity domains for prescription (common practice in exercise physiology): moderate below VT1,
- * heavy from VT1 to VT2, severe above VT2 (up to the peak values). Each domain gives its HR, work-rate and
- * speed range from the values at VT1/VT2 and the peaks. Without VT1 or VT2 the domains that need it are
+ * heavy from VT1 to VT2, severe above VT2 (up to the peak values). Each domain gives its HR, work-rate,
+ * speed and grade range from the values at VT1/VT2 and the peaks. Without VT1 or VT2 the domains that need it are
  * left out, with an issue; with VT2 not above VT1 none is given, with a warning.
  */
 export function intensityDomains(
@@ -64,6 +66,7 @@ export function intensityDomains(
       hrBpm: { lower: null, upper: usable(atVt1.hrBpm) },
       workW: { lower: null, upper: usable(atVt1.workW) },
       speedKmh: { lower: null, upper: usable(atVt1.speedKmh) },
+      gradePct: { lower: null, upper: usable(atVt1.gradePct) },
     });
   }
   if (atVt1 && atVt2) {
@@ -73,6 +76,7 @@ export function intensityDomains(
       hrBpm: { lower: usable(atVt1.hrBpm), upper: usable(atVt2.hrBpm) },
       workW: { lower: usable(atVt1.workW), upper: usable(atVt2.workW) },
       speedKmh: { lower: usable(atVt1.speedKmh), upper: usable(atVt2.speedKmh) },
+      gradePct: { lower: usable(atVt1.gradePct), upper: usable(atVt2.gradePct) },
     });
   }
   if (atVt2) {
@@ -82,6 +86,7 @@ export function intensityDomains(
       hrBpm: { lower: usable(atVt2.hrBpm), upper: usable(peaks.hrBpm) },
       workW: { lower: usable(atVt2.workW), upper: usable(peaks.workW) },
       speedKmh: { lower: usable(atVt2.speedKmh), upper: usable(peaks.speedKmh) },
+      gradePct: { lower: usable(atVt2.gradePct), upper: usable(peaks.gradePct) },
     });
   }
   if (!atVt1 || !atVt2) {

@@ -127,6 +127,8 @@ export interface ValuesAtThreshold {
   hrBpm: Measured;
   workW: Measured;
   speedKmh: Measured;
+  /** Treadmill grade at the threshold, % (a speed means little for prescription without its grade). */
+  gradePct: Measured;
   veVco2: Measured;
   /**
    * VE/VCO2 read (as `veVco2`) when the VO2 trend reached the low and the high end of the threshold's band: what the
@@ -188,6 +190,7 @@ export function valuesAtThreshold(
     hrBpm: read("hrBpm", "1/min"),
     workW: read("workW", "W"),
     speedKmh: read("speedKmh", "km/h"),
+    gradePct: read("gradePct", "%"),
     veVco2: veVco2AtTime(test, threshold.timeS, options),
     veVco2AtBandEnds: threshold.bandTimes
       ? {

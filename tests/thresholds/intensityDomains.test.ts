@@ -49,3 +49,26 @@ describe("intensity domains when the thresholds are out of order (invented ramp)
     expect(intensityDomains(a1, same, peaks).domains).toEqual([]);
   });
 });
+
+describe("intensity domains on a treadmill (invented walk: speed 4 → 8 km/h and grade 0 → 16 % over the exercise)", () => {
+  // speed and grade rise linearly with time, so at each threshold time they are known by construction
+  const test = standardRamp();
+  const frac = (t: number) =>
+    Math.min(1, Math.max(0, (t - test.exercise!.startS) / (test.exercise!.endS - test.exercise!.startS)));
+  const rows = test.clean.map((r) => ({ ...r, workW: undefined, speedKmh: 4 + 4 * frac(r.timeS), gradePct: 16 * frac(r.timeS) }));
+  const tm = { ...test, clean: rows, averaged: rows };
+  const peaks = measurePeaks(tm);
+  const a1 = valuesAtThreshold(tm, { timeS: 420, vo2MlMin: 1480 }, { name: "VT1" });
+  const a2 = valuesAtThreshold(tm, { timeS: 660, vo2MlMin: 1960 }, { name: "VT2" });
+
+  it("gives each domain its grade beside its speed: the grade at VT1, at VT2 and at peak", () => {
+    const [mod, heavy, severe] = intensityDomains(a1, a2, peaks).domains;
+    // a centred window over a straight line reads the line at its centre (mean of a linear function)
+    expect(mod.gradePct.upper?.value).toBeCloseTo(16 * frac(420), 6);
+    expect(mod.speedKmh.upper?.value).toBeCloseTo(4 + 4 * frac(420), 6);
+    expect(heavy.gradePct.lower?.value).toBeCloseTo(16 * frac(420), 6);
+    expect(heavy.gradePct.upper?.value).toBeCloseTo(16 * frac(660), 6);
+    expect(severe.gradePct.upper?.value).toBeCloseTo(16, 6);
+    expect(severe.workW.upper).toBeNull();
+  });
+});
