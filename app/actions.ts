@@ -5,46 +5,68 @@ import { buildRecord } from "@/lib/analysis";
 import { getProfile } from "@/lib/store/profiles";
 import { recordImportChoices, recordUploadDetails } from "@/lib/store/reimport";
 import { getUploadBytes, saveTest, saveUpload } from "@/lib/store/tests";
-import { fieldErrors, testDetailsSchema } from "./schemas";
+import { fieldErrors, testDetailsSchema, uploadFileProblem } from "./schemas";
 
 export interface UploadState {
   errors?: Record<string, string>;
   /** The file is kept on the server even when the details need fixing. */
   uploadId?: number;
   fileName?: string;
+  /**
+   * Every string field as submitted (text, number, select, checked checkbox and radio values), so a refused upload
+   * shows the form exactly as the user left it.
+   */
   values?: Record<string, string>;
+  /** Counts the refused submissions; the form is rebuilt from `values` each time it changes. */
+  attempt?: number;
 }
 
-const MAX_BYTES = 20 * 1024 * 1024;
+/**
+ * A browser sends a file input with nothing chosen as an empty file part with an empty file name. A plain form post
+ * reads back as a file named "", a post from the page's script as one named "undefined" (the multipart reader drops
+ * the empty name and Node names such a file "undefined"). A chosen file always has a name, so an empty one is refused
+ * as empty (`uploadFileProblem`).
+ */
+const nothingChosen = (file: File) => file.size === 0 && (file.name === "" || file.name === "undefined");
 
-export async function uploadTest(_prev: UploadState, form: FormData): Promise<UploadState> {
+export async function uploadTest(prev: UploadState, form: FormData): Promise<UploadState> {
   const values: Record<string, string> = {};
   for (const [k, v] of form.entries()) if (typeof v === "string") values[k] = v;
+  const attempt = (prev?.attempt ?? 0) + 1;
 
   // 1. Keep the file first, whatever else is wrong, so nothing the user sent is lost.
   let uploadId = values.uploadId ? Number(values.uploadId) : undefined;
   let fileName = values.uploadFileName || undefined;
+  // a file kept from an earlier submit stays kept when a newly chosen one is refused
+  const kept = uploadId ? { uploadId, fileName } : {};
   const file = form.get("file");
-  if (file instanceof File && file.size > 0) {
-    if (file.size > MAX_BYTES)
-      return { errors: { file: "The file is larger than 20 MB; export a shorter period or fewer columns." }, values };
+  if (file instanceof File && !nothingChosen(file)) {
+    // the same words as the browser's check (app/schemas.ts); the server-action body limit sits above this one
+    const problem = uploadFileProblem(file);
+    if (problem) return { errors: { file: problem }, ...kept, values, attempt };
     const bytes = new Uint8Array(await file.arrayBuffer());
     uploadId = saveUpload(file.name, bytes).id;
     fileName = file.name;
   }
-  if (!uploadId) return { errors: { file: "Choose a breath-by-breath or stage file to upload." }, values };
+  if (!uploadId) return { errors: { file: "Choose a breath-by-breath or stage file to upload." }, values, attempt };
 
   // 2. Validate the details; on failure the kept file is reused on the next submit.
   const parsed = testDetailsSchema.safeParse(values);
-  if (!parsed.success) return { errors: fieldErrors(parsed.error), uploadId, fileName, values };
+  if (!parsed.success) return { errors: fieldErrors(parsed.error), uploadId, fileName, values, attempt };
   const d = parsed.data;
   // Mapping profile picked on the form: its column choices are applied as "set by user".
   const profile = values.profile ? getProfile(values.profile) : null;
   if (values.profile && !profile)
-    return { errors: { profile: `There is no mapping profile named "${values.profile}".` }, uploadId, fileName, values };
+    return {
+      errors: { profile: `There is no mapping profile named "${values.profile}".` },
+      uploadId,
+      fileName,
+      values,
+      attempt,
+    };
 
   const stored = getUploadBytes(uploadId);
-  if (!stored) return { errors: { file: "The kept file could not be found; upload it again." }, values };
+  if (!stored) return { errors: { file: "The kept file could not be found; upload it again." }, values, attempt };
   const bytes = new Uint8Array(stored.bytes);
   const patient = {
     sex: d.sex === "" ? undefined : d.sex,

@@ -54,3 +54,49 @@ export function fieldErrors(error: z.ZodError): Record<string, string> {
   }
   return out;
 }
+
+/**
+ * Largest exercise-test file the upload form accepts, bytes: 20 MB (20 × 1024 × 1024, the same "MB" the server's body
+ * limit uses). A breath-by-breath export of a 2-hour test is a few MB, so 20 MB leaves a wide margin. The form checks it
+ * in the browser before sending and `uploadTest` checks it again on the server.
+ */
+export const MAX_UPLOAD_BYTES = 20 * 1024 * 1024;
+
+/** The limit in words, as the messages give it ("20 MB"). */
+export const MAX_UPLOAD_WORDS = `${MAX_UPLOAD_BYTES / (1024 * 1024)} MB`;
+
+/**
+ * Server-action body limit (`next.config.ts`), bytes: the largest file plus 1 MB for the form's other fields and the
+ * multipart framing, so a file at the limit always reaches `uploadTest` and gets its plain message there.
+ */
+export const UPLOAD_BODY_LIMIT_BYTES = MAX_UPLOAD_BYTES + 1024 * 1024;
+
+/** A byte count with its digits grouped ("22,020,096"), the same in every locale. */
+const groupedBytes = (bytes: number) => String(bytes).replace(/\B(?=(\d{3})+(?!\d))/g, ",");
+
+/**
+ * A file size in plain words: "0 bytes", "1 byte", "512 bytes", "3.4 KB", "21.0 MB" (KB and MB of 1024).
+ * A size shown in MB that would round to the limit's own figure while being over it also gives the exact bytes.
+ */
+export function formatFileSize(bytes: number): string {
+  if (bytes < 1024) return `${bytes} ${bytes === 1 ? "byte" : "bytes"}`;
+  if (bytes < 1024 * 1024) return `${(bytes / 1024).toFixed(1)} KB`;
+  const mb = (bytes / (1024 * 1024)).toFixed(1);
+  return bytes > MAX_UPLOAD_BYTES && Number(mb) <= MAX_UPLOAD_BYTES / (1024 * 1024)
+    ? `${mb} MB (${groupedBytes(bytes)} bytes)`
+    : `${mb} MB`;
+}
+
+/**
+ * What is wrong with a chosen upload file's size, in plain words, or null when it can be sent: an empty file (0 bytes)
+ * or one larger than `MAX_UPLOAD_BYTES`. A file exactly at the limit is accepted. Used by the form in the browser and by
+ * `uploadTest` on the server, so both give the same words.
+ */
+export function uploadFileProblem(file: { name: string; size: number }): string | null {
+  const name = file.name || "the chosen file";
+  if (file.size === 0)
+    return `The chosen file ${name} is empty (0 bytes). Choose the exported test file again; if it is empty on disk too, export the test again from the recording system.`;
+  if (file.size > MAX_UPLOAD_BYTES)
+    return `The chosen file ${name} is ${formatFileSize(file.size)}, larger than the ${MAX_UPLOAD_WORDS} limit. Export the test again with fewer columns or without the long periods before and after it (a breath-by-breath export of a 2-hour test is a few MB).`;
+  return null;
+}

@@ -3,6 +3,13 @@
 import { useActionState, useEffect, useState } from "react";
 import { ErgometerReferralFields } from "./ErgometerReferralFields";
 import { uploadTest, type UploadState } from "../actions";
+import { uploadFileProblem } from "../schemas";
+
+/** The chosen file's size problem (empty, or over the upload limit) in plain words, or null. */
+function chosenFileProblem(input: HTMLInputElement | null): string | null {
+  const file = input?.files?.[0];
+  return file ? uploadFileProblem(file) : null;
+}
 
 export function UploadForm() {
   const [state, action, pending] = useActionState<UploadState, FormData>(uploadTest, {});
@@ -14,19 +21,66 @@ export function UploadForm() {
       .then((names: string[]) => setProfileNames(names))
       .catch(() => setProfileNames([]));
   }, []);
+  // A refused upload returns every field as sent (`state.values`). The form is built afresh from them after each refusal
+  // (the key), so selects, checkboxes and radio buttons show what the user chose, as text fields do: a select keeps the
+  // option it was first drawn with when only its default value changes.
+  return <UploadFields key={state.attempt ?? 0} state={state} action={action} pending={pending} profileNames={profileNames} />;
+}
+
+function UploadFields({
+  state,
+  action,
+  pending,
+  profileNames,
+}: {
+  state: UploadState;
+  action: (form: FormData) => void;
+  pending: boolean;
+  profileNames: string[];
+}) {
+  // The browser's check of the chosen file (empty, or over the upload limit): shown at once, and it stops the form from
+  // being sent, so nothing typed or chosen is lost and no oversize request reaches the server.
+  const [fileProblem, setFileProblem] = useState<string | null>(null);
   const v = state.values ?? {};
   const err = state.errors ?? {};
+  const fileError = fileProblem ?? err.file;
   return (
-    <form action={action} className="stack" data-testid="upload-form">
+    <form
+      action={action}
+      className="stack"
+      data-testid="upload-form"
+      // while the file is read, typing would be overwritten by the fields as sent when the answer comes back
+      inert={pending}
+      aria-busy={pending}
+      onSubmit={(e) => {
+        const problem = chosenFileProblem(e.currentTarget.elements.namedItem("file") as HTMLInputElement | null);
+        if (problem) {
+          e.preventDefault();
+          setFileProblem(problem);
+        }
+      }}
+    >
       <label>
         Exercise test file (CSV, TSV, semicolon, XLSX)
-        <input type="file" name="file" data-testid="upload-file" accept=".csv,.tsv,.txt,.xlsx" />
+        <input
+          type="file"
+          name="file"
+          data-testid="upload-file"
+          accept=".csv,.tsv,.txt,.xlsx"
+          aria-invalid={fileError ? true : undefined}
+          aria-describedby={fileError ? "upload-file-error" : undefined}
+          onChange={(e) => setFileProblem(chosenFileProblem(e.currentTarget))}
+        />
         {state.uploadId ? (
           <span className="how" data-testid="upload-kept">
             Kept on the server: {state.fileName}. Fix the fields below and submit again; you do not need to choose the file again.
           </span>
         ) : null}
-        {err.file ? <span className="sev-error">{err.file}</span> : null}
+        {fileError ? (
+          <span className="sev-error" id="upload-file-error" role="alert" data-testid="upload-file-error">
+            {fileError}
+          </span>
+        ) : null}
       </label>
       {state.uploadId ? <input type="hidden" name="uploadId" value={state.uploadId} /> : null}
       {state.fileName ? <input type="hidden" name="uploadFileName" value={state.fileName} /> : null}

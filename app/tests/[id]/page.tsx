@@ -13,6 +13,7 @@ import {
   veVco2BandEndsWords,
   type ThresholdEstimate,
 } from "@/lib/thresholds";
+import { AVERAGED_ROW_INTERVAL_S, medianRowIntervalS } from "@/lib/signal";
 import { displayUnit, formatClock, formatNumber } from "@/lib/units";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { getTest, listAnalysisVersions } from "@/lib/store/tests";
@@ -44,6 +45,20 @@ const nb = (value: string, unit: string) => (value === "—" ? value : `${value}
 
 /** Effort criterion outcome in plain words. */
 const OUTCOME_WORD = (o: boolean | null) => (o === true ? "met" : o === false ? "not met" : "not assessable");
+
+/**
+ * What the file's rows are, with their count, for the test header: "12 stages", "110 rows, about 10-s time averages" when
+ * the rows are 6 s or more apart (time averages exported by the cart, the same rule and spacing as the analysis,
+ * lib/signal/rowSpacing.ts), else "740 breaths".
+ */
+function rowCountWords(table: { shape: string; rows: readonly { timeS: number }[] }): string {
+  const n = table.rows.length;
+  if (table.shape === "stage") return `${n} ${n === 1 ? "stage" : "stages"}`;
+  const intervalS = medianRowIntervalS(table.rows.map((r) => r.timeS));
+  if (intervalS >= AVERAGED_ROW_INTERVAL_S)
+    return `${n} ${n === 1 ? "row" : "rows"}, about ${Math.round(intervalS)}-s time averages`;
+  return `${n} ${n === 1 ? "breath" : "breaths"}`;
+}
 
 const AVERAGING_KEY: Record<string, string> = {
   none: "none",
@@ -123,9 +138,8 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       <h1 data-testid="test-title">{test.label}</h1>
       <p className="how">
         {p.sex ?? "sex not given"}, {p.ageY ?? "?"} y, {p.heightCm ?? "?"} cm, {p.weightKg ?? "?"} kg · {erg} · referral:{" "}
-        {record.referral} · file {test.fileName} ({record.table.rows.length}{" "}
-        {record.table.shape === "breath" ? "breaths" : "stages"}) · analysis version {versions[0]?.version ?? "lab defaults"} ·
-        engine {result.engineVersion}
+        {record.referral} · file {test.fileName} (<span data-testid="row-count">{rowCountWords(record.table)}</span>) · analysis
+        version {versions[0]?.version ?? "lab defaults"} · engine {result.engineVersion}
       </p>
       <p className="row">
         <Link href={`/tests/${testId}/report`} data-testid="report-link">
