@@ -241,6 +241,9 @@ export function toInterpretInput(
       mvv: indices.breathingReserve.mvvLMin.provenance.label,
     },
     reasons,
+    // the slope "to VT2" is named for what it was fitted to (the RCP, the whole exercise, or a break the fit placed), in
+    // rule texts and the draft as in the values table
+    names: { veVco2SlopeToRcp: slopeToVt2Name(indices.veVco2.slopeToVt2) },
     uncertainty,
   };
 }

@@ -1,6 +1,7 @@
 import { makeIssue, type Issue } from "../core";
-import { dedupeUses, evaluateCondition, type EvalContext } from "./evaluateCondition";
-import { unique, weakestStatus } from "./format";
+import { conditionVariables, dedupeUses, evaluateCondition, variableLabel, type EvalContext } from "./evaluateCondition";
+import { formatCutoff, formatValue, unique, weakestStatus } from "./format";
+import { variableInfo } from "./variables";
 import { runGraph } from "./runGraph";
 import type { AxisData, BandData, SchemeData } from "./schema";
 import type { ChoiceUse, EffortResult, ReferralQuestion, SchemeAxisResult, SchemeResult } from "./types";
@@ -90,32 +91,74 @@ function categoryWith(bands: BandData[], alt: EvalContext): BandData | null {
 
 /**
  * Where an end of a measurement's uncertainty band (`EvalContext.bandEnds`) falls in another category of this axis, in
- * words ("the VT1 band 731–902 mL/min reaches Class C (…)"); "" when every band stays in `key`. The value decides the
- * category; this only says how near a boundary it lies, as the clinician reading a class near a cut-off would ask.
+ * words ("the VT1 band 731–902 mL/min (VO2 at VT1 9.1–11.3 mL/kg/min) reaches Class B (…)"); or, when both ends stay in
+ * the category but on the other side of one of its cut-offs (a category reached by more than one route, e.g. the
+ * three-tier pre-operative scheme's "AT < 8, or two or more risk factors"), which cut-off the band crosses; "" when the
+ * whole band stays on the value's side of every cut-off. The value decides the category; this only says how near a
+ * boundary it lies, as the clinician reading a class near a cut-off would ask. The band is named in the units the axis
+ * grades (the VT1 band per kg where the axis reads mL/kg/min).
  */
 function bandReaches(bands: BandData[], ctx: EvalContext, key: string): string {
   const parts: string[] = [];
+  const placed = bands.find((b) => b.key === key);
+  const read = new Set(bands.flatMap((b) => [...conditionVariables(b.when, ctx)]));
   for (const end of ctx.bandEnds ?? []) {
-    const other = [categoryWith(bands, end.low), categoryWith(bands, end.high)]
+    const ends = [end.low, end.high];
+    const other = ends
+      .map((e) => categoryWith(bands, e))
       .filter((b): b is BandData => b !== null && b.key !== key)
       .map((b) => b.label);
-    if (other.length > 0) {
-      const detail = end.detail && end.detail.variables.some((name) => bandsRead(bands, name)) ? ` (${end.detail.words})` : "";
-      parts.push(`the ${end.words}${detail} reaches ${unique(other).join(" and ")}`);
-    }
+    const crossed = other.length === 0 && placed ? crossedCutoffs(placed, ctx, ends) : [];
+    if (other.length === 0 && crossed.length === 0) continue;
+    const shown = [...read].flatMap((name) => bandEndWords(ctx, end, name));
+    if (end.detail && end.detail.variables.some((name) => read.has(name))) shown.push(end.detail.words);
+    const named = `the ${end.words}${shown.length ? ` (${shown.join("; ")})` : ""}`;
+    parts.push(
+      other.length > 0
+        ? `${named} reaches ${unique(other).join(" and ")}`
+        : `${named} crosses the cut-off ${crossed.join(" and ")} (same category at both ends)`,
+    );
   }
   return parts.join("; ");
 }
 
-/** True when a band's condition reads the variable `name` itself (a `var` anywhere in its tree). */
-function bandsRead(bands: readonly BandData[], name: string): boolean {
-  const reads = (node: unknown): boolean =>
-    Array.isArray(node)
-      ? node.some(reads)
-      : typeof node === "object" && node !== null
-        ? Object.entries(node).some(([k, v]) => (k === "var" && v === name) || reads(v))
-        : false;
-  return bands.some((b) => reads(b.when));
+/**
+ * The cut-offs of a band's condition that an end of an uncertainty band lies on the other side of, although the end
+ * stays in the band: "VO2 at VT1 8.0 mL/kg/min". Comparisons are matched by position (the same condition is evaluated
+ * in full at the value and at each end).
+ */
+function crossedCutoffs(band: BandData, ctx: EvalContext, ends: readonly EvalContext[]): string[] {
+  const atValue = evaluateCondition(band.when, ctx).comparisons;
+  const out: string[] = [];
+  for (const e of ends) {
+    if (categoryWith([band], e)?.key !== band.key) continue;
+    evaluateCondition(band.when, e).comparisons.forEach((c, i) => {
+      const v = atValue[i];
+      if (!v || v.variable !== c.variable || typeof c.cutoff !== "number") return;
+      if (v.outcome === null || c.outcome === null || v.outcome === c.outcome) return;
+      const unit = variableInfo(c.variable).unit;
+      out.push(`${variableLabel(ctx, c.variable)} ${formatCutoff(c.variable, c.cutoff)}${unit ? ` ${unit}` : ""}`);
+    });
+  }
+  return unique(out);
+}
+
+/**
+ * A variable the axis grades, at the two ends of a band that moves it, when the band's own words do not already give
+ * it: ["VO2 at VT1 7.7–10.1 mL/kg/min"]; [] otherwise (the variable given by `detail` is said there).
+ */
+function bandEndWords(ctx: EvalContext, end: NonNullable<EvalContext["bandEnds"]>[number], name: string): string[] {
+  if (end.detail?.variables.includes(name)) return [];
+  const [lo, hi] = [end.low.vars[name], end.high.vars[name]];
+  const info = variableInfo(name);
+  if (typeof lo !== "number" || typeof hi !== "number" || info.kind !== "number") return [];
+  if (lo === ctx.vars[name] && hi === ctx.vars[name]) return [];
+  const range =
+    formatValue(name, lo) === formatValue(name, hi)
+      ? formatValue(name, lo)
+      : `${formatValue(name, Math.min(lo, hi))}–${formatValue(name, Math.max(lo, hi))}`;
+  if (end.words.includes(range)) return [];
+  return [`${variableLabel(ctx, name)} ${range}${info.unit ? ` ${info.unit}` : ""}`];
 }
 
 function noCategoryReason(mode: string, axes: readonly SchemeAxisResult[]): string {

@@ -66,6 +66,13 @@ const REFERRAL_TEXT: Record<ReferralQuestion, string> = {
   training: "Assessment of fitness and intensity domains for exercise training.",
 };
 
+/**
+ * The plain note beside every heart rate compared with a predicted maximum (% predicted, HR reserve, chronotropic index)
+ * when the patient takes a beta-blocker: predicted-HRmax equations do not describe a beta-blocked heart, so the value is
+ * shown but not read against them (common practice).
+ */
+export const BETA_BLOCKER_HR_NOTE = "on a beta-blocker: heart rate is not read against the age-predicted maximum";
+
 /** Words that already form a predicate ("set by …", "not determinable: …") and take "was", not "was found by". */
 const PREDICATE_START = /^(set|found|entered|placed|moved|chosen|taken|not)\b/i;
 
@@ -132,8 +139,14 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   }
   if (have(v.peakWorkW)) results.push(`Peak work rate ${val("peakWorkW", v.peakWorkW)}.`);
   if (have(v.peakHrBpm)) {
+    const against = [
+      ...(have(v.hrPctPred)
+        ? [`${formatValue("hrPctPred", v.hrPctPred)} % of predicted${pred.hrMax ? `, ${pred.hrMax}` : ""}`]
+        : []),
+      ...(input.patient.betaBlocker === true ? [BETA_BLOCKER_HR_NOTE] : []),
+    ];
     results.push(
-      `Peak heart rate ${val("peakHrBpm", v.peakHrBpm)}${have(v.hrPctPred) ? ` (${formatValue("hrPctPred", v.hrPctPred)} % of predicted${pred.hrMax ? `, ${pred.hrMax}` : ""})` : ""}${have(v.hrr1Bpm) ? `; recovery at 1 min ${val("hrr1Bpm", v.hrr1Bpm)}` : ""}.`,
+      `Peak heart rate ${val("peakHrBpm", v.peakHrBpm)}${against.length ? ` (${against.join("; ")})` : ""}${have(v.hrr1Bpm) ? `; recovery at 1 min ${val("hrr1Bpm", v.hrr1Bpm)}` : ""}.`,
     );
   }
   if (have(v.o2PulsePeakMlBeat)) {
@@ -144,7 +157,12 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   const slopes: string[] = [];
   if (have(v.veVco2SlopeWhole))
     slopes.push(`VE/VCO2 slope ${formatValue("veVco2SlopeWhole", v.veVco2SlopeWhole)} (whole exercise)`);
-  if (have(v.veVco2SlopeToRcp)) slopes.push(`${formatValue("veVco2SlopeToRcp", v.veVco2SlopeToRcp)} (to RCP)`);
+  // named for what it was fitted to (`InterpretInput.names`: the RCP, the whole exercise or a break the fit placed), as
+  // the values table names it; never "to RCP" when no RCP was found
+  if (have(v.veVco2SlopeToRcp))
+    slopes.push(
+      `${input.names?.veVco2SlopeToRcp ?? variableInfo("veVco2SlopeToRcp").label} ${formatValue("veVco2SlopeToRcp", v.veVco2SlopeToRcp)}`,
+    );
   if (have(v.veVco2Nadir)) slopes.push(`nadir VE/VCO2 ${formatValue("veVco2Nadir", v.veVco2Nadir)}`);
   if (have(v.oues)) slopes.push(`OUES ${val("oues", v.oues)}`);
   if (have(v.petco2RestMmHg)) slopes.push(`resting PETCO2 ${val("petco2RestMmHg", v.petco2RestMmHg)}`);

@@ -3,7 +3,7 @@ import type { InterpretationData } from "./interpretationData";
 import type { ChoiceOptionSchema, Condition } from "./schema";
 import type { ChoiceUse, ComparisonTrace, Outcome, PredictedEquationLabels, RuleResult } from "./types";
 import { variableInfo } from "./variables";
-import { OP_TEXT, categoryText, formatCutoff, formatValue, formatValueAgainst, unique, weakestStatus } from "./format";
+import { OP_TEXT, categoryText, formatCutoff, formatValue, nearCutoffNote, unique, weakestStatus } from "./format";
 import type { z } from "zod";
 
 export type VarValue = number | string | boolean | null;
@@ -18,6 +18,11 @@ export interface EvalContext {
   predicted: PredictedEquationLabels;
   /** Why a variable is missing (`InterpretInput.reasons`), by variable name. */
   reasons: Readonly<Record<string, string>>;
+  /**
+   * What a value was measured as, by variable name, where that differs from the variable's usual label
+   * (`InterpretInput.names`, e.g. the VE/VCO2 slope to a break the fit placed when no RCP was found).
+   */
+  names?: Readonly<Record<string, string>>;
   /** Memo of rule results (rules are pure functions of vars and choices). */
   ruleCache: Map<string, RuleResult>;
   /**
@@ -80,7 +85,7 @@ function comparisonText(
   op: string,
   cutoff: ComparisonTrace["cutoff"],
 ): string {
-  const info = variableInfo(variable);
+  const info = { ...variableInfo(variable), label: variableLabel(ctx, variable) };
   const unit = info.unit ? ` ${info.unit}` : "";
   const pred = info.predictedKey && ctx.predicted[info.predictedKey] ? ` (${ctx.predicted[info.predictedKey]})` : "";
   if (value === null) {
@@ -95,11 +100,14 @@ function comparisonText(
     const matches = op === "==" || op === "in";
     return matches ? `${info.label}: ${says(value)}` : `${info.label}: ${says(value)}, not ${listed}`;
   }
-  const shown =
-    typeof value === "number" && typeof cutoff === "number"
-      ? formatValueAgainst(variable, value, cutoff)
-      : formatValue(variable, value);
-  return `${info.label} ${shown}${unit}${pred} ${OP_TEXT[op]} ${formatCutoff(variable, cutoff as number)}${unit}`;
+  // the value at its display decimals; when rounding hides its side of the cut-off, the side in words
+  const side = typeof value === "number" && typeof cutoff === "number" ? nearCutoffNote(variable, value, cutoff) : "";
+  return `${info.label} ${formatValue(variable, value)}${unit}${pred}${side} ${OP_TEXT[op]} ${formatCutoff(variable, cutoff as number)}${unit}`;
+}
+
+/** A variable's label in this context: what the value was measured as (`EvalContext.names`), else its usual label. */
+export function variableLabel(ctx: Pick<EvalContext, "names">, variable: string): string {
+  return ctx.names?.[variable] ?? variableInfo(variable).label;
 }
 
 /**
@@ -195,7 +203,7 @@ export function evaluateCondition(cond: Condition, ctx: EvalContext): ConditionR
   // The text always states what is true of the patient: a failed comparison shows the negated operator.
   const text = comparisonText(ctx, variable, value, outcome === false ? NEGATED[cond.op] : cond.op, cutoff);
   const info = variableInfo(variable);
-  comparisons.push({ variable, label: info.label, unit: info.unit, value, op: cond.op, cutoff, outcome, text });
+  comparisons.push({ variable, label: variableLabel(ctx, variable), unit: info.unit, value, op: cond.op, cutoff, outcome, text });
   const group =
     info.kind === "string" && outcome === true && cond.op === "==" && value !== null ? info.groups?.[String(value)] : undefined;
   if (group) return { ...done(outcome, group), qualifier: true };

@@ -26,16 +26,18 @@ export function formatValue(variable: string, value: number | string | boolean |
 }
 
 /**
- * A value shown beside a cut-off: with the variable's decimals, or with up to three more when those would show it equal
- * to a cut-off it is not ("Peak RER 1.054 > 1.05", not "1.05 > 1.05"; a value that equals the cut-off stays as it is).
+ * Which side of a cut-off a value lies on when the value at its display decimals does not show it. Values beside a
+ * cut-off keep the variable's display decimals like everywhere else (more would be spurious precision: a
+ * breath-by-breath "4.01" is not known to the hundredth), and the side is said in words (common practice):
+ * " (just above the cut-off)" for 4.01 against 4 (shown "4.0"), " (just below the cut-off)" for 1.046 against 1.05
+ * (shown "1.05"); "" when the rounded value already reads on its own side, or equals the cut-off.
  */
-export function formatValueAgainst(variable: string, value: number, cutoff: number): string {
-  const base = variableInfo(variable).decimals ?? 0;
-  const shown = formatNumber(value, base);
-  if (value === cutoff || shown !== formatCutoff(variable, cutoff)) return shown;
-  for (let d = base + 1; d <= base + 3; d++)
-    if (formatNumber(value, d) !== formatNumber(cutoff, d)) return formatNumber(value, d);
-  return shown;
+export function nearCutoffNote(variable: string, value: number, cutoff: number): string {
+  if (!Number.isFinite(value) || value === cutoff) return "";
+  const shown = Number(value.toFixed(variableInfo(variable).decimals ?? 0));
+  if (value > cutoff && !(shown > cutoff)) return " (just above the cut-off)";
+  if (value < cutoff && !(shown < cutoff)) return " (just below the cut-off)";
+  return "";
 }
 
 /** A cut-off for display: at least the variable's decimals, never fewer than the literal has. */

@@ -3,6 +3,7 @@ export * from "./variables";
 export { interpret, makeContext } from "./interpret";
 export {
   composeDraft,
+  BETA_BLOCKER_HR_NOTE,
   DRAFT_BANNER,
   COMPOSED_TEXT_CAUTION,
   type DraftExtras,
@@ -20,4 +21,4 @@ export {
 } from "./interpretationData";
 export { INTERPRET_SOURCES } from "./sources";
 export { UNCOMBINED_SCHEME_TEXT } from "./applySchemes";
-export { formatValueAgainst } from "./format";
+export { nearCutoffNote } from "./format";

@@ -26,6 +26,9 @@ export function makeContext(
     reasons: Object.fromEntries(
       Object.entries(input.reasons ?? {}).filter((e): e is [string, string] => typeof e[1] === "string" && e[1] !== ""),
     ),
+    names: Object.fromEntries(
+      Object.entries(input.names ?? {}).filter((e): e is [string, string] => typeof e[1] === "string" && e[1] !== ""),
+    ),
     ruleCache: new Map(),
   };
   // one context per end of each band, sharing everything but the variables (and the rule memo, a function of them)

@@ -148,6 +148,13 @@ export interface InterpretInput {
    */
   reasons?: Partial<Record<keyof InterpretValues, string>>;
   /**
+   * What a value was measured as, by value name, where that differs from the variable's usual label: e.g.
+   * `veVco2SlopeToRcp` named "VE/VCO2 slope to a fitted break (RCP not determinable)" when no RCP was found
+   * (`slopeToVt2Name` in the thresholds layer). Rule texts and the draft use it in place of the label, so a value is
+   * called the same everywhere it is shown.
+   */
+  names?: Partial<Record<keyof InterpretValues, string>>;
+  /**
    * Measurements that carry an uncertainty band: the values at each end of the band (every value that moves with it,
    * e.g. VT1 in mL/min, per kg and as % of predicted peak VO2). A scheme whose category would differ at an end of the
    * band says so beside its category; nothing else reads them.

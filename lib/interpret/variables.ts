@@ -93,7 +93,8 @@ export const VARIABLES = {
   dlcoPctPred: { label: "DLCO", unit: "% predicted", kind: "number", predictedKey: "dlco" },
   // gas exchange
   spo2RestPct: { label: "Resting SpO2", unit: "%", kind: "number" },
-  spo2Fall: { label: "SpO2 fall from rest", unit: "% points", kind: "number" },
+  // one decimal, as the indices show the fall (a difference of averaged readings); common practice
+  spo2Fall: { label: "SpO2 fall from rest", unit: "% points", kind: "number", decimals: 1 },
   spo2Min: { label: "Lowest SpO2 during exercise", unit: "%", kind: "number" },
   paO2: { label: "Peak PaO2", unit: "mmHg", kind: "number" },
   vdvtPeak: { label: "Peak VD/VT", unit: "", kind: "number", decimals: 2 },

@@ -22,6 +22,8 @@ export function analysisCharts(result: AnalysisResult): ChartSpec[] {
   const vt1 = result.thresholds.vt1;
   const vt2 = result.thresholds.vt2;
   const time = col(rows, "timeS");
+  // a threshold a reviewer set is labelled so on every chart (never read as the automatic estimate)
+  const setByReviewer = { vt1: vt1.overridden !== undefined, vt2: vt2.overridden !== undefined };
   const ratio = (a: keyof BreathRow, b: keyof BreathRow, scale: number) =>
     rows.map((r) =>
       typeof r[a] === "number" && typeof r[b] === "number" && (r[b] as number) > 0
@@ -37,6 +39,7 @@ export function analysisCharts(result: AnalysisResult): ChartSpec[] {
       workW: col(rows, "workW"),
       vt1TimeS: vt1.timeS,
       vt2TimeS: vt2.timeS,
+      setByReviewer,
       spans: test.phases.map((p) => ({ startS: p.startS, endS: p.endS, label: p.phase })),
     }),
   ];
@@ -47,6 +50,7 @@ export function analysisCharts(result: AnalysisResult): ChartSpec[] {
         vco2MlMin: col(exRows, "vco2MlMin"),
         vt1Vo2MlMin: vt1.vo2MlMin.value,
         fit: vSlopeLines(result, rows),
+        vt1SetByReviewer: setByReviewer.vt1,
       }),
     );
   }
@@ -58,6 +62,7 @@ export function analysisCharts(result: AnalysisResult): ChartSpec[] {
         veVco2: ratio("veLMin", "vco2MlMin", 1000),
         vt1TimeS: vt1.timeS,
         vt2TimeS: vt2.timeS,
+        setByReviewer,
       }),
     );
     const slope = result.indices.veVco2.slopeToVt2;
@@ -71,6 +76,7 @@ export function analysisCharts(result: AnalysisResult): ChartSpec[] {
             ? { slope: slope.slope.value, interceptLMin: slope.intercept.value, label: slopeToVt2Name(slope) }
             : null,
         vt2Vco2MlMin: vt2Vco2 ?? null,
+        setByReviewer,
       }),
     );
   }
@@ -82,6 +88,7 @@ export function analysisCharts(result: AnalysisResult): ChartSpec[] {
         petco2MmHg: col(rows, "petco2MmHg"),
         vt1TimeS: vt1.timeS,
         vt2TimeS: vt2.timeS,
+        setByReviewer,
       }),
     );
   }

@@ -1,5 +1,5 @@
 import type { ComparisonTrace } from "../interpret";
-import { formatValueAgainst, variableInfo } from "../interpret";
+import { nearCutoffNote, variableInfo } from "../interpret";
 import { formatNumber } from "../units";
 
 /**
@@ -42,10 +42,9 @@ export function formatComparisonValue(c: ComparisonTrace): string {
   if (c.value === null || c.value === undefined) return `${c.label}: not available`;
   if (typeof c.value === "boolean") return booleanPhrase(c.variable, c.label, c.value);
   if (typeof c.value === "string") return `${c.label}: ${c.value}`;
-  // beside a numeric cut-off, a value that rounds to it shows the decimal that tells them apart ("1.054", not "1.05")
-  const shown =
-    typeof c.cutoff === "number" ? formatValueAgainst(c.variable, c.value, c.cutoff) : formatNumber(c.value, info.decimals ?? 0);
-  return `${c.label} ${withUnit(shown, c.unit)}`;
+  // display decimals; beside a numeric cut-off that the rounding hides, the side in words ("1.05 (just above the cut-off)")
+  const side = typeof c.cutoff === "number" ? nearCutoffNote(c.variable, c.value, c.cutoff) : "";
+  return `${c.label} ${withUnit(formatNumber(c.value, info.decimals ?? 0), c.unit)}${side}`;
 }
 
 /**

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { interpret, type InterpretInput, type InterpretValues } from "../../lib/interpret";
+import { INTERPRETATION_DATA, interpret, type InterpretInput, type InterpretValues } from "../../lib/interpret";
 import { baseInput } from "./helpers";
 
 // A scheme's category is decided by the value; where an end of the value's calibrated band falls in another category
@@ -42,7 +42,10 @@ describe("a category near a cut-off", () => {
       },
     ]);
     const at = s.axes.find((a) => a.category?.key === "C" && /AT/.test(a.category.label))!;
-    expect(at.bandReaches).toMatch(/VT1 band 731–902 mL\/min reaches Class B/);
+    // named in the unit the class is graded in: 731/80 = 9.1, 902/80 = 11.3 mL/kg/min
+    expect(at.bandReaches).toBe(
+      "the VT1 band 731–902 mL/min (VO2 at VT1 9.1–11.3 mL/kg/min) reaches Class B (AT 11.0-14.0 mL/kg/min)",
+    );
   });
 });
 
@@ -72,7 +75,7 @@ describe("VE/VCO2 at VT1 moves with the VT1 band", () => {
     ]);
     // Wilson 2010 AT cut-off ≤ 10.9 mL/kg/min: 11.2 is not beyond it, the band's low end 10.9 is
     const at = s.axes.find((a) => a.axisId === "wilson-2010-at")!;
-    expect(at.bandReaches).toMatch(/^the VT1 band 770–910 mL\/min reaches /);
+    expect(at.bandReaches).toMatch(/^the VT1 band 770–910 mL\/min \(VO2 at VT1 10\.9–13\.0 mL\/kg\/min\) reaches /);
     expect(at.bandReaches).not.toContain("VE/VCO2");
   });
 
@@ -141,5 +144,95 @@ describe("a flow step resting on a value near its cut-off", () => {
     const missing = atStep(38, [{ words: "VT1 band", low: { vt1PctPredPeakVo2: 36 }, high: { vt1PctPredPeakVo2: null } }]);
     expect(missing.outcome).toBe("low");
     expect(missing.borderline).toBeUndefined();
+  });
+});
+
+describe("every scheme row graded on the AT says when the VT1 band crosses one of its cut-offs", () => {
+  // Pre-operative three-tier scheme (AT < 8 mL/kg/min, or two of: AT 8–10.9, VE/VCO2 at AT > 34, ischaemic heart
+  // disease = high risk; clinical-reference S34, confirmed). INVENTED values shaped like the pre-operative demo: 82 kg,
+  // VT1 667 mL/min = 8.1 mL/kg/min with VE/VCO2 42.9; its band 635–826 mL/min = 7.7–10.1 mL/kg/min, VE/VCO2 40.8 and 38.0
+  // at its ends. High risk at 8.1 (two risk factors) and at 7.7 (AT < 8 alone): the category stays, the route changes.
+  const band = {
+    words: "VT1 band 635–826 mL/min",
+    low: { vt1Vo2MlMin: 635, vt1Vo2MlKgMin: 635 / 82, veVco2AtVt1: 40.8 },
+    high: { vt1Vo2MlMin: 826, vt1Vo2MlKgMin: 826 / 82, veVco2AtVt1: 38.0 },
+    detail: { variables: ["veVco2AtVt1" as const], words: "VE/VCO2 40.8 and 38.0 at its ends" },
+  };
+  const values = {
+    vt1Vo2MlMin: 667,
+    vt1Vo2MlKgMin: 667 / 82,
+    veVco2AtVt1: 42.9,
+    peakVo2MlKgMin: 14.9,
+    ischaemicHeartDisease: false,
+  };
+
+  it("three-tier: a band crossing 8 mL/kg/min inside 'high risk' names the cut-off it crosses, in mL/kg/min", () => {
+    const tier = schemeWith("preop-three-tier", values, [band]).axes[0];
+    expect(tier.category?.key).toBe("high");
+    expect(tier.bandReaches).toBe(
+      "the VT1 band 635–826 mL/min (VO2 at VT1 7.7–10.1 mL/kg/min; VE/VCO2 40.8 and 38.0 at its ends) crosses the cut-off VO2 at VT1 8.0 mL/kg/min (same category at both ends)",
+    );
+    expect(tier.text).toContain("; the VT1 band 635–826 mL/min");
+  });
+
+  it("rows whose cut-offs (10.6–11.1 mL/kg/min) lie outside the band 7.7–10.1 say nothing", () => {
+    const older = schemeWith("preop-older-1993", values, [band]);
+    const published = schemeWith("preop-published-thresholds", values, [band]);
+    expect(older.axes.find((a) => a.axisId === "at")!.bandReaches).toBeUndefined();
+    for (const id of ["wilson-2010-at", "west-2016-at", "west-2014-rectal-at", "lai-2013"])
+      expect(published.axes.find((a) => a.axisId === id)!.bandReaches).toBeUndefined();
+  });
+
+  // Every axis of every scheme that grades VO2 at VT1 per kg, at every cut-off it uses (read from schemes.json):
+  // the value 0.2 mL/kg/min above the cut-off, its band 0.3 below to 0.5 above, so the band straddles the cut-off by
+  // construction. Other inputs invented so that every axis applies (ischaemic heart disease known; VE/VCO2 at AT 30).
+  const numericCutoffs = (node: unknown, out: number[] = []): number[] => {
+    if (Array.isArray(node)) node.forEach((n) => numericCutoffs(n, out));
+    else if (node && typeof node === "object") {
+      const o = node as Record<string, unknown>;
+      if (o.var === "vt1Vo2MlKgMin" && typeof o.value === "number") out.push(o.value);
+      Object.values(o).forEach((v) => numericCutoffs(v, out));
+    }
+    return out;
+  };
+  const data = INTERPRETATION_DATA.schemes;
+  const bandSetOf = new Map(data.bandSets.map((b) => [b.id, b.bands]));
+  const cases = data.schemes.flatMap((s) =>
+    (s.axes ?? []).flatMap((a) =>
+      [...new Set(numericCutoffs(a.bands ?? bandSetOf.get(a.bandSet!)))].map((cut) => [s.id, a.id, cut] as const),
+    ),
+  );
+
+  it("finds the AT-graded rows (Weber, Older, three-tier, the published pre-operative thresholds)", () => {
+    const schemes = new Set(cases.map((c) => c[0]));
+    for (const id of ["weber", "preop-older-1993", "preop-three-tier", "preop-published-thresholds"])
+      expect(schemes).toContain(id);
+  });
+
+  it.each(cases)("%s / %s: a band across %s mL/kg/min is named beside the category", (schemeId, axisId, cut) => {
+    const at = cut + 0.2;
+    const s = schemeWith(
+      schemeId,
+      {
+        vt1Vo2MlMin: at * 80,
+        vt1Vo2MlKgMin: at,
+        veVco2AtVt1: 30,
+        peakVo2MlKgMin: 25,
+        ischaemicHeartDisease: true,
+        vt1Determined: true,
+      },
+      [
+        {
+          words: "VT1 band (invented)",
+          low: { vt1Vo2MlMin: (cut - 0.3) * 80, vt1Vo2MlKgMin: cut - 0.3 },
+          high: { vt1Vo2MlMin: (cut + 0.5) * 80, vt1Vo2MlKgMin: cut + 0.5 },
+        },
+      ],
+    );
+    const axis = s.axes.find((a) => a.axisId === axisId)!;
+    expect(axis.category).not.toBeNull();
+    expect(axis.bandReaches).toMatch(
+      /^the VT1 band \(invented\) \(VO2 at VT1 [\d.]+–[\d.]+ mL\/kg\/min\) (reaches|crosses the cut-off)/,
+    );
   });
 });

@@ -77,21 +77,34 @@ describe("condition wording", () => {
   });
 });
 
-// A value that rounds to its cut-off is shown with the decimals that tell them apart. Peak RER cut-off 1.05 as used in
-// rules.json (the effort criterion's value, cited there); the RER values are invented.
+// A value beside a cut-off keeps its display decimals (lib/interpret/variables.ts), and when the rounding hides which
+// side of the cut-off it lies on, the side is said in words (common practice). Peak RER cut-off 1.05 as used in
+// rules.json (the effort criterion's value, cited there); SpO2 fall ≥ 4 percentage points (Hadeli et al. 2001, as cited
+// in choices.json, confirmed). The values are invented.
 describe("a value that rounds to its cut-off", () => {
   const rer = (peakRer: number) =>
     evaluateCondition({ var: "peakRer", op: ">", value: 1.05 }, makeContext(baseInput({ peakRer })).ctx).text;
+  const fall = (spo2Fall: number) =>
+    evaluateCondition({ var: "spo2Fall", op: ">=", value: 4 }, makeContext(baseInput({ spo2Fall })).ctx).text;
 
-  it("shows the decimal that tells it from the cut-off, never '1.05 > 1.05'", () => {
-    expect(rer(1.054)).toBe("Peak RER 1.054 > 1.05");
+  it("shows the display decimals and says which side of the cut-off the value lies, never a bare '1.05 > 1.05'", () => {
+    expect(rer(1.054)).toBe("Peak RER 1.05 (just above the cut-off) > 1.05");
     // a condition that does not hold is written with the operator that does ("≤")
-    expect(rer(1.046)).toBe("Peak RER 1.046 ≤ 1.05");
-    expect(rer(1.0501)).toBe("Peak RER 1.0501 > 1.05");
+    expect(rer(1.046)).toBe("Peak RER 1.05 (just below the cut-off) ≤ 1.05");
+    expect(rer(1.0501)).toBe("Peak RER 1.05 (just above the cut-off) > 1.05");
+  });
+
+  it("SpO2 fall 4.01 reads 4.0 (one decimal, as the indices show it) and meets ≥ 4 in words; 3.96 reads 4.0 below it", () => {
+    expect(fall(4.01)).toBe("SpO2 fall from rest 4.0 % points (just above the cut-off) ≥ 4.0 % points");
+    expect(fall(3.96)).toBe("SpO2 fall from rest 4.0 % points (just below the cut-off) < 4.0 % points");
+    // no more decimals than the variable's, however close
+    expect(fall(4.0001)).not.toMatch(/4\.00/);
   });
 
   it("keeps the variable's decimals otherwise, and for a value equal to the cut-off", () => {
     expect(rer(1.12)).toBe("Peak RER 1.12 > 1.05");
     expect(rer(1.05)).toBe("Peak RER 1.05 ≤ 1.05");
+    expect(fall(4)).toBe("SpO2 fall from rest 4.0 % points ≥ 4.0 % points");
+    expect(fall(4.4)).toBe("SpO2 fall from rest 4.4 % points ≥ 4.0 % points");
   });
 });

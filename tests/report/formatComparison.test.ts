@@ -34,11 +34,22 @@ describe("formatComparisonValue / formatComparisonCutoff", () => {
     expect(formatComparisonValue(vo2kg)).toBe("Peak VO2 18.3 mL/kg/min");
   });
 
-  it("shows the decimal that tells a value from a cut-off it rounds to (Peak RER > 1.05, Radtke et al. 2019, confirmed)", () => {
-    // invented peak RER 1.054: at two decimals "1.05", the cut-off itself; with three, "1.054"
+  it("says which side of a cut-off a value lies when its display rounds to it (Peak RER > 1.05, Radtke et al. 2019, confirmed)", () => {
+    // invented peak RER 1.054: at its two display decimals "1.05", the cut-off itself; the side is said in words
     const near = trace({ variable: "peakRer", label: "Peak RER", unit: "", value: 1.054, op: ">", cutoff: 1.05 });
-    expect(formatComparisonValue(near)).toBe("Peak RER 1.054");
+    expect(formatComparisonValue(near)).toBe("Peak RER 1.05 (just above the cut-off)");
+    expect(formatComparisonValue({ ...near, value: 1.046 })).toBe("Peak RER 1.05 (just below the cut-off)");
     expect(formatComparisonValue({ ...near, value: 1.05 })).toBe("Peak RER 1.05");
+    // SpO2 fall ≥ 4 percentage points (Hadeli et al. 2001, as cited in choices.json, confirmed); invented fall 4.01
+    const fall = trace({
+      variable: "spo2Fall",
+      label: "SpO2 fall from rest",
+      unit: "% points",
+      value: 4.01,
+      op: ">=",
+      cutoff: 4,
+    });
+    expect(formatComparisonValue(fall)).toBe("SpO2 fall from rest 4.0 % points (just above the cut-off)");
   });
 
   it("writes cut-offs as a clinician reads them, keeping the published decimals", () => {

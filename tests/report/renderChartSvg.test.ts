@@ -199,6 +199,36 @@ describe("standard chart builders", () => {
     checkWellFormed(renderChartSvg(spec));
     expect(vSlopeChart({ vo2MlMin: [], vco2MlMin: [], fit: null }).series).toHaveLength(1);
   });
+  it("V-slope after a reviewer's VT1: the marker reads 'VT1 (reviewer)', the lines are named as the automatic fit", () => {
+    // the same invented lines (crossing at 1450 mL/min); the reviewer put VT1 at 1200 mL/min
+    const fit = {
+      s1: 0.95,
+      intercept1: -20,
+      s2: 1.35,
+      intercept2: -600,
+      fromVo2MlMin: 600,
+      crossVo2MlMin: 1450,
+      toVo2MlMin: 2400,
+    };
+    const spec = vSlopeChart({ vo2MlMin: [600, 2400], vco2MlMin: [550, 2640], vt1Vo2MlMin: 1200, fit, vt1SetByReviewer: true });
+    expect(spec.markers).toEqual([{ x: 1200, label: "VT1 (reviewer)", kind: "vt1" }]);
+    expect(spec.series[1].name).toBe("automatic V-slope fit (S1 0.95, S2 1.35; lines cross at 1450 mL/min)");
+    expect(spec.note).toBe("VT1 set by the reviewer; the lines are the automatic fit it replaces");
+    const svg = renderChartSvg(spec);
+    checkWellFormed(svg);
+    // the page and the PDF draw the same SVG: both words reach it
+    expect(svg).toContain(">VT1 (reviewer)</text>");
+    expect(svg).toContain("automatic V-slope fit");
+    // the time-based charts label the reviewer's marker the same way
+    const tc = timeCourseChart({
+      timeS: [0, 600],
+      vo2MlMin: [300, 2000],
+      vt1TimeS: 300,
+      vt2TimeS: 480,
+      setByReviewer: { vt1: true },
+    });
+    expect(tc.markers.map((m) => m.label)).toEqual(["VT1 (reviewer)", "VT2"]);
+  });
   it("time-based charts draw time in minutes (s / 60) and place VT markers in minutes", () => {
     const ve = ventilatoryEquivalentsChart({
       timeS,

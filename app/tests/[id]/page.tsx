@@ -3,7 +3,7 @@ import { notFound } from "next/navigation";
 import { analyse } from "@/lib/analysis";
 import type { Measured } from "@/lib/core";
 import { EQUATIONS } from "@/lib/predicted";
-import { listCutoffChoices } from "@/lib/interpret";
+import { BETA_BLOCKER_HR_NOTE, listCutoffChoices } from "@/lib/interpret";
 import { analysisCharts, bandNote } from "@/lib/report";
 import {
   BAND_MEANING,
@@ -217,7 +217,14 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                     <div className="how">LLN {formatNumber(c.predicted.lln, keyDecimals(c.measured.unit))}</div>
                   ) : null}
                 </td>
-                <td className="num">{c.percentPredicted !== null ? `${c.percentPredicted.toFixed(0)} %` : "—"}</td>
+                <td className="num">
+                  {c.percentPredicted !== null ? `${c.percentPredicted.toFixed(0)} %` : "—"}
+                  {c.key === "peakHr" && record.patient.betaBlocker === true ? (
+                    <div className="how" data-testid="beta-blocker-hr-note">
+                      {BETA_BLOCKER_HR_NOTE}
+                    </div>
+                  ) : null}
+                </td>
                 <td className="how">
                   {c.predicted ? `${c.predicted.equationLabel} (${c.predicted.status})` : "no applicable equation"}
                 </td>
@@ -385,8 +392,19 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
               extra={`${fmt(ix.breathingReserve.reserveLMin)} L/min; MVV ${fmt(ix.breathingReserve.mvvLMin)} L/min`}
             />
             <IndexRow label="VE/MVV at peak" m={ix.breathingReserve.veMvvPercent} d={0} />
-            <IndexRow label="Heart-rate reserve" m={ix.heartRate.reserveBpm} d={0} unit={HR_UNIT} />
-            <IndexRow label="Chronotropic index" m={ix.heartRate.chronotropicIndex} d={2} />
+            <IndexRow
+              label="Heart-rate reserve"
+              m={ix.heartRate.reserveBpm}
+              d={0}
+              unit={HR_UNIT}
+              extra={record.patient.betaBlocker === true ? BETA_BLOCKER_HR_NOTE : undefined}
+            />
+            <IndexRow
+              label="Chronotropic index"
+              m={ix.heartRate.chronotropicIndex}
+              d={2}
+              extra={record.patient.betaBlocker === true ? BETA_BLOCKER_HR_NOTE : undefined}
+            />
             <IndexRow label="HR recovery at 1 min" m={ix.heartRate.recovery1MinBpm} d={0} unit={HR_UNIT} />
             <IndexRow
               label="SpO2 at rest → lowest"

@@ -1,6 +1,6 @@
 import type { ChartSpec } from "./chartSpec";
 import { pairSeries, type MaybeNumber } from "./pairSeries";
-import { thresholdMarkers } from "./thresholdMarkers";
+import { thresholdMarkers, type ThresholdsSetByReviewer } from "./thresholdMarkers";
 
 export interface EndTidalChartInput {
   /** Time from the start of the record, s (drawn in minutes). */
@@ -11,6 +11,8 @@ export interface EndTidalChartInput {
   petco2MmHg: readonly MaybeNumber[];
   vt1TimeS?: MaybeNumber;
   vt2TimeS?: MaybeNumber;
+  /** Thresholds a reviewer set (their markers read "VT1 (reviewer)"). @default none */
+  setByReviewer?: ThresholdsSetByReviewer;
 }
 
 /**
@@ -29,6 +31,6 @@ export function endTidalChart(input: EndTidalChartInput): ChartSpec {
       { name: "PETO2", kind: "points", points: pairSeries(input.timeS, input.peto2MmHg, min) },
       { name: "PETCO2", kind: "points", axis: "y2", points: pairSeries(input.timeS, input.petco2MmHg, min) },
     ],
-    markers: thresholdMarkers(input.vt1TimeS, input.vt2TimeS, min),
+    markers: thresholdMarkers(input.vt1TimeS, input.vt2TimeS, min, input.setByReviewer),
   };
 }

@@ -1,6 +1,6 @@
 import type { ChartBand, ChartSeries, ChartSpec } from "./chartSpec";
 import { pairSeries, type MaybeNumber } from "./pairSeries";
-import { thresholdMarkers } from "./thresholdMarkers";
+import { thresholdMarkers, type ThresholdsSetByReviewer } from "./thresholdMarkers";
 
 export interface TimeCourseChartInput {
   /** Time from the start of the record, s (drawn in minutes). */
@@ -17,6 +17,8 @@ export interface TimeCourseChartInput {
   vt2TimeS?: MaybeNumber;
   /** Shaded spans, s, e.g. the exercise phase. */
   spans?: readonly { startS: number; endS: number; label: string }[];
+  /** Thresholds a reviewer set (their markers read "VT1 (reviewer)"). @default none */
+  setByReviewer?: ThresholdsSetByReviewer;
 }
 
 /**
@@ -42,7 +44,7 @@ export function timeCourseChart(input: TimeCourseChartInput): ChartSpec {
     y: { label: "VO2 and VCO2", unit: "mL/min" },
     ...(hasRight ? { y2: { label: "Heart rate and work rate", unit: "bpm, W", min: 0 } } : {}),
     series: all,
-    markers: thresholdMarkers(input.vt1TimeS, input.vt2TimeS, min),
+    markers: thresholdMarkers(input.vt1TimeS, input.vt2TimeS, min, input.setByReviewer),
     bands,
   };
 }

@@ -22,16 +22,24 @@ export interface VSlopeChartInput {
     crossVo2MlMin: number;
     toVo2MlMin: number;
   } | null;
+  /**
+   * VT1 was set by a reviewer: the marker reads "VT1 (reviewer)", and the fitted lines are named as the automatic
+   * V-slope fit with the VO2 where they cross, so a reader of the page or PDF can tell the two apart. @default false
+   */
+  vt1SetByReviewer?: boolean;
 }
 
 /**
  * V-slope plot: VCO2 against VO2 with the identity line (slope 1) for orientation and VT1 as a
  * vertical marker at its VO2, and the V-slope method's two fitted lines when it gave an estimate (the marker is the
- * consensus of all methods, so it need not sit at their crossing). V-slope method: Beaver, Wasserman & Whipp 1986, J Appl Physiol
+ * consensus of all methods, so it need not sit at their crossing; a VT1 set by a reviewer is labelled so, and the lines
+ * are then named as the automatic fit). V-slope method: Beaver, Wasserman & Whipp 1986, J Appl Physiol
  * 60:2020 (source id `beaver-1986`, registered by the thresholds layer). Both axes mL/min.
  */
 export function vSlopeChart(input: VSlopeChartInput): ChartSpec {
   const f = input.fit ?? null;
+  const reviewer = input.vt1SetByReviewer === true;
+  const slopes = f ? `S1 ${f.s1.toFixed(2)}, S2 ${f.s2.toFixed(2)}` : "";
   return {
     id: "v-slope",
     title: "V-slope: VCO2 against VO2",
@@ -42,7 +50,9 @@ export function vSlopeChart(input: VSlopeChartInput): ChartSpec {
       ...(f
         ? [
             {
-              name: `V-slope lines (S1 ${f.s1.toFixed(2)}, S2 ${f.s2.toFixed(2)})`,
+              name: reviewer
+                ? `automatic V-slope fit (${slopes}; lines cross at ${Math.round(f.crossVo2MlMin)} mL/min)`
+                : `V-slope lines (${slopes})`,
               kind: "line" as const,
               points: [
                 [f.fromVo2MlMin, f.s1 * f.fromVo2MlMin + f.intercept1],
@@ -53,7 +63,8 @@ export function vSlopeChart(input: VSlopeChartInput): ChartSpec {
           ]
         : []),
     ],
-    markers: thresholdMarkers(input.vt1Vo2MlMin, undefined),
+    markers: thresholdMarkers(input.vt1Vo2MlMin, undefined, 1, { vt1: reviewer }),
     refLines: [{ slope: 1, intercept: 0, label: "slope 1 (VCO2 = VO2)" }],
+    ...(reviewer && f ? { note: "VT1 set by the reviewer; the lines are the automatic fit it replaces" } : {}),
   };
 }

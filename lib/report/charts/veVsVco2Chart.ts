@@ -1,6 +1,6 @@
 import type { ChartRefLine, ChartSpec } from "./chartSpec";
 import { pairSeries, type MaybeNumber } from "./pairSeries";
-import { thresholdMarkers } from "./thresholdMarkers";
+import { thresholdMarkers, type ThresholdsSetByReviewer } from "./thresholdMarkers";
 
 export interface VeVsVco2ChartInput {
   /** VCO2, mL/min (drawn in L/min so the slope is dimensionless). */
@@ -11,6 +11,8 @@ export interface VeVsVco2ChartInput {
   fit?: { slope: number; interceptLMin: number; label?: string } | null;
   /** VT2 (respiratory compensation point) as VCO2, mL/min. */
   vt2Vco2MlMin?: MaybeNumber;
+  /** Thresholds a reviewer set (their markers read "VT1 (reviewer)"). @default none */
+  setByReviewer?: ThresholdsSetByReviewer;
 }
 
 /**
@@ -33,7 +35,7 @@ export function veVsVco2Chart(input: VeVsVco2ChartInput): ChartSpec {
     x: { label: "VCO2", unit: "L/min" },
     y: { label: "VE", unit: "L/min" },
     series: [{ name: "VE vs VCO2", kind: "points", points: pairSeries(input.vco2MlMin, input.veLMin, 1 / 1000) }],
-    markers: thresholdMarkers(undefined, input.vt2Vco2MlMin, 1 / 1000),
+    markers: thresholdMarkers(undefined, input.vt2Vco2MlMin, 1 / 1000, input.setByReviewer),
     refLines,
   };
 }

@@ -1,6 +1,6 @@
 import type { ChartSpec } from "./chartSpec";
 import { pairSeries, type MaybeNumber } from "./pairSeries";
-import { thresholdMarkers } from "./thresholdMarkers";
+import { thresholdMarkers, type ThresholdsSetByReviewer } from "./thresholdMarkers";
 
 export interface VentilatoryEquivalentsChartInput {
   /** Time from the start of the record, s (drawn in minutes). */
@@ -13,6 +13,8 @@ export interface VentilatoryEquivalentsChartInput {
   vt1TimeS?: MaybeNumber;
   /** VT2 (respiratory compensation point) time, s. */
   vt2TimeS?: MaybeNumber;
+  /** Thresholds a reviewer set (their markers read "VT1 (reviewer)"). @default none */
+  setByReviewer?: ThresholdsSetByReviewer;
 }
 
 /**
@@ -31,6 +33,6 @@ export function ventilatoryEquivalentsChart(input: VentilatoryEquivalentsChartIn
       { name: "VE/VO2", kind: "points", points: pairSeries(input.timeS, input.veVo2, min) },
       { name: "VE/VCO2", kind: "points", points: pairSeries(input.timeS, input.veVco2, min) },
     ],
-    markers: thresholdMarkers(input.vt1TimeS, input.vt2TimeS, min),
+    markers: thresholdMarkers(input.vt1TimeS, input.vt2TimeS, min, input.setByReviewer),
   };
 }
