@@ -17,6 +17,9 @@ export function thresholdMethodWords(t: ThresholdEstimate, result: ThresholdResu
 /** Rounded for prose (display only; the engine keeps full precision). */
 const whole = (x: number | null | undefined): number | undefined =>
   x === null || x === undefined || !Number.isFinite(x) ? undefined : Math.round(x);
+/** One decimal (speeds in km/h, grades in %), as the domains table shows them. */
+const tenth = (x: number | null | undefined): number | undefined =>
+  typeof x === "number" && Number.isFinite(x) ? Math.round(x * 10) / 10 : undefined;
 
 /** Everything the draft text needs beyond the interpretation input. */
 export function draftExtras(record: TestRecord, thresholds: ThresholdResult, indices: IndicesResult): DraftExtras {
@@ -41,6 +44,10 @@ export function draftExtras(record: TestRecord, thresholds: ThresholdResult, ind
       hrToBpm: whole(d.hrBpm.upper?.value),
       workFromW: whole(d.workW.lower?.value),
       workToW: whole(d.workW.upper?.value),
+      speedFromKmh: tenth(d.speedKmh.lower?.value),
+      speedToKmh: tenth(d.speedKmh.upper?.value),
+      gradeFromPct: tenth(d.gradePct.lower?.value),
+      gradeToPct: tenth(d.gradePct.upper?.value),
     })),
     domainsWithheld: indices.domains.issues.find((i) => i.code === DOMAINS_OUT_OF_ORDER)?.message,
   };

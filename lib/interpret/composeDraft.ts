@@ -11,6 +11,11 @@ export interface IntensityDomain {
   hrToBpm?: number;
   workFromW?: number;
   workToW?: number;
+  /** Treadmill speed (km/h, one decimal) and grade (%, one decimal) over the domain. */
+  speedFromKmh?: number;
+  speedToKmh?: number;
+  gradeFromPct?: number;
+  gradeToPct?: number;
 }
 
 export interface DraftExtras {
@@ -244,7 +249,12 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
             : `from ${lo} ${unit}`;
       const hr = d.hrFromBpm !== undefined || d.hrToBpm !== undefined ? `heart rate ${range(d.hrFromBpm, d.hrToBpm, "bpm")}` : "";
       const w = d.workFromW !== undefined || d.workToW !== undefined ? `work rate ${range(d.workFromW, d.workToW, "W")}` : "";
-      rx.push(`${d.name}: ${[hr, w].filter(Boolean).join(", ") || "no range available"}.`);
+      // on a treadmill the speed is prescribed with its grade
+      const speed =
+        d.speedFromKmh !== undefined || d.speedToKmh !== undefined ? `speed ${range(d.speedFromKmh, d.speedToKmh, "km/h")}` : "";
+      const grade =
+        d.gradeFromPct !== undefined || d.gradeToPct !== undefined ? `grade ${range(d.gradeFromPct, d.gradeToPct, "%")}` : "";
+      rx.push(`${d.name}: ${[hr, w, speed, grade].filter(Boolean).join(", ") || "no range available"}.`);
     }
     if (domains.length)
       rx.push("Ranges derive from this test's thresholds; medication changes (notably beta-blockers) alter heart-rate targets.");

@@ -91,6 +91,7 @@ export interface CliAnalysisJson {
     hrBpm: [number | null, number | null];
     workW: [number | null, number | null];
     speedKmh?: [number | null, number | null];
+    gradePct?: [number | null, number | null];
   }[];
   interpretation: unknown;
   issues: Issue[];
@@ -278,6 +279,7 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       hrBpm: [val(d.hrBpm.lower), val(d.hrBpm.upper)],
       workW: [val(d.workW.lower), val(d.workW.upper)],
       speedKmh: [val(d.speedKmh.lower), val(d.speedKmh.upper)],
+      gradePct: [val(d.gradePct.lower), val(d.gradePct.upper)],
     })),
     interpretation: {
       referral: result.interpretation.referral,

@@ -66,6 +66,26 @@ describe("draft report text", () => {
     expect(rx).not.toMatch(/…/);
   });
 
+  it("a treadmill prescription gives the speed with its grade (invented ranges)", () => {
+    const d = composeDraft(fx.input, r, {
+      domains: [
+        { name: "Moderate (below VT1)", hrToBpm: 118, speedToKmh: 5.9, gradeToPct: 7.6 },
+        {
+          name: "Heavy (VT1 to VT2)",
+          hrFromBpm: 118,
+          hrToBpm: 151,
+          speedFromKmh: 5.9,
+          speedToKmh: 7.2,
+          gradeFromPct: 7.6,
+          gradeToPct: 12.8,
+        },
+      ],
+    });
+    const rx = d.sections.find((s) => s.id === "prescription")!.paragraphs.join(" ");
+    expect(rx).toMatch(/Moderate \(below VT1\): heart rate up to 118 bpm, speed up to 5\.9 km\/h, grade up to 7\.6 %\./);
+    expect(rx).toMatch(/Heavy \(VT1 to VT2\): heart rate 118–151 bpm, speed 5\.9–7\.2 km\/h, grade 7\.6–12\.8 %\./);
+  });
+
   it("a training referral with thresholds out of order says why there is no prescription", () => {
     const training = { ...fx.input, referral: "training" as const };
     const withheld =

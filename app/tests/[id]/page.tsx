@@ -502,12 +502,13 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
               <th className="num">Heart rate ({HR_UNIT})</th>
               <th className="num">Work rate (W)</th>
               <th className="num">Speed (km/h)</th>
+              <th className="num">Grade (%)</th>
             </tr>
           </thead>
           <tbody>
             {ix.domains.domains.length === 0 ? (
               <tr data-testid="domains-none">
-                <td colSpan={4}>
+                <td colSpan={5}>
                   {/* with no domain, its issues are the reason (thresholds missing or out of order) */}
                   {ix.domains.issues.map((i) => i.message).join(" ") || "No domain can be given."}
                 </td>
@@ -519,6 +520,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                 <td className="num">{range(d.hrBpm.lower, d.hrBpm.upper, 0)}</td>
                 <td className="num">{range(d.workW.lower, d.workW.upper, 0)}</td>
                 <td className="num">{range(d.speedKmh.lower, d.speedKmh.upper, 1)}</td>
+                <td className="num">{range(d.gradePct.lower, d.gradePct.upper, 1)}</td>
               </tr>
             ))}
           </tbody>
