@@ -1,4 +1,4 @@
-import { firstIndexAbove } from "./firstIndexAbove";
+import { indexAboveWalker } from "./firstIndexAbove";
 
 /**
  * Profile of the residual sum of squares of a break that may curve upward above it:
@@ -48,12 +48,10 @@ export function convexOnsetProfile(
   const quad = (u0: number, u1: number, v0: number, v1: number) => u0 * (g00 * v0 + g01 * v1) + u1 * (g01 * v0 + g11 * v1);
   const [P0, P1, P2, P3, P4] = P;
   const [Q0, Q1, Q2] = Q;
-  let k = 0;
+  const breakIndex = indexAboveWalker(x);
   for (let j = 0; j < K; j++) {
     const a = (taus[j] - t0) / 60;
-    // the first point strictly above the break: candidates ascend, so walk on (search again if one steps back)
-    if (j > 0 && taus[j] >= taus[j - 1]) while (k < n && !(x[k] > a)) k++;
-    else k = firstIndexAbove(x, a);
+    const k = breakIndex(a); // the first point strictly above the break
     if (n - k < 3) continue;
     // plain locals, not an array per candidate (this loop runs for every candidate of every resample)
     const p0 = P0[k];

@@ -1,4 +1,4 @@
-import { firstIndexAbove } from "./firstIndexAbove";
+import { indexAboveWalker } from "./firstIndexAbove";
 
 /**
  * Profile of the residual sum of squares of a break followed by an exponential rise:
@@ -95,14 +95,11 @@ export function exponentialOnsetProfile(
       EY[here] = EY[next] + y[i] * g;
     }
   }
-  let k = 0;
+  const breakIndex = indexAboveWalker(x);
   for (let j = 0; j < K; j++) {
     // c = e^((a − x_end)/σ) at this candidate: the running product on an even grid
     if (j > 0) for (let s = 0; s < S; s++) c[s] = even ? c[s] * ratio[s] : Math.exp(((taus[j] - t0) / 60 - xEnd) / sigmasMin[s]);
-    // break index: the first point strictly above τ (candidates ascend: walk on; otherwise search)
-    const a = (taus[j] - t0) / 60;
-    if (j > 0 && taus[j] >= taus[j - 1]) while (k < n && !(x[k] > a)) k++;
-    else k = firstIndexAbove(x, a);
+    const k = breakIndex((taus[j] - t0) / 60); // the first point strictly above τ
     if (n - k < 3) continue;
     const p0 = P0[k];
     const p1 = P1[k];

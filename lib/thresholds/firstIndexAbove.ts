@@ -9,3 +9,18 @@ export function firstIndexAbove(values: ArrayLike<number>, level: number): numbe
   }
   return lo;
 }
+
+/**
+ * `firstIndexAbove` for a run of levels: each call walks on from the last answer when the level did not fall (O(1)
+ * amortised over ascending candidate breaks), and searches again when it did. Same answers as `firstIndexAbove`.
+ */
+export function indexAboveWalker(values: ArrayLike<number>): (level: number) => number {
+  let k = 0;
+  let last = -Infinity;
+  return (level: number): number => {
+    if (level >= last) while (k < values.length && !(values[k] > level)) k++;
+    else k = firstIndexAbove(values, level);
+    last = level;
+    return k;
+  };
+}

@@ -2,7 +2,7 @@ import { solveLinearSystem } from "../numeric";
 import { buildMethodEstimate, seriesWindow, vo2AtTime } from "./consensus";
 import { convexOnsetProfile } from "./convexOnsetProfile";
 import { exponentialOnsetProfile } from "./exponentialOnsetProfile";
-import { firstIndexAbove } from "./firstIndexAbove";
+import { indexAboveWalker } from "./firstIndexAbove";
 import type { MethodEstimate, MethodQuality, ThresholdSeries } from "./thresholdTypes";
 
 export interface JointVt1Options {
@@ -117,12 +117,10 @@ export function segmentedProfile(
   const beta = Float64Array.from(single as number[]);
   const gi = new Float64Array(p * p);
   for (let a = 0; a < p; a++) for (let b = 0; b < p; b++) gi[a * p + b] = ginv[a][b];
-  let k = 0;
+  const breakIndex = indexAboveWalker(t);
   for (let j = 0; j < K; j++) {
     const tau = taus[j];
-    // candidates usually ascend: walk the break index forward, search again when one steps back
-    if (j > 0 && tau >= taus[j - 1]) while (k < n && !(t[k] > tau)) k++;
-    else k = firstIndexAbove(t, tau);
+    const k = breakIndex(tau);
     if (n - k < 2) {
       sse[j] = sseSingle;
       continue;

@@ -12,6 +12,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
 
 import { buildRecord, type TestRecord } from "../../lib/analysis";
+import type { ReportSection } from "../../lib/report/reportModel";
 import { closeDb } from "../../lib/store/db";
 import { getReport, listReports } from "../../lib/store/reports";
 import { analysisRecord, getTest, listAnalysisVersions, saveTest, updateTestRecord } from "../../lib/store/tests";
@@ -45,20 +46,29 @@ afterEach(() => {
   fs.rmSync(dir, { recursive: true, force: true });
 });
 
+/** Sign a report version as a reviewer would from a page that showed `revision`, with `text` changing some sections. */
+function signAs(
+  testId: number,
+  report: { id: number; sections: ReportSection[] },
+  revision: number,
+  text: (s: ReportSection) => string[] = (s) => s.paragraphs,
+) {
+  return signDraft({
+    testId,
+    reportId: report.id,
+    revision,
+    signer: "Dr A Example",
+    attestation: "reviewed",
+    sections: report.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: text(s) })),
+    rechecked: [],
+  });
+}
+
 /** A test with its first draft (as opening the report page makes it), signed as shown. */
 function signedTest() {
   const testId = saveTest({ uploadId: null, label: "Pinned (invented)", record, columns: [], issues: [] });
   const first = loadReport(testId)!;
-  const signed = signDraft({
-    testId,
-    reportId: first.report.id,
-    revision: first.report.revision,
-    signer: "Dr A Example",
-    attestation: "reviewed",
-    sections: first.report.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: s.paragraphs })),
-    rechecked: [],
-  });
-  expect(signed.ok).toBe(true);
+  expect(signAs(testId, first.report, first.report.revision).ok).toBe(true);
   return { testId, first };
 }
 
@@ -94,19 +104,9 @@ describe("a signed report keeps the record it was signed on", () => {
   it("the reviewer's signed text carried into the new draft lists the values the corrected mass changed", () => {
     const testId = saveTest({ uploadId: null, label: "Carried (invented)", record, columns: [], issues: [] });
     const first = loadReport(testId)!;
-    const signed = signDraft({
-      testId,
-      reportId: first.report.id,
-      revision: first.report.revision,
-      signer: "Dr A Example",
-      attestation: "reviewed",
-      sections: first.report.sections.map((s) => ({
-        id: s.id,
-        title: s.title,
-        paragraphs: s.id === "conclusion" ? ["Reviewer's own conclusion (invented)."] : s.paragraphs,
-      })),
-      rechecked: [],
-    });
+    const signed = signAs(testId, first.report, first.report.revision, (s) =>
+      s.id === "conclusion" ? ["Reviewer's own conclusion (invented)."] : s.paragraphs,
+    );
     expect(signed.ok).toBe(true);
     const weightKg = record.patient.weightKg!;
     updatePatientDetails(
@@ -173,16 +173,7 @@ describe("two pages on one draft", () => {
     const stored = getReport(opened.id)!;
     expect(stored.sections.find((s) => s.id === "conclusion")!.paragraphs).toEqual(["TAB-A conclusion"]);
     // signing from tab B's stale page is refused too; from the page that saw revision 1 it goes through
-    const sign = (revision: number) =>
-      signDraft({
-        testId,
-        reportId: opened.id,
-        revision,
-        signer: "Dr A Example",
-        attestation: "reviewed",
-        sections: stored.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: s.paragraphs })),
-        rechecked: [],
-      });
+    const sign = (revision: number) => signAs(testId, stored, revision);
     const stale = sign(opened.revision);
     expect(stale.ok).toBe(false);
     expect(!stale.ok && stale.errors.form).toMatch(/saved elsewhere/);
@@ -193,15 +184,7 @@ describe("two pages on one draft", () => {
     const testId = saveTest({ uploadId: null, label: "Caution (invented)", record, columns: [], issues: [] });
     const opened = loadReport(testId)!.report;
     expect(opened.sections.some((s) => s.id === "caution")).toBe(true);
-    const res = signDraft({
-      testId,
-      reportId: opened.id,
-      revision: opened.revision,
-      signer: "Dr A Example",
-      attestation: "reviewed",
-      sections: opened.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: s.id === "caution" ? [] : s.paragraphs })),
-      rechecked: [],
-    });
+    const res = signAs(testId, opened, opened.revision, (s) => (s.id === "caution" ? [] : s.paragraphs));
     expect(res.ok).toBe(false);
     expect(!res.ok && res.errors.caution).toMatch(/not left empty/);
     expect(getReport(opened.id)!.status).toBe("draft");

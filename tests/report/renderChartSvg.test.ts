@@ -176,17 +176,9 @@ describe("standard chart builders", () => {
     expect(spec.markers).toEqual([{ x: 1200, label: "VT1", kind: "vt1" }]);
     expect(spec.refLines).toEqual([{ slope: 1, intercept: 0, label: "slope 1 (VCO2 = VO2)" }]);
   });
+  // invented lines: VCO2 = 0.95·VO2 − 20 below, 1.35·VO2 − 600 above; they cross at VO2 = 580 / 0.40 = 1450 mL/min
+  const fit = { s1: 0.95, intercept1: -20, s2: 1.35, intercept2: -600, fromVo2MlMin: 600, crossVo2MlMin: 1450, toVo2MlMin: 2400 };
   it("V-slope: the method's two lines meet at their crossing and run over its VO2 range", () => {
-    // invented lines: VCO2 = 0.95·VO2 − 20 below, 1.35·VO2 − 600 above; they cross at VO2 = 580 / 0.40 = 1450 mL/min
-    const fit = {
-      s1: 0.95,
-      intercept1: -20,
-      s2: 1.35,
-      intercept2: -600,
-      fromVo2MlMin: 600,
-      crossVo2MlMin: 1450,
-      toVo2MlMin: 2400,
-    };
     const spec = vSlopeChart({ vo2MlMin: [600, 2400], vco2MlMin: [550, 2640], vt1Vo2MlMin: 1500, fit });
     const lines = spec.series[1];
     expect(lines.kind).toBe("line");
@@ -201,15 +193,6 @@ describe("standard chart builders", () => {
   });
   it("V-slope after a reviewer's VT1: the marker reads 'VT1 (reviewer)', the lines are named as the automatic fit", () => {
     // the same invented lines (crossing at 1450 mL/min); the reviewer put VT1 at 1200 mL/min
-    const fit = {
-      s1: 0.95,
-      intercept1: -20,
-      s2: 1.35,
-      intercept2: -600,
-      fromVo2MlMin: 600,
-      crossVo2MlMin: 1450,
-      toVo2MlMin: 2400,
-    };
     const spec = vSlopeChart({ vo2MlMin: [600, 2400], vco2MlMin: [550, 2640], vt1Vo2MlMin: 1200, fit, vt1SetByReviewer: true });
     expect(spec.markers).toEqual([{ x: 1200, label: "VT1 (reviewer)", kind: "vt1" }]);
     expect(spec.series[1].name).toBe("automatic V-slope fit (S1 0.95, S2 1.35; lines cross at 1450 mL/min)");
