@@ -73,6 +73,11 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
     ...record.importIssues,
     ...test.issues,
     ...predicted.issues,
+    // each predicted value's own cautions (a patient outside the equation's derivation population, an input missing):
+    // on the page and in the report as in the CLI; a missing detail stops one predicted value, not the analysis
+    ...Object.values(predicted.values).flatMap((pv) =>
+      (pv?.issues ?? []).map((i): Issue => (i.severity === "error" ? { ...i, severity: "warning" } : i)),
+    ),
     ...thresholds.issues,
     ...indices.issues,
     ...interpretation.issues,

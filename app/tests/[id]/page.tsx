@@ -227,6 +227,13 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                 </td>
                 <td className="how">
                   {c.predicted ? `${c.predicted.equationLabel} (${c.predicted.status})` : "no applicable equation"}
+                  {(c.predicted?.issues ?? [])
+                    .filter((i) => i.severity !== "info")
+                    .map((i) => (
+                      <div key={i.code + i.message} className="sev-warning" data-testid={`predicted-caution-${c.key}`}>
+                        {i.message}
+                      </div>
+                    ))}
                 </td>
                 <td>
                   <HowFound m={c.measured} methodLabels={methodLabels} />
