@@ -224,7 +224,9 @@ export default async function ComparePage({
                     <td className="num">{shown(it.variable, it.before)}</td>
                     <td className="num">{shown(it.variable, it.after)}</td>
                     <td className="num">
-                      {it.change !== null ? `${it.change > 0 ? "+" : ""}${shown(it.variable, it.change)}` : "—"}
+                      {it.change !== null
+                        ? `${it.change > 0 ? "+" : ""}${shown(it.variable, it.change)}${it.unit.startsWith("%") ? " points" : ""}`
+                        : "—"}
                       {it.changePct !== null ? (
                         <div className="how">{`${it.changePct > 0 ? "+" : ""}${it.changePct.toFixed(0)} %`}</div>
                       ) : null}

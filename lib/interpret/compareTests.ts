@@ -71,11 +71,12 @@ function noiseBand(e: VariabilityEntry, before: number, after: number): NoiseBan
     case "absolute":
       return { ...common, threshold: e.value, basis: `${e.description} (${e.populationLabel})` };
     case "cov-pct": {
-      const threshold = SDC_FACTOR * (e.value / 100) * mean;
+      const sem = (e.value / 100) * mean;
+      const threshold = SDC_FACTOR * sem;
       return {
         ...common,
         threshold,
-        basis: `smallest detectable change 1.96 × √2 × SEM with SEM = CoV ${e.value} % × mean ${mean.toPrecision(4)} = ${threshold.toPrecision(3)} (${e.description}; ${e.populationLabel}; SDC formula is standard statistics)`,
+        basis: `smallest detectable change 1.96 × √2 × SEM, SEM = CoV ${e.value} % × mean ${mean.toPrecision(4)} = ${sem.toPrecision(3)}, so ${threshold.toPrecision(3)} (${e.description}; ${e.populationLabel}; SDC formula is standard statistics)`,
       };
     }
     case "repeatability-pct": {
@@ -138,18 +139,46 @@ export function compareTests(
       ),
     );
   }
+  // a % of predicted is only comparable between tests when the same equation made both predictions
+  const otherEquation = (variable: VariableId): [string, string] | null => {
+    if (!variableInfo(variable).unit.startsWith("%")) return null; // a measured value does not depend on the equation
+    const q = variableInfo(variable).predictedKey as keyof NonNullable<InterpretInput["predictedEquations"]> | undefined;
+    const [e1, e2] = q ? [before.predictedEquations?.[q], after.predictedEquations?.[q]] : [undefined, undefined];
+    return e1 && e2 && e1 !== e2 ? [e1, e2] : null;
+  };
+  for (const variable of SERIAL_VARIABLES) {
+    const pair = otherEquation(variable);
+    if (pair)
+      issues.push(
+        makeIssue(
+          "warning",
+          "serial-different-equations",
+          `${variableInfo(variable).label}: the two tests were predicted by different equations (${pair[0]} before, ${pair[1]} after), so the change is not judged; compare the measured values, or analyse both tests with one equation.`,
+        ),
+      );
+  }
   const items = SERIAL_VARIABLES.map((variable): SerialItem => {
     const info = variableInfo(variable);
     const num = (v: unknown) => (typeof v === "number" && Number.isFinite(v) ? v : null);
     const x = num(a.vars[variable]);
     const y = num(b.vars[variable]);
     const change = x !== null && y !== null ? y - x : null;
-    const changePct = change !== null && x !== 0 && x !== null ? (100 * change) / x : null;
+    // a change of a percentage is given in percentage points, never as a percentage of a percentage
+    const points = info.unit.startsWith("%");
+    const changePct = change !== null && x !== 0 && x !== null && !points ? (100 * change) / x : null;
     const base = { variable, label: info.label, unit: info.unit, before: x, after: y, change, changePct };
     const fmt = (v: number | null) => `${formatValue(variable, v)}${info.unit ? ` ${info.unit}` : ""}`;
     const head = `${info.label}: ${fmt(x)} → ${fmt(y)}`;
     if (change === null) return { ...base, noise: null, verdict: "not-judged", text: `${head}: change not available` };
-    const signed = `${change >= 0 ? "+" : ""}${formatValue(variable, change)}${info.unit ? ` ${info.unit}` : ""}`;
+    const signed = `${change >= 0 ? "+" : ""}${formatValue(variable, change)}${points ? " percentage points" : info.unit ? ` ${info.unit}` : ""}`;
+    const pair = otherEquation(variable);
+    if (pair)
+      return {
+        ...base,
+        noise: null,
+        verdict: "not-judged",
+        text: `${head} (${signed}): not judged, predicted by different equations (${pair[0]} before, ${pair[1]} after)`,
+      };
     if (info.effortDependent && !comparable) {
       return {
         ...base,

@@ -63,3 +63,30 @@ describe("serial comparison against published test-retest variability", () => {
     expect(c.items.every((i) => i.verdict === "not-judged")).toBe(true);
   });
 });
+
+describe("serial comparison: what is comparable (invented pairs)", () => {
+  const labels = (peakVo2: string) => ({ predictedEquations: { peakVo2 } });
+
+  it("the SDC's working names the SEM and the SDC separately (Decato 2018 CoV 10.4 %, mean 17.5: SEM 1.82, SDC 5.04)", () => {
+    const c = compareTests(baseInput({ vt1Vo2MlKgMin: 15 }), baseInput({ vt1Vo2MlKgMin: 20 }), "healthy");
+    expect(item(c, "vt1Vo2MlKgMin").noise!.basis).toMatch(/SEM = CoV 10\.4 % × mean 17\.50 = 1\.82, so 5\.04/);
+  });
+
+  it("% predicted from different equations is not judged, with a warning naming both; its change is in percentage points", () => {
+    const before = baseInput({ peakVo2PctPred: 92 }, labels("FRIEND 2018 (cycle)"));
+    const after = baseInput({ peakVo2PctPred: 114 }, labels("Hansen, Sue & Wasserman 1984"));
+    const c = compareTests(before, after, "healthy");
+    const pct = item(c, "peakVo2PctPred");
+    expect(pct.verdict).toBe("not-judged");
+    expect(pct.changePct).toBeNull();
+    expect(pct.text).toMatch(
+      /\+22 percentage points\): not judged, predicted by different equations \(FRIEND 2018 \(cycle\) before, Hansen/,
+    );
+    expect(c.issues.map((i) => i.code)).toContain("serial-different-equations");
+    // the same equation both times: compared as usual, still in points
+    const same = compareTests(before, { ...after, ...labels("FRIEND 2018 (cycle)") }, "healthy");
+    expect(item(same, "peakVo2PctPred").text).not.toMatch(/different equations/);
+    expect(item(same, "peakVo2PctPred").text).toMatch(/\+22 percentage points/);
+    expect(same.issues.map((i) => i.code)).not.toContain("serial-different-equations");
+  });
+});
