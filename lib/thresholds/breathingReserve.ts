@@ -28,6 +28,20 @@ const MVV_SOURCES: Record<MvvChoice, string[]> = {
 };
 
 /**
+ * Peak VE/MVV above which the spirometry is questioned, %: our choice. Exercise VE near or slightly above MVV is seen in
+ * severe COPD and athletes (VE/MVV ≥ 85 % is the ventilatory-limitation criterion, ERS 2019 — confirmed); well beyond it
+ * the MVV, FEV1 or their units are more likely wrong than the patient.
+ */
+export const IMPLAUSIBLE_VE_MVV_PCT = 120;
+
+/**
+ * Measured MVV / FEV1 outside this range is questioned: our choice around the multipliers in use, 35–40 (×40 recalled
+ * attribution to Campbell 1982; ×35 secondary; five literature multipliers compared by Otto-Yáñez et al. 2020, Front
+ * Physiol — confirmed).
+ */
+export const MVV_FEV1_RATIO = { min: 20, max: 60 } as const;
+
+/**
  * Breathing reserve from peak VE and MVV: MVV measured, or estimated as FEV1 × 40 (recalled attribution) or
  * FEV1 × 35 (used in practice, secondary); Otto-Yáñez 2020 (confirmed) advises against estimating.
  * BR = MVV − VEpeak (L/min), BR% = 100·(1 − VEpeak/MVV), VE/MVV = 100·VEpeak/MVV (definitions recalled).
@@ -86,6 +100,28 @@ export function breathingReserve(
   const reason = mvv.value === null ? (mvv.reason ?? "MVV not determinable") : (peakVe.reason ?? "peak VE not determinable");
   const m = mvv.value ?? NaN;
   const ve = peakVe.value ?? NaN;
+  // spirometry that cannot be right: a check before ventilatory limitation is read from it
+  if (ok && (100 * ve) / m > IMPLAUSIBLE_VE_MVV_PCT)
+    issues.push(
+      makeIssue(
+        "warning",
+        "ve-mvv-implausible",
+        `Peak VE ${ve.toFixed(0)} L/min is ${((100 * ve) / m).toFixed(0)} % of the MVV (${m.toFixed(0)} L/min, ${labels[choice!]}): ` +
+          `more than ${IMPLAUSIBLE_VE_MVV_PCT} % is rarely real. Check the spirometry values and their units before reading the breathing reserve or ventilatory limitation.`,
+        { field: "mvvLMin" },
+      ),
+    );
+  const ratio = spirometry?.mvvLMin && spirometry.fev1L ? spirometry.mvvLMin / spirometry.fev1L : null;
+  if (ratio !== null && (ratio < MVV_FEV1_RATIO.min || ratio > MVV_FEV1_RATIO.max))
+    issues.push(
+      makeIssue(
+        "warning",
+        "mvv-fev1-implausible",
+        `Measured MVV ${spirometry!.mvvLMin!.toFixed(0)} L/min is ${ratio.toFixed(0)} × FEV1 (${spirometry!.fev1L!.toFixed(2)} L); ` +
+          `MVV usually lies near 35–40 × FEV1, and outside ${MVV_FEV1_RATIO.min}–${MVV_FEV1_RATIO.max} × one of the two is probably mistyped or poorly performed. Check them.`,
+        { field: "mvvLMin" },
+      ),
+    );
   return {
     mvvChoice: choice,
     mvvLMin: mvv,

@@ -45,3 +45,21 @@ describe("breathing reserve", () => {
     expect(r.reserveLMin.reason).toBe("no VE column");
   });
 });
+
+describe("spirometry that cannot be right (invented values)", () => {
+  it("peak VE 90 L/min against an MVV of 48 (FEV1 1.2 L × 40): VE/MVV 188 %, a warning to check the spirometry", () => {
+    const r = breathingReserve(ve(90), { fev1L: 1.2 });
+    expect(r.veMvvPercent.value).toBeCloseTo(187.5, 9);
+    expect(r.issues.map((i) => [i.severity, i.code])).toContainEqual(["warning", "ve-mvv-implausible"]);
+    // 110 % is unusual but seen in severe COPD: no warning
+    expect(breathingReserve(ve(52.8), { fev1L: 1.2 }).issues.map((i) => i.code)).not.toContain("ve-mvv-implausible");
+  });
+
+  it("measured MVV 160 L/min with FEV1 1.2 L (133 ×): a warning; 130 L/min with FEV1 3.4 L (38 ×): none", () => {
+    const odd = breathingReserve(ve(90), { fev1L: 1.2, mvvLMin: 160 });
+    expect(odd.issues.find((i) => i.code === "mvv-fev1-implausible")?.message).toMatch(/is 133 × FEV1 \(1\.20 L\)/);
+    expect(breathingReserve(ve(90), { fev1L: 3.4, mvvLMin: 130 }).issues.map((i) => i.code)).not.toContain(
+      "mvv-fev1-implausible",
+    );
+  });
+});
