@@ -40,7 +40,7 @@ export const COLUMN_SYNONYMS: readonly SynonymEntry[] = [
   },
   { field: "vco2MlMin", names: ["vco2", "co2output", "co2production", "carbondioxideoutput", "vco2output"] },
   { field: "veLMin", names: ["ve", "ventilation", "minuteventilation", "vmin", "minutevolume", "vemin"] },
-  { field: "hrBpm", names: ["hr", "heartrate", "pulse", "hf", "pulserate", "heartfrequency", "fc"] },
+  { field: "hrBpm", names: ["hr", "heartrate", "pulse", "puls", "hf", "pulserate", "heartfrequency", "fc"] },
   {
     field: "workW",
     names: [

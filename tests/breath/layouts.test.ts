@@ -140,3 +140,15 @@ describe("export layouts of one synthetic series (invented data)", () => {
     expect(r.columns.find((c) => c.header === "BF")!.reason).toMatch(/set by user/);
   });
 });
+
+describe("a heart-rate column headed 'Puls' (German and Nordic exports)", () => {
+  it("is read as heart rate in beats per minute (invented rows)", async () => {
+    const csv = [
+      "Zeit,VO2,VCO2,VE,Puls",
+      ...Array.from({ length: 40 }, (_, i) => `${i * 3},${800 + 10 * i},${720 + 11 * i},${20 + i * 0.3},${80 + i}`),
+    ].join("\n");
+    const r = await importBreathFile(new TextEncoder().encode(csv), { fileName: "puls.csv" });
+    expect(r.columns.find((c) => c.header === "Puls")?.field).toBe("hrBpm");
+    expect(r.table?.rows[5].hrBpm).toBe(85);
+  });
+});
