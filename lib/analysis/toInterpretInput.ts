@@ -38,7 +38,8 @@ export function toInterpretInput(
   const plateauOrFall = indices.o2Pulse.pattern === null ? null : indices.o2Pulse.pattern !== "rising";
   const eov = indices.eov.definitions;
   const eovPresent = eov.some((d) => d.detected === true) ? true : eov.every((d) => d.detected === false) ? false : null;
-  const vdvt = indices.vdVt.length > 0 ? indices.vdVt[indices.vdVt.length - 1] : null;
+  // the sample read as peak (the last one in exercise), never a resting or recovery one (vdVt.ts)
+  const vdvt = indices.vdVt.findLast((pt) => pt.atPeak) ?? null;
   // the engine's reason beside each value a rule may find missing
   const from: Partial<Record<keyof InterpretValues, Measured | null | undefined>> = {
     peakVo2MlMin: p.vo2MlMin,
@@ -225,7 +226,7 @@ export function toInterpretInput(
       spo2RestPct: v(indices.spo2.restPct),
       spo2Fall: v(indices.spo2.fallPct),
       spo2Min: v(indices.spo2.lowestPct),
-      paO2: lastPaO2(record),
+      paO2: peakPaO2(record, vdvt),
       vdvtPeak: vdvt ? v(vdvt.vdVt) : null,
       fev1PctPred: record.spirometry?.fev1PctPred ?? null,
       dlcoPctPred: record.spirometry?.dlcoPctPred ?? null,
@@ -248,7 +249,16 @@ export function toInterpretInput(
   };
 }
 
-function lastPaO2(record: TestRecord): number | null {
+/**
+ * PaO2 of the sample read as peak (the VD/VT peak point's sample, matched by time or by its label); without one, the
+ * last sample with a PaO2 whose time or label does not put it in recovery.
+ */
+function peakPaO2(record: TestRecord, peak: { timeS: number; label?: string; placedBy: "time" | "label" } | null): number | null {
   const gases = (record.bloodGases ?? []).filter((g) => typeof g.paO2MmHg === "number");
-  return gases.length > 0 ? (gases[gases.length - 1].paO2MmHg ?? null) : null;
+  if (peak) {
+    const same = gases.find((g) => (peak.placedBy === "label" ? (g.label ?? undefined) === peak.label : g.timeS === peak.timeS));
+    if (same) return same.paO2MmHg ?? null;
+  }
+  const notRecovery = gases.filter((g) => !/recover|post/i.test(g.label ?? ""));
+  return notRecovery.length > 0 ? (notRecovery[notRecovery.length - 1].paO2MmHg ?? null) : null;
 }

@@ -26,11 +26,12 @@ describe("VD/VT (Bohr-Enghoff form, recalled)", () => {
     ]);
     expect(r.points).toHaveLength(1);
     expect(r.points[0].vdVt.value).toBeNull();
-    expect(r.issues.map((i) => i.code)).toEqual(["paco2-not-positive"]);
+    expect(r.issues.filter((i) => i.severity !== "info").map((i) => i.code)).toEqual(["paco2-not-positive"]);
   });
 
-  it("a sample outside the data → not determinable", () => {
+  it("a sample outside the recorded breaths → no point, and a warning", () => {
     const r = vdVt(test, [{ timeS: 5000, paCO2MmHg: 40 }]);
-    expect(r.points[0].vdVt.value).toBeNull();
+    expect(r.points).toHaveLength(0);
+    expect(r.issues.map((i) => i.code)).toContain("blood-gas-outside-recording");
   });
 });

@@ -62,13 +62,21 @@ export function LactateForm({ testId }: { testId: number }) {
 
 export function BloodGasForm({ testId }: { testId: number }) {
   const [state, action, pending] = useForm(addBloodGasFile);
+  const v = state.values ?? {};
   return (
     <form action={action} className="stack" data-testid="bloodgas-form" key={state.stamp ?? 0}>
       <input type="hidden" name="testId" value={testId} />
       <div className="row">
         <label className={styles.label}>
-          Blood gas file (time, PaO2, PaCO2 in mmHg or kPa, optional label)
+          Blood gas file (time and/or label such as rest, peak, stage 3; PaO2, PaCO2 in mmHg or kPa)
           <input type="file" name="file" accept=".csv,.tsv,.txt,.xlsx" data-testid="bloodgas-file" />
+        </label>
+        <label className={styles.label}>
+          Plain-number times are in
+          <select name="timeUnit" defaultValue={v.timeUnit ?? "s"} data-testid="bloodgas-time-unit">
+            <option value="s">seconds</option>
+            <option value="min">minutes</option>
+          </select>
         </label>
         <button type="submit" disabled={pending} data-testid="bloodgas-submit">
           {pending ? "Reading…" : "Read and save the blood gases"}

@@ -85,12 +85,15 @@ export async function addLactateFile(_prev: InputFormState, form: FormData): Pro
   );
 }
 
-/** Arterial blood gases from a file (importBloodGasFile); replaces the test's blood gases. The file is kept. */
+/**
+ * Arterial blood gases from a file (importBloodGasFile, plain-number times in the unit chosen on the form); replaces the
+ * test's blood gases. The file is kept.
+ */
 export async function addBloodGasFile(_prev: InputFormState, form: FormData): Promise<InputFormState> {
   return addSampleFile(
     form,
     "blood gas",
-    (bytes) => importBloodGasFile(bytes),
+    (bytes, timeUnit) => importBloodGasFile(bytes, { timeUnit }),
     (record, bloodGases) => ({ ...record, bloodGases }),
     "blood-gases-added",
   );

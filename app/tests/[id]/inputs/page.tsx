@@ -87,7 +87,9 @@ export default async function InputsPage({ params }: { params: Promise<{ id: str
           <tbody>
             {gases.map((s, i) => (
               <tr key={i}>
-                <td>{formatClock(s.timeS)}</td>
+                <td>
+                  {typeof s.timeS === "number" && Number.isFinite(s.timeS) ? formatClock(s.timeS) : "— (placed by its label)"}
+                </td>
                 <td>{s.label ?? ""}</td>
                 <td className="num">{s.paO2MmHg?.toFixed(1) ?? "—"}</td>
                 <td className="num">{s.paCO2MmHg?.toFixed(1) ?? "—"}</td>
