@@ -18,6 +18,8 @@ interface AnalyseOptions {
   fev1L?: number;
   mvvLMin?: number;
   lactate?: string;
+  lactateTimeUnit?: "s" | "min";
+  lactateUnit?: "mmol/L" | "mg/dL";
   stageDurationS?: number;
   referral: string;
   select: Record<string, string>;
@@ -50,6 +52,16 @@ export function registerAnalyse(program: Command): void {
     )
     .option("--lactate <file>", "blood lactate samples (CSV/XLSX with time or stage, optional work/speed, and lactate)")
     .option(
+      "--lactate-time-unit <unit>",
+      "s | min: unit of the lactate file's plain-number times when its header names none (default s)",
+      parseLactateTimeUnit,
+    )
+    .option(
+      "--lactate-unit <unit>",
+      "mmol/L | mg/dL: unit of the lactate values when the file's header names none (default: mmol/L, or mg/dL when the values' magnitude says so)",
+      parseLactateUnit,
+    )
+    .option(
       "--select <column=value>",
       "in a file holding several tests, keep the rows where column = value (repeatable)",
       collectSelect,
@@ -76,6 +88,19 @@ function parseNumber(flag: string, field: PlausibleField) {
     if (problem) throw new Error(`${flag}: ${problem}`);
     return n;
   };
+}
+
+function parseLactateTimeUnit(raw: string): "s" | "min" {
+  const u = raw.trim().toLowerCase();
+  if (u === "s" || u === "min") return u;
+  throw new Error(`--lactate-time-unit must be s or min, got "${raw}"`);
+}
+
+function parseLactateUnit(raw: string): "mmol/L" | "mg/dL" {
+  const u = raw.trim().toLowerCase();
+  if (u === "mmol/l") return "mmol/L";
+  if (u === "mg/dl") return "mg/dL";
+  throw new Error(`--lactate-unit must be mmol/L or mg/dL, got "${raw}"`);
 }
 
 function parseStageSeconds(raw: string): number {
@@ -149,7 +174,10 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
   const record = built.record;
   if (opts.fev1L !== undefined || opts.mvvLMin !== undefined) record.spirometry = { fev1L: opts.fev1L, mvvLMin: opts.mvvLMin };
   if (opts.lactate) {
-    const lac = await importLactateFile(readBytes(opts.lactate));
+    const lac = await importLactateFile(readBytes(opts.lactate), {
+      ...(opts.lactateTimeUnit ? { timeUnit: opts.lactateTimeUnit } : {}),
+      ...(opts.lactateUnit ? { lactateUnit: opts.lactateUnit } : {}),
+    });
     if (lac.samples.length === 0) {
       throw new Error(
         `${path.basename(opts.lactate)} has no usable lactate samples: ${lac.issues.map((i) => i.message).join(" ")}`,
@@ -187,17 +215,31 @@ function formatText(r: CliAnalysisJson): string {
     `OUES            ${n(r.oues)}${r.ouesBand ? ` (${b(r.ouesBand).slice(2)})` : ""}`,
     `ΔVO2/ΔWR        ${n(r.dVo2dWr, 1, " mL/min/W")}${r.dVo2dWrBand ? ` (${b(r.dVo2dWrBand, 1).slice(2)})` : ""}`,
     `breathing reserve ${r.breathingReserve.pct === null ? "not determinable (give --mvv-l-min or --fev1-l)" : n(r.breathingReserve.pct, 0, " %")}`,
-    ...(r.lactate
-      ? [
-          `lactate 4 mmol/L ${r.lactate.axis === "workW" ? n(r.lactate.obla4.workW, 0, " W") : n(r.lactate.obla4.speedKmh, 1, " km/h")}`,
-        ]
-      : []),
+    ...(r.lactate ? lactateLines(r.lactate) : []),
     ...r.issues.filter((i) => i.severity !== "info").map((i) => `${i.severity}: ${i.message}`),
-    // why a value above is missing (predicted values say so in the warnings already)
+    // why a value above is missing (predicted values say so in the warnings already; OBLA given as a speed is not missing)
     ...r.issues
-      .filter((i) => i.code === "not-determinable" && !i.message.startsWith("Predicted "))
+      .filter(
+        (i) => i.code === "not-determinable" && !i.message.startsWith("Predicted ") && i.where?.field !== "lactate.obla4.workW",
+      )
       .map((i) => `not determinable: ${i.message}`),
     r.caution,
   ];
   return lines.join("\n") + "\n";
+}
+
+/** The lactate lines of the text summary: OBLA on the axis the samples were placed by, then every method by name. */
+function lactateLines(l: NonNullable<CliAnalysisJson["lactate"]>): string[] {
+  const onSpeed = l.axis === "speedKmh";
+  const v = (x: number | null) => (x === null ? "not determinable" : onSpeed ? `${x.toFixed(1)} km/h` : `${x.toFixed(0)} W`);
+  const obla = onSpeed ? l.obla4.speedKmh : l.obla4.workW;
+  const others = l.thresholds.filter((t) => t.method !== "obla-4").map((t) => `${t.name} ${v(t.value)}`);
+  const peak = l.peakMmolL !== null ? `; peak lactate ${l.peakMmolL.toFixed(1)} mmol/L` : "";
+  const recovery = l.recoverySamples.length
+    ? ` (${l.recoverySamples.length} recovery sample(s): peak lactate only, not on the curve)`
+    : "";
+  return [
+    `lactate 4 mmol/L ${v(obla)}${onSpeed ? " (samples placed by speed: the file gives no work rate)" : ""}`,
+    `lactate         ${others.join("; ")}${peak}${recovery}`,
+  ];
 }

@@ -1,5 +1,12 @@
 import type { DraftExtras } from "../interpret";
-import { DOMAINS_OUT_OF_ORDER, type IndicesResult, type ThresholdEstimate, type ThresholdResult } from "../thresholds";
+import {
+  DOMAINS_OUT_OF_ORDER,
+  LACTATE_METHOD_NAMES,
+  type IndicesResult,
+  type LactateThresholdsResult,
+  type ThresholdEstimate,
+  type ThresholdResult,
+} from "../thresholds";
 import type { TestRecord } from "./types";
 
 /** Words for how a threshold was found: method agreement, confidence, or the reviewer's override. */
@@ -50,5 +57,28 @@ export function draftExtras(record: TestRecord, thresholds: ThresholdResult, ind
       gradeToPct: tenth(d.gradePct.upper?.value),
     })),
     domainsWithheld: indices.domains.issues.find((i) => i.code === DOMAINS_OUT_OF_ORDER)?.message,
+    ...(indices.lactate ? { lactate: draftLactate(indices.lactate) } : {}),
+  };
+}
+
+/** The lactate thresholds in display words (whole W, 0.1 km/h, lactate 0.1 mmol/L), named as the page names them. */
+function draftLactate(lac: LactateThresholdsResult): NonNullable<DraftExtras["lactate"]> {
+  const d = lac.axis === "speedKmh" ? 1 : 0;
+  return {
+    axis: lac.axis === "speedKmh" ? "speed" : "work rate",
+    points: lac.points.length,
+    recoverySamples: lac.recoveryPoints.length,
+    ...(lac.peakMmolL !== null ? { peak: `${lac.peakMmolL.toFixed(1)} mmol/L` } : {}),
+    ...(lac.relations.length ? { concordance: lac.concordance.note } : {}),
+    thresholds: lac.thresholds.map((t) => {
+      const rel = lac.relations.find((r) => r.id === t.id);
+      const v = t.intensity.value;
+      return {
+        name: LACTATE_METHOD_NAMES[t.id],
+        ...(v !== null ? { value: `${v.toFixed(d)} ${lac.unit}` } : { reason: t.intensity.reason ?? "not determinable" }),
+        ...(t.lactateMmolL.value !== null ? { lactate: `${t.lactateMmolL.value.toFixed(1)} mmol/L` } : {}),
+        ...(rel ? { relation: `${rel.where}: ${rel.verdictShort}` } : {}),
+      };
+    }),
   };
 }

@@ -38,7 +38,35 @@ export interface DraftExtras {
   domains?: IntensityDomain[];
   /** Why no domain is given when both thresholds are there (they are out of order), in words for the draft. */
   domainsWithheld?: string;
+  /** Blood lactate thresholds, already in display words (the thresholds layer names and rounds them). */
+  lactate?: DraftLactate;
   comparison?: SerialComparison;
+}
+
+/** The lactate thresholds for the draft text: each method named as the page names it, values with their units. */
+export interface DraftLactate {
+  /** What the samples were placed by: "work rate" or "speed". */
+  axis: string;
+  /** Points on the lactate curve. */
+  points: number;
+  /** Samples drawn in recovery (peak lactate only, not on the curve). */
+  recoverySamples: number;
+  /** Highest lactate of all samples, "8.5 mmol/L". */
+  peak?: string;
+  /** How concordance with VT1/VT2 is read (tolerance and its basis), one sentence; said once before the methods. */
+  concordance?: string;
+  thresholds: {
+    /** Method name, e.g. "OBLA (4 mmol/L)". */
+    name: string;
+    /** Intensity with unit, e.g. "192 W"; missing when not determinable. */
+    value?: string;
+    /** Lactate at the threshold, e.g. "4.0 mmol/L". */
+    lactate?: string;
+    /** Where it lies against the nearer VT and the verdict, e.g. "2 W (1.1%) below VT2 (194 W): concordant within 10 W". */
+    relation?: string;
+    /** Why it is not determinable. */
+    reason?: string;
+  }[];
 }
 
 export interface DraftSection {
@@ -85,6 +113,29 @@ const PREDICATE_START = /^(set|found|entered|placed|moved|chosen|taken|not)\b/i;
 function thresholdMethodSentence(name: string, words: string): string {
   const w = words.trim().replace(/[.\s]+$/, "");
   return PREDICATE_START.test(w) ? `${name} was ${w}.` : `${name} was found by ${w}.`;
+}
+
+/**
+ * The lactate paragraphs of the thresholds section: what the curve was made of (and the recovery samples kept off it),
+ * then one sentence per method — value, lactate level, and where it lies against VT1/VT2 — or why it is not determinable.
+ */
+function lactateParagraphs(l: DraftLactate): string[] {
+  const rec =
+    l.recoverySamples > 0
+      ? ` ${l.recoverySamples} sample${l.recoverySamples === 1 ? "" : "s"} drawn in recovery ${l.recoverySamples === 1 ? "counts" : "count"} towards peak lactate only and ${l.recoverySamples === 1 ? "is" : "are"} not on the curve.`
+      : "";
+  const out = [
+    `Blood lactate thresholds from ${l.points} point${l.points === 1 ? "" : "s"} against ${l.axis}${l.peak ? `; peak lactate ${l.peak}` : ""}.${rec}${l.concordance ? ` ${l.concordance}` : ""}`,
+  ];
+  for (const t of l.thresholds) {
+    if (t.value === undefined) {
+      out.push(`${t.name}: not determinable${t.reason ? ` (${t.reason})` : ""}.`);
+      continue;
+    }
+    const lac = t.lactate ? ` (lactate ${t.lactate})` : "";
+    out.push(`${t.name} at ${t.value}${lac}${t.relation ? `, ${t.relation}` : ""}.`);
+  }
+  return out;
 }
 
 function sentenceCase(s: string): string {
@@ -204,6 +255,7 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     );
   }
   if (extras.thresholdMethods?.vt2) thr.push(thresholdMethodSentence("VT2", extras.thresholdMethods.vt2));
+  if (extras.lactate) thr.push(...lactateParagraphs(extras.lactate));
   sections.push({ id: "thresholds", title: "Thresholds and how they were found", paragraphs: thr });
 
   sections.push({

@@ -1,7 +1,8 @@
 import type { BreathRow } from "../breath";
 import type { AnalysisResult } from "../analysis";
 import { averageSeries } from "../signal";
-import { slopeToVt2Name } from "../thresholds";
+import { LACTATE_METHOD_NAMES, slopeToVt2Name } from "../thresholds";
+import { formatNumber } from "../units";
 import type { ChartSpec } from "./charts";
 import { endTidalChart, lactateChart, timeCourseChart, veVsVco2Chart, ventilatoryEquivalentsChart, vSlopeChart } from "./charts";
 
@@ -93,14 +94,37 @@ export function analysisCharts(result: AnalysisResult): ChartSpec[] {
     );
   }
   const lac = result.indices.lactate;
-  if (lac && lac.axis === "workW" && lac.points.length >= 3) {
+  if (lac && lac.points.length >= 3) {
+    // thresholds named as the page names them, with their value; VT1/VT2 on the lactate chart's own axis
+    const bySpeed = lac.axis === "speedKmh";
+    const d = bySpeed ? 1 : 0;
+    const xs = lac.points.map((p) => p.x);
+    const vtAt = (a: typeof result.indices.atVt1) => (a ? (bySpeed ? a.speedKmh.value : a.workW.value) : null);
+    const recovery = lac.recoveryPoints.length;
     charts.push(
       lactateChart({
-        workW: lac.points.map((p) => p.x),
+        ...(bySpeed ? { speedKmh: xs } : { workW: xs }),
         lactateMmolL: lac.points.map((p) => p.lactateMmolL),
-        thresholds: lac.thresholds.flatMap((t) =>
-          t.intensity.value !== null ? [{ workW: t.intensity.value, label: t.id }] : [],
-        ),
+        thresholds: lac.thresholds.flatMap((t) => {
+          const v = t.intensity.value;
+          if (v === null) return [];
+          const label = `${LACTATE_METHOD_NAMES[t.id]} ${formatNumber(v, d)} ${lac.unit}`;
+          return [
+            {
+              ...(bySpeed ? { speedKmh: v } : { workW: v }),
+              label,
+              ...(t.lactateMmolL.value !== null ? { lactateMmolL: t.lactateMmolL.value } : {}),
+            },
+          ];
+        }),
+        vt1: vtAt(result.indices.atVt1),
+        vt2: vtAt(result.indices.atVt2),
+        setByReviewer,
+        ...(recovery
+          ? {
+              note: `${recovery} recovery sample${recovery === 1 ? "" : "s"} (peak lactate ${formatNumber(lac.peakMmolL ?? NaN, 1)} mmol/L) not on the curve`,
+            }
+          : {}),
       }),
     );
   }

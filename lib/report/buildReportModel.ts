@@ -7,7 +7,14 @@ import { ALL_SOURCES } from "./sources";
 import { formatClock, formatNumber } from "../units";
 import { CLINICAL_CAUTION, DRAFT_CAUTION } from "./caution";
 import { PREDICTED_QUANTITIES, type PredictedQuantity } from "../predicted";
-import { BAND_MEANING, slopeToVt2Name, veVco2BandEndsWords, type LineIndex } from "../thresholds";
+import {
+  BAND_MEANING,
+  LACTATE_METHOD_NAMES,
+  slopeToVt2Name,
+  veVco2BandEndsWords,
+  type LineIndex,
+  type LactateThresholdsResult,
+} from "../thresholds";
 import { bandNote } from "./bandNote";
 import { formatComparisonCutoff, formatComparisonValue } from "./formatComparison";
 import type { ReportModel, ReportRow, ReportSection } from "./reportModel";
@@ -62,6 +69,56 @@ function measuredRow(label: string, m: Measured, decimals: number, format?: (v: 
   };
   if (m.value === null && m.reason) row.note = m.reason;
   return row;
+}
+
+/**
+ * The lactate thresholds as rows of the thresholds table, named as the page names them (`LACTATE_METHOD_NAMES`; the
+ * method column carries the page's full label): value on the samples' axis, lactate at the threshold, and where it lies
+ * against the nearer of VT1/VT2 with the concordance verdict; then peak lactate (recovery samples included).
+ */
+function lactateRows(lac: LactateThresholdsResult): ReportRow[] {
+  const d = lac.axis === "speedKmh" ? 1 : 0;
+  const rows: ReportRow[] = lac.thresholds.map((t) => {
+    const row = measuredRow(LACTATE_METHOD_NAMES[t.id], t.intensity, d);
+    const rel = lac.relations.find((r) => r.id === t.id);
+    const bits = [
+      t.lactateMmolL.value !== null ? `lactate ${formatNumber(t.lactateMmolL.value, 1)} mmol/L` : "",
+      rel ? `${rel.where}: ${rel.verdictShort}` : "",
+    ];
+    row.note = [row.note, ...bits].filter(Boolean).join("; ");
+    return row;
+  });
+  if (lac.peakMmolL !== null) {
+    const rec = lac.recoveryPoints.length;
+    rows.push({
+      label: "Peak lactate",
+      value: formatNumber(lac.peakMmolL, 1),
+      unit: "mmol/L",
+      method: "highest blood lactate sample",
+      sourceIds: [],
+      ...(rec
+        ? {
+            note: `${rec} sample${rec === 1 ? "" : "s"} drawn in recovery included here; not on the lactate curve, so no threshold is read from ${rec === 1 ? "it" : "them"}`,
+          }
+        : {}),
+    });
+  }
+  return rows;
+}
+
+/** One methods sentence for the lactate thresholds: samples, axis, methods, recovery samples and the concordance rule. */
+function lactateMethods(lac: LactateThresholdsResult): string {
+  const n = lac.points.length;
+  const rec = lac.recoveryPoints.length;
+  const axis = lac.axis === "speedKmh" ? "speed" : "work rate";
+  const labels = unique(lac.thresholds.map((t) => t.intensity.provenance.label));
+  return [
+    `Lactate thresholds from ${n} point${n === 1 ? "" : "s"} of blood lactate against ${axis}: ${labels.join("; ")}.`,
+    rec ? `${rec} sample${rec === 1 ? "" : "s"} drawn in recovery counted as peak lactate only.` : "",
+    lac.relations.length ? lac.concordance.note : "",
+  ]
+    .filter(Boolean)
+    .join(" ");
 }
 
 function patientLine(record: TestRecord): string {
@@ -194,6 +251,7 @@ export function buildReportModel(
     row.note = [row.note, ...bits].filter(Boolean).join("; ");
     thresholds.push(row);
   }
+  if (ix.lactate) thresholds.push(...lactateRows(ix.lactate));
   const path: ReportModel["path"] = result.interpretation.path.steps.map((st, i) => {
     // A variable read by two rules of one step is listed once (same value, same cut-off).
     const seen = new Set<string>();
@@ -251,6 +309,7 @@ export function buildReportModel(
       (u) => `Cut-off choice: ${u.label}: ${u.optionLabel}${u.isDefault ? " (default)" : ""}.`,
     ),
   ];
+  if (ix.lactate) methods.push(lactateMethods(ix.lactate));
   if (result.conditioned.removed.length > 0)
     methods.push(`${result.conditioned.removed.length} breath values were set aside as artefacts before analysis.`);
 

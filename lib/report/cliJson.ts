@@ -1,6 +1,6 @@
 import type { Issue, Measured } from "../core";
 import type { AnalysisResult } from "../analysis";
-import { noiseCorrectedSlope, slopeToVt2Name, type ThresholdEstimate } from "../thresholds";
+import { LACTATE_METHOD_NAMES, noiseCorrectedSlope, slopeToVt2Name, type ThresholdEstimate } from "../thresholds";
 
 /**
  * The CLI's JSON object: a stable projection of the analysis result, documented by
@@ -82,8 +82,15 @@ export interface CliAnalysisJson {
     axis: string;
     unit: string;
     obla4: { workW: number | null; speedKmh: number | null };
-    thresholds: { method: string; value: number | null; lactateMmolL: number | null }[];
+    /** `name` as the page names the method; `reason` when `value` is null. */
+    thresholds: { method: string; name: string; value: number | null; lactateMmolL: number | null; reason: string | null }[];
     relations: string[];
+    /** Highest lactate of all samples, recovery samples included, mmol/L. */
+    peakMmolL: number | null;
+    /** Samples drawn in recovery: peak lactate only, not on the curve. */
+    recoverySamples: { lactateMmolL: number; afterEndS: number }[];
+    /** Tolerance of the concordance statements, axis units, and how it was set. */
+    concordanceTolerance: { value: number; basis: string; sampleSpacing: number | null };
   };
   domains: {
     id: string;
@@ -193,12 +200,17 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
     }
     return nd("Lactate 4 mmol/L (OBLA)", obla.intensity);
   };
-  if (lac && lac.axis !== "workW")
+  if (lac && lac.axis !== "workW") {
+    // obla4.workW is null because OBLA is given as a speed: said in words, marked by its field so the text summary
+    // does not list it as missing
+    const onSpeed = obla?.intensity.value ?? null;
     issues.push({
       severity: "info",
       code: "not-determinable",
-      message: `lactate.obla4.workW: the lactate samples are placed by ${lac.axis === "speedKmh" ? "speed" : lac.axis}, so OBLA is given on that axis`,
+      message: `Lactate 4 mmol/L (OBLA) as a work rate: the lactate samples are placed by speed (the file gives no work rate), so OBLA is given as a speed${onSpeed !== null ? ` (${onSpeed.toFixed(1)} km/h)` : ""}.`,
+      where: { field: "lactate.obla4.workW" },
     });
+  }
   // on a treadmill the load is speed and grade: a missing work rate is expected there, a missing speed is not
   const treadmill = result.conditioned.clean.some((r) => typeof r.speedKmh === "number");
   const json: CliAnalysisJson = {
@@ -269,8 +281,21 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
             workW: oblaOn("workW"),
             speedKmh: oblaOn("speedKmh"),
           },
-          thresholds: lac.thresholds.map((t) => ({ method: t.id, value: val(t.intensity), lactateMmolL: val(t.lactateMmolL) })),
+          thresholds: lac.thresholds.map((t) => ({
+            method: t.id,
+            name: LACTATE_METHOD_NAMES[t.id],
+            value: val(t.intensity),
+            lactateMmolL: val(t.lactateMmolL),
+            reason: t.intensity.value === null ? (t.intensity.reason ?? "not determinable") : null,
+          })),
           relations: lac.relations.map((r) => r.statement),
+          peakMmolL: lac.peakMmolL,
+          recoverySamples: lac.recoveryPoints.map((p) => ({ lactateMmolL: p.lactateMmolL, afterEndS: p.recoveryS ?? NaN })),
+          concordanceTolerance: {
+            value: lac.concordance.value,
+            basis: lac.concordance.basis,
+            sampleSpacing: lac.concordance.sampleSpacing,
+          },
         }
       : null,
     domains: ix.domains.domains.map((d) => ({

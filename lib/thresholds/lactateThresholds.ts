@@ -4,15 +4,21 @@ import { firstUpwardCrossing, interpolateLinear } from "../numeric/interpolate";
 import { PrefixSums } from "../numeric/linearRegression";
 import { evaluatePolynomialFit, polynomialFit, type PolynomialFit } from "../numeric/polynomialFit";
 import type { ConditionedTest } from "../signal";
+import { formatClock } from "../units";
 import { fieldSeries, provenanceOf } from "./indexSeries";
 
 /** Intensity axis of a lactate curve. */
 export type LactateAxis = "workW" | "speedKmh";
 
 export interface LactatePoint {
-  /** Work rate (W) or speed (km/h), per the axis. */
+  /** Work rate (W) or speed (km/h), per the axis; NaN for a sample drawn in recovery (it has no place on the curve). */
   x: number;
   lactateMmolL: number;
+  /**
+   * Set on a sample drawn in recovery: seconds after the end of exercise. Such a sample counts towards peak lactate
+   * only and never enters the lactate–intensity curve (nor is it averaged with a resting sample at 0 W).
+   */
+  recoveryS?: number;
 }
 
 export type LactateMethodId = "obla-4" | "baseline-plus-1" | "log-log" | "dmax" | "modified-dmax";
@@ -34,6 +40,13 @@ export interface ThresholdRelation {
   /** Difference as % of the VT. */
   differencePercent: number;
   concordant: boolean;
+  /** Where it lies, in words: "2 W (1.1%) below VT2 (194 W)" or "at VT1 (115 W)". */
+  where: string;
+  /** The verdict in words, with the tolerance and, when the samples set it, their spacing. */
+  verdict: string;
+  /** The verdict with the tolerance only ("concordant within 12.5 W"), where `concordance.note` is said once beside it. */
+  verdictShort: string;
+  /** One sentence: name, value, where, verdict. */
   statement: string;
 }
 
@@ -51,34 +64,77 @@ export interface LactateThresholdsOptions {
   /** VT1 and VT2 on the same axis (W or km/h), for the concordance statement. */
   vt1?: number | null;
   vt2?: number | null;
-  /** |difference| within which a lactate threshold and a VT are called concordant (implementation choice). @default 10 W or 0.5 km/h */
+  /**
+   * |difference| within which a lactate threshold and a VT are called concordant. @default the larger of 10 W
+   * (0.5 km/h) and half the median spacing of the samples on the axis (both our choice, no published value): a
+   * threshold between two samples is interpolated, so it cannot be read closer than about half their spacing.
+   */
   concordanceTolerance?: number;
+}
+
+/** How the concordance tolerance was set. */
+export interface ConcordanceTolerance {
+  /** Axis units (W or km/h). */
+  value: number;
+  /** "fixed": the 10 W / 0.5 km/h floor; "sample-spacing": half the median sample spacing; "option": given by the caller. */
+  basis: "fixed" | "sample-spacing" | "option";
+  /** Median spacing of neighbouring curve points on the axis (whole W, 0.1 km/h), or null with fewer than two points. */
+  sampleSpacing: number | null;
+  /** One sentence saying how concordance is read (for the methods of a report). */
+  note: string;
 }
 
 export interface LactateThresholdsResult {
   axis: LactateAxis;
   unit: string;
-  /** Points used, sorted by intensity, duplicates averaged. */
+  /** Points of the lactate–intensity curve, sorted by intensity, duplicates averaged (recovery samples left out). */
   points: LactatePoint[];
+  /** Samples drawn in recovery: peak lactate only, never on the curve. */
+  recoveryPoints: LactatePoint[];
+  /** Highest lactate of all samples, recovery included, mmol/L; null without samples. */
+  peakMmolL: number | null;
   thresholds: LactateThreshold[];
   relations: ThresholdRelation[];
+  /** The tolerance the relations were read with. */
+  concordance: ConcordanceTolerance;
   issues: Issue[];
 }
 
-const LABELS: Record<LactateMethodId, string> = {
-  "obla-4": "OBLA: intensity at 4 mmol/L (linear interpolation)",
-  "baseline-plus-1": "baseline + 1.0 mmol/L (linear interpolation)",
-  "log-log": "log-log two-segment fit, intersection",
-  dmax: "Dmax: cubic fit, maximum distance from the chord joining its ends",
-  "modified-dmax": "modified Dmax: chord from the point before the first rise > 0.4 mmol/L",
-};
-const SHORT: Record<LactateMethodId, string> = {
+/**
+ * The name of each lactate threshold method, as every view writes it (page table, relations, report table, draft
+ * text, chart legend, CLI). Each method label below starts with it.
+ */
+export const LACTATE_METHOD_NAMES: Record<LactateMethodId, string> = {
   "obla-4": "OBLA (4 mmol/L)",
   "baseline-plus-1": "Baseline + 1 mmol/L",
   "log-log": "Log-log threshold",
   dmax: "Dmax",
   "modified-dmax": "Modified Dmax",
 };
+const SHORT = LACTATE_METHOD_NAMES;
+const LABELS: Record<LactateMethodId, string> = {
+  "obla-4": `${SHORT["obla-4"]}: intensity at 4 mmol/L (linear interpolation)`,
+  "baseline-plus-1": `${SHORT["baseline-plus-1"]}: 1.0 mmol/L above the baseline (linear interpolation)`,
+  "log-log": `${SHORT["log-log"]}: two-segment fit of log lactate on log intensity, intersection`,
+  dmax: `${SHORT.dmax}: cubic fit, maximum distance from the chord joining its ends`,
+  "modified-dmax": `${SHORT["modified-dmax"]}: chord from the point before the first rise > 0.4 mmol/L`,
+};
+
+/**
+ * A sample drawn up to this long after the end of exercise is read at the end of exercise (the load has just
+ * dropped; a draw as the test stops), s. Our choice: about two breaths or one 10-s display bin.
+ */
+export const LACTATE_END_OF_EXERCISE_GRACE_S = 10;
+
+/**
+ * A lactate curve whose lowest value reaches this level (mmol/L) has no low-intensity part: resting blood lactate is
+ * about 0.5–2 mmol/L (common practice, recalled textbook range), and 4 mmol/L is the OBLA level itself (Sjödin &
+ * Jacobs 1981, confirmed). Thresholds read from a baseline are then not given (our choice).
+ */
+export const LACTATE_LOWEST_IMPLAUSIBLE_MMOL_L = 4;
+
+/** Concordance floor, axis units (our choice, no published value). */
+const FIXED_TOLERANCE: Record<LactateAxis, number> = { workW: 10, speedKmh: 0.5 };
 const SOURCES: Record<LactateMethodId, string[]> = {
   "obla-4": ["sjodin-jacobs-1981"],
   "baseline-plus-1": ["bishop-1998", "implementation-choice"],
@@ -90,6 +146,12 @@ const SOURCES: Record<LactateMethodId, string[]> = {
 /**
  * Gather lactate points from samples (intensity from the sample; else read from the test at the sample time;
  * else the work rate / speed of the sample's stage) or, without samples, from the rows that carry lactate.
+ *
+ * A sample drawn after the end of exercise (later than `LACTATE_END_OF_EXERCISE_GRACE_S`) is a recovery sample
+ * (e.g. the routine peak-lactate draw 3 min after exercise): it is kept with `recoveryS` set and x = NaN, counts
+ * towards peak lactate only, and never enters the curve (the work rate at its time — 0 W — did not produce it, and
+ * lactate keeps changing for minutes after exercise stops; common practice). When every timed sample falls before
+ * exercise starts, none is placed and a warning asks whether the times were minutes.
  */
 export function lactatePointsFromTest(
   test: ConditionedTest,
@@ -98,8 +160,31 @@ export function lactatePointsFromTest(
   const issues: Issue[] = [];
   const work = fieldSeries(test.clean, "workW");
   const speed = fieldSeries(test.clean, "speedKmh");
-  const raw: { w: number; s: number; l: number }[] = [];
+  const ex = test.exercise;
+  const raw: { w: number; s: number; l: number; t?: number; recoveryS?: number }[] = [];
+  let atEnd = 0;
+  /** Where a sample drawn at time t is read: at t, at the end of exercise (just after it), or nowhere (recovery). */
+  const readTime = (t: number): { at: number; recoveryS?: number } => {
+    if (!ex || t <= ex.endS) return { at: t };
+    if (t - ex.endS <= LACTATE_END_OF_EXERCISE_GRACE_S) {
+      atEnd++;
+      return { at: ex.endS };
+    }
+    return { at: t, recoveryS: t - ex.endS };
+  };
   if (samples && samples.length > 0) {
+    const timedOnly = samples.filter(
+      (x) => x.timeS !== undefined && x.workW === undefined && x.speedKmh === undefined && x.stage === undefined,
+    );
+    if (ex && timedOnly.length >= 2 && timedOnly.length === samples.length && timedOnly.every((x) => x.timeS! < ex.startS)) {
+      issues.push(
+        allBeforeExerciseIssue(
+          test,
+          timedOnly.map((x) => x.timeS!),
+        ),
+      );
+      return { axis: work.v.some((v) => v > 0) ? "workW" : "speedKmh", points: [], issues };
+    }
     // stage number → the work rate / speed of that stage's last row
     const byStage = new Map<number, { w: number; s: number }>();
     for (const r of test.clean)
@@ -107,23 +192,72 @@ export function lactatePointsFromTest(
     for (const smp of samples) {
       const t = smp.timeS;
       const st = smp.stage !== undefined ? byStage.get(smp.stage) : undefined;
-      const w = smp.workW ?? (t !== undefined ? interpolateLinear(work.t, work.v, t) : (st?.w ?? NaN));
-      const s = smp.speedKmh ?? (t !== undefined ? interpolateLinear(speed.t, speed.v, t) : (st?.s ?? NaN));
-      raw.push({ w, s, l: smp.lactateMmolL });
+      // a work rate or speed above zero given with the sample places it in exercise whatever its time
+      const given = (smp.workW ?? 0) > 0 || (smp.speedKmh ?? 0) > 0;
+      const place = t !== undefined && !given ? readTime(t) : t !== undefined ? { at: t } : undefined;
+      if (place?.recoveryS !== undefined) {
+        raw.push({ w: NaN, s: NaN, l: smp.lactateMmolL, t, recoveryS: place.recoveryS });
+        continue;
+      }
+      const w = smp.workW ?? (place ? interpolateLinear(work.t, work.v, place.at) : (st?.w ?? NaN));
+      const s = smp.speedKmh ?? (place ? interpolateLinear(speed.t, speed.v, place.at) : (st?.s ?? NaN));
+      raw.push({ w, s, l: smp.lactateMmolL, t });
     }
   } else {
-    for (const r of test.clean)
-      if (typeof r.lactateMmolL === "number") raw.push({ w: r.workW ?? NaN, s: r.speedKmh ?? NaN, l: r.lactateMmolL });
+    for (const r of test.clean) {
+      if (typeof r.lactateMmolL !== "number") continue;
+      // a row with its own load above zero is exercise (a stage table's last stage may end after the detected span)
+      const loaded = (r.workW ?? 0) > 0 || (r.speedKmh ?? 0) > 0;
+      const place = loaded ? { at: r.timeS } : readTime(r.timeS);
+      if (place.recoveryS !== undefined) raw.push({ w: NaN, s: NaN, l: r.lactateMmolL, t: r.timeS, recoveryS: place.recoveryS });
+      else if (place.at === r.timeS) raw.push({ w: r.workW ?? NaN, s: r.speedKmh ?? NaN, l: r.lactateMmolL, t: r.timeS });
+      else
+        raw.push({
+          w: interpolateLinear(work.t, work.v, place.at),
+          s: interpolateLinear(speed.t, speed.v, place.at),
+          l: r.lactateMmolL,
+          t: r.timeS,
+        });
+    }
   }
-  const hasWork = raw.some((r) => Number.isFinite(r.w) && r.w > 0);
+  const hasWork = raw.some((r) => r.recoveryS === undefined && Number.isFinite(r.w) && r.w > 0);
   const axis: LactateAxis = hasWork ? "workW" : "speedKmh";
   const points: LactatePoint[] = [];
+  const recovery: { t: number; after: number; l: number }[] = [];
   let dropped = 0;
   for (const r of raw) {
+    if (r.recoveryS !== undefined) {
+      if (!Number.isFinite(r.l)) continue;
+      points.push({ x: NaN, lactateMmolL: r.l, recoveryS: r.recoveryS });
+      recovery.push({ t: r.t!, after: r.recoveryS, l: r.l });
+      continue;
+    }
     const x = axis === "workW" ? r.w : r.s;
     if (Number.isFinite(x) && Number.isFinite(r.l)) points.push({ x, lactateMmolL: r.l });
     else dropped++;
   }
+  if (recovery.length > 0) {
+    const peak = Math.max(...points.map((p) => p.lactateMmolL));
+    const list = recovery
+      .map((r) => `${formatClock(r.t)}, ${formatClock(r.after)} after the end of exercise: ${r.l.toFixed(1)} mmol/L`)
+      .join("; ");
+    const axisWords = axis === "workW" ? "work rate" : "speed";
+    issues.push(
+      makeIssue(
+        "info",
+        "lactate-recovery-sample",
+        `${recovery.length} lactate sample(s) drawn in recovery (${list}) ${recovery.length === 1 ? "is" : "are"} not on the lactate–${axisWords} curve: lactate keeps changing after exercise stops and the ${axisWords} at that time did not produce it. ${recovery.length === 1 ? "It counts" : "They count"} only towards peak lactate (${peak.toFixed(1)} mmol/L).`,
+      ),
+    );
+  }
+  if (atEnd > 0 && ex)
+    issues.push(
+      makeIssue(
+        "info",
+        "lactate-at-end-of-exercise",
+        `${atEnd} lactate sample(s) drawn within ${LACTATE_END_OF_EXERCISE_GRACE_S} s after the end of exercise (${formatClock(ex.endS)}) ${atEnd === 1 ? "was" : "were"} read at the end of exercise.`,
+      ),
+    );
   if (dropped > 0 && points.length > 0)
     issues.push(
       makeIssue("info", "lactate-without-intensity", `${dropped} lactate sample(s) had no work rate or speed and were left out.`),
@@ -145,8 +279,31 @@ export function lactatePointsFromTest(
   return { axis, points, issues };
 }
 
+/**
+ * Every timed sample lies before exercise starts: read as given they would all be resting values. When the times read
+ * as minutes fit inside the recording, ask whether they were minutes (a plain-number time column without a unit).
+ */
+function allBeforeExerciseIssue(test: ConditionedTest, times: number[]): Issue {
+  const ex = test.exercise!;
+  const lo = Math.min(...times);
+  const hi = Math.max(...times);
+  const end = test.clean.length ? test.clean[test.clean.length - 1].timeS : ex.endS;
+  const asMinutes = hi * 60 <= end && hi * 60 > ex.startS;
+  const where = `${times.length} lactate samples fall before exercise starts (${formatClock(lo)}–${formatClock(hi)}; exercise ${formatClock(ex.startS)}–${formatClock(ex.endS)}), at rest: none was placed on the curve.`;
+  return makeIssue(
+    "warning",
+    "lactate-all-before-exercise",
+    asMinutes
+      ? `All ${where} Are the times in minutes? Read as minutes they fall at ${formatClock(lo * 60)}–${formatClock(hi * 60)}. Give the time unit: "Plain-number times are in: minutes" on the inputs page, --lactate-time-unit min on the command line, or a unit in the header (e.g. time_min).`
+      : `All ${where} Check the sample times against the exercise file's clock.`,
+  );
+}
+
+/** Curve points: recovery samples left out, sorted by intensity, samples at one intensity averaged. */
 function prepare(points: readonly LactatePoint[]): LactatePoint[] {
-  const sorted = [...points].filter((p) => Number.isFinite(p.x) && Number.isFinite(p.lactateMmolL)).sort((a, b) => a.x - b.x);
+  const sorted = [...points]
+    .filter((p) => p.recoveryS === undefined && Number.isFinite(p.x) && Number.isFinite(p.lactateMmolL))
+    .sort((a, b) => a.x - b.x);
   const out: LactatePoint[] = [];
   let i = 0;
   while (i < sorted.length) {
@@ -198,8 +355,11 @@ function dmaxOnFit(fit: PolynomialFit, a: number, b: number): { x: number; dista
  * - Dmax: cubic fit, point of maximum perpendicular distance from the chord joining the fitted curve's ends,
  *   found where the curve's slope equals the chord's (Cheng et al. 1992; secondary);
  * - modified Dmax: chord from the point before the first rise > 0.4 mmol/L (Bishop 1998 named, rule recalled).
- * Every threshold must lie inside the tested range, else "not determinable". With VT1/VT2 on the same axis,
- * each threshold is placed against the nearer VT.
+ * Every threshold must lie inside the tested range, else "not determinable". Recovery samples (`recoveryS`) count
+ * towards `peakMmolL` only. A curve whose lowest value is ≥ 4 mmol/L has no low-intensity part
+ * (`LACTATE_LOWEST_IMPLAUSIBLE_MMOL_L`): only OBLA is read and a warning asks to check the unit and positions.
+ * With VT1/VT2 on the same axis, each threshold is placed against the nearer VT and called concordant within the
+ * larger of 10 W (0.5 km/h) and half the median sample spacing (our choice; `concordance` says which).
  */
 export function lactateThresholds(
   points: readonly LactatePoint[],
@@ -211,9 +371,13 @@ export function lactateThresholds(
   const rise = options.baselineRiseMmolL ?? 1;
   const modRise = options.modifiedDmaxRiseMmolL ?? 0.4;
   const minSeg = Math.max(2, options.logLogMinPerSegment ?? 2);
-  const tol = options.concordanceTolerance ?? (axis === "workW" ? 10 : 0.5);
   const issues: Issue[] = [];
   const pts = prepare(points);
+  const recoveryPoints = points.filter((p) => p.recoveryS !== undefined && Number.isFinite(p.lactateMmolL));
+  const all = points.filter((p) => Number.isFinite(p.lactateMmolL)).map((p) => p.lactateMmolL);
+  const peakMmolL = all.length ? Math.max(...all) : null;
+  const concordance = concordanceTolerance(pts, axis, options.concordanceTolerance);
+  const tol = concordance.value;
   const xs = pts.map((p) => p.x);
   const ys = pts.map((p) => p.lactateMmolL);
   const n = pts.length;
@@ -244,7 +408,7 @@ export function lactateThresholds(
       makeIssue("info", "lactate-too-few-points", "Fewer than three lactate points: lactate thresholds not determinable."),
     );
     for (const id of Object.keys(LABELS) as LactateMethodId[]) thresholds.push(make(id, NaN, "fewer than three lactate points"));
-    return { axis, unit, points: pts, thresholds, relations: [], issues };
+    return { axis, unit, points: pts, recoveryPoints, peakMmolL, thresholds, relations: [], concordance, issues };
   }
 
   // OBLA
@@ -254,6 +418,21 @@ export function lactateThresholds(
       levelMmolL: obla,
     }),
   );
+
+  // a curve with no low-intensity part: only OBLA ("never below 4 mmol/L") is read from it
+  if (ys[minIdx] >= LACTATE_LOWEST_IMPLAUSIBLE_MMOL_L) {
+    const low = ys[minIdx].toFixed(1);
+    const why = `the lowest lactate (${low} mmol/L) is at or above ${LACTATE_LOWEST_IMPLAUSIBLE_MMOL_L} mmol/L: the curve has no low-intensity part`;
+    issues.push(
+      makeIssue(
+        "warning",
+        "lactate-no-low-part",
+        `The lowest lactate on the curve is ${low} mmol/L, far above a resting value (about 0.5–2 mmol/L): no threshold is read from a baseline. Check the unit (were the values mg/dL? 1 mmol/L = 9.008 mg/dL) and the samples' times or work rates.`,
+      ),
+    );
+    for (const id of ["baseline-plus-1", "log-log", "dmax", "modified-dmax"] as const) thresholds.push(make(id, NaN, why));
+    return { axis, unit, points: pts, recoveryPoints, peakMmolL, thresholds, relations: [], concordance, issues };
+  }
 
   // baseline + 1
   const baseIdx = options.baseline === "first" ? 0 : minIdx;
@@ -350,19 +529,72 @@ export function lactateThresholds(
       const pct = (100 * diff) / nearest[1];
       const concordant = Math.abs(diff) <= tol;
       const f = (v: number) => (axis === "workW" ? v.toFixed(0) : v.toFixed(1));
-      const where =
+      const offset =
         diff === 0 ? "at" : `${f(Math.abs(diff))} ${unit} (${Math.abs(pct).toFixed(1)}%) ${diff > 0 ? "above" : "below"}`;
+      const where = `${offset} ${nearest[0]} (${f(nearest[1])} ${unit})`;
+      const spacing =
+        concordance.basis === "sample-spacing" && concordance.sampleSpacing !== null
+          ? ` (half the ${f(concordance.sampleSpacing)} ${unit} median sample spacing)`
+          : "";
+      const verdictShort = `${concordant ? "concordant within" : "apart by more than"} ${fmtTol(tol, axis)} ${unit}`;
+      const verdict = `${verdictShort}${spacing}`;
       relations.push({
         id: th.id,
         nearest: nearest[0],
         difference: diff,
         differencePercent: pct,
         concordant,
-        statement: `${SHORT[th.id]} at ${f(x)} ${unit} lies ${where} ${nearest[0]} (${f(nearest[1])} ${unit}): ${
-          concordant ? `concordant within ${f(tol)} ${unit}` : `apart by more than ${f(tol)} ${unit}`
-        }.`,
+        where,
+        verdict,
+        verdictShort,
+        statement: `${SHORT[th.id]} at ${f(x)} ${unit} lies ${where}: ${verdict}.`,
       });
     }
   }
-  return { axis, unit, points: pts, thresholds, relations, issues };
+  return { axis, unit, points: pts, recoveryPoints, peakMmolL, thresholds, relations, concordance, issues };
+}
+
+/**
+ * The concordance tolerance: the caller's, else the larger of the fixed floor (10 W / 0.5 km/h) and half the median
+ * spacing of neighbouring curve points (both our choice, no published value: a threshold between two samples is a
+ * linear interpolation, so its place is known only to about half their spacing).
+ */
+function concordanceTolerance(pts: readonly LactatePoint[], axis: LactateAxis, given?: number): ConcordanceTolerance {
+  const gaps: number[] = [];
+  for (let i = 1; i < pts.length; i++) gaps.push(pts[i].x - pts[i - 1].x);
+  gaps.sort((a, b) => a - b);
+  const m = gaps.length;
+  const sampleSpacing = m === 0 ? null : m % 2 ? gaps[(m - 1) / 2] : (gaps[m / 2 - 1] + gaps[m / 2]) / 2;
+  if (given !== undefined && Number.isFinite(given))
+    return {
+      value: given,
+      basis: "option",
+      sampleSpacing,
+      note: `Concordance with VT1/VT2 is read within ${fmtTol(given, axis)} ${AXIS_UNIT[axis]} (set by the lab).`,
+    };
+  const floor = FIXED_TOLERANCE[axis];
+  // half the spacing as displayed (whole W, 0.1 km/h), so the tolerance written is the one applied
+  const shown =
+    sampleSpacing === null ? null : axis === "workW" ? Math.round(sampleSpacing) : Math.round(sampleSpacing * 10) / 10;
+  const u = AXIS_UNIT[axis];
+  return shown !== null && shown / 2 > floor
+    ? {
+        value: shown / 2,
+        basis: "sample-spacing",
+        sampleSpacing: shown,
+        note: `Concordance of the lactate thresholds with VT1/VT2 is read within ${fmtTol(shown / 2, axis)} ${u}: the samples lie a median ${shown} ${u} apart and a threshold between two samples is interpolated, so its place is known only to about half that spacing (our choice; at least ${floor} ${u}).`,
+      }
+    : {
+        value: floor,
+        basis: "fixed",
+        sampleSpacing: shown,
+        note: `Concordance of the lactate thresholds with VT1/VT2 is read within ${floor} ${u} (our choice, no published value${shown !== null ? `; half the ${shown} ${u} median sample spacing is no wider` : ""}).`,
+      };
+}
+
+const AXIS_UNIT: Record<LactateAxis, string> = { workW: "W", speedKmh: "km/h" };
+
+/** A tolerance as written: whole W or 0.1 km/h, one more decimal when it is half of such a value (12.5 W, 0.25 km/h). */
+function fmtTol(v: number, axis: LactateAxis): string {
+  return String(axis === "workW" ? Math.round(v * 10) / 10 : Math.round(v * 100) / 100);
 }

@@ -13,8 +13,8 @@ const byId = (r: ReturnType<typeof lactateThresholds>, id: string) => r.threshol
 //   recalled ["bishop-1998-mod-dmax-rule"];
 // - log-log: Beaver WL, Wasserman K, Whipp BJ, J Appl Physiol 1985;59:1936 — secondary (citation recalled)
 //   ["beaver-1985-loglog"];
-// - "concordant within 10 W" (0.5 km/h on the speed axis): the lib's default concordanceTolerance, our choice
-//   ["implementation-choice"], not a published value.
+// - concordance tolerance: the larger of 10 W (0.5 km/h on the speed axis) and half the median sample spacing, the
+//   lib's default concordanceTolerance, our choice ["implementation-choice"], not a published value.
 
 describe("fixed-level methods (invented four-point curve)", () => {
   const pts: LactatePoint[] = Object.freeze([
@@ -37,8 +37,11 @@ describe("fixed-level methods (invented four-point curve)", () => {
     expect(obla.nearest).toBe("VT2");
     expect(obla.difference).toBeCloseTo(5, 9);
     expect(obla.concordant).toBe(true);
-    // 5/220 = 2.27%; 5 W ≤ 10 W, the default tolerance (our choice, not a published value) → concordant
-    expect(obla.statement).toBe("OBLA (4 mmol/L) at 225 W lies 5 W (2.3%) above VT2 (220 W): concordant within 10 W.");
+    // 5/220 = 2.27%; samples 50 W apart → tolerance max(10, 50/2) = 25 W (our choice, not a published value) → concordant
+    expect(obla.statement).toBe(
+      "OBLA (4 mmol/L) at 225 W lies 5 W (2.3%) above VT2 (220 W): concordant within 25 W (half the 50 W median sample spacing).",
+    );
+    expect(r.concordance).toMatchObject({ value: 25, basis: "sample-spacing", sampleSpacing: 50 });
     const b1 = r.relations.find((x) => x.id === "baseline-plus-1")!;
     expect(b1.nearest).toBe("VT1");
     expect(b1.difference).toBeCloseTo(-10 / 3, 9);

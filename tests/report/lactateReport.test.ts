@@ -1,0 +1,111 @@
+import { execFileSync } from "node:child_process";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { describe, expect, it } from "vitest";
+import { analyse, type TestRecord } from "../../lib/analysis";
+import { buildReportModel } from "../../lib/report/buildReportModel";
+import { CLINICAL_CAUTION } from "../../lib/report/caution";
+import { initialDraftSections } from "../../lib/report/initialDraftSections";
+import { renderReportPdf } from "../../lib/report/pdf/renderReportPdf";
+import { renderChartSvg } from "../../lib/report/charts/renderChartSvg";
+import { demoLabel, demoRecord } from "./demoRecord";
+
+// The INVENTED demo case "normal-adult" (synthetic preset, fixed seed) with INVENTED lactate samples whose thresholds are
+// known by construction: 0 W 1.0, 50 W 1.1, 100 W 1.5, 150 W 3.0, 200 W 5.0 mmol/L, and a routine peak-lactate draw
+// 3 min into recovery (8.5 mmol/L, no work rate).
+// OBLA 4 mmol/L (Sjödin & Jacobs 1981, confirmed): 150 + (4 − 3)/(5 − 3) · 50 = 175 W.
+// Baseline + 1 mmol/L (Bishop et al. 1998, confirmed): 2.0 mmol/L between 100 W (1.5) and 150 W (3.0):
+// 100 + 0.5/1.5 · 50 = 116.7 W → "117".
+async function lactateCase(): Promise<{ record: TestRecord; result: ReturnType<typeof analyse> }> {
+  const record = await demoRecord("normal-adult");
+  const endS = analyse(record).conditioned.exercise!.endS;
+  record.lactate = [
+    { workW: 0, lactateMmolL: 1.0 },
+    { workW: 50, lactateMmolL: 1.1 },
+    { workW: 100, lactateMmolL: 1.5 },
+    { workW: 150, lactateMmolL: 3.0 },
+    { workW: 200, lactateMmolL: 5.0 },
+    { timeS: endS + 180, lactateMmolL: 8.5 },
+  ];
+  return { record, result: analyse(record) };
+}
+
+function pdfText(pdf: Buffer): string {
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), "cpet-lactate-"));
+  const file = path.join(dir, "r.pdf");
+  fs.writeFileSync(file, pdf);
+  try {
+    return execFileSync("pdftotext", [file, "-"])
+      .toString()
+      .replace(/\u00a0/g, " ")
+      .replace(/\s+/g, " ");
+  } catch {
+    throw new Error("pdftotext not found: install poppler-utils (e.g. apt-get install poppler-utils) to run the PDF text checks");
+  } finally {
+    fs.rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+describe("lactate thresholds in the report (table, draft text, chart, PDF)", () => {
+  it("the thresholds table names each method as the page does, with value, lactate level and relation to VT1/VT2", async () => {
+    const { record, result } = await lactateCase();
+    const model = buildReportModel(result, record, demoLabel("normal-adult"), {
+      status: "draft",
+      sections: initialDraftSections(result),
+    });
+    const row = (label: string) => model.thresholds.find((r) => r.label === label)!;
+    expect(row("OBLA (4 mmol/L)")).toMatchObject({ value: "175", unit: "W" });
+    expect(row("OBLA (4 mmol/L)").method).toBe("OBLA (4 mmol/L): intensity at 4 mmol/L (linear interpolation)");
+    expect(row("OBLA (4 mmol/L)").note).toMatch(
+      /^lactate 4\.0 mmol\/L; \d+ W \(\d+\.\d%\) (above|below) VT[12] \(\d+ W\): (concordant within|apart by more than) /,
+    );
+    expect(row("Baseline + 1 mmol/L")).toMatchObject({ value: "117", unit: "W" });
+    expect(row("OBLA (4 mmol/L)").sourceIds).toContain("sjodin-jacobs-1981");
+    // the recovery draw is peak lactate only
+    expect(row("Peak lactate")).toMatchObject({ value: "8.5", unit: "mmol/L" });
+    expect(row("Peak lactate").note).toMatch(/1 sample drawn in recovery included here; not on the lactate curve/);
+    expect(model.methods.some((m) => /^Lactate thresholds from 5 points of blood lactate against work rate/.test(m))).toBe(true);
+  });
+
+  it("the draft text carries the thresholds in words", async () => {
+    const { result } = await lactateCase();
+    const text = initialDraftSections(result)
+      .find((s) => s.id === "thresholds")!
+      .paragraphs.join("\n");
+    expect(text).toMatch(/Blood lactate thresholds from 5 points against work rate; peak lactate 8\.5 mmol\/L\./);
+    expect(text).toMatch(/1 sample drawn in recovery counts towards peak lactate only and is not on the curve\./);
+    expect(text).toMatch(/OBLA \(4 mmol\/L\) at 175 W \(lactate 4\.0 mmol\/L\), \d+ W \(\d+\.\d%\) (above|below) VT[12]/);
+    expect(text).toMatch(/Baseline \+ 1 mmol\/L at 117 W \(lactate 2\.0 mmol\/L\)/);
+  });
+
+  it("the chart names the methods in its legend, draws VT1/VT2 and keeps the recovery draw off the curve", async () => {
+    const { result, record } = await lactateCase();
+    const model = buildReportModel(result, record, "x", { status: "draft", sections: [] });
+    const spec = model.charts.find((c) => c.id === "lactate")!;
+    const names = spec.series.map((s) => s.name);
+    expect(names).toContain("OBLA (4 mmol/L) 175 W");
+    expect(names).toContain("Baseline + 1 mmol/L 117 W");
+    expect(spec.markers.map((m) => m.label).sort()).toEqual(["VT1", "VT2"]);
+    expect(spec.series[0].points[0]).toEqual([0, 1.0]);
+    expect(spec.note).toBe("1 recovery sample (peak lactate 8.5 mmol/L) not on the curve");
+    const svg = renderChartSvg(spec);
+    for (const id of ["obla-4", "baseline-plus-1", "modified-dmax", "log-log"]) expect(svg).not.toContain(`>${id}<`);
+  });
+
+  it("the PDF shows the lactate thresholds by name, with the draft mark and the clinical caution", async () => {
+    const { record, result } = await lactateCase();
+    const model = buildReportModel(result, record, demoLabel("normal-adult"), {
+      status: "draft",
+      sections: initialDraftSections(result),
+    });
+    const text = pdfText(await renderReportPdf(model));
+    expect(text).toMatch(/OBLA \(4 mmol\/L\) 175 W/);
+    expect(text).toMatch(/Baseline \+ 1 mmol\/L 117 W/);
+    expect(text).toMatch(/Peak lactate 8\.5 mmol\/L/);
+    expect(text).toMatch(/OBLA \(4 mmol\/L\) at 175 W \(lactate 4\.0 mmol\/L\)/);
+    expect(text).toContain("DRAFT - not signed");
+    expect(text).toContain(CLINICAL_CAUTION);
+    expect(text).not.toMatch(/obla-4|modified-dmax|baseline-plus-1/);
+  });
+});
