@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { interpret } from "../../lib/interpret";
+import { interpret, type InterpretInput } from "../../lib/interpret";
 import { baseInput, deepFreeze } from "./helpers";
 
 // Flow: ATS/ACCP 2003 statement and Wasserman-school flowcharts (recalled); cut-offs per rules.json.
@@ -169,5 +169,24 @@ describe("effort when peak RER is missing", () => {
     expect(r.effort.label).not.toMatch(/RER below/);
     expect(r.effort.label).toMatch(/peak RER not available/);
     expect(path(r)[0]).toBe("effort:adequate");
+  });
+});
+
+describe("submaximal test: the ventilatory-efficiency step names what it read (invented values)", () => {
+  // maximal effort not shown: peak RER 0.95 with heart rate and breathing reserve left (ERS 2019 markers, confirmed)
+  const submax = (over: Partial<InterpretInput["values"]>) =>
+    interpret(baseInput({ peakRer: 0.95, hrPctPred: 70, hrReserveBpm: 45, veMvvPct: 50, ...over })).path.steps.find(
+      (s) => s.nodeId === "submax-efficiency",
+    )!;
+  it("slope 27 and OUES 1600 (above 1400, Myers 2014 — confirmed): ventilatory efficiency normal", () => {
+    expect(submax({ veVco2SlopeWhole: 27, oues: 1600 }).finding).toBe("ventilatory efficiency normal (effort-independent)");
+  });
+  it("slope 27 without OUES: only the slope is called normal, and the finding says OUES was not available", () => {
+    expect(submax({ veVco2SlopeWhole: 27, oues: null }).finding).toBe(
+      "VE/VCO2 slope normal (effort-independent; OUES not available)",
+    );
+  });
+  it("OUES 1300: abnormal", () => {
+    expect(submax({ veVco2SlopeWhole: 27, oues: 1300 }).outcome).toBe("abnormal");
   });
 });
