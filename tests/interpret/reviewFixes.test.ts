@@ -4,10 +4,9 @@
  * Inputs are INVENTED (tests/interpret/helpers.ts baseInput: a maximal test with nothing abnormal) and the six
  * INVENTED demo cases (tests/fixtures/cases, made by the synthetic generator).
  */
-import fs from "node:fs";
-import path from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
-import { analyse, buildRecord, type AnalysisResult } from "../../lib/analysis";
+import { analyse, type AnalysisResult } from "../../lib/analysis";
+import { caseRecord } from "../fixtures/caseRecord";
 import { composeDraft, interpret } from "../../lib/interpret";
 import { vo2PlateauPresent } from "../../lib/thresholds";
 import { baseInput } from "./helpers";
@@ -101,17 +100,7 @@ describe("the effort check and the interpretation read one plateau determination
   // INVENTED demo case (tests/fixtures/cases/normal-adult: synthetic generator, no plateau built in).
   let result: AnalysisResult;
   beforeAll(async () => {
-    const dir = path.resolve(__dirname, "../fixtures/cases");
-    const meta = JSON.parse(fs.readFileSync(path.join(dir, "normal-adult.json"), "utf8"));
-    expect(meta.invented).toBe(true);
-    const built = await buildRecord({
-      bytes: new Uint8Array(fs.readFileSync(path.join(dir, "normal-adult.csv"))),
-      fileName: "normal-adult.csv",
-      patient: meta.patient,
-      ergometer: meta.ergometer,
-      referral: meta.referral,
-    });
-    result = analyse({ ...built.record!, spirometry: meta.spirometry, conduct: meta.conduct, context: meta.context });
+    result = analyse(await caseRecord("normal-adult"));
   }, 60_000);
 
   it("demo test 1: no plateau in the criteria set, and the interpretation given that value says the same", () => {

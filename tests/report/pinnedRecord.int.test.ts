@@ -11,7 +11,8 @@ import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 
 vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
 
-import { buildRecord, type TestRecord } from "../../lib/analysis";
+import type { TestRecord } from "../../lib/analysis";
+import { caseRecord } from "../fixtures/caseRecord";
 import type { ReportSection } from "../../lib/report/reportModel";
 import { closeDb } from "../../lib/store/db";
 import { getReport, listReports } from "../../lib/store/reports";
@@ -22,7 +23,6 @@ import { saveDraftAction } from "../../app/tests/[id]/report/actions";
 import { DRAFT_CHANGED_ELSEWHERE } from "../../app/tests/[id]/report/schemas";
 import { signDraft } from "../../app/tests/[id]/report/signDraft";
 
-const cases = path.resolve(__dirname, "../fixtures/cases");
 let dir = "";
 let record: TestRecord;
 
@@ -30,16 +30,7 @@ beforeEach(async () => {
   closeDb();
   dir = fs.mkdtempSync(path.join(os.tmpdir(), "cpet-pinned-"));
   process.env.CPET_DB = path.join(dir, "test.sqlite");
-  const meta = JSON.parse(fs.readFileSync(path.join(cases, "normal-adult.json"), "utf8"));
-  expect(meta.invented).toBe(true);
-  const built = await buildRecord({
-    bytes: new Uint8Array(fs.readFileSync(path.join(cases, "normal-adult.csv"))),
-    fileName: "normal-adult.csv",
-    patient: meta.patient,
-    ergometer: meta.ergometer,
-    referral: meta.referral,
-  });
-  record = { ...built.record!, spirometry: { fev1L: 4.2 } };
+  record = { ...(await caseRecord("normal-adult")), spirometry: { fev1L: 4.2 } };
 });
 afterEach(() => {
   closeDb();
