@@ -4,28 +4,17 @@
  * categories; scheme results that give the rule that placed the patient; one overall line per scheme; and a
  * reviewer's threshold that replaces the engine's doubt about the automatic one.
  */
-import fs from "node:fs";
-import path from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
-import { analyse, buildRecord, type AnalysisResult, type TestRecord } from "../../lib/analysis";
+import { analyse, type AnalysisResult, type TestRecord } from "../../lib/analysis";
 import { UNCOMBINED_SCHEME_TEXT } from "../../lib/interpret";
+import { caseRecord } from "../fixtures/caseRecord";
 
-const dir = path.resolve(__dirname, "../fixtures/cases");
 const records = new Map<string, TestRecord>();
 const results = new Map<string, AnalysisResult>();
 
 beforeAll(async () => {
   for (const id of ["heart-failure", "preop-low-at", "pulmonary-vascular"]) {
-    const meta = JSON.parse(fs.readFileSync(path.join(dir, `${id}.json`), "utf8"));
-    expect(meta.invented).toBe(true);
-    const built = await buildRecord({
-      bytes: new Uint8Array(fs.readFileSync(path.join(dir, `${id}.csv`))),
-      fileName: `${id}.csv`,
-      patient: meta.patient,
-      ergometer: meta.ergometer,
-      referral: meta.referral,
-    });
-    const record = { ...built.record!, spirometry: meta.spirometry, conduct: meta.conduct, context: meta.context };
+    const record = await caseRecord(id);
     records.set(id, record);
     results.set(id, analyse(record, { bootstrap: 0 }));
   }
