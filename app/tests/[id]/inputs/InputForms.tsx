@@ -51,6 +51,14 @@ export function LactateForm({ testId }: { testId: number }) {
             <option value="min">minutes</option>
           </select>
         </label>
+        <label className={styles.label}>
+          Lactate unit when the header gives none
+          <select name="lactateUnit" defaultValue={v.lactateUnit ?? ""} data-testid="lactate-unit">
+            <option value="">read from the header or the values</option>
+            <option value="mmol/L">mmol/L</option>
+            <option value="mg/dL">mg/dL</option>
+          </select>
+        </label>
         <button type="submit" disabled={pending} data-testid="lactate-submit">
           {pending ? "Reading…" : "Read and save the samples"}
         </button>

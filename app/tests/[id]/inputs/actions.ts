@@ -54,7 +54,11 @@ async function readFile(form: FormData): Promise<{ name: string; bytes: Uint8Arr
 async function addSampleFile<S>(
   form: FormData,
   what: string,
-  importSamples: (bytes: Uint8Array, timeUnit: "s" | "min" | undefined) => Promise<{ samples: S[]; issues: Issue[] }>,
+  importSamples: (
+    bytes: Uint8Array,
+    timeUnit: "s" | "min" | undefined,
+    form: { lactateUnit: "" | "mmol/L" | "mg/dL" },
+  ) => Promise<{ samples: S[]; issues: Issue[] }>,
   apply: (record: TestRecord, samples: S[]) => TestRecord,
   action: string,
 ): Promise<InputFormState> {
@@ -66,7 +70,7 @@ async function addSampleFile<S>(
   if (!record) return { errors: { form: "This test has no usable breath data yet." }, values, stamp };
   const file = await readFile(form);
   if ("error" in file) return { errors: { file: file.error }, values, stamp };
-  const { samples, issues } = await importSamples(file.bytes, parsed.data.timeUnit);
+  const { samples, issues } = await importSamples(file.bytes, parsed.data.timeUnit, parsed.data);
   if (samples.length === 0)
     return { errors: { file: `No ${what} samples could be read from this file; nothing was changed.` }, issues, values, stamp };
   const upload = saveUpload(file.name, file.bytes);
@@ -79,7 +83,7 @@ export async function addLactateFile(_prev: InputFormState, form: FormData): Pro
   return addSampleFile(
     form,
     "lactate",
-    (bytes, timeUnit) => importLactateFile(bytes, { timeUnit }),
+    (bytes, timeUnit, { lactateUnit }) => importLactateFile(bytes, { timeUnit, ...(lactateUnit ? { lactateUnit } : {}) }),
     (record, lactate) => ({ ...record, lactate }),
     "lactate-added",
   );

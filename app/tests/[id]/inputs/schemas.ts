@@ -42,4 +42,6 @@ export const conductSchema = z.object({
 export const fileFormSchema = z.object({
   testId: z.coerce.number().int().positive(),
   timeUnit: z.enum(["s", "min"]).default("s"),
+  /** Lactate only: the unit of a lactate column whose header names none ("" = read it from the header or the values). */
+  lactateUnit: z.enum(["", "mmol/L", "mg/dL"]).default(""),
 });
