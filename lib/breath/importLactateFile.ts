@@ -104,7 +104,7 @@ export async function importLactateFile(bytes: Uint8Array, options: LactateImpor
         makeIssue(
           "error",
           "lactate-unit-unclear",
-          `The lactate column gives no unit, and its lowest value, ${fmt(lo)}, is far above a resting blood lactate in mmol/L (about 0.5–2 mmol/L). Are the values in mg/dL (${fmt(lo)} mg/dL = ${fmt(lo / 9.008)} mmol/L)? Name the unit in the header, e.g. "lactate (mg/dL)" or "lactate (mmol/L)" (on the command line: --lactate-unit mg/dL or mmol/L). No threshold is read until the unit is known.`,
+          `The lactate column gives no unit, and its lowest value, ${fmt(lo)}, is far above a resting blood lactate in mmol/L (about 0.5–2 mmol/L). Are the values in mg/dL (${fmt(lo)} mg/dL = ${fmt(lo / 9.008)} mmol/L)? Name the unit in the header, e.g. "lactate (mg/dL)" or "lactate (mmol/L)", or choose it where the file is read (the lactate form's unit; on the command line --lactate-unit mg/dL or mmol/L). No threshold is read until the unit is known.`,
         ),
       );
       return { samples: [], issues };

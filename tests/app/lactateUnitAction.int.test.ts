@@ -56,3 +56,26 @@ describe("the lactate form's unit choice (invented samples)", () => {
     expect(read.values?.lactateUnit).toBe("mg/dL"); // kept on the form
   });
 });
+
+describe("the notes of a lactate file stay with the test (invented samples)", () => {
+  it("a column read as mg/dL from its values keeps that note in the record; a later file replaces it", async () => {
+    const testId = saveTest({
+      uploadId: null,
+      label: "Lactate notes (invented)",
+      record: await caseRecord("normal-adult"),
+      columns: [],
+      issues: [],
+    });
+    const byValues = ["work_w,lactate", "0,9.0", "100,13.5", "150,22.5", "200,40.5", "250,61.3"].join("\n");
+    const form = new FormData();
+    form.set("testId", String(testId));
+    form.set("file", new File([byValues], "lactate-by-values.csv", { type: "text/csv" }));
+    expect((await addLactateFile({}, form)).ok).toMatch(/5 lactate sample\(s\) saved/);
+    const kept = getTest(testId)!.record!.importIssues.filter((i) => i.where?.field === "lactateFile");
+    expect(kept.length).toBeGreaterThan(0);
+    expect(kept.map((i) => i.message).join(" ")).toMatch(/mg\/dL/);
+    await send(testId, "mmol/L"); // the unit chosen: values 9–27 read as mmol/L, no note about reading the unit
+    const after = getTest(testId)!.record!.importIssues.filter((i) => i.where?.field === "lactateFile");
+    expect(after.map((i) => i.message).join(" ")).not.toMatch(/read as mg\/dL/);
+  });
+});

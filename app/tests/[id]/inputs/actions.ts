@@ -19,6 +19,8 @@ export interface InputFormState {
 }
 
 const ACTOR = "local user";
+/** `Issue.where.field` of the notes kept from the last lactate file read. */
+const LACTATE_FILE_FIELD = "lactateFile";
 const MAX_BYTES = 5 * 1024 * 1024;
 
 function formValues(form: FormData): Record<string, string> {
@@ -59,7 +61,7 @@ async function addSampleFile<S>(
     timeUnit: "s" | "min" | undefined,
     form: { lactateUnit: "" | "mmol/L" | "mg/dL" },
   ) => Promise<{ samples: S[]; issues: Issue[] }>,
-  apply: (record: TestRecord, samples: S[]) => TestRecord,
+  apply: (record: TestRecord, samples: S[], issues: Issue[]) => TestRecord,
   action: string,
 ): Promise<InputFormState> {
   const values = formValues(form);
@@ -74,7 +76,12 @@ async function addSampleFile<S>(
   if (samples.length === 0)
     return { errors: { file: `No ${what} samples could be read from this file; nothing was changed.` }, issues, values, stamp };
   const upload = saveUpload(file.name, file.bytes);
-  done(parsed.data.testId, apply(record, samples), action, `${samples.length} sample(s) from ${file.name} (upload ${upload.id})`);
+  done(
+    parsed.data.testId,
+    apply(record, samples, issues),
+    action,
+    `${samples.length} sample(s) from ${file.name} (upload ${upload.id})`,
+  );
   return { ok: `${samples.length} ${what} sample(s) saved from ${file.name}.`, issues, values, stamp };
 }
 
@@ -84,7 +91,16 @@ export async function addLactateFile(_prev: InputFormState, form: FormData): Pro
     form,
     "lactate",
     (bytes, timeUnit, { lactateUnit }) => importLactateFile(bytes, { timeUnit, ...(lactateUnit ? { lactateUnit } : {}) }),
-    (record, lactate) => ({ ...record, lactate }),
+    // the reading's notes (samples left out, unit read from the values) stay with the record, as the CLI keeps them, so
+    // the analysis lists them after the upload too; a new file replaces the last file's notes
+    (record, lactate, issues) => ({
+      ...record,
+      lactate,
+      importIssues: [
+        ...record.importIssues.filter((i) => i.where?.field !== LACTATE_FILE_FIELD),
+        ...issues.map((i) => ({ ...i, where: { ...i.where, field: LACTATE_FILE_FIELD } })),
+      ],
+    }),
     "lactate-added",
   );
 }
