@@ -60,6 +60,12 @@ export interface ReadAtTimeOptions {
   windowS?: number;
 }
 
+/** How `readAtTime` reads: the mode asked for, else a centred window over breaths and interpolation on averaged rows. */
+export function readAtTimeMode(test: ConditionedTest, options: ReadAtTimeOptions): "interpolate" | "centred-window" {
+  if (options.mode === "interpolate" || options.mode === "centred-window") return options.mode;
+  return test.averaging.kind === "none" ? "centred-window" : "interpolate";
+}
+
 /**
  * Read one field (or the ratio of two fields, as the ratio of their values read the same way) at a time.
  * Method: linear interpolation in the averaged series, or a centred window mean of breaths — labelled in the
@@ -81,12 +87,7 @@ export function readAtTime(
   } = {},
 ): Measured {
   const windowS = options.windowS ?? 30;
-  const mode =
-    options.mode === "interpolate" || options.mode === "centred-window"
-      ? options.mode
-      : test.averaging.kind === "none"
-        ? "centred-window"
-        : "interpolate";
+  const mode = readAtTimeMode(test, options);
   const scale = options.scale ?? 1;
   const what = options.denominator ? `${FIELD_WORDS[field]}/${FIELD_WORDS[options.denominator]}` : FIELD_WORDS[field];
   const sourceIds = options.sourceIds ?? ["implementation-choice"];

@@ -10,7 +10,7 @@ import { makeIssue, measured, notDetermined, type Issue, type Measured } from ".
 import type { ConditionedTest } from "../signal";
 import { formatClock } from "../units";
 import { provenanceOf } from "./indexSeries";
-import { readAtTime, type ReadAtTimeOptions } from "./valuesAtThreshold";
+import { readAtTime, readAtTimeMode, type ReadAtTimeOptions } from "./valuesAtThreshold";
 
 /** Constant of the Bohr-Enghoff form with VE at BTPS and VCO2 at STPD (recalled): VD/VT = 1 − 863/(PaCO2·VE/VCO2). */
 export const BOHR_ENGHOFF_CONSTANT = 863;
@@ -233,7 +233,7 @@ export function vdVt(
     };
     if (p.window) {
       readOptions.windowS = p.window.windowS;
-      if (readMode(test, options) === "centred-window")
+      if (readAtTimeMode(test, options) === "centred-window")
         readOptions.label = `VE/VCO2: mean of breaths over ${p.window.words} (the sample has no time and was placed by its label)`;
     }
     const veVco2 = readAtTime(test, "veLMin", p.timeS, "1", readOptions);
@@ -310,12 +310,6 @@ function expectedPhase(m: BloodGasMoment): Phase {
 
 function phaseWords(p: Phase): string {
   return p === "warmup" ? "the warm-up" : p === "exercise" ? "exercise" : p === "rest" ? "the resting phase" : "recovery";
-}
-
-/** How `readAtTime` will read (same rule as there). */
-function readMode(test: ConditionedTest, options: ReadAtTimeOptions): "interpolate" | "centred-window" {
-  if (options.mode === "interpolate" || options.mode === "centred-window") return options.mode;
-  return test.averaging.kind === "none" ? "centred-window" : "interpolate";
 }
 
 /**

@@ -51,7 +51,7 @@ describe("beta-blocker: heart rate is shown but not read against the age-predict
 });
 
 describe("Arena ventilatory classes say what their percentage is", () => {
-  // Arena R et al. 2007, Circulation (PMID 17452607), as in /work/shared/clinical-reference.md §3.2 (confirmed):
+  // Arena R et al. 2007, Circulation (PMID 17452607), as in the clinical reference §3.2 (confirmed):
   // 2-year event-free survival 97.2 % (VC-I), 85.2 % (VC-II), 72.3 % (VC-III), 44.2 % (VC-IV).
   const published: [number, string, string][] = [
     [27, "VC-I", "97.2 %"],
