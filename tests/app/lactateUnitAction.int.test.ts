@@ -28,12 +28,13 @@ afterEach(() => {
 
 const CSV = ["work_w,lactate", "0,9.0", "100,11.7", "150,15.3", "200,21.6", "250,27.0"].join("\n");
 
-async function send(testId: number, lactateUnit: string) {
+/** The lactate form as the browser sends it (plain times in seconds). */
+async function send(testId: number, lactateUnit: string, csv = CSV) {
   const form = new FormData();
   form.set("testId", String(testId));
   form.set("timeUnit", "s");
   form.set("lactateUnit", lactateUnit);
-  form.set("file", new File([CSV], "lactate-mgdl.csv", { type: "text/csv" }));
+  form.set("file", new File([csv], "lactate.csv", { type: "text/csv" }));
   return addLactateFile({}, form);
 }
 
@@ -67,10 +68,7 @@ describe("the notes of a lactate file stay with the test (invented samples)", ()
       issues: [],
     });
     const byValues = ["work_w,lactate", "0,9.0", "100,13.5", "150,22.5", "200,40.5", "250,61.3"].join("\n");
-    const form = new FormData();
-    form.set("testId", String(testId));
-    form.set("file", new File([byValues], "lactate-by-values.csv", { type: "text/csv" }));
-    expect((await addLactateFile({}, form)).ok).toMatch(/5 lactate sample\(s\) saved/);
+    expect((await send(testId, "", byValues)).ok).toMatch(/5 lactate sample\(s\) saved/);
     const kept = getTest(testId)!.record!.importIssues.filter((i) => i.where?.field === "lactateFile");
     expect(kept.length).toBeGreaterThan(0);
     expect(kept.map((i) => i.message).join(" ")).toMatch(/mg\/dL/);
