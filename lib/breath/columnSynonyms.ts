@@ -41,6 +41,12 @@ export const COLUMN_SYNONYMS: readonly SynonymEntry[] = [
   { field: "vco2MlMin", names: ["vco2", "co2output", "co2production", "carbondioxideoutput", "vco2output"] },
   { field: "veLMin", names: ["ve", "ventilation", "minuteventilation", "vmin", "minutevolume", "vemin"] },
   { field: "hrBpm", names: ["hr", "heartrate", "pulse", "puls", "hf", "pulserate", "heartfrequency", "fc"] },
+  // heart periods (R–R, NN or inter-beat intervals, ms): read as heart rate through 60 000 / R–R
+  {
+    field: "hrBpm",
+    names: ["rrinterval", "rri", "rrms", "nninterval", "nn", "ibi", "interbeatinterval", "heartperiod"],
+    impliedUnit: "ms",
+  },
   {
     field: "workW",
     names: [

@@ -7,9 +7,11 @@ import {
   guessUnitFromValues,
   plausibleIn,
   PLAUSIBLE_RANGE,
+  PLAUSIBLE_RR_INTERVAL_MS,
   PLAUSIBLE_VO2_PER_KG,
 } from "./inferColumnUnit";
 import { checkPhysiologicalLimits, isolatedBreaths } from "./checkPhysiologicalLimits";
+import { BeatGroup, cleanRrIntervals, RR_NEIGHBOUR_FRACTION, type RrCleaning } from "./heartRateFromRr";
 import { columnMappingSchema, type ColumnMapping, type ColumnOverride } from "./mappingProfile";
 import { isBlankCell, isClockCell, parseClock, parseNumberCell } from "./parseCell";
 import type { Cell } from "./parseDelimited";
@@ -93,7 +95,8 @@ const optionSchemas = {
 /** Normalised header names that mean a generic "load" (may hold watts or, on a treadmill, speed). */
 const GENERIC_LOAD_NAMES = new Set(["load", "work", "workload", "ergload", "pow", "level"]);
 
-type Target = NumericField | "phase" | "vo2MlKgMin";
+/** Where a column goes; "rrIntervalMs" (R–R intervals between heartbeats) becomes heart rate, not a column of its own. */
+type Target = NumericField | "phase" | "vo2MlKgMin" | "rrIntervalMs";
 
 interface Column {
   decision: ColumnDecision;
@@ -105,7 +108,7 @@ interface Column {
   timeOffset?: number;
 }
 
-const FIELD_LABEL: Record<Target, string> = FIELD_WORDS; // plain words per field (types.ts)
+const FIELD_LABEL: Record<Target, string> = { ...FIELD_WORDS, rrIntervalMs: "R–R interval" }; // plain words per field (types.ts)
 
 function failed(issues: Issue[], columns: ColumnDecision[] = [], format: FileFormat | null = null): ImportResult {
   return { table: null, columns, issues, format, events: [], weight: null };
@@ -316,6 +319,18 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
     }
     byTarget.set(col.target, col);
   }
+  const rrCol = byTarget.get("rrIntervalMs");
+  const hrFromRr = rrCol !== undefined && !byTarget.has("hrBpm");
+  if (rrCol) {
+    if (hrFromRr) {
+      rrCol.decision.field = "hrBpm";
+      rrCol.decision.reason += "; heart rate computed as 60 000 / R–R, over the beats of each row";
+    } else {
+      rrCol.decision.reason += `; heart rate is read from "${byTarget.get("hrBpm")!.decision.header}", so the R–R intervals were not used`;
+      byTarget.delete("rrIntervalMs");
+      rrCol.target = null;
+    }
+  }
   if (ignored.length > 0)
     issues.push(
       makeIssue("info", "columns-ignored", `Columns not used: ${ignored.join(", ")}. Map them if they hold a measured quantity.`),
@@ -456,7 +471,10 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
   let built: BreathRow[] = [];
   let withoutTime = 0;
   let firstWithoutTime: number | undefined;
-  const numericCols = [...byTarget.values()].filter((c) => c.target && c.target !== "phase" && c.target !== "timeS" && c.values);
+  const numericCols = [...byTarget.values()].filter(
+    (c) => c.target && c.target !== "phase" && c.target !== "timeS" && c.target !== "rrIntervalMs" && c.values,
+  );
+  const rrOfRow = new Map<BreathRow, number>();
   for (let r = 0; r < n; r++) {
     const timeS = times[r];
     if (!Number.isFinite(timeS)) {
@@ -473,6 +491,7 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
       rec[c.target as string] = value;
       if (c.target === "vo2MlKgMin" && convertPerKg && weight) row.vo2MlMin = value * weight.kg;
     }
+    if (hrFromRr) rrOfRow.set(row, rrCol.values![r]);
     if (phaseCol) {
       const cell = phaseCells[r];
       if (!isBlankCell(cell)) {
@@ -541,7 +560,17 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
   built = ordered;
 
   // ---- one breath carried along a faster clock (e.g. every heartbeat) ------------------------
-  built = collapseCarriedForward(built, issues);
+  const rrClean = hrFromRr ? cleanRrIntervals(built.map((r) => rrOfRow.get(r) ?? NaN)) : undefined;
+  const rrByRow = rrClean ? new Map(built.map((r, i) => [r, rrClean.clean[i]])) : undefined;
+  built = collapseCarriedForward(built, issues, rrByRow);
+  if (rrClean)
+    noteHeartRateFromRr(
+      built,
+      rrClean,
+      rrCol!.decision.header,
+      issues.some((i) => i.code === "values-carried-forward") ? "breaths" : "rows",
+      issues,
+    );
 
   // ---- duplicate time stamps -----------------------------------------------------------------
   built = dropDuplicateTimes(built, issues);
@@ -619,7 +648,7 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
         vo2MlMin: headerOf("vo2MlMin") ?? headerOf("vo2MlKgMin"),
         vo2MlKgMin: headerOf("vo2MlKgMin") ?? headerOf("vo2MlMin"),
         veLMin: headerOf("veLMin"),
-        hrBpm: headerOf("hrBpm"),
+        hrBpm: headerOf("hrBpm") ?? headerOf("rrIntervalMs"),
       },
     }),
   );
@@ -793,7 +822,7 @@ function decideColumn(
   } else if (guess) {
     unit = guess.unit;
     reason = `${by}; no unit given, ${guess.because}`;
-    const special = (field === "rrBrMin" && unit === "ms") || (field === "workW" && unit === "km/h");
+    const special = ((field === "rrBrMin" || field === "hrBpm") && unit === "ms") || (field === "workW" && unit === "km/h");
     if (unit !== canonical && !special)
       issues.push(
         makeIssue("info", "unit-from-values", `${FIELD_LABEL[field]} in "${header}": ${guess.because}.`, { column: header }),
@@ -802,17 +831,23 @@ function decideColumn(
     unit = canonical;
     reason = `${by}; no unit given, taken as ${canonical} (the canonical unit)`;
   }
-  if (field === "rrBrMin" && unit === "ms") {
-    decision.unit = "ms";
-    decision.reason = `${reason}; R–R intervals are heart periods, not breathing, so the column is not used as respiratory rate`;
-    issues.push(
-      makeIssue(
-        "info",
-        "rr-interval-not-breathing",
-        `"${header}" holds R–R intervals between heartbeats (ms), not breaths per minute (${guess?.because ?? "unit ms"}); it was not used as respiratory rate.`,
-        { column: header },
-      ),
-    );
+  if ((field === "rrBrMin" || field === "hrBpm") && unit === "ms") {
+    // heart periods: turned into heart rate once all columns are known (an HR column, if any, is preferred)
+    col.target = "rrIntervalMs";
+    decision.unit = "ms (R–R interval)";
+    decision.reason =
+      field === "rrBrMin"
+        ? `${reason}; R–R intervals are heart periods, not breathing, so the column is not used as respiratory rate`
+        : reason;
+    if (field === "rrBrMin")
+      issues.push(
+        makeIssue(
+          "info",
+          "rr-interval-not-breathing",
+          `"${header}" holds R–R intervals between heartbeats (ms), not breaths per minute (${guess?.because ?? "unit ms"}); it was not used as respiratory rate.`,
+          { column: header },
+        ),
+      );
     return;
   }
   if (field === "workW" && unit === "km/h") {
@@ -1112,11 +1147,21 @@ const CARRY_FIELDS = ["vo2MlMin", "vco2MlMin", "veLMin", "vo2MlKgMin"] as const;
 /**
  * When VO2 repeats the same value on most consecutive rows, the file carries each breath along on a
  * faster clock (for example every heartbeat). One row per breath is kept: the first row of each run.
+ * With R–R intervals (`rrByRow`, cleaned), each kept row's heart rate is taken over the beats of its run;
+ * without a faster clock, over the row's own interval.
  */
-function collapseCarriedForward(rows: BreathRow[], issues: Issue[]): BreathRow[] {
-  if (rows.length < 50) return rows;
+function collapseCarriedForward(rows: BreathRow[], issues: Issue[], rrByRow?: Map<BreathRow, number>): BreathRow[] {
+  const perRow = () => {
+    if (rrByRow)
+      for (const r of rows) {
+        const rr = rrByRow.get(r) ?? NaN;
+        if (!Number.isNaN(rr)) r.hrBpm = 60000 / rr;
+      }
+    return rows;
+  };
+  if (rows.length < 50) return perRow();
   const field = CARRY_FIELDS.find((f) => rows.some((r) => r[f] !== undefined));
-  if (!field) return rows;
+  if (!field) return perRow();
   let pairs = 0;
   let same = 0;
   for (let i = 1; i < rows.length; i++) {
@@ -1126,15 +1171,27 @@ function collapseCarriedForward(rows: BreathRow[], issues: Issue[]): BreathRow[]
     pairs++;
     if (a === b && rows[i].timeS !== rows[i - 1].timeS) same++;
   }
-  if (pairs === 0 || same < 0.4 * pairs) return rows;
+  if (pairs === 0 || same < 0.4 * pairs) return perRow();
   const kept: BreathRow[] = [];
+  const beats = new BeatGroup();
+  const closeRun = () => {
+    const run = kept[kept.length - 1];
+    const rate = beats.rateBpm();
+    if (run && rate !== undefined) run.hrBpm = rate;
+    beats.reset();
+  };
   let last: number | undefined;
   for (const r of rows) {
     const v = r[field];
-    if (v === undefined) continue;
-    if (v !== last) kept.push(r);
-    last = v;
+    if (v !== undefined && v !== last) {
+      closeRun();
+      kept.push(r);
+    }
+    // beats of rows without the carried value still belong to the breath before them
+    if (rrByRow && kept.length > 0) beats.add(rrByRow.get(r) ?? NaN);
+    if (v !== undefined) last = v;
   }
+  closeRun();
   issues.push(
     makeIssue(
       "info",
@@ -1143,6 +1200,39 @@ function collapseCarriedForward(rows: BreathRow[], issues: Issue[]): BreathRow[]
     ),
   );
   return kept;
+}
+
+/** Says how heart rate was made from R–R intervals and how many beats were set aside. */
+function noteHeartRateFromRr(rows: readonly BreathRow[], c: RrCleaning, header: string, noun: string, issues: Issue[]): void {
+  const aside = c.outOfRange + c.irregular;
+  const pct = c.beats > 0 ? (100 * aside) / c.beats : 0;
+  const without = rows.filter((r) => r.hrBpm === undefined).length;
+  const [lo, hi] = PLAUSIBLE_RR_INTERVAL_MS;
+  const parts = [
+    `Heart rate was computed from the R–R intervals in "${header}" (60 000 / R–R in ms, over the beats of each row).`,
+    aside > 0
+      ? `${aside} of ${c.beats} beats (${pct.toFixed(1)} %) were set aside: ${c.outOfRange} outside ${lo}–${hi} ms and ${c.irregular} more than ${100 * RR_NEIGHBOUR_FRACTION} % from the median of their neighbours (premature beats, pauses or missed detections).`
+      : `All ${c.beats} beats were regular enough to keep.`,
+  ];
+  if (without > 0) {
+    // the stretches without heart rate, by time, so a reader knows which readings they touch
+    const spans: [number, number][] = [];
+    for (let i = 0; i < rows.length; i++) {
+      if (rows[i].hrBpm !== undefined) continue;
+      const last = spans[spans.length - 1];
+      if (last && i > 0 && rows[i - 1].hrBpm === undefined) last[1] = rows[i].timeS;
+      else spans.push([rows[i].timeS, rows[i].timeS]);
+    }
+    const longest = spans.sort((x, y) => y[1] - y[0] - (x[1] - x[0])).slice(0, 3);
+    const said = longest.map(([a, b]) => (b > a ? `${Math.round(a)}–${Math.round(b)} s` : `${Math.round(a)} s`)).join(", ");
+    parts.push(
+      `${without} of ${rows.length} ${noun} have no heart rate (no kept beat in their span${spans.length > 3 ? "; longest stretches" : ""}: ${said}).`,
+    );
+  }
+  // more than 5 % of beats set aside (our choice): arrhythmia or poor detection; heart-rate indices need a look
+  const severity = pct > 5 || without > 0.1 * rows.length ? "warning" : "info";
+  if (severity === "warning") parts.push("Check the ECG: heart-rate indices from this record may not be reliable.");
+  issues.push(makeIssue(severity, "hr-from-rr-intervals", parts.join(" "), { column: header }));
 }
 
 function dropDuplicateTimes(rows: BreathRow[], issues: Issue[]): BreathRow[] {

@@ -13,3 +13,4 @@ export * from "./importBloodGasFile";
 export * from "./parseSpirometry";
 export * from "./checkPhysiologicalLimits";
 export * from "./sources";
+export * from "./heartRateFromRr";

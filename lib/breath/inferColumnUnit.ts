@@ -102,6 +102,11 @@ export function guessUnitFromValues(field: NumericField, s: ColumnStats, generic
       return s.high <= 1.0001
         ? { unit: "fraction", because: `${range} look like a fraction of 1` }
         : { unit: "%", because: `${range} look like percent` };
+    case "hrBpm":
+      // heart rate is 25–240 beats/min; R–R intervals are 200–2400 ms: a median above 250 is a heart period
+      return s.median > 250
+        ? { unit: "ms", because: `${range} look like R–R intervals between heartbeats (ms), not beats per minute` }
+        : undefined;
     case "rrBrMin":
       return s.median > 150
         ? { unit: "ms", because: `${range} look like R–R intervals between heartbeats (ms), not breaths per minute` }
@@ -151,7 +156,7 @@ export function plausibleIn(field: NumericField, unit: string, s: ColumnStats): 
   let range: [number, number] | undefined;
   let factor = 1;
   if (field === "vo2MlMin" && unit === "per-kg") range = PLAUSIBLE_VO2_PER_KG;
-  else if (field === "rrBrMin" && unit === "ms") range = PLAUSIBLE_RR_INTERVAL_MS;
+  else if ((field === "rrBrMin" || field === "hrBpm") && unit === "ms") range = PLAUSIBLE_RR_INTERVAL_MS;
   else if (field === "workW" && unit === "km/h") range = PLAUSIBLE_RANGE.speedKmh;
   else {
     range = PLAUSIBLE_RANGE[field];

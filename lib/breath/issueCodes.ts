@@ -23,6 +23,11 @@ export const BREATH_ISSUE_CODES = {
   "unit-mismatch": { severity: "warning", meaning: "the header's unit disagrees with the values; the values' unit was used" },
   "unit-doubtful": { severity: "warning", meaning: "the user's unit disagrees with the values; the user's unit was kept" },
   "rr-interval-not-breathing": { severity: "info", meaning: "an RR column holds R–R intervals (ms), not breaths per minute" },
+  "hr-from-rr-intervals": {
+    severity: "info",
+    meaning:
+      "heart rate was computed from R–R intervals; beats set aside as implausible or irregular are counted (warning when many)",
+  },
   "speed-in-load-column": { severity: "info", meaning: "a load column holds treadmill speed (km/h), not watts" },
   "per-kg-converted": { severity: "info", meaning: "VO2 per kg was multiplied by body mass" },
   "weight-needed": { severity: "warning", meaning: "VO2 is given per kg and no body mass is known" },

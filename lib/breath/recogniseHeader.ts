@@ -89,7 +89,7 @@ export const UNIT_KEYS_BY_FIELD: Record<NumericField | "phase", readonly string[
   vo2MlMin: ["mL/min", "L/min", "per-kg"],
   vco2MlMin: ["mL/min", "L/min"],
   veLMin: ["L/min", "mL/min"],
-  hrBpm: ["1/min"],
+  hrBpm: ["1/min", "ms"],
   workW: ["W", "kpm/min"],
   speedKmh: ["km/h", "m/s", "mph"],
   gradePct: ["%"],

@@ -1,5 +1,6 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
+import { analyse, buildRecord } from "../../lib/analysis";
 import { importBreathFile } from "../../lib/breath";
 import { conditionTable } from "../../lib/signal";
 
@@ -47,15 +48,80 @@ describe("ACTES breath VO2 (ODC-By 1.0)", () => {
   it("actes_test_measure.csv: RR is the R–R interval (ms), not breathing; VO2 carried on every beat collapses to the breath series", async () => {
     const r = await importBreathFile(read("actes/actes_test_measure.csv"), { select: { ID: "1" } });
     const rr = r.columns.find((c) => c.header === "RR")!;
-    expect(rr.field).toBeNull();
+    // the heart periods become heart rate (60 000 / R–R), never respiratory rate
+    expect(rr.field).toBe("hrBpm");
     expect(rr.unit).toMatch(/ms/);
-    expect(r.issues.map((i) => i.code)).toContain("rr-interval-not-breathing");
-    expect(r.issues.map((i) => i.code)).toContain("values-carried-forward");
+    expect(r.issues.map((i) => i.code)).toEqual(
+      expect.arrayContaining(["rr-interval-not-breathing", "values-carried-forward", "hr-from-rr-intervals"]),
+    );
     expect(r.table!.fields).not.toContain("rrBrMin");
+    expect(r.table!.fields).toContain("hrBpm");
     // the derived breath file was made the same way (one row per change of VO2): same row count and times
     const derived = await importBreathFile(read("actes/actes_vo2_breaths_derived.csv"), { select: { ID: "1" } });
     expect(r.table!.rows.length).toBe(derived.table!.rows.length);
     expect(r.table!.rows.map((x) => x.timeS)).toEqual(derived.table!.rows.map((x) => x.timeS));
+  });
+});
+
+describe("ACTES heart rate from R–R intervals (ODC-By 1.0)", () => {
+  // Chabert C, Mongin D, Hermand E, Collado A, Hue O. Cardiorespiratory measurement from graded
+  // cycloergometer exercise testing (version 1.0.0). PhysioNet; 2022. https://doi.org/10.13026/2qs3-kh43.
+  // Licensed under the Open Data Commons Attribution License v1.0.
+  // The check values are computed here from the raw beats, independently of the importer: heart rate over a window is
+  // 60 000 × beats / Σ R–R (ms), over the beats of the loaded exercise (power > 0).
+  const beats = csvRows("actes/actes_test_measure.csv").map((x) => ({
+    id: x[0],
+    t: Number(x[1]),
+    rr: x[2] === "" ? NaN : Number(x[2]),
+    power: Number(x[4]),
+  }));
+  const rateOver = (bs: typeof beats) => {
+    const kept = bs.filter((b) => Number.isFinite(b.rr));
+    return kept.length === 0 ? NaN : (60000 * kept.length) / kept.reduce((s, b) => s + b.rr, 0);
+  };
+  const fromBeats = (id: string) => {
+    const all = beats.filter((b) => b.id === id);
+    const loaded = all.filter((b) => b.power > 0);
+    const endS = loaded[loaded.length - 1].t;
+    let peak = 0;
+    for (const b of loaded) {
+      const w = all.filter((y) => y.t > b.t - 30 && y.t <= b.t && y.t >= 0);
+      if (w.filter((y) => Number.isFinite(y.rr)).length >= 20) peak = Math.max(peak, rateOver(w));
+    }
+    return { peak, endS, at60: rateOver(all.filter((y) => y.t >= endS + 55 && y.t <= endS + 65)) };
+  };
+  const analysed = async (id: string) => {
+    const built = await buildRecord({
+      bytes: read("actes/actes_test_measure.csv"),
+      fileName: "actes_test_measure.csv",
+      patient: {},
+      ergometer: "cycle",
+      importOptions: { select: { ID: id } },
+    });
+    return analyse(built.record!, {});
+  };
+
+  it("peak HR (highest 30-s window) of 17 tests matches the beats within 0.3 bpm; HR recovery at 1 min within 2.5 bpm", async () => {
+    const ids = Array.from({ length: 18 }, (_, i) => String(i + 1)).filter((id) => id !== "17");
+    for (const id of ids) {
+      const ref = fromBeats(id);
+      const a = await analysed(id);
+      // breath-level means versus beat windows: the same beats, grouped by breath, so only the window edges differ
+      expect(Math.abs(a.indices.peaks.hrBpm.value! - ref.peak)).toBeLessThan(0.3);
+      // the engine interpolates HR exactly 60 s after the end; the check value is the 55–65 s mean: slower than 1 bpm/s
+      expect(Math.abs(a.indices.heartRate.recovery1MinBpm.value! - (ref.peak - ref.at60))).toBeLessThan(2.5);
+    }
+  });
+
+  it("test 17 has no R–R values from 543 s to past the end of exercise (677 s): no peak HR is claimed, and the gap is named", async () => {
+    const r = await importBreathFile(read("actes/actes_test_measure.csv"), { select: { ID: "17" } });
+    const note = r.issues.find((i) => i.code === "hr-from-rr-intervals")!;
+    expect(note.severity).toBe("warning");
+    expect(note.message).toMatch(/breaths have no heart rate/);
+    expect(note.message).toMatch(/54\d–(69|70)\d s/);
+    const a = await analysed("17");
+    expect(a.indices.peaks.hrBpm.value).toBeNull();
+    expect(a.indices.peaks.hrBpm.reason).toMatch(/gap/);
   });
 });
 

@@ -34,6 +34,7 @@ export const FIELD_LABEL: Record<FieldKey, string> = {
 const SPECIAL_UNITS: Partial<Record<FieldKey, { text: string; label: string }[]>> = {
   timeS: [{ text: "m:ss", label: "m:ss (clock)" }],
   vo2MlMin: [{ text: "mL/kg/min", label: "mL/kg/min (× body mass)" }],
+  hrBpm: [{ text: "ms", label: "ms (R–R interval: 60 000 / R–R)" }],
 };
 
 export interface UnitOption {
