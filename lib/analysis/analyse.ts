@@ -61,6 +61,7 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
     mvvChoice: settings.mvvChoice ?? defaultMvvChoice(record),
     lactate: record.lactate,
     bloodGases: record.bloodGases,
+    ...(record.conduct?.apparatusDeadSpaceMl !== undefined ? { apparatusDeadSpaceMl: record.conduct.apparatusDeadSpaceMl } : {}),
   });
   const comparisons = compareAll(indices, predicted);
   const peakVo2 = indices.peaks.vo2MlMin.value;

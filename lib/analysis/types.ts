@@ -16,6 +16,11 @@ export interface TestConduct {
   bloodPressure?: string;
   ecgNotes?: string;
   notes?: string;
+  /**
+   * Dead space of the breathing apparatus (valve, mouthpiece or mask, and any tubing up to the sampling point), mL.
+   * Subtracted from VD/VT as VDapparatus/VT when blood gases are given (`vdVt`).
+   */
+  apparatusDeadSpaceMl?: number;
 }
 
 /** Clinical context entered with the test (used by schemes that need it). */

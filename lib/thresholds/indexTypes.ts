@@ -33,6 +33,8 @@ export interface IndicesContext {
   lactate?: LactateSample[];
   lactateOptions?: Omit<LactateThresholdsOptions, "vt1" | "vt2">;
   bloodGases?: BloodGasSample[];
+  /** Apparatus dead space, mL, subtracted from VD/VT (`vdVt`); absent = not known, not subtracted. */
+  apparatusDeadSpaceMl?: number;
   /** EOV detection settings (both published rules are always reported). */
   eovDefinition?: EovOptions;
   /** Headline desaturation definition. @default "hadeli-2001" */

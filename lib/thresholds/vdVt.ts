@@ -31,6 +31,9 @@ export const PEAK_SAMPLE_EARLY_S = 60;
 
 const APPARATUS_NOTE = "valve and mouthpiece (apparatus) dead space not subtracted";
 
+/** Apparatus dead space a user may enter, mL (our choice: valves, mouthpieces and masks hold roughly 30–300 mL). */
+export const APPARATUS_DEAD_SPACE_LIMITS_ML = { min: 0, max: 500 } as const;
+
 export interface VdVtPoint {
   /** Time VE/VCO2 was read at, s: the sample's own time, or where its label placed it (`placedBy`). */
   timeS: number;
@@ -45,6 +48,8 @@ export interface VdVtPoint {
   placedBy: "time" | "label";
   /** True for the one point read as peak VD/VT: the last sample during exercise. Never true outside exercise. */
   atPeak: boolean;
+  /** Tidal volume at the sample, L, when the apparatus dead space was subtracted (VDapparatus/VT). */
+  vtL?: Measured;
 }
 
 interface Placed {
@@ -59,9 +64,11 @@ interface Placed {
 
 /**
  * Dead-space fraction VD/VT at each blood-gas sample with PaCO2, by the Bohr-Enghoff form
- * VD/VT = 1 − 863/(PaCO2 · VE/VCO2) with VE at BTPS and VCO2 at STPD (form recalled). No apparatus (valve and
- * mouthpiece) dead space is subtracted, so the value overstates physiological VD/VT by VDapparatus/VT (Bohr-Enghoff form
- * with the apparatus term, recalled); every value and an issue say so. Normal peak < 0.28 (Hansen 1984, confirmed).
+ * VD/VT = 1 − 863/(PaCO2 · VE/VCO2) − VDapparatus/VT with VE at BTPS and VCO2 at STPD (Bohr-Enghoff form with the
+ * apparatus term, recalled). The apparatus (valve, mouthpiece or mask) dead space is subtracted when it is known
+ * (`apparatusDeadSpaceMl`), with VT read at the sample time (the tidal-volume column, else VE / respiratory rate). When it
+ * is not known, or VT cannot be read, nothing is subtracted and the value overstates physiological VD/VT by
+ * VDapparatus/VT; every such value and an issue say so. Normal peak < 0.28 (Hansen 1984, confirmed).
  *
  * Placing each sample: its own time when the file gave one; otherwise its label (`bloodGasMoment`): rest or warm-up →
  * the last minute of that phase, peak / end of exercise → the last 30 s of exercise, stage N → the last 30 s of that
@@ -79,6 +86,7 @@ export function vdVt(
   test: ConditionedTest,
   gases: readonly BloodGasSample[] | undefined,
   options: ReadAtTimeOptions = {},
+  apparatusDeadSpaceMl?: number,
 ): { points: VdVtPoint[]; issues: Issue[] } {
   const issues: Issue[] = [];
   const ex = test.exercise;
@@ -238,9 +246,20 @@ export function vdVt(
     }
     const veVco2 = readAtTime(test, "veLMin", p.timeS, "1", readOptions);
     const placedWords = p.window ? `, placed by its label at ${p.window.words}` : "";
+    // tidal volume at the sample, read the same way as VE/VCO2: the VT column, else VE / respiratory rate
+    const vtRead = (() => {
+      if (apparatusDeadSpaceMl === undefined) return undefined;
+      const plain: ReadAtTimeOptions = { ...options, ...(p.window ? { windowS: p.window.windowS } : {}) };
+      if (test.clean.some((r) => typeof r.vtL === "number")) return readAtTime(test, "vtL", p.timeS, "L", plain);
+      return readAtTime(test, "veLMin", p.timeS, "L", { ...plain, denominator: "rrBrMin" });
+    })();
+    const vtL = vtRead && vtRead.value !== null && vtRead.value > 0 ? vtRead.value : null;
+    const subtract = apparatusDeadSpaceMl !== undefined && vtL !== null;
     const prov = provenanceOf(
       "vd-vt-bohr-enghoff",
-      `VD/VT = 1 − 863/(PaCO2 · VE/VCO2)${placedWords}; ${APPARATUS_NOTE} (overstates physiological VD/VT by VDapparatus/VT)`,
+      subtract
+        ? `VD/VT = 1 − 863/(PaCO2 · VE/VCO2) − VDapparatus/VT${placedWords}; apparatus dead space ${apparatusDeadSpaceMl} mL, VT ${vtL.toFixed(2)} L at the sample`
+        : `VD/VT = 1 − 863/(PaCO2 · VE/VCO2)${placedWords}; ${APPARATUS_NOTE} (overstates physiological VD/VT by VDapparatus/VT)`,
       ["bohr-enghoff", "hansen-1984"],
       {
         window: veVco2.provenance.window,
@@ -248,6 +267,7 @@ export function vdVt(
           paCO2MmHg: round(p.g.paCO2MmHg, 1),
           veVco2: veVco2.value === null ? null : round(veVco2.value, 2),
           constant: BOHR_ENGHOFF_CONSTANT,
+          ...(subtract ? { apparatusDeadSpaceMl, vtL: round(vtL, 3) } : {}),
         },
       },
     );
@@ -272,7 +292,12 @@ export function vdVt(
         "no blood gas was drawn during exercise; VD/VT is given only with a sample during exercise, read as its peak value",
       );
     else if (veVco2.value === null) v = notDetermined("1", prov, veVco2.reason ?? "VE/VCO2 not available at the sample time");
-    else v = measured(1 - BOHR_ENGHOFF_CONSTANT / (p.g.paCO2MmHg * veVco2.value), "1", prov);
+    else
+      v = measured(
+        1 - BOHR_ENGHOFF_CONSTANT / (p.g.paCO2MmHg * veVco2.value) - (subtract ? apparatusDeadSpaceMl / 1000 / vtL : 0),
+        "1",
+        prov,
+      );
     points.push({
       timeS: p.timeS,
       phase: p.phase,
@@ -282,9 +307,23 @@ export function vdVt(
       vdVt: v,
       placedBy: p.placedBy,
       atPeak: i === peakIdx,
+      ...(subtract && vtRead ? { vtL: vtRead } : {}),
     });
   });
-  if (points.some((p) => p.vdVt.value !== null))
+  const computed = points.filter((p) => p.vdVt.value !== null);
+  const unsubtracted = computed.filter((p) => p.vtL === undefined);
+  if (apparatusDeadSpaceMl !== undefined && unsubtracted.length > 0)
+    issues.push(
+      makeIssue(
+        "warning",
+        "vdvt-apparatus-not-subtracted",
+        `The apparatus dead space (${apparatusDeadSpaceMl} mL) could not be subtracted from VD/VT at ` +
+          `${unsubtracted.map((p) => p.label ?? formatClock(p.timeS)).join(", ")}: no tidal volume (or VE and respiratory ` +
+          "rate) at the sample time. Those values overstate physiological VD/VT by VDapparatus/VT.",
+        { timeS: unsubtracted[0].timeS },
+      ),
+    );
+  if (apparatusDeadSpaceMl === undefined && computed.length > 0)
     issues.push(
       makeIssue(
         "info",
@@ -292,7 +331,8 @@ export function vdVt(
         "VD/VT is computed from PaCO2 and VE/VCO2 without subtracting the valve and mouthpiece (apparatus) dead space, " +
           "so it overstates the physiological VD/VT by VDapparatus/VT (Bohr-Enghoff form with the apparatus term, " +
           "recalled; e.g. 0.05 for 100 mL at a tidal volume of 2 L). The normal peak VD/VT below 0.28 (Hansen 1984) is for " +
-          "physiological VD/VT: read a value near the cut-off with this in mind.",
+          "physiological VD/VT: read a value near the cut-off with this in mind. Enter the apparatus dead space with the " +
+          "test conduct to have it subtracted.",
       ),
     );
   return { points, issues };

@@ -34,4 +34,35 @@ describe("VD/VT (Bohr-Enghoff form, recalled)", () => {
     expect(r.points).toHaveLength(0);
     expect(r.issues.map((i) => i.code)).toContain("blood-gas-outside-recording");
   });
+
+  // Bohr-Enghoff form with the apparatus term (recalled; ../shared clinical reference §VD/VT):
+  // VD/VT = 1 − 863/(PaCO2 · VE/VCO2) − VDapparatus/VT
+  it("apparatus dead space 100 mL at a tidal volume of 2 L (VE 30 L/min, 15 breaths/min) takes 0.05 off", () => {
+    const withPattern = makeTest(buildRows(() => ({ vco2MlMin: 1000, veLMin: 30, rrBrMin: 15 })));
+    const r = vdVt(withPattern, [{ timeS: 700, paCO2MmHg: 40, label: "peak" }], {}, 100);
+    expect(r.points[0].vtL?.value).toBeCloseTo(2, 9);
+    expect(r.points[0].vdVt.value).toBeCloseTo(1 - 863 / 1200 - 0.1 / 2, 12);
+    expect(r.points[0].vdVt.provenance.inputs).toMatchObject({ apparatusDeadSpaceMl: 100, vtL: 2 });
+    expect(r.points[0].vdVt.provenance.label).toMatch(/− VDapparatus\/VT; apparatus dead space 100 mL, VT 2.00 L/);
+    expect(r.issues.map((i) => i.code)).not.toContain("vdvt-apparatus-dead-space");
+  });
+
+  it("a tidal-volume column is preferred to VE / respiratory rate", () => {
+    const withVt = makeTest(buildRows(() => ({ vco2MlMin: 1000, veLMin: 30, rrBrMin: 15, vtL: 2.5 })));
+    const r = vdVt(withVt, [{ timeS: 700, paCO2MmHg: 40, label: "peak" }], {}, 150);
+    // 0.150 L / 2.5 L = 0.06
+    expect(r.points[0].vdVt.value).toBeCloseTo(1 - 863 / 1200 - 0.06, 12);
+  });
+
+  it("a dead space with no tidal volume to divide by is not subtracted, and a warning says so", () => {
+    const r = vdVt(test, [{ timeS: 700, paCO2MmHg: 40, label: "peak" }], {}, 100);
+    expect(r.points[0].vdVt.value).toBeCloseTo(1 - 863 / 1200, 12);
+    expect(r.points[0].vtL).toBeUndefined();
+    expect(r.issues.find((i) => i.code === "vdvt-apparatus-not-subtracted")?.message).toMatch(/100 mL/);
+  });
+
+  it("no dead space entered: the value is unsubtracted and an info line says how to enter it", () => {
+    const r = vdVt(test, [{ timeS: 700, paCO2MmHg: 40, label: "peak" }]);
+    expect(r.issues.find((i) => i.code === "vdvt-apparatus-dead-space")?.message).toMatch(/Enter the apparatus dead space/);
+  });
 });

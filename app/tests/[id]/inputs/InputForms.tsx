@@ -250,6 +250,7 @@ export interface ConductValues {
   bloodPressure?: string;
   ecgNotes?: string;
   notes?: string;
+  apparatusDeadSpaceMl?: number;
 }
 
 export function ConductForm({ testId, current }: { testId: number; current: ConductValues }) {
@@ -287,6 +288,13 @@ export function ConductForm({ testId, current }: { testId: number; current: Cond
           Blood pressure (rest, peak, recovery)
           <input name="bloodPressure" size={28} defaultValue={text("bloodPressure")} placeholder="e.g. 130/80, 185/85, 140/80" />
         </label>
+        <NumberField
+          name="apparatusDeadSpaceMl"
+          label="Apparatus dead space, mL (valve, mouthpiece or mask; subtracted in VD/VT)"
+          current={current.apparatusDeadSpaceMl}
+          values={v}
+          error={e.apparatusDeadSpaceMl}
+        />
       </div>
       <label className={styles.label}>
         ECG notes

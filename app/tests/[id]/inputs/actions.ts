@@ -185,6 +185,7 @@ export async function saveConduct(_prev: InputFormState, form: FormData): Promis
     bloodPressure: c.bloodPressure || undefined,
     ecgNotes: c.ecgNotes || undefined,
     notes: c.notes || undefined,
+    apparatusDeadSpaceMl: c.apparatusDeadSpaceMl,
   });
   done(testId, { ...record, conduct }, "test-conduct-updated", Object.keys(conduct).join(", ") || "cleared");
   return { ok: "Test conduct saved.", stamp };

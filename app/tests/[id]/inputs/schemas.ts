@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { optionalNumber } from "../../../schemas";
+import { APPARATUS_DEAD_SPACE_LIMITS_ML } from "@/lib/thresholds";
 
 const formNumber = (min: number, max: number, what: string, integer = false) =>
   optionalNumber(min, max, what, { integer, decimalComma: true });
@@ -26,7 +27,8 @@ export const contextSchema = z.object({
 
 /**
  * Test conduct. Peak rating of perceived exertion on Borg's 6–20 scale (Borg GA, 1982, Med Sci Sports Exerc;
- * recalled), whole numbers. Free text is length-limited only.
+ * recalled), whole numbers. Apparatus dead space within `APPARATUS_DEAD_SPACE_LIMITS_ML` (0–500 mL, our choice). Free
+ * text is length-limited only.
  */
 export const conductSchema = z.object({
   testId: z.coerce.number().int().positive(),
@@ -37,6 +39,11 @@ export const conductSchema = z.object({
   bloodPressure: text(120, "Blood pressure"),
   ecgNotes: text(500, "ECG notes"),
   notes: text(1000, "Notes"),
+  apparatusDeadSpaceMl: formNumber(
+    APPARATUS_DEAD_SPACE_LIMITS_ML.min,
+    APPARATUS_DEAD_SPACE_LIMITS_ML.max,
+    "Apparatus dead space (mL)",
+  ),
 });
 
 export const fileFormSchema = z.object({

@@ -1,0 +1,59 @@
+/**
+ * The test-conduct form's apparatus dead space: saved with the record, subtracted from VD/VT as VDapparatus/VT
+ * (Bohr-Enghoff form with the apparatus term, recalled), refused outside 0–500 mL (our choice) with the typed value kept.
+ * Data: the INVENTED normal-adult demo case with an INVENTED arterial sample at peak.
+ */
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
+
+vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
+
+import { saveConduct } from "../../app/tests/[id]/inputs/actions";
+import { analyse } from "../../lib/analysis";
+import { closeDb } from "../../lib/store/db";
+import { getTest, saveTest } from "../../lib/store/tests";
+import { caseRecord } from "../fixtures/caseRecord";
+
+let dir = "";
+beforeEach(() => {
+  closeDb();
+  dir = fs.mkdtempSync(path.join(os.tmpdir(), "cpet-dead-space-"));
+  process.env.CPET_DB = path.join(dir, "test.sqlite");
+});
+afterEach(() => {
+  closeDb();
+  fs.rmSync(dir, { recursive: true, force: true });
+});
+
+async function send(testId: number, deadSpace: string) {
+  const form = new FormData();
+  form.set("testId", String(testId));
+  form.set("protocol", "cycle ramp");
+  form.set("apparatusDeadSpaceMl", deadSpace);
+  return saveConduct({}, form);
+}
+
+describe("apparatus dead space on the test-conduct form (invented case)", () => {
+  it("is saved and subtracted from peak VD/VT by VDapparatus/VT; an impossible value is refused and kept on the form", async () => {
+    const record = { ...(await caseRecord("normal-adult")), bloodGases: [{ timeS: NaN, label: "peak", paCO2MmHg: 38 }] };
+    const testId = saveTest({ uploadId: null, label: "Dead space (invented)", record, columns: [], issues: [] });
+    const before = analyse(getTest(testId)!.record!, {}).indices.vdVt.find((p) => p.atPeak)!;
+    expect(before.vdVt.value).not.toBeNull();
+
+    const refused = await send(testId, "900");
+    expect(refused.errors?.apparatusDeadSpaceMl).toMatch(/Apparatus dead space/);
+    expect(refused.values?.apparatusDeadSpaceMl).toBe("900");
+    expect(getTest(testId)!.record!.conduct?.apparatusDeadSpaceMl).toBeUndefined();
+
+    const saved = await send(testId, "120");
+    expect(saved.ok).toMatch(/saved/);
+    const stored = getTest(testId)!.record!;
+    expect(stored.conduct).toMatchObject({ protocol: "cycle ramp", apparatusDeadSpaceMl: 120 });
+    const after = analyse(stored, {}).indices.vdVt.find((p) => p.atPeak)!;
+    const vt = after.vtL!.value!;
+    expect(vt).toBeGreaterThan(1); // a tidal volume near peak, L
+    expect(after.vdVt.value!).toBeCloseTo(before.vdVt.value! - 0.12 / vt, 12);
+  });
+});
