@@ -834,7 +834,7 @@ function decideColumn(
   if ((field === "rrBrMin" || field === "hrBpm") && unit === "ms") {
     // heart periods: turned into heart rate once all columns are known (an HR column, if any, is preferred)
     col.target = "rrIntervalMs";
-    decision.unit = "ms (R–R interval)";
+    decision.unit = "R–R interval, ms";
     decision.reason =
       field === "rrBrMin"
         ? `${reason}; R–R intervals are heart periods, not breathing, so the column is not used as respiratory rate`

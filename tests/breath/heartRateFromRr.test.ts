@@ -68,7 +68,7 @@ describe("heart rate from an R–R column", () => {
   it("a beat-by-beat file: each breath's heart rate is the rate of its own beats", async () => {
     const { bytes, beats } = beatFile();
     const r = await importBreathFile(bytes);
-    expect(r.columns.find((c) => c.header === "RR")).toMatchObject({ field: "hrBpm", unit: "ms (R–R interval)" });
+    expect(r.columns.find((c) => c.header === "RR")).toMatchObject({ field: "hrBpm", unit: "R–R interval, ms" });
     const rows = r.table!.rows;
     expect(rows.length).toBe(new Set(beats.map((b) => b.breath)).size);
     for (const row of rows.slice(1, -1)) {
@@ -105,7 +105,7 @@ describe("heart rate from an R–R column", () => {
     const lines = ["time_s,vo2_ml_min,HR"];
     for (let i = 0; i < 30; i++) lines.push(`${3 * i},${500 + 40 * i},${600 - (200 * i) / 29}`);
     const r = await importBreathFile(enc(lines.join("\n")));
-    expect(r.columns.find((c) => c.header === "HR")?.unit).toBe("ms (R–R interval)");
+    expect(r.columns.find((c) => c.header === "HR")?.unit).toBe("R–R interval, ms");
     expect(r.table!.rows[0].hrBpm).toBeCloseTo(100, 9);
     expect(r.table!.rows[29].hrBpm).toBeCloseTo(150, 9);
     expect(r.issues.find((i) => i.code === "hr-from-rr-intervals")?.message).toMatch(/over the beats of each row/);
