@@ -491,7 +491,7 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
       rec[c.target as string] = value;
       if (c.target === "vo2MlKgMin" && convertPerKg && weight) row.vo2MlMin = value * weight.kg;
     }
-    if (hrFromRr) rrOfRow.set(row, rrCol.values![r]);
+    if (hrFromRr) rrOfRow.set(row, rrCol.values![r] * rrCol.factor);
     if (phaseCol) {
       const cell = phaseCells[r];
       if (!isBlankCell(cell)) {
@@ -822,7 +822,8 @@ function decideColumn(
   } else if (guess) {
     unit = guess.unit;
     reason = `${by}; no unit given, ${guess.because}`;
-    const special = ((field === "rrBrMin" || field === "hrBpm") && unit === "ms") || (field === "workW" && unit === "km/h");
+    const special =
+      ((field === "rrBrMin" || field === "hrBpm") && (unit === "ms" || unit === "s")) || (field === "workW" && unit === "km/h");
     if (unit !== canonical && !special)
       issues.push(
         makeIssue("info", "unit-from-values", `${FIELD_LABEL[field]} in "${header}": ${guess.because}.`, { column: header }),
@@ -831,10 +832,12 @@ function decideColumn(
     unit = canonical;
     reason = `${by}; no unit given, taken as ${canonical} (the canonical unit)`;
   }
-  if ((field === "rrBrMin" || field === "hrBpm") && unit === "ms") {
+  if ((field === "rrBrMin" || field === "hrBpm") && (unit === "ms" || unit === "s")) {
     // heart periods: turned into heart rate once all columns are known (an HR column, if any, is preferred)
     col.target = "rrIntervalMs";
-    decision.unit = "R–R interval, ms";
+    col.factor = unit === "s" ? 1000 : 1;
+    decision.unit = `R–R interval, ${unit}`;
+    if (unit === "s") decision.factor = 1000;
     decision.reason =
       field === "rrBrMin"
         ? `${reason}; R–R intervals are heart periods, not breathing, so the column is not used as respiratory rate`
@@ -844,7 +847,7 @@ function decideColumn(
         makeIssue(
           "info",
           "rr-interval-not-breathing",
-          `"${header}" holds R–R intervals between heartbeats (ms), not breaths per minute (${guess?.because ?? "unit ms"}); it was not used as respiratory rate.`,
+          `"${header}" holds R–R intervals between heartbeats (${unit}), not breaths per minute (${guess?.because ?? `unit ${unit}`}); it was not used as respiratory rate.`,
           { column: header },
         ),
       );

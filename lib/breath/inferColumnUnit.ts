@@ -103,13 +103,19 @@ export function guessUnitFromValues(field: NumericField, s: ColumnStats, generic
         ? { unit: "fraction", because: `${range} look like a fraction of 1` }
         : { unit: "%", because: `${range} look like percent` };
     case "hrBpm":
-      // heart rate is 25–240 beats/min; R–R intervals are 200–2400 ms: a median above 250 is a heart period
-      return s.median > 250
-        ? { unit: "ms", because: `${range} look like R–R intervals between heartbeats (ms), not beats per minute` }
+      // heart rate is 25–240 beats/min; R–R intervals are 200–2400 ms (0.2–2.4 s): a median above 250 is a heart
+      // period in ms, values all within 0.2–2.4 a heart period in seconds
+      if (s.median > 250)
+        return { unit: "ms", because: `${range} look like R–R intervals between heartbeats (ms), not beats per minute` };
+      return rrInSeconds(s)
+        ? { unit: "s", because: `${range} look like R–R intervals between heartbeats in seconds, not beats per minute` }
         : undefined;
     case "rrBrMin":
-      return s.median > 150
-        ? { unit: "ms", because: `${range} look like R–R intervals between heartbeats (ms), not breaths per minute` }
+      if (s.median > 150)
+        return { unit: "ms", because: `${range} look like R–R intervals between heartbeats (ms), not breaths per minute` };
+      // below 3 breaths/min is not breathing during a test; 0.2–2.4 is a heart period in seconds
+      return rrInSeconds(s)
+        ? { unit: "s", because: `${range} look like R–R intervals between heartbeats in seconds, not breaths per minute` }
         : { unit: "1/min", because: `${range} look like breaths per minute` };
     case "workW":
       if (genericLoadName && s.high < 30 && s.low >= 3)
@@ -121,6 +127,11 @@ export function guessUnitFromValues(field: NumericField, s: ColumnStats, generic
     default:
       return undefined;
   }
+}
+
+/** Every value within the plausible R–R interval read in seconds (0.2–2.4 s). */
+function rrInSeconds(s: ColumnStats): boolean {
+  return s.low >= PLAUSIBLE_RR_INTERVAL_MS[0] / 1000 && s.high <= PLAUSIBLE_RR_INTERVAL_MS[1] / 1000;
 }
 
 /**
@@ -157,7 +168,10 @@ export function plausibleIn(field: NumericField, unit: string, s: ColumnStats): 
   let factor = 1;
   if (field === "vo2MlMin" && unit === "per-kg") range = PLAUSIBLE_VO2_PER_KG;
   else if ((field === "rrBrMin" || field === "hrBpm") && unit === "ms") range = PLAUSIBLE_RR_INTERVAL_MS;
-  else if (field === "workW" && unit === "km/h") range = PLAUSIBLE_RANGE.speedKmh;
+  else if ((field === "rrBrMin" || field === "hrBpm") && unit === "s") {
+    range = PLAUSIBLE_RR_INTERVAL_MS;
+    factor = 1000;
+  } else if (field === "workW" && unit === "km/h") range = PLAUSIBLE_RANGE.speedKmh;
   else {
     range = PLAUSIBLE_RANGE[field];
     const f = factorToCanonical(field, unit);

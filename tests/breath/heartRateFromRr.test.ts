@@ -111,6 +111,20 @@ describe("heart rate from an R–R column", () => {
     expect(r.issues.find((i) => i.code === "hr-from-rr-intervals")?.message).toMatch(/over the beats of each row/);
   });
 
+  it.each([
+    ["RRI", "hrBpm"],
+    ["RR", "rrBrMin"],
+  ])("a %s column in seconds (0.40–0.60) is read as R–R intervals, not as a rate", async (header) => {
+    const lines = [`time_s,vo2_ml_min,${header}`];
+    for (let i = 0; i < 30; i++) lines.push(`${3 * i},${500 + 40 * i},${(0.6 - (0.2 * i) / 29).toFixed(4)}`);
+    const r = await importBreathFile(enc(lines.join("\n")));
+    expect(r.columns.find((c) => c.header === header)).toMatchObject({ field: "hrBpm", unit: "R–R interval, s", factor: 1000 });
+    // 60 / 0.6 s = 100 beats/min; 60 / 0.4 s = 150 beats/min
+    expect(r.table!.rows[0].hrBpm).toBeCloseTo(100, 9);
+    expect(r.table!.rows[29].hrBpm).toBeCloseTo(150, 9);
+    expect(r.table!.fields).not.toContain("rrBrMin");
+  });
+
   it("an irregular rhythm throughout (intervals ±35 %) is questioned, not silently averaged", async () => {
     let seed = 7;
     const rand = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31) * 2 - 1;

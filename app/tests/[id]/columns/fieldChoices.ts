@@ -34,7 +34,10 @@ export const FIELD_LABEL: Record<FieldKey, string> = {
 const SPECIAL_UNITS: Partial<Record<FieldKey, { text: string; label: string }[]>> = {
   timeS: [{ text: "m:ss", label: "m:ss (clock)" }],
   vo2MlMin: [{ text: "mL/kg/min", label: "mL/kg/min (× body mass)" }],
-  hrBpm: [{ text: "ms", label: "ms (R–R interval: 60 000 / R–R)" }],
+  hrBpm: [
+    { text: "ms", label: "ms (R–R interval: 60 000 / R–R)" },
+    { text: "s", label: "s (R–R interval: 60 / R–R)" },
+  ],
 };
 
 export interface UnitOption {
