@@ -49,6 +49,20 @@ describe("interpretation flow, one test per path", () => {
     expect(r.patterns[0].patternId).toBe("anaemia");
   });
 
+  it("low haemoglobin beside a high VE/VCO2 slope and a low ΔVO2/ΔWR: the cardiovascular findings stay, anaemia is not the explanation", () => {
+    // anaemia leaves ΔVO2/ΔWR and the VE/VCO2 slope normal (ATS/ACCP 2003 / Wasserman-school pattern table, recalled)
+    const r = interpret(
+      baseInput(
+        { peakVo2PctPred: 55, vt1PctPredPeakVo2: 30, o2PulsePctPred: 62, veVco2SlopeWhole: 39.8, dVo2dWr: 7.6 },
+        { patient: { sex: "male", ageY: 62, haemoglobinGDl: 11 } },
+      ),
+    );
+    expect(path(r)).toContain("cardiovascular:abnormal");
+    expect(r.path.steps.find((s) => s.nodeId === "cardiovascular")!.finding).toMatch(/low haemoglobin may add to it/);
+    expect(r.patterns[0].patternId).toBe("cardiovascular");
+    expect(r.patterns.find((p) => p.patternId === "anaemia")!.support).toBe("not-supported");
+  });
+
   it("reduced → AT normal → breathing reserve exhausted (VE/MVV ≥ 85 %, Radtke 2019)", () => {
     const r = interpret(baseInput({ peakVo2PctPred: 65, vt1PctPredPeakVo2: 45, veMvvPct: 85 }));
     expect(path(r).slice(1, 4)).toEqual(["peak-vo2:reduced", "at:normal", "breathing-reserve:ventilatory-limitation"]);
