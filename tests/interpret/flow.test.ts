@@ -63,6 +63,28 @@ describe("interpretation flow, one test per path", () => {
     expect(r.patterns.find((p) => p.patternId === "anaemia")!.support).toBe("not-supported");
   });
 
+  it.each([
+    // Cole 1999 (confirmed): chronotropic index < 0.80 impaired; on a beta-blocker < 0.62 (Brubaker & Kitzman 2011, recalled)
+    [0.79, false, true],
+    [0.8, false, false],
+    [0.7, true, false],
+    [0.61, true, true],
+  ])("chronotropic index %s (beta-blocker %s) is read in the cardiovascular step: impaired %s", (ci, bb, impaired) => {
+    const r = interpret(
+      baseInput(
+        { peakVo2PctPred: 60, vt1PctPredPeakVo2: 35, o2PulsePctPred: 70, chronotropicIndex: ci },
+        { patient: { sex: "male", ageY: 60, betaBlocker: bb } },
+      ),
+    );
+    const check = r.path.steps
+      .find((s) => s.nodeId === "cardiovascular")!
+      .checks.find((c) => c.ruleId === "chronotropic-incompetence")!;
+    expect(check.outcome).toBe(impaired);
+    const cardiovascular = r.patterns.find((p) => p.patternId === "cardiovascular")!;
+    const side = impaired ? cardiovascular.for : cardiovascular.against;
+    expect(side.map((f) => f.ruleId)).toContain("chronotropic-incompetence");
+  });
+
   it("reduced → AT normal → breathing reserve exhausted (VE/MVV ≥ 85 %, Radtke 2019)", () => {
     const r = interpret(baseInput({ peakVo2PctPred: 65, vt1PctPredPeakVo2: 45, veMvvPct: 85 }));
     expect(path(r).slice(1, 4)).toEqual(["peak-vo2:reduced", "at:normal", "breathing-reserve:ventilatory-limitation"]);
