@@ -246,6 +246,7 @@ export function toInterpretInput(
     // rule texts and the draft as in the values table
     names: { veVco2SlopeToRcp: slopeToVt2Name(indices.veVco2.slopeToVt2) },
     uncertainty,
+    ...(thresholds.vt1.confidence === "low" && !thresholds.vt1.overridden ? { vt1LowConfidence: true } : {}),
   };
 }
 

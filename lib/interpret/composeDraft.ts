@@ -1,7 +1,7 @@
 import { DRAFT_CAUTION } from "../core/cautions";
 import type { SerialComparison } from "./compareTests";
 import { formatValue, unique } from "./format";
-import type { InterpretInput, Interpretation, ReferralQuestion } from "./types";
+import type { InterpretInput, Interpretation, ReferralQuestion, SchemeResult } from "./types";
 import { variableInfo, type VariableId } from "./variables";
 
 /** An intensity domain for exercise prescription (from the thresholds layer), all optional ranges. */
@@ -330,8 +330,18 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   // Only moderately or strongly supported patterns reach the conclusion; weak ones stay in the pattern section.
   const leading = supported.find((p) => p.support === "strong" || p.support === "moderate");
   if (leading) concl.push(leading.statement);
-  for (const s of interpretation.schemes)
-    if (s.overall && s.schemeId !== "peak-vo2-grade") concl.push(`${s.name}: ${s.overall.label}.`);
+  const combined = interpretation.schemes.filter((s) => s.overall && s.schemeId !== "peak-vo2-grade");
+  for (const s of combined) {
+    const caveats = conclusionCaveats(s, interpretation, input);
+    concl.push(`${s.name}: ${s.overall!.label}.${caveats.length ? ` Read with: ${caveats.join("; ")}.` : ""}`);
+  }
+  // a referral whose schemes publish no combined category (pulmonary hypertension's risk table) gives its graded rows
+  if (combined.length === 0)
+    for (const s of interpretation.schemes) {
+      if (s.schemeId === "peak-vo2-grade" || s.kind !== "bands") continue;
+      const rows = s.axes.filter((a) => a.category).map((a) => `${a.label}: ${a.category!.label}`);
+      if (rows.length) concl.push(`${s.name}: ${rows.join("; ")}.`);
+    }
   if (!e.peakConclusionsAllowed) concl.push("Capacity could not be established because effort was submaximal.");
   sections.push({ id: "conclusion", title: "Conclusion", paragraphs: concl });
 
@@ -348,4 +358,25 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     caution: COMPOSED_TEXT_CAUTION,
     sourceIds: unique([...interpretation.sourceIds, ...(extras.comparison?.sourceIds ?? [])]),
   };
+}
+
+/**
+ * What the one-line scheme result in the conclusion must carry with it, so a category is never stated more firmly
+ * than the section that grades it: the classes an end of a measurement's uncertainty band reaches (including an index
+ * read from brief exercise with its median shortfall undone), a VT1 found with low confidence where the category reads
+ * VT1, and, where the heart-failure prognostic table grades peak RER as short of a maximal test (its `rer` axis:
+ * RER ≥ 1.10, JACC HF 2020, in schemes.json), that caution beside every category graded on peak VO2.
+ */
+function conclusionCaveats(s: SchemeResult, interpretation: Interpretation, input: InterpretInput): string[] {
+  const out: string[] = [];
+  const graded = s.axes.filter((a) => a.inCombination && a.category);
+  for (const a of graded) if (a.bandReaches) out.push(a.bandReaches);
+  const readsVt1 = graded.some((a) => /^(at|tier|at-ischaemia)$/.test(a.axisId) || /\bAT\b|VT1/.test(a.label));
+  if (readsVt1 && input.vt1LowConfidence)
+    out.push("VT1 was found with low confidence: confirm it on review before relying on this");
+  const rerAxis = interpretation.schemes.find((x) => x.schemeId === "hf-prognostic-table")?.axes.find((a) => a.axisId === "rer");
+  const rer = input.values.peakRer;
+  if (graded.some((a) => a.axisId.startsWith("peak")) && rerAxis?.category && rerAxis.category.severity > 0)
+    out.push(`${rerAxis.category.label}${typeof rer === "number" ? ` (peak RER ${rer.toFixed(2)})` : ""}`);
+  return out;
 }

@@ -160,6 +160,11 @@ export interface InterpretInput {
    * band says so beside its category; nothing else reads them.
    */
   uncertainty?: UncertainValue[];
+  /**
+   * VT1 found by the methods with low confidence (and not set by a reviewer): a conclusion graded on VT1 says it should
+   * be confirmed on review.
+   */
+  vt1LowConfidence?: boolean;
 }
 
 /** One measurement's band as the interpretation reads it. */
