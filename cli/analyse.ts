@@ -14,6 +14,7 @@ interface AnalyseOptions {
   heightCm?: number;
   weightKg?: number;
   betaBlocker?: boolean;
+  atrialFibrillation?: boolean;
   ergometer: string;
   fev1L?: number;
   mvvLMin?: number;
@@ -38,6 +39,10 @@ export function registerAnalyse(program: Command): void {
     .option("--height-cm <cm>", "height in cm", parseNumber("--height-cm", "heightCm"))
     .option("--weight-kg <kg>", "body weight in kg", parseNumber("--weight-kg", "weightKg"))
     .option("--beta-blocker", "the patient takes a beta-blocker (heart-rate criteria and cut-offs read accordingly)")
+    .option(
+      "--atrial-fibrillation",
+      "atrial fibrillation or another irregular rhythm during the test (heart-rate criteria, heart-rate indices and O2 pulse are not interpreted)",
+    )
     .option("--ergometer <kind>", "cycle | treadmill", "cycle")
     .option(
       "--fev1-l <litres>",
@@ -158,6 +163,7 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
       heightCm: opts.heightCm,
       weightKg: opts.weightKg,
       ...(opts.betaBlocker ? { betaBlocker: true } : {}),
+      ...(opts.atrialFibrillation ? { atrialFibrillation: true } : {}),
     },
     ergometer: opts.ergometer,
     referral: opts.referral as ReferralQuestion,

@@ -75,6 +75,11 @@ export function toInterpretInput(
   // not read against them; the chronotropic index has its own beta-blocker cut-off (rules.json)
   const betaBlocked = patient.betaBlocker === true;
   if (betaBlocked) for (const k of ["hrPctPred", "hrReserveBpm"] as const) reasons[k] = "the patient takes a beta-blocker";
+  // in atrial fibrillation the ventricular rate is irregular and not set by the sinus node (common practice): heart-rate
+  // criteria and indices, and O2 pulse (VO2/HR), are not interpreted
+  const irregular = patient.atrialFibrillation === true;
+  const HR_READ_KEYS = ["hrPctPred", "hrReserveBpm", "chronotropicIndex", "hrr1Bpm", "o2PulsePctPred", "o2PulsePlateau"] as const;
+  if (irregular) for (const k of HR_READ_KEYS) reasons[k] = "atrial fibrillation: heart rate is not read as in sinus rhythm";
   const plateauWhy = vo2PlateauNotAssessedReason(indices.vo2FinalIncrease);
   if (plateauWhy) reasons.vo2Plateau = plateauWhy;
   // the calibrated bands, as the values at each end (everything computed from VT1 moves with it)
@@ -183,6 +188,7 @@ export function toInterpretInput(
       weightKg: patient.weightKg ?? null,
       bmi,
       betaBlocker: patient.betaBlocker ?? null,
+      atrialFibrillation: patient.atrialFibrillation ?? null,
       haemoglobinGDl: patient.haemoglobinGDl ?? null,
     },
     referral: record.referral,
@@ -202,14 +208,14 @@ export function toInterpretInput(
       peakRer: v(p.rerMax),
       peakHrBpm: v(p.hrBpm),
       restHrBpm: v(indices.heartRate.restingBpm),
-      hrPctPred: betaBlocked ? null : v(indices.heartRate.percentPredicted),
-      hrReserveBpm: betaBlocked ? null : v(indices.heartRate.reserveBpm),
-      chronotropicIndex: v(indices.heartRate.chronotropicIndex),
+      hrPctPred: betaBlocked || irregular ? null : v(indices.heartRate.percentPredicted),
+      hrReserveBpm: betaBlocked || irregular ? null : v(indices.heartRate.reserveBpm),
+      chronotropicIndex: irregular ? null : v(indices.heartRate.chronotropicIndex),
       // read from time-averaged rows with the 12-bpm cut-off inside its margin, the call is withheld (heartRateIndices)
-      hrr1Bpm: indices.heartRate.recovery1MinAbnormal === null ? null : v(indices.heartRate.recovery1MinBpm),
+      hrr1Bpm: irregular || indices.heartRate.recovery1MinAbnormal === null ? null : v(indices.heartRate.recovery1MinBpm),
       o2PulsePeakMlBeat: v(p.o2PulseMlBeat),
-      o2PulsePctPred: pct("peakO2Pulse"),
-      o2PulsePlateau: plateauOrFall,
+      o2PulsePctPred: irregular ? null : pct("peakO2Pulse"),
+      o2PulsePlateau: irregular ? null : plateauOrFall,
       dVo2dWr: v(indices.dVo2dWr.whole.slope),
       veVco2SlopeToRcp: v(indices.veVco2.slopeToVt2.slope),
       veVco2SlopeWhole: v(indices.veVco2.slopeWholeExercise.slope),

@@ -11,6 +11,11 @@ export interface Patient {
   haemoglobinGDl?: number;
   /** Beta-blocker or other rate-limiting drug: changes chronotropic cut-offs. */
   betaBlocker?: boolean;
+  /**
+   * Atrial fibrillation (or another irregular rhythm) during the test: heart rate is not read against predicted values,
+   * and heart-rate criteria, heart-rate indices and O2 pulse are not interpreted.
+   */
+  atrialFibrillation?: boolean;
 }
 
 /** Resting spirometry, canonical units (litres, L/min). */

@@ -106,6 +106,22 @@ const REFERRAL_TEXT: Record<ReferralQuestion, string> = {
  */
 export const BETA_BLOCKER_HR_NOTE = "on a beta-blocker: heart rate is not read against the age-predicted maximum";
 
+/**
+ * Beside heart rates in atrial fibrillation. Ventricular rate in atrial fibrillation is irregular and not set by the
+ * sinus node, so age-predicted maxima, heart-rate reserve, chronotropic index, heart-rate recovery and O2 pulse (VO2/HR)
+ * do not mean what they mean in sinus rhythm (common practice).
+ */
+export const ATRIAL_FIBRILLATION_HR_NOTE =
+  "atrial fibrillation: heart rate is not read against predicted values, and heart-rate indices and O2 pulse are not interpreted";
+
+/** The notes a heart rate read against a predicted maximum needs for this patient (beta-blocker, atrial fibrillation). */
+export function heartRateNotes(patient: { betaBlocker?: boolean | null; atrialFibrillation?: boolean | null }): string[] {
+  return [
+    ...(patient.atrialFibrillation === true ? [ATRIAL_FIBRILLATION_HR_NOTE] : []),
+    ...(patient.betaBlocker === true ? [BETA_BLOCKER_HR_NOTE] : []),
+  ];
+}
+
 /** Words that already form a predicate ("set by …", "not determinable: …") and take "was", not "was found by". */
 const PREDICATE_START = /^(set|found|entered|placed|moved|chosen|taken|not)\b/i;
 
@@ -199,7 +215,7 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
       ...(have(v.hrPctPred)
         ? [`${formatValue("hrPctPred", v.hrPctPred)} % of predicted${pred.hrMax ? `, ${pred.hrMax}` : ""}`]
         : []),
-      ...(input.patient.betaBlocker === true ? [BETA_BLOCKER_HR_NOTE] : []),
+      ...heartRateNotes(input.patient),
     ];
     results.push(
       `Peak heart rate ${val("peakHrBpm", v.peakHrBpm)}${against.length ? ` (${against.join("; ")})` : ""}${have(v.hrr1Bpm) ? `; recovery at 1 min ${val("hrr1Bpm", v.hrr1Bpm)}` : ""}.`,
@@ -207,7 +223,7 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   }
   if (have(v.o2PulsePeakMlBeat)) {
     results.push(
-      `Peak O2 pulse ${val("o2PulsePeakMlBeat", v.o2PulsePeakMlBeat)}${have(v.o2PulsePctPred) ? ` (${formatValue("o2PulsePctPred", v.o2PulsePctPred)} % of predicted)` : ""}${v.o2PulsePlateau ? ", flattening late in exercise" : ""}.`,
+      `Peak O2 pulse ${val("o2PulsePeakMlBeat", v.o2PulsePeakMlBeat)}${have(v.o2PulsePctPred) ? ` (${formatValue("o2PulsePctPred", v.o2PulsePctPred)} % of predicted)` : ""}${v.o2PulsePlateau ? ", flattening late in exercise" : ""}${input.patient.atrialFibrillation === true ? " (atrial fibrillation: not interpreted)" : ""}.`,
     );
   }
   const slopes: string[] = [];

@@ -3,7 +3,9 @@ export * from "./variables";
 export { interpret, makeContext } from "./interpret";
 export {
   composeDraft,
+  ATRIAL_FIBRILLATION_HR_NOTE,
   BETA_BLOCKER_HR_NOTE,
+  heartRateNotes,
   DRAFT_BANNER,
   COMPOSED_TEXT_CAUTION,
   type DraftExtras,

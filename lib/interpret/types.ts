@@ -122,6 +122,8 @@ export interface InterpretPatient {
   /** Body-mass index, kg/m². Derived from weight and height when missing. */
   bmi?: Maybe<number>;
   betaBlocker?: Maybe<boolean>;
+  /** Atrial fibrillation or another irregular rhythm during the test (`Patient.atrialFibrillation`). */
+  atrialFibrillation?: Maybe<boolean>;
   /** Haemoglobin, g/dL. */
   haemoglobinGDl?: Maybe<number>;
 }

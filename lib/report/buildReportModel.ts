@@ -1,7 +1,7 @@
 import type { AnalysisResult, ReferralQuestion, TestRecord } from "../analysis";
 import type { Measured, Source } from "../core";
 import { thresholdMethodWords } from "../analysis";
-import { BETA_BLOCKER_HR_NOTE } from "../interpret";
+import { heartRateNotes } from "../interpret";
 import { analysisCharts } from "./analysisCharts";
 import { ALL_SOURCES } from "./sources";
 import { formatClock, formatNumber } from "../units";
@@ -159,7 +159,7 @@ export function buildReportModel(
   const registry = options.sources ?? ALL_SOURCES;
   const ix = result.indices;
   const pk = ix.peaks;
-  const betaBlocked = record.patient.betaBlocker === true;
+  const hrNotes = heartRateNotes(record.patient);
   const keyValues: ReportRow[] = result.comparisons.map((c) => {
     const decimals = c.measured.unit === "mL/min" || c.measured.unit === "W" || c.measured.unit === "1/min" ? 0 : 1;
     const row = measuredRow(c.label, c.measured, decimals);
@@ -175,7 +175,7 @@ export function buildReportModel(
     }
     if (c.percentPredicted !== null) row.pctPredicted = formatNumber(c.percentPredicted, 0);
     // shown, but not read against the age-predicted maximum on a beta-blocker (common practice)
-    if (c.key === "peakHr" && betaBlocked) row.note = [row.note, BETA_BLOCKER_HR_NOTE].filter(Boolean).join("; ");
+    if (c.key === "peakHr" && hrNotes.length) row.note = [row.note, ...hrNotes].filter(Boolean).join("; ");
     if (c.predicted?.lln !== undefined && c.predicted.lln !== null) row.lln = formatNumber(c.predicted.lln, decimals);
     return row;
   });
@@ -198,7 +198,7 @@ export function buildReportModel(
     // the slopes carry their calibrated bands (their meaning is stated in the methods)
     row.note = [row.note, bandNote(line, d)].filter(Boolean).join("; ") || row.note;
     // HR reserve is predicted HRmax − peak HR: the same beta-blocker note as the peak HR's % predicted
-    if (m === ix.heartRate.reserveBpm && betaBlocked) row.note = [row.note, BETA_BLOCKER_HR_NOTE].filter(Boolean).join("; ");
+    if (m === ix.heartRate.reserveBpm && hrNotes.length) row.note = [row.note, ...hrNotes].filter(Boolean).join("; ");
     keyValues.push(row);
   }
   keyValues.push(measuredRow("Recording duration", pk.testDurationS, 0, formatClock));

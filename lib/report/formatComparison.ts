@@ -12,6 +12,7 @@ const BOOLEAN_PHRASES: Record<string, readonly [string, string]> = {
   o2PulsePlateau: ["O2 pulse flat or falling", "O2 pulse still rising"],
   eovPresent: ["exercise oscillatory ventilation present", "no exercise oscillatory ventilation"],
   betaBlocker: ["taking a beta-blocker", "no beta-blocker"],
+  atrialFibrillation: ["atrial fibrillation", "no atrial fibrillation recorded"],
   ischaemicHeartDisease: ["ischaemic heart disease known", "no known ischaemic heart disease"],
 };
 

@@ -3,7 +3,7 @@ import { notFound } from "next/navigation";
 import { analyse } from "@/lib/analysis";
 import type { Measured } from "@/lib/core";
 import { EQUATIONS } from "@/lib/predicted";
-import { BETA_BLOCKER_HR_NOTE, listCutoffChoices } from "@/lib/interpret";
+import { ATRIAL_FIBRILLATION_HR_NOTE, heartRateNotes, listCutoffChoices } from "@/lib/interpret";
 import { analysisCharts, bandNote } from "@/lib/report";
 import {
   BAND_MEANING,
@@ -219,9 +219,9 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                 </td>
                 <td className="num">
                   {c.percentPredicted !== null ? `${c.percentPredicted.toFixed(0)} %` : "—"}
-                  {c.key === "peakHr" && record.patient.betaBlocker === true ? (
+                  {c.key === "peakHr" && heartRateNotes(record.patient).length > 0 ? (
                     <div className="how" data-testid="beta-blocker-hr-note">
-                      {BETA_BLOCKER_HR_NOTE}
+                      {heartRateNotes(record.patient).join("; ")}
                     </div>
                   ) : null}
                 </td>
@@ -404,15 +404,21 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
               m={ix.heartRate.reserveBpm}
               d={0}
               unit={HR_UNIT}
-              extra={record.patient.betaBlocker === true ? BETA_BLOCKER_HR_NOTE : undefined}
+              extra={heartRateNotes(record.patient).join("; ") || undefined}
             />
             <IndexRow
               label="Chronotropic index"
               m={ix.heartRate.chronotropicIndex}
               d={2}
-              extra={record.patient.betaBlocker === true ? BETA_BLOCKER_HR_NOTE : undefined}
+              extra={heartRateNotes(record.patient).join("; ") || undefined}
             />
-            <IndexRow label="HR recovery at 1 min" m={ix.heartRate.recovery1MinBpm} d={0} unit={HR_UNIT} />
+            <IndexRow
+              label="HR recovery at 1 min"
+              m={ix.heartRate.recovery1MinBpm}
+              d={0}
+              unit={HR_UNIT}
+              extra={record.patient.atrialFibrillation === true ? ATRIAL_FIBRILLATION_HR_NOTE : undefined}
+            />
             <IndexRow
               label="SpO2 at rest → lowest"
               m={ix.spo2.lowestPct}

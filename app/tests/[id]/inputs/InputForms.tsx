@@ -173,6 +173,7 @@ export interface ContextValues {
   stairClimbM?: number;
   shuttleWalkM?: number;
   betaBlocker?: boolean;
+  atrialFibrillation?: boolean;
   haemoglobinGDl?: number;
 }
 
@@ -221,6 +222,18 @@ export function ContextForm({ testId, current }: { testId: number; current: Cont
         <label className={styles.label}>
           Beta-blocker or other rate-limiting drug
           <select name="betaBlocker" defaultValue={v.betaBlocker ?? yn(current.betaBlocker)}>
+            <option value="">not stated</option>
+            <option value="yes">yes</option>
+            <option value="no">no</option>
+          </select>
+        </label>
+        <label className={styles.label}>
+          Atrial fibrillation or other irregular rhythm during the test
+          <select
+            name="atrialFibrillation"
+            defaultValue={v.atrialFibrillation ?? yn(current.atrialFibrillation)}
+            data-testid="atrial-fibrillation"
+          >
             <option value="">not stated</option>
             <option value="yes">yes</option>
             <option value="no">no</option>

@@ -162,9 +162,19 @@ export async function saveContext(_prev: InputFormState, form: FormData): Promis
     stairClimbM: c.stairClimbM,
     shuttleWalkM: c.shuttleWalkM,
   };
-  const patient = { ...record.patient, betaBlocker: yn(c.betaBlocker), haemoglobinGDl: c.haemoglobinGDl };
+  const patient = {
+    ...record.patient,
+    betaBlocker: yn(c.betaBlocker),
+    atrialFibrillation: yn(c.atrialFibrillation),
+    haemoglobinGDl: c.haemoglobinGDl,
+  };
   const next: TestRecord = { ...record, context: dropUndefined(context), patient: dropUndefined(patient) };
-  done(c.testId, next, "clinical-context-updated", JSON.stringify({ ...next.context, betaBlocker: patient.betaBlocker }));
+  done(
+    c.testId,
+    next,
+    "clinical-context-updated",
+    JSON.stringify({ ...next.context, betaBlocker: patient.betaBlocker, atrialFibrillation: patient.atrialFibrillation }),
+  );
   return { ok: "Clinical context saved; the interpretation is recomputed.", stamp };
 }
 

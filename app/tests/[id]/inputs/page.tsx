@@ -112,6 +112,7 @@ export default async function InputsPage({ params }: { params: Promise<{ id: str
         current={{
           ...(record.context ?? {}),
           betaBlocker: record.patient.betaBlocker,
+          atrialFibrillation: record.patient.atrialFibrillation,
           haemoglobinGDl: record.patient.haemoglobinGDl,
         }}
       />

@@ -22,6 +22,7 @@ export const contextSchema = z.object({
   stairClimbM: formNumber(0, 200, "Stair climb height (m)"),
   shuttleWalkM: formNumber(0, 3000, "Shuttle walk distance (m)"),
   betaBlocker: yesNo,
+  atrialFibrillation: yesNo,
   haemoglobinGDl: formNumber(3, 25, "Haemoglobin (g/dL)"),
 });
 
