@@ -1,4 +1,4 @@
-import { reasonWithoutLeadIn, type Measured } from "../core";
+import { reasonWithoutLeadIn, type Issue, type Measured } from "../core";
 import {
   EOV_CARRY_OVER_CODE,
   HR_RECOVERY_1MIN_ABNORMAL_BPM,
@@ -241,10 +241,11 @@ export function toInterpretInput(
       shuttleWalkM: record.context?.shuttleWalkM ?? null,
       ischaemicHeartDisease: record.context?.ischaemicHeartDisease ?? null,
     },
+    // an equation used outside its derivation population (a child on adult equations) says so wherever its % is read
     predictedEquations: {
-      peakVo2: predicted.values.vo2PeakMlMin?.equationLabel,
-      hrMax: predicted.values.hrMaxBpm?.equationLabel,
-      o2Pulse: predicted.values.o2PulseMaxMlBeat?.equationLabel,
+      peakVo2: equationWords(predicted.values.vo2PeakMlMin),
+      hrMax: equationWords(predicted.values.hrMaxBpm),
+      o2Pulse: equationWords(predicted.values.o2PulseMaxMlBeat),
       mvv: indices.breathingReserve.mvvLMin.provenance.label,
     },
     reasons,
@@ -254,6 +255,14 @@ export function toInterpretInput(
     uncertainty,
     ...(thresholds.vt1.confidence === "low" && !thresholds.vt1.overridden ? { vt1LowConfidence: true } : {}),
   };
+}
+
+
+/** An equation's label, with "extrapolated" when the patient lies outside the population it was derived in. */
+function equationWords(p: { equationLabel: string; issues: readonly Issue[] } | undefined): string | undefined {
+  if (!p) return undefined;
+  const outside = p.issues.some((i) => i.code === "outside-derivation-population");
+  return outside ? `${p.equationLabel}; extrapolated: the patient is outside its derivation population` : p.equationLabel;
 }
 
 /**

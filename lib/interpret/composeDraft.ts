@@ -104,6 +104,14 @@ const REFERRAL_TEXT: Record<ReferralQuestion, string> = {
  * when the patient takes a beta-blocker: predicted-HRmax equations do not describe a beta-blocked heart, so the value is
  * shown but not read against them (common practice).
  */
+/** "a", "a and b", "a, b and c". */
+function andList(items: readonly string[]): string {
+  return items.length > 1 ? `${items.slice(0, -1).join(", ")} and ${items[items.length - 1]}` : (items[0] ?? "");
+}
+
+/** Plain names of the predicted quantities, for the extrapolation sentence of the conclusion. */
+const PREDICTED_WORDS = { peakVo2: "peak VO2", hrMax: "maximal heart rate", o2Pulse: "O2 pulse" } as const;
+
 export const BETA_BLOCKER_HR_NOTE = "on a beta-blocker: heart rate is not read against the age-predicted maximum";
 
 /**
@@ -223,7 +231,7 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   }
   if (have(v.o2PulsePeakMlBeat)) {
     results.push(
-      `Peak O2 pulse ${val("o2PulsePeakMlBeat", v.o2PulsePeakMlBeat)}${have(v.o2PulsePctPred) ? ` (${formatValue("o2PulsePctPred", v.o2PulsePctPred)} % of predicted)` : ""}${v.o2PulsePlateau ? ", flattening late in exercise" : ""}${input.patient.atrialFibrillation === true ? " (atrial fibrillation: not interpreted)" : ""}.`,
+      `Peak O2 pulse ${val("o2PulsePeakMlBeat", v.o2PulsePeakMlBeat)}${have(v.o2PulsePctPred) ? ` (${formatValue("o2PulsePctPred", v.o2PulsePctPred)} % of predicted${pred.o2Pulse?.includes("extrapolated") ? `, ${pred.o2Pulse}` : ""})` : ""}${v.o2PulsePlateau ? ", flattening late in exercise" : ""}${input.patient.atrialFibrillation === true ? " (atrial fibrillation: not interpreted)" : ""}.`,
     );
   }
   const slopes: string[] = [];
@@ -359,6 +367,11 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
       if (rows.length) concl.push(`${s.name}: ${rows.join("; ")}.`);
     }
   if (!e.peakConclusionsAllowed) concl.push("Capacity could not be established because effort was submaximal.");
+  const extrapolated = (["peakVo2", "hrMax", "o2Pulse"] as const).filter((k) => pred[k]?.includes("extrapolated"));
+  if (extrapolated.length)
+    concl.push(
+      `The predicted ${andList(extrapolated.map((k) => PREDICTED_WORDS[k]))} come from equations derived outside this patient's population (extrapolated): every "% of predicted" above, and any finding graded on it, is read with that in mind.`,
+    );
   sections.push({ id: "conclusion", title: "Conclusion", paragraphs: concl });
 
   const nonDefault = interpretation.settingsUsed.filter((s) => !s.isDefault);
