@@ -257,7 +257,6 @@ export function toInterpretInput(
   };
 }
 
-
 /** An equation's label, with "extrapolated" when the patient lies outside the population it was derived in. */
 function equationWords(p: { equationLabel: string; issues: readonly Issue[] } | undefined): string | undefined {
   if (!p) return undefined;

@@ -164,7 +164,9 @@ export function evaluateCondition(cond: Condition, ctx: EvalContext): ConditionR
           ? parts.filter((p) => p.outcome === null)
           : parts;
     const relevant = decisive.filter((p) => !p.offTopic);
-    return done(outcome, (relevant.length ? relevant : decisive).map((p) => p.text).join(" or "));
+    // a false `any` failed on every part: each part's text shows its own failed comparison, so they read with "and"
+    // ("Peak VO2 18.3 ≥ 10.0 and 66 % ≥ 35 %"), never "or"
+    return done(outcome, (relevant.length ? relevant : decisive).map((p) => p.text).join(outcome === false ? " and " : " or "));
   }
   if ("not" in cond) {
     const r = sub(cond.not);

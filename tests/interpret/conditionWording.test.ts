@@ -31,6 +31,24 @@ describe("condition wording", () => {
     expect(evaluateCondition({ var: "referral", op: "!=", value: "general" }, ctx).text).toBe("Referral question: general");
   });
 
+  it("a false 'any' failed on every part, so its parts read with 'and'; a true one names the part that held", () => {
+    // invented values: peak VO2 18.3 mL/kg/min against 10 (ERS/ESTS 2009 lung-resection step, confirmed) and 66 % against 35 %
+    const ctx = makeContext(baseInput({ peakVo2MlKgMin: 18.3, peakVo2PctPred: 66 })).ctx;
+    const cond: Condition = {
+      any: [
+        { var: "peakVo2MlKgMin", op: "<", value: 10 },
+        { var: "peakVo2PctPred", op: "<", value: 35 },
+      ],
+    };
+    const no = evaluateCondition(cond, ctx);
+    expect(no.outcome).toBe(false);
+    expect(no.text).toMatch(/18\.3 mL\/kg\/min ≥ 10\.0 mL\/kg\/min and .*66 % predicted ≥ 35/);
+    expect(no.text).not.toMatch(/ or /);
+    const yes = evaluateCondition(cond, makeContext(baseInput({ peakVo2MlKgMin: 9, peakVo2PctPred: 66 })).ctx);
+    expect(yes.outcome).toBe(true);
+    expect(yes.text).not.toMatch(/ and /);
+  });
+
   it("'at least n of' names the items that were met (n of m) and, when short, the ones that were not", () => {
     const ctx = makeContext(baseInput({ vt1Vo2MlKgMin: 9, veVco2AtVt1: 36, ischaemicHeartDisease: false })).ctx;
     const cond: Condition = {
