@@ -48,6 +48,9 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
     seed: 1,
   });
   const hrMax = predicted.values.hrMaxBpm;
+  const mvvChoice = settings.mvvChoice ?? defaultMvvChoice(record);
+  // the MVV estimated from FEV1 says "prefer a measured value": not said when a measured MVV is the one used
+  const mvvEstimateUnused = mvvChoice === "measured" && record.spirometry?.mvvLMin !== undefined;
   const indices = measureIndices(test, {
     patient: record.patient,
     spirometry: record.spirometry,
@@ -58,7 +61,7 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
     vt1: thresholdPoint(thresholds.vt1),
     vt2: thresholdPoint(thresholds.vt2),
     peakWindowS: settings.peakWindowS ?? 30,
-    mvvChoice: settings.mvvChoice ?? defaultMvvChoice(record),
+    mvvChoice,
     lactate: record.lactate,
     bloodGases: record.bloodGases,
     ...(record.conduct?.apparatusDeadSpaceMl !== undefined ? { apparatusDeadSpaceMl: record.conduct.apparatusDeadSpaceMl } : {}),
@@ -76,9 +79,9 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
     ...predicted.issues,
     // each predicted value's own cautions (a patient outside the equation's derivation population, an input missing):
     // on the page and in the report as in the CLI; a missing detail stops one predicted value, not the analysis
-    ...Object.values(predicted.values).flatMap((pv) =>
-      (pv?.issues ?? []).map((i): Issue => (i.severity === "error" ? { ...i, severity: "warning" } : i)),
-    ),
+    ...Object.entries(predicted.values)
+      .filter(([quantity]) => !(quantity === "mvvLMin" && mvvEstimateUnused))
+      .flatMap(([, pv]) => (pv?.issues ?? []).map((i): Issue => (i.severity === "error" ? { ...i, severity: "warning" } : i))),
     ...thresholds.issues,
     ...indices.issues,
     ...interpretation.issues,

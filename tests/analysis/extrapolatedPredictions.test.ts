@@ -26,3 +26,16 @@ describe("predictions outside the derivation population (invented)", () => {
     expect(conclusion).toMatch(/The predicted peak VO2, maximal heart rate and O2 pulse come from equations derived outside/);
   });
 });
+
+describe("the MVV estimate's cautions (invented normal-adult demo case)", () => {
+  it("are given when FEV1 × 40 is used, and not when a measured MVV is the one used", async () => {
+    const { caseRecord } = await import("../fixtures/caseRecord");
+    const base = await caseRecord("normal-adult");
+    const estimated = analyse({ ...base, spirometry: { fev1L: 3.5 } }, {});
+    expect(estimated.indices.breathingReserve.mvvLMin.value).toBeCloseTo(140, 9); // 3.5 L × 40
+    expect(estimated.issues.some((i) => i.code === "capacity-estimate" && /FEV1 × 40/.test(i.message))).toBe(true);
+    const measured = analyse({ ...base, spirometry: { fev1L: 3.5, mvvLMin: 150 } }, {});
+    expect(measured.indices.breathingReserve.mvvLMin.value).toBe(150);
+    expect(measured.issues.some((i) => /FEV1 × 40/.test(i.message))).toBe(false);
+  });
+});
