@@ -432,7 +432,7 @@ export function vo2FinalIncrease(test: ConditionedTest, options: { windowS?: num
     const expected = (gain * dw) / w;
     if (expected < VO2_PLATEAU_CRITERION.cutoff)
       return nd(
-        `at this test's own VO2–work slope (${gain.toFixed(1)} mL/min/W) a rise of ${dw.toFixed(0)} W would raise VO2 by only ${expected.toFixed(2)} mL/kg/min, below the ${VO2_PLATEAU_CRITERION.cutoff} mL/kg/min plateau cut-off; a plateau cannot be told from a steady rise`,
+        `at the rise of VO2 with work rate late in this test (${gain.toFixed(1)} mL/min/W between two windows before the end, read without the lag correction of ΔVO2/ΔWR) a rise of ${dw.toFixed(0)} W would raise VO2 by only ${expected.toFixed(2)} mL/kg/min, below the ${VO2_PLATEAU_CRITERION.cutoff} mL/kg/min plateau cut-off; a plateau cannot be told from a steady rise`,
         { ...p, inputs: { ...p.inputs, expectedRiseMlKgMin: expected } },
         workIncreaseW,
       );

@@ -201,7 +201,7 @@ describe("standard error of the final VO2 rise, known by construction", () => {
   // seeded Gaussian noise of SD 100 mL/min on VO2 (seededRandom, Box–Muller). Each 30-s window holds 10 breaths (3 s
   // apart), so SE of the difference of the two window means ≈ 100 × √(1/10 + 1/10) = 44.7 mL/min (white noise; the
   // lag-1 correction is clipped at 0 for negative r). The estimate from one record scatters: within ±35 %. 50 kg, as
-  // above, so the test's own VO2–work slope expects a rise above the cut-off and the rise is assessed.
+  // above, so the late rise of VO2 with work rate expects a rise above the cut-off and the rise is assessed.
   it("SE ≈ 100·√(2/10) = 44.7 mL/min from white noise of SD 100 mL/min (within ±35 %), and 0 noise-free", () => {
     const rng = seededRandom(11);
     const base = standardRamp();
