@@ -5,7 +5,12 @@ const EMPTY_MARKERS = new Set(["-", "--", "---", ".", "na", "n/a", "nan", "null"
 
 const NUMBER_DOT = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/;
 const NUMBER_COMMA = /^[-+]?(\d+,?\d*|,\d+)([eE][-+]?\d+)?$/;
+/** Decimal dot with comma thousands ("1,087.7"). */
 const THOUSANDS_DOT = /^[-+]?\d{1,3}(,\d{3})+(\.\d+)?$/;
+/** Decimal comma with dot thousands ("1.087,7", "1.187"), as spreadsheets in comma-decimal locales write them. */
+const THOUSANDS_COMMA = /^[-+]?\d{1,3}(\.\d{3})+(,\d+)?$/;
+/** Space thousands (plain, no-break or narrow no-break space) with either decimal mark ("1 087,7", "1 087.7"). */
+const THOUSANDS_SPACE = /^[-+]?\d{1,3}([ \u00a0\u202f]\d{3})+([.,]\d+)?$/;
 const CLOCK = /^[-+]?\d{1,3}:\d{1,2}(:\d{1,2})?([.,]\d+)?$/;
 
 /** True when a cell holds nothing usable (empty or an empty marker such as "-" or "n/a"). */
@@ -18,20 +23,31 @@ export function looksNumeric(cell: Cell): boolean {
   if (typeof cell === "number") return true;
   if (cell === null) return false;
   const s = cell.trim();
-  return NUMBER_DOT.test(s) || NUMBER_COMMA.test(s) || CLOCK.test(s);
+  return (
+    NUMBER_DOT.test(s) ||
+    NUMBER_COMMA.test(s) ||
+    THOUSANDS_DOT.test(s) ||
+    THOUSANDS_COMMA.test(s) ||
+    THOUSANDS_SPACE.test(s) ||
+    CLOCK.test(s)
+  );
 }
 
 /**
- * Parse a numeric cell with the file's decimal mark. Returns NaN when the cell is not a number
- * (blank cells give NaN too; tell them apart with `isBlankCell`).
+ * Parse a numeric cell with the file's decimal mark. Thousands separators that cannot be the decimal mark are
+ * read too: a dot in a comma-decimal file ("1.087,7" = 1087.7; "1.187" = 1187), a comma in a dot-decimal file
+ * ("1,087.7"), spaces in either. Returns NaN when the cell is not a number (blank cells give NaN too; tell them apart
+ * with `isBlankCell`).
  */
 export function parseNumberCell(cell: Cell, decimalMark: "." | ","): number {
   if (typeof cell === "number") return cell;
   if (cell === null) return NaN;
   let s = cell.trim();
+  if (THOUSANDS_SPACE.test(s)) s = s.replace(/[ \u00a0\u202f]/g, "");
   if (decimalMark === ",") {
-    if (!NUMBER_COMMA.test(s)) return NaN;
-    s = s.replace(",", ".");
+    if (NUMBER_COMMA.test(s)) s = s.replace(",", ".");
+    else if (THOUSANDS_COMMA.test(s)) s = s.replace(/\./g, "").replace(",", ".");
+    else return NaN;
   } else if (!NUMBER_DOT.test(s)) {
     if (THOUSANDS_DOT.test(s)) s = s.replace(/,/g, "");
     else return NaN;

@@ -189,8 +189,8 @@ export async function readTableLayout(bytes: Uint8Array, issues: Issue[]): Promi
       if (looksNumeric(c)) {
         numeric++;
         if (typeof c === "string") {
-          if (/^[-+]?\d*,\d+$/.test(c)) commaDecimals++;
-          else if (/^[-+]?\d*\.\d+$/.test(c)) dotDecimals++;
+          if (/^[-+]?\d*,\d+$/.test(c) || /^[-+]?\d{1,3}(\.\d{3})+,\d+$/.test(c)) commaDecimals++;
+          else if (/^[-+]?\d*\.\d+$/.test(c) || /^[-+]?\d{1,3}(,\d{3})+\.\d+$/.test(c)) dotDecimals++;
         }
       }
     }
