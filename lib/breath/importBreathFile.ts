@@ -1303,11 +1303,14 @@ function checkPlausibility(rows: BreathRow[], byTarget: Map<Target, Column>, iss
     const header =
       byTarget.get(field)?.decision.header ?? (field === "vo2MlMin" ? byTarget.get("vo2MlKgMin")?.decision.header : undefined);
     if (out > 0.5 * present) {
+      // a column mostly outside its range is in another unit: its few in-range values are as wrong as the rest (per-kg
+      // VCO2 of the hardest breaths read as mL/min gives RER ≈ 0.01 and removes those breaths' VO2), so none is kept
+      for (const r of rows) delete (r as unknown as Record<string, number | undefined>)[field];
       issues.push(
         makeIssue(
           "warning",
           "column-mostly-implausible",
-          `Most ${FIELD_LABEL[field]} values (${out} of ${present}) lie outside ${lo}–${hi} ${unit} and were set aside: the unit is probably wrong. Set the unit of "${header ?? field}" in the column mapping.`,
+          `Most ${FIELD_LABEL[field]} values (${out} of ${present}) lie outside ${lo}–${hi} ${unit}: the unit is probably wrong, so the whole column was set aside. Give the unit in the header (e.g. "${FIELD_LABEL[field]} (${unit})") or set it on the column review page.`,
           { column: header, row: firstRow, field },
         ),
       );
