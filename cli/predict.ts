@@ -1,6 +1,6 @@
 import { CLINICAL_CAUTION } from "../lib/report/caution";
 import type { Command } from "commander";
-import { plausibilityProblem, type Ergometer, type Patient, type PlausibleField, type Sex } from "../lib/core";
+import { plausibilityProblem, type Ergometer, type Issue, type Patient, type PlausibleField, type Sex } from "../lib/core";
 import {
   DEFAULT_LAB_SETTINGS,
   EQUATIONS,
@@ -158,7 +158,7 @@ export function registerPredict(program: Command): void {
               null,
               2,
             ) + "\n"
-          : listText(),
+          : listText() + CLINICAL_CAUTION + "\n",
       );
       return;
     }
@@ -177,16 +177,32 @@ export function registerPredict(program: Command): void {
   });
 }
 
+/** The text answer: one line per predicted value (value, limit, equation, evidence status), every issue, the caution. */
 function formatText(result: Record<string, unknown>): string {
+  type Printed = { value: number | null; unit: string; equationId: string; status?: string; lln?: number; issues?: Issue[] };
   const lines: string[] = [];
-  for (const [k, v] of Object.entries(result)) {
-    if (v && typeof v === "object" && "equationId" in v && "value" in v) {
-      const pv = v as { value: number | null; unit: string; equationId: string; lln?: number };
-      const value = pv.value === null ? "not determinable" : `${pv.value.toFixed(pv.unit === "mL/min" ? 0 : 2)} ${pv.unit}`;
-      lines.push(`${k}\t${value}\t${pv.lln !== undefined ? `LLN ${pv.lln.toFixed(2)}` : ""}\t${pv.equationId}`);
-    }
-  }
-  if ("vo2PeakMlMin" in result && typeof result.vo2PeakMlMin === "number")
+  const issues: Issue[] = [...((result.issues as Issue[] | undefined) ?? [])];
+  const line = (name: string, pv: Printed) => {
+    const value = pv.value === null ? "not determinable" : `${pv.value.toFixed(pv.unit === "mL/min" ? 0 : 2)} ${pv.unit}`;
+    const lln = pv.lln !== undefined ? `LLN ${pv.lln.toFixed(2)}` : "";
+    lines.push(`${name}\t${value}\t${lln}\t${pv.equationId}${pv.status ? ` (${pv.status})` : ""}`);
+    issues.push(...(pv.issues ?? []));
+  };
+  // one equation (--equation): the answer itself is the prediction
+  if ("equationId" in result && "value" in result) line(String(result.quantity), result as unknown as Printed);
+  for (const [k, v] of Object.entries(result))
+    if (v && typeof v === "object" && "equationId" in v && "value" in v) line(k, v as Printed);
+  // one VO2 equation: the other form of the same prediction (per kg, or per minute)
+  if (result.quantity === "vo2PeakMlMin" && typeof result.vo2PeakMlKgMin === "number")
+    lines.push(`vo2PeakMlKgMin\t${result.vo2PeakMlKgMin.toFixed(2)} mL/kg/min`);
+  if (result.quantity === "vo2PeakMlKgMin" && typeof result.vo2PeakMlMin === "number")
     lines.push(`vo2PeakMlMin\t${result.vo2PeakMlMin.toFixed(0)} mL/min`);
+  const seen = new Set<string>();
+  for (const i of issues) {
+    if (seen.has(i.message)) continue;
+    seen.add(i.message);
+    lines.push(`${i.severity}: ${i.message}`);
+  }
+  lines.push(String(result.caution ?? CLINICAL_CAUTION));
   return lines.join("\n") + "\n";
 }

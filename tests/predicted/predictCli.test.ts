@@ -2,6 +2,7 @@ import { Command, CommanderError } from "commander";
 import { describe, expect, it } from "vitest";
 import { registerPredict } from "../../cli/predict";
 import { EQUATIONS } from "../../lib/predicted";
+import { CLINICAL_CAUTION } from "../../lib/report/caution";
 
 async function run(args: string[]) {
   let out = "";
@@ -56,13 +57,24 @@ describe("cpet predict", () => {
     expect(json.mvvLMin.value).toBeCloseTo(128, 10); // 3.2 × 40
   });
 
-  it("--list prints every equation id and nothing else", async () => {
+  it("--list prints every equation id, then the caution", async () => {
     const r = await run(["--list"]);
-    const ids = r.out
-      .trim()
-      .split("\n")
-      .map((l) => l.split("\t")[0]);
-    expect(ids).toEqual(EQUATIONS.map((e) => e.id));
+    const lines = r.out.trim().split("\n");
+    expect(lines.slice(0, -1).map((l) => l.split("\t")[0])).toEqual(EQUATIONS.map((e) => e.id));
+    expect(lines[lines.length - 1]).toBe(CLINICAL_CAUTION);
+  });
+
+  it("text answer: each value with its equation and evidence status, every warning, and the caution", async () => {
+    // an 8-year-old on adult equations: Hansen 1984 (adults) and ERS 2019 adult cycle HRmax (20–80 y) are extrapolations
+    const r = await run(["--sex", "male", "--age", "8", "--height-cm", "130", "--weight-kg", "25"]);
+    expect(r.out).toMatch(/^vo2PeakMlMin\t\d+ mL\/min\t\thansen-1984 \((confirmed|secondary|recalled)\)$/m);
+    expect(r.out).toMatch(/^warning: .*age 8 y is outside the derivation range 20–80 y; the prediction is an extrapolation\.$/m);
+    expect(r.out.trim().split("\n").pop()).toBe(CLINICAL_CAUTION);
+    // one equation on the other ergometer: the value, its other form, the mismatch, the caution
+    const one = await run([...man, "--ergometer", "cycle", "--equation", "friend-2017"]);
+    expect(one.out).toMatch(/^vo2PeakMlKgMin\t38\.00 mL\/kg\/min\tLLN [\d.]+\tfriend-2017/m);
+    expect(one.out).toMatch(/^vo2PeakMlMin\t3040 mL\/min$/m); // 38.00106 × 80 kg
+    expect(one.out).toMatch(/^warning: .*derived on a treadmill; this test used a cycle\.$/m);
   });
 
   it.each([
