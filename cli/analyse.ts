@@ -6,6 +6,7 @@ import { importLactateFile, parseTimeText, STAGE_DURATION_LIMITS_S } from "../li
 import { hasErrors, makeIssue, plausibilityProblem, type PlausibleField } from "../lib/core";
 import { REFERRAL_QUESTIONS } from "../lib/interpret";
 import { CLINICAL_CAUTION, toCliJson, type CliAnalysisJson } from "../lib/report";
+import { formatClock } from "../lib/units";
 
 interface AnalyseOptions {
   json?: boolean;
@@ -199,6 +200,21 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
       );
     record.lactate = lac.samples;
     record.importIssues = [...record.importIssues, ...lac.issues];
+  }
+  if (opts.exerciseSpan) {
+    // a span outside the record is a mistake in the command, not a clinical data problem: refused, like other options
+    const rows = record.table.rows;
+    const first = rows[0].timeS;
+    const last = rows[rows.length - 1].timeS;
+    const { startS, endS } = opts.exerciseSpan;
+    if (startS < first || endS > last) {
+      const relative = record.importIssues.some((i) => i.code === "time-made-relative")
+        ? " The file's clock times of day were counted from its first row, so give the span from there."
+        : "";
+      throw new Error(
+        `--exercise-span ${formatClock(startS)}-${formatClock(endS)} does not lie inside the record (${formatClock(first)}-${formatClock(last)}).${relative}`,
+      );
+    }
   }
   const settings = opts.exerciseSpan
     ? { conditioning: { phases: { exerciseSpan: { ...opts.exerciseSpan, reason: "set with --exercise-span" } } } }

@@ -172,6 +172,11 @@ describe("cpet analyse: full output on real and invented files", { timeout: CLI_
     const bad = run(["analyse", file, "--exercise-span", "5:00-1:00"]);
     expect(bad.status).toBe(1);
     expect(bad.stderr).toMatch(/--exercise-span needs start-end/);
+    // a span past the end of the record is refused, not replaced by the detected phase
+    const outside = run(["analyse", file, "--exercise-span", "6:00-99:00"]);
+    expect(outside.status).toBe(1);
+    expect(outside.stderr).toMatch(/--exercise-span 6:00-99:00 does not lie inside the record \(0:00-/);
+    expect(outside.stdout).toBe("");
   });
 
   it("accepts a separate lactate file with --lactate", () => {
