@@ -30,6 +30,10 @@ export const COLUMN_SYNONYMS: readonly SynonymEntry[] = [
       "timeelapsed",
       "runtime",
       "tijd",
+      "clock",
+      "clocktime",
+      "timeofday",
+      "uhrzeit",
     ],
   },
   { field: "vo2MlMin", names: ["vo2", "oxygenuptake", "o2uptake", "vo2uptake", "oxygenconsumption", "o2consumption"] },
@@ -177,6 +181,12 @@ export const DERIVED_NAMES: readonly string[] = [
   "vo2max",
   "hrmax",
 ];
+
+/**
+ * End-tidal gas fractions (%): not partial pressures, and turning one into PETCO2/PETO2 needs the barometric pressure
+ * (PET = FET × (PB − 47 mmHg), common practice), which exports rarely give; they are named as not used.
+ */
+export const END_TIDAL_FRACTION_NAMES: readonly string[] = ["fetco2", "feto2"];
 
 /** Qualifier tokens dropped before lookup. */
 export const QUALIFIER_TOKENS: readonly string[] = [

@@ -19,6 +19,7 @@ import { parseUnitText } from "./parseUnitText";
 import { phaseFromText } from "./phaseFromText";
 import { readTableLayout, type TableLayout } from "./readTableLayout";
 import { recogniseHeader, UNIT_KEYS_BY_FIELD } from "./recogniseHeader";
+import { END_TIDAL_FRACTION_NAMES } from "./columnSynonyms";
 import {
   FIELD_WORDS,
   PLAIN_COLUMNS,
@@ -215,6 +216,7 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
   }
   const columns: Column[] = [];
   const ignored: string[] = [];
+  const fractions: string[] = [];
   let bodyMassFromColumn: number | undefined;
   const n = rows.length;
   for (let i = 0; i < headers.length; i++) {
@@ -241,7 +243,10 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
     } else {
       if (reading.kind === "record-id")
         decision.reason = selectedBy.has(i) ? "test identifier (used to select the test)" : "test identifier; not a measurement";
-      else if (reading.kind === "derived") decision.reason = "derived quantity; recomputed from the measured columns";
+      else if (reading.kind === "derived" && END_TIDAL_FRACTION_NAMES.includes(reading.name)) {
+        decision.reason = "end-tidal gas fraction (%), not a partial pressure; not used";
+        fractions.push(header);
+      } else if (reading.kind === "derived") decision.reason = "derived quantity; recomputed from the measured columns";
       else if (reading.kind === "body-mass") {
         const st = columnStats(rows.map((r) => parseNumberCell(r[i] ?? null, dec)));
         if (st.n > 0 && st.low === st.high && st.median >= 20 && st.median <= 300) {
@@ -298,6 +303,14 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
     decideColumn(col, field, rows, lines, dec, reading.name, issues);
   }
 
+  // several tests in one file: choosing one comes first (what else is missing can only be judged on one test's rows)
+  if (issues.some((i) => i.code === "several-records"))
+    return failed(
+      issues,
+      columns.map((c) => c.decision),
+      { ...formatBase, timeFormat: "none" },
+    );
+
   // ---- duplicates: the first column of a field wins -----------------------------------------
   const byTarget = new Map<Target, Column>();
   for (const col of columns) {
@@ -318,6 +331,20 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
       continue;
     }
     byTarget.set(col.target, col);
+  }
+  if (fractions.length > 0) {
+    const withPressures = byTarget.has("petco2MmHg") || byTarget.has("peto2MmHg");
+    issues.push(
+      makeIssue(
+        withPressures ? "info" : "warning",
+        "end-tidal-fraction-not-used",
+        `${fractions.map((h) => `"${h}"`).join(" and ")} hold end-tidal gas fractions, not partial pressures, and were not used` +
+          (withPressures
+            ? "; the end-tidal partial pressures in the file are read instead."
+            : ": the end-tidal methods (PETCO2, PETO2) have no data. Export PETCO2/PETO2 in mmHg or kPa, or add a column PET = FET × (barometric pressure − 47 mmHg) / 100."),
+        { column: fractions[0] },
+      ),
+    );
   }
   const rrCol = byTarget.get("rrIntervalMs");
   const hrFromRr = rrCol !== undefined && !byTarget.has("hrBpm");

@@ -28,6 +28,10 @@ export const BREATH_ISSUE_CODES = {
     meaning:
       "heart rate was computed from R–R intervals; beats set aside as implausible or irregular are counted (warning when many)",
   },
+  "end-tidal-fraction-not-used": {
+    severity: "warning",
+    meaning: "an end-tidal gas fraction (%) column was not used (a partial pressure in mmHg or kPa is needed)",
+  },
   "speed-in-load-column": { severity: "info", meaning: "a load column holds treadmill speed (km/h), not watts" },
   "per-kg-converted": { severity: "info", meaning: "VO2 per kg was multiplied by body mass" },
   "weight-needed": { severity: "warning", meaning: "VO2 is given per kg and no body mass is known" },

@@ -131,6 +131,9 @@ describe("mapping profiles and header spellings", () => {
     ["Stage", "stage", undefined],
     ["Event", "phase", undefined],
     ["Time (hh:mm:ss)", "timeS", "clock"],
+    ["Clock time", "timeS", undefined],
+    ["Time of day", "timeS", undefined],
+    ["Uhrzeit", "timeS", undefined],
   ])("%s → %s (%s)", (header, field, unit) => {
     const r = recogniseHeader(header, PLAIN_COLUMNS);
     expect(r.field).toBe(field);
