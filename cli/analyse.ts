@@ -228,15 +228,39 @@ function formatText(r: CliAnalysisJson): string {
   // a calibrated band after its value ("band" means what the JSON Schema says), or nothing
   const b = (band: { low: number; high: number } | null, d = 0) =>
     band ? `, band ${band.low.toFixed(d)}-${band.high.toFixed(d)}` : "";
+  // % of the lab's predicted value, with the equation, where one was computed
+  const pct = (q: string) => {
+    const p = r.predicted[q];
+    return p && p.percentPredicted !== null ? `, ${p.percentPredicted.toFixed(0)} % predicted (${p.equationId})` : "";
+  };
+  const perKg =
+    r.peak.vo2MlKgMin !== null
+      ? n(r.peak.vo2MlKgMin, 1, " mL/kg/min")
+      : r.peak.vo2MlMin === null
+        ? "per kg not determinable"
+        : "per kg not determinable (give --weight-kg)";
+  const onTreadmill = r.peak.workW === null && r.peak.speedKmh != null;
+  const effortWords = r.interpretation as {
+    effort?: { text?: string; verdict?: string };
+    path?: { end?: { label: string } | null };
+    patterns?: { statement: string; support: string }[];
+  };
+  const leading = effortWords.patterns?.find((p) => p.support === "strong" || p.support === "moderate");
   const lines = [
-    `peak VO2        ${n(r.peak.vo2MlMin, 0, " mL/min")}, ${r.peak.vo2MlKgMin === null ? "per kg not determinable (give --weight-kg)" : n(r.peak.vo2MlKgMin, 1, " mL/kg/min")} (${r.peak.method})`,
-    `peak RER ${n(r.peak.rer, 2)}, HR ${n(r.peak.hrBpm, 0, " bpm")}, work rate ${n(r.peak.workW, 0, " W")}`,
+    `peak VO2        ${n(r.peak.vo2MlMin, 0, " mL/min")}, ${perKg}${pct("vo2PeakMlMin")} (${r.peak.method})`,
+    `peak RER ${n(r.peak.rer, 2)}, HR ${n(r.peak.hrBpm, 0, " bpm")}${pct("hrMaxBpm")}, ${
+      onTreadmill
+        ? `speed ${n(r.peak.speedKmh ?? null, 1, " km/h")}${r.peak.gradePct != null ? `, grade ${n(r.peak.gradePct, 1, " %")}` : ""}`
+        : `work rate ${n(r.peak.workW, 0, " W")}`
+    }`,
     `VT1             ${n(r.vt1.vo2MlMin, 0, " mL/min")} (confidence ${r.vt1.confidence})`,
     `VT2             ${n(r.vt2.vo2MlMin, 0, " mL/min")} (confidence ${r.vt2.confidence})`,
     `VE/VCO2 slope   ${n(r.veVco2Slope.toRcp, 1)} (${r.veVco2Slope.toRcpFittedTo.replace(/^VE\/VCO2 slope,? /, "")}${b(r.veVco2Slope.toRcpBand, 1)}); ${n(r.veVco2Slope.whole, 1)} (whole exercise, ${r.averaging.startsWith("breath by breath") ? "breath by breath" : "on the rows as exported"}${b(r.veVco2Slope.wholeBand, 1)})`,
     `OUES            ${n(r.oues)}${r.ouesBand ? ` (${b(r.ouesBand).slice(2)})` : ""}`,
-    `ΔVO2/ΔWR        ${n(r.dVo2dWr, 1, " mL/min/W")}${r.dVo2dWrBand ? ` (${b(r.dVo2dWrBand, 1).slice(2)})` : ""}`,
+    `ΔVO2/ΔWR        ${onTreadmill && r.dVo2dWr === null ? "not applicable (no work rate: treadmill)" : `${n(r.dVo2dWr, 1, " mL/min/W")}${r.dVo2dWrBand ? ` (${b(r.dVo2dWrBand, 1).slice(2)})` : ""}`}`,
     `breathing reserve ${r.breathingReserve.pct === null ? "not determinable (give --mvv-l-min or --fev1-l)" : n(r.breathingReserve.pct, 0, " %")}`,
+    ...(effortWords.effort?.verdict ? [`effort          ${effortWords.effort.verdict}`] : []),
+    ...(effortWords.path?.end ? [`draft reading   ${effortWords.path.end.label}.${leading ? ` ${leading.statement}` : ""}`] : []),
     ...(r.lactate ? lactateLines(r.lactate) : []),
     ...r.issues.filter((i) => i.severity !== "info").map((i) => `${i.severity}: ${i.message}`),
     // why a value above is missing (predicted values say so in the warnings already; OBLA given as a speed is not missing)
