@@ -1259,7 +1259,8 @@ function noteHeartRateFromRr(rows: readonly BreathRow[], c: RrCleaning, header: 
       `${without} of ${rows.length} ${noun} have no heart rate (no kept beat in their span${spans.length > 3 ? "; longest stretches" : ""}: ${said}).`,
     );
   }
-  // more than 5 % of beats set aside (our choice): arrhythmia or poor detection; heart-rate indices need a look
+  // more than 5 % of beats set aside, or more than 10 % of rows without heart rate (both our choice): arrhythmia, poor
+  // detection or a lost ECG signal; heart-rate indices need a look
   const severity = pct > 5 || without > 0.1 * rows.length ? "warning" : "info";
   if (severity === "warning") parts.push("Check the ECG: heart-rate indices from this record may not be reliable.");
   issues.push(makeIssue(severity, "hr-from-rr-intervals", parts.join(" "), { column: header }));
