@@ -254,6 +254,7 @@ export function toInterpretInput(
     names: { veVco2SlopeToRcp: slopeToVt2Name(indices.veVco2.slopeToVt2) },
     uncertainty,
     ...(thresholds.vt1.confidence === "low" && !thresholds.vt1.overridden ? { vt1LowConfidence: true } : {}),
+    ...(thresholds.vt2.confidence === "low" && !thresholds.vt2.overridden ? { vt2LowConfidence: true } : {}),
   };
 }
 

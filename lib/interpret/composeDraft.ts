@@ -334,6 +334,15 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     }
     if (domains.length)
       rx.push("Ranges derive from this test's thresholds; medication changes (notably beta-blockers) alter heart-rate targets.");
+    if (domains.some((d) => d.workFromW !== undefined || d.workToW !== undefined))
+      rx.push(
+        "Work rates are read from the ramp: VO2 lags a ramp, so constant-load training at these work rates sits at a higher intensity than the threshold itself (common practice).",
+      );
+    const unsure = [input.vt1LowConfidence ? "VT1" : "", input.vt2LowConfidence ? "VT2" : ""].filter(Boolean);
+    if (domains.length && unsure.length)
+      rx.push(
+        `${andList(unsure)} ${unsure.length > 1 ? "were" : "was"} found with low confidence: confirm on review before prescribing from ${unsure.length > 1 ? "them" : "it"}.`,
+      );
     sections.push({ id: "prescription", title: "Exercise prescription (intensity domains)", paragraphs: rx });
   }
 

@@ -167,6 +167,8 @@ export interface InterpretInput {
    * be confirmed on review.
    */
   vt1LowConfidence?: boolean;
+  /** VT2 found with low confidence (and not set by a reviewer): a prescription from it says to confirm it. */
+  vt2LowConfidence?: boolean;
 }
 
 /** One measurement's band as the interpretation reads it. */

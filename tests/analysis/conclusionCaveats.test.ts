@@ -51,3 +51,14 @@ describe("conclusion caveats (invented demo cases)", () => {
     expect(lines.find((l) => l.startsWith("Pulmonary hypertension risk"))).toMatch(/VE\/VCO2 slope: High risk \(≥ 45\)/);
   });
 });
+
+describe("prescription caveats (invented demo cases)", () => {
+  it("ramp work rates and low-confidence thresholds are said beside the domains they shape", async () => {
+    const preop = analyse(await caseRecord("preop-low-at"), {});
+    const rx = preop.draft.sections.find((s) => s.id === "prescription")!.paragraphs.join(" ");
+    expect(rx).toMatch(/Work rates are read from the ramp: VO2 lags a ramp/);
+    expect(rx).toMatch(/VT1 and VT2 were found with low confidence: confirm on review before prescribing from them\./);
+    const normal = analyse(await caseRecord("normal-adult"), {});
+    expect(normal.draft.sections.find((s) => s.id === "prescription")!.paragraphs.join(" ")).not.toMatch(/low confidence/);
+  });
+});
