@@ -65,6 +65,9 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
     lactate: record.lactate,
     bloodGases: record.bloodGases,
     ...(record.conduct?.apparatusDeadSpaceMl !== undefined ? { apparatusDeadSpaceMl: record.conduct.apparatusDeadSpaceMl } : {}),
+    ...(record.conduct?.barometricPressureMmHg !== undefined
+      ? { barometricPressureMmHg: record.conduct.barometricPressureMmHg }
+      : {}),
   });
   const comparisons = compareAll(indices, predicted);
   const peakVo2 = indices.peaks.vo2MlMin.value;

@@ -234,6 +234,7 @@ export function toInterpretInput(
       spo2Min: v(indices.spo2.lowestPct),
       paO2: peakPaO2(record, vdvt),
       vdvtPeak: vdvt ? v(vdvt.vdVt) : null,
+      aaGradientPeak: vdvt?.aaGradient ? v(vdvt.aaGradient) : null,
       fev1PctPred: record.spirometry?.fev1PctPred ?? null,
       dlcoPctPred: record.spirometry?.dlcoPctPred ?? null,
       resectedSegments: record.context?.resectedSegments ?? null,

@@ -21,6 +21,8 @@ export interface TestConduct {
    * Subtracted from VD/VT as VDapparatus/VT when blood gases are given (`vdVt`).
    */
   apparatusDeadSpaceMl?: number;
+  /** Barometric pressure in the laboratory during the test, mmHg (for P(A−a)O2; sea level is assumed without it). */
+  barometricPressureMmHg?: number;
 }
 
 /** Clinical context entered with the test (used by schemes that need it). */

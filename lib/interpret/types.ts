@@ -100,6 +100,8 @@ export interface InterpretValues {
   paO2?: Maybe<number>;
   /** Dead-space fraction VD/VT at peak (arterial PaCO2 based), dimensionless. */
   vdvtPeak?: Maybe<number>;
+  /** Alveolar–arterial PO2 difference of the peak blood gas, mmHg (`vdVt`'s peak point). */
+  aaGradientPeak?: Maybe<number>;
   /** FEV1, % predicted. */
   fev1PctPred?: Maybe<number>;
   /** DLCO, % predicted. */

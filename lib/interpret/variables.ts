@@ -98,6 +98,7 @@ export const VARIABLES = {
   spo2Min: { label: "Lowest SpO2 during exercise", unit: "%", kind: "number" },
   paO2: { label: "Peak PaO2", unit: "mmHg", kind: "number" },
   vdvtPeak: { label: "Peak VD/VT", unit: "", kind: "number", decimals: 2 },
+  aaGradientPeak: { label: "Peak P(A−a)O2", unit: "mmHg", kind: "number", decimals: 0 },
   // lung resection
   resectedSegments: { label: "Functional segments to be resected", unit: "segments", kind: "number" },
   stairClimbM: { label: "Stair-climb height", unit: "m", kind: "number" },

@@ -35,6 +35,8 @@ export interface IndicesContext {
   bloodGases?: BloodGasSample[];
   /** Apparatus dead space, mL, subtracted from VD/VT (`vdVt`); absent = not known, not subtracted. */
   apparatusDeadSpaceMl?: number;
+  /** Barometric pressure, mmHg, for P(A−a)O2 (`vdVt`); absent = sea level assumed, said in an issue. */
+  barometricPressureMmHg?: number;
   /** EOV detection settings (both published rules are always reported). */
   eovDefinition?: EovOptions;
   /** Headline desaturation definition. @default "hadeli-2001" */

@@ -104,7 +104,7 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
   const dv = dVo2dWr(test, { vt1, vt2, lagS: ctx.dVo2dWrLagS });
   const o2p = o2Pulse(test);
   const sp = spo2(test, { windowS, definition: ctx.desaturationDefinition });
-  const vd = vdVt(test, ctx.bloodGases, ctx.readAtTime, ctx.apparatusDeadSpaceMl);
+  const vd = vdVt(test, ctx.bloodGases, ctx.readAtTime, ctx.apparatusDeadSpaceMl, ctx.barometricPressureMmHg);
   const domains = intensityDomains(atVt1, atVt2, peaks);
   const issues = [
     ...peaks.issues,

@@ -159,6 +159,11 @@ export const THRESHOLD_SOURCES = defineSources({
     citation: "Bohr-Enghoff dead-space fraction VD/VT = 1 − 863/(PaCO2·VE/VCO2), VE BTPS, VCO2 STPD (recalled form)",
     status: "recalled",
   },
+  "alveolar-gas-equation": {
+    citation:
+      "Alveolar gas equation PAO2 = FiO2·(PB − 47) − PaCO2·[FiO2 + (1 − FiO2)/R], room-air FiO2 0.2093, water vapour 47 mmHg at 37 °C (full form recalled)",
+    status: "common-practice",
+  },
   "eov-criteria-review-2025": {
     citation: "EOV criteria table, Cardiology Research 2025;16(6):475",
     status: "secondary",

@@ -31,6 +31,15 @@ export const PEAK_SAMPLE_EARLY_S = 60;
 
 const APPARATUS_NOTE = "valve and mouthpiece (apparatus) dead space not subtracted";
 
+/** O2 fraction of dry room air (common practice). Supplemental oxygen is not supported: P(A−a)O2 assumes room air. */
+export const ROOM_AIR_FIO2 = 0.2093;
+/** Water vapour pressure at 37 °C, mmHg (common practice). */
+export const WATER_VAPOUR_MMHG = 47;
+/** Barometric pressure at sea level, mmHg (common practice), assumed for P(A−a)O2 when none is entered. */
+export const SEA_LEVEL_PB_MMHG = 760;
+/** Barometric pressures a user may enter, mmHg (our choice: sea level down to about 3 500 m). */
+export const BAROMETRIC_PRESSURE_LIMITS_MMHG = { min: 480, max: 800 } as const;
+
 /** Apparatus dead space a user may enter, mL (our choice: valves, mouthpieces and masks hold roughly 30–300 mL). */
 export const APPARATUS_DEAD_SPACE_LIMITS_ML = { min: 0, max: 500 } as const;
 
@@ -50,6 +59,11 @@ export interface VdVtPoint {
   atPeak: boolean;
   /** Tidal volume at the sample, L, when the apparatus dead space was subtracted (VDapparatus/VT). */
   vtL?: Measured;
+  /**
+   * Alveolar–arterial PO2 difference, mmHg, when the sample has PaO2 and PaCO2: PAO2 − PaO2 with PAO2 from the alveolar
+   * gas equation at the RER read at the sample (room air; the entered or the sea-level barometric pressure).
+   */
+  aaGradient?: Measured;
 }
 
 interface Placed {
@@ -87,6 +101,7 @@ export function vdVt(
   gases: readonly BloodGasSample[] | undefined,
   options: ReadAtTimeOptions = {},
   apparatusDeadSpaceMl?: number,
+  barometricPressureMmHg?: number,
 ): { points: VdVtPoint[]; issues: Issue[] } {
   const issues: Issue[] = [];
   const ex = test.exercise;
@@ -232,6 +247,32 @@ export function vdVt(
       );
   }
 
+  const pb = barometricPressureMmHg ?? SEA_LEVEL_PB_MMHG;
+  // PAO2 = FiO2·(PB − 47) − PaCO2·[FiO2 + (1 − FiO2)/R] (alveolar gas equation, full form; common practice), R read at the
+  // sample as VCO2/VO2 the way VE/VCO2 is read; P(A−a)O2 = PAO2 − PaO2
+  const alveolarArterial = (p: Placed, vd: Measured, readOptions: ReadAtTimeOptions): Measured => {
+    const r = readAtTime(test, "vco2MlMin", p.timeS, "1", { ...readOptions, denominator: "vo2MlMin", scale: 1 });
+    const prov = provenanceOf(
+      "aa-gradient-alveolar-gas-equation",
+      `P(A−a)O2 = FiO2·(PB − 47) − PaCO2·[FiO2 + (1 − FiO2)/R] − PaO2; room air (FiO2 ${ROOM_AIR_FIO2}), PB ${pb} mmHg${barometricPressureMmHg === undefined ? " (sea level assumed)" : ""}, R read at the sample`,
+      ["alveolar-gas-equation", "hansen-1984"],
+      {
+        window: r.provenance.window,
+        inputs: {
+          paO2MmHg: round(p.g.paO2MmHg!, 1),
+          paCO2MmHg: round(p.g.paCO2MmHg, 1),
+          rer: r.value === null ? null : round(r.value, 3),
+          barometricPressureMmHg: pb,
+          fio2: ROOM_AIR_FIO2,
+        },
+      },
+    );
+    if (vd.value === null && vd.reason && !(p.g.paCO2MmHg > 0)) return notDetermined("mmHg", prov, vd.reason);
+    if (r.value === null || !(r.value > 0))
+      return notDetermined("mmHg", prov, r.reason ?? "RER not available at the sample time");
+    const pAO2 = ROOM_AIR_FIO2 * (pb - WATER_VAPOUR_MMHG) - p.g.paCO2MmHg * (ROOM_AIR_FIO2 + (1 - ROOM_AIR_FIO2) / r.value);
+    return measured(pAO2 - p.g.paO2MmHg!, "mmHg", prov);
+  };
   const points: VdVtPoint[] = [];
   kept.forEach((p, i) => {
     const readOptions: ReadAtTimeOptions & { denominator: "vco2MlMin"; scale: number; label?: string } = {
@@ -298,6 +339,8 @@ export function vdVt(
         "1",
         prov,
       );
+    const aaGradient =
+      p.g.paO2MmHg !== undefined && !timesDoubtful && peakIdx >= 0 ? alveolarArterial(p, v, readOptions) : undefined;
     points.push({
       timeS: p.timeS,
       phase: p.phase,
@@ -308,8 +351,17 @@ export function vdVt(
       placedBy: p.placedBy,
       atPeak: i === peakIdx,
       ...(subtract && vtRead ? { vtL: vtRead } : {}),
+      ...(aaGradient ? { aaGradient } : {}),
     });
   });
+  if (barometricPressureMmHg === undefined && points.some((p) => p.aaGradient?.value != null))
+    issues.push(
+      makeIssue(
+        "info",
+        "aa-gradient-sea-level",
+        `P(A−a)O2 assumes sea-level barometric pressure (${SEA_LEVEL_PB_MMHG} mmHg) and room air: no barometric pressure was entered with the test conduct. Above sea level it reads high by about ${ROOM_AIR_FIO2} × (${SEA_LEVEL_PB_MMHG} − the true pressure), e.g. 13 mmHg at 700 mmHg.`,
+      ),
+    );
   const computed = points.filter((p) => p.vdVt.value !== null);
   const unsubtracted = computed.filter((p) => p.vtL === undefined);
   if (apparatusDeadSpaceMl !== undefined && unsubtracted.length > 0)

@@ -27,11 +27,12 @@ afterEach(() => {
   fs.rmSync(dir, { recursive: true, force: true });
 });
 
-async function send(testId: number, deadSpace: string) {
+async function send(testId: number, deadSpace: string, barometricPressure = "") {
   const form = new FormData();
   form.set("testId", String(testId));
   form.set("protocol", "cycle ramp");
   form.set("apparatusDeadSpaceMl", deadSpace);
+  form.set("barometricPressureMmHg", barometricPressure);
   return saveConduct({}, form);
 }
 
@@ -55,5 +56,22 @@ describe("apparatus dead space on the test-conduct form (invented case)", () => 
     const vt = after.vtL!.value!;
     expect(vt).toBeGreaterThan(1); // a tidal volume near peak, L
     expect(after.vdVt.value!).toBeCloseTo(before.vdVt.value! - 0.12 / vt, 12);
+  });
+
+  it("barometric pressure moves P(A−a)O2 by FiO2 × the change (alveolar gas equation, common practice)", async () => {
+    const record = {
+      ...(await caseRecord("normal-adult")),
+      bloodGases: [{ timeS: NaN, label: "peak", paCO2MmHg: 38, paO2MmHg: 92 }],
+    };
+    const testId = saveTest({ uploadId: null, label: "Barometric pressure (invented)", record, columns: [], issues: [] });
+    const seaLevel = analyse(getTest(testId)!.record!, {});
+    const at760 = seaLevel.indices.vdVt.find((p) => p.atPeak)!.aaGradient!.value!;
+    expect(seaLevel.issues.map((i) => i.code)).toContain("aa-gradient-sea-level");
+    expect((await send(testId, "", "300")).errors?.barometricPressureMmHg).toMatch(/Barometric pressure/);
+    expect((await send(testId, "", "700")).ok).toMatch(/saved/);
+    const high = analyse(getTest(testId)!.record!, {});
+    // PAO2 falls by 0.2093 × (760 − 700) = 12.56 mmHg; PaO2, PaCO2 and R are unchanged
+    expect(high.indices.vdVt.find((p) => p.atPeak)!.aaGradient!.value!).toBeCloseTo(at760 - 0.2093 * 60, 9);
+    expect(high.issues.map((i) => i.code)).not.toContain("aa-gradient-sea-level");
   });
 });

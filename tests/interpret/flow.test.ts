@@ -85,6 +85,21 @@ describe("interpretation flow, one test per path", () => {
     expect(side.map((f) => f.ruleId)).toContain("chronotropic-incompetence");
   });
 
+  it.each([
+    // peak P(A−a)O2 upper limit: > 38 mmHg (Hansen et al. 1984, confirmed; default) or > 35 mmHg (ATS/ACCP 2003, recalled)
+    [38, "above-38", false],
+    [38.5, "above-38", true],
+    [35, "above-35", false],
+    [36, "above-35", true],
+  ])("P(A−a)O2 %s mmHg with the %s limit: widened %s, and the gas-exchange step follows", (aa, option, widened) => {
+    const r = interpret(baseInput({ peakVo2PctPred: 65, vt1PctPredPeakVo2: 45, aaGradientPeak: aa }), {
+      choices: { "aa-gradient-upper": option },
+    });
+    const step = r.path.steps.find((s) => s.nodeId === "gas-exchange")!;
+    expect(step.checks.find((c) => c.ruleId === "aa-gradient-high")!.outcome).toBe(widened);
+    expect(step.outcome).toBe(widened ? "abnormal" : "normal");
+  });
+
   it("reduced → AT normal → breathing reserve exhausted (VE/MVV ≥ 85 %, Radtke 2019)", () => {
     const r = interpret(baseInput({ peakVo2PctPred: 65, vt1PctPredPeakVo2: 45, veMvvPct: 85 }));
     expect(path(r).slice(1, 4)).toEqual(["peak-vo2:reduced", "at:normal", "breathing-reserve:ventilatory-limitation"]);

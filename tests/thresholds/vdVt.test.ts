@@ -65,4 +65,25 @@ describe("VD/VT (Bohr-Enghoff form, recalled)", () => {
     const r = vdVt(test, [{ timeS: 700, paCO2MmHg: 40, label: "peak" }]);
     expect(r.issues.find((i) => i.code === "vdvt-apparatus-dead-space")?.message).toMatch(/Enter the apparatus dead space/);
   });
+
+  // Alveolar gas equation, full form (common practice): PAO2 = FiO2·(PB − 47) − PaCO2·[FiO2 + (1 − FiO2)/R]
+  it("P(A−a)O2 by construction: R 1.0, PaCO2 40, PaO2 90 → 0.2093·713 − 40 − 90 = 19.23 mmHg at sea level", () => {
+    const withR = makeTest(buildRows(() => ({ vo2MlMin: 1000, vco2MlMin: 1000, veLMin: 30 })));
+    const r = vdVt(withR, [{ timeS: 700, paCO2MmHg: 40, paO2MmHg: 90, label: "peak" }]);
+    expect(r.points[0].aaGradient!.value).toBeCloseTo(0.2093 * 713 - 40 * (0.2093 + 0.7907 / 1) - 90, 9);
+    expect(r.issues.map((i) => i.code)).toContain("aa-gradient-sea-level");
+    // at 630 mmHg (about 1 500 m): 0.2093·583 − 40 − 90 = −7.98 mmHg; no sea-level note
+    const high = vdVt(withR, [{ timeS: 700, paCO2MmHg: 40, paO2MmHg: 90, label: "peak" }], {}, undefined, 630);
+    expect(high.points[0].aaGradient!.value).toBeCloseTo(0.2093 * 583 - 40 - 90, 9);
+    expect(high.issues.map((i) => i.code)).not.toContain("aa-gradient-sea-level");
+    // R 0.8 (VCO2 800, VO2 1000): 149.2309 − 40·(0.2093 + 0.7907/0.8) − 90 = 10.37 mmHg
+    const lowR = makeTest(buildRows(() => ({ vo2MlMin: 1000, vco2MlMin: 800, veLMin: 24 })));
+    const r2 = vdVt(lowR, [{ timeS: 700, paCO2MmHg: 40, paO2MmHg: 90, label: "peak" }]);
+    expect(r2.points[0].aaGradient!.value).toBeCloseTo(0.2093 * 713 - 40 * (0.2093 + 0.7907 / 0.8) - 90, 9);
+  });
+
+  it("no PaO2: no P(A−a)O2", () => {
+    const r = vdVt(test, [{ timeS: 700, paCO2MmHg: 40, label: "peak" }]);
+    expect(r.points[0].aaGradient).toBeUndefined();
+  });
 });

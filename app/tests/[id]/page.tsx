@@ -471,6 +471,17 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                 d={2}
               />
             ))}
+            {ix.vdVt
+              .filter((v) => v.aaGradient)
+              .map((v) => (
+                <IndexRow
+                  key={`aa-${v.timeS}`}
+                  label={`P(A−a)O2 at ${v.label ?? formatClock(v.timeS)}`}
+                  m={v.aaGradient!}
+                  d={0}
+                  unit="mmHg"
+                />
+              ))}
           </tbody>
         </table>
       </TableScroll>

@@ -264,6 +264,7 @@ export interface ConductValues {
   ecgNotes?: string;
   notes?: string;
   apparatusDeadSpaceMl?: number;
+  barometricPressureMmHg?: number;
 }
 
 export function ConductForm({ testId, current }: { testId: number; current: ConductValues }) {
@@ -307,6 +308,13 @@ export function ConductForm({ testId, current }: { testId: number; current: Cond
           current={current.apparatusDeadSpaceMl}
           values={v}
           error={e.apparatusDeadSpaceMl}
+        />
+        <NumberField
+          name="barometricPressureMmHg"
+          label="Barometric pressure, mmHg (for P(A−a)O2; sea level if empty)"
+          current={current.barometricPressureMmHg}
+          values={v}
+          error={e.barometricPressureMmHg}
         />
       </div>
       <label className={styles.label}>

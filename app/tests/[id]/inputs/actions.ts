@@ -196,6 +196,7 @@ export async function saveConduct(_prev: InputFormState, form: FormData): Promis
     ecgNotes: c.ecgNotes || undefined,
     notes: c.notes || undefined,
     apparatusDeadSpaceMl: c.apparatusDeadSpaceMl,
+    barometricPressureMmHg: c.barometricPressureMmHg,
   });
   done(testId, { ...record, conduct }, "test-conduct-updated", Object.keys(conduct).join(", ") || "cleared");
   return { ok: "Test conduct saved.", stamp };

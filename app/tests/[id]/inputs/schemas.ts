@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { optionalNumber } from "../../../schemas";
-import { APPARATUS_DEAD_SPACE_LIMITS_ML } from "@/lib/thresholds";
+import { APPARATUS_DEAD_SPACE_LIMITS_ML, BAROMETRIC_PRESSURE_LIMITS_MMHG } from "@/lib/thresholds";
 
 const formNumber = (min: number, max: number, what: string, integer = false) =>
   optionalNumber(min, max, what, { integer, decimalComma: true });
@@ -44,6 +44,11 @@ export const conductSchema = z.object({
     APPARATUS_DEAD_SPACE_LIMITS_ML.min,
     APPARATUS_DEAD_SPACE_LIMITS_ML.max,
     "Apparatus dead space (mL)",
+  ),
+  barometricPressureMmHg: formNumber(
+    BAROMETRIC_PRESSURE_LIMITS_MMHG.min,
+    BAROMETRIC_PRESSURE_LIMITS_MMHG.max,
+    "Barometric pressure (mmHg)",
   ),
 });
 
