@@ -31,7 +31,9 @@ test("the analysis view shows thresholds, predicted values, interpretation and s
   await expect(page.getByTestId("patterns")).toContainText("consistent with");
   // a criterion that cannot be read says why: on this ramp a 5–10 % work increase raises VO2 by less than the plateau
   // cut-off at the late rise of VO2 with work rate, so the plateau cannot be told from a steady rise
-  await expect(page.getByTestId("effort-criteria")).toContainText("VO2 plateau not available (at the rise of VO2 with work rate late in this test");
+  await expect(page.getByTestId("effort-criteria")).toContainText(
+    "VO2 plateau not available (at the rise of VO2 with work rate late in this test",
+  );
   // this demo's peak RER (1.06) lies within two standard errors of the 1.05 criterion: the verdict says it is borderline
   await expect(page.getByTestId("effort-borderline")).toContainText(/Near a cut-off: the peak RER \d\.\d\d–\d\.\d\d .* reaches /);
   await page.screenshot({ path: "reports/screenshots/analysis-heart-failure.png", fullPage: true });
