@@ -38,6 +38,8 @@ export function draftExtras(record: TestRecord, thresholds: ThresholdResult, ind
       reasonForStopping: record.conduct?.reasonForStopping,
       symptoms: record.conduct?.symptoms,
       peakBorg: record.conduct?.peakBorg,
+      apparatusDeadSpaceMl: record.conduct?.apparatusDeadSpaceMl,
+      barometricPressureMmHg: record.conduct?.barometricPressureMmHg,
       notes: record.conduct?.notes,
     },
     thresholdMethods: {

@@ -26,6 +26,10 @@ export interface DraftExtras {
     symptoms?: string;
     peakBorg?: number;
     notes?: string;
+    /** Apparatus dead space subtracted from VD/VT, mL. */
+    apparatusDeadSpaceMl?: number;
+    /** Barometric pressure used for P(A−a)O2, mmHg. */
+    barometricPressureMmHg?: number;
   };
   /**
    * How VT1 / VT2 were found, in words: either the method ("consensus of …", written after "was found by")
@@ -196,11 +200,13 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     if (tc.reasonForStopping) bits.push(`The test was stopped because of ${tc.reasonForStopping}.`);
     if (tc.symptoms) bits.push(`Symptoms: ${tc.symptoms}.`);
     if (have(tc.peakBorg)) bits.push(`Peak perceived exertion (Borg): ${tc.peakBorg}.`);
+    if (have(tc.apparatusDeadSpaceMl)) bits.push(`Apparatus dead space ${tc.apparatusDeadSpaceMl} mL (subtracted from VD/VT).`);
+    if (have(tc.barometricPressureMmHg)) bits.push(`Barometric pressure ${tc.barometricPressureMmHg} mmHg (for P(A−a)O2).`);
     if (tc.notes) bits.push(tc.notes);
     if (bits.length) conduct.push(bits.join(" "));
   } else if (input.ergometer) conduct.push(`Ergometer: ${input.ergometer}.`);
   const e = interpretation.effort;
-  conduct.push(`Effort: ${e.label}.`);
+  conduct.push(`Effort: ${e.label}${e.borderline ? ` (near a cut-off: ${e.borderline})` : ""}.`);
   conduct.push(`Criteria: ${e.criteria.map((c) => c.text).join("; ")}.`);
   if (!e.peakConclusionsAllowed) {
     conduct.push(
@@ -323,7 +329,12 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
           : lo === undefined
             ? `up to ${hi} ${unit}`
             : `from ${lo} ${unit}`;
-      const hr = d.hrFromBpm !== undefined || d.hrToBpm !== undefined ? `heart rate ${range(d.hrFromBpm, d.hrToBpm, "bpm")}` : "";
+      // in atrial fibrillation the ventricular rate is no training target (common practice)
+      const hrTargets = input.patient.atrialFibrillation !== true;
+      const hr =
+        hrTargets && (d.hrFromBpm !== undefined || d.hrToBpm !== undefined)
+          ? `heart rate ${range(d.hrFromBpm, d.hrToBpm, "bpm")}`
+          : "";
       const w = d.workFromW !== undefined || d.workToW !== undefined ? `work rate ${range(d.workFromW, d.workToW, "W")}` : "";
       // on a treadmill the speed is prescribed with its grade
       const speed =
@@ -333,7 +344,11 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
       rx.push(`${d.name}: ${[hr, w, speed, grade].filter(Boolean).join(", ") || "no range available"}.`);
     }
     if (domains.length)
-      rx.push("Ranges derive from this test's thresholds; medication changes (notably beta-blockers) alter heart-rate targets.");
+      rx.push(
+        input.patient.atrialFibrillation === true
+          ? "Ranges derive from this test's thresholds; in atrial fibrillation heart rate is not given as a training target."
+          : "Ranges derive from this test's thresholds; medication changes (notably beta-blockers) alter heart-rate targets.",
+      );
     if (domains.some((d) => d.workFromW !== undefined || d.workToW !== undefined))
       rx.push(
         "Work rates are read from the ramp: VO2 lags a ramp, so constant-load training at these work rates sits at a higher intensity than the threshold itself (common practice).",
@@ -408,7 +423,8 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
 function conclusionCaveats(s: SchemeResult, interpretation: Interpretation, input: InterpretInput): string[] {
   const out: string[] = [];
   const graded = s.axes.filter((a) => a.inCombination && a.category);
-  for (const a of graded) if (a.bandReaches) out.push(a.bandReaches);
+  // a band that reaches another class; a band that only crosses a cut-off inside the same class stays in the schemes section
+  for (const a of graded) if (a.bandReaches && / reaches /.test(a.bandReaches)) out.push(a.bandReaches);
   const readsVt1 = graded.some((a) => /^(at|tier|at-ischaemia)$/.test(a.axisId) || /\bAT\b|VT1/.test(a.label));
   if (readsVt1 && input.vt1LowConfidence)
     out.push("VT1 was found with low confidence: confirm it on review before relying on this");

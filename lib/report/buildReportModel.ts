@@ -1,7 +1,7 @@
 import type { AnalysisResult, ReferralQuestion, TestRecord } from "../analysis";
 import type { Measured, Source } from "../core";
 import { thresholdMethodWords } from "../analysis";
-import { heartRateNotes } from "../interpret";
+import { ATRIAL_FIBRILLATION_HR_NOTE, heartRateNotes } from "../interpret";
 import { analysisCharts } from "./analysisCharts";
 import { ALL_SOURCES } from "./sources";
 import { formatClock, formatNumber } from "../units";
@@ -160,6 +160,7 @@ export function buildReportModel(
   const ix = result.indices;
   const pk = ix.peaks;
   const hrNotes = heartRateNotes(record.patient);
+  const afNote = record.patient.atrialFibrillation === true ? ATRIAL_FIBRILLATION_HR_NOTE : undefined;
   const keyValues: ReportRow[] = result.comparisons.map((c) => {
     const decimals = c.measured.unit === "mL/min" || c.measured.unit === "W" || c.measured.unit === "1/min" ? 0 : 1;
     const row = measuredRow(c.label, c.measured, decimals);
@@ -176,6 +177,8 @@ export function buildReportModel(
     if (c.percentPredicted !== null) row.pctPredicted = formatNumber(c.percentPredicted, 0);
     // shown, but not read against the age-predicted maximum on a beta-blocker (common practice)
     if (c.key === "peakHr" && hrNotes.length) row.note = [row.note, ...hrNotes].filter(Boolean).join("; ");
+    // O2 pulse is VO2 / HR: in atrial fibrillation it is shown, not interpreted
+    if (c.key === "peakO2Pulse" && afNote) row.note = [row.note, afNote].filter(Boolean).join("; ");
     if (c.predicted?.lln !== undefined && c.predicted.lln !== null) row.lln = formatNumber(c.predicted.lln, decimals);
     return row;
   });
@@ -199,6 +202,7 @@ export function buildReportModel(
     row.note = [row.note, bandNote(line, d)].filter(Boolean).join("; ") || row.note;
     // HR reserve is predicted HRmax − peak HR: the same beta-blocker note as the peak HR's % predicted
     if (m === ix.heartRate.reserveBpm && hrNotes.length) row.note = [row.note, ...hrNotes].filter(Boolean).join("; ");
+    if (m === ix.heartRate.recovery1MinBpm && afNote) row.note = [row.note, afNote].filter(Boolean).join("; ");
     keyValues.push(row);
   }
   keyValues.push(measuredRow("Recording duration", pk.testDurationS, 0, formatClock));

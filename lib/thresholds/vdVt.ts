@@ -362,6 +362,21 @@ export function vdVt(
         `P(A−a)O2 assumes sea-level barometric pressure (${SEA_LEVEL_PB_MMHG} mmHg) and room air: no barometric pressure was entered with the test conduct. Above sea level it reads high by about ${ROOM_AIR_FIO2} × (${SEA_LEVEL_PB_MMHG} − the true pressure), e.g. 13 mmHg at 700 mmHg.`,
       ),
     );
+  // a dead space larger than the one measured at a sample (a negative VD/VT) cannot be right: the entry is wrong (a volume
+  // in another unit, or a mask volume that is not rebreathed); no VD/VT is read from it rather than a too-low one
+  const negative = points.filter((p) => p.vtL !== undefined && p.vdVt.value !== null && p.vdVt.value < 0);
+  if (apparatusDeadSpaceMl !== undefined && negative.length > 0) {
+    const why = `the apparatus dead space entered (${apparatusDeadSpaceMl} mL) is larger than the whole dead space measured at ${negative.map((p) => p.label ?? formatClock(p.timeS)).join(", ")}; check the value`;
+    for (const p of points) if (p.vtL !== undefined && p.vdVt.value !== null) p.vdVt = notDetermined("1", p.vdVt.provenance, why);
+    issues.push(
+      makeIssue(
+        "warning",
+        "vdvt-apparatus-too-large",
+        `No VD/VT is given: ${why} (VD/VT minus VDapparatus/VT came out below zero).`,
+        { timeS: negative[0].timeS },
+      ),
+    );
+  }
   const computed = points.filter((p) => p.vdVt.value !== null);
   const unsubtracted = computed.filter((p) => p.vtL === undefined);
   if (apparatusDeadSpaceMl !== undefined && unsubtracted.length > 0)

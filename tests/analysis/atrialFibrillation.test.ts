@@ -28,5 +28,17 @@ describe("atrial fibrillation (invented demo case)", () => {
     const text = a.draft.sections.flatMap((s) => s.paragraphs).join("\n");
     expect(text).toContain(ATRIAL_FIBRILLATION_HR_NOTE);
     expect(text).toMatch(/Peak O2 pulse .*\(atrial fibrillation: not interpreted\)/);
+    // the effort line carries its near-cut-off note (peak RER 1.06 with ±2 SE reaching 1.01–1.10)
+    expect(text).toMatch(/Effort: .*\(near a cut-off: /);
+  });
+
+  it("the drafted prescription gives no heart-rate targets in atrial fibrillation; the work-rate ranges stay", async () => {
+    const sinus = await caseRecord("preop-low-at");
+    const rx = (r: ReturnType<typeof analyse>) => r.draft.sections.find((s) => s.id === "prescription")!.paragraphs.join("\n");
+    expect(rx(analyse(sinus, {}))).toMatch(/heart rate up to \d+ bpm/);
+    const af = rx(analyse({ ...sinus, patient: { ...sinus.patient, atrialFibrillation: true } }, {}));
+    expect(af).not.toMatch(/heart rate (up to|from|\d)/);
+    expect(af).toMatch(/work rate up to \d+ W/);
+    expect(af).toMatch(/in atrial fibrillation heart rate is not given as a training target/);
   });
 });

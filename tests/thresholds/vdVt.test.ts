@@ -86,4 +86,22 @@ describe("VD/VT (Bohr-Enghoff form, recalled)", () => {
     const r = vdVt(test, [{ timeS: 700, paCO2MmHg: 40, label: "peak" }]);
     expect(r.points[0].aaGradient).toBeUndefined();
   });
+
+  it("a dead space larger than the measured dead space (negative VD/VT) gives no VD/VT and a warning", () => {
+    // VE 30 L/min at 15 breaths/min: VT 2 L; uncorrected VD/VT 0.2808 → dead space 0.56 L; 600 mL entered exceeds it
+    const withPattern = makeTest(buildRows(() => ({ vco2MlMin: 1000, veLMin: 30, rrBrMin: 15 })));
+    const r = vdVt(
+      withPattern,
+      [
+        { timeS: 120, paCO2MmHg: 40, label: "rest" },
+        { timeS: 700, paCO2MmHg: 40, label: "peak" },
+      ],
+      {},
+      600,
+    );
+    expect(r.points.every((p) => p.vdVt.value === null)).toBe(true);
+    expect(r.issues.find((i) => i.code === "vdvt-apparatus-too-large")?.message).toMatch(
+      /600 mL\) is larger than the whole dead space/,
+    );
+  });
 });

@@ -224,6 +224,9 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                       {heartRateNotes(record.patient).join("; ")}
                     </div>
                   ) : null}
+                  {c.key === "peakO2Pulse" && record.patient.atrialFibrillation === true ? (
+                    <div className="how">{ATRIAL_FIBRILLATION_HR_NOTE}</div>
+                  ) : null}
                 </td>
                 <td className="how">
                   {c.predicted ? `${c.predicted.equationLabel} (${c.predicted.status})` : "no applicable equation"}
@@ -387,7 +390,10 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
             />
             <tr>
               <td>O2 pulse trajectory (last third of exercise)</td>
-              <td className="num">{ix.o2Pulse.pattern ?? "—"}</td>
+              <td className="num">
+                {ix.o2Pulse.pattern ?? "—"}
+                {record.patient.atrialFibrillation === true ? <div className="how">{ATRIAL_FIBRILLATION_HR_NOTE}</div> : null}
+              </td>
               <td>
                 <HowFound m={ix.o2Pulse.finalSlope} />
               </td>
