@@ -179,6 +179,15 @@ export function compareTests(
         verdict: "not-judged",
         text: `${head} (${signed}): not judged, predicted by different equations (${pair[0]} before, ${pair[1]} after)`,
       };
+    // heart rate and O2 pulse (VO2/HR) recorded in atrial fibrillation do not change the way sinus-rhythm values do
+    const afIn = [before, after].map((t, i) => (t.patient.atrialFibrillation === true ? (i === 0 ? "before" : "after") : ""));
+    if ((variable === "peakHrBpm" || variable === "o2PulsePeakMlBeat") && afIn.some(Boolean))
+      return {
+        ...base,
+        noise: null,
+        verdict: "not-judged",
+        text: `${head} (${signed}): not judged, atrial fibrillation recorded ${afIn.filter(Boolean).join(" and ")}`,
+      };
     if (info.effortDependent && !comparable) {
       return {
         ...base,

@@ -23,6 +23,22 @@ describe("serial comparison against published test-retest variability", () => {
     expect(item(beyond, "veVco2SlopeWhole").verdict).toBe("not-judged");
   });
 
+  it("heart rate and O2 pulse are not judged when either test was recorded in atrial fibrillation (INVENTED pair)", () => {
+    const before = loadFixture("heart-failure").input;
+    const after = {
+      ...before,
+      patient: { ...before.patient, atrialFibrillation: true },
+      values: { ...before.values, o2PulsePeakMlBeat: 12, peakHrBpm: 150 },
+    };
+    const c = compareTests(before, after, "heart-failure");
+    for (const v of ["o2PulsePeakMlBeat", "peakHrBpm"]) {
+      expect(item(c, v).verdict).toBe("not-judged");
+      expect(item(c, v).text).toMatch(/not judged, atrial fibrillation recorded after/);
+    }
+    // peak VO2 itself is still compared
+    expect(item(c, "peakVo2MlKgMin").verdict).not.toBe("not-judged");
+  });
+
   it("healthy: VT1 moved after training? Decato 2018 CoV 10.4 % → SDC = 1.96·√2·CoV·mean (standard statistics)", () => {
     const before = baseInput({ vt1Vo2MlKgMin: 15, vt1Vo2MlMin: 1200 });
     const after = baseInput({ vt1Vo2MlKgMin: 20, vt1Vo2MlMin: 1600 });
