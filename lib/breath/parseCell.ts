@@ -43,13 +43,15 @@ export function parseNumberCell(cell: Cell, decimalMark: "." | ","): number {
   if (typeof cell === "number") return cell;
   if (cell === null) return NaN;
   let s = cell.trim();
-  if (THOUSANDS_SPACE.test(s)) s = s.replace(/[ \u00a0\u202f]/g, "");
+  // the plain forms first (nearly every cell), the thousands-separated ones only when those fail
   if (decimalMark === ",") {
     if (NUMBER_COMMA.test(s)) s = s.replace(",", ".");
     else if (THOUSANDS_COMMA.test(s)) s = s.replace(/\./g, "").replace(",", ".");
+    else if (THOUSANDS_SPACE.test(s)) s = s.replace(/[ \u00a0\u202f]/g, "").replace(",", ".");
     else return NaN;
   } else if (!NUMBER_DOT.test(s)) {
     if (THOUSANDS_DOT.test(s)) s = s.replace(/,/g, "");
+    else if (THOUSANDS_SPACE.test(s)) s = s.replace(/[ \u00a0\u202f]/g, "");
     else return NaN;
   }
   const v = Number(s);
