@@ -146,18 +146,21 @@ export function heartRateIndices(test: ConditionedTest, options: HeartRateOption
       : notDetermined("%", pctProv, hrInputReason(peak, predicted));
 
   const cutoff = options.betaBlocker ? CHRONOTROPIC_INDEX_CUTOFF_BETA_BLOCKER : CHRONOTROPIC_INDEX_CUTOFF;
+  // The index is read against Cole 1999's cut-off, derived with HRpred = 220 − age (its source note): it uses that form,
+  // whatever HRmax equation the lab chose for HR % predicted and HR reserve, so value and cut-off belong together
+  const ciPred = options.ageY !== undefined && options.ageY > 0 ? 220 - options.ageY : null;
   const ciProv = provenanceOf(
     "chronotropic-index-cole-1999",
-    "chronotropic index (HRpeak − HRrest)/(HRpred − HRrest)",
-    options.betaBlocker ? ["cole-1999", "brubaker-kitzman-beta-blocker"] : ["cole-1999"],
-    { inputs: { ...inputs, cutoff } },
+    "chronotropic index (HRpeak − HRrest)/(HRpred − HRrest), HRpred = 220 − age as in the source of its cut-off",
+    options.betaBlocker ? ["cole-1999", "fox-hrmax", "brubaker-kitzman-beta-blocker"] : ["cole-1999", "fox-hrmax"],
+    { inputs: { peakBpm: pk, predictedBpm: ciPred, restBpm: rs, cutoff } },
   );
   let ci: Measured;
   if (pk === null) ci = notDetermined("1", ciProv, `no peak HR: ${peak.reason ?? "not determinable"}`);
-  else if (pr === null) ci = notDetermined("1", ciProv, `no predicted HRmax: ${predicted.reason ?? "not determinable"}`);
+  else if (ciPred === null) ci = notDetermined("1", ciProv, "no age: HRpred = 220 − age needs it");
   else if (rs === null) ci = notDetermined("1", ciProv, `no resting HR: ${resting.reason ?? "not determinable"}`);
-  else if (!(pr - rs > 0)) ci = notDetermined("1", ciProv, "predicted HRmax is not above resting HR");
-  else ci = measured((pk - rs) / (pr - rs), "1", ciProv);
+  else if (!(ciPred - rs > 0)) ci = notDetermined("1", ciProv, "220 − age is not above resting HR");
+  else ci = measured((pk - rs) / (ciPred - rs), "1", ciProv);
 
   const ex = test.exercise;
   const end = ex ? placeEndOfExercise(test, ex.endS) : null;

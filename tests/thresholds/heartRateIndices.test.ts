@@ -24,11 +24,12 @@ describe("heart-rate indices", () => {
   //   recorded) ["brubaker-kitzman-beta-blocker"];
   // - HRmax = 220 − age: Fox (history in Robergs & Landwehr, JEPonline 2002) — confirmed ["fox-hrmax"].
   it("chronotropic index exactly 0.80 is not impaired (Cole et al., N Engl J Med 1999, confirmed: impaired < 0.80)", () => {
-    // (150 − 70)/(170 − 70) = 0.80
+    // (150 − 70)/(170 − 70) = 0.80 with HRpred = 220 − 50 y = 170 (Cole 1999's form)
     const r = heartRateIndices(freezeTest(withRecovery(12)), {
       peakHr: peak(150),
       predictedHrMaxBpm: 170,
       predictedHrMaxEquationId: "jones-1985-hrmax",
+      ageY: 50,
     });
     expect(r.restingBpm.value).toBeCloseTo(70, 9);
     expect(r.chronotropicIndex.value).toBeCloseTo(0.8, 12);
@@ -38,11 +39,21 @@ describe("heart-rate indices", () => {
     expect(r.predictedMaxBpm.provenance.sourceIds).toEqual(["jones-1985-hrmax"]);
   });
 
+  it("the chronotropic index uses 220 − age, the form its 0.80 cut-off was derived with (Cole 1999), not the lab's HRmax", () => {
+    // lab equation 160 bpm, age 50 → index (150 − 70)/(170 − 70) = 0.80, not (150 − 70)/(160 − 70) = 0.89
+    const r = heartRateIndices(withRecovery(12), { peakHr: peak(150), predictedHrMaxBpm: 160, ageY: 50 });
+    expect(r.chronotropicIndex.value).toBeCloseTo(0.8, 12);
+    expect(r.chronotropicIndex.provenance.label).toMatch(/HRpred = 220 − age/);
+    expect(r.reserveBpm.value).toBe(10); // HR reserve stays on the lab's equation: 160 − 150
+    const noAge = heartRateIndices(withRecovery(12), { peakHr: peak(150), predictedHrMaxBpm: 160 });
+    expect(noAge.chronotropicIndex.reason).toBe("no age: HRpred = 220 − age needs it");
+  });
+
   it("chronotropic index 0.79 is impaired; on beta-blockers the 0.62 cut-off (Brubaker & Kitzman, recalled) applies", () => {
-    // (149 − 70)/(170 − 70) = 0.79
-    const r = heartRateIndices(withRecovery(12), { peakHr: peak(149), predictedHrMaxBpm: 170 });
+    // (149 − 70)/(170 − 70) = 0.79 with HRpred = 220 − 50 y
+    const r = heartRateIndices(withRecovery(12), { peakHr: peak(149), predictedHrMaxBpm: 170, ageY: 50 });
     expect(r.chronotropicImpaired).toBe(true);
-    const b = heartRateIndices(withRecovery(12), { peakHr: peak(149), predictedHrMaxBpm: 170, betaBlocker: true });
+    const b = heartRateIndices(withRecovery(12), { peakHr: peak(149), predictedHrMaxBpm: 170, betaBlocker: true, ageY: 50 });
     expect(b.chronotropicCutoff).toBe(0.62);
     expect(b.chronotropicImpaired).toBe(false);
     expect(b.chronotropicIndex.provenance.sourceIds).toContain("brubaker-kitzman-beta-blocker");

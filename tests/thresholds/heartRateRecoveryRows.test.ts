@@ -105,7 +105,7 @@ describe("HR indices: reasons when not determinable", () => {
     const t = test();
     const r = heartRateIndices(
       { ...t, phases: t.phases.filter((p) => p.phase !== "rest") },
-      { peakHr: peak(150), predictedHrMaxBpm: 170 },
+      { peakHr: peak(150), predictedHrMaxBpm: 170, ageY: 50 },
     );
     expect(r.chronotropicIndex.value).toBeNull();
     expect(r.chronotropicIndex.reason).toBe("no resting HR: the recording has no rest phase");
