@@ -62,6 +62,10 @@ function evaluateAxis(
     }
     if (r.outcome) {
       const reaches = bandReaches(bands, ctx, b.key);
+      const reachedSeverities = (ctx.bandEnds ?? [])
+        .flatMap((end) => [end.low, end.high].map((e) => categoryWith(bands, e)))
+        .filter((o): o is BandData => o !== null && o.key !== b.key)
+        .map((o) => o.severity);
       return {
         ...base,
         sourceIds: unique([...axis.sourceIds, ...b.sourceIds]),
@@ -70,6 +74,7 @@ function evaluateAxis(
         // a rule's own line may already start with the axis label ("Exercise oscillatory ventilation: yes")
         text: `${r.text.startsWith(`${axis.label}:`) ? r.text : `${axis.label}: ${r.text}`} → ${b.label}${reaches ? `; ${reaches}` : ""}`,
         ...(reaches ? { bandReaches: reaches } : {}),
+        ...(reachedSeverities.length ? { bandReachesSeverities: [...new Set(reachedSeverities)] } : {}),
       };
     }
     tried.push(r.text);
@@ -238,6 +243,7 @@ export function applySchemes(
       kind: "bands",
       axes,
       overall,
+      ...(mode ? { overallMode: mode } : {}),
       overallText: overall
         ? `${overall.label} (${overall.basis})`
         : mode === null

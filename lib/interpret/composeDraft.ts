@@ -424,7 +424,21 @@ function conclusionCaveats(s: SchemeResult, interpretation: Interpretation, inpu
   const out: string[] = [];
   const graded = s.axes.filter((a) => a.inCombination && a.category);
   // a band that reaches another class; a band that only crosses a cut-off inside the same class stays in the schemes section
-  for (const a of graded) if (a.bandReaches && / reaches /.test(a.bandReaches)) out.push(a.bandReaches);
+  // only where the other class could change the overall one: the deciding axis of an axis-mode scheme; under "worst of",
+  // a band reaching a worse class, or a better one on the only axis that holds the overall class
+  const overall = s.overall!;
+  for (const a of graded) {
+    if (!a.bandReaches || !/ reaches /.test(a.bandReaches)) continue;
+    if (s.overallMode?.startsWith("axis:") && s.overallMode !== `axis:${a.axisId}`) continue;
+    if (s.overallMode === "worst") {
+      const reached = a.bandReachesSeverities ?? [];
+      const worse = reached.some((x) => x > overall.severity);
+      const alone = !graded.some((b) => b !== a && b.category!.severity >= overall.severity);
+      const better = alone && a.category!.severity === overall.severity && reached.some((x) => x < overall.severity);
+      if (!worse && !better) continue;
+    }
+    out.push(a.bandReaches);
+  }
   const readsVt1 = graded.some((a) => /^(at|tier|at-ischaemia)$/.test(a.axisId) || /\bAT\b|VT1/.test(a.label));
   if (readsVt1 && input.vt1LowConfidence)
     out.push("VT1 was found with low confidence: confirm it on review before relying on this");

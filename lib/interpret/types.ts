@@ -328,6 +328,8 @@ export interface SchemeAxisResult {
    * 39.2–46.5 reaches Ventilatory class IV …"); absent when the whole band stays in the category.
    */
   bandReaches?: string;
+  /** Severities of the other categories an end of an uncertainty band falls in (absent when none). */
+  bandReachesSeverities?: number[];
 }
 
 export interface SchemeResult {
@@ -340,6 +342,8 @@ export interface SchemeResult {
   /** Graph schemes: the path through the algorithm. */
   path?: PathResult;
   overall: (BandResult & { basis: string }) | null;
+  /** How the overall category is made: "worst" of the graded axes, or one axis ("axis:<id>"); absent for none. */
+  overallMode?: string;
   /**
    * The overall result in words, the one line every view shows: the category with its basis; for a scheme
    * that publishes no combined category, "Graded variable by variable (the scheme gives no combined

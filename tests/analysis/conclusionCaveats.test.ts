@@ -22,6 +22,12 @@ describe("conclusion caveats (invented demo cases)", () => {
     expect(rer.category?.key).toBe("submaximal");
     const weber = lines.find((l) => l.startsWith("Weber class"))!;
     expect(weber).toMatch(/Read with: .*Peak RER < 1\.10: read peak VO2 with caution \(peak RER 1\.0\d\)/);
+    // Weber takes the worse of its two classes (peak VO2 and AT, both C here): the VT1 band reaching the better class B
+    // cannot change it, so the conclusion does not raise it (the schemes section still shows it)
+    const weberScheme = r.interpretation.schemes.find((s) => s.schemeId === "weber")!;
+    expect(weberScheme.overallMode).toBe("worst");
+    expect(weberScheme.axes.find((a) => a.axisId === "at")!.bandReaches).toMatch(/reaches Class B/);
+    expect(weber).not.toMatch(/reaches Class B/);
     const arena = lines.find((l) => l.startsWith("Ventilatory class"))!;
     expect(arena).toMatch(/72\.3 % in the Arena 2007 cohort/);
     expect(arena).toMatch(/Read with: the whole-exercise VE\/VCO2 slope band .* reaches Ventilatory class IV/);
