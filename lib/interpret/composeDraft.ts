@@ -439,6 +439,11 @@ function conclusionCaveats(s: SchemeResult, interpretation: Interpretation, inpu
     }
     out.push(a.bandReaches);
   }
+  // under "worst of", an axis that could not be graded might have given a worse class (ISHLT's lean-mass row at BMI > 30)
+  if (s.overallMode === "worst" && overall.severity < s.maxSeverity) {
+    const unread = s.axes.filter((a) => a.inCombination && !a.category && a.reason);
+    if (unread.length) out.push(`not graded, and able to give a worse class: ${unread.map((a) => a.label).join("; ")}`);
+  }
   const readsVt1 = graded.some((a) => /^(at|tier|at-ischaemia)$/.test(a.axisId) || /\bAT\b|VT1/.test(a.label));
   if (readsVt1 && input.vt1LowConfidence)
     out.push("VT1 was found with low confidence: confirm it on review before relying on this");

@@ -68,3 +68,16 @@ describe("prescription caveats (invented demo cases)", () => {
     expect(normal.draft.sections.find((s) => s.id === "prescription")!.paragraphs.join(" ")).not.toMatch(/low confidence/);
   });
 });
+
+describe("a heart-failure test stopped early (invented demo cut at 760 s)", () => {
+  it("Weber by AT carries the peak-VO2 class it could not grade, and Arena the slope's brief-exercise shortfall", async () => {
+    const full = await caseRecord("heart-failure");
+    const cut = { ...full, table: { ...full.table, rows: full.table.rows.filter((r) => r.timeS <= 760) } };
+    const r = analyse(cut, {});
+    expect(r.interpretation.effort.peakConclusionsAllowed).toBe(false);
+    const lines = r.draft.sections.find((s) => s.id === "conclusion")!.paragraphs;
+    expect(lines.find((l) => l.startsWith("Weber class"))).toMatch(/not graded, and able to give a worse class: By peak VO2/);
+    // brief, submaximal exercise (briefExercise.ts, measured on invented tests): the slope with its median shortfall undone
+    expect(lines.find((l) => l.startsWith("Ventilatory class"))).toMatch(/brief, submaximal exercise reads a median \d+ % low/);
+  });
+});
