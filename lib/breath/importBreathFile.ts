@@ -303,14 +303,6 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
     decideColumn(col, field, rows, lines, dec, reading.name, issues);
   }
 
-  // several tests in one file: choosing one comes first (what else is missing can only be judged on one test's rows)
-  if (issues.some((i) => i.code === "several-records"))
-    return failed(
-      issues,
-      columns.map((c) => c.decision),
-      { ...formatBase, timeFormat: "none" },
-    );
-
   // ---- duplicates: the first column of a field wins -----------------------------------------
   const byTarget = new Map<Target, Column>();
   for (const col of columns) {
@@ -361,6 +353,15 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
   if (ignored.length > 0)
     issues.push(
       makeIssue("info", "columns-ignored", `Columns not used: ${ignored.join(", ")}. Map them if they hold a measured quantity.`),
+    );
+
+  // several tests in one file: choosing one comes first (what else is missing can only be judged on one test's rows);
+  // the column decisions so far (an R–R column read as heart rate) are kept for the column review
+  if (issues.some((i) => i.code === "several-records"))
+    return failed(
+      issues,
+      columns.map((c) => c.decision),
+      { ...formatBase, timeFormat: "none" },
     );
 
   // ---- per kg → absolute ---------------------------------------------------------------------

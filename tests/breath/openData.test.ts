@@ -43,6 +43,10 @@ describe("ACTES breath VO2 (ODC-By 1.0)", () => {
     const r = await importBreathFile(read("actes/actes_vo2_breaths_derived.csv"));
     expect(r.table).toBeNull();
     expect(r.issues.find((i) => i.code === "several-records")?.message).toMatch(/18 tests/);
+    // before a test is chosen the column review already says the R–R column will give heart rate
+    const beats = await importBreathFile(read("actes/actes_test_measure.csv"));
+    expect(beats.table).toBeNull();
+    expect(beats.columns.find((c) => c.header === "RR")).toMatchObject({ field: "hrBpm", unit: "R–R interval, ms" });
   });
 
   it("actes_test_measure.csv: RR is the R–R interval (ms), not breathing; VO2 carried on every beat collapses to the breath series", async () => {
