@@ -119,6 +119,29 @@ export async function addBloodGasFile(_prev: InputFormState, form: FormData): Pr
   );
 }
 
+/** Names of the entered details, as the analysis-version list shows them. */
+const DETAIL_LABEL: Record<string, string> = {
+  fev1L: "FEV1 (L)",
+  fvcL: "FVC (L)",
+  mvvLMin: "MVV (L/min)",
+  fev1PctPred: "FEV1 (% predicted)",
+  dlcoPctPred: "DLCO (% predicted)",
+  ischaemicHeartDisease: "ischaemic heart disease",
+  resectedSegments: "segments to be resected",
+  stairClimbM: "stair climb (m)",
+  shuttleWalkM: "shuttle walk (m)",
+  betaBlocker: "beta-blocker",
+  atrialFibrillation: "atrial fibrillation",
+};
+
+/** "FEV1 (L) 3.2; beta-blocker yes": the entered details in words for the version note (not JSON). */
+function detailWords(details: object): string {
+  return Object.entries(details)
+    .filter(([, v]) => v !== undefined && v !== null)
+    .map(([k, v]) => `${DETAIL_LABEL[k] ?? k} ${v === true ? "yes" : v === false ? "no" : String(v)}`)
+    .join("; ");
+}
+
 /** Resting spirometry (parseSpirometry). Any implausible value refuses the whole form, keeping what was typed. */
 export async function saveSpirometry(_prev: InputFormState, form: FormData): Promise<InputFormState> {
   const values = formValues(form);
@@ -142,7 +165,7 @@ export async function saveSpirometry(_prev: InputFormState, form: FormData): Pro
   const next: TestRecord = { ...record };
   if (spirometry) next.spirometry = spirometry;
   else delete next.spirometry;
-  done(testId, next, "spirometry-updated", spirometry ? JSON.stringify(spirometry) : "cleared");
+  done(testId, next, "spirometry-updated", spirometry ? detailWords(spirometry) : "cleared");
   return { ok: spirometry ? "Spirometry saved; the breathing reserve is recomputed." : "Spirometry cleared.", stamp };
 }
 
@@ -173,7 +196,7 @@ export async function saveContext(_prev: InputFormState, form: FormData): Promis
     c.testId,
     next,
     "clinical-context-updated",
-    JSON.stringify({ ...next.context, betaBlocker: patient.betaBlocker, atrialFibrillation: patient.atrialFibrillation }),
+    detailWords({ ...next.context, betaBlocker: patient.betaBlocker, atrialFibrillation: patient.atrialFibrillation }) || "cleared",
   );
   return { ok: "Clinical context saved; the interpretation is recomputed.", stamp };
 }

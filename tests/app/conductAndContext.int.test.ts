@@ -10,10 +10,10 @@ import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 
 vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
 
-import { saveConduct } from "../../app/tests/[id]/inputs/actions";
+import { saveConduct, saveContext } from "../../app/tests/[id]/inputs/actions";
 import { analyse } from "../../lib/analysis";
 import { closeDb } from "../../lib/store/db";
-import { getTest, saveTest } from "../../lib/store/tests";
+import { getTest, listAudit, saveTest } from "../../lib/store/tests";
 import { caseRecord } from "../fixtures/caseRecord";
 
 let dir = "";
@@ -73,5 +73,24 @@ describe("apparatus dead space on the test-conduct form (invented case)", () => 
     // PAO2 falls by 0.2093 × (760 − 700) = 12.56 mmHg; PaO2, PaCO2 and R are unchanged
     expect(high.indices.vdVt.find((p) => p.atPeak)!.aaGradient!.value!).toBeCloseTo(at760 - 0.2093 * 60, 9);
     expect(high.issues.map((i) => i.code)).not.toContain("aa-gradient-sea-level");
+  });
+
+  it("the clinical context is noted in words in the audit trail, not as JSON (invented case)", async () => {
+    const testId = saveTest({
+      uploadId: null,
+      label: "Context note (invented)",
+      record: await caseRecord("normal-adult"),
+      columns: [],
+      issues: [],
+    });
+    const form = new FormData();
+    form.set("testId", String(testId));
+    form.set("betaBlocker", "yes");
+    form.set("atrialFibrillation", "no");
+    form.set("stairClimbM", "22");
+    expect((await saveContext({}, form)).ok).toMatch(/saved/);
+    const note = listAudit(testId).find((a) => a.action === "clinical-context-updated")!.detail!;
+    expect(note).toBe("stair climb (m) 22; beta-blocker yes; atrial fibrillation no");
+    expect(getTest(testId)!.record!.patient).toMatchObject({ betaBlocker: true, atrialFibrillation: false });
   });
 });
