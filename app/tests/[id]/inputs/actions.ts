@@ -196,7 +196,8 @@ export async function saveContext(_prev: InputFormState, form: FormData): Promis
     c.testId,
     next,
     "clinical-context-updated",
-    detailWords({ ...next.context, betaBlocker: patient.betaBlocker, atrialFibrillation: patient.atrialFibrillation }) || "cleared",
+    detailWords({ ...next.context, betaBlocker: patient.betaBlocker, atrialFibrillation: patient.atrialFibrillation }) ||
+      "cleared",
   );
   return { ok: "Clinical context saved; the interpretation is recomputed.", stamp };
 }
