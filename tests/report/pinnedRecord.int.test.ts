@@ -181,3 +181,18 @@ describe("two pages on one draft", () => {
     expect(getReport(opened.id)!.status).toBe("draft");
   });
 });
+
+describe("an older draft kept in the history", () => {
+  it("says on every page that a newer version replaced it; the current draft and signed reports do not", () => {
+    const testId = saveTest({ uploadId: null, label: "Superseded (invented)", record, columns: [], issues: [] });
+    const first = loadReport(testId)!;
+    expect(first.model.draftMark).not.toMatch(/Superseded/);
+    updateTestRecord(testId, { ...record, spirometry: { fev1L: 3.9 } }, "tester", "spirometry corrected");
+    const current = loadReport(testId)!;
+    expect(current.report.id).not.toBe(first.report.id);
+    expect(current.model.draftMark).not.toMatch(/Superseded/);
+    const old = loadReport(testId, first.report.id)!;
+    expect(old.report.status).toBe("draft");
+    expect(old.model.draftMark).toMatch(new RegExp(`Superseded: version ${current.report.version} of this report is newer`));
+  });
+});
