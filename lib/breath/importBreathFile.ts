@@ -439,6 +439,15 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
     const t = readTime(timeCol, rows, dec, !!stageCol, issues, lines);
     times = t.times;
     timeFormat = t.format;
+    // a stage length is only for stage tables without a time column: said, not ignored silently
+    if (opts.stageDurationS !== undefined)
+      issues.push(
+        makeIssue(
+          "info",
+          "stage-duration-not-used",
+          `The file has a time column ("${timeCol.decision.header}"), so the stage duration given (${opts.stageDurationS} s) was not used.`,
+        ),
+      );
   } else {
     const workCol = byTarget.get("workW") ?? byTarget.get("speedKmh");
     const fewRising = workCol?.values !== undefined && n <= 40 && isNonDecreasing(workCol.values);

@@ -119,6 +119,15 @@ export async function importLactateFile(bytes: Uint8Array, options: LactateImpor
     );
   const laFactor = unit === "mg/dL" ? (factorToCanonical("lactateMmolL", "mg/dL") ?? 1) : 1;
   const timeUnit = cols.units.time ?? options.timeUnit ?? "s";
+  // a time unit chosen by the user that the header overrides is said, as the lactate unit is (never ignored silently)
+  if (cols.units.time && options.timeUnit && cols.units.time !== options.timeUnit)
+    issues.push(
+      makeIssue(
+        "info",
+        "lactate-time-unit-from-header",
+        `The time header gives the unit ${cols.units.time}; the time unit chosen (${options.timeUnit}) was not used.`,
+      ),
+    );
   const timeFactor = timeUnit === "clock" ? 1 : (factorToCanonical("timeS", timeUnit) ?? 1);
   const speedFactor = cols.units.speed ? (factorToCanonical("speedKmh", cols.units.speed) ?? 1) : 1;
   const samples: LactateSample[] = [];

@@ -32,6 +32,10 @@ export const BREATH_ISSUE_CODES = {
     severity: "warning",
     meaning: "an end-tidal gas fraction (%) column was not used (a partial pressure in mmHg or kPa is needed)",
   },
+  "stage-duration-not-used": {
+    severity: "info",
+    meaning: "a stage duration was given for a file that has a time column; the file's times were used",
+  },
   "speed-in-load-column": { severity: "info", meaning: "a load column holds treadmill speed (km/h), not watts" },
   "per-kg-converted": { severity: "info", meaning: "VO2 per kg was multiplied by body mass" },
   "weight-needed": { severity: "warning", meaning: "VO2 is given per kg and no body mass is known" },

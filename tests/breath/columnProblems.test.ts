@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { importBreathFile } from "../../lib/breath";
+import { importBreathFile, importLactateFile } from "../../lib/breath";
 
 describe("a column mostly outside its plausible range", () => {
   it("is set aside whole: its few in-range values are in the same wrong unit (INVENTED per-kg VCO2 under a plain header)", async () => {
@@ -40,5 +40,22 @@ describe("end-tidal gas fractions and files holding several tests", () => {
     const r = await importBreathFile(enc(text.join("\n")));
     expect(r.table).toBeNull();
     expect(r.issues.filter((i) => i.severity === "error").map((i) => i.code)).toEqual(["several-records"]);
+  });
+});
+
+describe("options that do not apply are said, not ignored silently (INVENTED files)", () => {
+  const enc = (t: string) => new TextEncoder().encode(t);
+
+  it("a stage duration given for a file with a time column", async () => {
+    const text = ["time_s,vo2_ml_min", ...Array.from({ length: 30 }, (_, i) => `${5 * i},${500 + 20 * i}`)].join("\n");
+    const r = await importBreathFile(enc(text), { stageDurationS: 180 });
+    expect(r.issues.find((i) => i.code === "stage-duration-not-used")?.message).toMatch(/time column \("time_s"\).*180 s/);
+    expect(r.table!.rows[1].timeS).toBe(5);
+  });
+
+  it("a lactate time unit that the header overrides", async () => {
+    const r = await importLactateFile(enc("time_min,lactate_mmol_l\n0,1.0\n2,1.2\n4,1.8\n6,3.0\n8,5.1\n"), { timeUnit: "s" });
+    expect(r.issues.find((i) => i.code === "lactate-time-unit-from-header")?.message).toMatch(/gives the unit min/);
+    expect(r.samples[1].timeS).toBe(120); // 2 min, read from the header's unit
   });
 });
