@@ -443,7 +443,7 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
     if (opts.stageDurationS !== undefined)
       issues.push(
         makeIssue(
-          "info",
+          "warning",
           "stage-duration-not-used",
           `The file has a time column ("${timeCol.decision.header}"), so the stage duration given (${opts.stageDurationS} s) was not used.`,
         ),

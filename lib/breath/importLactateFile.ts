@@ -119,8 +119,9 @@ export async function importLactateFile(bytes: Uint8Array, options: LactateImpor
     );
   const laFactor = unit === "mg/dL" ? (factorToCanonical("lactateMmolL", "mg/dL") ?? 1) : 1;
   const timeUnit = cols.units.time ?? options.timeUnit ?? "s";
-  // a time unit chosen by the user that the header overrides is said, as the lactate unit is (never ignored silently)
-  if (cols.units.time && options.timeUnit && cols.units.time !== options.timeUnit)
+  // minutes chosen by the user where the header names another unit: said, as the lactate unit is (never ignored silently);
+  // seconds are the default every form sends, so choosing them says nothing
+  if (cols.units.time && options.timeUnit === "min" && cols.units.time !== "min")
     issues.push(
       makeIssue(
         "info",

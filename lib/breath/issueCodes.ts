@@ -33,7 +33,7 @@ export const BREATH_ISSUE_CODES = {
     meaning: "an end-tidal gas fraction (%) column was not used (a partial pressure in mmHg or kPa is needed)",
   },
   "stage-duration-not-used": {
-    severity: "info",
+    severity: "warning",
     meaning: "a stage duration was given for a file that has a time column; the file's times were used",
   },
   "speed-in-load-column": { severity: "info", meaning: "a load column holds treadmill speed (km/h), not watts" },

@@ -54,8 +54,12 @@ describe("options that do not apply are said, not ignored silently (INVENTED fil
   });
 
   it("a lactate time unit that the header overrides", async () => {
-    const r = await importLactateFile(enc("time_min,lactate_mmol_l\n0,1.0\n2,1.2\n4,1.8\n6,3.0\n8,5.1\n"), { timeUnit: "s" });
-    expect(r.issues.find((i) => i.code === "lactate-time-unit-from-header")?.message).toMatch(/gives the unit min/);
-    expect(r.samples[1].timeS).toBe(120); // 2 min, read from the header's unit
+    const r = await importLactateFile(enc("time_s,lactate_mmol_l\n0,1.0\n120,1.2\n240,1.8\n360,3.0\n480,5.1\n"), {
+      timeUnit: "min",
+    });
+    expect(r.issues.find((i) => i.code === "lactate-time-unit-from-header")?.message).toMatch(
+      /gives the unit s; the time unit chosen \(min\)/,
+    );
+    expect(r.samples[1].timeS).toBe(120); // read in the header's seconds, not as 120 min
   });
 });
