@@ -599,15 +599,10 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
   // ---- one breath carried along a faster clock (e.g. every heartbeat) ------------------------
   const rrClean = hrFromRr ? cleanRrIntervals(built.map((r) => rrOfRow.get(r) ?? NaN)) : undefined;
   const rrByRow = rrClean ? new Map(built.map((r, i) => [r, rrClean.clean[i]])) : undefined;
+  const beatRows = built.length;
   built = collapseCarriedForward(built, issues, rrByRow);
-  if (rrClean)
-    noteHeartRateFromRr(
-      built,
-      rrClean,
-      rrCol!.decision.header,
-      issues.some((i) => i.code === "values-carried-forward") ? "breaths" : "rows",
-      issues,
-    );
+  // rows collapsed to one per breath: the note counts breaths
+  if (rrClean) noteHeartRateFromRr(built, rrClean, rrCol!.decision.header, built.length < beatRows ? "breaths" : "rows", issues);
 
   // ---- duplicate time stamps -----------------------------------------------------------------
   built = dropDuplicateTimes(built, issues);

@@ -423,9 +423,9 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
 function conclusionCaveats(s: SchemeResult, interpretation: Interpretation, input: InterpretInput): string[] {
   const out: string[] = [];
   const graded = s.axes.filter((a) => a.inCombination && a.category);
-  // a band that reaches another class; a band that only crosses a cut-off inside the same class stays in the schemes section
-  // only where the other class could change the overall one: the deciding axis of an axis-mode scheme; under "worst of",
-  // a band reaching a worse class, or a better one on the only axis that holds the overall class
+  // a band that reaches another class, where that class could change the overall one: the deciding axis of an axis-mode
+  // scheme; under "worst of", a worse class, or a better one on the only axis holding the overall class (a band that only
+  // crosses a cut-off inside its class stays in the schemes section)
   const overall = s.overall!;
   for (const a of graded) {
     if (!a.bandReaches || !/ reaches /.test(a.bandReaches)) continue;

@@ -250,7 +250,7 @@ export function vdVt(
   const pb = barometricPressureMmHg ?? SEA_LEVEL_PB_MMHG;
   // PAO2 = FiO2·(PB − 47) − PaCO2·[FiO2 + (1 − FiO2)/R] (alveolar gas equation, full form; common practice), R read at the
   // sample as VCO2/VO2 the way VE/VCO2 is read; P(A−a)O2 = PAO2 − PaO2
-  const alveolarArterial = (p: Placed, vd: Measured, readOptions: ReadAtTimeOptions): Measured => {
+  const alveolarArterial = (p: Placed, readOptions: ReadAtTimeOptions): Measured => {
     const r = readAtTime(test, "vco2MlMin", p.timeS, "1", { ...readOptions, denominator: "vo2MlMin", scale: 1 });
     const prov = provenanceOf(
       "aa-gradient-alveolar-gas-equation",
@@ -267,7 +267,7 @@ export function vdVt(
         },
       },
     );
-    if (vd.value === null && vd.reason && !(p.g.paCO2MmHg > 0)) return notDetermined("mmHg", prov, vd.reason);
+    if (!(p.g.paCO2MmHg > 0)) return notDetermined("mmHg", prov, "PaCO2 is not positive");
     if (r.value === null || !(r.value > 0))
       return notDetermined("mmHg", prov, r.reason ?? "RER not available at the sample time");
     const pAO2 = ROOM_AIR_FIO2 * (pb - WATER_VAPOUR_MMHG) - p.g.paCO2MmHg * (ROOM_AIR_FIO2 + (1 - ROOM_AIR_FIO2) / r.value);
@@ -340,7 +340,7 @@ export function vdVt(
         prov,
       );
     const aaGradient =
-      p.g.paO2MmHg !== undefined && !timesDoubtful && peakIdx >= 0 ? alveolarArterial(p, v, readOptions) : undefined;
+      p.g.paO2MmHg !== undefined && !timesDoubtful && peakIdx >= 0 ? alveolarArterial(p, readOptions) : undefined;
     points.push({
       timeS: p.timeS,
       phase: p.phase,

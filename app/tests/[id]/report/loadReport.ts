@@ -88,9 +88,9 @@ export function loadReport(testId: number, reportId?: number): LoadedReport | nu
     report = getOrCreateDraft(testId, latest.id, firstDraftText(test, latest.id, result, record));
   }
   const model = buildReportModel(result, record, test.label, report);
-  const versions = listReports(testId);
+  const versions = listReports(testId); // newest first
   // an older draft, kept in the history, says on every page that a newer analysis of the test replaced it
-  const newest = versions.reduce((a, b) => (b.version > a.version ? b : a), versions[0]);
+  const newest = versions[0];
   if (report.status === "draft" && newest && newest.id !== report.id)
     model.draftMark = `${model.draftMark} Superseded: version ${newest.version} of this report is newer; do not use this draft.`;
   return { test, record, result, report, versions, model };
