@@ -7,6 +7,7 @@ import { hasErrors, makeIssue, plausibilityProblem, type PlausibleField } from "
 import { REFERRAL_QUESTIONS } from "../lib/interpret";
 import { CLINICAL_CAUTION, toCliJson, type CliAnalysisJson } from "../lib/report";
 import { formatClock } from "../lib/units";
+import { EXIT_STATUS_HELP, UsageError } from "./usageError";
 
 interface AnalyseOptions {
   json?: boolean;
@@ -79,6 +80,7 @@ export function registerAnalyse(program: Command): void {
       "the incremental exercise phase set by hand, m:ss-m:ss or seconds (e.g. 6:00-16:30), instead of the detected one",
       parseExerciseSpan,
     )
+    .addHelpText("after", EXIT_STATUS_HELP)
     .action(async (file: string, opts: AnalyseOptions) => {
       const result = await runAnalyse(file, opts);
       process.stdout.write(opts.json ? JSON.stringify(result, null, 2) + "\n" : formatText(result));
@@ -89,9 +91,9 @@ export function registerAnalyse(program: Command): void {
 function parseNumber(flag: string, field: PlausibleField) {
   return (raw: string): number => {
     const n = Number(raw);
-    if (raw.trim() === "" || !Number.isFinite(n)) throw new Error(`${flag} needs a number, got "${raw}"`);
+    if (raw.trim() === "" || !Number.isFinite(n)) throw new UsageError(`${flag} needs a number, got "${raw}"`);
     const problem = plausibilityProblem(field, n);
-    if (problem) throw new Error(`${flag}: ${problem}`);
+    if (problem) throw new UsageError(`${flag}: ${problem}`);
     return n;
   };
 }
@@ -99,21 +101,21 @@ function parseNumber(flag: string, field: PlausibleField) {
 function parseLactateTimeUnit(raw: string): "s" | "min" {
   const u = raw.trim().toLowerCase();
   if (u === "s" || u === "min") return u;
-  throw new Error(`--lactate-time-unit must be s or min, got "${raw}"`);
+  throw new UsageError(`--lactate-time-unit must be s or min, got "${raw}"`);
 }
 
 function parseLactateUnit(raw: string): "mmol/L" | "mg/dL" {
   const u = raw.trim().toLowerCase();
   if (u === "mmol/l") return "mmol/L";
   if (u === "mg/dl") return "mg/dL";
-  throw new Error(`--lactate-unit must be mmol/L or mg/dL, got "${raw}"`);
+  throw new UsageError(`--lactate-unit must be mmol/L or mg/dL, got "${raw}"`);
 }
 
 function parseStageSeconds(raw: string): number {
   const n = Number(raw);
   const { min, max } = STAGE_DURATION_LIMITS_S;
   if (raw.trim() === "" || !Number.isFinite(n) || n < min || n > max)
-    throw new Error(`--stage-duration-s must be a number of seconds between ${min} and ${max}, got "${raw}"`);
+    throw new UsageError(`--stage-duration-s must be a number of seconds between ${min} and ${max}, got "${raw}"`);
   return n;
 }
 
@@ -122,13 +124,13 @@ function parseExerciseSpan(raw: string): { startS: number; endS: number } {
   const parts = raw.split("-");
   const [startS, endS] = parts.length === 2 ? parts.map(parseTimeText) : [NaN, NaN];
   if (!Number.isFinite(startS) || !Number.isFinite(endS) || !(endS > startS))
-    throw new Error(`--exercise-span needs start-end as m:ss-m:ss or seconds with the end after the start, got "${raw}"`);
+    throw new UsageError(`--exercise-span needs start-end as m:ss-m:ss or seconds with the end after the start, got "${raw}"`);
   return { startS, endS };
 }
 
 function collectSelect(raw: string, acc: Record<string, string>): Record<string, string> {
   const at = raw.indexOf("=");
-  if (at <= 0) throw new Error(`--select needs column=value, got "${raw}"`);
+  if (at <= 0) throw new UsageError(`--select needs column=value, got "${raw}"`);
   return { ...acc, [raw.slice(0, at).trim()]: raw.slice(at + 1).trim() };
 }
 
@@ -149,11 +151,11 @@ function readBytes(file: string): Uint8Array {
 
 export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<CliAnalysisJson> {
   if (opts.sex && opts.sex !== "male" && opts.sex !== "female")
-    throw new Error(`--sex must be male or female, got "${opts.sex}"`);
+    throw new UsageError(`--sex must be male or female, got "${opts.sex}"`);
   if (opts.ergometer !== "cycle" && opts.ergometer !== "treadmill")
-    throw new Error(`--ergometer must be cycle or treadmill, got "${opts.ergometer}"`);
+    throw new UsageError(`--ergometer must be cycle or treadmill, got "${opts.ergometer}"`);
   if (!REFERRAL_QUESTIONS.includes(opts.referral as ReferralQuestion))
-    throw new Error(`--referral must be one of ${REFERRAL_QUESTIONS.join(", ")}`);
+    throw new UsageError(`--referral must be one of ${REFERRAL_QUESTIONS.join(", ")}`);
   const bytes = readBytes(file);
   const built = await buildRecord({
     bytes,
@@ -211,7 +213,7 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
       const relative = record.importIssues.some((i) => i.code === "time-made-relative")
         ? " The file's clock times of day were counted from its first row, so give the span from there."
         : "";
-      throw new Error(
+      throw new UsageError(
         `--exercise-span ${formatClock(startS)}-${formatClock(endS)} does not lie inside the record (${formatClock(first)}-${formatClock(last)}).${relative}`,
       );
     }
@@ -266,7 +268,10 @@ function formatText(r: CliAnalysisJson): string {
     // why a value above is missing (predicted values say so in the warnings already; OBLA given as a speed is not missing)
     ...r.issues
       .filter(
-        (i) => i.code === "not-determinable" && !i.message.startsWith("Predicted ") && i.where?.field !== "lactate.obla4.workW",
+        (i) =>
+          i.code === "not-determinable" &&
+          !i.where?.field?.startsWith("predicted.") &&
+          !(i.where?.field === "lactate.obla4.workW" && r.lactate?.axis !== "workW"),
       )
       .map((i) => `not determinable: ${i.message}`),
     r.caution,

@@ -1,6 +1,7 @@
 import { Command, CommanderError } from "commander";
 import { registerAnalyse } from "./analyse";
 import { registerPredict } from "./predict";
+import { UsageError } from "./usageError";
 
 /**
  * The `cpet` command line. stdout carries only the requested output (JSON or a table);
@@ -31,7 +32,8 @@ async function main(argv: string[]): Promise<number> {
     if (err instanceof CommanderError) return err.exitCode === 0 ? 0 : 2;
     const message = err instanceof Error ? err.message : String(err);
     process.stderr.write(`cpet: ${message}\n`);
-    return 1;
+    // 2: the command is wrong (as for commander's own usage errors); 1: a file cannot be read or used
+    return err instanceof UsageError ? 2 : 1;
   }
 }
 

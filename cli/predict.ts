@@ -10,6 +10,7 @@ import {
   toQuantity,
   type PredictedValue,
 } from "../lib/predicted";
+import { EXIT_STATUS_HELP, UsageError } from "./usageError";
 
 interface PredictOptions {
   list?: boolean;
@@ -23,8 +24,6 @@ interface PredictOptions {
   equation?: string;
 }
 
-class InputError extends Error {}
-
 function rootOf(cmd: Command): Command {
   let c = cmd;
   while (c.parent) c = c.parent;
@@ -34,13 +33,13 @@ function rootOf(cmd: Command): Command {
 /** A numeric option within the plausibility limits shared with the upload form and `cpet analyse`. */
 function num(flag: string, raw: string | undefined, field: PlausibleField, required: boolean): number | undefined {
   if (raw === undefined) {
-    if (required) throw new InputError(`${flag} is required`);
+    if (required) throw new UsageError(`${flag} is required`);
     return undefined;
   }
   const n = Number(raw);
-  if (raw.trim() === "" || !Number.isFinite(n)) throw new InputError(`${flag} needs a number, got "${raw}"`);
+  if (raw.trim() === "" || !Number.isFinite(n)) throw new UsageError(`${flag} needs a number, got "${raw}"`);
   const problem = plausibilityProblem(field, n);
-  if (problem) throw new InputError(`${flag}: ${problem}`);
+  if (problem) throw new UsageError(`${flag}: ${problem}`);
   return n;
 }
 
@@ -68,14 +67,14 @@ function listText(): string {
   );
 }
 
-/** Build the JSON answer for `cpet predict`; bad input throws `InputError` (reported plainly). */
+/** Build the JSON answer for `cpet predict`; bad input throws `UsageError` (reported plainly). */
 export function runPredict(opts: PredictOptions): unknown {
   if (opts.sex !== undefined && opts.sex !== "male" && opts.sex !== "female")
-    throw new InputError(`--sex must be male or female, got "${opts.sex}"`);
+    throw new UsageError(`--sex must be male or female, got "${opts.sex}"`);
   const ergometer = opts.ergometer ?? "cycle";
   if (ergometer !== "cycle" && ergometer !== "treadmill")
-    throw new InputError(`--ergometer must be cycle or treadmill, got "${ergometer}"`);
-  if (opts.sex === undefined) throw new InputError("--sex is required (male or female)");
+    throw new UsageError(`--ergometer must be cycle or treadmill, got "${ergometer}"`);
+  if (opts.sex === undefined) throw new UsageError("--sex is required (male or female)");
   const patient: Patient = {
     sex: opts.sex as Sex,
     ageY: num("--age", opts.age, "ageY", true),
@@ -88,7 +87,7 @@ export function runPredict(opts: PredictOptions): unknown {
 
   if (opts.equation !== undefined) {
     const eq = findEquation(opts.equation);
-    if (!eq) throw new InputError(`no reference equation "${opts.equation}"; see cpet predict --list`);
+    if (!eq) throw new UsageError(`no reference equation "${opts.equation}"; see cpet predict --list`);
     const pv = evaluateEquation(eq, { patient, ergometer: erg, spirometry }, { labSettings: DEFAULT_LAB_SETTINGS });
     const out: Record<string, unknown> = { ergometer: erg, patient, quantity: eq.quantity, ...brief(pv) };
     if (eq.quantity === "vo2PeakMlMin" || eq.quantity === "vo2PeakMlKgMin") {
@@ -111,7 +110,7 @@ export function runPredict(opts: PredictOptions): unknown {
  *   cpet predict --sex male --age 50 --height-cm 175 --weight-kg 80 --ergometer cycle --json
  *   cpet predict ... --equation friend-2017 --json   (one equation; vo2PeakMlMin in mL/min)
  *   cpet predict --list                               (every equation id, quantity, unit, status)
- * stdout carries only the JSON (or the list); bad input gives a plain message on stderr and exit code 2.
+ * stdout carries only the JSON (or the list); bad input gives a plain message on stderr and exit status 2.
  */
 export function registerPredict(program: Command): void {
   const cmd = program
@@ -125,7 +124,8 @@ export function registerPredict(program: Command): void {
     .option("--weight-kg <kg>", "body weight in kg")
     .option("--fev1-l <litres>", "FEV1 in litres (for the MVV estimate)")
     .option("--ergometer <kind>", "cycle | treadmill", "cycle")
-    .option("--equation <id>", "evaluate one equation (see --list)");
+    .option("--equation <id>", "evaluate one equation (see --list)")
+    .addHelpText("after", EXIT_STATUS_HELP);
   // Output goes through the root command's output settings, read at call time, so a caller (or a
   // test) can redirect it after registering.
   cmd.configureOutput({
@@ -166,7 +166,7 @@ export function registerPredict(program: Command): void {
     try {
       result = { ...(runPredict(opts) as Record<string, unknown>), caution: CLINICAL_CAUTION };
     } catch (e) {
-      if (e instanceof InputError) cmd.error(`predict: ${e.message}`, { exitCode: 2, code: "cpet.predict.input" });
+      if (e instanceof UsageError) cmd.error(`predict: ${e.message}`, { exitCode: 2, code: "cpet.predict.input" });
       throw e;
     }
     if (opts.json) {

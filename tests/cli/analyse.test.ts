@@ -58,18 +58,19 @@ describe("cpet analyse (command line)", { timeout: CLI_TEST_TIMEOUT_MS }, () => 
     const file = path.join(tmp, "bad.csv");
     fs.writeFileSync(file, "a,b\n1,2\n");
     const r = run(["analyse", file, "--json"]);
-    expect(r.status).not.toBe(0);
+    expect(r.status).toBe(1);
     expect(r.stdout).toBe("");
     expect(r.stderr).toMatch(/cannot be used/);
     expect(r.stderr).not.toMatch(/\n\s+at /);
   });
 
   it("reports a missing file and a bad number plainly", () => {
+    // exit status 1: the command is well formed, the file cannot be read; 2: the command itself is wrong
     const missing = run(["analyse", path.join(tmp, "nope.csv"), "--json"]);
-    expect(missing.status).not.toBe(0);
+    expect(missing.status).toBe(1);
     expect(missing.stderr).toMatch(/cannot read/);
     const bad = run(["analyse", path.join(tmp, "nope.csv"), "--age", "abc"]);
-    expect(bad.status).not.toBe(0);
+    expect(bad.status).toBe(2);
     expect(bad.stderr).toMatch(/--age needs a number/);
     expect(bad.stderr).not.toMatch(/\n\s+at /);
   });
@@ -155,7 +156,7 @@ describe("cpet analyse: full output on real and invented files", { timeout: CLI_
       json.issues.some((i: { message: string }) => /5 rows were read as consecutive stages 300 s apart/.test(i.message)),
     ).toBe(true);
     const bad = run([...args, "--stage-duration-s", "0"]);
-    expect(bad.status).toBe(1);
+    expect(bad.status).toBe(2);
     expect(bad.stderr).toMatch(/--stage-duration-s must be a number of seconds between 10 and 3600/);
   });
 
@@ -170,11 +171,11 @@ describe("cpet analyse: full output on real and invented files", { timeout: CLI_
     expect(json.peak.vo2MlMin).toBeCloseTo(1450, 6);
     expect(json.issues.some((i: { code: string }) => i.code === "exercise-span-by-review")).toBe(true);
     const bad = run(["analyse", file, "--exercise-span", "5:00-1:00"]);
-    expect(bad.status).toBe(1);
+    expect(bad.status).toBe(2);
     expect(bad.stderr).toMatch(/--exercise-span needs start-end/);
     // a span past the end of the record is refused, not replaced by the detected phase
     const outside = run(["analyse", file, "--exercise-span", "6:00-99:00"]);
-    expect(outside.status).toBe(1);
+    expect(outside.status).toBe(2);
     expect(outside.stderr).toMatch(/--exercise-span 6:00-99:00 does not lie inside the record \(0:00-/);
     expect(outside.stdout).toBe("");
   });
@@ -206,7 +207,7 @@ describe("cpet analyse: full output on real and invented files", { timeout: CLI_
       ["--weight-kg", "-80", /Weight \(kg\) must lie between 20 and 300/],
     ] as const) {
       const r = run(["analyse", file, "--json", flag, value]);
-      expect(r.status).toBe(1);
+      expect(r.status).toBe(2);
       expect(r.stdout).toBe("");
       expect(r.stderr).toMatch(text);
     }

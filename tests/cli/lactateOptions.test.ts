@@ -33,7 +33,8 @@ describe("cpet analyse: lactate options and issues", { timeout: 90_000 }, () => 
     expect(json.lactate.obla4.workW).toBeCloseTo(167.7, 0);
     expect(schema.safeParse(json).success).toBe(true);
     const bad = run(["analyse", ramp(), "--lactate", lac, "--lactate-time-unit", "hours"]);
-    expect(bad.status).not.toBe(0);
+    // a wrong option value is a mistake in the command: exit status 2
+    expect(bad.status).toBe(2);
     expect(bad.stderr).toMatch(/--lactate-time-unit must be s or min/);
   });
 
@@ -55,7 +56,8 @@ describe("cpet analyse: lactate options and issues", { timeout: 90_000 }, () => 
     expect(json.lactate.obla4.workW).toBeCloseTo(167.8, 0);
     const open = write("lac-open.csv", "time_s,lactate\n0,9.0\n150,9.9\n300,14.4\n450,26.1\n");
     const refused = run(["analyse", ramp(), "--lactate", open]);
-    expect(refused.status).not.toBe(0);
+    // the command is well formed; the file cannot be used as it stands: exit status 1
+    expect(refused.status).toBe(1);
     expect(refused.stderr).toMatch(/Are the values in mg\/dL/);
     const said = JSON.parse(run(["analyse", ramp(), "--json", "--lactate", open, "--lactate-unit", "mg/dL"]).stdout);
     expect(said.lactate.thresholds.length).toBe(5);

@@ -83,9 +83,9 @@ describe("cpet predict", () => {
     [["--sex", "male", "--age", "50", "--height-cm", "175"], /--weight-kg is required/],
     [[...man, "--ergometer", "rowing"], /--ergometer must be cycle or treadmill/],
     [[...man, "--equation", "nope"], /no reference equation "nope"/],
-  ])("bad input %j → non-zero exit, plain message on stderr, nothing on stdout", async (args, message) => {
+  ])("bad input %j → exit status 2 (the command is wrong), plain message on stderr, nothing on stdout", async (args, message) => {
     const r = await run([...args, "--json"]);
-    expect(r.exitCode).not.toBe(0);
+    expect(r.exitCode).toBe(2);
     expect(r.out).toBe("");
     expect(r.err).toMatch(message);
     expect(r.err).not.toMatch(/\n\s+at /);
