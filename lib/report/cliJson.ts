@@ -136,9 +136,15 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
   const ix = result.indices;
   const p = ix.peaks;
   const issues: Issue[] = [...result.issues];
-  const nd = (what: string, m: Measured | null | undefined) => {
+  // a value that cannot be determined is null in the JSON, with its reason in `issues` pointing at its key
+  const nd = (what: string, field: string, m: Measured | null | undefined) => {
     if (m && m.value === null)
-      issues.push({ severity: "info", code: "not-determinable", message: `${what}: ${m.reason ?? "not determinable"}` });
+      issues.push({
+        severity: "info",
+        code: "not-determinable",
+        message: `${what}: ${m.reason ?? "not determinable"}`,
+        where: { field },
+      });
     return val(m);
   };
   const predVo2 = result.predicted.values.vo2PeakMlMin?.value ?? null;
@@ -148,6 +154,7 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
         severity: "info",
         code: "not-determinable",
         message: `${t.which.toUpperCase()}: ${t.reason ?? t.vo2MlMin.reason ?? "not determinable"}`,
+        where: { field: `${t.which}.vo2MlMin` },
       });
     return {
       vo2MlMin: val(t.vo2MlMin),
@@ -186,19 +193,26 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
         severity: "info",
         code: "not-determinable",
         message: `Predicted ${q} (${pv.equationLabel}): ${pv.reason ?? "not determinable"}`,
+        where: { field: `predicted.${q}.value` },
       });
     const cmp = result.comparisons.find((c) => c.predicted?.quantity === q);
     predicted[q] = { value: pv.value, unit: pv.unit, equationId: pv.equationId, percentPredicted: cmp?.percentPredicted ?? null };
   }
   const lac = ix.lactate;
   const obla = lac?.thresholds.find((t) => t.id === "obla-4");
-  const oblaOn = (axis: string): number | null => {
+  const oblaOn = (axis: "workW" | "speedKmh"): number | null => {
     if (!lac || lac.axis !== axis) return null;
+    const field = `lactate.obla4.${axis}`;
     if (!obla) {
-      issues.push({ severity: "info", code: "not-determinable", message: "Lactate 4 mmol/L (OBLA): not computed" });
+      issues.push({
+        severity: "info",
+        code: "not-determinable",
+        message: "Lactate 4 mmol/L (OBLA): not computed",
+        where: { field },
+      });
       return null;
     }
-    return nd("Lactate 4 mmol/L (OBLA)", obla.intensity);
+    return nd("Lactate 4 mmol/L (OBLA)", field, obla.intensity);
   };
   if (lac && lac.axis !== "workW") {
     // obla4.workW is null because OBLA is given as a speed: said in words, marked by its field so the text summary
@@ -222,26 +236,26 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
     peak: {
       method: p.vo2MlMin.provenance.label,
       windowS: p.windowS,
-      vo2MlMin: nd("Peak VO2", p.vo2MlMin),
-      vo2MlKgMin: nd("Peak VO2 per kg", p.vo2MlKgMin),
+      vo2MlMin: nd("Peak VO2", "peak.vo2MlMin", p.vo2MlMin),
+      vo2MlKgMin: nd("Peak VO2 per kg", "peak.vo2MlKgMin", p.vo2MlKgMin),
       vco2MlMin: val(p.vco2MlMin),
       veLMin: val(p.veLMin),
-      rer: nd("Peak RER", p.rerMax),
-      hrBpm: nd("Peak HR", p.hrBpm),
-      workW: treadmill ? val(p.workW) : nd("Peak work rate", p.workW),
-      speedKmh: treadmill ? nd("Peak speed", p.speedKmh) : val(p.speedKmh),
+      rer: nd("Peak RER", "peak.rer", p.rerMax),
+      hrBpm: nd("Peak HR", "peak.hrBpm", p.hrBpm),
+      workW: treadmill ? val(p.workW) : nd("Peak work rate", "peak.workW", p.workW),
+      speedKmh: treadmill ? nd("Peak speed", "peak.speedKmh", p.speedKmh) : val(p.speedKmh),
       gradePct: val(p.gradePct),
-      o2PulseMlBeat: nd("Peak O2 pulse", p.o2PulseMlBeat),
+      o2PulseMlBeat: nd("Peak O2 pulse", "peak.o2PulseMlBeat", p.o2PulseMlBeat),
     },
     predicted,
     vt1: threshold(result.thresholds.vt1, ix.atVt1),
     vt2: threshold(result.thresholds.vt2, ix.atVt2),
     veVco2Slope: {
-      toRcp: nd("VE/VCO2 slope to RCP", ix.veVco2.slopeToVt2.slope),
+      toRcp: nd("VE/VCO2 slope to RCP", "veVco2Slope.toRcp", ix.veVco2.slopeToVt2.slope),
       toRcpFittedTo: slopeToVt2Name(ix.veVco2.slopeToVt2),
       toRcpIntercept: val(ix.veVco2.slopeToVt2.intercept),
       toRcpBand: ix.veVco2.slopeToVt2.band ?? null,
-      whole: nd("VE/VCO2 slope, whole exercise", ix.veVco2.slopeWholeExercise.slope),
+      whole: nd("VE/VCO2 slope, whole exercise", "veVco2Slope.whole", ix.veVco2.slopeWholeExercise.slope),
       wholeBand: ix.veVco2.slopeWholeExercise.band ?? null,
       wholeNoiseCorrected: noiseCorrectedSlope(ix.veVco2.slopeWholeExercise),
       wholeIntercept: val(ix.veVco2.slopeWholeExercise.intercept),
@@ -249,26 +263,26 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
       atVt1: val(ix.veVco2.atVt1),
       atVt1BandEnds: bandEnds(ix.atVt1?.veVco2AtBandEnds),
     },
-    oues: nd("OUES", ouesWhole?.slope),
+    oues: nd("OUES", "oues", ouesWhole?.slope),
     ouesBand: ouesWhole?.band ?? null,
     ouesNoiseCorrected: noiseCorrectedSlope(ouesWhole),
     oues90: oues(0.9),
     oues75: oues(0.75),
-    dVo2dWr: nd("ΔVO2/ΔWR", ix.dVo2dWr.whole.slope),
+    dVo2dWr: nd("ΔVO2/ΔWR", "dVo2dWr", ix.dVo2dWr.whole.slope),
     dVo2dWrBand: ix.dVo2dWr.whole.band ?? null,
     o2PulsePattern: ix.o2Pulse.pattern,
     o2PulsePatternReason: ix.o2Pulse.pattern === null ? (ix.o2Pulse.patternReason ?? null) : null,
     breathingReserve: {
-      pct: nd("Breathing reserve", ix.breathingReserve.reservePercent),
+      pct: nd("Breathing reserve", "breathingReserve.pct", ix.breathingReserve.reservePercent),
       lMin: val(ix.breathingReserve.reserveLMin),
       mvvLMin: val(ix.breathingReserve.mvvLMin),
       mvvMethod: ix.breathingReserve.mvvChoice,
       veMvvPct: val(ix.breathingReserve.veMvvPercent),
     },
     heartRate: {
-      reserveBpm: nd("HR reserve", ix.heartRate.reserveBpm),
-      chronotropicIndex: nd("Chronotropic index", ix.heartRate.chronotropicIndex),
-      recovery1MinBpm: nd("HR recovery at 1 min", ix.heartRate.recovery1MinBpm),
+      reserveBpm: nd("HR reserve", "heartRate.reserveBpm", ix.heartRate.reserveBpm),
+      chronotropicIndex: nd("Chronotropic index", "heartRate.chronotropicIndex", ix.heartRate.chronotropicIndex),
+      recovery1MinBpm: nd("HR recovery at 1 min", "heartRate.recovery1MinBpm", ix.heartRate.recovery1MinBpm),
       percentPredicted: val(ix.heartRate.percentPredicted),
     },
     spo2: { restPct: val(ix.spo2.restPct), lowestPct: val(ix.spo2.lowestPct), fallPct: val(ix.spo2.fallPct) },

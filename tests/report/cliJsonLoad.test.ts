@@ -91,6 +91,54 @@ describe("the demo case's file against what is entered (INVENTED normal-adult de
     expect(noRecovery.length).toBeLessThan(csv.length);
     const json = await cliJson(noRecovery, "cycle");
     expect(json.heartRate.recovery1MinBpm).toBeNull();
-    expect(json.issues.some((i) => i.code === "not-determinable" && i.message.startsWith("HR recovery at 1 min:"))).toBe(true);
+    expect(
+      json.issues.some(
+        (i) =>
+          i.code === "not-determinable" &&
+          i.message.startsWith("HR recovery at 1 min:") &&
+          i.where?.field === "heartRate.recovery1MinBpm",
+      ),
+    ).toBe(true);
+  }, 60_000);
+
+  it("every stable key given as null has a not-determinable issue whose where.field names that key", async () => {
+    // the heart-rate and work-rate columns and the recovery rows taken out of the file: peak HR, HR reserve, peak work
+    // rate, ΔVO2/ΔWR and HR recovery cannot be determined; no FEV1 or MVV: breathing reserve neither
+    const lines = csv.trim().split("\n");
+    const comments = lines.filter((l) => l.startsWith("#"));
+    const [head, ...rows] = lines.filter((l) => !l.startsWith("#") && !l.endsWith(",recovery"));
+    const cols = head.split(",");
+    const keep = cols.map((c, k) => (/^(hr|heart|work|load|watt)/i.test(c) ? -1 : k)).filter((k) => k >= 0);
+    expect(keep.length).toBe(cols.length - 2);
+    const table = [head, ...rows].map((l) => keep.map((k) => l.split(",")[k]).join(","));
+    const stripped = [...comments, ...table].join("\n") + "\n";
+    const json = await cliJson(stripped, "cycle");
+    const pick = (key: string) => key.split(".").reduce<unknown>((o, k) => (o as Record<string, unknown> | null)?.[k], json);
+    const stable = [
+      "peak.vo2MlMin",
+      "peak.vo2MlKgMin",
+      "peak.rer",
+      "peak.hrBpm",
+      "peak.workW",
+      "vt1.vo2MlMin",
+      "vt2.vo2MlMin",
+      "veVco2Slope.toRcp",
+      "veVco2Slope.whole",
+      "oues",
+      "dVo2dWr",
+      "breathingReserve.pct",
+      "heartRate.reserveBpm",
+      "heartRate.recovery1MinBpm",
+    ];
+    const nulls = stable.filter((k) => pick(k) === null);
+    // by construction of the stripped file these four are missing (a test that finds none would prove nothing)
+    expect(nulls).toEqual(
+      expect.arrayContaining(["peak.hrBpm", "peak.workW", "dVo2dWr", "breathingReserve.pct", "heartRate.recovery1MinBpm"]),
+    );
+    for (const k of nulls) {
+      const why = json.issues.filter((i) => i.code === "not-determinable" && i.where?.field === k);
+      expect(why, k).toHaveLength(1);
+      expect(why[0].message.length, k).toBeGreaterThan(10);
+    }
   }, 60_000);
 });
