@@ -107,7 +107,8 @@ describe("draft report text", () => {
   });
 
   it("includes a serial comparison and lists non-default cut-off choices", () => {
-    const after = { ...fx.input, values: { ...fx.input.values, peakVo2MlKgMin: 16 } };
+    // +3.5 mL/kg/min, above the 3.0 band (Bensimhon 2008 90th percentile of HF retest change, confirmed)
+    const after = { ...fx.input, values: { ...fx.input.values, peakVo2MlKgMin: fx.input.values.peakVo2MlKgMin! + 3.5 } };
     const cmp = compareTests(fx.input, after, "heart-failure");
     const r2 = interpret(fx.input, { choices: { "rer-maximal": "at-least-1.10" } });
     const d = composeDraft(fx.input, r2, { comparison: cmp });
