@@ -16,7 +16,7 @@ import {
   type PredictedQuantity,
   type PredictedSet,
 } from "../predicted";
-import { composeDraft, interpret } from "../interpret";
+import { composeDraft, interpret, peakVo2ReducedLimit } from "../interpret";
 import type { AnalysisResult, AnalysisSettings, PredictedComparisonRow, TestRecord } from "./types";
 import { toInterpretInput } from "./toInterpretInput";
 import { draftExtras } from "./draftExtras";
@@ -71,7 +71,10 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
   });
   const comparisons = compareAll(indices, predicted);
   const peakVo2 = indices.peaks.vo2MlMin.value;
-  const weightBasis = peakVo2 !== null ? assessWeightBasis(peakVo2, record.patient, record.ergometer, { labSettings }) : null;
+  // "reduced" in the weight-basis note is read with the same limit as the conclusion's rule peak-vo2-reduced
+  const reducedBelow = peakVo2ReducedLimit(settings.interpret ?? {}) ?? undefined;
+  const weightBasis =
+    peakVo2 !== null ? assessWeightBasis(peakVo2, record.patient, record.ergometer, { labSettings, reducedBelow }) : null;
   const peakRr = peakOverWindow(test.clean, "rrBrMin", { unit: "1/min", windowS: settings.peakWindowS ?? 30 });
   const interpretInput = toInterpretInput(record, thresholds, indices, predicted, comparisons, peakRr.value, weightBasis);
   const interpretation = interpret(interpretInput, settings.interpret ?? {});

@@ -15,6 +15,7 @@ export {
 } from "./composeDraft";
 export { compareTests, SERIAL_VARIABLES, type NoiseBand, type SerialComparison, type SerialItem } from "./compareTests";
 export { listCutoffChoices } from "./listCutoffChoices";
+export { peakVo2ReducedLimit, type PeakVo2ReducedLimit } from "./peakVo2Limit";
 export {
   INTERPRETATION_DATA,
   parseInterpretationData,

@@ -8,11 +8,12 @@ import { percentPredicted } from "./percentPredicted";
 export interface WeightBasisOptions {
   labSettings?: LabSettings;
   /**
-   * % predicted below which peak VO2 reads as reduced, used when the equation has no LLN.
-   * @default 85 — "peak VO2 ≥ 85% predicted normal", practical guide to CPET in adults, Respir Res 2021
-   * Table 1 (secondary; source id `practical-guide-2021`).
+   * When peak VO2 reads as reduced: the lab's own limit, the one the interpretation uses (choice "peak-vo2-normal"), so
+   * that the note and the conclusion of one report cannot disagree.
+   * @default reduced when < 85 % predicted — "peak VO2 ≥ 85% predicted normal", practical guide to CPET in adults,
+   * Respir Res 2021 Table 1 (secondary; source id `glaab-2021-guide`), the choice's default.
    */
-  normalLimitPct?: number;
+  reducedBelow?: { op: "<" | "<="; pct: number; label: string };
 }
 
 export interface WeightBasisReading {
@@ -33,7 +34,7 @@ export interface WeightBasisAssessment {
   ideal?: WeightBasisReading;
   /** True when actual and predicted (ideal) weight lead to different conclusions. */
   changesConclusion: boolean;
-  /** Which criterion decided "reduced": the equation's LLN or the % predicted limit. */
+  /** Which criterion decided "reduced": the lab's % predicted limit. */
   criterion?: string;
   issues: Issue[];
 }
@@ -42,8 +43,8 @@ export interface WeightBasisAssessment {
  * Would a predicted- (ideal-) weight basis change the reading of a measured peak VO2?
  * The lab's peak-VO2 equation is evaluated on actual weight and again on predicted weight
  * (Wasserman/Hansen: men 0.79·H − 60.7, women 0.65·H − 42.8; `hansen-1984`, secondary);
- * measured per-kg values are given on both. "Reduced" means below the equation's LLN when it has
- * one, else below `normalLimitPct` % predicted. Raises info `weight-basis-changes-conclusion` when
+ * measured per-kg values are given on both. "Reduced" means below the lab's % predicted limit (`reducedBelow`), the
+ * same the interpretation reads (not the equation's LLN, which the conclusion does not use). Raises info `weight-basis-changes-conclusion` when
  * the two bases disagree, and `obesity-weight-basis` when BMI ≥ 30 kg/m² (WHO obesity, common practice).
  * Degenerate cases: no measured value, no height/weight/sex → no readings, `changesConclusion` false.
  */
@@ -54,7 +55,8 @@ export function assessWeightBasis(
   options: WeightBasisOptions = {},
 ): WeightBasisAssessment {
   const labSettings = options.labSettings ?? DEFAULT_LAB_SETTINGS;
-  const limitPct = options.normalLimitPct ?? 85;
+  const limit = options.reducedBelow ?? { op: "<", pct: 85, label: "Reduced if < 85 % predicted" };
+  const below = (pct: number) => (limit.op === "<" ? pct < limit.pct : pct <= limit.pct);
   const { bmiKgM2, predictedWeightKg } = bodySize(patient);
   const out: WeightBasisAssessment = { bmiKgM2, predictedWeightKg, changesConclusion: false, issues: [] };
   const resolved = resolveEquationId("vo2PeakMlMin", ergometer, labSettings);
@@ -70,8 +72,8 @@ export function assessWeightBasis(
     );
     const pct = percentPredicted(measuredVo2MlMin, pv.value);
     let reduced: boolean | null = null;
-    if (pv.value !== null) reduced = pv.lln !== undefined ? measuredVo2MlMin < pv.lln : pct !== null && pct < limitPct;
-    out.criterion = pv.lln !== undefined ? `below LLN (${pv.limitMethod})` : `below ${limitPct}% predicted`;
+    if (pv.value !== null) reduced = pct !== null && below(pct);
+    out.criterion = `the lab's limit: ${limit.label.charAt(0).toLowerCase()}${limit.label.slice(1)}`;
     return { weightKg, predictedMlMin: pv.value, percentPredicted: pct, measuredMlKgMin: measuredVo2MlMin / weightKg, reduced };
   };
   out.actual = read(patient.weightKg);

@@ -105,9 +105,18 @@ describe("assessWeightBasis", () => {
     expect(a.issues.map((i) => i.code)).toEqual(["obesity-weight-basis"]);
   });
 
-  it("uses the LLN when the equation has one (FRIEND 2018 treadmill)", () => {
-    const a = assessWeightBasis(2500, { ...man, weightKg: 120 }, "treadmill");
-    expect(a.criterion).toMatch(/LLN/);
+  it("reads 'reduced' with the lab's % predicted limit, as the conclusion does, even where the equation has an LLN", () => {
+    // FRIEND 2018 treadmill, man 50 y, 175 cm, 80 kg: 2938.7963 mL/min (check value in o2pulse-derived.json, hand
+    // calculation). 2300 / 2938.7963 = 78.3 %: reduced below the default 85 % (Respir Res 2021 practical guide,
+    // secondary), though above the equation's LLN (about 70 % of predicted here). Before, the note read the LLN and the
+    // conclusion the 85 % limit, so one report said both "reduced" and "not reduced".
+    const a = assessWeightBasis(2300, man, "treadmill");
+    expect(a.actual?.percentPredicted).toBeCloseTo((100 * 2300) / 2938.7963, 3);
+    expect(a.actual?.reduced).toBe(true);
+    expect(a.criterion).toMatch(/< 85 % predicted/);
+    // a lab limit of < 75 % (invented for the test): 78.3 % is not reduced
+    const b = assessWeightBasis(2300, man, "treadmill", { reducedBelow: { op: "<", pct: 75, label: "Reduced if < 75 %" } });
+    expect(b.actual?.reduced).toBe(false);
   });
 
   it("degenerate: no sex → no readings", () => {
