@@ -6,8 +6,9 @@ import { defineSources } from "../core/source";
  * The status here is the status of the document as seen; each data item carries its own status.
  */
 export const INTERPRET_SOURCES = defineSources({
-  "hansen-1984": {
-    citation: "Hansen JE, Sue DY, Wasserman K. Predicted values for clinical exercise testing. Am Rev Respir Dis 1984;129:S49-55",
+  "hansen-1984-limits": {
+    citation:
+      "Hansen JE, Sue DY, Wasserman K. Predicted values for clinical exercise testing. Am Rev Respir Dis 1984;129:S49-55 (limits of normal stated in the abstract; its prediction equations are the separate entry hansen-1984)",
     status: "confirmed",
     note: "Abstract seen: BR <11 L/min, AT/VO2max >40%, VD/VT <0.28, PaO2 <80 mmHg, P(A-a)O2 >38 mmHg, RR >60/min as unusual.",
   },
@@ -195,8 +196,8 @@ export const INTERPRET_SOURCES = defineSources({
   "mehra-2016": {
     citation:
       "Mehra MR, Canter CE, Hannan MM et al. The 2016 International Society for Heart Lung Transplantation listing criteria for heart transplantation: a 10-year update. J Heart Lung Transplant 2016;35:1-23",
-    status: "confirmed",
-    note: "CPET criteria seen in a tabulation (ESC Heart Fail, PMC8006697 Table 2).",
+    status: "secondary",
+    note: "CPET criteria seen only in a tabulation (ESC Heart Fail, PMC8006697 Table 2), not in the statement itself: secondary by our definition, though the project's reference sheet marks it confirmed.",
   },
   "who-bmi": {
     citation:

@@ -24,7 +24,7 @@ export interface BreathingReserveResult {
 const MVV_SOURCES: Record<MvvChoice, string[]> = {
   measured: ["common-practice"],
   fev1x40: ["mvv-fev1x40", "otto-yanez-2020"],
-  fev1x35: ["mvv-fev1x35", "otto-yanez-2020"],
+  fev1x35: ["mvv-fev1x35", "mvv-fev1x35-practice", "otto-yanez-2020"],
 };
 
 /**

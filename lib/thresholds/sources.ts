@@ -23,8 +23,8 @@ export const THRESHOLD_SOURCES = defineSources({
   },
   "mehra-2016-ishlt": {
     citation: "Mehra MR et al. ISHLT listing criteria for heart transplantation: a 10-year update. J Heart Lung Transplant 2016",
-    status: "confirmed",
-    note: "Maximal test = RER >1.05, seen in a tabulation (ESC Heart Fail, PMC8006697 Table 2).",
+    status: "secondary",
+    note: "Maximal test = RER >1.05, seen only in a tabulation (ESC Heart Fail, PMC8006697 Table 2), not in the statement itself.",
   },
   "myers-2017-friend": {
     citation: "Myers J et al. FRIEND registry treadmill reference cohort. Prog Cardiovasc Dis 2017",
@@ -96,8 +96,9 @@ export const THRESHOLD_SOURCES = defineSources({
     status: "secondary",
     note: "Cardiac pattern: O2 pulse <80% predicted or flat; HRR ≤12; BR <15%.",
   },
-  "hansen-1984": {
-    citation: "Hansen JE, Sue DY, Wasserman K. Predicted values for clinical exercise testing. Am Rev Respir Dis 1984;129:S49-55",
+  "hansen-1984-limits": {
+    citation:
+      "Hansen JE, Sue DY, Wasserman K. Predicted values for clinical exercise testing. Am Rev Respir Dis 1984;129:S49-55 (limits of normal stated in the abstract; its prediction equations are the separate entry hansen-1984)",
     status: "confirmed",
     note: "Breathing reserve <11 L/min unusual; VD/VT normal peak <0.28.",
   },
@@ -110,8 +111,10 @@ export const THRESHOLD_SOURCES = defineSources({
     citation: "MVV ≈ FEV1 × 40 (attributed to Campbell 1982, recalled)",
     status: "recalled",
   },
-  "mvv-fev1x35": {
-    citation: "MVV ≈ FEV1 × 35 (attributed to Gandevia & Hugh-Jones 1957, recalled; used in practice per a secondary source)",
+  // the practice is one claim (seen in secondary pages), the attribution another (recalled, in mvv-fev1x35.json); one id
+  // each, so that merging the registries cannot lend the attribution the practice's stronger status
+  "mvv-fev1x35-practice": {
+    citation: "MVV ≈ FEV1 × 35 used in practice ('35–40 × FEV1'), seen in secondary pages; compared in Otto-Yáñez 2020",
     status: "secondary",
   },
   "breathing-reserve-definition": {
@@ -138,7 +141,8 @@ export const THRESHOLD_SOURCES = defineSources({
   },
   "fox-hrmax": {
     citation: "HRmax = 220 − age (Fox; history in Robergs & Landwehr, JEPonline 2002)",
-    status: "confirmed",
+    status: "secondary",
+    note: "The 1971 paper was not seen; the formula was seen in Robergs & Landwehr 2002 and in Cole et al. NEJM 1999.",
   },
   "hadeli-2001": {
     citation: "Hadeli KO et al. Chest 2001;120:88",

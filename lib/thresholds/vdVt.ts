@@ -255,7 +255,7 @@ export function vdVt(
     const prov = provenanceOf(
       "aa-gradient-alveolar-gas-equation",
       `P(A−a)O2 = FiO2·(PB − 47) − PaCO2·[FiO2 + (1 − FiO2)/R] − PaO2; room air (FiO2 ${ROOM_AIR_FIO2}), PB ${pb} mmHg${barometricPressureMmHg === undefined ? " (sea level assumed)" : ""}, R read at the sample`,
-      ["alveolar-gas-equation", "hansen-1984"],
+      ["alveolar-gas-equation", "hansen-1984-limits"],
       {
         window: r.provenance.window,
         inputs: {
@@ -301,7 +301,7 @@ export function vdVt(
       subtract
         ? `VD/VT = 1 − 863/(PaCO2 · VE/VCO2) − VDapparatus/VT${placedWords}; apparatus dead space ${apparatusDeadSpaceMl} mL, VT ${vtL.toFixed(2)} L at the sample`
         : `VD/VT = 1 − 863/(PaCO2 · VE/VCO2)${placedWords}; ${APPARATUS_NOTE} (overstates physiological VD/VT by VDapparatus/VT)`,
-      ["bohr-enghoff", "hansen-1984"],
+      ["bohr-enghoff", "hansen-1984-limits"],
       {
         window: veVco2.provenance.window,
         inputs: {

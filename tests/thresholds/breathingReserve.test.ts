@@ -6,7 +6,7 @@ const ve = (v: number) => measured(v, "L/min", { method: "test", label: "peak VE
 
 // MVV estimates (lib source ids in brackets): FEV1 × 40, attributed to Campbell 1982 — recalled ["mvv-fev1x40"];
 // FEV1 × 35, attributed to Gandevia & Hugh-Jones 1957 — recalled attribution, used in practice per a secondary source
-// (status secondary) ["mvv-fev1x35"]; Otto-Yáñez M et al., Front Physiol 2020;11:537 compared the multipliers and
+// (attribution recalled ["mvv-fev1x35"], practice secondary ["mvv-fev1x35-practice"]); Otto-Yáñez M et al., Front Physiol 2020;11:537 compared the multipliers and
 // advised against estimating MVV — confirmed ["otto-yanez-2020"]. BR = MVV − VEpeak and BR% = 100·(1 − VEpeak/MVV):
 // definition, recalled ["breathing-reserve-definition"].
 describe("breathing reserve", () => {
@@ -14,7 +14,7 @@ describe("breathing reserve", () => {
     expect(breathingReserve(ve(100), { fev1L: 3.2 }, { mvvChoice: "fev1x40" }).mvvLMin.value).toBeCloseTo(128, 9);
     const r35 = breathingReserve(ve(100), { fev1L: 3.2 }, { mvvChoice: "fev1x35" });
     expect(r35.mvvLMin.value).toBeCloseTo(112, 9);
-    expect(r35.mvvLMin.provenance.sourceIds).toEqual(["mvv-fev1x35", "otto-yanez-2020"]);
+    expect(r35.mvvLMin.provenance.sourceIds).toEqual(["mvv-fev1x35", "mvv-fev1x35-practice", "otto-yanez-2020"]);
   });
 
   it("BR, BR% and VE/MVV by hand: MVV 128, VE 100 → 128 − 100 = 28 L/min, 100·28/128 = 21.875%, 100·100/128 = 78.125%", () => {

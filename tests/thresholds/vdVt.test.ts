@@ -16,7 +16,7 @@ describe("VD/VT (Bohr-Enghoff form, recalled)", () => {
     expect(r.points[0].vdVt.value).toBeCloseTo(1 - 863 / 1200, 12);
     // 1 − 863/(35·30) = 1 − 863/1050 = 0.178095…
     expect(r.points[1].vdVt.value).toBeCloseTo(1 - 863 / 1050, 12);
-    expect(r.points[1].vdVt.provenance.sourceIds).toEqual(["bohr-enghoff", "hansen-1984"]);
+    expect(r.points[1].vdVt.provenance.sourceIds).toEqual(["bohr-enghoff", "hansen-1984-limits"]);
   });
 
   it("samples without PaCO2 are skipped; non-positive PaCO2 raises a warning", () => {
@@ -76,10 +76,11 @@ describe("VD/VT (Bohr-Enghoff form, recalled)", () => {
     const high = vdVt(withR, [{ timeS: 700, paCO2MmHg: 40, paO2MmHg: 90, label: "peak" }], {}, undefined, 630);
     expect(high.points[0].aaGradient!.value).toBeCloseTo(0.2093 * 583 - 40 - 90, 9);
     expect(high.issues.map((i) => i.code)).not.toContain("aa-gradient-sea-level");
-    // R 0.8 (VCO2 800, VO2 1000): 149.2309 − 40·(0.2093 + 0.7907/0.8) − 90 = 10.37 mmHg
+    // R 0.8 (VCO2 800, VO2 1000): 149.2309 − 40·(0.2093 + 0.7907/0.8) − 90 = 149.2309 − 47.907 − 90 = 11.32 mmHg
     const lowR = makeTest(buildRows(() => ({ vo2MlMin: 1000, vco2MlMin: 800, veLMin: 24 })));
     const r2 = vdVt(lowR, [{ timeS: 700, paCO2MmHg: 40, paO2MmHg: 90, label: "peak" }]);
     expect(r2.points[0].aaGradient!.value).toBeCloseTo(0.2093 * 713 - 40 * (0.2093 + 0.7907 / 0.8) - 90, 9);
+    expect(r2.points[0].aaGradient!.value).toBeCloseTo(11.32, 2);
   });
 
   it("no PaO2: no P(A−a)O2", () => {
