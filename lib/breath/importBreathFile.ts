@@ -967,11 +967,13 @@ function crossCheckUnits(byTarget: Map<Target, Column>, issues: Issue[]): void {
           ),
         );
       } else if (ratio < 0.6 || ratio > 1.6) {
+        // RER lies within about 0.7 (fat) to 1.3 (hard exercise) (common practice); the median of a whole test outside
+        // the wider 0.6–1.6 (our choice, room for a short or hard test) points to a column or unit mix-up
         issues.push(
           makeIssue(
             "warning",
             "rer-implausible",
-            `The typical RER (VCO2/VO2) is ${ratio.toFixed(2)}, outside the usual 0.7–1.3. Check that VO2 and VCO2 are in the right columns and units.`,
+            `The typical RER (VCO2/VO2) is ${ratio.toFixed(2)}: RER lies within about 0.7–1.3, and this is outside even 0.6–1.6. Check that VO2 and VCO2 are in the right columns and units.`,
           ),
         );
       }

@@ -7,9 +7,19 @@
  * - confirmed: the number was seen in the primary text or its abstract;
  * - secondary: seen only in a secondary reproduction (review table, later paper);
  * - recalled: from memory, not yet seen in found text: verify before relying on it;
- * - common-practice: a fact of the trade with no single published source.
+ * - common-practice: a fact of the trade with no single published source;
+ * - our-choice: a setting of this software (a window, a tolerance, a way of combining) that no source fixes.
  */
-export type EvidenceStatus = "confirmed" | "secondary" | "recalled" | "common-practice";
+export type EvidenceStatus = "confirmed" | "secondary" | "recalled" | "common-practice" | "our-choice";
+
+/** A status as printed beside a number: "common practice", "our choice" (the others as they are). */
+export const EVIDENCE_LABEL: Record<EvidenceStatus, string> = {
+  confirmed: "confirmed",
+  secondary: "secondary",
+  recalled: "recalled",
+  "common-practice": "common practice",
+  "our-choice": "our choice",
+};
 
 export interface Source {
   /** Stable id, kebab-case: `<firstauthor>-<year>[-topic]`, e.g. `beaver-1986`. */
@@ -32,7 +42,13 @@ export function defineSources<const K extends string>(sources: Record<K, Omit<So
   return out;
 }
 
-const STATUS_STRENGTH: Record<EvidenceStatus, number> = { confirmed: 3, secondary: 2, "common-practice": 1, recalled: 0 };
+const STATUS_STRENGTH: Record<EvidenceStatus, number> = {
+  confirmed: 3,
+  secondary: 2,
+  "common-practice": 1,
+  "our-choice": 1,
+  recalled: 0,
+};
 
 /**
  * Merge layer registries. One paper may be registered by several layers for different claims (e.g.

@@ -2,7 +2,13 @@ import type { EvidenceStatus } from "../core";
 import { formatNumber } from "../units";
 import { variableInfo } from "./variables";
 
-const STRENGTH: Record<EvidenceStatus, number> = { recalled: 0, "common-practice": 1, secondary: 2, confirmed: 3 };
+const STRENGTH: Record<EvidenceStatus, number> = {
+  recalled: 0,
+  "common-practice": 1,
+  "our-choice": 1,
+  secondary: 2,
+  confirmed: 3,
+};
 
 /** The weakest of several evidence statuses (a conclusion is only as strong as its weakest input). */
 export function weakestStatus(statuses: readonly EvidenceStatus[]): EvidenceStatus {

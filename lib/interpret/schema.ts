@@ -7,7 +7,7 @@ import { VARIABLE_IDS } from "./variables";
  * each with its source ids and evidence status.
  */
 
-export const EvidenceStatusSchema = z.enum(["confirmed", "secondary", "recalled", "common-practice"]);
+export const EvidenceStatusSchema = z.enum(["confirmed", "secondary", "recalled", "common-practice", "our-choice"]);
 
 const VariableIdSchema = z.enum(VARIABLE_IDS as [string, ...string[]]);
 

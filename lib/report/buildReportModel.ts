@@ -1,5 +1,5 @@
 import type { AnalysisResult, ReferralQuestion, TestRecord } from "../analysis";
-import type { Measured, Source } from "../core";
+import { EVIDENCE_LABEL, type Measured, type Source } from "../core";
 import { thresholdMethodWords } from "../analysis";
 import { ATRIAL_FIBRILLATION_HR_NOTE, heartRateNotes } from "../interpret";
 import { analysisCharts } from "./analysisCharts";
@@ -169,7 +169,7 @@ export function buildReportModel(
       row.sourceIds = unique([...row.sourceIds, ...c.predicted.provenance.sourceIds]);
       row.note = [
         row.note,
-        `${predictedQuantityWords(c.predicted.quantity)} by ${c.predicted.equationLabel} (evidence: ${c.predicted.status})`,
+        `${predictedQuantityWords(c.predicted.quantity)} by ${c.predicted.equationLabel} (evidence: ${EVIDENCE_LABEL[c.predicted.status]})`,
       ]
         .filter(Boolean)
         .join("; ");
@@ -202,7 +202,11 @@ export function buildReportModel(
     row.note = [row.note, bandNote(line, d)].filter(Boolean).join("; ") || row.note;
     // HR reserve is predicted HRmax − peak HR: the same beta-blocker note as the peak HR's % predicted
     if (m === ix.heartRate.reserveBpm && hrNotes.length) row.note = [row.note, ...hrNotes].filter(Boolean).join("; ");
-    if (m === ix.heartRate.recovery1MinBpm && afNote) row.note = [row.note, afNote].filter(Boolean).join("; ");
+    if (m === ix.heartRate.recovery1MinBpm) {
+      // the cut-off's protocol travels with the value (Cole 1999: cool-down walk; clinical-reference §2, confirmed)
+      const protocol = m.value !== null ? "abnormal ≤ 12 bpm was set after a cool-down walk (Cole 1999)" : undefined;
+      row.note = [row.note, protocol, afNote].filter(Boolean).join("; ");
+    }
     keyValues.push(row);
   }
   keyValues.push(measuredRow("Recording duration", pk.testDurationS, 0, formatClock));

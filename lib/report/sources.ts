@@ -29,4 +29,5 @@ export const EVIDENCE_WORDS: Record<Source["status"], string> = {
   secondary: "seen only in a secondary reproduction",
   recalled: "recalled, not yet verified in the primary text",
   "common-practice": "common practice",
+  "our-choice": "our choice: a setting of this software that no published source fixes",
 };

@@ -107,12 +107,14 @@ export function criterionMet(criterion: EffortCriterion, value: number | null | 
 /**
  * Named criteria sets. Peak RER cut-offs differ between sources (clinical-reference §2, §7 item 7):
  * ≥1.10 (HF prognosis, JACC HF 2020, confirmed; FRIEND cycle inclusion, confirmed), >1.05 (ERS 2019 and
- * ISHLT 2016, confirmed), ≥1.0 (FRIEND treadmill inclusion, confirmed).
+ * ISHLT 2016 — ERS confirmed, ISHLT secondary), ≥1.0 (FRIEND treadmill inclusion, confirmed; the primary abstract page
+ * prints "maximal RER >1.0", a secondary page "1.00 or higher": ≥ is kept, the difference is below the RER's resolution).
  */
 export const EFFORT_CRITERIA_SETS: Record<string, EffortCriteriaSet> = {
   "ers-2019": {
     id: "ers-2019",
-    label: "ERS 2019 markers: RER > 1.05, HR ≥ 85% predicted or HR reserve < 15 bpm, VE/MVV ≥ 85%, VO2 plateau (any one)",
+    label:
+      "ERS 2019 and practical-guide markers: RER > 1.05, VE/MVV ≥ 85%, VO2 plateau (ERS 2019); HR ≥ 85% predicted or HR reserve < 15 bpm (Respir Res 2021 practical guide) (any one)",
     rule: "any",
     criteria: [RER_GT_105, HR_85, HRR_15, VE_MVV_85, VO2_PLATEAU_CRITERION],
     ruleSourceIds: ["ats-accp-2003", "implementation-choice"],

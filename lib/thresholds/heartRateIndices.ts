@@ -55,6 +55,15 @@ export const HR_RECOVERY_1MIN_ABNORMAL_BPM = 12;
 /** HR recovery at 2 min ≤ 42 bpm abnormal (Cole 2000 Ann Intern Med 132:552, confirmed). */
 export const HR_RECOVERY_2MIN_ABNORMAL_BPM = 42;
 /**
+ * The recovery each cut-off was set with: Cole 1999, a cool-down walk after a symptom-limited treadmill test
+ * (clinical-reference §2, confirmed); Cole 2000, after a submaximal test (confirmed). The recovery protocol of the test at
+ * hand is not recorded, so the value's method names it.
+ */
+const HR_RECOVERY_PROTOCOL: Record<string, string> = {
+  "cole-1999": "a cool-down walk after a symptom-limited treadmill test (Cole 1999)",
+  "cole-2000": "recovery after a submaximal exercise test (Cole 2000)",
+};
+/**
  * HR recovery is not read from rows this many seconds apart or more (time averages exported by the cart, or stage
  * values): our choice, measured on the INVENTED normal-adult and heart-failure demo tests exported as 10-, 15- and 30-s
  * bins and compared with the same tests' breaths (answers known by construction; breaths 27.9 and 12.7 bpm at 1 min).
@@ -172,7 +181,7 @@ export function heartRateIndices(test: ConditionedTest, options: HeartRateOption
   const recovery = (afterS: number, abnormalAt: number, sourceId: string): { m: Measured; abnormal: boolean | null } => {
     const prov = provenanceOf(
       `hr-recovery-${afterS}s`,
-      `HR recovery: peak HR − HR ${afterS} s after the end of exercise (interpolated)`,
+      `HR recovery: peak HR − HR ${afterS} s after the end of exercise (interpolated); the ≤ ${abnormalAt} bpm cut-off was set with ${HR_RECOVERY_PROTOCOL[sourceId]}, so after another kind of recovery read it with care`,
       [sourceId],
       {
         window: end ? { startS: end.readS, endS: end.readS + afterS } : undefined,

@@ -13,7 +13,7 @@ export const THRESHOLD_SOURCES = defineSources({
   },
   "implementation-choice": {
     citation: "Implementation choice of this software, stated in the method label (no published source)",
-    status: "common-practice",
+    status: "our-choice",
     note: "Used for windows, tolerances and classification rules that no source fixes; see lib/thresholds/README.md.",
   },
   "jacc-hf-2020-peak-rer": {

@@ -5,7 +5,7 @@ import type { MethodEstimate, MethodQuality, ThresholdSeries } from "./threshold
 export interface VSlopeOptions {
   /** Last time included, s (data above the RCP are excluded). @default series.span.endS */
   endS?: number;
-  /** Fewest bins in each segment. @default 4 */
+  /** Fewest bins in each segment. @default 5 (our choice) */
   minPointsEachSide?: number;
   /** Lowest acceptable S1 (recalled rule). @default 0.6 */
   minS1?: number;
@@ -106,6 +106,8 @@ export function vSlope(series: ThresholdSeries, options: VSlopeOptions = {}): Me
     reasons.push("not determinable: the two lines cross outside the measured VO2 range");
     quality = "failed";
   }
+  // quality grading (our choice, no published source): S1 within 0.8–1.15 of a lower slope near 1, and a breakpoint
+  // F ≥ 10, count towards "good"; the acceptance rules above (S1 ≥ 0.6, S2 − S1 ≥ 0.1) are Beaver 1986's (recalled)
   if (quality !== "failed") {
     if (s1 < 0.8 || s1 > 1.15) {
       quality = "fair";

@@ -16,7 +16,7 @@ import { readAtTime, readAtTimeMode, type ReadAtTimeOptions } from "./valuesAtTh
 export const BOHR_ENGHOFF_CONSTANT = 863;
 
 /**
- * Where a sample placed by its label is read, seconds (our choice, common practice): a resting or warm-up sample over
+ * Where a sample placed by its label is read, seconds (our choice): a resting or warm-up sample over
  * the last minute of that phase, a peak or stage sample over the last 30 s of exercise or of the stage (where an
  * arterial sample "at peak" is drawn).
  */

@@ -9,7 +9,8 @@ import patterns from "../../reference-equations/interpretation/patterns.json";
 import schemes from "../../reference-equations/interpretation/schemes.json";
 import variability from "../../reference-equations/interpretation/variability.json";
 
-const STATUSES = ["confirmed", "secondary", "recalled", "common-practice"];
+// the statuses of lib/core/source.ts: "our-choice" marks a setting of this software that no source fixes
+const STATUSES = ["confirmed", "secondary", "recalled", "common-practice", "our-choice"];
 const raw = { choices, rules, derived, effort, flow, patterns, schemes, variability };
 
 describe("interpretation data files", () => {

@@ -125,6 +125,9 @@ describe("renderReportPdf", () => {
     expect(all).toContain("Peak VO2"); // "VO₂" sanitised
     expect(all).toContain(">= 80 %"); // "≥" sanitised
     expect(all).toContain("[3] Beaver WL, Wasserman K, Whipp BJ. J Appl Physiol 1986;60:2020-2027 - evidence: confirmed");
+    // statuses in words, not as stored ("common-practice")
+    expect(all).toContain("- evidence: common practice");
+    expect(all).not.toContain("common-practice");
     expect(all).toContain("V-slope: VCO2 against VO2"); // chart title drawn from the SVG
     expect(all).not.toContain("₂");
   });

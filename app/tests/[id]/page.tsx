@@ -1,7 +1,7 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { analyse } from "@/lib/analysis";
-import type { Measured } from "@/lib/core";
+import { EVIDENCE_LABEL, type Measured } from "@/lib/core";
 import { EQUATIONS } from "@/lib/predicted";
 import { ATRIAL_FIBRILLATION_HR_NOTE, heartRateNotes, listCutoffChoices } from "@/lib/interpret";
 import { analysisCharts, bandNote } from "@/lib/report";
@@ -229,7 +229,9 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                   ) : null}
                 </td>
                 <td className="how">
-                  {c.predicted ? `${c.predicted.equationLabel} (${c.predicted.status})` : "no applicable equation"}
+                  {c.predicted
+                    ? `${c.predicted.equationLabel} (${EVIDENCE_LABEL[c.predicted.status]})`
+                    : "no applicable equation"}
                   {(c.predicted?.issues ?? [])
                     .filter((i) => i.severity !== "info")
                     .map((i) => (
@@ -564,7 +566,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
             <strong>{s.title}:</strong> {s.text}
             {s.checks.map((c) => (
               <div key={c.ruleId} className="how">
-                {c.text} <span className="tag">{c.status}</span>
+                {c.text} <span className="tag">{EVIDENCE_LABEL[c.status]}</span>
               </div>
             ))}
           </li>
@@ -592,7 +594,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
               <tr key={pt.patternId}>
                 <td>
                   {pt.statement}
-                  <div className="how">evidence: {pt.status}</div>
+                  <div className="how">evidence: {EVIDENCE_LABEL[pt.status]}</div>
                 </td>
                 <td className="nowrap">{pt.support.replace(/-/g, " ")}</td>
                 <td className="how">{pt.for.map((f) => outcomeOf(f.text)).join("; ") || "—"}</td>
@@ -608,7 +610,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         {result.interpretation.schemes.map((s) => (
           <section key={s.schemeId} className="panel">
             <h3 style={{ marginTop: 0 }}>
-              {s.name} <span className="tag">{s.status}</span>
+              {s.name} <span className="tag">{EVIDENCE_LABEL[s.status]}</span>
             </h3>
             {s.overall ? (
               <p>

@@ -1,4 +1,5 @@
 import "server-only";
+import { EVIDENCE_LABEL } from "../../core";
 import { displayUnit } from "../../units";
 import pdfmake from "pdfmake";
 import type { Content, TableCell, TDocumentDefinitions } from "pdfmake/interfaces";
@@ -285,7 +286,7 @@ export async function renderReportPdf(rawModel: ReportModel): Promise<Buffer> {
     model.sources.length
       ? {
           stack: model.sources.map((s, i) => ({
-            text: [`[${i + 1}] ${s.citation}`, { text: ` - evidence: ${s.status}`, color: MUTED }],
+            text: [`[${i + 1}] ${s.citation}`, { text: ` - evidence: ${EVIDENCE_LABEL[s.status]}`, color: MUTED }],
             margin: [0, 0, 0, 2],
           })),
           fontSize: 8,

@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { EVIDENCE_LABEL } from "@/lib/core";
 import { notFound } from "next/navigation";
 import { Chart } from "../../../components/Chart";
 import { IssueList } from "../../../components/IssueList";
@@ -171,7 +172,7 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
       <ol data-testid="report-sources">
         {model.sources.map((s) => (
           <li key={s.id}>
-            {s.citation} <span className="tag">evidence: {s.status}</span>
+            {s.citation} <span className="tag">evidence: {EVIDENCE_LABEL[s.status]}</span>
           </li>
         ))}
       </ol>
