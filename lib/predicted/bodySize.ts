@@ -18,7 +18,7 @@ export interface BodySize {
   predictedWeightKg: number | null;
 }
 
-/** Obesity threshold, kg/m² (WHO definition; common practice). */
+/** Obesity threshold, kg/m² (WHO 2000 definition, source `who-bmi`: recalled citation of a common-practice value). */
 export const OBESITY_BMI_KG_M2 = 30;
 
 export function bodySize(patient: Patient): BodySize {
