@@ -98,6 +98,11 @@ export interface ReportModel {
   caution: string;
   /** Draft caution, shown while status is "draft". */
   draftMark: string;
+  /**
+   * The version's place in the report's history (number, the signed version it revises, a newer version that amends
+   * it), shown on the page and in every PDF page header; set when the report is loaded, not kept with the signature.
+   */
+  versionNote?: string;
   keyValues: ReportRow[];
   thresholds: ReportRow[];
   charts: ChartSpec[];

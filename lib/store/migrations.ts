@@ -107,4 +107,14 @@ export const MIGRATIONS: { id: number; name: string; sql: string }[] = [
       alter table reports add column revision integer not null default 0;
     `,
   },
+  {
+    id: 5,
+    name: "freeze_the_signed_report",
+    // What was signed is kept as signed: the whole report (values, charts, text, sources) as JSON, written by the same
+    // statement that signs, so a later engine, equation file or setting cannot change a signed report's page or PDF.
+    // Versions signed before this migration have none and are rebuilt from their pinned record and settings.
+    sql: `
+      alter table reports add column signed_model_json text;
+    `,
+  },
 ];

@@ -27,6 +27,8 @@ export interface StoredReport {
    * signature from a page opened before someone else's save is refused instead of overwriting that text.
    */
   revision: number;
+  /** The report exactly as signed (a `ReportModel` as JSON), null for drafts and versions signed before it was kept. */
+  signedModelJson: string | null;
 }
 
 /** JSON kept in `reports.draft_json`. */
@@ -46,6 +48,7 @@ interface ReportRow {
   created_at: string;
   version: number;
   revision: number;
+  signed_model_json: string | null;
 }
 
 const now = () => new Date().toISOString();
@@ -66,6 +69,7 @@ function toReport(row: ReportRow): StoredReport {
     attestation: json.attestation ?? null,
     createdAt: row.created_at,
     revision: row.revision,
+    signedModelJson: row.signed_model_json ?? null,
   };
 }
 
@@ -138,9 +142,15 @@ export type SignResult = { ok: true; report: StoredReport } | { ok: false; reaso
 /**
  * Sign a draft: status becomes "signed" with the signer's name, the time and the attestation they
  * confirmed; from then on the version is immutable. Signing a missing or already signed version is
- * refused with a reason (audit: `report-signed`).
+ * refused with a reason (audit: `report-signed`). `freeze`, given the version as it will read once signed, returns the
+ * whole report as JSON; it is stored by the same statement that signs (a signed row can no longer be updated).
  */
-export function signReport(reportId: number, signer: string, attestation: string): SignResult {
+export function signReport(
+  reportId: number,
+  signer: string,
+  attestation: string,
+  freeze?: (signed: StoredReport) => string,
+): SignResult {
   const db = getDb();
   return db.transaction((): SignResult => {
     const current = getReport(reportId);
@@ -148,11 +158,12 @@ export function signReport(reportId: number, signer: string, attestation: string
     if (current.status === "signed")
       return { ok: false, reason: `This version was already signed by ${current.signedBy} on ${current.signedAt}.` };
     const signedAt = now();
+    const frozen = freeze ? freeze({ ...current, status: "signed", signedBy: signer, signedAt, attestation }) : null;
     const info = db
       .prepare(
-        "update reports set status = 'signed', signed_by = ?, signed_at = ?, draft_json = ? where id = ? and status = 'draft'",
+        "update reports set status = 'signed', signed_by = ?, signed_at = ?, draft_json = ?, signed_model_json = ? where id = ? and status = 'draft'",
       )
-      .run(signer, signedAt, JSON.stringify({ sections: current.sections, attestation } satisfies DraftJson), reportId);
+      .run(signer, signedAt, JSON.stringify({ sections: current.sections, attestation } satisfies DraftJson), frozen, reportId);
     if (info.changes !== 1) return { ok: false, reason: "This version could not be signed; reload the page." };
     audit(signer, "report-signed", current.testId, `report ${reportId} (version ${current.version}): ${attestation}`);
     return { ok: true, report: getReport(reportId)! };

@@ -4,6 +4,7 @@
  * report; a draft saved from a page opened before someone else's save is refused; the caution section cannot be signed
  * empty. SQLite in a temporary file; the test is the INVENTED normal-adult demo case (tests/fixtures/cases).
  */
+import { execFileSync } from "node:child_process";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
@@ -18,10 +19,11 @@ import { closeDb } from "../../lib/store/db";
 import { getReport, listReports } from "../../lib/store/reports";
 import { analysisRecord, getTest, listAnalysisVersions, saveTest, updateTestRecord } from "../../lib/store/tests";
 import { updatePatientDetails } from "../../lib/store/updatePatientDetails";
-import { loadReport } from "../../app/tests/[id]/report/loadReport";
+import { freezeReport, loadReport } from "../../app/tests/[id]/report/loadReport";
 import { saveDraftAction } from "../../app/tests/[id]/report/actions";
 import { DRAFT_CHANGED_ELSEWHERE } from "../../app/tests/[id]/report/schemas";
-import { signDraft } from "../../app/tests/[id]/report/signDraft";
+import { saveDraftChecked, signDraft } from "../../app/tests/[id]/report/signDraft";
+import { renderReportPdf } from "../../lib/report/pdf/renderReportPdf";
 
 let dir = "";
 let record: TestRecord;
@@ -69,7 +71,7 @@ const tables = (r: ReturnType<typeof loadReport>) =>
 describe("a signed report keeps the record it was signed on", () => {
   it("a corrected body mass makes a new analysis version and draft; the signed version still reads the old mass and values", () => {
     const { testId, first } = signedTest();
-    const peakPerKg = first.result.indices.peaks.vo2MlKgMin.value!;
+    const peakPerKg = first.result!.indices.peaks.vo2MlKgMin.value!;
     const before = listAnalysisVersions(testId).length;
     const weightKg = record.patient.weightKg!;
     const change = updatePatientDetails(
@@ -81,15 +83,15 @@ describe("a signed report keeps the record it was signed on", () => {
     expect(listAnalysisVersions(testId)).toHaveLength(before + 1); // one version, not two
     const again = loadReport(testId, first.report.id)!;
     expect(again.report.status).toBe("signed");
-    expect(again.record.patient.weightKg).toBe(weightKg);
-    expect(again.result.indices.peaks.vo2MlKgMin.value).toBe(peakPerKg);
+    expect(again.record!.patient.weightKg).toBe(weightKg);
+    expect(again.result!.indices.peaks.vo2MlKgMin.value).toBe(peakPerKg);
     expect(tables(again)).toBe(tables(first));
     const current = loadReport(testId)!;
     expect(current.report.id).not.toBe(first.report.id);
     expect(current.report.status).toBe("draft");
-    expect(current.record.patient.weightKg).toBe(weightKg + 15);
+    expect(current.record!.patient.weightKg).toBe(weightKg + 15);
     // the same VO2 over 15 kg more: per kg by weight / (weight + 15), as the arithmetic says
-    expect(current.result.indices.peaks.vo2MlKgMin.value!).toBeCloseTo((peakPerKg * weightKg) / (weightKg + 15), 6);
+    expect(current.result!.indices.peaks.vo2MlKgMin.value!).toBeCloseTo((peakPerKg * weightKg) / (weightKg + 15), 6);
   });
 
   it("the reviewer's signed text carried into the new draft lists the values the corrected mass changed", () => {
@@ -113,16 +115,16 @@ describe("a signed report keeps the record it was signed on", () => {
 
   it("spirometry entered after signing: the signed breathing reserve stays, the new draft reads the new FEV1", () => {
     const { testId, first } = signedTest();
-    const br = first.result.indices.breathingReserve.reservePercent.value;
+    const br = first.result!.indices.breathingReserve.reservePercent.value;
     const version = updateTestRecord(testId, { ...record, spirometry: { fev1L: 2.0 } }, "tester", "spirometry updated");
     expect(version).not.toBeNull();
     const signed = loadReport(testId, first.report.id)!;
-    expect(signed.result.indices.breathingReserve.reservePercent.value).toBe(br);
-    expect(signed.record.spirometry?.fev1L).toBe(4.2);
+    expect(signed.result!.indices.breathingReserve.reservePercent.value).toBe(br);
+    expect(signed.record!.spirometry?.fev1L).toBe(4.2);
     const current = loadReport(testId)!;
-    expect(current.record.spirometry?.fev1L).toBe(2.0);
+    expect(current.record!.spirometry?.fev1L).toBe(2.0);
     // MVV = FEV1 × 40 (the engine's default; Campbell 1982 — recalled attribution): half the FEV1, a smaller reserve
-    expect(current.result.indices.breathingReserve.reservePercent.value!).toBeLessThan(br!);
+    expect(current.result!.indices.breathingReserve.reservePercent.value!).toBeLessThan(br!);
     // the new draft carries the reviewer's signed text forward for re-checking
     expect(listReports(testId)).toHaveLength(2);
   });
@@ -137,11 +139,18 @@ describe("a signed report keeps the record it was signed on", () => {
 });
 
 describe("two pages on one draft", () => {
-  const form = (testId: number, reportId: number, revision: number, sections: { id: string; title: string; text: string }[]) => {
+  const form = (
+    testId: number,
+    reportId: number,
+    revision: number,
+    sections: { id: string; title: string; text: string }[],
+    shownStatus: "draft" | "signed" = "draft",
+  ) => {
     const f = new FormData();
     f.set("testId", String(testId));
     f.set("reportId", String(reportId));
     f.set("revision", String(revision));
+    f.set("shownStatus", shownStatus);
     for (const s of sections) {
       f.set(`title:${s.id}`, s.title);
       f.set(`section:${s.id}`, s.text);
@@ -194,5 +203,74 @@ describe("an older draft kept in the history", () => {
     const old = loadReport(testId, first.report.id)!;
     expect(old.report.status).toBe("draft");
     expect(old.model.draftMark).toMatch(new RegExp(`Superseded: version ${current.report.version} of this report is newer`));
+  });
+});
+
+describe("a signed report is kept as signed, and its history is marked", () => {
+  const signKept = (testId: number, report: { id: number; sections: ReportSection[]; revision: number }, by: string) =>
+    signDraft(
+      {
+        testId,
+        reportId: report.id,
+        revision: report.revision,
+        signer: by,
+        attestation: "reviewed",
+        sections: report.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: s.paragraphs })),
+        rechecked: [],
+      },
+      freezeReport(testId, report.id)!,
+    );
+
+  it("a version signed with its report is read back as signed, not recomputed", () => {
+    const testId = saveTest({ uploadId: null, label: "Kept (invented)", record, columns: [], issues: [] });
+    const first = loadReport(testId)!;
+    expect(signKept(testId, first.report, "Dr A Example").ok).toBe(true);
+    const kept = loadReport(testId, first.report.id)!;
+    expect(kept.result).toBeUndefined(); // nothing recomputed: an engine change cannot reach it
+    expect(kept.model.status).toBe("signed");
+    expect(kept.model.signedBy).toBe("Dr A Example");
+    expect(tables(kept)).toBe(tables(first));
+    expect(kept.model.engineVersion).toBe(first.model.engineVersion);
+    // the current report of the test is that signed version, shown as kept
+    expect(tables(loadReport(testId))).toBe(tables(first));
+    expect(loadReport(testId)!.model.signedBy).toBe("Dr A Example");
+  });
+
+  it("an amended report says so on every PDF page; the amendment names what it revises", async () => {
+    const testId = saveTest({ uploadId: null, label: "Amended (invented)", record, columns: [], issues: [] });
+    const v1 = loadReport(testId)!.report;
+    expect(signKept(testId, v1, "Dr A Example").ok).toBe(true);
+    const revised = saveDraftChecked({
+      testId,
+      reportId: v1.id,
+      revision: getReport(v1.id)!.revision,
+      shownStatus: "signed",
+      sections: v1.sections.map((s) => ({
+        id: s.id,
+        title: s.title,
+        paragraphs: s.id === "conclusion" ? ["Amended conclusion (invented)."] : s.paragraphs,
+      })),
+      rechecked: [],
+      actor: "tester",
+    });
+    expect(revised.ok).toBe(true);
+    const v2 = revised.ok ? revised.report : null;
+    // while the revision is a draft, the signed version stands and says a revision is in progress
+    expect(loadReport(testId, v1.id)!.model.versionNote).toMatch(/A revision \(version 2\) is in progress as an unsigned draft/);
+    expect(signKept(testId, v2!, "Dr B Example").ok).toBe(true);
+    const old = loadReport(testId, v1.id)!.model;
+    expect(old.versionNote).toMatch(
+      /^Version 1 of 2\. Amended: version 2, signed by Dr B Example on .+ UTC, replaces this report\.$/,
+    );
+    expect(loadReport(testId, v2!.id)!.model.versionNote).toMatch(/^Version 2 of 2\. Revises version 1, signed by Dr A Example/);
+    // every page of the old version's PDF (pdftotext, poppler: pages split at form feeds)
+    const file = path.join(dir, "amended.pdf");
+    fs.writeFileSync(file, await renderReportPdf(old));
+    const pages = execFileSync("pdftotext", [file, "-"])
+      .toString()
+      .split("\f")
+      .filter((p) => p.trim() !== "");
+    expect(pages.length).toBeGreaterThan(1);
+    for (const page of pages) expect(page.replace(/\s+/g, " ")).toMatch(/Amended: version 2, signed by Dr B Example/);
   });
 });

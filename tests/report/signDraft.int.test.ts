@@ -4,7 +4,8 @@ import { getOrCreateDraft, getReport, saveDraft } from "../../lib/store/reports"
 import { latestSettings, listAudit, saveAnalysisVersion, saveTest } from "../../lib/store/tests";
 import type { ReportSection } from "../../lib/report/reportModel";
 import { readSignForm } from "../../app/tests/[id]/report/schemas";
-import { mergeRecheck, signDraft } from "../../app/tests/[id]/report/signDraft";
+import { mergeRecheck, saveDraftChecked, signDraft } from "../../app/tests/[id]/report/signDraft";
+import { listReports } from "../../lib/store/reports";
 
 // INVENTED report text (not patient data).
 const generated: ReportSection[] = [
@@ -24,6 +25,7 @@ function signForm(testId: number, reportId: number, texts: Record<string, string
   const form = new FormData();
   form.set("testId", String(testId));
   form.set("reportId", String(reportId));
+  form.set("revision", String(getReport(reportId)?.revision ?? 0)); // the revision the page showed
   for (const s of generated) {
     form.set(`title:${s.id}`, s.title);
     form.set(`section:${s.id}`, texts[s.id]);
@@ -129,3 +131,140 @@ describe("signDraft: what is signed is exactly the text on screen (SQLite in mem
     expect(mergeRecheck(stored, onScreen, ["conclusion"])[0].recheck).toBeUndefined();
   });
 });
+
+/** A save as the page sends it: the version and revision it showed, and its text (INVENTED). */
+function save(testId: number, reportId: number, shownStatus: "draft" | "signed", conclusion: string, revision?: number) {
+  return saveDraftChecked({
+    testId,
+    reportId,
+    revision: revision ?? getReport(reportId)!.revision,
+    shownStatus,
+    sections: [
+      { id: "results", title: "Results", paragraphs: ["Peak VO2 1284 mL/min."] },
+      { id: "conclusion", title: "Conclusion", paragraphs: [conclusion] },
+    ],
+    rechecked: [],
+    actor: "tester",
+  });
+}
+
+describe("only the newest version is saved or signed; the sections are the version's own (SQLite in memory)", () => {
+  beforeEach(() => {
+    process.env.CPET_DB = ":memory:";
+    closeDb();
+  });
+  afterEach(() => closeDb());
+
+  it("two tabs revising one signed report: the second is refused, the first keeps its own draft", () => {
+    const { testId, draft } = newDraft();
+    expect(submit(signForm(testId, draft.id, { results: "a", conclusion: "b" })).ok).toBe(true);
+    const signedRevision = getReport(draft.id)!.revision;
+    // tab A revises the signed version: a new draft
+    const a = save(testId, draft.id, "signed", "TAB A", signedRevision);
+    expect(a.ok && a.newVersion).toBe(true);
+    const v2 = a.ok ? a.report : null;
+    // tab B, still showing the signed version, is refused: version 2 is newer
+    const b = save(testId, draft.id, "signed", "TAB B", signedRevision);
+    expect(!b.ok && b.errors.form).toMatch(
+      /a newer version of this report was made after this page was opened \(version 2, a draft\)/,
+    );
+    expect(listReports(testId)).toHaveLength(2);
+    // tab A's second save lands in its own draft, which is still the newest
+    const a2 = save(testId, v2!.id, "draft", "TAB A again");
+    expect(a2.ok).toBe(true);
+    expect(getReport(v2!.id)!.sections[1].paragraphs).toEqual(["TAB A again"]);
+  });
+
+  it("an older version can be neither saved nor signed once a newer one exists", () => {
+    const { testId, draft } = newDraft();
+    expect(submit(signForm(testId, draft.id, { results: "a", conclusion: "b" })).ok).toBe(true);
+    const v2 = save(testId, draft.id, "signed", "revision");
+    expect(v2.ok).toBe(true);
+    // a newer analysis made a third version; the page on version 2 can no longer write or sign it
+    const v2id = v2.ok ? v2.report.id : 0;
+    const newer = getOrCreateDraft(testId, saveNewAnalysis(testId), generated);
+    expect(newer.id).not.toBe(v2id);
+    const stale = save(testId, v2id, "draft", "late text");
+    expect(!stale.ok && stale.errors.form).toMatch(/newer version/);
+    const sign = submit(signForm(testId, v2id, { results: "x", conclusion: "y" }));
+    expect(!sign.ok && sign.errors.form).toMatch(/Not signed: a newer version/);
+  });
+
+  it("a draft signed in another tab is not silently revised by a stale page", () => {
+    const { testId, draft } = newDraft();
+    const opened = getReport(draft.id)!.revision;
+    expect(submit(signForm(testId, draft.id, { results: "a", conclusion: "b" })).ok).toBe(true);
+    const stale = save(testId, draft.id, "draft", "typed in the other tab", opened);
+    expect(!stale.ok && stale.errors.form).toMatch(
+      /this draft was signed after this page was opened \(version 1, signed by Dr A Example/,
+    );
+    expect(listReports(testId)).toHaveLength(1);
+  });
+
+  it("revising a signed version without changing it makes no new version", () => {
+    const { testId, draft } = newDraft();
+    expect(submit(signForm(testId, draft.id, { results: "Peak VO2 1284 mL/min.", conclusion: "same" })).ok).toBe(true);
+    const res = save(testId, draft.id, "signed", "same");
+    expect(!res.ok && res.errors.form).toMatch(/Nothing saved: the text is the same as the signed version/);
+    expect(listReports(testId)).toHaveLength(1);
+  });
+
+  it("a forged form: a missing revision, renamed or dropped sections, unknown ones are refused", () => {
+    const { testId, draft } = newDraft();
+    const noRevision = signForm(testId, draft.id, { results: "a", conclusion: "b" });
+    noRevision.delete("revision");
+    expect(readSignForm(noRevision).input).toBeNull();
+    // one invented section instead of the version's two
+    const forged = signForm(testId, draft.id, { results: "a", conclusion: "b" });
+    forged.delete("section:results");
+    forged.delete("title:results");
+    const r1 = submit(forged);
+    expect(!r1.ok && r1.errors.form).toMatch(/the sections sent are not this report's sections \(missing: “Results”\)/);
+    const extra = signForm(
+      testId,
+      draft.id,
+      { results: "a", conclusion: "b" },
+      { "section:normal": "Normal study.", "title:normal": "X" },
+    );
+    const r2 = submit(extra);
+    expect(!r2.ok && r2.errors.form).toMatch(/not in this report: normal/);
+    // a renamed title is not signed: the stored title is kept
+    const renamed = signForm(testId, draft.id, { results: "a", conclusion: "b" }, { "title:conclusion": "Conclusion (FORGED)" });
+    expect(submit(renamed).ok).toBe(true);
+    expect(getReport(draft.id)!.sections.map((x) => x.title)).toEqual(["Results", "Conclusion"]);
+  });
+
+  it("a name or text the PDF cannot show is refused before signing, naming the characters", () => {
+    const { testId, draft } = newDraft();
+    const res = submit(signForm(testId, draft.id, { results: "a", conclusion: "reviewed 🫀" }, { signer: "Dr 李明 Example" }));
+    expect(!res.ok && res.errors.form).toMatch(/cannot show 李 明 in the name, or 🫀 in the text/);
+    expect(getReport(draft.id)!.status).toBe("draft");
+    // letters with a stroke are written without it, not refused (Ł → L)
+    expect(submit(signForm(testId, draft.id, { results: "a", conclusion: "b" }, { signer: "Dr Łucja Example" })).ok).toBe(true);
+  });
+
+  it("the whole report as signed is kept with the signature, written by the signing statement", () => {
+    const { testId, draft } = newDraft();
+    const { input } = readSignForm(signForm(testId, draft.id, { results: "a", conclusion: "b" }));
+    let seen: { status: string; signedBy: string | null } | null = null;
+    const res = signDraft(input!, (signed) => {
+      seen = { status: signed.status, signedBy: signed.signedBy };
+      return JSON.stringify({ frozen: true, sections: signed.sections });
+    });
+    expect(res.ok).toBe(true);
+    expect(seen).toEqual({ status: "signed", signedBy: "Dr A Example" });
+    const stored = getReport(draft.id)!;
+    expect(JSON.parse(stored.signedModelJson!)).toEqual({ frozen: true, sections: stored.sections });
+    // a refused signature keeps nothing
+    const { testId: t2, draft: d2 } = newDraft();
+    const bad = signForm(t2, d2.id, { results: "a", conclusion: "b" }, { revision: "7" });
+    expect(signDraft(readSignForm(bad).input!, () => "{}").ok).toBe(false);
+    expect(getReport(d2.id)!.signedModelJson).toBeNull();
+  });
+});
+
+/** A second analysis version of the test (as a changed setting makes), returning its id. */
+function saveNewAnalysis(testId: number) {
+  saveAnalysisVersion(testId, { peakWindowS: 20 }, "0.0.0-test", "tester");
+  return latestSettings(testId)!.id;
+}

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { isWinAnsi, toWinAnsi } from "../../lib/report/pdf/toWinAnsi";
+import { isWinAnsi, toWinAnsi, unprintableInPdf } from "../../lib/report/pdf/toWinAnsi";
 
 // WinAnsiEncoding = Windows code page 1252 (PDF 1.7 reference, Annex D; common practice):
 // ASCII, Latin-1 0xA0-0xFF and the cp1252 extras such as — – … ‘ ’ “ ” € ™ •.
@@ -18,8 +18,11 @@ describe("toWinAnsi", () => {
     for (const ch of kept) expect(isWinAnsi(ch)).toBe(true);
   });
   it("strips accents outside cp1252 and replaces anything else with ?", () => {
-    expect(toWinAnsi("Łódź")).toBe("?ódz"); // Ł has no decomposition → ?; ó is Latin-1, kept; ź → z
+    // Ł has no Unicode decomposition: written as L (a letter with a stroke); ó is Latin-1, kept; ź → z
+    expect(toWinAnsi("Łódź")).toBe("Lódz");
     expect(toWinAnsi("心")).toBe("?");
+    // what would print as "?" is listed (the sign action refuses it), each character once
+    expect(unprintableInPdf("Łódź 心 心 ? 😀")).toEqual(["心", "😀"]);
     expect(toWinAnsi("a\u202Fb")).toBe("a b");
   });
   it("output is always WinAnsi", () => {

@@ -4,6 +4,7 @@ import { displayUnit } from "../../units";
 import pdfmake from "pdfmake";
 import type { Content, TableCell, TDocumentDefinitions } from "pdfmake/interfaces";
 import { renderChartSvg } from "../charts/renderChartSvg";
+import { SIGNER_NOT_VERIFIED } from "../caution";
 import type { ReportModel, ReportRow } from "../reportModel";
 import { toWinAnsi } from "./toWinAnsi";
 
@@ -163,6 +164,8 @@ function valuesTable(rows: ReportRow[], index: Map<string, number>): Content {
 export async function renderReportPdf(rawModel: ReportModel): Promise<Buffer> {
   const model = mapStrings(rawModel, toWinAnsi);
   const draft = model.status !== "signed";
+  // a signed report that a newer signed version amends says so in red on every page
+  const amended = !draft && /^Version \d+ of \d+\..*Amended:/.test(model.versionNote ?? "");
   const index = new Map(model.sources.map((s, i) => [s.id, i + 1]));
   const statusLine = draft
     ? "DRAFT - not signed"
@@ -298,12 +301,18 @@ export async function renderReportPdf(rawModel: ReportModel): Promise<Buffer> {
   content.push(
     draft
       ? { text: "Not signed.", bold: true, color: DRAFT_RED }
-      : { text: `Signed by ${model.signedBy ?? "(unknown)"} on ${formatSignedAt(model.signedAt)}.`, bold: true },
+      : {
+          stack: [
+            { text: `Signed by ${model.signedBy ?? "(unknown)"} on ${formatSignedAt(model.signedAt)}.`, bold: true },
+            { text: toWinAnsi(SIGNER_NOT_VERIFIED), color: MUTED, fontSize: 8 },
+          ],
+        },
   );
 
   const doc: TDocumentDefinitions = {
     pageSize: "A4",
-    pageMargins: [40, draft ? 74 : 54, 40, 52],
+    // room for the header: title and status, the version note (up to two lines), and the draft mark (up to three)
+    pageMargins: [40, (draft ? 74 : 54) + (model.versionNote ? 20 : 0), 40, 52],
     info: { title: model.title, creator: "cpet-desk", subject: draft ? "Draft CPET report" : "Signed CPET report" },
     defaultStyle: { font: "Helvetica", fontSize: 9.5, color: INK, lineHeight: 1.15 },
     styles: {
@@ -323,6 +332,17 @@ export async function renderReportPdf(rawModel: ReportModel): Promise<Buffer> {
           ],
         },
         { canvas: [{ type: "line", x1: 0, y1: 3, x2: CONTENT_WIDTH, y2: 3, lineWidth: 0.5, lineColor: RULE }] },
+        ...(model.versionNote
+          ? [
+              {
+                text: model.versionNote,
+                fontSize: 7.5,
+                color: amended ? DRAFT_RED : MUTED,
+                bold: amended,
+                margin: [0, 3, 0, 0],
+              } as Content,
+            ]
+          : []),
         ...(draft
           ? [{ text: model.draftMark, fontSize: 8.5, bold: true, color: DRAFT_RED, margin: [0, 4, 0, 0] } as Content]
           : []),

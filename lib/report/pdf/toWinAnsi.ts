@@ -65,6 +65,9 @@ const REPLACEMENTS: Record<string, string> = {
   "✘": "no",
 };
 
+/** Latin letters with a stroke or bar, which NFKD does not split into letter and mark (names: Łucja, Đorđe). */
+const STROKED_LETTERS: Record<string, string> = { Ł: "L", ł: "l", Đ: "D", đ: "d", Ħ: "H", ħ: "h", ı: "i", Ŧ: "T", ŧ: "t" };
+
 const SUBSCRIPT_DIGITS = "₀₁₂₃₄₅₆₇₈₉";
 const SUPERSCRIPT_DIGITS = "⁰¹²³⁴⁵⁶⁷⁸⁹";
 
@@ -99,8 +102,22 @@ export function toWinAnsi(text: string): string {
       if (word.length > 1 && /[a-z]$/i.test(word) && /^[\p{L}\p{N}]/u.test(chars[i + 1] ?? "")) out += " ";
       return;
     }
+    if (ch in STROKED_LETTERS) {
+      out += STROKED_LETTERS[ch];
+      return;
+    }
     const stripped = ch.normalize("NFKD").replace(/[\u0300-\u036f]/g, "");
     out += [...stripped].every(isWinAnsi) && stripped.length > 0 ? stripped : "?";
   });
+  return out;
+}
+
+/**
+ * The characters of `text` that the PDF cannot show at all (they would print as "?"): scripts and symbols outside the
+ * Western European set and the replacements above, such as Chinese characters or emoji. Each listed once, in order.
+ */
+export function unprintableInPdf(text: string): string[] {
+  const out: string[] = [];
+  for (const ch of text) if (toWinAnsi(ch) === "?" && ch !== "?" && !out.includes(ch)) out.push(ch);
   return out;
 }

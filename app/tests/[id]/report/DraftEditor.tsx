@@ -104,6 +104,7 @@ export function DraftEditor(props: {
       <input type="hidden" name="testId" value={props.testId} />
       <input type="hidden" name="reportId" value={props.reportId} />
       <input type="hidden" name="revision" value={props.revision} />
+      <input type="hidden" name="shownStatus" value={props.signed ? "signed" : "draft"} />
       {props.signed ? (
         <p className="how" data-testid="revise-note">
           This version is signed and cannot change. Saving edited text creates a new draft version; the signed version stays as it

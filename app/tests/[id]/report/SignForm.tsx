@@ -1,6 +1,7 @@
 "use client";
 
 import { startTransition, useActionState, useEffect, useState, type FormEvent } from "react";
+import { SIGNER_NOT_VERIFIED } from "@/lib/report/caution";
 import { signReportAction, type SignState } from "./actions";
 import { ATTESTATION } from "./schemas";
 
@@ -61,6 +62,7 @@ export function SignForm(props: {
           autoComplete="name"
         />
         {errors.signer ? <span className="sev-error">{errors.signer}</span> : null}
+        <span className="how">{SIGNER_NOT_VERIFIED}</span>
       </label>
       <label style={{ display: "flex", gap: "0.5rem", alignItems: "flex-start" }}>
         <input

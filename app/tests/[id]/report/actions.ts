@@ -1,9 +1,9 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
-import { getReport, saveDraft } from "@/lib/store/reports";
-import { DRAFT_CHANGED_ELSEWHERE, draftFormSchema, readSectionsForm, readSignForm, sectionErrors, toOnScreen } from "./schemas";
-import { mergeRecheck, signDraft } from "./signDraft";
+import { freezeReport } from "./loadReport";
+import { draftFormSchema, readSectionsForm, readSignForm, sectionErrors, toOnScreen } from "./schemas";
+import { saveDraftChecked, signDraft } from "./signDraft";
 
 export interface DraftState {
   /** The text as the user sent it, so nothing typed is lost when validation fails. */
@@ -25,25 +25,29 @@ export async function saveDraftAction(_prev: DraftState, form: FormData): Promis
     testId: form.get("testId"),
     reportId: form.get("reportId"),
     revision: form.get("revision") ?? undefined,
+    shownStatus: form.get("shownStatus") ?? undefined,
     sections,
   });
   if (!parsed.success) return { texts, errors: sectionErrors(parsed.error.issues, sections) };
   const { testId, reportId } = parsed.data;
-  const stored = getReport(reportId);
-  if (!stored || stored.testId !== testId) return { texts, errors: { form: "This report no longer exists; reload the page." } };
-  // checked and saved in one synchronous step: no other request runs between them
-  if (stored.status === "draft" && parsed.data.revision !== undefined && stored.revision !== parsed.data.revision)
-    return { texts, errors: { form: DRAFT_CHANGED_ELSEWHERE } };
-  const onScreen = toOnScreen(parsed.data.sections);
-  const saved = saveDraft(reportId, mergeRecheck(stored.sections, onScreen, rechecked), "local user");
-  if (!saved) return { texts, errors: { form: "This report no longer exists; reload the page." } };
+  // checked and saved in one transaction: no other request runs between them
+  const res = saveDraftChecked({
+    testId,
+    reportId,
+    revision: parsed.data.revision,
+    shownStatus: parsed.data.shownStatus,
+    sections: toOnScreen(parsed.data.sections),
+    rechecked,
+    actor: "local user",
+  });
+  if (!res.ok) return { texts, errors: res.errors };
   revalidatePath(`/tests/${testId}/report`);
   return {
     texts,
     rechecked,
     savedAt: new Date().toISOString(),
-    newVersion: saved.id !== reportId ? saved.version : undefined,
-    revision: saved.revision,
+    newVersion: res.newVersion ? res.report.version : undefined,
+    revision: res.report.revision,
   };
 }
 
@@ -73,7 +77,8 @@ export async function signReportAction(_prev: SignState, form: FormData): Promis
     }
     return { values, errors };
   }
-  const res = signDraft(input);
+  // the report as it will read once signed is kept with the signature, so it never changes afterwards
+  const res = signDraft(input, freezeReport(input.testId, input.reportId) ?? undefined);
   if (!res.ok) return { values, errors: res.errors };
   revalidatePath(`/tests/${input.testId}/report`);
   return { signed: true, textSaved: res.textSaved };

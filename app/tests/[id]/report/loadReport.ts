@@ -18,9 +18,10 @@ import type { TestRecord } from "@/lib/analysis";
 
 export interface LoadedReport {
   test: StoredTest;
-  /** The record this report version's analysis was made on (pinned by its analysis version). */
-  record: TestRecord;
-  result: AnalysisResult;
+  /** The record this report version's analysis was made on (pinned by its analysis version); absent when frozen. */
+  record?: TestRecord;
+  /** The analysis the report shows; absent for a version kept as signed (its model is read, not recomputed). */
+  result?: AnalysisResult;
   report: StoredReport;
   versions: StoredReport[];
   model: ReportModel;
@@ -70,6 +71,12 @@ export function loadReport(testId: number, reportId?: number): LoadedReport | nu
   if (reportId !== undefined) {
     report = getReport(reportId);
     if (!report || report.testId !== testId) return null;
+    // a version kept as signed is shown as it was signed, whatever the engine or data files are now
+    if (report.status === "signed" && report.signedModelJson) {
+      const versions = listReports(testId);
+      const model = withVersionNotes(JSON.parse(report.signedModelJson) as ReportModel, report, versions);
+      return { test, report, versions, model };
+    }
     const analysisId = report.analysisId;
     const settings = listAnalysisVersions(testId).find((v) => v.id === analysisId)?.settings ?? {};
     record = recordOf(test, analysisId);
@@ -86,12 +93,59 @@ export function loadReport(testId: number, reportId?: number): LoadedReport | nu
     record = test.record;
     result = analyse(record, latest.settings);
     report = getOrCreateDraft(testId, latest.id, firstDraftText(test, latest.id, result, record));
+    if (report.status === "signed" && report.signedModelJson) {
+      const versions = listReports(testId);
+      const model = withVersionNotes(JSON.parse(report.signedModelJson) as ReportModel, report, versions);
+      return { test, record, result, report, versions, model };
+    }
   }
-  const model = buildReportModel(result, record, test.label, report);
   const versions = listReports(testId); // newest first
-  // an older draft, kept in the history, says on every page that a newer analysis of the test replaced it
-  const newest = versions[0];
-  if (report.status === "draft" && newest && newest.id !== report.id)
-    model.draftMark = `${model.draftMark} Superseded: version ${newest.version} of this report is newer; do not use this draft.`;
+  const model = withVersionNotes(buildReportModel(result, record, test.label, report), report, versions);
   return { test, record, result, report, versions, model };
+}
+
+const day = (iso: string | null) => (iso ? `${iso.slice(0, 16).replace("T", " ")} UTC` : "an unknown time");
+
+/**
+ * What the version history says about this version, on the page and on every PDF page: its number; the signed version
+ * it revises; and, when a newer version exists, that it was amended (a newer signed version) or is being revised (a
+ * newer draft), or, for an older draft, that it must not be used. Written at load time: it tells what happened after
+ * signing and changes nothing that was signed.
+ */
+function withVersionNotes(model: ReportModel, report: StoredReport, versions: readonly StoredReport[]): ReportModel {
+  const newest = versions[0];
+  const newerSigned = versions.find((v) => v.id > report.id && v.status === "signed");
+  const earlierSigned = versions.find((v) => v.id < report.id && v.status === "signed");
+  const notes = [`Version ${report.version} of ${versions.length}.`];
+  if (earlierSigned)
+    notes.push(
+      `Revises version ${earlierSigned.version}, signed by ${earlierSigned.signedBy} on ${day(earlierSigned.signedAt)}.`,
+    );
+  let draftMark = model.draftMark;
+  if (report.status === "signed" && newerSigned)
+    notes.push(
+      `Amended: version ${newerSigned.version}, signed by ${newerSigned.signedBy} on ${day(newerSigned.signedAt)}, replaces this report.`,
+    );
+  else if (report.status === "signed" && newest && newest.id !== report.id)
+    notes.push(
+      `A revision (version ${newest.version}) is in progress as an unsigned draft; this signed version stands until it is signed.`,
+    );
+  if (report.status === "draft" && newest && newest.id !== report.id)
+    draftMark = `${draftMark} Superseded: version ${newest.version} of this report is newer; do not use this draft.`;
+  return { ...model, draftMark, versionNote: notes.join(" ") };
+}
+
+/**
+ * The function that turns a draft, as it will read once signed, into the report kept with the signature: built from
+ * the record and settings the draft's analysis version pinned. Null when the version does not exist or is of another test.
+ */
+export function freezeReport(testId: number, reportId: number): ((signed: StoredReport) => string) | null {
+  const found = getTest(testId);
+  const report = getReport(reportId);
+  if (!found?.record || !report || report.testId !== testId || report.status !== "draft") return null;
+  const test = found as StoredTest & { record: TestRecord };
+  const settings = listAnalysisVersions(testId).find((v) => v.id === report.analysisId)?.settings ?? {};
+  const record = recordOf(test, report.analysisId);
+  const result = analyse(record, settings);
+  return (signed) => JSON.stringify(buildReportModel(result, record, test.label, signed));
 }

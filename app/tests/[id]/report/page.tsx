@@ -1,5 +1,6 @@
 import Link from "next/link";
 import { EVIDENCE_LABEL } from "@/lib/core";
+import { SIGNER_NOT_VERIFIED } from "@/lib/report/caution";
 import { notFound } from "next/navigation";
 import { Chart } from "../../../components/Chart";
 import { IssueList } from "../../../components/IssueList";
@@ -38,6 +39,11 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
           {model.draftMark}
         </p>
       )}
+      {model.versionNote ? (
+        <p className="how" data-testid="version-note">
+          {model.versionNote}
+        </p>
+      ) : null}
       <div id={REPORT_NOTICE_SLOT} />
       {recheck.length ? (
         <p className="panel sev-warning" data-testid="recheck-banner">
@@ -155,6 +161,9 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
           <h2>Signature</h2>
           <p data-testid="signature">
             Signed by {model.signedBy} on {when(model.signedAt)}. <span className="how">{report.attestation}</span>
+          </p>
+          <p className="how" data-testid="signer-not-verified">
+            {SIGNER_NOT_VERIFIED}
           </p>
         </>
       ) : null}

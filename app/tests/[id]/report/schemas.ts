@@ -11,8 +11,13 @@ export const SECTION_MAX_CHARS = 4000;
 export const draftFormSchema = z.object({
   testId: z.coerce.number().int().positive(),
   reportId: z.coerce.number().int().positive(),
-  /** The draft's revision the page showed (`StoredReport.revision`); absent from forms of older pages. */
-  revision: z.coerce.number().int().min(0).optional(),
+  /** The revision of the version the page showed (`StoredReport.revision`): a save or signature without it is refused. */
+  revision: z
+    .string({ message: "The page sent no draft revision; reload the page" })
+    .regex(/^\d+$/, "The page sent no draft revision; reload the page")
+    .transform(Number),
+  /** Whether the page showed that version as a draft or as signed (a draft signed since is then not silently revised). */
+  shownStatus: z.enum(["draft", "signed"], { message: "The page did not say which version it showed; reload the page" }),
   sections: z
     .array(
       z.object({
@@ -124,7 +129,7 @@ export function readSignForm(
     input: {
       testId: d.testId,
       reportId: d.reportId,
-      ...(d.revision !== undefined ? { revision: d.revision } : {}),
+      revision: d.revision,
       signer: d.signer,
       attestation: ATTESTATION,
       sections: toOnScreen(d.sections),

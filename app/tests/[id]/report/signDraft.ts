@@ -1,8 +1,10 @@
 import "server-only";
 import type { ReportSection } from "@/lib/report/reportModel";
 import { getDb } from "@/lib/store/db";
-import { getReport, saveDraft, signReport, type StoredReport } from "@/lib/store/reports";
+import { unprintableInPdf } from "@/lib/report/pdf/toWinAnsi";
+import { getReport, listReports, saveDraft, signReport, type StoredReport } from "@/lib/store/reports";
 import { latestSettings } from "@/lib/store/tests";
+import { DRAFT_CHANGED_ELSEWHERE } from "./schemas";
 
 /** A section as the reviewer has it on screen (paragraphs already split). */
 export interface OnScreenSection {
@@ -28,9 +30,115 @@ export function mergeRecheck(
   });
 }
 
+class Refusal extends Error {
+  constructor(readonly errors: Record<string, string>) {
+    super("refused");
+  }
+}
+
 const sameText = (a: readonly ReportSection[], b: readonly ReportSection[]) =>
   JSON.stringify(a.map((s) => [s.id, s.title, s.paragraphs, s.recheck ?? null])) ===
   JSON.stringify(b.map((s) => [s.id, s.title, s.paragraphs, s.recheck ?? null]));
+
+/** When a version was made or signed, in words ("signed by Dr A on 2026-12-04 21:31 UTC", "a draft"). */
+function versionWords(r: StoredReport): string {
+  return r.status === "signed"
+    ? `version ${r.version}, signed by ${r.signedBy} on ${r.signedAt?.slice(0, 16).replace("T", " ")} UTC`
+    : `version ${r.version}, a draft`;
+}
+
+/**
+ * Checks every save and signature shares, inside their transaction: the version exists and is this test's, it is the
+ * test's newest version (a page left open on an older one would otherwise write text nobody sees again, or sign it),
+ * and the sections sent are this version's sections, in order. Returns the sections with the stored titles (a page
+ * cannot rename or add a section; the caution section cannot be dropped).
+ */
+function checkVersion(
+  testId: number,
+  reportId: number,
+  sent: readonly OnScreenSection[],
+  doing: "saved" | "signed",
+): { current: StoredReport; sections: OnScreenSection[] } {
+  const current = getReport(reportId);
+  if (!current)
+    throw new Refusal({
+      form: "This report version does not exist (it may belong to a database that was reset); reload the page.",
+    });
+  if (current.testId !== testId)
+    throw new Refusal({ form: `Not ${doing}: report version ${reportId} belongs to another test; reload the page.` });
+  const newest = listReports(testId)[0];
+  if (newest && newest.id !== current.id)
+    throw new Refusal({
+      form:
+        `Not ${doing}: a newer version of this report was made after this page was opened (${versionWords(newest)}), so ` +
+        `this page shows version ${current.version}, which is no longer the current one. Your text is still on screen: ` +
+        "copy what you need, reload the page, and bring your changes into the current version.",
+    });
+  const storedIds = current.sections.map((s) => s.id);
+  const sentIds = sent.map((s) => s.id);
+  if (storedIds.join("|") !== sentIds.join("|")) {
+    const missing = current.sections.filter((s) => !sentIds.includes(s.id)).map((s) => `“${s.title}”`);
+    const unknown = sentIds.filter((id) => !storedIds.includes(id));
+    throw new Refusal({
+      form:
+        `Not ${doing}: the sections sent are not this report's sections` +
+        (missing.length ? ` (missing: ${missing.join(", ")})` : "") +
+        (unknown.length ? ` (not in this report: ${unknown.join(", ")})` : "") +
+        (!missing.length && !unknown.length ? " (in another order)" : "") +
+        "; reload the page.",
+    });
+  }
+  const titles = new Map(current.sections.map((s) => [s.id, s.title]));
+  return { current, sections: sent.map((s) => ({ ...s, title: titles.get(s.id) ?? s.title })) };
+}
+
+export interface SaveDraftInput {
+  testId: number;
+  reportId: number;
+  /** The revision of the version the page showed. */
+  revision: number;
+  /** Whether the page showed that version as a draft or as signed. */
+  shownStatus: "draft" | "signed";
+  sections: OnScreenSection[];
+  rechecked: string[];
+  actor: string;
+}
+
+export type SaveDraftResult =
+  { ok: true; report: StoredReport; newVersion: boolean } | { ok: false; errors: Record<string, string> };
+
+/**
+ * Save the text on screen, atomically. A draft is updated in place; a signed version is revised into a new draft.
+ * Refused, with nothing written, when the version is not the test's newest, when a draft the page showed has been
+ * signed since, when the draft was saved elsewhere since (revision), when the sections are not the version's own, or
+ * when a revision of a signed version changes nothing.
+ */
+export function saveDraftChecked(input: SaveDraftInput): SaveDraftResult {
+  const db = getDb();
+  try {
+    return db.transaction((): SaveDraftResult => {
+      const { current, sections: sent } = checkVersion(input.testId, input.reportId, input.sections, "saved");
+      if (current.status === "signed" && input.shownStatus === "draft")
+        throw new Refusal({
+          form:
+            `Not saved: this draft was signed after this page was opened (${versionWords(current)}). Your text is still ` +
+            "on screen: copy what you need, reload the page to see the signed report, and revise it from there.",
+        });
+      if (current.status === "draft" && current.revision !== input.revision) throw new Refusal({ form: DRAFT_CHANGED_ELSEWHERE });
+      const sections = mergeRecheck(current.sections, sent, input.rechecked);
+      if (current.status === "signed" && sameText(current.sections, sections))
+        throw new Refusal({
+          form: "Nothing saved: the text is the same as the signed version, so no new version was made.",
+        });
+      const saved = saveDraft(current.id, sections, input.actor);
+      if (!saved) throw new Refusal({ form: "This report version does not exist; reload the page." });
+      return { ok: true, report: saved, newVersion: saved.id !== current.id };
+    })();
+  } catch (e) {
+    if (e instanceof Refusal) return { ok: false, errors: e.errors };
+    throw e;
+  }
+}
 
 export interface SignDraftInput {
   testId: number;
@@ -42,38 +150,32 @@ export interface SignDraftInput {
   /** Ids of carried-forward sections the reviewer confirmed as re-checked. */
   rechecked: string[];
   /** The draft revision the page showed; a different stored revision means someone saved since (refused). */
-  revision?: number;
+  revision: number;
 }
 
 export type SignDraftResult =
   { ok: true; report: StoredReport; textSaved: boolean } | { ok: false; errors: Record<string, string> };
 
-class Refusal extends Error {
-  constructor(readonly errors: Record<string, string>) {
-    super("sign refused");
-  }
-}
-
 /**
  * Sign exactly the text on screen, atomically: in one database transaction, the on-screen text is
- * saved into the draft version (when it differs from the stored text) and that version is signed.
- * Any refusal rolls the whole step back, so the stored draft never changes without a signature and
- * no other text than the one the reviewer attested can be signed. Refused (with reasons, nothing
- * changed) when the version is missing, of another test, already signed, written for an analysis
- * that is no longer the test's latest, or when a carried-forward section was not re-checked.
+ * saved into the draft version (when it differs from the stored text) and that version is signed, with the whole
+ * report as signed (`freeze`) kept beside it. Any refusal rolls the whole step back, so the stored draft never changes
+ * without a signature and no other text than the one the reviewer attested can be signed. Refused (with reasons,
+ * nothing changed) when the version is missing, of another test, not the test's newest, already signed, saved
+ * elsewhere since the page was opened, written for an analysis that is no longer the test's latest, when its sections
+ * are not the version's own, when a carried-forward section was not re-checked, or when the name or text holds
+ * characters the PDF cannot show.
  */
-export function signDraft(input: SignDraftInput): SignDraftResult {
+export function signDraft(input: SignDraftInput, freeze?: (signed: StoredReport) => string): SignDraftResult {
   const db = getDb();
   try {
     return db.transaction((): SignDraftResult => {
-      const current = getReport(input.reportId);
-      if (!current || current.testId !== input.testId)
-        throw new Refusal({ form: "This report no longer exists; reload the page." });
+      const { current, sections: sent } = checkVersion(input.testId, input.reportId, input.sections, "signed");
       if (current.status === "signed")
         throw new Refusal({
           form: `This version was already signed by ${current.signedBy} on ${current.signedAt}. Reload the page to see it.`,
         });
-      if (input.revision !== undefined && current.revision !== input.revision)
+      if (current.revision !== input.revision)
         throw new Refusal({
           form:
             "Not signed: this draft was saved elsewhere (another tab or another person) after this page was opened, so the " +
@@ -88,7 +190,7 @@ export function signDraft(input: SignDraftInput): SignDraftResult {
             "draft no longer matches the current values and cannot be signed. Your text is still on screen: save it with " +
             "“Save draft”, then reload the page to review the report for the current analysis.",
         });
-      const sections = mergeRecheck(current.sections, input.sections, input.rechecked);
+      const sections = mergeRecheck(current.sections, sent, input.rechecked);
       const pending = sections.filter((s) => s.recheck);
       if (pending.length) {
         const errors: Record<string, string> = {
@@ -104,10 +206,22 @@ export function signDraft(input: SignDraftInput): SignDraftResult {
           form: "Not signed: the “Caution” section is empty. A signed report keeps its clinical caution; write or restore it.",
           caution: "The caution may be reworded but not left empty.",
         });
+      // the signed PDF must show what was signed: characters it would print as "?" are refused, not garbled
+      const badName = unprintableInPdf(input.signer);
+      const badText = unprintableInPdf(sections.flatMap((s) => [s.title, ...s.paragraphs]).join("\n"));
+      if (badName.length || badText.length)
+        throw new Refusal({
+          form:
+            "Not signed: the PDF of the report uses a Western European character set and cannot show " +
+            [badName.length ? `${badName.join(" ")} in the name` : "", badText.length ? `${badText.join(" ")} in the text` : ""]
+              .filter(Boolean)
+              .join(", or ") +
+            ". Write them in Latin letters or leave them out; your text is still on screen.",
+        });
       const textSaved = !sameText(current.sections, sections);
       if (textSaved && !saveDraft(current.id, sections, input.signer))
-        throw new Refusal({ form: "This report no longer exists; reload the page." });
-      const signed = signReport(current.id, input.signer, input.attestation);
+        throw new Refusal({ form: "This report version does not exist; reload the page." });
+      const signed = signReport(current.id, input.signer, input.attestation, freeze);
       if (!signed.ok) throw new Refusal({ form: signed.reason });
       return { ok: true, report: signed.report, textSaved };
     })();
