@@ -89,7 +89,9 @@ export async function uploadTest(prev: UploadState, form: FormData): Promise<Upl
   if (built.record && spirometry) built.record.spirometry = spirometry;
   const id = saveTest({
     uploadId,
-    label: d.label || stored.fileName,
+    // without a label the register names the test by its upload time, not by the file name, which often holds the
+    // patient's name, birth date or number (the file name stays on the test's own pages for the physiologist)
+    label: d.label || `Test uploaded ${new Date().toISOString().slice(0, 16).replace("T", " ")} UTC`,
     record: built.record,
     columns: built.columns,
     issues: built.issues,

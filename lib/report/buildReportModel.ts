@@ -138,7 +138,7 @@ function testLine(result: AnalysisResult, record: TestRecord): string {
   const d = result.indices.peaks.testDurationS.value;
   if (d !== null) parts.push(`recording ${formatClock(d)} min:s`);
   parts.push(`${record.table.rows.length} ${record.table.shape === "breath" ? "breaths" : "rows"}`);
-  if (record.upload?.fileName) parts.push(`file ${record.upload.fileName}`);
+  // the upload's file name is not printed: carts and sites often put the patient's name, birth date or number in it
   return parts.join(", ");
 }
 

@@ -46,6 +46,17 @@ describe("buildReportModel", () => {
     expect(sections.map((x) => x.paragraphs.join(" ")).join(" ")).toMatch(/2500 mL\/min/);
   });
 
+  it("never prints the upload's file name, which often holds the patient's name, birth date or number", async () => {
+    // an INVENTED identifying file name
+    const record = {
+      ...(await rampRecord()),
+      upload: { fileName: "INVENTED_Doe_Jane_DOB1950-01-02_ID777.csv", sha256: "0", sizeBytes: 1 },
+    };
+    const model = buildReportModel(analyse(record), record, "Teaching case 7", { status: "draft", sections: [] });
+    expect(JSON.stringify(model)).not.toMatch(/Doe|DOB1950|ID777/);
+    expect(model.testLine).toMatch(/^cycle ergometer/);
+  });
+
   it("writes each slope's calibrated band beside it, at the slope's own precision", async () => {
     const record = await rampRecord();
     const result = analyse(record);
