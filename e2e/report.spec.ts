@@ -256,3 +256,37 @@ test("report: unsaved text survives Back and Forward and is restored with a noti
   await expect(page.getByTestId("restored-notice")).toHaveCount(0);
   expect(await page.evaluate(() => Object.keys(sessionStorage).filter((k) => k.startsWith("cpet-desk:unsaved")))).toEqual([]);
 });
+
+test("report: two tabs revising one signed report — the second is refused with its text kept; an amended version says so", async ({
+  browser,
+}) => {
+  const context = await browser.newContext();
+  const a = await context.newPage();
+  const b = await context.newPage();
+  const tabA = new ReportPage(a);
+  const testId = await tabA.openDemoReportByLabel(/pre-operative assessment/);
+  await tabA.sign("Dr E2E First");
+  await expect(a.getByTestId("signed-by")).toContainText("Signed by Dr E2E First");
+  // both tabs now show the signed version 1
+  await a.reload();
+  await b.goto(`/tests/${testId}/report`);
+  const tabB = new ReportPage(b);
+  await tabA.ready();
+  await tabB.ready();
+  for (const p of [a, b]) await p.getByText("Revise the text (creates a new draft version)").click();
+  // tab A revises first: a new draft version
+  await tabA.section("conclusion").fill("Revision typed in tab A (e2e).");
+  await tabA.saveDraft();
+  await expect(a.getByTestId("draft-mark")).toContainText("DRAFT");
+  // tab B, still on the signed version, is refused; its text stays on screen
+  await tabB.section("conclusion").fill("Revision typed in tab B (e2e).");
+  await tabB.saveDraft();
+  await expect(b.getByTestId("draft-error")).toContainText("a newer version of this report was made after this page was opened");
+  await expect(tabB.section("conclusion")).toHaveValue("Revision typed in tab B (e2e).");
+  // tab A signs its own revision; the first signed version now says on its PDF that it was amended
+  await tabA.sign("Dr E2E Second");
+  await expect(a.getByTestId("signed-text")).toContainText("Revision typed in tab A (e2e).");
+  await expect(a.getByTestId("version-note")).toContainText(/Revises version \d+, signed by Dr E2E First/);
+  await expect(a.getByTestId("signer-not-verified")).toContainText("not verified");
+  await context.close();
+});

@@ -39,11 +39,15 @@ export function FormMessages({ errors, ok }: { errors?: Record<string, string>; 
   return (
     <>
       {Object.entries(errors ?? {}).map(([k, msg]) => (
-        <span key={k} className="sev-error">
+        <span key={k} className="sev-error" role="alert">
           {msg}
         </span>
       ))}
-      {ok ? <span className="sev-info">{ok}</span> : null}
+      {ok ? (
+        <span className="sev-info" role="status">
+          {ok}
+        </span>
+      ) : null}
     </>
   );
 }

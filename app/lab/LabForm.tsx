@@ -22,12 +22,15 @@ export interface LabFormProps {
     defaultOptionId: string;
     options: { id: string; label: string }[];
   }[];
+  /** Which version of the lab defaults this page shows (`labDefaultsToken`), sent back with the save. */
+  labToken: string;
 }
 
-export function LabForm({ quantities, current, cutoffChoices }: LabFormProps) {
+export function LabForm({ quantities, current, cutoffChoices, labToken }: LabFormProps) {
   const [state, action, pending] = useActionState<LabFormState, FormData>(saveLab, {});
   return (
     <form action={action} className="stack" data-testid="lab-form" style={{ maxWidth: 960 }}>
+      <input type="hidden" name="labToken" value={labToken} />
       <h2>Predicted-value equations</h2>
       <table>
         <thead>

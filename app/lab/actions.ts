@@ -4,7 +4,7 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import type { AnalysisSettings } from "@/lib/analysis";
 import { LabSettingsSchema } from "@/lib/predicted";
-import { getLabDefaults, saveLabDefaults } from "@/lib/store/labSettings";
+import { getLabDefaults, labDefaultsToken, saveLabDefaults } from "@/lib/store/labSettings";
 
 export interface LabFormState {
   ok?: string;
@@ -22,6 +22,15 @@ export async function saveLab(_prev: LabFormState, form: FormData): Promise<LabF
   for (const [k, v] of form.entries()) if (typeof v === "string") values[k] = v;
   const parsed = formSchema.safeParse(values);
   if (!parsed.success) return { errors: Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0]), i.message])) };
+  if (values.labToken !== labDefaultsToken())
+    return {
+      errors: {
+        form:
+          "Not saved: the lab defaults were changed elsewhere (another tab or another person) after this page was opened, " +
+          "and saving now would undo that change. Note your choices, reload the page to see the current defaults, and " +
+          "make your change again.",
+      },
+    };
   const equations: Record<string, Record<string, string>> = {};
   const choices: Record<string, string> = {};
   for (const [k, v] of Object.entries(values)) {

@@ -1,6 +1,6 @@
 import { listCutoffChoices } from "@/lib/interpret";
 import { DEFAULT_LAB_SETTINGS, EQUATIONS, LAB_QUANTITIES, PREDICTED_QUANTITIES, sameConcept } from "@/lib/predicted";
-import { getLabDefaults } from "@/lib/store/labSettings";
+import { getLabDefaults, labDefaultsToken } from "@/lib/store/labSettings";
 import { LabForm } from "./LabForm";
 
 export const dynamic = "force-dynamic";
@@ -37,6 +37,7 @@ export default function LabSettingsPage() {
         quantities={quantities}
         current={{ equations, choices: current.interpret?.choices ?? {}, peakWindowS: current.peakWindowS ?? 30 }}
         cutoffChoices={listCutoffChoices()}
+        labToken={labDefaultsToken()}
       />
     </>
   );

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { makeIssue, PLAUSIBLE_LIMITS, type Issue, type PlausibleField, type Spirometry } from "../core";
+import { makeIssue, PLAUSIBLE_LIMITS, plausibilityProblem, type Issue, type PlausibleField, type Spirometry } from "../core";
 
 const within = (f: PlausibleField) => z.number().min(PLAUSIBLE_LIMITS[f].min).max(PLAUSIBLE_LIMITS[f].max).optional();
 
@@ -35,7 +35,7 @@ export function parseSpirometry(input: unknown): { spirometry: Spirometry | null
         makeIssue(
           "warning",
           "spirometry-invalid",
-          `Spirometry value ${key} = ${String(raw)} is not a plausible number and was left out.`,
+          `${plausibilityProblem(key as PlausibleField, typeof num === "number" ? num : NaN) ?? `${PLAUSIBLE_LIMITS[key as PlausibleField].label} is not a plausible number, got ${String(raw)}`}; it was left out.`,
           { field: key },
         ),
       );

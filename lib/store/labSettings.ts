@@ -10,6 +10,15 @@ export function getLabDefaults(): AnalysisSettings {
   return row ? (JSON.parse(row.settings_json) as AnalysisSettings) : {};
 }
 
+/**
+ * Which version of the lab defaults a page showed (the time of the last save, or "never"): the lab form sends it back, so
+ * a save from a page opened before another save is refused instead of silently undoing it.
+ */
+export function labDefaultsToken(): string {
+  const row = getDb().prepare("select updated_at from lab_settings where id = 1").get() as { updated_at: string } | undefined;
+  return row?.updated_at ?? "never";
+}
+
 export function saveLabDefaults(settings: AnalysisSettings, actor: string): void {
   getDb()
     .prepare(

@@ -27,9 +27,11 @@ afterEach(() => {
   fs.rmSync(dir, { recursive: true, force: true });
 });
 
-async function send(testId: number, deadSpace: string, barometricPressure = "") {
+async function send(testId: number, deadSpace: string, barometricPressure = "", token?: string) {
   const form = new FormData();
   form.set("testId", String(testId));
+  // the version of the test's details the page showed (a fresh page: the current one)
+  form.set("recordToken", token ?? getTest(testId)!.recordSha256!);
   form.set("protocol", "cycle ramp");
   form.set("apparatusDeadSpaceMl", deadSpace);
   form.set("barometricPressureMmHg", barometricPressure);
@@ -85,6 +87,7 @@ describe("apparatus dead space on the test-conduct form (invented case)", () => 
     });
     const form = new FormData();
     form.set("testId", String(testId));
+    form.set("recordToken", getTest(testId)!.recordSha256!);
     form.set("betaBlocker", "yes");
     form.set("atrialFibrillation", "no");
     form.set("stairClimbM", "22");
@@ -92,5 +95,27 @@ describe("apparatus dead space on the test-conduct form (invented case)", () => 
     const note = listAudit(testId).find((a) => a.action === "clinical-context-updated")!.detail!;
     expect(note).toBe("stair climb (m) 22; beta-blocker yes; atrial fibrillation no");
     expect(getTest(testId)!.record!.patient).toMatchObject({ betaBlocker: true, atrialFibrillation: false });
+  });
+
+  it("a save from a page opened before another save is refused, keeping the typed values and the other save", async () => {
+    const testId = saveTest({
+      uploadId: null,
+      label: "Two tabs (invented)",
+      record: await caseRecord("normal-adult"),
+      columns: [],
+      issues: [],
+    });
+    const opened = getTest(testId)!.recordSha256!; // both tabs show this version
+    expect((await send(testId, "120", "", opened)).ok).toMatch(/saved/); // tab A
+    const b = await send(testId, "", "700", opened); // tab B, stale
+    expect(b.errors?.form).toMatch(/changed elsewhere .* after this page was opened/);
+    expect(b.values?.barometricPressureMmHg).toBe("700");
+    expect(getTest(testId)!.record!.conduct).toMatchObject({ apparatusDeadSpaceMl: 120 });
+    expect(getTest(testId)!.record!.conduct?.barometricPressureMmHg).toBeUndefined();
+    // without a token the save is refused too (a page of an older build, or a hand-made request)
+    const form = new FormData();
+    form.set("testId", String(testId));
+    form.set("protocol", "x");
+    expect((await saveConduct({}, form)).errors?.form).toMatch(/did not say which version/);
   });
 });

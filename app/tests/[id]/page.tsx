@@ -171,7 +171,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         <a href="#settings">settings</a>
       </nav>
       <section className="panel" data-testid="effort">
-        <h3 style={{ marginTop: 0 }}>Test validity and effort</h3>
+        <h2 style={{ marginTop: 0 }}>Test validity and effort</h2>
         <p>
           <strong data-testid="effort-verdict">{effort.label}.</strong>{" "}
           {effort.peakConclusionsAllowed

@@ -13,7 +13,13 @@ function Messages({ state, testId }: { state: InputFormState; testId: string }) 
   return (
     <>
       {Object.entries(err).map(([k, m]) => (
-        <p key={k} className="sev-error" style={{ padding: "0.3rem", margin: "0.3rem 0" }} data-testid={`${testId}-error`}>
+        <p
+          key={k}
+          className="sev-error"
+          role="alert"
+          style={{ padding: "0.3rem", margin: "0.3rem 0" }}
+          data-testid={`${testId}-error`}
+        >
           {m}
         </p>
       ))}
@@ -133,13 +139,22 @@ export interface SpirometryValues {
   dlcoPctPred?: number;
 }
 
-export function SpirometryForm({ testId, current }: { testId: number; current: SpirometryValues }) {
+export function SpirometryForm({
+  testId,
+  current,
+  recordToken,
+}: {
+  testId: number;
+  current: SpirometryValues;
+  recordToken: string;
+}) {
   const [state, action, pending] = useForm(saveSpirometry);
   const v = state.values ?? {};
   const e = state.errors ?? {};
   return (
     <form action={action} className="stack" data-testid="spirometry-form" key={state.stamp ?? 0}>
       <input type="hidden" name="testId" value={testId} />
+      <input type="hidden" name="recordToken" value={recordToken} />
       <div className="row">
         <NumberField name="fev1L" label="FEV1 (L)" current={current.fev1L} values={v} error={e.fev1L} />
         <NumberField name="fvcL" label="FVC (L)" current={current.fvcL} values={v} error={e.fvcL} />
@@ -179,13 +194,14 @@ export interface ContextValues {
 
 const yn = (b: boolean | undefined) => (b === undefined ? "" : b ? "yes" : "no");
 
-export function ContextForm({ testId, current }: { testId: number; current: ContextValues }) {
+export function ContextForm({ testId, current, recordToken }: { testId: number; current: ContextValues; recordToken: string }) {
   const [state, action, pending] = useForm(saveContext);
   const v = state.values ?? {};
   const e = state.errors ?? {};
   return (
     <form action={action} className="stack" data-testid="context-form" key={state.stamp ?? 0}>
       <input type="hidden" name="testId" value={testId} />
+      <input type="hidden" name="recordToken" value={recordToken} />
       <div className="row">
         <label className={styles.label}>
           Ischaemic heart disease
@@ -267,7 +283,7 @@ export interface ConductValues {
   barometricPressureMmHg?: number;
 }
 
-export function ConductForm({ testId, current }: { testId: number; current: ConductValues }) {
+export function ConductForm({ testId, current, recordToken }: { testId: number; current: ConductValues; recordToken: string }) {
   const [state, action, pending] = useForm(saveConduct);
   const v = state.values ?? {};
   const e = state.errors ?? {};
@@ -275,6 +291,7 @@ export function ConductForm({ testId, current }: { testId: number; current: Cond
   return (
     <form action={action} className="stack" data-testid="conduct-form" key={state.stamp ?? 0}>
       <input type="hidden" name="testId" value={testId} />
+      <input type="hidden" name="recordToken" value={recordToken} />
       <div className="row">
         <label className={styles.label}>
           Protocol

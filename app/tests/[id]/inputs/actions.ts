@@ -6,6 +6,7 @@ import { importBloodGasFile, importLactateFile, parseSpirometry } from "@/lib/br
 import type { Issue } from "@/lib/core";
 import { audit, getTest, saveUpload, updateTestRecord } from "@/lib/store/tests";
 import { fieldErrors } from "../../../schemas";
+import { changedSince } from "../recordToken";
 import { conductSchema, contextSchema, fileFormSchema } from "./schemas";
 
 export interface InputFormState {
@@ -149,6 +150,8 @@ export async function saveSpirometry(_prev: InputFormState, form: FormData): Pro
   const testId = Number(values.testId);
   const record = Number.isInteger(testId) ? loadRecord(testId) : null;
   if (!record) return { errors: { form: "This test has no usable breath data yet." }, values, stamp };
+  const stale = changedSince(testId, values.recordToken);
+  if (stale) return { errors: { form: stale }, values, stamp };
   const { spirometry, issues } = parseSpirometry({
     fev1L: values.fev1L,
     fvcL: values.fvcL,
@@ -178,6 +181,8 @@ export async function saveContext(_prev: InputFormState, form: FormData): Promis
   const c = parsed.data;
   const record = loadRecord(c.testId);
   if (!record) return { errors: { form: "This test has no usable breath data yet." }, values, stamp };
+  const stale = changedSince(c.testId, values.recordToken);
+  if (stale) return { errors: { form: stale }, values, stamp };
   const yn = (x: "" | "yes" | "no") => (x === "" ? undefined : x === "yes");
   const context = {
     ischaemicHeartDisease: yn(c.ischaemicHeartDisease),
@@ -211,6 +216,8 @@ export async function saveConduct(_prev: InputFormState, form: FormData): Promis
   const { testId, ...c } = parsed.data;
   const record = loadRecord(testId);
   if (!record) return { errors: { form: "This test has no usable breath data yet." }, values, stamp };
+  const stale = changedSince(testId, values.recordToken);
+  if (stale) return { errors: { form: stale }, values, stamp };
   const conduct = dropUndefined({
     protocol: c.protocol || undefined,
     reasonForStopping: c.reasonForStopping || undefined,

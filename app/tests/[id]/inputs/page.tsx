@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getTest } from "@/lib/store/tests";
+import { recordToken } from "../recordToken";
 import { formatClock } from "@/lib/units";
 import styles from "../columns/columns.module.css";
 import { BloodGasForm, ConductForm, ContextForm, LactateForm, SpirometryForm } from "./InputForms";
@@ -14,6 +15,7 @@ export default async function InputsPage({ params }: { params: Promise<{ id: str
   const test = getTest(testId);
   if (!test) notFound();
   const record = test.record;
+  const token = recordToken(testId);
   if (!record) {
     return (
       <>
@@ -104,7 +106,7 @@ export default async function InputsPage({ params }: { params: Promise<{ id: str
 
       <h2>Resting spirometry</h2>
       <p className="how">Leave a box empty if the value is not known. A measured MVV is used for the breathing reserve.</p>
-      <SpirometryForm testId={testId} current={record.spirometry ?? {}} />
+      <SpirometryForm testId={testId} current={record.spirometry ?? {}} recordToken={token} />
 
       <h2>Clinical context and medication</h2>
       <ContextForm
@@ -115,10 +117,11 @@ export default async function InputsPage({ params }: { params: Promise<{ id: str
           atrialFibrillation: record.patient.atrialFibrillation,
           haemoglobinGDl: record.patient.haemoglobinGDl,
         }}
+        recordToken={token}
       />
 
       <h2>Test conduct</h2>
-      <ConductForm testId={testId} current={record.conduct ?? {}} />
+      <ConductForm testId={testId} current={record.conduct ?? {}} recordToken={token} />
     </>
   );
 }

@@ -12,6 +12,8 @@ export interface PatientFormProps {
   current: Record<"sex" | "ageY" | "heightCm" | "weightKg" | "ergometer" | "referral", string>;
   /** The file gives VO2 per kg: VO2 in mL/min is recomputed from the weight. */
   perKg: boolean;
+  /** The version of the test's details this page shows (`recordToken`): a save from a stale page is refused. */
+  recordToken: string;
 }
 
 const FIELDS: { name: "ageY" | "heightCm" | "weightKg"; label: string }[] = [
@@ -28,6 +30,7 @@ export function PatientForm(props: PatientFormProps) {
   return (
     <form action={action} key={state.stamp ?? 0} data-testid="patient-form" className="stack">
       <input type="hidden" name="testId" value={props.testId} />
+      <input type="hidden" name="recordToken" value={props.recordToken} />
       <div className="row">
         <label className={styles.label}>
           Sex
@@ -55,7 +58,13 @@ export function PatientForm(props: PatientFormProps) {
       </div>
       {["sex", "ageY", "heightCm", "weightKg", "ergometer", "referral", "form"].map((k) =>
         err[k] ? (
-          <p key={k} className="sev-error" data-testid={`patient-error-${k}`} style={{ padding: "0.4rem", margin: 0 }}>
+          <p
+            key={k}
+            className="sev-error"
+            role="alert"
+            data-testid={`patient-error-${k}`}
+            style={{ padding: "0.4rem", margin: 0 }}
+          >
             {err[k]}
           </p>
         ) : null,

@@ -4,6 +4,7 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { updatePatientDetails } from "@/lib/store/updatePatientDetails";
 import { fieldErrors, testDetailsSchema } from "../../../schemas";
+import { changedSince } from "../recordToken";
 
 export interface PatientFormState {
   ok?: string;
@@ -32,6 +33,8 @@ export async function savePatientDetails(_prev: PatientFormState, form: FormData
   const parsed = patientSchema.safeParse(values);
   if (!parsed.success) return { errors: fieldErrors(parsed.error), values, stamp };
   const d = parsed.data;
+  const stale = changedSince(d.testId, values.recordToken);
+  if (stale) return { errors: { form: stale }, values, stamp };
   const result = updatePatientDetails(
     d.testId,
     {

@@ -3,6 +3,7 @@ import { notFound } from "next/navigation";
 import { PLAUSIBLE_LIMITS } from "@/lib/core";
 import { getUploadDetails } from "@/lib/store/reimport";
 import { getTest, listAnalysisVersions } from "@/lib/store/tests";
+import { recordToken } from "../recordToken";
 import { PatientForm, type PatientFormProps } from "./PatientForm";
 
 export const dynamic = "force-dynamic";
@@ -46,7 +47,12 @@ export default async function PatientPage({ params }: { params: Promise<{ id: st
         Accepted ranges: {limits.map((l) => `${l.label} ${l.min}–${l.max}`).join(", ")}. Leave a field empty when it is not known.
       </p>
       <section className="panel">
-        <PatientForm testId={testId} current={current} perKg={test.record?.table.vo2PerKg === true} />
+        <PatientForm
+          testId={testId}
+          current={current}
+          perKg={test.record?.table.vo2PerKg === true}
+          recordToken={recordToken(testId)}
+        />
       </section>
     </>
   );

@@ -145,7 +145,11 @@ export function DraftEditor(props: {
           ) : null}
         </div>
       ))}
-      {errors.form && !props.signErrors?.form ? <span className="sev-error">{errors.form}</span> : null}
+      {errors.form && !props.signErrors?.form ? (
+        <span className="sev-error" role="alert" data-testid="draft-error">
+          {errors.form}
+        </span>
+      ) : null}
       <div className="row">
         <button type="submit" disabled={pending} data-testid="draft-save">
           {pending ? "Saving…" : props.signed ? "Save as a new draft version" : "Save draft"}

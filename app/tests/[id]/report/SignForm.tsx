@@ -76,12 +76,12 @@ export function SignForm(props: {
       </label>
       {errors.attest ? <span className="sev-error">{errors.attest}</span> : null}
       {errors.text ? (
-        <span className="sev-error" data-testid="sign-error-text">
+        <span className="sev-error" role="alert" data-testid="sign-error-text">
           {errors.text}
         </span>
       ) : null}
       {errors.form ? (
-        <span className="sev-error" data-testid="sign-error">
+        <span className="sev-error" role="alert" data-testid="sign-error">
           {errors.form}
         </span>
       ) : null}

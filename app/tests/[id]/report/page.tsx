@@ -4,6 +4,7 @@ import { SIGNER_NOT_VERIFIED } from "@/lib/report/caution";
 import { notFound } from "next/navigation";
 import { Chart } from "../../../components/Chart";
 import { IssueList } from "../../../components/IssueList";
+import { TableScroll } from "../../../components/TableScroll";
 import { DraftWorkspace } from "./DraftWorkspace";
 import { loadReport } from "./loadReport";
 import { ReportValuesTable } from "./ReportValuesTable";
@@ -70,10 +71,10 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
       </section>
 
       <h2>Key values</h2>
-      <ReportValuesTable rows={model.keyValues} sourceNumber={sourceNumber} testId="report-key-values" />
+      <ReportValuesTable rows={model.keyValues} sourceNumber={sourceNumber} testId="report-key-values" label="Key values" />
       <h2>Thresholds</h2>
       {model.thresholds.length ? (
-        <ReportValuesTable rows={model.thresholds} sourceNumber={sourceNumber} testId="report-thresholds" />
+        <ReportValuesTable rows={model.thresholds} sourceNumber={sourceNumber} testId="report-thresholds" label="Thresholds" />
       ) : (
         <p className="how">No thresholds in this version of the analysis.</p>
       )}
@@ -92,28 +93,30 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
       {model.path.length ? (
         <>
           <h2>Interpretation path</h2>
-          <table data-testid="report-path">
-            <thead>
-              <tr>
-                <th>Step</th>
-                <th>Variable</th>
-                <th>Value</th>
-                <th>Cut-off</th>
-                <th>Outcome</th>
-              </tr>
-            </thead>
-            <tbody>
-              {model.path.map((p) => (
-                <tr key={p.step}>
-                  <td>{p.step}</td>
-                  <td>{p.variable}</td>
-                  <td>{p.value}</td>
-                  <td>{p.cutoff}</td>
-                  <td>{p.outcome}</td>
+          <TableScroll label="Interpretation path">
+            <table data-testid="report-path" className="wide">
+              <thead>
+                <tr>
+                  <th>Step</th>
+                  <th>Variable</th>
+                  <th>Value</th>
+                  <th>Cut-off</th>
+                  <th>Outcome</th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody>
+                {model.path.map((p) => (
+                  <tr key={p.step}>
+                    <td>{p.step}</td>
+                    <td>{p.variable}</td>
+                    <td>{p.value}</td>
+                    <td>{p.cutoff}</td>
+                    <td>{p.outcome}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </TableScroll>
         </>
       ) : null}
       {model.schemes.length ? (
