@@ -104,6 +104,14 @@ test("patient details are corrected on their own page: limits enforced, typed va
   await expect(page.getByTestId("patient-error-ageY")).toHaveText("Age (years) must be at most 110");
   await expect(page.getByTestId("patient-ageY")).toHaveValue("400");
   await expect(page.getByTestId("patient-heightCm")).toHaveValue("181");
+  // a reload after the refusal keeps what was typed, says so, and offers to drop it
+  await page.reload();
+  await expect(page.getByTestId("patient-restored")).toContainText("were not saved and have been put back");
+  await expect(page.getByTestId("patient-ageY")).toHaveValue("400");
+  await expect(page.getByTestId("patient-heightCm")).toHaveValue("181");
+  await page.getByTestId("patient-restored").getByRole("button", { name: "Discard them" }).click();
+  await expect(page.getByTestId("patient-ageY")).toHaveValue("50");
+  await page.getByTestId("patient-heightCm").fill("181");
 
   await page.getByTestId("patient-ageY").fill("51");
   await page.getByTestId("patient-weightKg").fill("100");

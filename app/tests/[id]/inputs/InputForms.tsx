@@ -1,6 +1,7 @@
 "use client";
 
-import { useActionState } from "react";
+import { useActionState, useRef } from "react";
+import { useKeptForm } from "../../../components/useKeptForm";
 import type { Issue } from "@/lib/core";
 import styles from "../columns/columns.module.css";
 import { ImportIssueTable } from "../columns/ImportIssueTable";
@@ -32,6 +33,19 @@ function Messages({ state, testId }: { state: InputFormState; testId: string }) 
         <ImportIssueTable issues={state.issues as Issue[]} testId={`${testId}-issues`} />
       ) : null}
     </>
+  );
+}
+
+/** Said when values typed earlier and not saved were put back on the form (`useKeptForm`). */
+function KeptNotice({ kept }: { kept: ReturnType<typeof useKeptForm> }) {
+  if (!kept.restored) return null;
+  return (
+    <p className="panel sev-warning" role="status" data-testid="form-restored">
+      Values you typed here earlier were not saved and have been put back.{" "}
+      <button type="button" className="secondary" onClick={kept.discard}>
+        Discard them
+      </button>
+    </p>
   );
 }
 
@@ -149,10 +163,13 @@ export function SpirometryForm({
   recordToken: string;
 }) {
   const [state, action, pending] = useForm(saveSpirometry);
+  const formRef = useRef<HTMLFormElement>(null);
+  const kept = useKeptForm(formRef, `spirometry-${testId}`, state.stamp ?? 0, Boolean(state.errors));
   const v = state.values ?? {};
   const e = state.errors ?? {};
   return (
-    <form action={action} className="stack" data-testid="spirometry-form" key={state.stamp ?? 0}>
+    <form action={action} className="stack" data-testid="spirometry-form" key={state.stamp ?? 0} ref={formRef}>
+      <KeptNotice kept={kept} />
       <input type="hidden" name="testId" value={testId} />
       <input type="hidden" name="recordToken" value={recordToken} />
       <div className="row">
@@ -196,10 +213,13 @@ const yn = (b: boolean | undefined) => (b === undefined ? "" : b ? "yes" : "no")
 
 export function ContextForm({ testId, current, recordToken }: { testId: number; current: ContextValues; recordToken: string }) {
   const [state, action, pending] = useForm(saveContext);
+  const formRef = useRef<HTMLFormElement>(null);
+  const kept = useKeptForm(formRef, `context-${testId}`, state.stamp ?? 0, Boolean(state.errors));
   const v = state.values ?? {};
   const e = state.errors ?? {};
   return (
-    <form action={action} className="stack" data-testid="context-form" key={state.stamp ?? 0}>
+    <form action={action} className="stack" data-testid="context-form" key={state.stamp ?? 0} ref={formRef}>
+      <KeptNotice kept={kept} />
       <input type="hidden" name="testId" value={testId} />
       <input type="hidden" name="recordToken" value={recordToken} />
       <div className="row">
@@ -285,11 +305,14 @@ export interface ConductValues {
 
 export function ConductForm({ testId, current, recordToken }: { testId: number; current: ConductValues; recordToken: string }) {
   const [state, action, pending] = useForm(saveConduct);
+  const formRef = useRef<HTMLFormElement>(null);
+  const kept = useKeptForm(formRef, `conduct-${testId}`, state.stamp ?? 0, Boolean(state.errors));
   const v = state.values ?? {};
   const e = state.errors ?? {};
   const text = (name: keyof ConductValues) => v[name] ?? (current[name] !== undefined ? String(current[name]) : "");
   return (
-    <form action={action} className="stack" data-testid="conduct-form" key={state.stamp ?? 0}>
+    <form action={action} className="stack" data-testid="conduct-form" key={state.stamp ?? 0} ref={formRef}>
+      <KeptNotice kept={kept} />
       <input type="hidden" name="testId" value={testId} />
       <input type="hidden" name="recordToken" value={recordToken} />
       <div className="row">

@@ -1,7 +1,8 @@
 "use client";
 
 import Link from "next/link";
-import { useActionState } from "react";
+import { useActionState, useRef } from "react";
+import { useKeptForm } from "../../../components/useKeptForm";
 import { ErgometerReferralFields } from "../../../components/ErgometerReferralFields";
 import styles from "../columns/columns.module.css";
 import { savePatientDetails, type PatientFormState } from "./actions";
@@ -27,8 +28,18 @@ export function PatientForm(props: PatientFormProps) {
   // After a refused save the typed values are shown again; after a save the page's new values are.
   const v = { ...props.current, ...state.values };
   const err = state.errors ?? {};
+  const formRef = useRef<HTMLFormElement>(null);
+  const kept = useKeptForm(formRef, `patient-${props.testId}`, state.stamp ?? 0, Boolean(state.errors));
   return (
-    <form action={action} key={state.stamp ?? 0} data-testid="patient-form" className="stack">
+    <form action={action} key={state.stamp ?? 0} ref={formRef} data-testid="patient-form" className="stack">
+      {kept.restored ? (
+        <p className="panel sev-warning" role="status" data-testid="patient-restored">
+          Values you typed here earlier were not saved and have been put back.{" "}
+          <button type="button" className="secondary" onClick={kept.discard}>
+            Discard them
+          </button>
+        </p>
+      ) : null}
       <input type="hidden" name="testId" value={props.testId} />
       <input type="hidden" name="recordToken" value={props.recordToken} />
       <div className="row">
