@@ -104,8 +104,11 @@ test("report: edit the draft, keep text through validation, sign, download the P
   await expect(page.getByText("Confirm that you have reviewed the report")).toBeVisible();
   await expect(page.getByTestId("signer")).toHaveValue("Dr E2E Reviewer");
   await expect(page.getByTestId("attest")).not.toBeChecked();
+  // the keyboard focus goes to the reason, not back to the top of the page
+  await expect(page.getByTestId("sign-refusal")).toBeFocused();
   await report.sign("Dr E2E Reviewer");
   await expect(page.getByTestId("signed-by")).toContainText("Signed by Dr E2E Reviewer");
+  await expect(page.getByTestId("signed-by")).toBeFocused();
   await expect(page.getByTestId("draft-mark")).toHaveCount(0);
   await expect(page.getByTestId("signed-text")).toContainText("Reviewer's interpretation (e2e)");
   await page.screenshot({ path: "reports/screenshots/report-signed.png", fullPage: true });

@@ -149,6 +149,13 @@ export function DraftWorkspace(props: {
     }
   }, []);
 
+  // once this draft is signed, the keyboard focus goes to the signature line (the sign button it was on is gone)
+  const wasSigned = useRef(props.signed);
+  useEffect(() => {
+    if (props.signed && !wasSigned.current) document.getElementById("signed-by")?.focus();
+    wasSigned.current = props.signed;
+  }, [props.signed]);
+
   useEffect(() => {
     if (!dirty) return;
     const beforeUnload = (e: BeforeUnloadEvent) => {

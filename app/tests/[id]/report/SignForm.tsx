@@ -1,6 +1,6 @@
 "use client";
 
-import { startTransition, useActionState, useEffect, useState, type FormEvent } from "react";
+import { startTransition, useActionState, useEffect, useRef, useState, type FormEvent } from "react";
 import { SIGNER_NOT_VERIFIED } from "@/lib/report/caution";
 import { signReportAction, type SignState } from "./actions";
 import { ATTESTATION } from "./schemas";
@@ -29,6 +29,11 @@ export function SignForm(props: {
   const { onResult } = props;
   useEffect(() => onResult(state), [state, onResult]);
   const errors = state.errors ?? {};
+  // the button is disabled while signing, which drops the keyboard focus: after a refusal it goes to the reason
+  const reasonRef = useRef<HTMLSpanElement>(null);
+  useEffect(() => {
+    if (state.errors) reasonRef.current?.focus();
+  }, [state]);
   const submit = (e: FormEvent<HTMLFormElement>) => {
     e.preventDefault();
     const data = new FormData(e.currentTarget);
@@ -74,15 +79,24 @@ export function SignForm(props: {
         />
         <span>{ATTESTATION}</span>
       </label>
-      {errors.attest ? <span className="sev-error">{errors.attest}</span> : null}
-      {errors.text ? (
-        <span className="sev-error" role="alert" data-testid="sign-error-text">
-          {errors.text}
-        </span>
-      ) : null}
-      {errors.form ? (
-        <span className="sev-error" role="alert" data-testid="sign-error">
-          {errors.form}
+      {state.errors ? (
+        <span ref={reasonRef} tabIndex={-1} className="stack" data-testid="sign-refusal">
+          {errors.attest ? <span className="sev-error">{errors.attest}</span> : null}
+          {errors.signer ? (
+            <span className="sev-error" role="alert">
+              Not signed: {errors.signer}
+            </span>
+          ) : null}
+          {errors.text ? (
+            <span className="sev-error" role="alert" data-testid="sign-error-text">
+              {errors.text}
+            </span>
+          ) : null}
+          {errors.form ? (
+            <span className="sev-error" role="alert" data-testid="sign-error">
+              {errors.form}
+            </span>
+          ) : null}
         </span>
       ) : null}
       <div>

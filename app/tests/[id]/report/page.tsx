@@ -29,7 +29,7 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
     <>
       <h1>{model.title}</h1>
       {signed ? (
-        <p className="panel" data-testid="signed-by">
+        <p className="panel" data-testid="signed-by" id="signed-by" tabIndex={-1}>
           <strong>
             Signed by {model.signedBy} on {when(model.signedAt)}
           </strong>{" "}
