@@ -1,6 +1,7 @@
 "use client";
 
-import { useEffect, useLayoutEffect, useRef, useState, type RefObject } from "react";
+import { useLayoutEffect, useRef, useState, type RefObject } from "react";
+import { useLeaveGuard } from "./useLeaveGuard";
 
 const LEAVE_WARNING = "This form has values that are not saved. Leave the page and lose them?";
 
@@ -93,29 +94,7 @@ export function useKeptForm(formRef: RefObject<HTMLFormElement | null>, key: str
     };
   }, [formRef, storageKey, generation, refused]);
 
-  useEffect(() => {
-    if (!dirty) return;
-    const beforeUnload = (e: BeforeUnloadEvent) => {
-      e.preventDefault();
-      e.returnValue = LEAVE_WARNING;
-      return LEAVE_WARNING;
-    };
-    const onClick = (e: MouseEvent) => {
-      const a = (e.target as Element | null)?.closest?.("a[href]") as HTMLAnchorElement | null;
-      if (!a || a.target === "_blank" || e.defaultPrevented) return;
-      if (new URL(a.href, window.location.href).origin !== window.location.origin) return;
-      if (!window.confirm(LEAVE_WARNING)) {
-        e.preventDefault();
-        e.stopPropagation();
-      }
-    };
-    window.addEventListener("beforeunload", beforeUnload);
-    document.addEventListener("click", onClick, true);
-    return () => {
-      window.removeEventListener("beforeunload", beforeUnload);
-      document.removeEventListener("click", onClick, true);
-    };
-  }, [dirty]);
+  useLeaveGuard(dirty, LEAVE_WARNING);
 
   /** Drop the put-back values: the form shows what is saved again. */
   const discard = () => {

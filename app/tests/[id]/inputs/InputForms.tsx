@@ -1,6 +1,7 @@
 "use client";
 
 import { useActionState, useRef } from "react";
+import { KeptNotice } from "../../../components/KeptNotice";
 import { useKeptForm } from "../../../components/useKeptForm";
 import type { Issue } from "@/lib/core";
 import styles from "../columns/columns.module.css";
@@ -33,19 +34,6 @@ function Messages({ state, testId }: { state: InputFormState; testId: string }) 
         <ImportIssueTable issues={state.issues as Issue[]} testId={`${testId}-issues`} />
       ) : null}
     </>
-  );
-}
-
-/** Said when values typed earlier and not saved were put back on the form (`useKeptForm`). */
-function KeptNotice({ kept }: { kept: ReturnType<typeof useKeptForm> }) {
-  if (!kept.restored) return null;
-  return (
-    <p className="panel sev-warning" role="status" data-testid="form-restored">
-      Values you typed here earlier were not saved and have been put back.{" "}
-      <button type="button" className="secondary" onClick={kept.discard}>
-        Discard them
-      </button>
-    </p>
   );
 }
 
@@ -169,7 +157,7 @@ export function SpirometryForm({
   const e = state.errors ?? {};
   return (
     <form action={action} className="stack" data-testid="spirometry-form" key={state.stamp ?? 0} ref={formRef}>
-      <KeptNotice kept={kept} />
+      <KeptNotice kept={kept} testId="form-restored" />
       <input type="hidden" name="testId" value={testId} />
       <input type="hidden" name="recordToken" value={recordToken} />
       <div className="row">
@@ -219,7 +207,7 @@ export function ContextForm({ testId, current, recordToken }: { testId: number; 
   const e = state.errors ?? {};
   return (
     <form action={action} className="stack" data-testid="context-form" key={state.stamp ?? 0} ref={formRef}>
-      <KeptNotice kept={kept} />
+      <KeptNotice kept={kept} testId="form-restored" />
       <input type="hidden" name="testId" value={testId} />
       <input type="hidden" name="recordToken" value={recordToken} />
       <div className="row">
@@ -312,7 +300,7 @@ export function ConductForm({ testId, current, recordToken }: { testId: number; 
   const text = (name: keyof ConductValues) => v[name] ?? (current[name] !== undefined ? String(current[name]) : "");
   return (
     <form action={action} className="stack" data-testid="conduct-form" key={state.stamp ?? 0} ref={formRef}>
-      <KeptNotice kept={kept} />
+      <KeptNotice kept={kept} testId="form-restored" />
       <input type="hidden" name="testId" value={testId} />
       <input type="hidden" name="recordToken" value={recordToken} />
       <div className="row">

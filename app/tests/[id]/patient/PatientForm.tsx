@@ -2,6 +2,7 @@
 
 import Link from "next/link";
 import { useActionState, useRef } from "react";
+import { KeptNotice } from "../../../components/KeptNotice";
 import { useKeptForm } from "../../../components/useKeptForm";
 import { ErgometerReferralFields } from "../../../components/ErgometerReferralFields";
 import styles from "../columns/columns.module.css";
@@ -32,14 +33,7 @@ export function PatientForm(props: PatientFormProps) {
   const kept = useKeptForm(formRef, `patient-${props.testId}`, state.stamp ?? 0, Boolean(state.errors));
   return (
     <form action={action} key={state.stamp ?? 0} ref={formRef} data-testid="patient-form" className="stack">
-      {kept.restored ? (
-        <p className="panel sev-warning" role="status" data-testid="patient-restored">
-          Values you typed here earlier were not saved and have been put back.{" "}
-          <button type="button" className="secondary" onClick={kept.discard}>
-            Discard them
-          </button>
-        </p>
-      ) : null}
+      <KeptNotice kept={kept} testId="patient-restored" />
       <input type="hidden" name="testId" value={props.testId} />
       <input type="hidden" name="recordToken" value={props.recordToken} />
       <div className="row">

@@ -1,6 +1,7 @@
 "use client";
 
 import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } from "react";
+import { useLeaveGuard } from "../../../components/useLeaveGuard";
 import type { SignState } from "./actions";
 import { createPortal } from "react-dom";
 import { DraftEditor, type EditableSection } from "./DraftEditor";
@@ -47,6 +48,8 @@ const PDF_WARNING = "The report text has changes that are not saved; the PDF hol
  * Forward, which cannot ask, lose nothing: on return it is restored with a notice and a button to
  * discard it. It is removed once the text is saved, signed or discarded.
  */
+const pdfOrLeave = (url: URL) => (url.pathname.startsWith("/api/") ? PDF_WARNING : LEAVE_WARNING);
+
 export function DraftWorkspace(props: {
   testId: number;
   reportId: number;
@@ -156,31 +159,8 @@ export function DraftWorkspace(props: {
     wasSigned.current = props.signed;
   }, [props.signed]);
 
-  useEffect(() => {
-    if (!dirty) return;
-    const beforeUnload = (e: BeforeUnloadEvent) => {
-      e.preventDefault();
-      e.returnValue = LEAVE_WARNING;
-      return LEAVE_WARNING;
-    };
-    const onClick = (e: MouseEvent) => {
-      const a = (e.target as Element | null)?.closest?.("a[href]") as HTMLAnchorElement | null;
-      if (!a || a.target === "_blank" || e.defaultPrevented) return;
-      const url = new URL(a.href, window.location.href);
-      if (url.origin !== window.location.origin) return;
-      const pdf = url.pathname.startsWith("/api/");
-      if (!window.confirm(pdf ? PDF_WARNING : LEAVE_WARNING)) {
-        e.preventDefault();
-        e.stopPropagation();
-      }
-    };
-    window.addEventListener("beforeunload", beforeUnload);
-    document.addEventListener("click", onClick, true);
-    return () => {
-      window.removeEventListener("beforeunload", beforeUnload);
-      document.removeEventListener("click", onClick, true);
-    };
-  }, [dirty]);
+  // the same question for every page-leaving link, a different one for a PDF of the saved text
+  useLeaveGuard(dirty, LEAVE_WARNING, pdfOrLeave);
 
   return (
     <>
