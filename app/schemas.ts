@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { describeChar, unprintableInPdf } from "../lib/report/pdf/toWinAnsi";
 import { PLAUSIBLE_LIMITS, type PlausibleField } from "../lib/core";
 
 /**
@@ -30,8 +31,26 @@ export const plausibleNumber = (field: PlausibleField) => {
 };
 
 /** Patient and test details sent with an upload. Ranges: `PLAUSIBLE_LIMITS` (generous; common practice). */
+/**
+ * A test's label: the register's name for it and its report's title, so it must print in the report PDF (Western
+ * European characters, `unprintableInPdf`) and hold no line breaks or other control characters.
+ */
+export const labelSchema = z
+  .string()
+  .trim()
+  .max(120, "The label may hold at most 120 characters")
+  .refine((s) => !/\p{Cc}/u.test(s), "The label may not hold line breaks, tabs or other control characters")
+  .superRefine((s, ctx) => {
+    const bad = unprintableInPdf(s);
+    if (bad.length)
+      ctx.addIssue({
+        code: "custom",
+        message: `The report PDF cannot show ${bad.map(describeChar).join(" ")} in the label; write it in Latin letters.`,
+      });
+  });
+
 export const testDetailsSchema = z.object({
-  label: z.string().trim().max(120).optional().default(""),
+  label: labelSchema.optional().default(""),
   sex: z.enum(["male", "female", ""]).optional().default(""),
   ageY: plausibleNumber("ageY"),
   heightCm: plausibleNumber("heightCm"),

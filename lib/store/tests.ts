@@ -230,6 +230,22 @@ export function effectiveSettings(testId: number, labDefaults: AnalysisSettings)
   return latestSettings(testId)?.settings ?? labDefaults;
 }
 
+/**
+ * Rename a test (its label in the register and the title of its report). A report already signed keeps the title it
+ * was signed with. Returns false when the test does not exist (audit: `test-renamed`, old and new label).
+ */
+export function renameTest(testId: number, label: string, actor: string): boolean {
+  const db = getDb();
+  return db.transaction(() => {
+    const row = db.prepare("select label from tests where id = ?").get(testId) as { label: string } | undefined;
+    if (!row) return false;
+    if (row.label === label) return true;
+    db.prepare("update tests set label = ? where id = ?").run(label, testId);
+    audit(actor, "test-renamed", testId, `“${row.label}” → “${label}”`);
+    return true;
+  })();
+}
+
 export function audit(actor: string | null, action: string, testId: number | null, detail: string | null): void {
   getDb()
     .prepare("insert into audit (at, actor, action, test_id, detail) values (?, ?, ?, ?, ?)")

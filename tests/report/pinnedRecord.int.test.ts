@@ -273,4 +273,22 @@ describe("a signed report is kept as signed, and its history is marked", () => {
     expect(pages.length).toBeGreaterThan(1);
     for (const page of pages) expect(page.replace(/\s+/g, " ")).toMatch(/Amended: version 2, signed by Dr B Example/);
   });
+
+  it("a version signed before reports were kept says it is rebuilt; a later data correction is named as such", () => {
+    const { testId, first } = signedTest(); // signed without keeping the report, as before migration 5
+    const legacy = loadReport(testId, first.report.id)!.model.versionNote!;
+    expect(legacy).toMatch(
+      /Signed before signed reports were kept as signed: rebuilt by engine \S+ from the record and settings/,
+    );
+    const weightKg = record.patient.weightKg!;
+    updatePatientDetails(
+      testId,
+      { ...record.patient, weightKg: weightKg + 10, ergometer: record.ergometer, referral: record.referral },
+      "tester",
+    );
+    loadReport(testId); // the current report: a draft for the corrected data
+    expect(loadReport(testId, first.report.id)!.model.versionNote).toMatch(
+      /The test's data or settings were changed after this version was signed; version 2, for the changed analysis, is an unsigned draft\./,
+    );
+  });
 });

@@ -1,7 +1,8 @@
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { closeDb } from "../../lib/store/db";
 import { getOrCreateDraft, getReport, saveDraft } from "../../lib/store/reports";
-import { latestSettings, listAudit, saveAnalysisVersion, saveTest } from "../../lib/store/tests";
+import { getTest, latestSettings, listAudit, renameTest, saveAnalysisVersion, saveTest } from "../../lib/store/tests";
+import { labelSchema } from "../../app/schemas";
 import type { ReportSection } from "../../lib/report/reportModel";
 import { readSignForm } from "../../app/tests/[id]/report/schemas";
 import { mergeRecheck, saveDraftChecked, signDraft } from "../../app/tests/[id]/report/signDraft";
@@ -239,6 +240,15 @@ describe("only the newest version is saved or signed; the sections are the versi
     const res = submit(signForm(testId, draft.id, { results: "a", conclusion: "reviewed 🫀" }, { signer: "Dr 李明 Example" }));
     expect(!res.ok && res.errors.form).toMatch(/cannot show 李 明 in the name, or 🫀 in the text/);
     expect(getReport(draft.id)!.status).toBe("draft");
+    // a line break in the name would print a second line under "Signed by": refused
+    const newline = submit(
+      signForm(testId, draft.id, { results: "a", conclusion: "b" }, { signer: "Dr Nobody\nCountersigned by X" }),
+    );
+    expect(!newline.ok && newline.errors.form).toMatch(/may not hold line breaks/);
+    // the test's label is the report's title on every page: checked too
+    const { input } = readSignForm(signForm(testId, draft.id, { results: "a", conclusion: "b" }));
+    const label = signDraft(input!, undefined, "Lehrfall 李明 (invented)");
+    expect(!label.ok && label.errors.form).toMatch(/李 明 in the test's label \(rename it on the patient page\)/);
     // letters with a stroke are written without it, not refused (Ł → L)
     expect(submit(signForm(testId, draft.id, { results: "a", conclusion: "b" }, { signer: "Dr Łucja Example" })).ok).toBe(true);
   });
@@ -268,3 +278,28 @@ function saveNewAnalysis(testId: number) {
   saveAnalysisVersion(testId, { peakWindowS: 20 }, "0.0.0-test", "tester");
   return latestSettings(testId)!.id;
 }
+
+describe("renaming a test (SQLite in memory)", () => {
+  beforeEach(() => {
+    process.env.CPET_DB = ":memory:";
+    closeDb();
+  });
+  afterEach(() => closeDb());
+
+  it("changes the label, writes the old and new label to the audit, and refuses an unknown test", () => {
+    const { testId } = newDraft();
+    expect(renameTest(testId, "Teaching case 7 (invented)", "tester")).toBe(true);
+    expect(getTest(testId)!.label).toBe("Teaching case 7 (invented)");
+    expect(listAudit(testId).find((a) => a.action === "test-renamed")?.detail).toBe(
+      "“Sign test (invented)” → “Teaching case 7 (invented)”",
+    );
+    expect(renameTest(999999, "x", "tester")).toBe(false);
+  });
+
+  it("the label schema refuses what the report PDF cannot print and control characters", () => {
+    expect(labelSchema.safeParse("Teaching case 7").success).toBe(true);
+    const cjk = labelSchema.safeParse("Lehrfall 李明");
+    expect(!cjk.success && cjk.error.issues[0].message).toMatch(/cannot show 李 明 in the label/);
+    expect(labelSchema.safeParse("two\nlines").success).toBe(false);
+  });
+});

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { isWinAnsi, toWinAnsi, unprintableInPdf } from "../../lib/report/pdf/toWinAnsi";
+import { describeChar, isWinAnsi, toWinAnsi, unprintableInPdf } from "../../lib/report/pdf/toWinAnsi";
 
 // WinAnsiEncoding = Windows code page 1252 (PDF 1.7 reference, Annex D; common practice):
 // ASCII, Latin-1 0xA0-0xFF and the cp1252 extras such as — – … ‘ ’ “ ” € ™ •.
@@ -23,6 +23,12 @@ describe("toWinAnsi", () => {
     expect(toWinAnsi("心")).toBe("?");
     // what would print as "?" is listed (the sign action refuses it), each character once
     expect(unprintableInPdf("Łódź 心 心 ? 😀")).toEqual(["心", "😀"]);
+    // a name typed decomposed (e + U+0301) is composed first: printable, and printed with its accent
+    expect(unprintableInPdf("Jose\u0301")).toEqual([]);
+    expect(toWinAnsi("Jose\u0301")).toBe("José");
+    // a character with no visible shape is named by its code point
+    expect(unprintableInPdf("a\u200Db").map(describeChar)).toEqual(["U+200D"]);
+    expect(describeChar("心")).toBe("心");
     expect(toWinAnsi("a\u202Fb")).toBe("a b");
   });
   it("output is always WinAnsi", () => {

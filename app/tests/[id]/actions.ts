@@ -8,6 +8,7 @@ import { parseTimeText } from "@/lib/breath";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { formatClock } from "@/lib/units";
 import { effectiveSettings, getTest, latestSettings, saveAnalysisVersion } from "@/lib/store/tests";
+import { settingsChangedSince } from "./recordToken";
 
 export interface FormState {
   ok?: string;
@@ -65,6 +66,8 @@ export async function overrideThreshold(_prev: FormState, form: FormData): Promi
   const o = parsed.data;
   const record = getTest(o.testId)?.record;
   if (!record) return { errors: { form: "This test has no usable data." }, values };
+  const stale = settingsChangedSince(o.testId, values.versionToken);
+  if (stale) return { errors: { form: stale }, values };
   const timeS = o.time ? parseTimeText(o.time) : undefined;
   const current = effectiveSettings(o.testId, getLabDefaults());
   // refuse a threshold the test cannot have (outside exercise, above peak VO2, VT1 not below VT2)
@@ -139,6 +142,8 @@ export async function saveSettings(_prev: FormState, form: FormData): Promise<Fo
   const s = parsed.data;
   const test = getTest(s.testId);
   if (!test?.record) return { errors: { form: "This test has no usable data." }, values };
+  const stale = settingsChangedSince(s.testId, values.versionToken);
+  if (stale) return { errors: { form: stale }, values };
   const erg = test.record.ergometer;
   const current = effectiveSettings(s.testId, getLabDefaults());
   const choices: Record<string, string> = {};
@@ -188,6 +193,8 @@ export async function saveExerciseSpan(_prev: FormState, form: FormData): Promis
   const o = parsed.data;
   const record = getTest(o.testId)?.record;
   if (!record || record.table.rows.length < 2) return { errors: { form: "This test has no usable data." }, values };
+  const stale = settingsChangedSince(o.testId, values.versionToken);
+  if (stale) return { errors: { form: stale }, values };
   const first = record.table.rows[0].timeS;
   const last = record.table.rows[record.table.rows.length - 1].timeS;
   if (o.start < first || o.end > last)

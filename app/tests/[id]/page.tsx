@@ -28,6 +28,7 @@ import { ExerciseSpanForm } from "./parts/ExerciseSpanForm";
 import { OverrideForm } from "./parts/OverrideForm";
 import { SettingsForm } from "./parts/SettingsForm";
 import { SeverityScale } from "./parts/SeverityScale";
+import { settingsToken } from "./recordToken";
 
 export const dynamic = "force-dynamic";
 
@@ -110,6 +111,8 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
 
   const versions = listAnalysisVersions(testId);
   const settings = versions[0]?.settings ?? getLabDefaults();
+  // the analysis version this page shows, sent back by its forms (a save from a stale page is refused)
+  const versionToken = settingsToken(testId);
   const record = test.record;
   const result = analyse(record, settings);
   const ix = result.indices;
@@ -283,6 +286,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           title="VT1 (anaerobic threshold)"
           predVo2={result.predicted.values.vo2PeakMlMin?.value ?? null}
           methodLabels={methodLabels}
+          versionToken={versionToken}
         />
         <ThresholdCard
           testId={testId}
@@ -291,6 +295,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           title="VT2 (respiratory compensation point)"
           predVo2={result.predicted.values.vo2PeakMlMin?.value ?? null}
           methodLabels={methodLabels}
+          versionToken={versionToken}
         />
       </div>
       {[result.thresholds.vt1, result.thresholds.vt2].some((t) => t.band && !t.overridden) || ix.veVco2.slopeToVt2.band ? (
@@ -660,6 +665,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       </details>
       <ExerciseSpanForm
         testId={testId}
+        versionToken={versionToken}
         current={
           result.conditioned.exercise
             ? { start: formatClock(result.conditioned.exercise.startS), end: formatClock(result.conditioned.exercise.endS) }
@@ -673,6 +679,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       <h2 id="settings">Settings and versions</h2>
       <SettingsForm
         testId={testId}
+        versionToken={versionToken}
         current={{
           averaging: avKey,
           peakWindowS: settings.peakWindowS ?? 30,
@@ -755,8 +762,10 @@ function ThresholdCard({
   title,
   predVo2,
   methodLabels,
+  versionToken,
 }: {
   testId: number;
+  versionToken: string;
   methodLabels: Record<string, string>;
   t: ThresholdEstimate;
   at: import("@/lib/thresholds").ValuesAtThreshold | null;
@@ -829,7 +838,7 @@ function ThresholdCard({
         </div>
       ) : null}
       <HowFound m={t.vo2MlMin} methodLabels={methodLabels} />
-      <OverrideForm testId={testId} which={which} />
+      <OverrideForm testId={testId} which={which} versionToken={versionToken} />
     </section>
   );
 }

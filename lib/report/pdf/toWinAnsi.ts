@@ -79,7 +79,8 @@ const SUPERSCRIPT_DIGITS = "⁰¹²³⁴⁵⁶⁷⁸⁹";
  */
 export function toWinAnsi(text: string): string {
   let out = "";
-  const chars = [...text];
+  // composed first (NFC): a letter typed as base + combining accent prints as the accented letter
+  const chars = [...text.normalize("NFC")];
   chars.forEach((ch, i) => {
     if (isWinAnsi(ch)) {
       out += ch;
@@ -118,6 +119,13 @@ export function toWinAnsi(text: string): string {
  */
 export function unprintableInPdf(text: string): string[] {
   const out: string[] = [];
-  for (const ch of text) if (toWinAnsi(ch) === "?" && ch !== "?" && !out.includes(ch)) out.push(ch);
+  // composed first (NFC): "e" + combining accent is one printable letter, not an accent on its own
+  for (const ch of text.normalize("NFC")) if (toWinAnsi(ch) === "?" && ch !== "?" && !out.includes(ch)) out.push(ch);
   return out;
+}
+
+/** A character as a message names it: itself, or its code point when it has no visible shape (U+200D, U+0301). */
+export function describeChar(ch: string): string {
+  const invisible = /[\p{M}\p{Cf}\p{Zs}\p{Cc}]/u.test(ch);
+  return invisible ? `U+${ch.codePointAt(0)!.toString(16).toUpperCase().padStart(4, "0")}` : ch;
 }

@@ -9,8 +9,11 @@ export function ExerciseSpanForm({
   testId,
   current,
   byReview,
+  versionToken,
 }: {
   testId: number;
+  /** The analysis version the page shows (`settingsToken`): a save from a stale page is refused. */
+  versionToken: string;
   current: { start: string; end: string } | null;
   byReview: boolean;
 }) {
@@ -21,6 +24,7 @@ export function ExerciseSpanForm({
     <details className="how" data-testid="exercise-span">
       <summary>set the exercise phase by hand{byReview ? " (now set by review)" : ""}</summary>
       <form action={action} className="stack" style={{ marginTop: "0.5rem" }}>
+        <input type="hidden" name="versionToken" value={versionToken} />
         <input type="hidden" name="testId" value={testId} />
         <div className="row">
           <label>

@@ -4,7 +4,7 @@ import { useActionState } from "react";
 import { overrideThreshold, type FormState } from "../actions";
 import { ReasonAndSubmit, ReviewerField } from "./ReviewerFields";
 
-export function OverrideForm({ testId, which }: { testId: number; which: "vt1" | "vt2" }) {
+export function OverrideForm({ testId, which, versionToken }: { testId: number; which: "vt1" | "vt2"; versionToken: string }) {
   const [state, action, pending] = useActionState<FormState, FormData>(overrideThreshold, {});
   const v = state.values ?? {};
   const e = state.errors ?? {};
@@ -13,6 +13,7 @@ export function OverrideForm({ testId, which }: { testId: number; which: "vt1" |
       <summary>set {which.toUpperCase()} by hand (reviewer override)</summary>
       <form action={action} className="stack" style={{ marginTop: "0.5rem" }}>
         <input type="hidden" name="testId" value={testId} />
+        <input type="hidden" name="versionToken" value={versionToken} />
         <input type="hidden" name="which" value={which} />
         <div className="row">
           <label>

@@ -23,6 +23,8 @@ export interface SettingsFormProps {
     defaultOptionId: string;
     options: { id: string; label: string }[];
   }[];
+  /** The analysis version the page shows (`settingsToken`): a save from a stale page is refused. */
+  versionToken: string;
 }
 
 const AVERAGING: [string, string][] = [
@@ -35,12 +37,13 @@ const AVERAGING: [string, string][] = [
   ["middle-5-of-7", "middle 5 of 7 breaths"],
 ];
 
-export function SettingsForm({ testId, current, vo2Equations, hrEquations, cutoffChoices }: SettingsFormProps) {
+export function SettingsForm({ testId, current, vo2Equations, hrEquations, cutoffChoices, versionToken }: SettingsFormProps) {
   const [state, action, pending] = useActionState<FormState, FormData>(saveSettings, {});
   const v = state.values ?? {};
   return (
     <form action={action} className="stack" data-testid="settings-form">
       <input type="hidden" name="testId" value={testId} />
+      <input type="hidden" name="versionToken" value={versionToken} />
       <div className="row">
         <label>
           Display averaging

@@ -3,7 +3,8 @@
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { updatePatientDetails } from "@/lib/store/updatePatientDetails";
-import { fieldErrors, testDetailsSchema } from "../../../schemas";
+import { renameTest } from "@/lib/store/tests";
+import { fieldErrors, labelSchema, testDetailsSchema } from "../../../schemas";
 import { changedSince } from "../recordToken";
 
 export interface PatientFormState {
@@ -58,4 +59,27 @@ export async function savePatientDetails(_prev: PatientFormState, form: FormData
         : `Saved: ${result.changes.join("; ")}. They will be used when the file is read successfully.`,
     stamp,
   };
+}
+
+export interface LabelFormState {
+  ok?: string;
+  error?: string;
+  /** The label as typed, shown again after a refusal. */
+  value?: string;
+}
+
+const labelFormSchema = z.object({
+  testId: z.coerce.number().int().positive(),
+  label: labelSchema.pipe(z.string().min(1, "Give a label")),
+});
+
+/** Rename a test: its label in the register and its report's title (a signed report keeps the title it was signed with). */
+export async function saveLabel(_prev: LabelFormState, form: FormData): Promise<LabelFormState> {
+  const value = String(form.get("label") ?? "");
+  const parsed = labelFormSchema.safeParse({ testId: form.get("testId"), label: value });
+  if (!parsed.success) return { error: parsed.error.issues[0].message, value };
+  if (!renameTest(parsed.data.testId, parsed.data.label, ACTOR)) return { error: "This test does not exist.", value };
+  for (const p of ["", "/patient", "/columns", "/inputs", "/report"]) revalidatePath(`/tests/${parsed.data.testId}${p}`);
+  revalidatePath("/");
+  return { ok: "Label saved. Reports already signed keep the title they were signed with." };
 }

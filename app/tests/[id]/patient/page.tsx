@@ -4,6 +4,7 @@ import { PLAUSIBLE_LIMITS } from "@/lib/core";
 import { getUploadDetails } from "@/lib/store/reimport";
 import { getTest, listAnalysisVersions } from "@/lib/store/tests";
 import { recordToken } from "../recordToken";
+import { LabelForm } from "./LabelForm";
 import { PatientForm, type PatientFormProps } from "./PatientForm";
 
 export const dynamic = "force-dynamic";
@@ -53,6 +54,9 @@ export default async function PatientPage({ params }: { params: Promise<{ id: st
           perKg={test.record?.table.vo2PerKg === true}
           recordToken={recordToken(testId)}
         />
+      </section>
+      <section className="panel">
+        <LabelForm testId={testId} label={test.label} />
       </section>
     </>
   );

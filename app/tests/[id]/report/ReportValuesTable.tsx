@@ -17,7 +17,7 @@ export function ReportValuesTable({
 }) {
   return (
     <TableScroll label={label}>
-      <table data-testid={testId} className="wide">
+      <table data-testid={testId} className="wide report-values">
         <thead>
           <tr>
             <th>Measure</th>

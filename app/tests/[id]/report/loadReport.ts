@@ -100,7 +100,9 @@ export function loadReport(testId: number, reportId?: number): LoadedReport | nu
     }
   }
   const versions = listReports(testId); // newest first
-  const model = withVersionNotes(buildReportModel(result, record, test.label, report), report, versions);
+  // only a version signed before signed reports were kept reaches here signed (the others returned above)
+  const rebuiltBy = report.status === "signed" ? ENGINE_VERSION : undefined;
+  const model = withVersionNotes(buildReportModel(result, record, test.label, report), report, versions, rebuiltBy);
   return { test, record, result, report, versions, model };
 }
 
@@ -112,7 +114,12 @@ const day = (iso: string | null) => (iso ? `${iso.slice(0, 16).replace("T", " ")
  * newer draft), or, for an older draft, that it must not be used. Written at load time: it tells what happened after
  * signing and changes nothing that was signed.
  */
-function withVersionNotes(model: ReportModel, report: StoredReport, versions: readonly StoredReport[]): ReportModel {
+function withVersionNotes(
+  model: ReportModel,
+  report: StoredReport,
+  versions: readonly StoredReport[],
+  rebuiltBy?: string,
+): ReportModel {
   const newest = versions[0];
   const newerSigned = versions.find((v) => v.id > report.id && v.status === "signed");
   const earlierSigned = versions.find((v) => v.id < report.id && v.status === "signed");
@@ -128,7 +135,14 @@ function withVersionNotes(model: ReportModel, report: StoredReport, versions: re
     );
   else if (report.status === "signed" && newest && newest.id !== report.id)
     notes.push(
-      `A revision (version ${newest.version}) is in progress as an unsigned draft; this signed version stands until it is signed.`,
+      newest.analysisId !== report.analysisId
+        ? `The test's data or settings were changed after this version was signed; version ${newest.version}, for the changed analysis, is an unsigned draft.`
+        : `A revision (version ${newest.version}) is in progress as an unsigned draft; this signed version stands until it is signed.`,
+    );
+  // signed before signed reports were kept whole: what is shown is rebuilt, and may read differently from what was signed
+  if (report.status === "signed" && rebuiltBy)
+    notes.push(
+      `Signed before signed reports were kept as signed: rebuilt by engine ${rebuiltBy} from the record and settings it was signed on; its wording and any engine change since may differ from the version signed.`,
     );
   if (report.status === "draft" && newest && newest.id !== report.id)
     draftMark = `${draftMark} Superseded: version ${newest.version} of this report is newer; do not use this draft.`;

@@ -94,7 +94,7 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
         <>
           <h2>Interpretation path</h2>
           <TableScroll label="Interpretation path">
-            <table data-testid="report-path" className="wide">
+            <table data-testid="report-path" className="wide report-values">
               <thead>
                 <tr>
                   <th>Step</th>

@@ -1,7 +1,7 @@
 import "server-only";
 import type { ReportSection } from "@/lib/report/reportModel";
 import { getDb } from "@/lib/store/db";
-import { unprintableInPdf } from "@/lib/report/pdf/toWinAnsi";
+import { describeChar, unprintableInPdf } from "@/lib/report/pdf/toWinAnsi";
 import { getReport, listReports, saveDraft, signReport, type StoredReport } from "@/lib/store/reports";
 import { latestSettings } from "@/lib/store/tests";
 import { DRAFT_CHANGED_ELSEWHERE } from "./schemas";
@@ -166,7 +166,12 @@ export type SignDraftResult =
  * are not the version's own, when a carried-forward section was not re-checked, or when the name or text holds
  * characters the PDF cannot show.
  */
-export function signDraft(input: SignDraftInput, freeze?: (signed: StoredReport) => string): SignDraftResult {
+export function signDraft(
+  input: SignDraftInput,
+  freeze?: (signed: StoredReport) => string,
+  /** The test's label, printed as the report's title on every page. */
+  label?: string,
+): SignDraftResult {
   const db = getDb();
   try {
     return db.transaction((): SignDraftResult => {
@@ -207,13 +212,23 @@ export function signDraft(input: SignDraftInput, freeze?: (signed: StoredReport)
           caution: "The caution may be reworded but not left empty.",
         });
       // the signed PDF must show what was signed: characters it would print as "?" are refused, not garbled
+      // a name is one line: a line break would print as a second line under "Signed by" on every page
+      if (/\p{Cc}/u.test(input.signer))
+        throw new Refusal({ form: "Not signed: the name may not hold line breaks, tabs or other control characters." });
       const badName = unprintableInPdf(input.signer);
       const badText = unprintableInPdf(sections.flatMap((s) => [s.title, ...s.paragraphs]).join("\n"));
-      if (badName.length || badText.length)
+      const badLabel = unprintableInPdf(label ?? "");
+      if (badName.length || badText.length || badLabel.length)
         throw new Refusal({
           form:
             "Not signed: the PDF of the report uses a Western European character set and cannot show " +
-            [badName.length ? `${badName.join(" ")} in the name` : "", badText.length ? `${badText.join(" ")} in the text` : ""]
+            [
+              badName.length ? `${badName.map(describeChar).join(" ")} in the name` : "",
+              badText.length ? `${badText.map(describeChar).join(" ")} in the text` : "",
+              badLabel.length
+                ? `${badLabel.map(describeChar).join(" ")} in the test's label (rename it on the patient page)`
+                : "",
+            ]
               .filter(Boolean)
               .join(", or ") +
             ". Write them in Latin letters or leave them out; your text is still on screen.",
