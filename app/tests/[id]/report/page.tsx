@@ -191,13 +191,26 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
 
       <h2>Report versions</h2>
       <ul data-testid="report-versions">
-        {versions.map((v) => (
+        {versions.map((v, i) => (
           <li key={v.id}>
-            Version {v.version}: {v.status === "signed" ? `signed by ${v.signedBy} on ${when(v.signedAt)}` : "draft"} ·{" "}
-            <a href={`/api/tests/${testId}/report/pdf?report=${v.id}`}>PDF</a>
+            Version {v.version}: {v.status === "signed" ? `signed by ${v.signedBy} on ${when(v.signedAt)}` : "draft"}
+            {versionStanding(v, i, versions)} · <a href={`/api/tests/${testId}/report/pdf?report=${v.id}`}>PDF</a>
           </li>
         ))}
       </ul>
     </>
   );
+}
+
+/** Where a version stands in the list (newest first): the current one, amended by a newer signed one, or superseded. */
+function versionStanding(
+  v: { id: number; status: string },
+  index: number,
+  versions: readonly { id: number; version: number; status: string }[],
+) {
+  if (index === 0) return " (current)";
+  const newerSigned = versions.slice(0, index).findLast((x) => x.status === "signed");
+  if (v.status === "signed")
+    return newerSigned ? ` (amended by version ${newerSigned.version})` : " (stands; a newer draft is not signed yet)";
+  return " (superseded draft: do not use)";
 }
