@@ -311,8 +311,9 @@ export async function renderReportPdf(rawModel: ReportModel): Promise<Buffer> {
 
   const doc: TDocumentDefinitions = {
     pageSize: "A4",
-    // room for the header: title and status, the version note (up to two lines), and the draft mark (up to three)
-    pageMargins: [40, (draft ? 74 : 54) + (model.versionNote ? 20 : 0), 40, 52],
+    // room for the header: title and status, the version note, and the draft mark (up to three lines); the note's
+    // lines estimated at about 130 characters of 7.5-pt Helvetica across the 515-pt text width, 9.5 pt each
+    pageMargins: [40, (draft ? 74 : 54) + (model.versionNote ? 4 + 9.5 * Math.ceil(model.versionNote.length / 130) : 0), 40, 52],
     info: { title: model.title, creator: "cpet-desk", subject: draft ? "Draft CPET report" : "Signed CPET report" },
     defaultStyle: { font: "Helvetica", fontSize: 9.5, color: INK, lineHeight: 1.15 },
     styles: {

@@ -211,10 +211,10 @@ export function signDraft(
           form: "Not signed: the “Caution” section is empty. A signed report keeps its clinical caution; write or restore it.",
           caution: "The caution may be reworded but not left empty.",
         });
-      // the signed PDF must show what was signed: characters it would print as "?" are refused, not garbled
       // a name is one line: a line break would print as a second line under "Signed by" on every page
       if (/\p{Cc}/u.test(input.signer))
         throw new Refusal({ form: "Not signed: the name may not hold line breaks, tabs or other control characters." });
+      // the signed PDF must show what was signed: characters it would print as "?" are refused, not garbled
       const badName = unprintableInPdf(input.signer);
       const badText = unprintableInPdf(sections.flatMap((s) => [s.title, ...s.paragraphs]).join("\n"));
       const badLabel = unprintableInPdf(label ?? "");
