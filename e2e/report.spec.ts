@@ -281,6 +281,9 @@ test("report: two tabs revising one signed report — the second is refused with
   await tabA.section("conclusion").fill("Revision typed in tab A (e2e).");
   await tabA.saveDraft();
   await expect(a.getByTestId("draft-mark")).toContainText("DRAFT");
+  // the editor re-mounts for the new version; the confirmation reaches it, with the keyboard focus
+  await expect(a.getByTestId("new-version-notice")).toContainText(/as draft version \d+\. The signed version it revises stays/);
+  await expect(a.getByTestId("new-version-notice")).toBeFocused();
   // tab B, still on the signed version, is refused; its text stays on screen
   await tabB.section("conclusion").fill("Revision typed in tab B (e2e).");
   await tabB.saveDraft();

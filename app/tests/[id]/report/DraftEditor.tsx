@@ -77,6 +77,30 @@ function RecheckNote(props: {
  * so the sign form signs exactly what is on screen; it stays as typed whether the save succeeds or
  * is refused by validation. Carried-forward sections show their re-check note.
  */
+/** Where a save that made a new version leaves its confirmation for the editor of that version. */
+export function newVersionKey(testId: number): string {
+  return `cpet-desk:new-report-version:test-${testId}`;
+}
+
+/**
+ * Save, and when the save made a new version (a revision of a signed one), leave its confirmation for the editor of that
+ * version: the page re-mounts the editor for it in the same update that brings this answer, so this editor never shows it.
+ * Written when the answer arrives, before the new editor mounts.
+ */
+async function saveAndHandOver(prev: DraftState, form: FormData): Promise<DraftState> {
+  const state = await saveDraftAction(prev, form);
+  if (state.newVersion && state.savedAt && !state.errors)
+    try {
+      window.sessionStorage.setItem(
+        newVersionKey(Number(form.get("testId"))),
+        JSON.stringify({ version: state.newVersion, savedAt: state.savedAt }),
+      );
+    } catch {
+      // storage disabled: the new version's draft mark and version note still say what happened
+    }
+  return state;
+}
+
 export function DraftEditor(props: {
   testId: number;
   reportId: number;
@@ -93,7 +117,7 @@ export function DraftEditor(props: {
   onAck: (id: string, acked: boolean) => void;
   onSaved: (texts: Record<string, string>, revision?: number) => void;
 }) {
-  const [state, action, pending] = useActionState<DraftState, FormData>(saveDraftAction, {});
+  const [state, action, pending] = useActionState<DraftState, FormData>(saveAndHandOver, {});
   const { onSaved } = props;
   useEffect(() => {
     if (state.savedAt && !state.errors && state.texts) onSaved(state.texts, state.newVersion ? undefined : state.revision);

@@ -4,7 +4,7 @@ import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState } fr
 import { useLeaveGuard } from "../../../components/useLeaveGuard";
 import type { SignState } from "./actions";
 import { createPortal } from "react-dom";
-import { DraftEditor, type EditableSection } from "./DraftEditor";
+import { DraftEditor, newVersionKey, type EditableSection } from "./DraftEditor";
 import { REPORT_NOTICE_SLOT, toParagraphs } from "./schemas";
 import { SignForm } from "./SignForm";
 
@@ -124,6 +124,25 @@ export function DraftWorkspace(props: {
     // Looked up after mount: the slot is server-rendered markup outside this component.
     setNoticeSlot(document.getElementById(REPORT_NOTICE_SLOT));
   }, []);
+  // the confirmation of the save that made this version (left by the editor of the version it revised)
+  const [madeVersion, setMadeVersion] = useState<{ version: number; savedAt: string } | null>(null);
+  const madeRef = useRef<HTMLParagraphElement>(null);
+  useEffect(() => {
+    try {
+      const raw = window.sessionStorage.getItem(newVersionKey(props.testId));
+      const made = raw ? (JSON.parse(raw) as { version: number; savedAt: string }) : null;
+      if (made && made.version === props.version) {
+        window.sessionStorage.removeItem(newVersionKey(props.testId));
+        // read once after mount from the tab's storage, outside React
+        setMadeVersion(made);
+      }
+    } catch {
+      // storage disabled: nothing to confirm
+    }
+  }, [props.testId, props.version]);
+  useEffect(() => {
+    if (madeVersion) madeRef.current?.focus();
+  }, [madeVersion]);
   const notice =
     restored && textDirty ? (
       <p className="panel sev-warning" data-testid="restored-notice" role="status">
@@ -133,6 +152,13 @@ export function DraftWorkspace(props: {
         </button>
       </p>
     ) : null;
+
+  const madeNotice = madeVersion ? (
+    <p className="panel sev-info" role="status" tabIndex={-1} ref={madeRef} data-testid="new-version-notice">
+      Saved {madeVersion.savedAt.slice(11, 19)} UTC as draft version {madeVersion.version}. The signed version it revises stays as
+      it was signed.
+    </p>
+  ) : null;
 
   const onSaved = useCallback((t: Record<string, string>, savedRevision?: number) => {
     setSaved(t);
@@ -165,6 +191,7 @@ export function DraftWorkspace(props: {
   return (
     <>
       {notice && noticeSlot ? createPortal(notice, noticeSlot) : notice}
+      {madeNotice && noticeSlot ? createPortal(madeNotice, noticeSlot) : madeNotice}
       {/* data-ready: the editor has hydrated (and restored kept text), so typing now reaches React's state */}
       <details
         open={!props.signed || (restored && textDirty)}
