@@ -1,4 +1,5 @@
 import { makeIssue, type EvidenceStatus, type Issue } from "../core";
+import { formatNumber } from "../units";
 import { assessEffort } from "./assessEffort";
 import { unique } from "./format";
 import { formatValue } from "./format";
@@ -188,6 +189,15 @@ export function compareTests(
         verdict: "not-judged",
         text: `${head} (${signed}): not judged, atrial fibrillation recorded ${afIn.filter(Boolean).join(" and ")}`,
       };
+    // a beta-blocker started or stopped between the tests lowers or raises heart rate, and O2 pulse with it
+    const bb = [before, after].map((t) => t.patient.betaBlocker === true);
+    if ((variable === "peakHrBpm" || variable === "o2PulsePeakMlBeat") && bb[0] !== bb[1])
+      return {
+        ...base,
+        noise: null,
+        verdict: "not-judged",
+        text: `${head} (${signed}): not judged, a beta-blocker is recorded ${bb[0] ? "before" : "after"} only`,
+      };
     if (info.effortDependent && !comparable) {
       return {
         ...base,
@@ -204,18 +214,33 @@ export function compareTests(
         ...base,
         noise: null,
         verdict: "not-judged",
-        text: `${head} (${signed}): no published test-retest variability for this population`,
+        text: `${head} (${signed}): not judged, this software holds no test-retest variability for this population`,
       };
     const noise = noiseBand(entry, x!, y!);
     if (noise.threshold === null)
       return { ...base, noise, verdict: "not-judged", text: `${head} (${signed}): not judged; ${noise.basis}` };
-    const beyond = Math.abs(change) > noise.threshold;
-    const band = `${formatValue(variable, noise.threshold)}${info.unit ? ` ${info.unit}` : ""}`;
+    // a per-kg value also moves with body weight; the retest studies held weight constant, so a per-kg change across a
+    // weight change (more than 2 %, our choice) is judged at the earlier weight: the later VO2 over the earlier weight
+    const [wA, wB] = [before.patient.weightKg, after.patient.weightKg];
+    const perKg = info.unit.includes("/kg");
+    const weightMoved = perKg && typeof wA === "number" && typeof wB === "number" && wA > 0 && Math.abs(wB - wA) / wA > 0.02;
+    const judged = weightMoved ? y! * (wB! / wA!) - x! : change;
+    const unitText = info.unit ? ` ${info.unit}` : "";
+    const atWeight = weightMoved
+      ? `; body weight ${formatNumber(wA!, 1)} → ${formatNumber(wB!, 1)} kg, so it is judged at the earlier weight, where the change is ${judged >= 0 ? "+" : ""}${formatValue(variable, judged)}${unitText}`
+      : "";
+    const beyond = Math.abs(judged) > noise.threshold;
+    const band = `${formatValue(variable, noise.threshold)}${unitText}`;
+    // a change that rounds to the band's own value is given to two more decimals, so "beyond" is seen to be beyond
+    const edge =
+      formatValue(variable, Math.abs(judged)) === formatValue(variable, noise.threshold)
+        ? `; unrounded ${Math.abs(judged).toFixed(3)} ${beyond ? ">" : "≤"} ${noise.threshold.toFixed(3)}`
+        : "";
     return {
       ...base,
       noise,
       verdict: beyond ? "beyond-noise" : "within-noise",
-      text: `${head} (${signed}): ${beyond ? "beyond measurement noise" : "within measurement noise"} (band ±${band}; ${noise.basis})`,
+      text: `${head} (${signed}${atWeight}): ${beyond ? "beyond measurement noise" : "within measurement noise"} (band ±${band}${edge}; ${noise.basis})`,
     };
   });
   return {

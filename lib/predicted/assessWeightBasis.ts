@@ -73,7 +73,7 @@ export function assessWeightBasis(
     const pct = percentPredicted(measuredVo2MlMin, pv.value);
     let reduced: boolean | null = null;
     if (pv.value !== null) reduced = pct !== null && below(pct);
-    out.criterion = `the lab's limit: ${limit.label.charAt(0).toLowerCase()}${limit.label.slice(1)}`;
+    out.criterion = `the limit this analysis reads: ${limit.label.charAt(0).toLowerCase()}${limit.label.slice(1)}`;
     return { weightKg, predictedMlMin: pv.value, percentPredicted: pct, measuredMlKgMin: measuredVo2MlMin / weightKg, reduced };
   };
   out.actual = read(patient.weightKg);

@@ -25,6 +25,8 @@ export interface ReportDraftState {
   sections: ReportSection[];
   signedBy?: string | null;
   signedAt?: string | null;
+  /** The attestation the signer confirmed. */
+  attestation?: string | null;
 }
 
 export interface BuildReportModelOptions {
@@ -202,11 +204,8 @@ export function buildReportModel(
     row.note = [row.note, bandNote(line, d)].filter(Boolean).join("; ") || row.note;
     // HR reserve is predicted HRmax − peak HR: the same beta-blocker note as the peak HR's % predicted
     if (m === ix.heartRate.reserveBpm && hrNotes.length) row.note = [row.note, ...hrNotes].filter(Boolean).join("; ");
-    if (m === ix.heartRate.recovery1MinBpm) {
-      // the cut-off's protocol travels with the value (Cole 1999: cool-down walk; clinical-reference §2, confirmed)
-      const protocol = m.value !== null ? "abnormal ≤ 12 bpm was set after a cool-down walk (Cole 1999)" : undefined;
-      row.note = [row.note, protocol, afNote].filter(Boolean).join("; ");
-    }
+    // (the cut-off's protocol, a cool-down walk in Cole 1999, is said in the value's method)
+    if (m === ix.heartRate.recovery1MinBpm && afNote) row.note = [row.note, afNote].filter(Boolean).join("; ");
     keyValues.push(row);
   }
   keyValues.push(measuredRow("Recording duration", pk.testDurationS, 0, formatClock));
@@ -330,6 +329,7 @@ export function buildReportModel(
     status: draft.status,
     ...(draft.status === "signed" && draft.signedBy ? { signedBy: draft.signedBy } : {}),
     ...(draft.status === "signed" && draft.signedAt ? { signedAt: draft.signedAt } : {}),
+    ...(draft.status === "signed" && draft.attestation ? { attestation: draft.attestation } : {}),
     caution: CLINICAL_CAUTION,
     draftMark: DRAFT_CAUTION,
     keyValues,

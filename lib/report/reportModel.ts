@@ -94,6 +94,8 @@ export interface ReportModel {
   signedBy?: string;
   /** ISO 8601 time of signature. */
   signedAt?: string;
+  /** The attestation the signer confirmed, printed with the signature. */
+  attestation?: string;
   /** Decision-support caution, shown on every page. */
   caution: string;
   /** Draft caution, shown while status is "draft". */

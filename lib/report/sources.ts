@@ -31,3 +31,13 @@ export const EVIDENCE_WORDS: Record<Source["status"], string> = {
   "common-practice": "common practice",
   "our-choice": "our choice: a setting of this software that no published source fixes",
 };
+
+/**
+ * What the evidence statuses mean, printed above every list of sources: a status says where a number was seen, not how
+ * strong the clinical evidence behind it is.
+ */
+export const EVIDENCE_LEGEND =
+  "Evidence status says where a number was seen, not how strong the clinical evidence is: confirmed = seen in the " +
+  "primary text or its abstract; secondary = seen only in a review or a later paper; recalled = not yet checked " +
+  "against the source; common practice = usual practice with no single source; our choice = a setting of this " +
+  "software that no published source fixes.";

@@ -51,7 +51,7 @@ export const SYNTHETIC_SOURCES = defineSources({
   "synthetic-invented": {
     citation:
       "Invented values of the cpet-desk synthetic generator (no published source; plausible physiology chosen by the authors)",
-    status: "common-practice",
+    status: "our-choice",
     note: "Every preset and noise level is invented data for tests and demonstrations.",
   },
   "beaver-1986-buffering": {
@@ -117,7 +117,7 @@ export const SYNTHETIC_SOURCES = defineSources({
   "audit-model-invented": {
     citation:
       "Invented values of the cpet-desk audit model (lib/synthetic/generateAuditTest.ts): group ranges, lags, excess-CO2 and hyperventilation shapes, noise and artefact magnitudes",
-    status: "common-practice",
+    status: "our-choice",
     note: "Audit model: every number not tied to another source id is invented data for blind validation of the threshold detectors.",
   },
   "audit-mean-response-time": {
@@ -141,7 +141,7 @@ export const SYNTHETIC_SOURCES = defineSources({
   "cross-check-model-invented": {
     citation:
       "Invented values of the cpet-desk cross-check model (lib/synthetic/generateCrossCheckTest.ts): group mix and ranges, protocol choices, lags, lactate curve shape, noise and artefact magnitudes",
-    status: "common-practice",
+    status: "our-choice",
     note: "Cross-check model: every number not tied to another source id is invented data, written independently of the threshold detectors for blind checks.",
   },
   "wasserman-unloaded-pedalling": {
@@ -325,7 +325,7 @@ export const SECOND_OPINION_SOURCES = defineSources({
   "second-opinion-invented": {
     citation:
       "Invented values of the cpet-desk second-opinion synthetic model (no published source; plausible physiology chosen by the authors)",
-    status: "common-practice",
+    status: "our-choice",
     note: "Group ranges, time constants, lactate shape, buffer pool, compensation gain, noise levels and artefacts are invented data for tests.",
   },
 });

@@ -65,7 +65,7 @@ export const VT_SOURCES = defineSources({
   "vt-joint-profile-choice": {
     citation:
       "Joint profile likelihood of one break time shared by several signals against time (VT1: excess CO2 over the whole ramp, VE and PETO2 below the RCP, each a straight hinge or, when that fits better by more than 4 log-likelihood units, a rise that steepens above the break; VT2: VE against VCO2, which may depart from its line as an exponential in time, and PETCO2), and its combination with the single-plot methods (implementation choice of this software, no published source)",
-    status: "common-practice",
+    status: "our-choice",
   },
   "hughson-1987-lactate-continuous": {
     citation:
@@ -82,6 +82,6 @@ export const VT_SOURCES = defineSources({
   "vt-implementation-choice": {
     citation:
       "Implementation choice of this software for ventilatory thresholds (no published source): bin length, lead-in exclusion, agreement tolerance, F-statistic floor, resampling",
-    status: "common-practice",
+    status: "our-choice",
   },
 });

@@ -29,6 +29,41 @@ describe("serial comparison against published test-retest variability", () => {
     expect(item(beyond, "veVco2SlopeWhole").verdict).toBe("not-judged");
   });
 
+  it("a per-kg change across a weight change is judged at the earlier weight, and says so (INVENTED pair)", () => {
+    const before = loadFixture("heart-failure").input; // peak VO2 14.0 mL/kg/min
+    const w = before.patient.weightKg!;
+    // after: 5 kg lighter, 16.6 mL/kg/min. At the earlier weight: 16.6 × (w − 5) / w − 14.0
+    const after = {
+      ...before,
+      patient: { ...before.patient, weightKg: w - 5 },
+      values: { ...before.values, peakVo2MlKgMin: 16.6 },
+    };
+    const atEarlier = (16.6 * (w - 5)) / w - 14.0;
+    const item0 = item(compareTests(before, after, "heart-failure"), "peakVo2MlKgMin");
+    expect(item0.change).toBeCloseTo(2.6, 10); // the plain change, kept
+    expect(item0.text).toMatch(/body weight .* → .* kg, so it is judged at the earlier weight, where the change is \+/);
+    // band 3.0 (Bensimhon 2008 90th percentile): the verdict follows the change at the earlier weight
+    expect(item0.verdict).toBe(Math.abs(atEarlier) > 3.0 ? "beyond-noise" : "within-noise");
+  });
+
+  it("a change that rounds to the band's value shows its unrounded size (INVENTED pair)", () => {
+    const before = loadFixture("heart-failure").input;
+    const after = { ...before, values: { ...before.values, peakVo2MlKgMin: 17.04 } }; // +3.04 prints as +3.0
+    const it0 = item(compareTests(before, after, "heart-failure"), "peakVo2MlKgMin");
+    expect(it0.verdict).toBe("beyond-noise");
+    expect(it0.text).toMatch(/unrounded 3\.040 > 3\.000/);
+  });
+
+  it("heart rate and O2 pulse are not judged when a beta-blocker is recorded in one test only (INVENTED pair)", () => {
+    const before = loadFixture("heart-failure").input;
+    const after = { ...before, patient: { ...before.patient, betaBlocker: !before.patient.betaBlocker } };
+    const c = compareTests(before, after, "heart-failure");
+    for (const v of ["o2PulsePeakMlBeat", "peakHrBpm"]) {
+      expect(item(c, v).verdict).toBe("not-judged");
+      expect(item(c, v).text).toMatch(/not judged, a beta-blocker is recorded (before|after) only/);
+    }
+  });
+
   it("heart rate and O2 pulse are not judged when either test was recorded in atrial fibrillation (INVENTED pair)", () => {
     const before = loadFixture("heart-failure").input;
     const after = {

@@ -260,7 +260,7 @@ describe("a signed report is kept as signed, and its history is marked", () => {
     expect(signKept(testId, v2!, "Dr B Example").ok).toBe(true);
     const old = loadReport(testId, v1.id)!.model;
     expect(old.versionNote).toMatch(
-      /^Version 1 of 2\. Amended: version 2, signed by Dr B Example on .+ UTC, replaces this report\.$/,
+      /^Version 1 of 2\. Superseded: version 2 \(the amended report\), signed by Dr B Example on .+ UTC, replaces this report\.$/,
     );
     expect(loadReport(testId, v2!.id)!.model.versionNote).toMatch(/^Version 2 of 2\. Revises version 1, signed by Dr A Example/);
     // every page of the old version's PDF (pdftotext, poppler: pages split at form feeds)
@@ -271,7 +271,8 @@ describe("a signed report is kept as signed, and its history is marked", () => {
       .split("\f")
       .filter((p) => p.trim() !== "");
     expect(pages.length).toBeGreaterThan(1);
-    for (const page of pages) expect(page.replace(/\s+/g, " ")).toMatch(/Amended: version 2, signed by Dr B Example/);
+    for (const page of pages)
+      expect(page.replace(/\s+/g, " ")).toMatch(/Superseded: version 2 \(the amended report\), signed by Dr B Example/);
   });
 
   it("a version signed before reports were kept says it is rebuilt; a later data correction is named as such", () => {

@@ -116,8 +116,12 @@ describe("renderReportPdf", () => {
     for (const text of pages) {
       expect(text).not.toMatch(/DRAFT/);
       expect(text).toContain(CLINICAL_CAUTION);
-      expect(text).toContain("Signed by Dr A Example on 2026-12-01 10:00 UTC");
+      // the header of every page qualifies the name: there is no log-in
+      expect(text).toContain("Signed by Dr A Example (name as typed, not verified) on 2026-12-01 10:00 UTC");
+      // and says when this copy was made (two copies of one signed version can differ in their version note)
+      expect(text).toMatch(/PDF generated \d{4}-\d\d-\d\d \d\d:\d\d UTC/);
     }
+    expect(pages.join(" ")).toContain("Signed by Dr A Example on 2026-12-01 10:00 UTC.");
   });
 
   it("prints values, sources with evidence status and sanitised symbols", async () => {

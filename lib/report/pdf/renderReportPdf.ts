@@ -5,6 +5,7 @@ import pdfmake from "pdfmake";
 import type { Content, TableCell, TDocumentDefinitions } from "pdfmake/interfaces";
 import { renderChartSvg } from "../charts/renderChartSvg";
 import { SIGNER_NOT_VERIFIED } from "../caution";
+import { EVIDENCE_LEGEND } from "../sources";
 import type { ReportModel, ReportRow } from "../reportModel";
 import { toWinAnsi } from "./toWinAnsi";
 
@@ -161,15 +162,17 @@ function valuesTable(rows: ReportRow[], index: Map<string, number>): Content {
  *
  * @returns the PDF bytes (starts with "%PDF").
  */
-export async function renderReportPdf(rawModel: ReportModel): Promise<Buffer> {
+export async function renderReportPdf(rawModel: ReportModel, now: Date = new Date()): Promise<Buffer> {
+  // when this copy was made: two PDFs of one signed version can differ in their version note, and this orders them
+  const generatedAt = `${now.toISOString().slice(0, 16).replace("T", " ")} UTC`;
   const model = mapStrings(rawModel, toWinAnsi);
   const draft = model.status !== "signed";
   // a signed report that a newer signed version amends says so in red on every page
-  const amended = !draft && /^Version \d+ of \d+\..*Amended:/.test(model.versionNote ?? "");
+  const amended = !draft && /^Version \d+ of \d+\..*Superseded:/.test(model.versionNote ?? "");
   const index = new Map(model.sources.map((s, i) => [s.id, i + 1]));
   const statusLine = draft
     ? "DRAFT - not signed"
-    : `Signed by ${model.signedBy ?? "(unknown)"} on ${formatSignedAt(model.signedAt)}`;
+    : `Signed by ${model.signedBy ?? "(unknown)"} (name as typed, not verified) on ${formatSignedAt(model.signedAt)}`;
 
   const content: Content[] = [
     { text: model.title, style: "h1" },
@@ -285,6 +288,7 @@ export async function renderReportPdf(rawModel: ReportModel): Promise<Buffer> {
     content.push({ ul: model.methods, fontSize: 8.5 });
   }
   content.push(heading("Sources"));
+  content.push({ text: toWinAnsi(EVIDENCE_LEGEND), color: MUTED, fontSize: 8, margin: [0, 0, 0, 4] });
   content.push(
     model.sources.length
       ? {
@@ -304,6 +308,9 @@ export async function renderReportPdf(rawModel: ReportModel): Promise<Buffer> {
       : {
           stack: [
             { text: `Signed by ${model.signedBy ?? "(unknown)"} on ${formatSignedAt(model.signedAt)}.`, bold: true },
+            ...(model.attestation
+              ? [{ text: `The signer confirmed: "${model.attestation}"`, margin: [0, 2, 0, 0] } as Content]
+              : []),
             { text: toWinAnsi(SIGNER_NOT_VERIFIED), color: MUTED, fontSize: 8 },
           ],
         },
@@ -356,7 +363,7 @@ export async function renderReportPdf(rawModel: ReportModel): Promise<Buffer> {
         { text: model.caution, fontSize: 7.5, color: INK, margin: [0, 3, 0, 0] },
         {
           columns: [
-            { text: `cpet-desk, engine ${model.engineVersion}`, fontSize: 7, color: MUTED },
+            { text: `cpet-desk, engine ${model.engineVersion}; PDF generated ${generatedAt}`, fontSize: 7, color: MUTED },
             { text: `Page ${currentPage} of ${pageCount}`, fontSize: 7, color: MUTED, alignment: "right" },
           ],
         },

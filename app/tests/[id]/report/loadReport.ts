@@ -131,7 +131,7 @@ function withVersionNotes(
   let draftMark = model.draftMark;
   if (report.status === "signed" && newerSigned)
     notes.push(
-      `Amended: version ${newerSigned.version}, signed by ${newerSigned.signedBy} on ${day(newerSigned.signedAt)}, replaces this report.`,
+      `Superseded: version ${newerSigned.version} (the amended report), signed by ${newerSigned.signedBy} on ${day(newerSigned.signedAt)}, replaces this report.`,
     );
   else if (report.status === "signed" && newest && newest.id !== report.id)
     notes.push(

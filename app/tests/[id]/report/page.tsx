@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { EVIDENCE_LABEL } from "@/lib/core";
 import { SIGNER_NOT_VERIFIED } from "@/lib/report/caution";
+import { EVIDENCE_LEGEND } from "@/lib/report/sources";
 import { notFound } from "next/navigation";
 import { Chart } from "../../../components/Chart";
 import { IssueList } from "../../../components/IssueList";
@@ -181,6 +182,9 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
         ))}
       </ul>
       <h2>Sources</h2>
+      <p className="how" data-testid="evidence-legend">
+        {EVIDENCE_LEGEND}
+      </p>
       <ol data-testid="report-sources">
         {model.sources.map((s) => (
           <li key={s.id}>
