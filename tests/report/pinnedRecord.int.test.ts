@@ -289,7 +289,7 @@ describe("a signed report is kept as signed, and its history is marked", () => {
     );
     loadReport(testId); // the current report: a draft for the corrected data
     expect(loadReport(testId, first.report.id)!.model.versionNote).toMatch(
-      /The test's data or settings were changed after this version was signed; version 2, for the changed analysis, is an unsigned draft\./,
+      /Changed after this version was signed: patient details changed: weight \d+ kg → \d+ kg\. The values here are those at signing; version 2, for the changed test, is an unsigned draft, and until it is signed this version remains the signed report\./,
     );
   });
 });

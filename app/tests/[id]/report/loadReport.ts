@@ -74,7 +74,7 @@ export function loadReport(testId: number, reportId?: number): LoadedReport | nu
     // a version kept as signed is shown as it was signed, whatever the engine or data files are now
     if (report.status === "signed" && report.signedModelJson) {
       const versions = listReports(testId);
-      const model = withVersionNotes(JSON.parse(report.signedModelJson) as ReportModel, report, versions);
+      const model = withVersionNotes(JSON.parse(report.signedModelJson) as ReportModel, report, versions, changesOf(testId));
       return { test, report, versions, model };
     }
     const analysisId = report.analysisId;
@@ -95,14 +95,20 @@ export function loadReport(testId: number, reportId?: number): LoadedReport | nu
     report = getOrCreateDraft(testId, latest.id, firstDraftText(test, latest.id, result, record));
     if (report.status === "signed" && report.signedModelJson) {
       const versions = listReports(testId);
-      const model = withVersionNotes(JSON.parse(report.signedModelJson) as ReportModel, report, versions);
+      const model = withVersionNotes(JSON.parse(report.signedModelJson) as ReportModel, report, versions, changesOf(testId));
       return { test, record, result, report, versions, model };
     }
   }
   const versions = listReports(testId); // newest first
   // only a version signed before signed reports were kept reaches here signed (the others returned above)
   const rebuiltBy = report.status === "signed" ? ENGINE_VERSION : undefined;
-  const model = withVersionNotes(buildReportModel(result, record, test.label, report), report, versions, rebuiltBy);
+  const model = withVersionNotes(
+    buildReportModel(result, record, test.label, report),
+    report,
+    versions,
+    changesOf(testId),
+    rebuiltBy,
+  );
   return { test, record, result, report, versions, model };
 }
 
@@ -114,20 +120,39 @@ const day = (iso: string | null) => (iso ? `${iso.slice(0, 16).replace("T", " ")
  * newer draft), or, for an older draft, that it must not be used. Written at load time: it tells what happened after
  * signing and changes nothing that was signed.
  */
+/**
+ * What changed in a test between two of its analysis versions, from their notes ("patient details changed: weight
+ * 80 kg → 85 kg", "VT1 override: …"): the versions after `fromId` up to and including `toId`, oldest first.
+ */
+function changesOf(testId: number): (fromId: number, toId: number) => string[] {
+  const analyses = listAnalysisVersions(testId);
+  return (fromId, toId) =>
+    analyses
+      .filter((a) => a.id > fromId && a.id <= toId)
+      .sort((a, b) => a.id - b.id)
+      .map((a) => a.note ?? `analysis version ${a.version}`);
+}
+
 function withVersionNotes(
   model: ReportModel,
   report: StoredReport,
   versions: readonly StoredReport[],
+  changes: (fromAnalysisId: number, toAnalysisId: number) => string[],
   rebuiltBy?: string,
 ): ReportModel {
   const newest = versions[0];
   const newerSigned = versions.find((v) => v.id > report.id && v.status === "signed");
   const earlierSigned = versions.find((v) => v.id < report.id && v.status === "signed");
   const notes = [`Version ${report.version} of ${versions.length}.`];
-  if (earlierSigned)
+  if (earlierSigned) {
+    const since = changes(earlierSigned.analysisId, report.analysisId);
     notes.push(
-      `Revises version ${earlierSigned.version}, signed by ${earlierSigned.signedBy} on ${day(earlierSigned.signedAt)}.`,
+      `Revises version ${earlierSigned.version}, signed by ${earlierSigned.signedBy} on ${day(earlierSigned.signedAt)}` +
+        (since.length
+          ? `; changed since then: ${since.join("; ")}.`
+          : "; the test's data and settings are those it was signed on."),
     );
+  }
   let draftMark = model.draftMark;
   if (report.status === "signed" && newerSigned)
     notes.push(
@@ -136,7 +161,7 @@ function withVersionNotes(
   else if (report.status === "signed" && newest && newest.id !== report.id)
     notes.push(
       newest.analysisId !== report.analysisId
-        ? `The test's data or settings were changed after this version was signed; version ${newest.version}, for the changed analysis, is an unsigned draft.`
+        ? `Changed after this version was signed: ${changes(report.analysisId, newest.analysisId).join("; ") || "the test's data or settings"}. The values here are those at signing; version ${newest.version}, for the changed test, is an unsigned draft, and until it is signed this version remains the signed report.`
         : `A revision (version ${newest.version}) is in progress as an unsigned draft; this signed version stands until it is signed.`,
     );
   // signed before signed reports were kept whole: what is shown is rebuilt, and may read differently from what was signed
