@@ -256,6 +256,18 @@ export function toInterpretInput(
     uncertainty,
     ...(thresholds.vt1.confidence === "low" && !thresholds.vt1.overridden ? { vt1LowConfidence: true } : {}),
     ...(thresholds.vt2.confidence === "low" && !thresholds.vt2.overridden ? { vt2LowConfidence: true } : {}),
+    ...(weightBasis?.changesConclusion &&
+    weightBasis.actual?.percentPredicted != null &&
+    weightBasis.ideal?.percentPredicted != null
+      ? {
+          weightBasisSplit: {
+            actualPct: weightBasis.actual.percentPredicted,
+            idealPct: weightBasis.ideal.percentPredicted,
+            idealWeightKg: weightBasis.ideal.weightKg,
+            reducedOnActual: weightBasis.actual.reduced === true,
+          },
+        }
+      : {}),
   };
 }
 

@@ -375,6 +375,12 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   const concl: string[] = [];
   const end = interpretation.path.end;
   if (end) concl.push(`${end.label}.`);
+  // a capacity read as reduced on one weight basis only says so beside the reading (obesity: Osman 2000, recalled)
+  const wb = input.weightBasisSplit;
+  if (wb && e.peakConclusionsAllowed)
+    concl.push(
+      `Peak VO2 is ${wb.actualPct.toFixed(0)} % of predicted on actual body weight (${wb.reducedOnActual ? "reduced" : "not reduced"}) and ${wb.idealPct.toFixed(0)} % on predicted body mass (${wb.idealWeightKg.toFixed(1)} kg; ${wb.reducedOnActual ? "not reduced" : "reduced"}): the reading depends on the weight basis, which the report should state.`,
+    );
   // Only moderately or strongly supported patterns reach the conclusion; weak ones stay in the pattern section.
   const leading = supported.find((p) => p.support === "strong" || p.support === "moderate");
   if (leading) concl.push(leading.statement);

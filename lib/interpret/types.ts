@@ -171,6 +171,11 @@ export interface InterpretInput {
   vt1LowConfidence?: boolean;
   /** VT2 found with low confidence (and not set by a reviewer): a prescription from it says to confirm it. */
   vt2LowConfidence?: boolean;
+  /**
+   * Peak VO2 reads as reduced on one weight basis and not on the other (actual against predicted body mass, the same
+   * limit as the rule peak-vo2-reduced): the conclusion says both, so "reduced" never stands without its basis.
+   */
+  weightBasisSplit?: { actualPct: number; idealPct: number; idealWeightKg: number; reducedOnActual: boolean };
 }
 
 /** One measurement's band as the interpretation reads it. */
