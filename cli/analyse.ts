@@ -4,7 +4,7 @@ import type { Command } from "commander";
 import { analyse, buildRecord, type ReferralQuestion } from "../lib/analysis";
 import { importLactateFile, parseTimeText, STAGE_DURATION_LIMITS_S } from "../lib/breath";
 import { hasErrors, makeIssue, plausibilityProblem, type PlausibleField } from "../lib/core";
-import { REFERRAL_QUESTIONS } from "../lib/interpret";
+import { ATRIAL_FIBRILLATION_HR_NOTE, BETA_BLOCKER_HR_NOTE, REFERRAL_QUESTIONS } from "../lib/interpret";
 import { CLINICAL_CAUTION, toCliJson, type CliAnalysisJson } from "../lib/report";
 import { formatClock } from "../lib/units";
 import { EXIT_STATUS_HELP, UsageError } from "./usageError";
@@ -83,7 +83,7 @@ export function registerAnalyse(program: Command): void {
     .addHelpText("after", EXIT_STATUS_HELP)
     .action(async (file: string, opts: AnalyseOptions) => {
       const result = await runAnalyse(file, opts);
-      process.stdout.write(opts.json ? JSON.stringify(result, null, 2) + "\n" : formatText(result));
+      process.stdout.write(opts.json ? JSON.stringify(result, null, 2) + "\n" : formatText(result, opts));
     });
 }
 
@@ -224,7 +224,13 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
   return toCliJson(analyse(record, settings), CLINICAL_CAUTION);
 }
 
-function formatText(r: CliAnalysisJson): string {
+export function formatText(r: CliAnalysisJson, opts: Pick<AnalyseOptions, "betaBlocker" | "atrialFibrillation"> = {}): string {
+  // the same words beside heart rate as on the page and in the report
+  const hrNote = opts.atrialFibrillation
+    ? ` (${ATRIAL_FIBRILLATION_HR_NOTE})`
+    : opts.betaBlocker
+      ? ` (${BETA_BLOCKER_HR_NOTE})`
+      : "";
   // a value with its unit, or "not determinable" without one
   const n = (x: number | null, d = 0, unit = "") => (x === null ? "not determinable" : `${x.toFixed(d)}${unit}`);
   // a calibrated band after its value ("band" means what the JSON Schema says), or nothing
@@ -250,7 +256,7 @@ function formatText(r: CliAnalysisJson): string {
   const leading = effortWords.patterns?.find((p) => p.support === "strong" || p.support === "moderate");
   const lines = [
     `peak VO2        ${n(r.peak.vo2MlMin, 0, " mL/min")}, ${perKg}${pct("vo2PeakMlMin")} (${r.peak.method})`,
-    `peak RER ${n(r.peak.rer, 2)}, HR ${n(r.peak.hrBpm, 0, " bpm")}${pct("hrMaxBpm")}, ${
+    `peak RER ${n(r.peak.rer, 2)}, HR ${n(r.peak.hrBpm, 0, " bpm")}${pct("hrMaxBpm")}${hrNote}, ${
       onTreadmill
         ? `speed ${n(r.peak.speedKmh ?? null, 1, " km/h")}${r.peak.gradePct != null ? `, grade ${n(r.peak.gradePct, 1, " %")}` : ""}`
         : `work rate ${n(r.peak.workW, 0, " W")}`

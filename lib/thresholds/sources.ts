@@ -8,7 +8,7 @@ import { defineSources } from "../core/source";
 export const THRESHOLD_SOURCES = defineSources({
   "peak-rolling-average": {
     citation:
-      "Highest 20-30 s average of VO2 near end-exercise as peak VO2 (common practice; survey: Robergs, Dwyer & Astorino 2010, Sports Med 40:95)",
+      "Highest 20-30 s average in exercise as the peak value: for VO2 near end-exercise (common practice; survey: Robergs, Dwyer & Astorino 2010, Sports Med 40:95), and by the same rule for HR, VE, PETCO2 and the other channels (our extension)",
     status: "common-practice",
   },
   "implementation-choice": {

@@ -5,7 +5,8 @@
  */
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { runAnalyse } from "../../cli/analyse";
+import { formatText, runAnalyse } from "../../cli/analyse";
+import { BETA_BLOCKER_HR_NOTE } from "../../lib/interpret";
 
 const file = path.resolve(__dirname, "../fixtures/cases/heart-failure.csv");
 const base = {
@@ -30,5 +31,12 @@ describe("--beta-blocker", () => {
     // the measured values themselves are the same: only how they are read changes
     expect(blocked.heartRate.percentPredicted).toBe(plain.heartRate.percentPredicted);
     expect(blocked.peak.hrBpm).toBe(plain.peak.hrBpm);
+  }, 60_000);
+
+  it("the text summary says it beside the heart rate, as the page and the report do", async () => {
+    const blocked = await runAnalyse(file, { ...base, betaBlocker: true });
+    const text = formatText(blocked, { betaBlocker: true });
+    expect(text).toMatch(new RegExp(`HR \\d+ bpm, \\d+ % predicted \\([a-z0-9-]+\\) \\(${BETA_BLOCKER_HR_NOTE}\\)`));
+    expect(formatText(blocked)).not.toContain(BETA_BLOCKER_HR_NOTE);
   }, 60_000);
 });
