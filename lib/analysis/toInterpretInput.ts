@@ -70,7 +70,7 @@ export function toInterpretInput(
   }
   const hrr = indices.heartRate;
   if (hrr.recovery1MinBpm.value !== null && hrr.recovery1MinAbnormal === null)
-    reasons.hrr1Bpm = `read from time-averaged rows, whose margin holds the ${HR_RECOVERY_1MIN_ABNORMAL_BPM}-bpm cut-off (see the issues)`;
+    reasons.hrr1Bpm = `its margin (${hrr.recovery1MinBpm.provenance.averaging ? "time-averaged rows" : "the scatter of breath-by-breath HR"}) holds the ${HR_RECOVERY_1MIN_ABNORMAL_BPM}-bpm cut-off (see the issues)`;
   // predicted-HRmax equations do not describe a beta-blocked heart (common practice): HR % predicted and HR reserve are
   // not read against them; the chronotropic index has its own beta-blocker cut-off (rules.json)
   const betaBlocked = patient.betaBlocker === true;

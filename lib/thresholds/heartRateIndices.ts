@@ -178,6 +178,7 @@ export function heartRateIndices(test: ConditionedTest, options: HeartRateOption
   const coarse = end !== null && end.rowIntervalS >= HR_RECOVERY_MAX_ROW_INTERVAL_S;
   const rowKind = test.shape === "stage" ? "time averages or stage values" : "time averages";
   const margins: string[] = [];
+  const nearCutoff: string[] = [];
   const recovery = (afterS: number, abnormalAt: number, sourceId: string): { m: Measured; abnormal: boolean | null } => {
     const prov = provenanceOf(
       `hr-recovery-${afterS}s`,
@@ -211,7 +212,22 @@ export function heartRateIndices(test: ConditionedTest, options: HeartRateOption
       return nd(`HR missing from ${Math.round(read.fromS)} to ${Math.round(read.toS)} s, around ${afterS} s into recovery`);
     const d = pk - read;
     const inputs: Record<string, number | string | null> = { ...prov.inputs, recoveryHrBpm: read };
-    if (!end.averaged) return { m: measured(d, "1/min", { ...prov, inputs }), abnormal: d <= abnormalAt };
+    if (!end.averaged) {
+      // breath by breath, one breath's HR is read at the time: its scatter about the local course of HR is the margin
+      // (1.28 × the residual SD of the breath HRs within ±15 s about a line, an 80 % two-sided normal interval, as the
+      // reported bands; our choice); a call the margin straddles is withheld, as for time-averaged rows
+      const marginBpm = breathHrMargin(hr, at);
+      if (!Number.isFinite(marginBpm)) return { m: measured(d, "1/min", { ...prov, inputs }), abnormal: d <= abnormalAt };
+      const withheld = marginBpm > 0 && Math.abs(d - abnormalAt) < marginBpm;
+      if (withheld)
+        nearCutoff.push(
+          `${d.toFixed(1)} bpm at ${afterS / 60} min is within ±${marginBpm.toFixed(1)} bpm of the ≤ ${abnormalAt} bpm cut-off`,
+        );
+      return {
+        m: measured(d, "1/min", { ...prov, inputs: { ...inputs, marginBpm } }),
+        abnormal: withheld ? null : d <= abnormalAt,
+      };
+    }
     // time-averaged rows: a margin of one row's HR fall at the reading (our choice): the row labelled as the last of
     // exercise may itself hold the first seconds of recovery, so the end can be off by up to one row
     const slope = (readHrNumber(hr, at + end.rowIntervalS) - readHrNumber(hr, at - end.rowIntervalS)) / (2 * end.rowIntervalS);
@@ -231,6 +247,15 @@ export function heartRateIndices(test: ConditionedTest, options: HeartRateOption
   };
   const r1 = recovery(60, HR_RECOVERY_1MIN_ABNORMAL_BPM, "cole-1999");
   const r2 = recovery(120, HR_RECOVERY_2MIN_ABNORMAL_BPM, "cole-2000");
+  if (nearCutoff.length > 0)
+    issues.push(
+      makeIssue(
+        "info",
+        "hr-recovery-near-cutoff",
+        `HR recovery ${nearCutoff.join("; ")}, the scatter of breath-by-breath HR around the reading (1.28 × its SD): the abnormal/normal call is withheld; read the HR trace in recovery.`,
+        { field: "hrBpm" },
+      ),
+    );
   if (end?.averaged && !coarse && margins.length > 0)
     issues.push(
       makeIssue(
@@ -326,6 +351,34 @@ function readHrAt(hr: { t: number[]; v: number[] }, atS: number): number | "afte
   const lo = hi - 1;
   if (hr.t[hi] - hr.t[lo] >= CHANNEL_GAP_MIN_S) return { fromS: hr.t[lo], toS: hr.t[hi] };
   return hr.v[lo] + ((atS - hr.t[lo]) / (hr.t[hi] - hr.t[lo])) * (hr.v[hi] - hr.v[lo]);
+}
+
+/**
+ * The scatter of breath-by-breath HR about its local course at `atS`: 1.28 × the residual SD of the breaths within
+ * ±15 s about a least-squares line (our choice). NaN with fewer than 6 breaths there.
+ */
+function breathHrMargin(hr: { t: number[]; v: number[] }, atS: number): number {
+  const ts: number[] = [];
+  const vs: number[] = [];
+  for (let i = 0; i < hr.t.length; i++)
+    if (Math.abs(hr.t[i] - atS) <= 15 && Number.isFinite(hr.v[i])) {
+      ts.push(hr.t[i]);
+      vs.push(hr.v[i]);
+    }
+  const n = ts.length;
+  if (n < 6) return NaN;
+  const mt = ts.reduce((a, b) => a + b, 0) / n;
+  const mv = vs.reduce((a, b) => a + b, 0) / n;
+  let sxx = 0;
+  let sxy = 0;
+  for (let i = 0; i < n; i++) {
+    sxx += (ts[i] - mt) ** 2;
+    sxy += (ts[i] - mt) * (vs[i] - mv);
+  }
+  const slope = sxx > 0 ? sxy / sxx : 0;
+  let sse = 0;
+  for (let i = 0; i < n; i++) sse += (vs[i] - (mv + slope * (ts[i] - mt))) ** 2;
+  return 1.28 * Math.sqrt(sse / (n - 2));
 }
 
 function readHrNumber(hr: { t: number[]; v: number[] }, atS: number): number {

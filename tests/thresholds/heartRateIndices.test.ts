@@ -68,6 +68,31 @@ describe("heart-rate indices", () => {
     expect(s.recovery1MinAbnormal).toBe(false);
   });
 
+  it("breath-by-breath HR that scatters about its course: a value within its margin of the cut-off is not called", () => {
+    // INVENTED: the recovery line of withRecovery plus ±3 bpm alternating from breath to breath (residual SD ≈ 3 by
+    // construction, so the margin 1.28 × SD is about 3.8 bpm)
+    let k = 0;
+    const noisy = (dropPerMin: number) =>
+      makeTest(
+        buildRows((t, phase) => {
+          const base =
+            phase === "rest" ? 70 : phase === "exercise" ? 70 + ((t - 180) / 600) * 80 : 150 - (dropPerMin * (t - EX_END_S)) / 60;
+          return { hrBpm: phase === "recovery" ? base + (k++ % 2 === 0 ? 3 : -3) : base };
+        }),
+      );
+    const near = heartRateIndices(noisy(13), { peakHr: peak(150) });
+    const margin = near.recovery1MinBpm.provenance.inputs?.marginBpm as number;
+    expect(margin).toBeGreaterThan(3);
+    expect(margin).toBeLessThan(4.5);
+    expect(Math.abs(near.recovery1MinBpm.value! - 12)).toBeLessThan(margin);
+    expect(near.recovery1MinAbnormal).toBeNull();
+    expect(near.issues.map((i) => i.code)).toContain("hr-recovery-near-cutoff");
+    // 25 bpm/min: far from the cut-off, the call stands
+    const far = heartRateIndices(noisy(25), { peakHr: peak(150) });
+    expect(far.recovery1MinAbnormal).toBe(false);
+    expect(far.issues.map((i) => i.code)).not.toContain("hr-recovery-near-cutoff");
+  });
+
   it("HR recovery at 2 min: 21 bpm/min → 42 is abnormal (Cole et al., Ann Intern Med 2000, confirmed: ≤ 42); 22 bpm/min → 44 is not", () => {
     expect(heartRateIndices(withRecovery(21), { peakHr: peak(150) }).recovery2MinAbnormal).toBe(true);
     const r = heartRateIndices(withRecovery(22), { peakHr: peak(150) });
