@@ -30,7 +30,6 @@ export const plausibleNumber = (field: PlausibleField) => {
   return optionalNumber(min, max, label);
 };
 
-/** Patient and test details sent with an upload. Ranges: `PLAUSIBLE_LIMITS` (generous; common practice). */
 /**
  * A test's label: the register's name for it and its report's title, so it must print in the report PDF (Western
  * European characters, `unprintableInPdf`) and hold no line breaks or other control characters.
@@ -49,6 +48,7 @@ export const labelSchema = z
       });
   });
 
+/** Patient and test details sent with an upload. Ranges: `PLAUSIBLE_LIMITS` (generous; common practice). */
 export const testDetailsSchema = z.object({
   label: labelSchema.optional().default(""),
   sex: z.enum(["male", "female", ""]).optional().default(""),

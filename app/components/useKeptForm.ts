@@ -5,22 +5,29 @@ import { useLeaveGuard } from "./useLeaveGuard";
 
 const LEAVE_WARNING = "This form has values that are not saved. Leave the page and lose them?";
 
-/** The form's text, select and checkbox values by name (files and hidden fields left out). */
+type Field = HTMLInputElement | HTMLSelectElement | HTMLTextAreaElement;
+
+/** The fields a person types or chooses in (named; hidden, file and submit inputs left out). */
+function fieldsOf(form: HTMLFormElement): Field[] {
+  return Array.from(form.elements).filter(
+    (el): el is Field =>
+      (el instanceof HTMLInputElement || el instanceof HTMLSelectElement || el instanceof HTMLTextAreaElement) &&
+      el.name !== "" &&
+      !["hidden", "file", "submit"].includes(el.type),
+  );
+}
+
+const isCheckbox = (el: Field): el is HTMLInputElement => el instanceof HTMLInputElement && el.type === "checkbox";
+
+/** The form's text, select and checkbox values by name. */
 function valuesOf(form: HTMLFormElement): Record<string, string> {
-  const out: Record<string, string> = {};
-  for (const el of Array.from(form.elements)) {
-    if (!(el instanceof HTMLInputElement || el instanceof HTMLSelectElement || el instanceof HTMLTextAreaElement)) continue;
-    if (!el.name || el.type === "hidden" || el.type === "file" || el.type === "submit") continue;
-    out[el.name] = el instanceof HTMLInputElement && el.type === "checkbox" ? String(el.checked) : el.value;
-  }
-  return out;
+  return Object.fromEntries(fieldsOf(form).map((el) => [el.name, isCheckbox(el) ? String(el.checked) : el.value]));
 }
 
 function setValues(form: HTMLFormElement, values: Record<string, string>): void {
-  for (const el of Array.from(form.elements)) {
-    if (!(el instanceof HTMLInputElement || el instanceof HTMLSelectElement || el instanceof HTMLTextAreaElement)) continue;
-    if (!(el.name in values) || el.type === "hidden" || el.type === "file") continue;
-    if (el instanceof HTMLInputElement && el.type === "checkbox") el.checked = values[el.name] === "true";
+  for (const el of fieldsOf(form)) {
+    if (!(el.name in values)) continue;
+    if (isCheckbox(el)) el.checked = values[el.name] === "true";
     else el.value = values[el.name];
   }
 }
@@ -42,13 +49,13 @@ export function useKeptForm(formRef: RefObject<HTMLFormElement | null>, key: str
   useLayoutEffect(() => {
     const form = formRef.current;
     if (!form) return;
-    initial.current = valuesOf(form);
+    const rendered = valuesOf(form);
+    // after a refused save the form shows values that were not saved: unsaved against anything, until a save succeeds
+    initial.current = refused ? {} : rendered;
     if (refused) {
-      // the form shows the values of a refused save: unsaved until a save succeeds
-      initial.current = {};
       setDirty(true);
       try {
-        window.sessionStorage.setItem(storageKey, JSON.stringify(valuesOf(form)));
+        window.sessionStorage.setItem(storageKey, JSON.stringify(rendered));
       } catch {
         // storage disabled: the leave warning still protects the values
       }
@@ -65,9 +72,9 @@ export function useKeptForm(formRef: RefObject<HTMLFormElement | null>, key: str
     try {
       const raw = window.sessionStorage.getItem(storageKey);
       const kept = raw ? (JSON.parse(raw) as Record<string, string>) : null;
-      const base = valuesOf(form);
-      if (!refused && generation === 0 && kept && Object.entries(kept).some(([k, v]) => base[k] !== undefined && base[k] !== v)) {
-        setValues(form, kept);
+      const differs = kept && Object.entries(kept).some(([k, v]) => rendered[k] !== undefined && rendered[k] !== v);
+      if (!refused && generation === 0 && differs) {
+        setValues(form, kept!);
         // values kept outside React (sessionStorage), put back once after mount
         setRestored(true);
         setDirty(true);

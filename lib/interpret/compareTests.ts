@@ -180,24 +180,18 @@ export function compareTests(
         verdict: "not-judged",
         text: `${head} (${signed}): not judged, predicted by different equations (${pair[0]} before, ${pair[1]} after)`,
       };
-    // heart rate and O2 pulse (VO2/HR) recorded in atrial fibrillation do not change the way sinus-rhythm values do
+    // heart rate and O2 pulse (VO2/HR) are not compared across a rhythm or a beta-blocker that differs: atrial
+    // fibrillation's rate is not set by the sinus node, and a beta-blocker started or stopped lowers or raises heart
+    // rate, and O2 pulse with it
     const afIn = [before, after].map((t, i) => (t.patient.atrialFibrillation === true ? (i === 0 ? "before" : "after") : ""));
-    if ((variable === "peakHrBpm" || variable === "o2PulsePeakMlBeat") && afIn.some(Boolean))
-      return {
-        ...base,
-        noise: null,
-        verdict: "not-judged",
-        text: `${head} (${signed}): not judged, atrial fibrillation recorded ${afIn.filter(Boolean).join(" and ")}`,
-      };
-    // a beta-blocker started or stopped between the tests lowers or raises heart rate, and O2 pulse with it
     const bb = [before, after].map((t) => t.patient.betaBlocker === true);
-    if ((variable === "peakHrBpm" || variable === "o2PulsePeakMlBeat") && bb[0] !== bb[1])
-      return {
-        ...base,
-        noise: null,
-        verdict: "not-judged",
-        text: `${head} (${signed}): not judged, a beta-blocker is recorded ${bb[0] ? "before" : "after"} only`,
-      };
+    const hrNotComparable = afIn.some(Boolean)
+      ? `atrial fibrillation recorded ${afIn.filter(Boolean).join(" and ")}`
+      : bb[0] !== bb[1]
+        ? `a beta-blocker is recorded ${bb[0] ? "before" : "after"} only`
+        : null;
+    if ((variable === "peakHrBpm" || variable === "o2PulsePeakMlBeat") && hrNotComparable)
+      return { ...base, noise: null, verdict: "not-judged", text: `${head} (${signed}): not judged, ${hrNotComparable}` };
     if (info.effortDependent && !comparable) {
       return {
         ...base,

@@ -218,7 +218,7 @@ describe("a signed report is kept as signed, and its history is marked", () => {
         sections: report.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: s.paragraphs })),
         rechecked: [],
       },
-      freezeReport(testId, report.id)!,
+      freezeReport(testId, report.id)!.freeze,
     );
 
   it("a version signed with its report is read back as signed, not recomputed", () => {

@@ -34,6 +34,12 @@ function loadRecord(testId: number): TestRecord | null {
   return getTest(testId)?.record ?? null;
 }
 
+/** The test's record and, read from the same row, why a save from this page is refused when it showed an older one. */
+function loadForSave(testId: number, sentToken: unknown): { record: TestRecord | null; stale: string | null } {
+  const test = getTest(testId);
+  return { record: test?.record ?? null, stale: changedSince(test, sentToken) };
+}
+
 function done(testId: number, record: TestRecord, action: string, detail: string): void {
   // a new analysis version pins the changed inputs; a report already signed keeps the record it was signed on
   updateTestRecord(testId, record, ACTOR, `${action.replace(/-/g, " ")}: ${detail}`);
@@ -148,9 +154,8 @@ export async function saveSpirometry(_prev: InputFormState, form: FormData): Pro
   const values = formValues(form);
   const stamp = Date.now();
   const testId = Number(values.testId);
-  const record = Number.isInteger(testId) ? loadRecord(testId) : null;
+  const { record, stale } = Number.isInteger(testId) ? loadForSave(testId, values.recordToken) : { record: null, stale: null };
   if (!record) return { errors: { form: "This test has no usable breath data yet." }, values, stamp };
-  const stale = changedSince(testId, values.recordToken);
   if (stale) return { errors: { form: stale }, values, stamp };
   const { spirometry, issues } = parseSpirometry({
     fev1L: values.fev1L,
@@ -179,9 +184,8 @@ export async function saveContext(_prev: InputFormState, form: FormData): Promis
   const parsed = contextSchema.safeParse(values);
   if (!parsed.success) return { errors: fieldErrors(parsed.error), values, stamp };
   const c = parsed.data;
-  const record = loadRecord(c.testId);
+  const { record, stale } = loadForSave(c.testId, values.recordToken);
   if (!record) return { errors: { form: "This test has no usable breath data yet." }, values, stamp };
-  const stale = changedSince(c.testId, values.recordToken);
   if (stale) return { errors: { form: stale }, values, stamp };
   const yn = (x: "" | "yes" | "no") => (x === "" ? undefined : x === "yes");
   const context = {
@@ -214,9 +218,8 @@ export async function saveConduct(_prev: InputFormState, form: FormData): Promis
   const parsed = conductSchema.safeParse(values);
   if (!parsed.success) return { errors: fieldErrors(parsed.error), values, stamp };
   const { testId, ...c } = parsed.data;
-  const record = loadRecord(testId);
+  const { record, stale } = loadForSave(testId, values.recordToken);
   if (!record) return { errors: { form: "This test has no usable breath data yet." }, values, stamp };
-  const stale = changedSince(testId, values.recordToken);
   if (stale) return { errors: { form: stale }, values, stamp };
   const conduct = dropUndefined({
     protocol: c.protocol || undefined,

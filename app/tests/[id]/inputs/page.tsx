@@ -15,7 +15,7 @@ export default async function InputsPage({ params }: { params: Promise<{ id: str
   const test = getTest(testId);
   if (!test) notFound();
   const record = test.record;
-  const token = recordToken(testId);
+  const token = recordToken(test);
   if (!record) {
     return (
       <>

@@ -3,7 +3,7 @@
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { updatePatientDetails } from "@/lib/store/updatePatientDetails";
-import { renameTest } from "@/lib/store/tests";
+import { getTest, renameTest } from "@/lib/store/tests";
 import { fieldErrors, labelSchema, testDetailsSchema } from "../../../schemas";
 import { changedSince } from "../recordToken";
 
@@ -34,7 +34,7 @@ export async function savePatientDetails(_prev: PatientFormState, form: FormData
   const parsed = patientSchema.safeParse(values);
   if (!parsed.success) return { errors: fieldErrors(parsed.error), values, stamp };
   const d = parsed.data;
-  const stale = changedSince(d.testId, values.recordToken);
+  const stale = changedSince(getTest(d.testId), values.recordToken);
   if (stale) return { errors: { form: stale }, values, stamp };
   const result = updatePatientDetails(
     d.testId,

@@ -52,7 +52,7 @@ export default async function PatientPage({ params }: { params: Promise<{ id: st
           testId={testId}
           current={current}
           perKg={test.record?.table.vo2PerKg === true}
-          recordToken={recordToken(testId)}
+          recordToken={recordToken(test)}
         />
       </section>
       <section className="panel">

@@ -72,11 +72,6 @@ function RecheckNote(props: {
   );
 }
 
-/**
- * Editable report text, one textarea per section. The text lives in the parent (`DraftWorkspace`)
- * so the sign form signs exactly what is on screen; it stays as typed whether the save succeeds or
- * is refused by validation. Carried-forward sections show their re-check note.
- */
 /** Where a save that made a new version leaves its confirmation for the editor of that version. */
 export function newVersionKey(testId: number): string {
   return `cpet-desk:new-report-version:test-${testId}`;
@@ -101,6 +96,11 @@ async function saveAndHandOver(prev: DraftState, form: FormData): Promise<DraftS
   return state;
 }
 
+/**
+ * Editable report text, one textarea per section. The text lives in the parent (`DraftWorkspace`)
+ * so the sign form signs exactly what is on screen; it stays as typed whether the save succeeds or
+ * is refused by validation. Carried-forward sections show their re-check note.
+ */
 export function DraftEditor(props: {
   testId: number;
   reportId: number;

@@ -39,6 +39,9 @@ function readKept(key: string): Record<string, string> | null {
 
 const PDF_WARNING = "The report text has changes that are not saved; the PDF holds the last saved text. Download it anyway?";
 
+/** The question before leaving with unsaved text: a different one for a PDF of the saved text. */
+const pdfOrLeave = (url: URL) => (url.pathname.startsWith("/api/") ? PDF_WARNING : LEAVE_WARNING);
+
 /**
  * The report text editor and, while the version is a draft, the sign form, sharing one copy of
  * the on-screen text: what the sign form signs is exactly what the editor shows. Warns before the
@@ -48,8 +51,6 @@ const PDF_WARNING = "The report text has changes that are not saved; the PDF hol
  * Forward, which cannot ask, lose nothing: on return it is restored with a notice and a button to
  * discard it. It is removed once the text is saved, signed or discarded.
  */
-const pdfOrLeave = (url: URL) => (url.pathname.startsWith("/api/") ? PDF_WARNING : LEAVE_WARNING);
-
 export function DraftWorkspace(props: {
   testId: number;
   reportId: number;

@@ -1,7 +1,6 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
-import { getTest } from "@/lib/store/tests";
 import { freezeReport } from "./loadReport";
 import { draftFormSchema, readSectionsForm, readSignForm, sectionErrors, toOnScreen } from "./schemas";
 import { saveDraftChecked, signDraft } from "./signDraft";
@@ -79,7 +78,8 @@ export async function signReportAction(_prev: SignState, form: FormData): Promis
     return { values, errors };
   }
   // the report as it will read once signed is kept with the signature, so it never changes afterwards
-  const res = signDraft(input, freezeReport(input.testId, input.reportId) ?? undefined, getTest(input.testId)?.label);
+  const kept = freezeReport(input.testId, input.reportId);
+  const res = signDraft(input, kept?.freeze, kept?.label);
   if (!res.ok) return { values, errors: res.errors };
   revalidatePath(`/tests/${input.testId}/report`);
   return { signed: true, textSaved: res.textSaved };

@@ -176,9 +176,13 @@ function withVersionNotes(
 
 /**
  * The function that turns a draft, as it will read once signed, into the report kept with the signature: built from
- * the record and settings the draft's analysis version pinned. Null when the version does not exist or is of another test.
+ * the record and settings the draft's analysis version pinned; with the test's label, printed as the report's title.
+ * Null when the version does not exist or is of another test.
  */
-export function freezeReport(testId: number, reportId: number): ((signed: StoredReport) => string) | null {
+export function freezeReport(
+  testId: number,
+  reportId: number,
+): { freeze: (signed: StoredReport) => string; label: string } | null {
   const found = getTest(testId);
   const report = getReport(reportId);
   if (!found?.record || !report || report.testId !== testId || report.status !== "draft") return null;
@@ -186,5 +190,5 @@ export function freezeReport(testId: number, reportId: number): ((signed: Stored
   const settings = listAnalysisVersions(testId).find((v) => v.id === report.analysisId)?.settings ?? {};
   const record = recordOf(test, report.analysisId);
   const result = analyse(record, settings);
-  return (signed) => JSON.stringify(buildReportModel(result, record, test.label, signed));
+  return { freeze: (signed) => JSON.stringify(buildReportModel(result, record, test.label, signed)), label: test.label };
 }
