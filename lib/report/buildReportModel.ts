@@ -291,6 +291,8 @@ export function buildReportModel(
     category: sc.overall ? sc.overall.label : sc.overallText,
     severity: sc.overall?.severity ?? -1,
     inputs: [...sc.axes.map((a) => a.text), ...(sc.path?.steps.map((x) => x.text) ?? [])],
+    // a scheme's limits travel with its result: the report's reader needs them as much as the page's
+    notes: [...sc.notes],
     sourceIds: unique(sc.sourceIds),
   }));
 

@@ -74,6 +74,11 @@ export interface ReportScheme {
   severity: number;
   /** Inputs used, formatted, e.g. "peak VO2 14.2 mL/kg/min". */
   inputs: string[];
+  /**
+   * The scheme's own notes on how it applies here (e.g. "Listing should never rest on peak VO2 alone"), from its data
+   * file. Absent from reports signed before notes were printed.
+   */
+  notes?: string[];
   sourceIds: string[];
 }
 

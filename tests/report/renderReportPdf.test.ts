@@ -173,6 +173,29 @@ describe("renderReportPdf", () => {
     }
   });
 
+  it("prints each classification scheme's notes as its data file words them", async () => {
+    // the notes are the schemes' own limits (reference-equations/interpretation/schemes.json), e.g. that CPET rows alone
+    // do not give a pulmonary-hypertension risk: the report's reader must see them as the page's does
+    const file = JSON.parse(
+      fs.readFileSync(path.join(__dirname, "../../reference-equations/interpretation/schemes.json"), "utf8"),
+    ) as { schemes: { name: string; notes?: string[] }[] };
+    const fromFile = new Map(file.schemes.map((s) => [s.name, s.notes ?? []]));
+    let printed = 0;
+    for (const preset of ["heart-failure", "pulmonary-vascular"]) {
+      const model = await demoModel(preset);
+      expect(model.schemes.length).toBeGreaterThan(0);
+      const text = pagesText(await renderReportPdf(model)).join(" ");
+      for (const s of model.schemes) {
+        expect([s.name, s.notes]).toEqual([s.name, fromFile.get(s.name)]);
+        for (const note of s.notes ?? []) {
+          expect(text).toContain(toWinAnsi(note).replace(/\s+/g, " "));
+          printed++;
+        }
+      }
+    }
+    expect(printed).toBeGreaterThan(3);
+  });
+
   it("keeps headers, arrows and 'not determinable' whole: no word split over two lines", async () => {
     const model = await demoModel("pulmonary-vascular");
     // INVENTED rows: every value column holds "not determinable", the longest value the report writes.

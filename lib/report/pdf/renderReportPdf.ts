@@ -238,12 +238,14 @@ export async function renderReportPdf(rawModel: ReportModel, now: Date = new Dat
   content.push(heading("Classification schemes"));
   if (model.schemes.length) {
     const body: TableCell[][] = [
-      ["Scheme", "Category", "Severity", "Inputs", "Sources"].map((t): TableCell => ({ text: t, style: "th" })),
+      ["Scheme", "Category", "Severity", "Inputs and notes", "Sources"].map((t): TableCell => ({ text: t, style: "th" })),
       ...model.schemes.map((s): TableCell[] => [
         { text: s.name, bold: true },
         s.category,
         String(s.severity),
-        s.inputs.join("; "),
+        s.notes?.length
+          ? { stack: [s.inputs.join("; "), { text: `Note: ${s.notes.join(" ")}`, color: MUTED, margin: [0, 2, 0, 0] }] }
+          : s.inputs.join("; "),
         { text: sourceRefs(s.sourceIds, index), color: MUTED },
       ]),
     ];

@@ -127,6 +127,12 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
             {model.schemes.map((s) => (
               <li key={s.name}>
                 <strong>{s.name}</strong>: {s.category} <span className="how">({s.inputs.join("; ")})</span>
+                {s.notes?.length ? (
+                  <span className="how" data-testid="scheme-notes">
+                    {" "}
+                    Note: {s.notes.join(" ")}
+                  </span>
+                ) : null}
               </li>
             ))}
           </ul>
