@@ -43,9 +43,16 @@ class ReportPage {
     await this.page.getByTestId("draft-save").click();
   }
 
-  async sign(name: string, attest = true) {
+  /**
+   * Sign as a reviewer. The tests share one database, so a demo report another test signed makes this draft an
+   * amendment: then `reason` (or, when none is given, a set-up reason) fills the field the form asks for.
+   */
+  async sign(name: string, attest = true, reason?: string) {
     await this.page.getByTestId("signer").fill(name);
     if (attest) await this.page.getByTestId("attest").check();
+    const field = this.page.getByTestId("amendment-reason");
+    if (reason !== undefined) await field.fill(reason);
+    else if (await field.isVisible()) await field.fill("Signed again by an end-to-end test (e2e set-up).");
     await this.page.getByTestId("sign-submit").click();
   }
 }
@@ -289,9 +296,20 @@ test("report: two tabs revising one signed report — the second is refused with
   await tabB.saveDraft();
   await expect(b.getByTestId("draft-error")).toContainText("a newer version of this report was made after this page was opened");
   await expect(tabB.section("conclusion")).toHaveValue("Revision typed in tab B (e2e).");
-  // tab A signs its own revision; the first signed version now says on its PDF that it was amended
-  await tabA.sign("Dr E2E Second");
+  // the draft says what signing it would change: only the text here, as no value moved
+  await expect(a.getByTestId("amendment-panel")).toContainText(/Revises signed version \d+ \(not signed yet\)/);
+  await expect(a.getByTestId("amendment-changes")).toContainText("No key value, threshold or scheme result differs");
+  // an amendment is not signed without its reason; the name and the text stay
+  await tabA.sign("Dr E2E Second", true, "");
+  await expect(a.getByTestId("sign-error")).toContainText("Give the reason for the amendment");
+  await expect(a.getByTestId("signer")).toHaveValue("Dr E2E Second");
+  // tab A signs its own revision with a reason; the first signed version now says on its PDF that it was amended
+  await a.getByTestId("amendment-reason").fill("Conclusion reworded after the team's review (e2e).");
+  await a.getByTestId("sign-submit").click();
   await expect(a.getByTestId("signed-text")).toContainText("Revision typed in tab A (e2e).");
+  await expect(a.getByTestId("amendment-reason-shown")).toContainText(
+    "Reason: Conclusion reworded after the team's review (e2e).",
+  );
   await expect(a.getByTestId("version-note")).toContainText(/Revises version \d+, signed by Dr E2E First/);
   await expect(a.getByTestId("signer-not-verified")).toContainText("not verified");
   // the list of versions says which is current and which the new signature amends

@@ -27,6 +27,8 @@ export interface ReportDraftState {
   signedAt?: string | null;
   /** The attestation the signer confirmed. */
   attestation?: string | null;
+  /** A signed version that amends an earlier signed one: which, and why. */
+  amendment?: { revisesVersion: number; reason: string } | null;
 }
 
 export interface BuildReportModelOptions {
@@ -332,6 +334,7 @@ export function buildReportModel(
     ...(draft.status === "signed" && draft.signedBy ? { signedBy: draft.signedBy } : {}),
     ...(draft.status === "signed" && draft.signedAt ? { signedAt: draft.signedAt } : {}),
     ...(draft.status === "signed" && draft.attestation ? { attestation: draft.attestation } : {}),
+    ...(draft.status === "signed" && draft.amendment ? { amendment: { ...draft.amendment } } : {}),
     caution: CLINICAL_CAUTION,
     draftMark: DRAFT_CAUTION,
     keyValues,

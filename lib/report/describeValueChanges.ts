@@ -1,5 +1,5 @@
 import { displayUnit } from "../units";
-import type { ReportRow } from "./reportModel";
+import type { ReportRow, ReportScheme } from "./reportModel";
 
 const withUnit = (value: string, unit: string) => {
   const u = displayUnit(unit);
@@ -45,5 +45,30 @@ export function describeValueChanges(before: readonly ReportRow[], after: readon
   }
   const now = new Set(after.map((r) => r.label));
   for (const b of before) if (!now.has(b.label)) out.push(`${b.label}: no longer reported (was ${withUnit(b.value, b.unit)})`);
+  return out;
+}
+
+/**
+ * The classification schemes whose result differs between two versions of a report, matched by scheme name, as plain
+ * sentences: "Weber class (Weber & Janicki): Class B (…) → Class C (…)". A scheme applied in only one version is
+ * listed as newly applied or no longer applied.
+ *
+ * @param before schemes of the earlier version
+ * @param after schemes of the current version
+ * @returns one sentence per changed scheme, in the order of `after` (then schemes no longer applied)
+ */
+export function describeSchemeChanges(
+  before: readonly Pick<ReportScheme, "name" | "category">[],
+  after: readonly Pick<ReportScheme, "name" | "category">[],
+): string[] {
+  const old = new Map(before.map((s) => [s.name, s.category]));
+  const out: string[] = [];
+  for (const s of after) {
+    const was = old.get(s.name);
+    if (was === undefined) out.push(`${s.name}: newly applied, ${s.category}`);
+    else if (was !== s.category) out.push(`${s.name}: ${was} → ${s.category}`);
+  }
+  const now = new Set(after.map((s) => s.name));
+  for (const s of before) if (!now.has(s.name)) out.push(`${s.name}: no longer applied (was ${s.category})`);
   return out;
 }

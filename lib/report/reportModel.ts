@@ -101,6 +101,14 @@ export interface ReportModel {
   signedAt?: string;
   /** The attestation the signer confirmed, printed with the signature. */
   attestation?: string;
+  /** A signed version that amends an earlier signed one: the version it amends and the signer's reason (kept as signed). */
+  amendment?: { revisesVersion: number; reason: string };
+  /**
+   * The reported values that differ from the signed version this one revises (key values, thresholds, scheme
+   * categories), one sentence each (`describeValueChanges`); empty when none differs. Set when the report is loaded,
+   * from the two versions' reports as signed, or as now for a draft.
+   */
+  valueChanges?: { sinceVersion: number; lines: string[] };
   /** Decision-support caution, shown on every page. */
   caution: string;
   /** Draft caution, shown while status is "draft". */

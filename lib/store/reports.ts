@@ -29,12 +29,22 @@ export interface StoredReport {
   revision: number;
   /** The report exactly as signed (a `ReportModel` as JSON), null for drafts and versions signed before it was kept. */
   signedModelJson: string | null;
+  /** For a signed version that amends an earlier signed one: which, and the signer's reason (kept with the signature). */
+  amendment: ReportAmendment | null;
+}
+
+/** Why a signed version replaces an earlier signed version of the same test's report, as its signer gave it. */
+export interface ReportAmendment {
+  /** The version number of the signed version it amends. */
+  revisesVersion: number;
+  reason: string;
 }
 
 /** JSON kept in `reports.draft_json`. */
 interface DraftJson {
   sections: ReportSection[];
   attestation?: string;
+  amendment?: ReportAmendment;
 }
 
 interface ReportRow {
@@ -70,6 +80,7 @@ function toReport(row: ReportRow): StoredReport {
     createdAt: row.created_at,
     revision: row.revision,
     signedModelJson: row.signed_model_json ?? null,
+    amendment: json.amendment ?? null,
   };
 }
 
@@ -144,12 +155,14 @@ export type SignResult = { ok: true; report: StoredReport } | { ok: false; reaso
  * confirmed; from then on the version is immutable. Signing a missing or already signed version is
  * refused with a reason (audit: `report-signed`). `freeze`, given the version as it will read once signed, returns the
  * whole report as JSON; it is stored by the same statement that signs (a signed row can no longer be updated).
+ * `amendment`, for a version that replaces an earlier signed one, is kept with the signature and audited.
  */
 export function signReport(
   reportId: number,
   signer: string,
   attestation: string,
   freeze?: (signed: StoredReport) => string,
+  amendment?: ReportAmendment,
 ): SignResult {
   const db = getDb();
   return db.transaction((): SignResult => {
@@ -158,14 +171,28 @@ export function signReport(
     if (current.status === "signed")
       return { ok: false, reason: `This version was already signed by ${current.signedBy} on ${current.signedAt}.` };
     const signedAt = now();
-    const frozen = freeze ? freeze({ ...current, status: "signed", signedBy: signer, signedAt, attestation }) : null;
+    const frozen = freeze
+      ? freeze({ ...current, status: "signed", signedBy: signer, signedAt, attestation, amendment: amendment ?? null })
+      : null;
     const info = db
       .prepare(
         "update reports set status = 'signed', signed_by = ?, signed_at = ?, draft_json = ?, signed_model_json = ? where id = ? and status = 'draft'",
       )
-      .run(signer, signedAt, JSON.stringify({ sections: current.sections, attestation } satisfies DraftJson), frozen, reportId);
+      .run(
+        signer,
+        signedAt,
+        JSON.stringify({ sections: current.sections, attestation, ...(amendment ? { amendment } : {}) } satisfies DraftJson),
+        frozen,
+        reportId,
+      );
     if (info.changes !== 1) return { ok: false, reason: "This version could not be signed; reload the page." };
-    audit(signer, "report-signed", current.testId, `report ${reportId} (version ${current.version}): ${attestation}`);
+    audit(
+      signer,
+      "report-signed",
+      current.testId,
+      `report ${reportId} (version ${current.version}): ${attestation}` +
+        (amendment ? ` Amends version ${amendment.revisesVersion}: ${amendment.reason}` : ""),
+    );
     return { ok: true, report: getReport(reportId)! };
   })();
 }

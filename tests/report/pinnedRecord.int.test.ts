@@ -207,7 +207,12 @@ describe("an older draft kept in the history", () => {
 });
 
 describe("a signed report is kept as signed, and its history is marked", () => {
-  const signKept = (testId: number, report: { id: number; sections: ReportSection[]; revision: number }, by: string) =>
+  const signKept = (
+    testId: number,
+    report: { id: number; sections: ReportSection[]; revision: number },
+    by: string,
+    amendmentReason?: string,
+  ) =>
     signDraft(
       {
         testId,
@@ -217,6 +222,7 @@ describe("a signed report is kept as signed, and its history is marked", () => {
         attestation: "reviewed",
         sections: report.sections.map((s) => ({ id: s.id, title: s.title, paragraphs: s.paragraphs })),
         rechecked: [],
+        ...(amendmentReason !== undefined ? { amendmentReason } : {}),
       },
       freezeReport(testId, report.id)!.freeze,
     );
@@ -257,7 +263,27 @@ describe("a signed report is kept as signed, and its history is marked", () => {
     const v2 = revised.ok ? revised.report : null;
     // while the revision is a draft, the signed version stands and says a revision is in progress
     expect(loadReport(testId, v1.id)!.model.versionNote).toMatch(/A revision \(version 2\) is in progress as an unsigned draft/);
-    expect(signKept(testId, v2!, "Dr B Example").ok).toBe(true);
+    // the draft shows what signing it would change: only the text, here
+    expect(loadReport(testId)!.model.valueChanges).toEqual({ sinceVersion: 1, lines: [] });
+    // an amendment is not signed without its reason (none, or blank after collapsing spaces)
+    for (const reason of [undefined, "   \n  ", "x"]) {
+      const refused = signKept(testId, v2!, "Dr B Example", reason);
+      expect(refused.ok).toBe(false);
+      expect(!refused.ok && refused.errors.amendmentReason).toBe("Why does this version replace signed version 1?");
+      expect(getReport(v2!.id)!.status).toBe("draft");
+    }
+    expect(signKept(testId, v2!, "Dr B Example", "Conclusion\n reworded  after the team's review (invented).").ok).toBe(true);
+    const amended = loadReport(testId, v2!.id)!.model;
+    // kept with the signature, spaces collapsed; the values it changes, read from both versions as signed
+    expect(amended.amendment).toEqual({ revisesVersion: 1, reason: "Conclusion reworded after the team's review (invented)." });
+    expect(JSON.parse(getReport(v2!.id)!.signedModelJson!).amendment).toEqual(amended.amendment);
+    expect(amended.valueChanges).toEqual({ sinceVersion: 1, lines: [] });
+    const amendedText = execFileSync("pdftotext", ["-", "-"], { input: await renderReportPdf(amended) })
+      .toString()
+      .replace(/\s+/g, " ");
+    expect(amendedText).toContain(
+      "Amends signed version 1. Reason: Conclusion reworded after the team's review (invented). No key value, threshold or scheme result differs from version 1.",
+    );
     const old = loadReport(testId, v1.id)!.model;
     expect(old.versionNote).toMatch(
       /^Version 1 of 2\. Superseded: version 2 \(the amended report\), signed by Dr B Example on .+ UTC, replaces this report\.$/,
@@ -273,6 +299,33 @@ describe("a signed report is kept as signed, and its history is marked", () => {
     expect(pages.length).toBeGreaterThan(1);
     for (const page of pages)
       expect(page.replace(/\s+/g, " ")).toMatch(/Superseded: version 2 \(the amended report\), signed by Dr B Example/);
+  });
+
+  it("a draft after a corrected body mass lists the reported values that differ from the signed version", () => {
+    const testId = saveTest({ uploadId: null, label: "Changed values (invented)", record, columns: [], issues: [] });
+    const v1 = loadReport(testId)!;
+    expect(signKept(testId, v1.report, "Dr A Example").ok).toBe(true);
+    const weightKg = record.patient.weightKg!;
+    const change = updatePatientDetails(
+      testId,
+      { ...record.patient, weightKg: weightKg + 15, ergometer: record.ergometer, referral: record.referral },
+      "tester",
+    );
+    expect(change.ok).toBe(true);
+    const draft = loadReport(testId)!.model;
+    expect(draft.valueChanges?.sinceVersion).toBe(1);
+    const row = (m: typeof draft) => m.keyValues.find((r) => r.label === "Peak VO2 per kg")!;
+    const was = Number(row(v1.model).value);
+    const now = Number(row(draft).value);
+    // the same VO2 over 15 kg more: per kg by weight / (weight + 15), to the 0.1 shown
+    expect(Math.abs(now - (was * weightKg) / (weightKg + 15))).toBeLessThanOrEqual(0.1);
+    expect(draft.valueChanges!.lines).toContainEqual(
+      expect.stringMatching(new RegExp(`^Peak VO2 per kg: ${was.toFixed(1)} mL/kg/min → ${now.toFixed(1)} mL/kg/min`)),
+    );
+    // peak VO2 in mL/min does not depend on the mass: its measured value is not listed (its predicted value is, as
+    // the predicted equation reads the body mass)
+    expect(draft.valueChanges!.lines.some((l) => /^Peak VO2: \d+ mL\/min →/.test(l))).toBe(false);
+    expect(draft.valueChanges!.lines).toContainEqual(expect.stringMatching(/^Peak VO2: % predicted \d+ → \d+, predicted /));
   });
 
   it("a version signed before reports were kept says it is rebuilt; a later data correction is named as such", () => {

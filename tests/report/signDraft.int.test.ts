@@ -4,7 +4,7 @@ import { getOrCreateDraft, getReport, saveDraft } from "../../lib/store/reports"
 import { getTest, latestSettings, listAudit, renameTest, saveAnalysisVersion, saveTest } from "../../lib/store/tests";
 import { labelSchema } from "../../app/schemas";
 import type { ReportSection } from "../../lib/report/reportModel";
-import { readSignForm } from "../../app/tests/[id]/report/schemas";
+import { AMENDMENT_REASON_MAX_CHARS, readSignForm } from "../../app/tests/[id]/report/schemas";
 import { mergeRecheck, saveDraftChecked, signDraft } from "../../app/tests/[id]/report/signDraft";
 import { listReports } from "../../lib/store/reports";
 
@@ -174,6 +174,30 @@ describe("only the newest version is saved or signed; the sections are the versi
     const a2 = save(testId, v2!.id, "draft", "TAB A again");
     expect(a2.ok).toBe(true);
     expect(getReport(v2!.id)!.sections[1].paragraphs).toEqual(["TAB A again"]);
+  });
+
+  it("an amendment is signed only with its reason, as the form sends it; a first signature keeps none", () => {
+    const { testId, draft } = newDraft();
+    // a first signature: a reason sent by a forged form is not kept (there is nothing to amend)
+    expect(submit(signForm(testId, draft.id, { results: "a", conclusion: "b" }, { amendmentReason: "forged" })).ok).toBe(true);
+    expect(getReport(draft.id)!.amendment).toBeNull();
+    const v2 = save(testId, draft.id, "signed", "corrected conclusion", getReport(draft.id)!.revision);
+    expect(v2.ok).toBe(true);
+    const id2 = v2.ok ? v2.report.id : 0;
+    const texts = { results: "a", conclusion: "corrected conclusion" };
+    const none = submit(signForm(testId, id2, texts));
+    expect(!none.ok && none.errors.form).toMatch(/replaces version 1, which is signed\. Give the reason for the amendment/);
+    // longer than the form allows: refused by the schema, under the field's own key
+    const long = readSignForm(signForm(testId, id2, texts, { amendmentReason: "r".repeat(AMENDMENT_REASON_MAX_CHARS + 1) }));
+    expect(long.error?.issues.map((i) => i.path[0])).toEqual(["amendmentReason"]);
+    // characters the PDF cannot show are refused in the reason as in the text
+    const cjk = submit(signForm(testId, id2, texts, { amendmentReason: "typo in 李 (invented)" }));
+    expect(!cjk.ok && cjk.errors.form).toMatch(/李 in the reason for the amendment/);
+    expect(getReport(id2)!.status).toBe("draft");
+    const ok = submit(signForm(testId, id2, texts, { amendmentReason: "  Typo in\r\n the conclusion. " }));
+    expect(ok.ok).toBe(true);
+    expect(getReport(id2)!.amendment).toEqual({ revisesVersion: 1, reason: "Typo in the conclusion." });
+    expect(listAudit(testId)[0].detail).toMatch(/Amends version 1: Typo in the conclusion\.$/);
   });
 
   it("an older version can be neither saved nor signed once a newer one exists", () => {

@@ -151,6 +151,40 @@ function valuesTable(rows: ReportRow[], index: Map<string, number>): Content {
   };
 }
 
+/** The amendment block of the first page: the version replaced, the signer's reason, the values that differ. */
+function amendmentContent(model: ReportModel, draft: boolean): Content | null {
+  const changes = model.valueChanges;
+  if (!model.amendment && !changes) return null;
+  const since = model.amendment?.revisesVersion ?? changes?.sinceVersion;
+  const lines: Content[] = [
+    {
+      text: [
+        { text: draft ? `Revises signed version ${since} (not signed yet).` : `Amends signed version ${since}.`, bold: true },
+        model.amendment ? ` Reason: ${model.amendment.reason}` : "",
+      ],
+    },
+  ];
+  if (changes)
+    lines.push(
+      changes.lines.length
+        ? {
+            stack: [
+              { text: `Reported values that differ from version ${changes.sinceVersion}:`, margin: [0, 2, 0, 1] },
+              { ul: changes.lines.map((l) => ({ text: l })), fontSize: 8.5 },
+            ],
+          }
+        : {
+            text: `No key value, threshold or scheme result differs from version ${changes.sinceVersion}.`,
+            margin: [0, 2, 0, 0],
+          },
+    );
+  return {
+    table: { widths: ["*"], body: [[{ stack: lines, margin: [4, 3, 4, 3] }]] },
+    layout: { hLineColor: () => MUTED, vLineColor: () => MUTED, hLineWidth: () => 0.8, vLineWidth: () => 0.8 },
+    margin: [0, 8, 0, 0],
+  };
+}
+
 /**
  * Write the report as a PDF (A4, Helvetica, standard fonts not embedded) with pdfmake.
  *
@@ -193,6 +227,10 @@ export async function renderReportPdf(rawModel: ReportModel, now: Date = new Dat
       margin: [0, 8, 0, 0],
     });
   }
+
+  // an amendment says, on its first page, why it replaces the signed version and which reported values differ
+  const amendmentBlock = amendmentContent(model, draft);
+  if (amendmentBlock) content.push(amendmentBlock);
 
   content.push(heading("Key values"));
   content.push(model.keyValues.length ? valuesTable(model.keyValues, index) : { text: "No values available.", color: MUTED });

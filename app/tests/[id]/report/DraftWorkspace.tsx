@@ -60,6 +60,8 @@ export function DraftWorkspace(props: {
   revision: number;
   signed: boolean;
   sections: EditableSection[];
+  /** The signed version this draft would replace, in words ("version 1, signed by Dr A on …"); the sign form then asks why. */
+  amends?: { version: number; words: string };
 }) {
   const initial = useMemo(() => Object.fromEntries(props.sections.map((s) => [s.id, s.text])), [props.sections]);
   const [texts, setTexts] = useState<Record<string, string>>(initial);
@@ -228,6 +230,7 @@ export function DraftWorkspace(props: {
               texts={texts}
               acks={acks}
               dirty={dirty}
+              amends={props.amends}
               onResult={onSignResult}
             />
           </section>

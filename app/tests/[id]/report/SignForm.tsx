@@ -4,7 +4,7 @@ import { startTransition, useActionState, useEffect, useRef, useState, type Form
 import { SIGNER_NOT_VERIFIED } from "@/lib/report/caution";
 import { toWinAnsi } from "@/lib/report/pdf/toWinAnsi";
 import { signReportAction, type SignState } from "./actions";
-import { ATTESTATION } from "./schemas";
+import { AMENDMENT_REASON_MAX_CHARS, ATTESTATION } from "./schemas";
 
 /**
  * Sign the current draft: the signer's name, an explicit review attestation, and the report text
@@ -22,10 +22,13 @@ export function SignForm(props: {
   texts: Record<string, string>;
   acks: Record<string, boolean>;
   dirty: boolean;
+  /** The signed version this draft replaces: the form then asks for the reason for the amendment. */
+  amends?: { version: number; words: string };
   onResult: (state: SignState) => void;
 }) {
   const [state, action, pending] = useActionState<SignState, FormData>(signReportAction, {});
   const [signer, setSigner] = useState(state.values?.signer ?? "");
+  const [reason, setReason] = useState(state.values?.amendmentReason ?? "");
   const [attest, setAttest] = useState(false);
   const { onResult } = props;
   useEffect(() => onResult(state), [state, onResult]);
@@ -76,6 +79,25 @@ export function SignForm(props: {
         ) : null}
         <span className="how">{SIGNER_NOT_VERIFIED}</span>
       </label>
+      {props.amends ? (
+        <label>
+          Reason for the amendment (replaces {props.amends.words})
+          <textarea
+            name="amendmentReason"
+            data-testid="amendment-reason"
+            rows={2}
+            maxLength={AMENDMENT_REASON_MAX_CHARS}
+            value={reason}
+            onChange={(e) => setReason(e.target.value)}
+            aria-invalid={errors.amendmentReason ? true : undefined}
+          />
+          {errors.amendmentReason ? <span className="sev-error">{errors.amendmentReason}</span> : null}
+          <span className="how">
+            Printed on the first page of the amended report, with the reported values that differ from version{" "}
+            {props.amends.version}.
+          </span>
+        </label>
+      ) : null}
       <label style={{ display: "flex", gap: "0.5rem", alignItems: "flex-start" }}>
         <input
           type="checkbox"
@@ -89,6 +111,11 @@ export function SignForm(props: {
       {state.errors ? (
         <span ref={reasonRef} tabIndex={-1} className="stack" data-testid="sign-refusal">
           {errors.attest ? <span className="sev-error">{errors.attest}</span> : null}
+          {errors.amendmentReason && !errors.form ? (
+            <span className="sev-error" role="alert">
+              Not signed: {errors.amendmentReason}
+            </span>
+          ) : null}
           {errors.signer ? (
             <span className="sev-error" role="alert">
               Not signed: {errors.signer}

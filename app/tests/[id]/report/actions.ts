@@ -52,7 +52,7 @@ export async function saveDraftAction(_prev: DraftState, form: FormData): Promis
 }
 
 export interface SignState {
-  values?: { signer?: string };
+  values?: { signer?: string; amendmentReason?: string };
   errors?: Record<string, string>;
   signed?: boolean;
   /** The on-screen text differed from the stored draft and was saved as part of signing. */
@@ -64,7 +64,7 @@ export interface SignState {
  * it): saved and signed in one transaction by `signDraft`.
  */
 export async function signReportAction(_prev: SignState, form: FormData): Promise<SignState> {
-  const values = { signer: String(form.get("signer") ?? "") };
+  const values = { signer: String(form.get("signer") ?? ""), amendmentReason: String(form.get("amendmentReason") ?? "") };
   const { sections, input, error } = readSignForm(form);
   if (!input) {
     const errors: Record<string, string> = {};

@@ -3,6 +3,7 @@ import { analyse, ENGINE_VERSION, type AnalysisResult } from "@/lib/analysis";
 import { buildReportModel } from "@/lib/report/buildReportModel";
 import { initialDraftSections } from "@/lib/report/initialDraftSections";
 import { carryForwardDraft } from "@/lib/report/carryForwardDraft";
+import { describeSchemeChanges, describeValueChanges } from "@/lib/report/describeValueChanges";
 import type { ReportModel } from "@/lib/report/reportModel";
 import { getOrCreateDraft, getReport, listReports, type StoredReport } from "@/lib/store/reports";
 import { getLabDefaults } from "@/lib/store/labSettings";
@@ -153,6 +154,11 @@ function withVersionNotes(
           : "; the test's data and settings are those it was signed on."),
     );
   }
+  // what a reader of the amended report must be told: which reported values it changes (both versions as signed, or
+  // the draft as it reads now); a version signed before reports were kept has no model to compare with
+  const valueChanges = earlierSigned?.signedModelJson
+    ? { sinceVersion: earlierSigned.version, lines: reportChanges(JSON.parse(earlierSigned.signedModelJson), model) }
+    : undefined;
   let draftMark = model.draftMark;
   if (report.status === "signed" && newerSigned)
     notes.push(
@@ -171,7 +177,15 @@ function withVersionNotes(
     );
   if (report.status === "draft" && newest && newest.id !== report.id)
     draftMark = `${draftMark} Superseded: version ${newest.version} of this report is newer; do not use this draft.`;
-  return { ...model, draftMark, versionNote: notes.join(" ") };
+  return { ...model, draftMark, versionNote: notes.join(" "), ...(valueChanges ? { valueChanges } : {}) };
+}
+
+/** The key values, thresholds and scheme results that differ between two reports, one sentence each. */
+function reportChanges(before: ReportModel, after: ReportModel): string[] {
+  return [
+    ...describeValueChanges([...before.keyValues, ...before.thresholds], [...after.keyValues, ...after.thresholds]),
+    ...describeSchemeChanges(before.schemes, after.schemes),
+  ];
 }
 
 /**

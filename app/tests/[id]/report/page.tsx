@@ -8,6 +8,7 @@ import { IssueList } from "../../../components/IssueList";
 import { TableScroll } from "../../../components/TableScroll";
 import { DraftWorkspace } from "./DraftWorkspace";
 import { loadReport } from "./loadReport";
+import type { ReportModel } from "@/lib/report/reportModel";
 import { ReportValuesTable } from "./ReportValuesTable";
 import { REPORT_NOTICE_SLOT } from "./schemas";
 
@@ -25,6 +26,15 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
   const signed = model.status === "signed";
   const recheck = model.sections.filter((s) => s.recheck);
   const sourceNumber = new Map(model.sources.map((s, i) => [s.id, i + 1]));
+  // the signed version a draft would replace: signing it is an amendment, and the sign form asks why
+  const earlierSigned = versions.find((v) => v.id < report.id && v.status === "signed");
+  const amends =
+    !signed && earlierSigned
+      ? {
+          version: earlierSigned.version,
+          words: `version ${earlierSigned.version}, signed by ${earlierSigned.signedBy} on ${when(earlierSigned.signedAt)}`,
+        }
+      : undefined;
 
   return (
     <>
@@ -46,6 +56,7 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
           {model.versionNote}
         </p>
       ) : null}
+      <AmendmentPanel model={model} />
       <div id={REPORT_NOTICE_SLOT} />
       {recheck.length ? (
         <p className="panel sev-warning" data-testid="recheck-banner">
@@ -159,6 +170,7 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
         version={report.version}
         revision={report.revision}
         signed={signed}
+        amends={amends}
         sections={model.sections.map((s) => ({
           id: s.id,
           title: s.title,
@@ -209,6 +221,42 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
         ))}
       </ul>
     </>
+  );
+}
+
+/**
+ * What an amendment changes: the signer's reason (once signed) and the reported values that differ from the signed
+ * version it replaces (for a draft: what signing it would change).
+ */
+function AmendmentPanel({ model }: { model: ReportModel }) {
+  const changes = model.valueChanges;
+  if (!model.amendment && !changes) return null;
+  const since = model.amendment?.revisesVersion ?? changes?.sinceVersion;
+  return (
+    <section className="panel" data-testid="amendment-panel" aria-label="Amendment">
+      <p style={{ margin: 0 }}>
+        <strong>
+          {model.status === "signed" ? `Amends signed version ${since}.` : `Revises signed version ${since} (not signed yet).`}
+        </strong>
+        {model.amendment ? <span data-testid="amendment-reason-shown"> Reason: {model.amendment.reason}</span> : null}
+      </p>
+      {changes ? (
+        changes.lines.length ? (
+          <>
+            <p style={{ margin: "0.4rem 0 0" }}>Reported values that differ from version {changes.sinceVersion}:</p>
+            <ul data-testid="amendment-changes" style={{ margin: "0.2rem 0 0" }}>
+              {changes.lines.map((l) => (
+                <li key={l}>{l}</li>
+              ))}
+            </ul>
+          </>
+        ) : (
+          <p style={{ margin: "0.4rem 0 0" }} data-testid="amendment-changes">
+            No key value, threshold or scheme result differs from version {changes.sinceVersion}.
+          </p>
+        )
+      ) : null}
+    </section>
   );
 }
 

@@ -36,6 +36,12 @@ export const DRAFT_CHANGED_ELSEWHERE =
   "now would overwrite that text. Your text is still on screen: copy what you need, reload the page to see the saved " +
   "draft, and bring your changes into it.";
 
+/** Longest reason for an amendment (characters): a few sentences, printed on the report's first page. */
+export const AMENDMENT_REASON_MAX_CHARS = 500;
+
+/** Shortest reason for an amendment (characters, after collapsing spaces): "typo." passes, a blank or "x" does not. */
+export const AMENDMENT_REASON_MIN_CHARS = 5;
+
 export const ATTESTATION =
   "I have reviewed the data, the values, the charts and the text of this report, and I take clinical responsibility for it as signed.";
 
@@ -51,6 +57,12 @@ export const signFormSchema = z.object({
     .min(3, "Enter your full name (at least 3 characters)")
     .max(120, "The name may hold at most 120 characters"),
   attest: z.literal("on", { message: "Confirm that you have reviewed the report" }),
+  /** Why this version replaces an earlier signed one (asked only then; `signDraft` decides whether it is needed). */
+  amendmentReason: z
+    .string()
+    .transform((s) => s.replace(/\s+/g, " ").trim())
+    .pipe(z.string().max(AMENDMENT_REASON_MAX_CHARS, `The reason may hold at most ${AMENDMENT_REASON_MAX_CHARS} characters`))
+    .optional(),
 });
 
 /** Paragraphs from a textarea: split at blank lines, trimmed, empty ones dropped. */
@@ -120,6 +132,7 @@ export function readSignForm(
     sections,
     signer: form.get("signer"),
     attest: form.get("attest") ?? undefined,
+    amendmentReason: form.get("amendmentReason") ?? undefined,
   });
   if (!parsed.success) return { sections, input: null, error: parsed.error };
   const d = parsed.data;
@@ -134,6 +147,7 @@ export function readSignForm(
       attestation: ATTESTATION,
       sections: toOnScreen(d.sections),
       rechecked,
+      ...(d.amendmentReason ? { amendmentReason: d.amendmentReason } : {}),
     },
   };
 }

@@ -4,7 +4,7 @@ import { getDb } from "@/lib/store/db";
 import { describeChar, unprintableInPdf } from "@/lib/report/pdf/toWinAnsi";
 import { getReport, listReports, saveDraft, signReport, type StoredReport } from "@/lib/store/reports";
 import { latestSettings } from "@/lib/store/tests";
-import { DRAFT_CHANGED_ELSEWHERE } from "./schemas";
+import { AMENDMENT_REASON_MIN_CHARS, DRAFT_CHANGED_ELSEWHERE } from "./schemas";
 
 /** A section as the reviewer has it on screen (paragraphs already split). */
 export interface OnScreenSection {
@@ -151,6 +151,11 @@ export interface SignDraftInput {
   rechecked: string[];
   /** The draft revision the page showed; a different stored revision means someone saved since (refused). */
   revision: number;
+  /**
+   * Why this version replaces the earlier signed version (spaces collapsed). Required when an earlier version is signed,
+   * ignored otherwise.
+   */
+  amendmentReason?: string;
 }
 
 export type SignDraftResult =
@@ -163,8 +168,8 @@ export type SignDraftResult =
  * without a signature and no other text than the one the reviewer attested can be signed. Refused (with reasons,
  * nothing changed) when the version is missing, of another test, not the test's newest, already signed, saved
  * elsewhere since the page was opened, written for an analysis that is no longer the test's latest, when its sections
- * are not the version's own, when a carried-forward section was not re-checked, or when the name or text holds
- * characters the PDF cannot show.
+ * are not the version's own, when a carried-forward section was not re-checked, when it replaces an earlier signed
+ * version and gives no reason for the amendment, or when the name, text or reason holds characters the PDF cannot show.
  */
 export function signDraft(
   input: SignDraftInput,
@@ -211,6 +216,17 @@ export function signDraft(
           form: "Not signed: the “Caution” section is empty. A signed report keeps its clinical caution; write or restore it.",
           caution: "The caution may be reworded but not left empty.",
         });
+      // an amended report says why it replaces the signed one (recalled practice for amended clinical reports: the
+      // amendment is identified as such and explained; the minimum length is our choice)
+      const earlierSigned = listReports(input.testId).find((v) => v.id < current.id && v.status === "signed");
+      const reason = input.amendmentReason?.replace(/\s+/g, " ").trim() ?? "";
+      if (earlierSigned && reason.length < AMENDMENT_REASON_MIN_CHARS)
+        throw new Refusal({
+          form:
+            `Not signed: this version replaces version ${earlierSigned.version}, which is signed. Give the reason for the ` +
+            `amendment (at least ${AMENDMENT_REASON_MIN_CHARS} characters); it is printed on the amended report.`,
+          amendmentReason: `Why does this version replace signed version ${earlierSigned.version}?`,
+        });
       // a name is one line: a line break would print as a second line under "Signed by" on every page
       if (/\p{Cc}/u.test(input.signer))
         throw new Refusal({ form: "Not signed: the name may not hold line breaks, tabs or other control characters." });
@@ -218,13 +234,15 @@ export function signDraft(
       const badName = unprintableInPdf(input.signer);
       const badText = unprintableInPdf(sections.flatMap((s) => [s.title, ...s.paragraphs]).join("\n"));
       const badLabel = unprintableInPdf(label ?? "");
-      if (badName.length || badText.length || badLabel.length)
+      const badReason = earlierSigned ? unprintableInPdf(reason) : [];
+      if (badName.length || badText.length || badLabel.length || badReason.length)
         throw new Refusal({
           form:
             "Not signed: the PDF of the report uses a Western European character set and cannot show " +
             [
               badName.length ? `${badName.map(describeChar).join(" ")} in the name` : "",
               badText.length ? `${badText.map(describeChar).join(" ")} in the text` : "",
+              badReason.length ? `${badReason.map(describeChar).join(" ")} in the reason for the amendment` : "",
               badLabel.length
                 ? `${badLabel.map(describeChar).join(" ")} in the test's label (rename it on the patient page)`
                 : "",
@@ -236,7 +254,8 @@ export function signDraft(
       const textSaved = !sameText(current.sections, sections);
       if (textSaved && !saveDraft(current.id, sections, input.signer))
         throw new Refusal({ form: "This report version does not exist; reload the page." });
-      const signed = signReport(current.id, input.signer, input.attestation, freeze);
+      const amendment = earlierSigned ? { revisesVersion: earlierSigned.version, reason } : undefined;
+      const signed = signReport(current.id, input.signer, input.attestation, freeze, amendment);
       if (!signed.ok) throw new Refusal({ form: signed.reason });
       return { ok: true, report: signed.report, textSaved };
     })();
