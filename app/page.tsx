@@ -39,7 +39,7 @@ export default async function RegisterPage() {
                   <td>
                     <Link href={`/tests/${t.id}`}>{t.label}</Link> {t.demo ? <span className="tag">invented demo</span> : null}
                   </td>
-                  <td>{t.fileName}</td>
+                  <td>{t.fileName ?? <span className="how">none kept</span>}</td>
                   <td>{t.status === "imported" ? "imported" : "refused — see why"}</td>
                   {/* a date and time never break across lines ("2026-12-02 10:15") */}
                   <td className="nowrap">{t.createdAt.slice(0, 16).replace("T", " ")}</td>

@@ -156,3 +156,34 @@ test("a refused file whose columns are only unknown keeps the offer to map them 
   await expect(page.getByTestId("refused").getByTestId("columns-link")).toBeVisible();
   await expect(page.getByTestId("not-a-table")).toHaveCount(0);
 });
+
+test("an anonymised teaching copy reads the same numbers without the file, and the original stays", async ({ page }) => {
+  await page.goto("/");
+  const demo = page.getByRole("link", { name: /heart failure assessment/ }).first();
+  const href = await demo.getAttribute("href");
+  const originalId = Number(/\/tests\/(\d+)/.exec(href ?? "")![1]);
+  await page.goto(`/tests/${originalId}`);
+  const peak = await page.getByTestId("row-peakVo2PerKg").locator("td").nth(1).innerText();
+  await page.goto(`/tests/${originalId}/patient`);
+  // a label is needed; what is typed stays after the refusal
+  await page.getByTestId("copy-submit").click();
+  await expect(page.getByTestId("copy-error")).toContainText("Give the copy a label");
+  await page.getByTestId("copy-label").fill("Teaching case E2E: breathless on exertion");
+  await page.getByTestId("copy-submit").click();
+  await page.waitForURL((url) => /\/tests\/\d+$/.test(url.pathname) && !url.pathname.endsWith(`/${originalId}`));
+  const copyId = Number(/\/tests\/(\d+)/.exec(page.url())![1]);
+  await expect(page.getByTestId("test-title")).toHaveText("Teaching case E2E: breathless on exertion");
+  await expect(page.getByText("no uploaded file kept")).toBeVisible();
+  await expect(page.getByRole("link", { name: "original file" })).toHaveCount(0);
+  await expect(page.getByTestId("row-peakVo2PerKg").locator("td").nth(1)).toHaveText(peak);
+  // the register names no file for it; the original is still listed with its own
+  await page.goto("/");
+  const row = page.getByRole("row", { name: /Teaching case E2E/ });
+  await expect(row).toContainText("none kept");
+  await expect(page.getByRole("link", { name: /heart failure assessment/ }).first()).toHaveAttribute(
+    "href",
+    `/tests/${originalId}`,
+  );
+  await page.goto(`/tests/${copyId}/columns`);
+  await expect(page.getByTestId("file-facts")).toContainText("(none kept)");
+});

@@ -141,8 +141,9 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       <h1 data-testid="test-title">{test.label}</h1>
       <p className="how">
         {p.sex ?? "sex not given"}, {p.ageY ?? "?"} y, {p.heightCm ?? "?"} cm, {p.weightKg ?? "?"} kg · {erg} · referral:{" "}
-        {record.referral} · file {test.fileName} (<span data-testid="row-count">{rowCountWords(record.table)}</span>) · analysis
-        version {versions[0]?.version ?? "lab defaults"} · engine {result.engineVersion}
+        {record.referral} · {test.fileName ? `file ${test.fileName}` : "no uploaded file kept"} (
+        <span data-testid="row-count">{rowCountWords(record.table)}</span>) · analysis version{" "}
+        {versions[0]?.version ?? "lab defaults"} · engine {result.engineVersion}
       </p>
       <p className="row">
         <Link href={`/tests/${testId}/report`} data-testid="report-link">

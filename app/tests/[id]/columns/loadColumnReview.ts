@@ -67,7 +67,7 @@ export async function loadColumnReview(testId: number): Promise<ColumnReview | n
   const weightKg = test.record?.patient.weightKg ?? choices?.weightKg ?? details?.patient.weightKg;
   const base = {
     test,
-    fileName: stored?.fileName ?? test.fileName ?? "(no file)",
+    fileName: stored?.fileName ?? test.fileName ?? "(none kept)",
     fields: fieldOptions(),
     issues: test.importIssues,
     choices,

@@ -1,6 +1,8 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
+import { redirect } from "next/navigation";
+import { makeAnonymisedCopy } from "@/lib/store/anonymisedCopy";
 import { z } from "zod";
 import { updatePatientDetails } from "@/lib/store/updatePatientDetails";
 import { getTest, renameTest } from "@/lib/store/tests";
@@ -82,4 +84,35 @@ export async function saveLabel(_prev: LabelFormState, form: FormData): Promise<
   for (const p of ["", "/patient", "/columns", "/inputs", "/report"]) revalidatePath(`/tests/${parsed.data.testId}${p}`);
   revalidatePath("/");
   return { ok: "Label saved. Reports already signed keep the title they were signed with." };
+}
+
+export interface CopyFormState {
+  error?: string;
+  /** The label and choice as sent, shown again after a refusal. */
+  value?: { label: string; keepFreeText: boolean };
+}
+
+const copyFormSchema = z.object({
+  testId: z.coerce.number().int().positive(),
+  label: labelSchema.pipe(z.string().min(1, "Give the copy a label that names no one, e.g. “Teaching case 12”")),
+  keepFreeText: z.literal("on").optional(),
+});
+
+/** Make an anonymised teaching copy of the test (`makeAnonymisedCopy`) and open it. */
+export async function makeTeachingCopy(_prev: CopyFormState, form: FormData): Promise<CopyFormState> {
+  const value = { label: String(form.get("label") ?? ""), keepFreeText: form.get("keepFreeText") === "on" };
+  const parsed = copyFormSchema.safeParse({
+    testId: form.get("testId"),
+    label: value.label,
+    keepFreeText: form.get("keepFreeText") ?? undefined,
+  });
+  if (!parsed.success) return { error: parsed.error.issues[0].message, value };
+  const res = makeAnonymisedCopy(parsed.data.testId, {
+    label: parsed.data.label,
+    keepFreeText: parsed.data.keepFreeText === "on",
+    actor: ACTOR,
+  });
+  if (!res.ok) return { error: res.reason, value };
+  revalidatePath("/");
+  redirect(`/tests/${res.id}`);
 }

@@ -5,6 +5,8 @@ import { getUploadDetails } from "@/lib/store/reimport";
 import { getTest, listAnalysisVersions } from "@/lib/store/tests";
 import { recordToken } from "../recordToken";
 import { LabelForm } from "./LabelForm";
+import { CopyForm } from "./CopyForm";
+import { ANONYMISED_COPY_FREE_TEXT, ANONYMISED_COPY_REMOVES } from "@/lib/store/anonymisedCopy";
 import { PatientForm, type PatientFormProps } from "./PatientForm";
 
 export const dynamic = "force-dynamic";
@@ -58,6 +60,14 @@ export default async function PatientPage({ params }: { params: Promise<{ id: st
       <section className="panel">
         <LabelForm testId={testId} label={test.label} />
       </section>
+      {!refused ? (
+        <>
+          <h2>Anonymised copy for teaching</h2>
+          <section className="panel">
+            <CopyForm testId={testId} removes={ANONYMISED_COPY_REMOVES} freeText={ANONYMISED_COPY_FREE_TEXT} />
+          </section>
+        </>
+      ) : null}
     </>
   );
 }
