@@ -19,6 +19,12 @@ export const ANONYMISED_COPY_FREE_TEXT = [
   "the reasons given for thresholds set by hand",
 ] as const;
 
+/**
+ * Import issues a copy leaves out: they quote the file's details lines or the values that pick one test out of a file
+ * holding several (often a patient or study number), or list the other tests' values.
+ */
+const IDENTIFYING_ISSUE_CODES = new Set(["metadata-found", "record-selected", "several-records"]);
+
 export interface AnonymisedCopyInput {
   /** The copy's label (checked by `labelSchema` before it gets here). */
   label: string;
@@ -40,8 +46,7 @@ export function anonymisedRecord(record: TestRecord, keepFreeText: boolean): Tes
       : (Object.fromEntries(Object.entries(conduct).filter(([, v]) => typeof v !== "string")) as TestConduct);
     if (Object.keys(kept).length) copy.conduct = kept;
   }
-  // "N line(s) above the header were read as record details": the lines themselves are not copied
-  copy.importIssues = copy.importIssues.filter((i) => i.code !== "metadata-found");
+  copy.importIssues = copy.importIssues.filter((i) => !IDENTIFYING_ISSUE_CODES.has(i.code));
   return copy;
 }
 
@@ -75,7 +80,7 @@ export function makeAnonymisedCopy(testId: number, input: AnonymisedCopyInput): 
       label: input.label,
       record,
       columns: test.importColumns,
-      issues: test.importIssues.filter((i) => i.code !== "metadata-found"),
+      issues: test.importIssues.filter((i) => !IDENTIFYING_ISSUE_CODES.has(i.code)),
       actor: input.actor,
     });
     const latest = latestSettings(testId);

@@ -16,6 +16,7 @@ const FILE_NAME = "Doe_Jane_MRN0042137_2026-11-30.csv";
 const DETAILS = "Name: Jane Doe (invented)";
 const NOTE = "Stopped at Dr Inventa's request (invented)";
 const REVIEWER = "Dr Revi Ewer (invented)";
+const STUDY_NO = "HF-2026-0815";
 const OVERRIDE_REASON = "Agreed with Dr Inventa at the case meeting (invented)";
 
 async function original(): Promise<{ id: number; record: TestRecord }> {
@@ -28,6 +29,8 @@ async function original(): Promise<{ id: number; record: TestRecord }> {
     importIssues: [
       ...base.importIssues,
       { severity: "info", code: "metadata-found", message: "1 line(s) above the header were read as record details, not data." },
+      // the selection that picked this patient's rows out of a file of several (INVENTED study number)
+      { severity: "info", code: "record-selected", message: `412 rows of the test where ID = ${STUDY_NO} were kept.` },
     ],
   };
   const id = saveTest({ uploadId: upload.id, label: `Jane Doe ${FILE_NAME}`, record, columns: [], issues: record.importIssues });
@@ -82,7 +85,7 @@ describe("makeAnonymisedCopy", () => {
         .prepare("select count(*) as n from record_snapshots s join analyses a on a.record_sha256 = s.sha256 where a.test_id = ?")
         .get(copyId),
     ).toEqual({ n: 1 });
-    for (const identifier of [FILE_NAME, "Jane Doe", "MRN0042137", NOTE, REVIEWER, OVERRIDE_REASON, "2026-11-30"])
+    for (const identifier of [FILE_NAME, "Jane Doe", "MRN0042137", STUDY_NO, NOTE, REVIEWER, OVERRIDE_REASON, "2026-11-30"])
       expect([identifier, text.includes(identifier)]).toEqual([identifier, false]);
     // what the analysis reads is kept: measurements, spirometry, numbers of the conduct
     expect(copy.record!.patient).toEqual(orig.record!.patient);
