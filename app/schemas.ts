@@ -24,6 +24,15 @@ export const optionalNumber = (
       .optional(),
   );
 
+/**
+ * The id of a stored test or report version as a page sends it (hidden field, URL or query): a positive whole number.
+ * A hand-made or damaged request gets a message a person can act on instead of the validator's own wording.
+ */
+export const recordId = (what: "test" | "report version") => {
+  const message = `The request names no valid ${what} (expected a positive whole number); reload the page`;
+  return z.coerce.number({ message }).int({ message }).positive({ message });
+};
+
 /** An optional patient value within its plausibility limits (`PLAUSIBLE_LIMITS`, common practice). */
 export const plausibleNumber = (field: PlausibleField) => {
   const { min, max, label } = PLAUSIBLE_LIMITS[field];

@@ -9,12 +9,13 @@ import { formatNumber } from "@/lib/units";
 import { TableScroll } from "../components/TableScroll";
 import { SourceList } from "../tests/[id]/parts/HowFound";
 import { samePatientCheck } from "./samePatientCheck";
+import { recordId } from "../schemas";
 
 export const dynamic = "force-dynamic";
 
 const querySchema = z.object({
-  before: z.coerce.number().int().positive().optional(),
-  after: z.coerce.number().int().positive().optional(),
+  before: recordId("test").optional(),
+  after: recordId("test").optional(),
   population: z.string().optional(),
   samePatient: z.literal("confirmed").optional(),
 });

@@ -9,7 +9,7 @@ import {
   type LineIndex,
   type ThresholdResult,
 } from "../thresholds";
-import { OBESITY_BMI_KG_M2, type PredictedSet, type WeightBasisAssessment } from "../predicted";
+import { getEquation, OBESITY_BMI_KG_M2, type PredictedSet, type PredictedValue, type WeightBasisAssessment } from "../predicted";
 import type { InterpretInput, InterpretValues, UncertainValue } from "../interpret";
 import type { PredictedComparisonRow, TestRecord } from "./types";
 
@@ -80,6 +80,16 @@ export function toInterpretInput(
   const irregular = patient.atrialFibrillation === true;
   const HR_READ_KEYS = ["hrPctPred", "hrReserveBpm", "chronotropicIndex", "hrr1Bpm", "o2PulsePctPred", "o2PulsePlateau"] as const;
   if (irregular) for (const k of HR_READ_KEYS) reasons[k] = "atrial fibrillation: heart rate is not read as in sinus rhythm";
+  // a child or adolescent is not read against an equation derived in adults only (common practice: paediatric CPET
+  // uses paediatric references); the % is still shown, with the extrapolation said beside it
+  const adultOnly = (pv: PredictedValue | undefined) => adultEquationForMinor(pv, patient.ageY, patient.sex);
+  const minorOn: [string | null, readonly (keyof InterpretValues)[]][] = [
+    [adultOnly(predicted.values.vo2PeakMlMin), ["peakVo2PctPred", "vt1PctPredPeakVo2"]],
+    [adultOnly(predicted.values.hrMaxBpm), ["hrPctPred", "hrReserveBpm", "chronotropicIndex"]],
+    [adultOnly(predicted.values.o2PulseMaxMlBeat), ["o2PulsePctPred"]],
+  ];
+  const notRead: Partial<Record<keyof InterpretValues, string>> = {};
+  for (const [why, keys] of minorOn) if (why) for (const k of keys) notRead[k] = why;
   const plateauWhy = vo2PlateauNotAssessedReason(indices.vo2FinalIncrease);
   if (plateauWhy) reasons.vo2Plateau = plateauWhy;
   // the calibrated bands, as the values at each end (everything computed from VT1 moves with it)
@@ -180,7 +190,7 @@ export function toInterpretInput(
       high: { [key]: brief.likelyValue },
     });
   }
-  return {
+  const input: InterpretInput = {
     patient: {
       sex: patient.sex,
       ageY: patient.ageY ?? null,
@@ -250,6 +260,7 @@ export function toInterpretInput(
       mvv: indices.breathingReserve.mvvLMin.provenance.label,
     },
     reasons,
+    notRead,
     // the slope "to VT2" is named for what it was fitted to (the RCP, the whole exercise, or a break the fit placed), in
     // rule texts and the draft as in the values table
     names: { veVco2SlopeToRcp: slopeToVt2Name(indices.veVco2.slopeToVt2) },
@@ -269,7 +280,57 @@ export function toInterpretInput(
         }
       : {}),
   };
+  // VO2 that rose too little with work to be believed (dVo2dWr.ts) is shown but not read (a leak or a calibration fault
+  // must not read as a cardiac limitation or a reduced capacity)
+  if (indices.dVo2dWr.implausiblyLow)
+    for (const k of VO2_READ_KEYS)
+      notRead[k] ??= "VO2 rose too little with the work rate to be believed (see the issue on ΔVO2/ΔWR)";
+  if (!notRead.peakVo2PctPred) return input;
+  const { weightBasisSplit: _split, ...rest } = input;
+  void _split;
+  return rest;
 }
+
+/** Age below which a patient is a child or adolescent for reference equations (years; common practice). */
+export const ADULT_AGE_Y = 18;
+
+/**
+ * Why a minor is not read against this predicted value: it (or an equation it draws on) was derived only in adults
+ * (youngest age in its derivation population ≥ `ADULT_AGE_Y`) and the patient is younger than `ADULT_AGE_Y`. Null
+ * otherwise (adults outside an equation's age range stay read, with "extrapolated" beside the value).
+ */
+function adultEquationForMinor(
+  pv: PredictedValue | undefined,
+  ageY: number | undefined,
+  sex: "male" | "female" | undefined,
+): string | null {
+  if (!pv || pv.value === null || ageY === undefined || ageY >= ADULT_AGE_Y) return null;
+  for (const id of pv.usedEquationIds) {
+    const pop = getEquation(id).population;
+    const min = ((sex ? pop.bySex?.[sex]?.ageY : undefined) ?? pop.ageY)?.min;
+    if (min !== undefined && min >= ADULT_AGE_Y)
+      return `${getEquation(id).label} was derived in adults (from ${min} y); a patient of ${Math.round(ageY)} y is not read against it`;
+  }
+  return null;
+}
+
+/** The values that rest on measured VO2: shown, not interpreted, while VO2 rose too little with work to be believed. */
+const VO2_READ_KEYS = [
+  "peakVo2MlMin",
+  "peakVo2MlKgMin",
+  "peakVo2PctPred",
+  "peakVo2LeanMlKgMin",
+  "vo2Plateau",
+  "vt1Vo2MlMin",
+  "vt1Vo2MlKgMin",
+  "vt1PctPredPeakVo2",
+  "vt1PctPeak",
+  "o2PulsePeakMlBeat",
+  "o2PulsePctPred",
+  "o2PulsePlateau",
+  "dVo2dWr",
+  "oues",
+] as const satisfies readonly (keyof InterpretValues)[];
 
 /** An equation's label, with "extrapolated" when the patient lies outside the population it was derived in. */
 function equationWords(p: { equationLabel: string; issues: readonly Issue[] } | undefined): string | undefined {

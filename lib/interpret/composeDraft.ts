@@ -185,6 +185,14 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     return `${formatValue(id, x ?? null)}${info.unit && x !== null && x !== undefined ? ` ${info.unit}` : ""}`;
   };
   const have = (x: unknown) => x !== null && x !== undefined;
+  // a value shown but not interpreted (`InterpretInput.notRead`): printed as measured, with why it is not read
+  const notRead = input.notRead ?? {};
+  const pctWords = (id: "peakVo2PctPred" | "hrPctPred" | "o2PulsePctPred", x: number | null | undefined, what: string) =>
+    notRead[id]
+      ? `% of predicted not read: ${notRead[id]}`
+      : have(x)
+        ? `${formatValue(id, x ?? null)} % of predicted${what}`
+        : null;
   const sections: DraftSection[] = [];
 
   sections.push({ id: "referral", title: "Referral question", paragraphs: [REFERRAL_TEXT[interpretation.referral]] });
@@ -219,16 +227,15 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   if (have(v.peakVo2MlMin) || have(v.peakVo2PctPred)) {
     const parts = [val("peakVo2MlMin", v.peakVo2MlMin)];
     if (have(v.peakVo2MlKgMin)) parts.push(val("peakVo2MlKgMin", v.peakVo2MlKgMin));
-    if (have(v.peakVo2PctPred))
-      parts.push(`${formatValue("peakVo2PctPred", v.peakVo2PctPred)} % of predicted${pred.peakVo2 ? ` (${pred.peakVo2})` : ""}`);
+    const pctVo2 = pctWords("peakVo2PctPred", v.peakVo2PctPred, pred.peakVo2 ? ` (${pred.peakVo2})` : "");
+    if (pctVo2) parts.push(pctVo2);
     results.push(`Peak VO2 ${parts.join(", ")}.`);
+    if (notRead.peakVo2MlMin) results.push(`VO2-based values are shown but not interpreted: ${notRead.peakVo2MlMin}.`);
   }
   if (have(v.peakWorkW)) results.push(`Peak work rate ${val("peakWorkW", v.peakWorkW)}.`);
   if (have(v.peakHrBpm)) {
     const against = [
-      ...(have(v.hrPctPred)
-        ? [`${formatValue("hrPctPred", v.hrPctPred)} % of predicted${pred.hrMax ? `, ${pred.hrMax}` : ""}`]
-        : []),
+      ...[pctWords("hrPctPred", v.hrPctPred, pred.hrMax ? `, ${pred.hrMax}` : "")].filter((x): x is string => x !== null),
       ...heartRateNotes(input.patient),
     ];
     results.push(
@@ -237,7 +244,7 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   }
   if (have(v.o2PulsePeakMlBeat)) {
     results.push(
-      `Peak O2 pulse ${val("o2PulsePeakMlBeat", v.o2PulsePeakMlBeat)}${have(v.o2PulsePctPred) ? ` (${formatValue("o2PulsePctPred", v.o2PulsePctPred)} % of predicted${pred.o2Pulse?.includes("extrapolated") ? `, ${pred.o2Pulse}` : ""})` : ""}${v.o2PulsePlateau ? ", flattening late in exercise" : ""}${input.patient.atrialFibrillation === true ? " (atrial fibrillation: not interpreted)" : ""}.`,
+      `Peak O2 pulse ${val("o2PulsePeakMlBeat", v.o2PulsePeakMlBeat)}${((x) => (x ? ` (${x})` : ""))(pctWords("o2PulsePctPred", v.o2PulsePctPred, pred.o2Pulse?.includes("extrapolated") ? `, ${pred.o2Pulse}` : ""))}${v.o2PulsePlateau && !notRead.o2PulsePlateau ? ", flattening late in exercise" : ""}${input.patient.atrialFibrillation === true ? " (atrial fibrillation: not interpreted)" : ""}.`,
     );
   }
   const slopes: string[] = [];
@@ -275,7 +282,8 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     const parts: string[] = [];
     if (have(v.vt1Vo2MlMin)) parts.push(val("vt1Vo2MlMin", v.vt1Vo2MlMin));
     if (have(v.vt1Vo2MlKgMin)) parts.push(val("vt1Vo2MlKgMin", v.vt1Vo2MlKgMin));
-    if (have(v.vt1PctPredPeakVo2)) parts.push(`${formatValue("vt1PctPredPeakVo2", v.vt1PctPredPeakVo2)} % of predicted peak VO2`);
+    if (have(v.vt1PctPredPeakVo2) && !notRead.vt1PctPredPeakVo2)
+      parts.push(`${formatValue("vt1PctPredPeakVo2", v.vt1PctPredPeakVo2)} % of predicted peak VO2`);
     thr.push(`VT1 at VO2 ${parts.join(", ")}.`);
   } else thr.push("No VT1 value was supplied.");
   if (extras.thresholdMethods?.vt1) thr.push(thresholdMethodSentence("VT1", extras.thresholdMethods.vt1));
@@ -397,7 +405,15 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
       if (rows.length) concl.push(`${s.name}: ${rows.join("; ")}.`);
     }
   if (!e.peakConclusionsAllowed) concl.push("Capacity could not be established because effort was submaximal.");
-  const extrapolated = (["peakVo2", "hrMax", "o2Pulse"] as const).filter((k) => pred[k]?.includes("extrapolated"));
+  const pctKey = { peakVo2: "peakVo2PctPred", hrMax: "hrPctPred", o2Pulse: "o2PulsePctPred" } as const;
+  const adultOnly = (["peakVo2", "hrMax", "o2Pulse"] as const).filter((k) => notRead[pctKey[k]]?.includes("derived in adults"));
+  if (adultOnly.length)
+    concl.push(
+      `The predicted ${andList(adultOnly.map((k) => PREDICTED_WORDS[k]))} come from equations derived in adults: for a patient of this age their "% of predicted" is shown but not read, and no finding is graded on it; use a paediatric reference.`,
+    );
+  const extrapolated = (["peakVo2", "hrMax", "o2Pulse"] as const).filter(
+    (k) => pred[k]?.includes("extrapolated") && !adultOnly.includes(k),
+  );
   if (extrapolated.length)
     concl.push(
       `The predicted ${andList(extrapolated.map((k) => PREDICTED_WORDS[k]))} come from equations derived outside this patient's population (extrapolated): every "% of predicted" above, and any finding graded on it, is read with that in mind.`,

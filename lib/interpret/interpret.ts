@@ -18,14 +18,21 @@ export function makeContext(
   data: InterpretationData = INTERPRETATION_DATA,
 ) {
   const resolved = resolveChoices(data, settings);
+  // values shown but not interpreted are missing to every rule, with their reason
+  const notRead = Object.entries(input.notRead ?? {}).filter(
+    (e): e is [string, string] => typeof e[1] === "string" && e[1] !== "",
+  );
+  const readable = (values: InterpretInput["values"]): InterpretInput["values"] =>
+    notRead.length ? { ...values, ...Object.fromEntries(notRead.map(([k]) => [k, null])) } : values;
   const ctx: EvalContext = {
-    vars: buildVariables(input, data),
+    vars: buildVariables({ ...input, values: readable(input.values) }, data),
     data,
     choices: resolved.options,
     predicted: input.predictedEquations ?? {},
-    reasons: Object.fromEntries(
-      Object.entries(input.reasons ?? {}).filter((e): e is [string, string] => typeof e[1] === "string" && e[1] !== ""),
-    ),
+    reasons: Object.fromEntries([
+      ...Object.entries(input.reasons ?? {}).filter((e): e is [string, string] => typeof e[1] === "string" && e[1] !== ""),
+      ...notRead,
+    ]),
     names: Object.fromEntries(
       Object.entries(input.names ?? {}).filter((e): e is [string, string] => typeof e[1] === "string" && e[1] !== ""),
     ),
@@ -34,7 +41,7 @@ export function makeContext(
   // one context per end of each band, sharing everything but the variables (and the rule memo, a function of them)
   const at = (values: InterpretInput["values"]): EvalContext => ({
     ...ctx,
-    vars: buildVariables({ ...input, values }, data),
+    vars: buildVariables({ ...input, values: readable(values) }, data),
     ruleCache: new Map(),
     bandEnds: [],
   });
@@ -57,6 +64,9 @@ export function makeContext(
  *
  * @example interpret({ patient: { sex: "male", ageY: 60 }, referral: "general", values: { peakVo2PctPred: 62 } })
  */
+/** The lowest peak RER any cited source accepts as a maximal test: FRIEND's treadmill inclusion, RER ≥ 1.0 (confirmed). */
+export const EFFORT_RER_FLOOR = 1.0;
+
 export function interpret(
   input: InterpretInput,
   settings: InterpretSettings = {},
@@ -85,6 +95,25 @@ export function interpret(
         "warning",
         "effort-verdict-borderline",
         `The effort verdict (${effort.label}) rests on a value near its cut-off: ${effort.borderline}. Read the verdict, and the conclusions it allows, with that in mind.`,
+        { field: "effort" },
+      ),
+    );
+  // heart rate alone, with a peak RER below the lowest any cited source accepts as maximal (FRIEND's RER ≥ 1.0 inclusion,
+  // confirmed), is weak evidence of a maximal test: predicted maximal heart rate scatters by about 10 bpm between people
+  // (common practice); the verdict stands, said with that caution
+  const limits = effort.criteria.filter((c) => c.ruleId !== "rer-maximal" && c.outcome === true).map((c) => c.ruleId);
+  const rer = ctx.vars.peakRer;
+  if (
+    (effort.verdict === "physiological-limit" || effort.verdict === "limit-without-rer") &&
+    limits.length === 1 &&
+    limits[0] === "hr-reached" &&
+    (typeof rer !== "number" || rer < EFFORT_RER_FLOOR)
+  )
+    issues.push(
+      makeIssue(
+        "warning",
+        "effort-rests-on-heart-rate",
+        `Effort is judged adequate on heart rate alone (the only effort criterion met), with ${typeof rer === "number" ? `peak RER ${rer.toFixed(2)} (below ${EFFORT_RER_FLOOR.toFixed(2)})` : "no peak RER"}: predicted maximal heart rate varies by about 10 bpm between people, so the test may have been submaximal and peak values may understate capacity.`,
         { field: "effort" },
       ),
     );

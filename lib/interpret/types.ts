@@ -152,6 +152,12 @@ export interface InterpretInput {
    */
   reasons?: Partial<Record<keyof InterpretValues, string>>;
   /**
+   * Values that are shown but not interpreted, with why (e.g. a child's % of an adult equation; every VO2-based value
+   * when VO2 rose too little with work to be believed): rules, flows, patterns and schemes read them as missing with
+   * that reason; the draft still prints the measured value and says it is not read.
+   */
+  notRead?: Partial<Record<keyof InterpretValues, string>>;
+  /**
    * What a value was measured as, by value name, where that differs from the variable's usual label: e.g.
    * `veVco2SlopeToRcp` named "VE/VCO2 slope to a fitted break (RCP not determinable)" when no RCP was found
    * (`slopeToVt2Name` in the thresholds layer). Rule texts and the draft use it in place of the label, so a value is

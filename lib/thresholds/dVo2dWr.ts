@@ -24,6 +24,18 @@ export interface DVo2dWrOptions {
   looseFitR2?: number;
 }
 
+/**
+ * Below this whole-ramp ΔVO2/ΔWR (mL/min/W) VO2 is taken to be mis-measured (or the work rate mis-recorded) rather than
+ * read as a finding: 8.29 − 2 × 1.17 ≈ 6.0, the lower end of the men with circulatory disorders in Hansen 1987 (confirmed,
+ * `hansen-1987-vo2-wr`), 4 SD below its normal men (10.29 ± 1.01). It would also mean a delta efficiency near 48 %
+ * (60 J/min per W ÷ (6.0 mL/min/W × 20.9 J/mL O2), `o2-energy-equivalent`, common practice), where cycling measures about
+ * 25–35 % (`cycling-delta-efficiency`, recalled). The choice of 2 SD is ours.
+ */
+export const IMPLAUSIBLE_DVO2_DWR_ML_MIN_W = 6.0;
+
+/** Energy released per mL of O2 consumed, J (about 20.9 J/mL over the exercise range of RER; common practice). */
+const O2_ENERGY_J_PER_ML = 20.9;
+
 export interface DVo2dWrResult {
   /** OLS of VO2 (mL/min) on work rate (W) over the ramp after the lag window. */
   whole: LineIndex;
@@ -36,6 +48,11 @@ export interface DVo2dWrResult {
   upperToLowerRatio: Measured;
   /** true when the ratio is below `flatteningRatio`; null when not determinable. */
   flattening: boolean | null;
+  /**
+   * true when the whole-ramp slope is below `IMPLAUSIBLE_DVO2_DWR_ML_MIN_W`: VO2 rose too little with the work rate to be
+   * believed (issue `vo2-too-low-for-work`), and VO2-based values are not interpreted; null when not determinable.
+   */
+  implausiblyLow: boolean | null;
   /** Reference: 10.29 ± 1.01 mL/min/W in 54 normal men (Am J Cardiol 1987;59:669, confirmed). */
   reference: { meanMlMinW: number; sdMlMinW: number; sourceId: string };
   issues: Issue[];
@@ -61,7 +78,7 @@ export function dVo2dWr(test: ConditionedTest, options: DVo2dWrOptions = {}): DV
   const sums = new PrefixSums(pairs.x, pairs.y);
   const units = { slope: "mL/min/W", intercept: "mL/min" };
   const minPoints = stage ? 3 : 10;
-  const sourceIds = ["hansen-1987-vo2-wr", "vo2-lag-exclusion"];
+  const sourceIds = ["hansen-1987-vo2-wr", "vo2-lag-exclusion", "o2-energy-equivalent", "cycling-delta-efficiency"];
   const averaging = stage ? "stage values" : "breath by breath (artefact-cleaned)";
   const wholeFit = lineIndexFromFit(
     sums,
@@ -139,6 +156,17 @@ export function dVo2dWr(test: ConditionedTest, options: DVo2dWrOptions = {}): DV
         `ΔVO2/ΔWR ${whole.slope.value.toFixed(1)} mL/min/W fits the ramp loosely (r² ${whole.r2.value.toFixed(2)} < ${looseFitR2}): VO2 follows the work rate poorly; check the VO2 signal, the load record and the exercise phase before reading it.`,
       ),
     );
+  const slope = whole.slope.value;
+  const implausiblyLow = slope === null ? null : slope < IMPLAUSIBLE_DVO2_DWR_ML_MIN_W;
+  if (slope !== null && implausiblyLow)
+    issues.push(
+      makeIssue(
+        "warning",
+        "vo2-too-low-for-work",
+        `VO2 rose only ${slope.toFixed(1)} mL/min per W of work rate (ΔVO2/ΔWR; normal men 10.3 ± 1.0, men with circulatory disorders 8.3 ± 1.2): below ${IMPLAUSIBLE_DVO2_DWR_ML_MIN_W.toFixed(1)} it would need a muscle efficiency of about ${slope > 0 ? `${Math.round((100 * 60) / (slope * O2_ENERGY_J_PER_ML))} %` : "more than 100 %"}, where cycling achieves about 25–35 %. The VO2 signal (gas or flow calibration, a mask leak) or the work-rate record is the likelier explanation: VO2-based values are shown but not interpreted (capacity, O2 pulse, plateau, VT1 against predicted, patterns, schemes). Check the cart and the ergometer; set the exercise phase by hand if the fit reads the wrong part of the test.`,
+        { field: "dVo2dWr" },
+      ),
+    );
   if (pairs.x.length === 0)
     issues.push(
       makeIssue(
@@ -155,6 +183,7 @@ export function dVo2dWr(test: ConditionedTest, options: DVo2dWrOptions = {}): DV
     splitBy,
     upperToLowerRatio: ratio,
     flattening: ratio.value === null ? null : ratio.value < flatteningRatio,
+    implausiblyLow,
     reference: { meanMlMinW: 10.29, sdMlMinW: 1.01, sourceId: "hansen-1987-vo2-wr" },
     issues,
   };

@@ -20,10 +20,35 @@ describe("predictions outside the derivation population (invented)", () => {
     const r = analyse(built.record!, {});
     expect(r.issues.some((i) => i.code === "outside-derivation-population")).toBe(true);
     const results = r.draft.sections.find((s) => s.id === "results")!.paragraphs;
+    // a child is not read against equations derived in adults (Hansen 1984 from 18 y, ERS 2019 HRmax from 20 y): the
+    // % is not graded, and the draft says so beside each value and in the conclusion
     for (const start of ["Peak VO2", "Peak heart rate", "Peak O2 pulse"])
-      expect(results.find((l) => l.startsWith(start))).toMatch(/extrapolated: the patient is outside its derivation population/);
+      expect(results.find((l) => l.startsWith(start))).toMatch(
+        /% of predicted not read: .+ was derived in adults \(from (18|20) y\); a patient of 12 y is not read against it/,
+      );
     const conclusion = r.draft.sections.find((s) => s.id === "conclusion")!.paragraphs.join(" ");
-    expect(conclusion).toMatch(/The predicted peak VO2, maximal heart rate and O2 pulse come from equations derived outside/);
+    expect(conclusion).toMatch(/The predicted peak VO2, maximal heart rate and O2 pulse come from equations derived in adults/);
+    // nothing is graded on them: no flow step, pattern feature or scheme reads a % predicted as a finding
+    const steps = r.interpretation.path.steps.filter((s) => s.nodeId === "peak-vo2");
+    expect(steps.map((s) => s.outcome)).toEqual(["not-assessable"]);
+    const effortHr = r.interpretation.effort.criteria.find((c) => c.ruleId === "hr-reached")!;
+    expect(effortHr.outcome).toBeNull();
+    for (const p of r.interpretation.patterns)
+      for (const f of [...p.for, ...p.against]) expect(f.text).not.toMatch(/% predicted .*(≥|<|>|≤)/);
+  });
+
+  it("an adult outside an equation's age range is still read, with the extrapolation said", async () => {
+    const built = await buildRecord({
+      bytes: new Uint8Array(fs.readFileSync(path.resolve(__dirname, "../fixtures/cases/normal-adult.csv"))),
+      fileName: "normal-adult.csv",
+      patient: { sex: "male", ageY: 88, heightCm: 175, weightKg: 75 },
+      ergometer: "cycle",
+      referral: "general",
+    });
+    const r = analyse(built.record!, {});
+    const hr = r.draft.sections.find((s) => s.id === "results")!.paragraphs.find((l) => l.startsWith("Peak heart rate"))!;
+    expect(hr).toMatch(/\d+ % of predicted, .*extrapolated: the patient is outside its derivation population/);
+    expect(r.interpretation.effort.criteria.find((c) => c.ruleId === "hr-reached")!.outcome).not.toBeNull();
   });
 });
 

@@ -218,8 +218,28 @@ describe("effort when peak RER is missing", () => {
     const r = interpret(baseInput({ peakRer: null, hrPctPred: 95 }));
     expect(r.effort.verdict).toBe("limit-without-rer");
     expect(r.effort.label).not.toMatch(/RER below/);
-    expect(r.effort.label).toMatch(/peak RER not available/);
+    expect(r.effort.label).toMatch(/Peak RER not available/);
+    // the limit reached is named, not the list of possible ones
+    expect(r.effort.label).toBe("Peak RER not available, but a physiological limit was reached: Peak HR reached predicted range");
     expect(path(r)[0]).toBe("effort:adequate");
+    // heart rate alone, without an RER, is weak evidence: said as a warning
+    expect(r.issues.find((i) => i.code === "effort-rests-on-heart-rate")?.message).toMatch(
+      /^Effort is judged adequate on heart rate alone \(the only effort criterion met\), with no peak RER/,
+    );
+  });
+
+  it("heart rate alone with peak RER 0.97 is warned about; with a plateau as well, or RER 1.02, it is not", () => {
+    const warned = (over: Partial<InterpretInput["values"]>) =>
+      interpret(baseInput({ hrPctPred: 95, ...over })).issues.some((i) => i.code === "effort-rests-on-heart-rate");
+    const r = interpret(baseInput({ peakRer: 0.97, hrPctPred: 95 }));
+    expect(r.effort.verdict).toBe("physiological-limit");
+    expect(r.effort.label).toBe(
+      "Peak RER below the maximal-effort cut-off, but a physiological limit was reached: Peak HR reached predicted range",
+    );
+    // 0.97 < 1.0, the lowest RER any cited source accepts as maximal (FRIEND inclusion, confirmed); 1.02 is not below it
+    expect(warned({ peakRer: 0.97 })).toBe(true);
+    expect(warned({ peakRer: 1.02 })).toBe(false);
+    expect(warned({ peakRer: 0.97, vo2Plateau: true })).toBe(false);
   });
 });
 

@@ -9,6 +9,7 @@ import { getLabDefaults } from "@/lib/store/labSettings";
 import { formatClock } from "@/lib/units";
 import { effectiveSettings, getTest, latestSettings, saveAnalysisVersion } from "@/lib/store/tests";
 import { settingsChangedSince } from "./recordToken";
+import { recordId } from "../../schemas";
 
 export interface FormState {
   ok?: string;
@@ -18,7 +19,7 @@ export interface FormState {
 
 const overrideSchema = z
   .object({
-    testId: z.coerce.number().int().positive(),
+    testId: recordId("test"),
     which: z.enum(["vt1", "vt2"]),
     vo2MlMin: z.preprocess(
       (v) => (v === "" ? undefined : Number(v)),
@@ -125,7 +126,7 @@ const averagingOptions = {
 export type AveragingKey = keyof typeof averagingOptions;
 
 const settingsSchema = z.object({
-  testId: z.coerce.number().int().positive(),
+  testId: recordId("test"),
   averaging: z.enum(Object.keys(averagingOptions) as [AveragingKey, ...AveragingKey[]]),
   peakWindowS: z.coerce.number().refine((n) => [15, 20, 30, 60].includes(n), "Peak window must be 15, 20, 30 or 60 s"),
   vo2Equation: z.string().min(1),
@@ -177,7 +178,7 @@ const clockOrSeconds = (what: string) =>
 
 const exerciseSpanSchema = z
   .object({
-    testId: z.coerce.number().int().positive(),
+    testId: recordId("test"),
     start: clockOrSeconds("Start"),
     end: clockOrSeconds("End"),
     reason: z.string().trim().min(5, "Give the reason (at least a few words)").max(300),

@@ -17,7 +17,7 @@ import type { Issue } from "@/lib/core";
 import { saveProfile } from "@/lib/store/profiles";
 import { getImportChoices, getUploadDetails, replaceImport, type ImportChoices } from "@/lib/store/reimport";
 import { getTest, getUploadBytes } from "@/lib/store/tests";
-import { fieldErrors, optionalNumber, plausibleNumber, testDetailsSchema } from "../../../schemas";
+import { fieldErrors, optionalNumber, plausibleNumber, testDetailsSchema, recordId } from "../../../schemas";
 import { FIELD_LABEL, unitOptions, type FieldKey } from "./fieldChoices";
 
 export interface ColumnFormState {
@@ -35,7 +35,7 @@ const ACTOR = "local user";
 const FIELD_KEYS = Object.keys(FIELD_LABEL) as FieldKey[];
 
 const baseSchema = z.object({
-  testId: z.coerce.number().int().positive(),
+  testId: recordId("test"),
   intent: z.enum(["reread", "save-profile"]),
   weightKg: plausibleNumber("weightKg"),
   stageDurationS: optionalNumber(STAGE_DURATION_LIMITS_S.min, STAGE_DURATION_LIMITS_S.max, "Stage length (s)"),

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { optionalNumber } from "../../../schemas";
+import { optionalNumber, recordId } from "../../../schemas";
 import { APPARATUS_DEAD_SPACE_LIMITS_ML, BAROMETRIC_PRESSURE_LIMITS_MMHG } from "@/lib/thresholds";
 
 const formNumber = (min: number, max: number, what: string, integer = false) =>
@@ -16,7 +16,7 @@ const text = (max: number, what: string) =>
  * haemoglobin 3–25 g/dL.
  */
 export const contextSchema = z.object({
-  testId: z.coerce.number().int().positive(),
+  testId: recordId("test"),
   ischaemicHeartDisease: yesNo,
   resectedSegments: formNumber(0, 19, "Segments to be resected", true),
   stairClimbM: formNumber(0, 200, "Stair climb height (m)"),
@@ -32,7 +32,7 @@ export const contextSchema = z.object({
  * text is length-limited only.
  */
 export const conductSchema = z.object({
-  testId: z.coerce.number().int().positive(),
+  testId: recordId("test"),
   protocol: text(200, "Protocol"),
   reasonForStopping: text(300, "Reason for stopping"),
   symptoms: text(300, "Symptoms"),
@@ -53,7 +53,7 @@ export const conductSchema = z.object({
 });
 
 export const fileFormSchema = z.object({
-  testId: z.coerce.number().int().positive(),
+  testId: recordId("test"),
   timeUnit: z.enum(["s", "min"]).default("s"),
   /** Lactate only: the unit of a lactate column whose header names none ("" = read it from the header or the values). */
   lactateUnit: z.enum(["", "mmol/L", "mg/dL"]).default(""),

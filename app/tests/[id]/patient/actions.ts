@@ -6,7 +6,7 @@ import { makeAnonymisedCopy } from "@/lib/store/anonymisedCopy";
 import { z } from "zod";
 import { updatePatientDetails } from "@/lib/store/updatePatientDetails";
 import { getTest, renameTest } from "@/lib/store/tests";
-import { fieldErrors, labelSchema, testDetailsSchema } from "../../../schemas";
+import { fieldErrors, labelSchema, testDetailsSchema, recordId } from "../../../schemas";
 import { changedSince } from "../recordToken";
 
 export interface PatientFormState {
@@ -23,7 +23,7 @@ const ACTOR = "local user";
 /** Same fields, limits (PLAUSIBLE_LIMITS) and messages as the upload form. */
 const patientSchema = testDetailsSchema
   .pick({ sex: true, ageY: true, heightCm: true, weightKg: true, ergometer: true, referral: true })
-  .extend({ testId: z.coerce.number().int().positive() });
+  .extend({ testId: recordId("test") });
 
 /**
  * Correct sex, age, height, weight, ergometer and referral question of a test. The record keeps everything
@@ -71,7 +71,7 @@ export interface LabelFormState {
 }
 
 const labelFormSchema = z.object({
-  testId: z.coerce.number().int().positive(),
+  testId: recordId("test"),
   label: labelSchema.pipe(z.string().min(1, "Give a label")),
 });
 
@@ -93,7 +93,7 @@ export interface CopyFormState {
 }
 
 const copyFormSchema = z.object({
-  testId: z.coerce.number().int().positive(),
+  testId: recordId("test"),
   label: labelSchema.pipe(z.string().min(1, "Give the copy a label that names no one, e.g. “Teaching case 12”")),
   keepFreeText: z.literal("on").optional(),
 });

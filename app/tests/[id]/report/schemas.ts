@@ -1,5 +1,6 @@
 import { z } from "zod";
 import type { SignDraftInput } from "./signDraft";
+import { recordId } from "../../../schemas";
 
 /** Id of the element near the top of the report page where the restored-text notice is shown. */
 export const REPORT_NOTICE_SLOT = "report-text-notice";
@@ -9,8 +10,8 @@ export const SECTION_MAX_CHARS = 4000;
 
 /** One edited section as sent by the draft form: its id and its text (paragraphs separated by blank lines). */
 export const draftFormSchema = z.object({
-  testId: z.coerce.number().int().positive(),
-  reportId: z.coerce.number().int().positive(),
+  testId: recordId("test"),
+  reportId: recordId("report version"),
   /** The revision of the version the page showed (`StoredReport.revision`): a save or signature without it is refused. */
   revision: z
     .string({ message: "The page sent no draft revision; reload the page" })
@@ -47,8 +48,8 @@ export const ATTESTATION =
 
 /** The sign form: signer, attestation, and the report text exactly as it is on screen. */
 export const signFormSchema = z.object({
-  testId: z.coerce.number().int().positive(),
-  reportId: z.coerce.number().int().positive(),
+  testId: recordId("test"),
+  reportId: recordId("report version"),
   revision: draftFormSchema.shape.revision,
   sections: draftFormSchema.shape.sections,
   signer: z

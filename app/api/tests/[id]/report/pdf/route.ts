@@ -1,11 +1,12 @@
 import { z } from "zod";
 import { renderReportPdf } from "@/lib/report/pdf/renderReportPdf";
 import { loadReport } from "@/app/tests/[id]/report/loadReport";
+import { recordId } from "../../../../../schemas";
 
 export const dynamic = "force-dynamic";
 
-const paramsSchema = z.object({ id: z.coerce.number().int().positive() });
-const querySchema = z.object({ report: z.coerce.number().int().positive().optional() });
+const paramsSchema = z.object({ id: recordId("test") });
+const querySchema = z.object({ report: recordId("report version").optional() });
 
 /** The report of a test as PDF: the current version, or `?report=<id>` for a given version. */
 export async function GET(request: Request, { params }: { params: Promise<{ id: string }> }) {

@@ -1,0 +1,82 @@
+/**
+ * VO2 that rises too little with work to be believed (ΔVO2/ΔWR below 6.0 mL/min/W, `IMPLAUSIBLE_DVO2_DWR_ML_MIN_W`) is a
+ * measurement or work-rate problem: it is flagged, shown, and not interpreted, so it cannot read as heart disease.
+ * Checked by construction on an INVENTED demo case (tests/fixtures/cases) whose gas signals are halved, as a leaking
+ * mask would, and on real tests of the ACTES set (Chabert C, Mongin D, Hermand E, Collado A, Hue O. Cardiorespiratory
+ * measurement from graded cycloergometer exercise testing, v1.0.0, PhysioNet 2022, doi:10.13026/2qs3-kh43; ODC-By 1.0).
+ */
+import fs from "node:fs";
+import path from "node:path";
+import { describe, expect, it } from "vitest";
+import { analyse, buildRecord, type TestRecord } from "../../lib/analysis";
+import { IMPLAUSIBLE_DVO2_DWR_ML_MIN_W } from "../../lib/thresholds/dVo2dWr";
+import { caseRecord } from "../fixtures/caseRecord";
+
+/** Every gas volume scaled by `f` (VO2, VCO2, VE): a leak that loses part of each breath (INVENTED). */
+function leaking(record: TestRecord, f: number): TestRecord {
+  const rows = record.table.rows.map((r) => ({
+    ...r,
+    ...(r.vo2MlMin !== undefined ? { vo2MlMin: r.vo2MlMin * f } : {}),
+    ...(r.vco2MlMin !== undefined ? { vco2MlMin: r.vco2MlMin * f } : {}),
+    ...(r.veLMin !== undefined ? { veLMin: r.veLMin * f } : {}),
+  }));
+  return { ...record, table: { ...record.table, rows } };
+}
+
+const cardiovascular = (r: ReturnType<typeof analyse>) =>
+  r.interpretation.patterns.find((p) => p.patternId === "cardiovascular")!;
+
+describe("VO2 too low for the work done", () => {
+  it("a leak that halves every gas signal is flagged, and nothing VO2-based is interpreted", async () => {
+    const base = await caseRecord("normal-adult");
+    const good = analyse(base);
+    const slope = good.indices.dVo2dWr.whole.slope.value!;
+    expect(slope).toBeGreaterThan(8.5); // a normal adult (Hansen 1987: 10.3 ± 1.0, confirmed)
+    expect(good.issues.map((i) => i.code)).not.toContain("vo2-too-low-for-work");
+    // referred for heart failure, so the Weber class and the peak VO2 grade are applied
+    const r = analyse(leaking({ ...base, referral: "heart-failure" }, 0.5));
+    const low = r.indices.dVo2dWr.whole.slope.value!;
+    // OLS of (0.5 · VO2) on work = 0.5 × the slope, by construction
+    expect(low).toBeCloseTo(slope * 0.5, 6);
+    expect(low).toBeLessThan(IMPLAUSIBLE_DVO2_DWR_ML_MIN_W);
+    const issue = r.issues.find((i) => i.code === "vo2-too-low-for-work")!;
+    // the efficiency it implies: 60 J/min per W ÷ (slope × 20.9 J/mL), as a percentage
+    expect(issue.message).toContain(`about ${Math.round(6000 / (low * 20.9))} %`);
+    // shown: the values stay in the results and the draft; not read: the flow, patterns and schemes
+    expect(r.indices.peaks.vo2MlMin.value).toBeCloseTo(good.indices.peaks.vo2MlMin.value! * 0.5, 6);
+    const results = r.draft.sections.find((s) => s.id === "results")!.paragraphs;
+    expect(results[0]).toMatch(/^Peak VO2 \d+ mL\/min/);
+    expect(results).toContain(
+      "VO2-based values are shown but not interpreted: VO2 rose too little with the work rate to be believed (see the issue on ΔVO2/ΔWR).",
+    );
+    expect(r.interpretation.path.steps.find((s) => s.nodeId === "peak-vo2")!.outcome).toBe("not-assessable");
+    for (const p of r.interpretation.patterns)
+      for (const f of [...p.for, ...p.against]) expect(f.text).not.toMatch(/^(Peak VO2|O2 pulse|ΔVO2\/ΔWR) [\d.]+/);
+    const graded = r.interpretation.schemes.filter((x) => x.schemeId === "weber" || x.schemeId === "peak-vo2-grade");
+    expect(graded.map((s) => s.schemeId).sort()).toEqual(["peak-vo2-grade", "weber"]);
+    for (const s of graded) expect([s.schemeId, s.overall]).toEqual([s.schemeId, null]);
+  });
+
+  it("real tests: a VO2 that rose 4.0 mL/min per W is flagged and not read as heart disease; a normal one is not flagged", async () => {
+    const file = new Uint8Array(fs.readFileSync(path.resolve(__dirname, "../fixtures/open-data/actes/actes_test_measure.csv")));
+    // ages, heights and weights from actes_subject-info.csv; sex is not in the set (male assumed, as a reviewer would ask)
+    const read = async (id: string, ageY: number, heightCm: number, weightKg: number) => {
+      const built = await buildRecord({
+        bytes: file,
+        fileName: "actes_test_measure.csv",
+        patient: { sex: "male", ageY, heightCm, weightKg },
+        ergometer: "cycle",
+        referral: "general",
+        importOptions: { select: { ID: id } },
+      });
+      return analyse(built.record!);
+    };
+    const nine = await read("9", 14, 176, 57.1);
+    expect(nine.indices.dVo2dWr.whole.slope.value!).toBeLessThan(IMPLAUSIBLE_DVO2_DWR_ML_MIN_W);
+    expect(nine.issues.map((i) => i.code)).toContain("vo2-too-low-for-work");
+    expect(["strong", "moderate", "weak"]).not.toContain(cardiovascular(nine).support);
+    const thirteen = await read("13", 18, 183, 83.9);
+    expect(thirteen.indices.dVo2dWr.whole.slope.value!).toBeGreaterThan(9);
+    expect(thirteen.issues.map((i) => i.code)).not.toContain("vo2-too-low-for-work");
+  }, 30_000);
+});
