@@ -214,3 +214,37 @@ describe("renderReportPdf", () => {
     expect(text.split("628 mL/min -> 582 mL/min").length - 1).toBeGreaterThanOrEqual(30);
   });
 });
+
+/** pdffonts' table (poppler): one row per font with its name, type and whether it is embedded and subset. */
+function pdfFonts(pdf: Buffer): { name: string; type: string; emb: string; sub: string; uni: string }[] {
+  if (!hasTool("pdffonts")) throw new Error("pdffonts not found: install poppler-utils (e.g. apt-get install poppler-utils)");
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), "cpet-report-"));
+  const file = path.join(dir, "r.pdf");
+  fs.writeFileSync(file, pdf);
+  const lines = execFileSync("pdffonts", [file]).toString().trim().split("\n").slice(2);
+  fs.rmSync(dir, { recursive: true, force: true });
+  // name type(may hold spaces) encoding emb sub uni objectId gen: read the fixed tail from the right
+  return lines.map((line) => {
+    const cols = line.trim().split(/\s+/);
+    const [emb, sub, uni] = cols.slice(-5, -2);
+    return { name: cols[0], type: cols.slice(1, -6).join(" "), emb, sub, uni };
+  });
+}
+
+describe("renderReportPdf fonts", () => {
+  it("embeds subsets of the four Roboto faces it uses and no other font, charts included", async () => {
+    const model = exampleReportModel({ status: "signed", signedBy: "Ελένη Παπαδοπούλου", signedAt });
+    const fonts = pdfFonts(await renderReportPdf(model));
+    expect(fonts.length).toBeGreaterThan(0);
+    for (const f of fonts) {
+      // a subset's name is six capital letters, "+", the font's PostScript name
+      expect(f.name).toMatch(/^[A-Z]{6}\+Roboto-(Regular|Medium|Italic|MediumItalic)$/);
+      expect([f.name, f.emb, f.sub, f.uni]).toEqual([f.name, "yes", "yes", "yes"]);
+    }
+    const faces = new Set(fonts.map((f) => f.name.slice(7)));
+    expect(faces.has("Roboto-Regular") && faces.has("Roboto-Medium")).toBe(true);
+    // the draft's watermark and the charts' bold titles draw with the same embedded faces
+    const draftFonts = pdfFonts(await renderReportPdf(exampleReportModel()));
+    for (const f of draftFonts) expect([f.name, f.emb]).toEqual([expect.stringMatching(/^[A-Z]{6}\+Roboto-/), "yes"]);
+  });
+});
