@@ -8,12 +8,12 @@ import { renderChartSvg } from "../charts/renderChartSvg";
 import { SIGNER_NOT_VERIFIED } from "../caution";
 import { EVIDENCE_LEGEND } from "../sources";
 import type { ReportModel, ReportRow } from "../reportModel";
-import { toWinAnsi } from "./toWinAnsi";
+import { toPdfText } from "./pdfText";
 
 /**
  * The embedded report font: Roboto as shipped with pdfmake, one file per face (Medium serves as bold). Located from
  * the working directory (the app and the tests run from the project root), which works whether or not the server
- * code is bundled. pdfkit embeds the subset of glyphs a PDF uses.
+ * code is bundled. pdfkit embeds the subset of glyphs a PDF uses. What these files can print is `pdfText.ts`.
  */
 const FONT_DIR = path.join(process.cwd(), "node_modules", "pdfmake", "fonts", "Roboto");
 const PDF_FONT_FILES = {
@@ -154,8 +154,9 @@ function valuesTable(rows: ReportRow[], index: Map<string, number>): Content {
  *
  * Every page carries the clinical caution and page number in its footer; while the report is not
  * signed every page also carries a DRAFT watermark and the draft caution in its header. Charts are
- * the same SVG the page shows (`renderChartSvg`), its text drawn in the same embedded font. All text is made
- * WinAnsi-safe first (`toWinAnsi`).
+ * the same SVG the page shows (`renderChartSvg`), its text drawn in the same embedded font. All text goes through
+ * `toPdfText` first: what the font has prints as typed (Latin, Greek, Cyrillic), arrows and the few other symbols it
+ * lacks get a stand-in ("->"); characters with neither are refused before signing (`unprintableInPdf`).
  * Sections: identification, key values, thresholds, charts, interpretation path, schemes, report
  * text, data-quality issues, methods, sources (numbered, with evidence status), signature.
  *
@@ -164,7 +165,7 @@ function valuesTable(rows: ReportRow[], index: Map<string, number>): Content {
 export async function renderReportPdf(rawModel: ReportModel, now: Date = new Date()): Promise<Buffer> {
   // when this copy was made: two PDFs of one signed version can differ in their version note, and this orders them
   const generatedAt = `${now.toISOString().slice(0, 16).replace("T", " ")} UTC`;
-  const model = mapStrings(rawModel, toWinAnsi);
+  const model = mapStrings(rawModel, toPdfText);
   const draft = model.status !== "signed";
   // a signed report that a newer signed version amends says so in red on every page
   const amended = !draft && /^Version \d+ of \d+\..*Superseded:/.test(model.versionNote ?? "");
@@ -287,7 +288,7 @@ export async function renderReportPdf(rawModel: ReportModel, now: Date = new Dat
     content.push({ ul: model.methods, fontSize: 8.5 });
   }
   content.push(heading("Sources"));
-  content.push({ text: toWinAnsi(EVIDENCE_LEGEND), color: MUTED, fontSize: 8, margin: [0, 0, 0, 4] });
+  content.push({ text: toPdfText(EVIDENCE_LEGEND), color: MUTED, fontSize: 8, margin: [0, 0, 0, 4] });
   content.push(
     model.sources.length
       ? {
@@ -310,7 +311,7 @@ export async function renderReportPdf(rawModel: ReportModel, now: Date = new Dat
             ...(model.attestation
               ? [{ text: `The signer confirmed: "${model.attestation}"`, margin: [0, 2, 0, 0] } as Content]
               : []),
-            { text: toWinAnsi(SIGNER_NOT_VERIFIED), color: MUTED, fontSize: 8 },
+            { text: toPdfText(SIGNER_NOT_VERIFIED), color: MUTED, fontSize: 8 },
           ],
         },
   );
