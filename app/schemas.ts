@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { describeChar, unprintableInPdf } from "../lib/report/pdf/toWinAnsi";
+import { PDF_PRINTABLE_WORDS, describeChar, unprintableInPdf } from "../lib/report/pdf/pdfText";
 import { PLAUSIBLE_LIMITS, type PlausibleField } from "../lib/core";
 
 /**
@@ -40,8 +40,8 @@ export const plausibleNumber = (field: PlausibleField) => {
 };
 
 /**
- * A test's label: the register's name for it and its report's title, so it must print in the report PDF (Western
- * European characters, `unprintableInPdf`) and hold no line breaks or other control characters.
+ * A test's label: the register's name for it and its report's title, so it must print in the report PDF (Latin,
+ * Greek and Cyrillic letters and common signs, `unprintableInPdf`) and hold no line breaks or other control characters.
  */
 export const labelSchema = z
   .string()
@@ -53,7 +53,7 @@ export const labelSchema = z
     if (bad.length)
       ctx.addIssue({
         code: "custom",
-        message: `The report PDF cannot show ${bad.map(describeChar).join(" ")} in the label; write it in Latin letters.`,
+        message: `The report PDF prints ${PDF_PRINTABLE_WORDS} and cannot show ${bad.map(describeChar).join(" ")} in the label; leave ${bad.length === 1 ? "it" : "them"} out.`,
       });
   });
 

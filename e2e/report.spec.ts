@@ -1,4 +1,7 @@
+import { execFileSync } from "node:child_process";
 import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
 import { expect, test, type Page } from "@playwright/test";
 
 /** Page object for a test's report page (draft editing, signing, PDF). */
@@ -161,6 +164,43 @@ test("report: signing signs the text on screen, including edits that were never 
   const pdf = await page.request.get(`/api/tests/${testId}/report/pdf`);
   expect(pdf.status()).toBe(200);
   expect(pdf.headers()["content-disposition"]).toMatch(/-signed\.pdf/);
+});
+
+/** The PDF's text as poppler's pdftotext reads it (poppler-utils, as the unit tests use), whitespace collapsed. */
+function pdfText(pdf: Buffer): string {
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), "cpet-e2e-pdf-"));
+  const file = path.join(dir, "r.pdf");
+  fs.writeFileSync(file, pdf);
+  const text = execFileSync("pdftotext", [file, "-"]).toString().replace(/\s+/g, " ");
+  fs.rmSync(dir, { recursive: true, force: true });
+  return text;
+}
+
+test("report: a Greek signer's name is signed and printed as typed; characters the PDF lacks are refused by name", async ({
+  page,
+}) => {
+  const report = new ReportPage(page);
+  const testId = await report.openDemoReportByLabel(/heart failure assessment/);
+  // Chinese characters are not in the PDF's font: refused, named, with what the PDF does print
+  await report.sign("Dr 李明");
+  await expect(page.getByTestId("sign-error")).toContainText("cannot show 李 明 in the name");
+  await expect(page.getByTestId("sign-error")).toContainText(
+    "Latin (including Central European and Vietnamese), Greek and Cyrillic",
+  );
+  // a letter outside the font prints without its mark, and the form says so before signing
+  await page.getByTestId("signer").fill("Dr Lǎo");
+  await expect(page.getByTestId("signer-pdf-form")).toContainText("In the PDF the name prints as “Dr Lao”");
+  // Greek prints as typed: no preview of a changed name
+  const name = "Ελένη Παπαδοπούλου";
+  await page.getByTestId("signer").fill(name);
+  await expect(page.getByTestId("signer-pdf-form")).toHaveCount(0);
+  await report.sign(name);
+  await expect(page.getByTestId("signed-by")).toContainText(`Signed by ${name}`);
+  const pdf = await page.request.get(`/api/tests/${testId}/report/pdf`);
+  expect(pdf.status()).toBe(200);
+  const text = pdfText(await pdf.body());
+  expect(text).toContain(`Signed by ${name} (name as typed, not verified)`);
+  expect(text).toContain(`Signed by ${name} on `);
 });
 
 /** A threshold as the change list writes it ("not determinable" has no unit). */

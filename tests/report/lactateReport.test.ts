@@ -36,7 +36,8 @@ function pdfText(pdf: Buffer): string {
   const file = path.join(dir, "r.pdf");
   fs.writeFileSync(file, pdf);
   try {
-    return execFileSync("pdftotext", [file, "-"])
+    // -raw: text in drawing order, so the rotated DRAFT watermark's letters cannot land inside a table row
+    return execFileSync("pdftotext", ["-raw", file, "-"])
       .toString()
       .replace(/\u00a0/g, " ")
       .replace(/\s+/g, " ");

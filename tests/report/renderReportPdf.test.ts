@@ -9,7 +9,7 @@ import { exampleReportModel } from "./exampleReportModel";
 import { analyse } from "../../lib/analysis";
 import { buildReportModel } from "../../lib/report/buildReportModel";
 import { initialDraftSections } from "../../lib/report/initialDraftSections";
-import { toWinAnsi } from "../../lib/report/pdf/toWinAnsi";
+import { toPdfText } from "../../lib/report/pdf/pdfText";
 import type { ReportModel } from "../../lib/report/reportModel";
 import { DEMO_CASES } from "../../lib/store/demoCases";
 import { demoLabel, demoRecord } from "./demoRecord";
@@ -124,23 +124,25 @@ describe("renderReportPdf", () => {
     expect(pages.join(" ")).toContain("Signed by Dr A Example on 2026-12-01 10:00 UTC.");
   });
 
-  it("prints values, sources with evidence status and sanitised symbols", async () => {
+  it("prints values, sources with evidence status and the model's symbols as written", async () => {
     const all = pagesText(await renderReportPdf(exampleReportModel())).join(" ");
-    expect(all).toContain("Peak VO2"); // "VO₂" sanitised
-    expect(all).toContain(">= 80 %"); // "≥" sanitised
+    // the embedded font has these glyphs: printed as themselves, not as ASCII stand-ins
+    expect(all).toContain("Peak VO₂");
+    expect(all).toContain("V-slope, ≥ 2 segments");
+    expect(all).toContain("Δ between tests");
+    expect(all).not.toContain(">=");
     expect(all).toContain("[3] Beaver WL, Wasserman K, Whipp BJ. J Appl Physiol 1986;60:2020-2027 - evidence: confirmed");
     // statuses in words, not as stored ("common-practice")
     expect(all).toContain("- evidence: common practice");
     expect(all).not.toContain("common-practice");
     expect(all).toContain("V-slope: VCO2 against VO2"); // chart title drawn from the SVG
-    expect(all).not.toContain("₂");
   });
 
-  it("draws every character of the demo reports: no glyph the standard font lacks becomes '?'", async () => {
+  it("draws every character of the demo reports: no glyph the embedded font lacks becomes '?'", async () => {
     // Every text of every demo report (values, path, schemes, methods, draft text, chart labels).
     for (const demo of DEMO_CASES) {
       const texts = strings(await demoModel(demo.presetId));
-      for (const t of texts) expect([t, questionMarks(toWinAnsi(t))]).toEqual([t, questionMarks(t)]);
+      for (const t of texts) expect([t, questionMarks(toPdfText(t))]).toEqual([t, questionMarks(t)]);
     }
   });
 
@@ -167,6 +169,9 @@ describe("renderReportPdf", () => {
     expect(all).toContain("Re-check this text: Your text from report version 1 (draft) was kept");
     expect(all).toContain("VT1 (AT): 890 mL/min -> 1100 mL/min");
     expect(all).toContain("Peak RER > 1.05");
+    // the model's symbols that the font has are printed as themselves
+    for (const symbol of ["≥", "≤", "−", "·", "²"])
+      if (raw.includes(symbol)) expect([symbol, all.includes(symbol)]).toEqual([symbol, true]);
     for (const text of pages) {
       expect(text).toContain("DRAFT - not signed");
       expect(text).toContain(CLINICAL_CAUTION);
@@ -184,11 +189,18 @@ describe("renderReportPdf", () => {
     for (const preset of ["heart-failure", "pulmonary-vascular"]) {
       const model = await demoModel(preset);
       expect(model.schemes.length).toBeGreaterThan(0);
-      const text = pagesText(await renderReportPdf(model)).join(" ");
       for (const s of model.schemes) {
         expect([s.name, s.notes]).toEqual([s.name, fromFile.get(s.name)]);
+        // one scheme at a time, signed (no DRAFT watermark), so no page break or watermark letter falls inside a note
+        const one: ReportModel = {
+          ...model,
+          ...{ status: "signed", signedBy: "Dr A Example (invented)", signedAt },
+          ...{ keyValues: [], thresholds: [], charts: [], path: [], sections: [], issues: [], methods: [], sources: [] },
+          schemes: [s],
+        };
+        const text = pagesText(await renderReportPdf(one))[0];
         for (const note of s.notes ?? []) {
-          expect(text).toContain(toWinAnsi(note).replace(/\s+/g, " "));
+          expect(text).toContain(toPdfText(note).replace(/\s+/g, " "));
           printed++;
         }
       }
@@ -235,5 +247,69 @@ describe("renderReportPdf", () => {
     expect(text).not.toMatch(/mL\/kg\/\s*\n\s*min|VE\/\s*\n\s*VCO2|mL\/\s*\n\s*beat/);
     expect(text.split("15.2 mL/kg/min").length - 1).toBeGreaterThanOrEqual(30);
     expect(text.split("628 mL/min -> 582 mL/min").length - 1).toBeGreaterThanOrEqual(30);
+  });
+});
+
+/** pdffonts' table (poppler): one row per font with its name, type and whether it is embedded and subset. */
+function pdfFonts(pdf: Buffer): { name: string; type: string; emb: string; sub: string; uni: string }[] {
+  if (!hasTool("pdffonts")) throw new Error("pdffonts not found: install poppler-utils (e.g. apt-get install poppler-utils)");
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), "cpet-report-"));
+  const file = path.join(dir, "r.pdf");
+  fs.writeFileSync(file, pdf);
+  const lines = execFileSync("pdffonts", [file]).toString().trim().split("\n").slice(2);
+  fs.rmSync(dir, { recursive: true, force: true });
+  // name type(may hold spaces) encoding emb sub uni objectId gen: read the fixed tail from the right
+  return lines.map((line) => {
+    const cols = line.trim().split(/\s+/);
+    const [emb, sub, uni] = cols.slice(-5, -2);
+    return { name: cols[0], type: cols.slice(1, -6).join(" "), emb, sub, uni };
+  });
+}
+
+describe("renderReportPdf with non-Western-European text", () => {
+  // INVENTED names in Polish, Greek, Russian and Vietnamese (each language's own letters, typed as a person would)
+  const NAMES = ["Łukasz Wójcik", "Ελένη Παπαδοπούλου", "Дмитрий Иванов", "Nguyễn Văn An", "Zoltán Kővári-Čermák"];
+
+  it("prints names and text in Central European, Greek, Cyrillic and Vietnamese letters exactly as typed", async () => {
+    for (const name of NAMES) {
+      const model = exampleReportModel({
+        status: "signed",
+        signedBy: name,
+        signedAt,
+        title: `Exercise test report - ${name}`,
+        sections: [{ id: "summary", title: `Résumé — ${name}`, paragraphs: [`Reviewed with ${name}: VO₂ ≥ 80 %.`] }],
+      });
+      const pages = pagesText(await renderReportPdf(model));
+      const all = pages.join(" ");
+      expect(all).toContain(`Signed by ${name} on 2026-12-01 10:00 UTC.`);
+      expect(all).toContain(`Résumé — ${name}`);
+      expect(all).toContain(`Reviewed with ${name}: VO₂ ≥ 80 %.`);
+      for (const text of pages) expect(text).toContain(`Signed by ${name} (name as typed, not verified)`);
+    }
+  });
+
+  it("a name typed with combining accents prints composed (NFC)", async () => {
+    const decomposed = "Nguye\u0302\u0303n Va\u0306n An";
+    const all = pagesText(await renderReportPdf(exampleReportModel({ status: "signed", signedBy: decomposed, signedAt }))).join(
+      " ",
+    );
+    expect(all).toContain("Signed by Nguyễn Văn An on");
+    expect(all).not.toContain("\u0302");
+  });
+
+  it("embeds subsets of the four Roboto faces it uses and no other font, charts included", async () => {
+    const model = exampleReportModel({ status: "signed", signedBy: "Ελένη Παπαδοπούλου", signedAt });
+    const fonts = pdfFonts(await renderReportPdf(model));
+    expect(fonts.length).toBeGreaterThan(0);
+    for (const f of fonts) {
+      // a subset's name is six capital letters, "+", the font's PostScript name
+      expect(f.name).toMatch(/^[A-Z]{6}\+Roboto-(Regular|Medium|Italic|MediumItalic)$/);
+      expect([f.name, f.emb, f.sub, f.uni]).toEqual([f.name, "yes", "yes", "yes"]);
+    }
+    const faces = new Set(fonts.map((f) => f.name.slice(7)));
+    expect(faces.has("Roboto-Regular") && faces.has("Roboto-Medium")).toBe(true);
+    // the draft's watermark and the charts' bold titles draw with the same embedded faces
+    const draftFonts = pdfFonts(await renderReportPdf(exampleReportModel()));
+    for (const f of draftFonts) expect([f.name, f.emb]).toEqual([expect.stringMatching(/^[A-Z]{6}\+Roboto-/), "yes"]);
   });
 });

@@ -263,7 +263,15 @@ describe("only the newest version is saved or signed; the sections are the versi
     const { testId, draft } = newDraft();
     const res = submit(signForm(testId, draft.id, { results: "a", conclusion: "reviewed 🫀" }, { signer: "Dr 李明 Example" }));
     expect(!res.ok && res.errors.form).toMatch(/cannot show 李 明 in the name, or 🫀 in the text/);
+    // and says in words what the PDF does print
+    expect(!res.ok && res.errors.form).toMatch(
+      /prints Latin \(including Central European and Vietnamese\), Greek and Cyrillic letters/,
+    );
+    expect(!res.ok && res.errors.form).not.toMatch(/Latin letters or/);
     expect(getReport(draft.id)!.status).toBe("draft");
+    // an invisible joiner is named by its code point
+    const zwj = submit(signForm(testId, draft.id, { results: "a", conclusion: "b" }, { signer: "Dr A‍Example" }));
+    expect(!zwj.ok && zwj.errors.form).toMatch(/cannot show U\+200D in the name/);
     // a line break in the name would print a second line under "Signed by": refused
     const newline = submit(
       signForm(testId, draft.id, { results: "a", conclusion: "b" }, { signer: "Dr Nobody\nCountersigned by X" }),
@@ -273,8 +281,12 @@ describe("only the newest version is saved or signed; the sections are the versi
     const { input } = readSignForm(signForm(testId, draft.id, { results: "a", conclusion: "b" }));
     const label = signDraft(input!, undefined, "Lehrfall 李明 (invented)");
     expect(!label.ok && label.errors.form).toMatch(/李 明 in the test's label \(rename it on the patient page\)/);
-    // letters with a stroke are written without it, not refused (Ł → L)
-    expect(submit(signForm(testId, draft.id, { results: "a", conclusion: "b" }, { signer: "Dr Łucja Example" })).ok).toBe(true);
+    // Central European, Greek and Cyrillic letters print as typed: signed, and stored as typed
+    const { testId: t2, draft: d2 } = newDraft();
+    expect(submit(signForm(t2, d2.id, { results: "Ελένη", conclusion: "Дмитрий" }, { signer: "Dr Łucja Wójcik" })).ok).toBe(true);
+    expect(getReport(d2.id)!.signedBy).toBe("Dr Łucja Wójcik");
+    const { testId: t3, draft: d3 } = newDraft();
+    expect(submit(signForm(t3, d3.id, { results: "a", conclusion: "b" }, { signer: "Ελένη Παπαδοπούλου" })).ok).toBe(true);
   });
 
   it("the whole report as signed is kept with the signature, written by the signing statement", () => {
@@ -324,6 +336,12 @@ describe("renaming a test (SQLite in memory)", () => {
     expect(labelSchema.safeParse("Teaching case 7").success).toBe(true);
     const cjk = labelSchema.safeParse("Lehrfall 李明");
     expect(!cjk.success && cjk.error.issues[0].message).toMatch(/cannot show 李 明 in the label/);
+    const emoji = labelSchema.safeParse("Stress test 🫀");
+    expect(!emoji.success && emoji.error.issues[0].message).toMatch(
+      /prints Latin .*, Greek and Cyrillic letters and cannot show 🫀 in the label/,
+    );
+    for (const ok of ["Próba wysiłkowa (Łódź)", "Εργοσπιρομέτρηση", "Нагрузочный тест", "Terhelés – Győr"])
+      expect([ok, labelSchema.safeParse(ok).success]).toEqual([ok, true]);
     expect(labelSchema.safeParse("two\nlines").success).toBe(false);
   });
 });

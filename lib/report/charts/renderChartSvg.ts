@@ -28,7 +28,11 @@ export const MARKER_LOOK = {
   other: { color: "#555555", dash: "1 4", width: 1.2 },
 } as const;
 
-const FONT = 'font-family="Helvetica"';
+/**
+ * The report PDF resolves the first family it has registered (Roboto, embedded); a browser uses the first one
+ * installed.
+ */
+const FONT = 'font-family="Roboto, Helvetica, Arial, sans-serif"';
 const AXIS_INK = "#333333";
 const GRID_INK = "#e4e0d6";
 const BAND_FILL = "#f2eee3";
@@ -54,7 +58,10 @@ const LEGEND_ROW = 16;
 const MARGIN_BOTTOM = 42;
 const NOTE_BAND = 14;
 
-/** Rough Helvetica advance width: 0.55 em per character (enough for legend layout). */
+/**
+ * Rough advance width: 0.55 em per character (enough for legend layout; the product's labels average 0.43-0.50 em
+ * in Roboto and in Helvetica).
+ */
 function textWidth(text: string, fontSize: number): number {
   return text.length * fontSize * 0.55;
 }
@@ -149,7 +156,7 @@ function axisTitle(axis: ChartAxis): string {
 /**
  * Draw a chart as a standalone SVG string that both a browser and pdfmake (SVG-to-PDFKit) can render:
  * inline presentation attributes only (no classes, no stylesheet), only `line`, `rect`, `circle`,
- * `path` and `text` elements, Helvetica text, all text XML-escaped.
+ * `path` and `text` elements, text in the report font (`FONT`), all text XML-escaped.
  *
  * Look (the product's own): plot frame with light grid, series told apart by colour, dash pattern and
  * point shape (readable in greyscale), a legend under the title, threshold markers as labelled

@@ -1,4 +1,5 @@
 import "server-only";
+import path from "node:path";
 import { EVIDENCE_LABEL } from "../../core";
 import { displayUnit } from "../../units";
 import pdfmake from "pdfmake";
@@ -7,31 +8,28 @@ import { renderChartSvg } from "../charts/renderChartSvg";
 import { SIGNER_NOT_VERIFIED } from "../caution";
 import { EVIDENCE_LEGEND } from "../sources";
 import type { ReportModel, ReportRow } from "../reportModel";
-import { toWinAnsi } from "./toWinAnsi";
+import { toPdfText } from "./pdfText";
 
-/** The 14 standard PDF font names: pdfmake asks the local access policy about them too. */
-const STANDARD_FONTS = new Set([
-  "Helvetica",
-  "Helvetica-Bold",
-  "Helvetica-Oblique",
-  "Helvetica-BoldOblique",
-  "Times-Roman",
-  "Times-Bold",
-  "Times-Italic",
-  "Times-BoldItalic",
-  "Courier",
-  "Courier-Bold",
-  "Courier-Oblique",
-  "Courier-BoldOblique",
-  "Symbol",
-  "ZapfDingbats",
-]);
+/**
+ * The embedded report font: Roboto as shipped with pdfmake, one file per face (Medium serves as bold). Located from
+ * the working directory (the app and the tests run from the project root), which works whether or not the server
+ * code is bundled. pdfkit embeds the subset of glyphs a PDF uses. What these files can print is `pdfText.ts`.
+ */
+const FONT_DIR = path.join(process.cwd(), "node_modules", "pdfmake", "fonts", "Roboto");
+const PDF_FONT_FILES = {
+  normal: path.join(FONT_DIR, "Roboto-Regular.ttf"),
+  bold: path.join(FONT_DIR, "Roboto-Medium.ttf"),
+  italics: path.join(FONT_DIR, "Roboto-Italic.ttf"),
+  bolditalics: path.join(FONT_DIR, "Roboto-MediumItalic.ttf"),
+};
+/** The family name the document and the chart SVG (`renderChartSvg`, font-family "Roboto, …") ask for. */
+const FONT = "Roboto";
 
-pdfmake.setFonts({
-  Helvetica: { normal: "Helvetica", bold: "Helvetica-Bold", italics: "Helvetica-Oblique", bolditalics: "Helvetica-BoldOblique" },
-});
+pdfmake.setFonts({ [FONT]: PDF_FONT_FILES });
 pdfmake.setUrlAccessPolicy(() => false);
-pdfmake.setLocalAccessPolicy((p: string) => STANDARD_FONTS.has(p));
+// only the four font files: no other local file can be pulled into a PDF
+const fontFiles = new Set(Object.values(PDF_FONT_FILES));
+pdfmake.setLocalAccessPolicy((p: string) => fontFiles.has(p));
 
 /** A4 portrait content width with 40-pt side margins, pt. */
 const CONTENT_WIDTH = 595.28 - 80;
@@ -57,7 +55,7 @@ function formatSignedAt(iso: string | undefined): string {
   return `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
 }
 
-/** Non-breaking space (WinAnsi 0xA0): keeps a short header or phrase on one line. */
+/** Non-breaking space (U+00A0): keeps a short header or phrase on one line. */
 const NBSP = "\u00a0";
 
 /**
@@ -186,11 +184,13 @@ function amendmentContent(model: ReportModel, draft: boolean): Content | null {
 }
 
 /**
- * Write the report as a PDF (A4, Helvetica, standard fonts not embedded) with pdfmake.
+ * Write the report as a PDF (A4, embedded Roboto subsets) with pdfmake.
  *
  * Every page carries the clinical caution and page number in its footer; while the report is not
  * signed every page also carries a DRAFT watermark and the draft caution in its header. Charts are
- * the same SVG the page shows (`renderChartSvg`). All text is made WinAnsi-safe first (`toWinAnsi`).
+ * the same SVG the page shows (`renderChartSvg`), its text drawn in the same embedded font. All text goes through
+ * `toPdfText` first: what the font has prints as typed (Latin, Greek, Cyrillic), arrows and the few other symbols it
+ * lacks get a stand-in ("->"); characters with neither are refused before signing (`unprintableInPdf`).
  * Sections: identification, key values, thresholds, charts, interpretation path, schemes, report
  * text, data-quality issues, methods, sources (numbered, with evidence status), signature.
  *
@@ -199,7 +199,7 @@ function amendmentContent(model: ReportModel, draft: boolean): Content | null {
 export async function renderReportPdf(rawModel: ReportModel, now: Date = new Date()): Promise<Buffer> {
   // when this copy was made: two PDFs of one signed version can differ in their version note, and this orders them
   const generatedAt = `${now.toISOString().slice(0, 16).replace("T", " ")} UTC`;
-  const model = mapStrings(rawModel, toWinAnsi);
+  const model = mapStrings(rawModel, toPdfText);
   const draft = model.status !== "signed";
   // a signed report that a newer signed version amends says so in red on every page
   const amended = !draft && /^Version \d+ of \d+\..*Superseded:/.test(model.versionNote ?? "");
@@ -248,7 +248,7 @@ export async function renderReportPdf(rawModel: ReportModel, now: Date = new Dat
         svg: renderChartSvg(spec, { width: CONTENT_WIDTH, height: 270, maxPointsPerSeries: 500 }),
         width: CONTENT_WIDTH,
         margin: [0, 4, 0, 10],
-        font: "Helvetica",
+        font: FONT,
       } as Content);
     }
   }
@@ -328,7 +328,7 @@ export async function renderReportPdf(rawModel: ReportModel, now: Date = new Dat
     content.push({ ul: model.methods, fontSize: 8.5 });
   }
   content.push(heading("Sources"));
-  content.push({ text: toWinAnsi(EVIDENCE_LEGEND), color: MUTED, fontSize: 8, margin: [0, 0, 0, 4] });
+  content.push({ text: toPdfText(EVIDENCE_LEGEND), color: MUTED, fontSize: 8, margin: [0, 0, 0, 4] });
   content.push(
     model.sources.length
       ? {
@@ -351,7 +351,7 @@ export async function renderReportPdf(rawModel: ReportModel, now: Date = new Dat
             ...(model.attestation
               ? [{ text: `The signer confirmed: "${model.attestation}"`, margin: [0, 2, 0, 0] } as Content]
               : []),
-            { text: toWinAnsi(SIGNER_NOT_VERIFIED), color: MUTED, fontSize: 8 },
+            { text: toPdfText(SIGNER_NOT_VERIFIED), color: MUTED, fontSize: 8 },
           ],
         },
   );
@@ -359,10 +359,14 @@ export async function renderReportPdf(rawModel: ReportModel, now: Date = new Dat
   const doc: TDocumentDefinitions = {
     pageSize: "A4",
     // room for the header: title and status, the version note, and the draft mark (up to three lines); the note's
-    // lines estimated at about 130 characters of 7.5-pt Helvetica across the 515-pt text width, 9.5 pt each
-    pageMargins: [40, (draft ? 74 : 54) + (model.versionNote ? 4 + 9.5 * Math.ceil(model.versionNote.length / 130) : 0), 40, 52],
+    // lines estimated at 120 characters of 7.5-pt Roboto across the 515-pt text width, 9.5 pt each (our choice: the
+    // product's notes measure 137-160 characters per line in Regular and Medium, a line of only Greek or Cyrillic
+    // names about 124)
+    pageMargins: [40, (draft ? 74 : 54) + (model.versionNote ? 4 + 9.5 * Math.ceil(model.versionNote.length / 120) : 0), 40, 52],
     info: { title: model.title, creator: "cpet-desk", subject: draft ? "Draft CPET report" : "Signed CPET report" },
-    defaultStyle: { font: "Helvetica", fontSize: 9.5, color: INK, lineHeight: 1.15 },
+    // Roboto's line box (ascender to descender, 1.17 em) is 27 % taller than Helvetica's (0.925 em): 0.95 gives 1.11 em
+    // lines, near the former 1.06 em, and keeps the demo reports' page counts (our choice)
+    defaultStyle: { font: FONT, fontSize: 9.5, color: INK, lineHeight: 0.95 },
     styles: {
       h1: { fontSize: 16, bold: true, margin: [0, 0, 0, 4] },
       h2: { fontSize: 11.5, bold: true },

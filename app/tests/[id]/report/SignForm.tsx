@@ -2,7 +2,7 @@
 
 import { startTransition, useActionState, useEffect, useRef, useState, type FormEvent } from "react";
 import { SIGNER_NOT_VERIFIED } from "@/lib/report/caution";
-import { toWinAnsi } from "@/lib/report/pdf/toWinAnsi";
+import { toPdfText } from "@/lib/report/pdf/pdfText";
 import { signReportAction, type SignState } from "./actions";
 import { AMENDMENT_REASON_MAX_CHARS, ATTESTATION } from "./schemas";
 
@@ -71,10 +71,10 @@ export function SignForm(props: {
           autoComplete="name"
         />
         {errors.signer ? <span className="sev-error">{errors.signer}</span> : null}
-        {signer.trim() !== "" && toWinAnsi(signer.trim()) !== signer.trim().normalize("NFC") ? (
-          // the PDF's character set writes some letters without their marks (Ł → L, ễ → e): said before signing
+        {signer.trim() !== "" && toPdfText(signer.trim()) !== signer.trim().normalize("NFC") ? (
+          // the PDF's font lacks a few letters and signs and prints a stand-in (ǎ → a, ✓ → yes): said before signing
           <span className="how" data-testid="signer-pdf-form">
-            In the PDF the name prints as “{toWinAnsi(signer.trim())}”.
+            In the PDF the name prints as “{toPdfText(signer.trim())}”.
           </span>
         ) : null}
         <span className="how">{SIGNER_NOT_VERIFIED}</span>

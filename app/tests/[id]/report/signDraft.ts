@@ -1,7 +1,7 @@
 import "server-only";
 import type { ReportSection } from "@/lib/report/reportModel";
 import { getDb } from "@/lib/store/db";
-import { describeChar, unprintableInPdf } from "@/lib/report/pdf/toWinAnsi";
+import { PDF_PRINTABLE_WORDS, describeChar, unprintableInPdf } from "@/lib/report/pdf/pdfText";
 import { getReport, listReports, saveDraft, signReport, type StoredReport } from "@/lib/store/reports";
 import { latestSettings } from "@/lib/store/tests";
 import { AMENDMENT_REASON_MIN_CHARS, DRAFT_CHANGED_ELSEWHERE } from "./schemas";
@@ -238,7 +238,7 @@ export function signDraft(
       if (badName.length || badText.length || badLabel.length || badReason.length)
         throw new Refusal({
           form:
-            "Not signed: the PDF of the report uses a Western European character set and cannot show " +
+            `Not signed: the PDF of the report prints ${PDF_PRINTABLE_WORDS} and cannot show ` +
             [
               badName.length ? `${badName.map(describeChar).join(" ")} in the name` : "",
               badText.length ? `${badText.map(describeChar).join(" ")} in the text` : "",
@@ -249,7 +249,7 @@ export function signDraft(
             ]
               .filter(Boolean)
               .join(", or ") +
-            ". Write them in Latin letters or leave them out; your text is still on screen.",
+            ". Leave them out or write them in one of those scripts; your text is still on screen.",
         });
       const textSaved = !sameText(current.sections, sections);
       if (textSaved && !saveDraft(current.id, sections, input.signer))
