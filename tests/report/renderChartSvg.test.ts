@@ -99,6 +99,23 @@ describe("renderChartSvg", () => {
     for (const n of names) expect(["svg", "rect", "line", "path", "circle", "text"]).toContain(n);
   });
 
+  it("draws band labels on a plate, not with a stroked halo the PDF renderer paints over the letters", () => {
+    const svg = renderChartSvg({
+      ...base,
+      bands: [{ from: 10, to: 40, label: "exercise (invented)" }],
+    });
+    // SVG-to-PDFKit ignores paint-order: a white stroke under "paint-order: stroke" covered the text in the PDF
+    expect(svg).not.toMatch(/paint-order/);
+    const tag = /<text ([^>]*)>exercise \(invented\)<\/text>/.exec(svg)![1];
+    const label = Object.fromEntries([...tag.matchAll(/([\w:-]+)="([^"]*)"/g)].map((a) => [a[1], a[2]]));
+    expect(label.stroke).toBeUndefined();
+    const plates = elements(svg, "rect").filter((r) => r.fill === "#ffffff" && r["fill-opacity"] === "0.85");
+    expect(plates).toHaveLength(1);
+    // the plate is centred on the label and wider than it (0.55 em per character at 8 px, plus 4 px)
+    expect(Number(plates[0].x) + Number(plates[0].width) / 2).toBeCloseTo(Number(label.x), 1);
+    expect(Number(plates[0].width)).toBeCloseTo("exercise (invented)".length * 8 * 0.55 + 4, 1);
+  });
+
   it("clips a reference line to the plot: identity on x 0-100, y 0-50 runs (0,0)→(50,50)", () => {
     const spec: ChartSpec = { ...base, refLines: [{ slope: 1, intercept: 0, label: "identity" }] };
     // Legend: "A" (49.5 px) and "identity" (88 px) fit one row, so the layout is unchanged.

@@ -199,15 +199,20 @@ export function renderChartSvg(spec: ChartSpec, opts: RenderChartOptions = {}): 
     `<text x="8" y="17" ${FONT} font-size="13" font-weight="bold" fill="${AXIS_INK}">${escapeXml(spec.title)}</text>`,
   );
 
-  // Bands behind everything; their labels are drawn after the data (with a white halo) so points never hide them.
+  // Bands behind everything; their labels are drawn after the data (on a white plate) so points never hide them.
   const bandLabels: string[] = [];
   for (const b of spec.bands ?? []) {
     const a = Math.max(left, Math.min(right, x(Math.min(b.from, b.to))));
     const z = Math.max(left, Math.min(right, x(Math.max(b.from, b.to))));
     if (z - a <= 0) continue;
     out.push(`<rect x="${fmt(a)}" y="${fmt(top)}" width="${fmt(z - a)}" height="${fmt(bottom - top)}" fill="${BAND_FILL}"/>`);
+    // a white plate behind the label rather than a stroked halo: the PDF's SVG renderer ignores paint-order and drew the
+    // white stroke over the letters, leaving blank boxes
+    const cx = (a + z) / 2;
+    const w = textWidth(b.label, 8) + 4;
     bandLabels.push(
-      `<text x="${fmt((a + z) / 2)}" y="${fmt(bottom - 5)}" ${FONT} font-size="8" text-anchor="middle" fill="${MUTED_INK}" stroke="#ffffff" stroke-width="3" paint-order="stroke">${escapeXml(b.label)}</text>`,
+      `<rect x="${fmt(cx - w / 2)}" y="${fmt(bottom - 13)}" width="${fmt(w)}" height="11" fill="#ffffff" fill-opacity="0.85"/>`,
+      `<text x="${fmt(cx)}" y="${fmt(bottom - 5)}" ${FONT} font-size="8" text-anchor="middle" fill="${MUTED_INK}">${escapeXml(b.label)}</text>`,
     );
   }
 
