@@ -260,6 +260,8 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   if (have(v.oues)) slopes.push(`OUES ${val("oues", v.oues)}`);
   if (have(v.petco2RestMmHg)) slopes.push(`resting PETCO2 ${val("petco2RestMmHg", v.petco2RestMmHg)}`);
   if (slopes.length) results.push(`Ventilatory efficiency: ${slopes.join(", ")}.`);
+  const slopeNotRead = notRead.veVco2SlopeWhole ?? notRead.veVco2SlopeToRcp;
+  if (slopeNotRead && !notRead.peakVo2MlMin) results.push(`The VE/VCO2 slope is shown but not interpreted: ${slopeNotRead}.`);
   const vent: string[] = [];
   if (have(v.veMvvPct))
     vent.push(`peak VE ${formatValue("veMvvPct", v.veMvvPct)} % of MVV${pred.mvv ? ` (MVV: ${pred.mvv})` : ""}`);
