@@ -5,7 +5,13 @@ import { buildRecord } from "@/lib/analysis";
 import { getProfile } from "@/lib/store/profiles";
 import { recordImportChoices, recordUploadDetails } from "@/lib/store/reimport";
 import { getUploadBytes, saveTest, saveUpload } from "@/lib/store/tests";
-import { fieldErrors, testDetailsSchema, uploadFileProblem } from "./schemas";
+import { STAGE_DURATION_LIMITS_S } from "@/lib/breath";
+import { fieldErrors, optionalNumber, testDetailsSchema, uploadFileProblem } from "./schemas";
+
+/** The upload's details, and the stage length for a stage table without a time column (as on the columns page). */
+const uploadDetailsSchema = testDetailsSchema.extend({
+  stageDurationS: optionalNumber(STAGE_DURATION_LIMITS_S.min, STAGE_DURATION_LIMITS_S.max, "Stage length (s)"),
+});
 
 export interface UploadState {
   errors?: Record<string, string>;
@@ -51,7 +57,7 @@ export async function uploadTest(prev: UploadState, form: FormData): Promise<Upl
   if (!uploadId) return { errors: { file: "Choose a breath-by-breath or stage file to upload." }, values, attempt };
 
   // 2. Validate the details; on failure the kept file is reused on the next submit.
-  const parsed = testDetailsSchema.safeParse(values);
+  const parsed = uploadDetailsSchema.safeParse(values);
   if (!parsed.success) return { errors: fieldErrors(parsed.error), uploadId, fileName, values, attempt };
   const d = parsed.data;
   // Mapping profile picked on the form: its column choices are applied as "set by user".
@@ -84,6 +90,7 @@ export async function uploadTest(prev: UploadState, form: FormData): Promise<Upl
     importOptions: {
       ...(profile ? { mapping: profile.mapping } : {}),
       ...(d.weightKg !== undefined ? { weightKg: d.weightKg } : {}),
+      ...(d.stageDurationS !== undefined ? { stageDurationS: d.stageDurationS } : {}),
     },
   });
   if (built.record && spirometry) built.record.spirometry = spirometry;
@@ -100,6 +107,13 @@ export async function uploadTest(prev: UploadState, form: FormData): Promise<Upl
   // A refused file has no record to hold the details entered with it: keep them for when it becomes usable.
   if (!built.record)
     recordUploadDetails(id, { patient, ergometer: d.ergometer, referral: d.referral, ...(spirometry ? { spirometry } : {}) });
-  if (profile) recordImportChoices(id, { mapping: profile.mapping, profileName: profile.name, weightKg: d.weightKg });
+  // the choices the file was read with, so a re-read on the columns page starts from them
+  if (profile || d.stageDurationS !== undefined)
+    recordImportChoices(id, {
+      mapping: profile?.mapping ?? {},
+      ...(profile ? { profileName: profile.name } : {}),
+      weightKg: d.weightKg,
+      ...(d.stageDurationS !== undefined ? { stageDurationS: d.stageDurationS } : {}),
+    });
   redirect(`/tests/${id}`);
 }

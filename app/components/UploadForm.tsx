@@ -140,7 +140,21 @@ function UploadFields({
           <input name="mvvLMin" type="number" step="any" defaultValue={v.mvvLMin ?? ""} size={5} />
         </label>
       </div>
-      {["fev1L", "mvvLMin"].map((k) =>
+      <label>
+        Stage length (s), for a stage table without a time column
+        <input
+          name="stageDurationS"
+          type="number"
+          step="any"
+          defaultValue={v.stageDurationS ?? ""}
+          size={5}
+          data-testid="upload-stage-duration"
+        />
+        <span className="how">
+          Leave empty for breath-by-breath files. Without it, stages are read 60 s apart and the report says so.
+        </span>
+      </label>
+      {["fev1L", "mvvLMin", "stageDurationS"].map((k) =>
         err[k] ? (
           <span key={k} className="sev-error">
             {err[k]}

@@ -457,11 +457,14 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
       for (let r = 0; r < n; r++) times[r] = r * d;
       stageOrder = true;
       timeFormat = "stage-order";
+      const given = opts.stageDurationS !== undefined;
       issues.push(
         makeIssue(
-          "warning",
+          given ? "info" : "warning",
           "time-assumed-stage-order",
-          `The file has no time column; its ${n} rows were read as consecutive stages ${d} s apart. Set the stage duration if the stages were longer or shorter.`,
+          given
+            ? `The file has no time column; its ${n} rows were read as consecutive stages ${d} s apart, the stage length given.`
+            : `The file has no time column; its ${n} rows were read as consecutive stages ${d} s apart, an assumption: durations, ramp rates and time-based checks rest on it. Set the stage length (on the upload form, the "How the file was read" page or with --stage-duration-s) if the stages were longer or shorter.`,
         ),
       );
     } else {

@@ -19,6 +19,7 @@ import {
 import nextConfig from "../../next.config";
 import { closeDb } from "../../lib/store/db";
 import { getTest } from "../../lib/store/tests";
+import { getImportChoices } from "../../lib/store/reimport";
 
 let dir = "";
 beforeEach(() => {
@@ -190,5 +191,26 @@ describe("testDetailsSchema", () => {
   it("reads the upload form's select values", () => {
     const d = testDetailsSchema.parse({ sex: "female", ergometer: "treadmill", referral: "pre-operative" });
     expect(d).toMatchObject({ sex: "female", ergometer: "treadmill", referral: "pre-operative" });
+  });
+
+  it("a stage table without a time column is read at the stage length given on the form, kept for a re-read", async () => {
+    // INVENTED stage table: five 3-min stages, no time column
+    const csv = ["stage,work_w,vo2_ml_min,vco2_ml_min,ve_l_min,hr_bpm", "1,50,900,780,24,95", "2,100,1400,1250,35,115"]
+      .concat(["3,150,1900,1780,48,135", "4,200,2400,2350,66,155", "5,250,2850,2950,90,172"])
+      .join("\n");
+    const file = new File([csv + "\n"], "stages (invented).csv", { type: "text/csv" });
+    const id = await redirectedTestId(uploadTest({}, form(file, { stageDurationS: "180" })));
+    const test = getTest(id)!;
+    expect(test.record!.table.rows.map((r) => r.timeS)).toEqual([0, 180, 360, 540, 720]);
+    const note = test.importIssues.find((i) => i.code === "time-assumed-stage-order")!;
+    expect([note.severity, note.message]).toEqual([
+      "info",
+      "The file has no time column; its 5 rows were read as consecutive stages 180 s apart, the stage length given.",
+    ]);
+    expect(getImportChoices(id)?.stageDurationS).toBe(180);
+    // out of the limits shared with the columns page (10–3600 s): refused, the file kept
+    const bad = await uploadTest({}, form(new File([csv + "\n"], "stages (invented).csv"), { stageDurationS: "5" }));
+    expect(bad.errors?.stageDurationS).toMatch(/Stage length \(s\) must be at least 10/);
+    expect(bad.uploadId).toBeGreaterThan(0);
   });
 });
