@@ -497,13 +497,19 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
   const issues: Issue[] = [];
   const series = buildThresholdSeries(test, options.series);
   const agreementFraction = options.agreementFraction ?? 0.1;
-  if (!series || series.timeS.length < 9) {
+  // a recording without VCO2 (a VO2-only export, stage tables of VO2 and lactate): say that, not "0 bins"; without VE
+  // alone, the V-slope methods still run (`thresholds-missing-signal`)
+  const noVco2 = !test.clean.some((r) => r.vco2MlMin !== undefined);
+  if (!series || series.timeS.length < 9 || noVco2) {
     const perKgOnly = !test.clean.some((r) => r.vo2MlMin !== undefined) && test.clean.some((r) => r.vo2MlKgMin !== undefined);
+    const noVe = !test.clean.some((r) => r.veLMin !== undefined);
     const reason = !series
       ? "no incremental exercise phase was found"
-      : perKgOnly
-        ? "VO2 is given per kg and the body mass is not known (VO2 in mL/min is needed beside VCO2); enter the weight"
-        : `only ${series.timeS.length} time bins of exercise data`;
+      : noVco2
+        ? `the recording has no VCO2${noVe ? " and no VE" : ""}; every ventilatory-threshold method needs VCO2 beside VO2`
+        : perKgOnly
+          ? "VO2 is given per kg and the body mass is not known (VO2 in mL/min is needed beside VCO2); enter the weight"
+          : `only ${series.timeS.length} time bins of exercise data`;
     issues.push(makeIssue("warning", "thresholds-no-exercise-data", `Ventilatory thresholds cannot be determined: ${reason}.`));
     const empty = (which: ThresholdWhich) => emptyEstimate(which, reason);
     return applyThresholdOverrides(

@@ -194,6 +194,14 @@ describe("detectThresholds", () => {
     const r2 = detectThresholds(noVe, { bootstrap: 0 });
     expect(r2.issues.some((i) => i.code === "thresholds-missing-signal")).toBe(true);
     expect(r2.vt2.confidence).toBe("not-determinable");
+    // without VCO2 (a VO2-only export) no method can run: the reason says what is missing, not "0 bins"
+    const noVco2 = conditionTable({
+      ...syn.table,
+      rows: syn.table.rows.map(({ vco2MlMin: _c, veLMin: _v, ...rest }) => rest),
+    });
+    const r3 = detectThresholds(noVco2, { bootstrap: 0 });
+    expect(r3.vt1.reason).toBe("the recording has no VCO2 and no VE; every ventilatory-threshold method needs VCO2 beside VO2");
+    expect(r3.methods).toEqual([]);
   });
 });
 
