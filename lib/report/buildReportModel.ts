@@ -11,6 +11,7 @@ import {
   BAND_MEANING,
   LACTATE_METHOD_NAMES,
   slopeToVt2Name,
+  stageLengthS,
   veVco2BandEndsWords,
   type LineIndex,
   type LactateThresholdsResult,
@@ -137,8 +138,11 @@ function patientLine(record: TestRecord): string {
 
 function testLine(result: AnalysisResult, record: TestRecord): string {
   const parts = [`${record.ergometer} ergometer`];
-  if (result.conditioned.rampRateWPerMin !== null)
-    parts.push(`ramp ${formatNumber(result.conditioned.rampRateWPerMin, 0)} W/min`);
+  const rate = result.conditioned.rampRateWPerMin;
+  // a stepped protocol is named by its steps (its mean rate beside them), not called a ramp
+  const stage = stageLengthS(result.conditioned);
+  if (rate !== null && stage !== null) parts.push(`stages of ${formatNumber(stage, 0)} s (about ${formatNumber(rate, 0)} W/min)`);
+  else if (rate !== null) parts.push(`ramp ${formatNumber(rate, 0)} W/min`);
   const d = result.indices.peaks.testDurationS.value;
   if (d !== null) parts.push(`recording ${formatClock(d)} min:s`);
   parts.push(`${record.table.rows.length} ${record.table.shape === "breath" ? "breaths" : "rows"}`);

@@ -30,3 +30,4 @@ export * from "./vdVt";
 export * from "./veVco2Slope";
 export * from "./ventilatoryEquivalents";
 export * from "./bandCalibration";
+export * from "./stageLength";

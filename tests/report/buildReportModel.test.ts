@@ -1,3 +1,5 @@
+import fs from "node:fs";
+import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { analyse, buildRecord } from "../../lib/analysis";
 import { buildReportModel } from "../../lib/report/buildReportModel";
@@ -91,4 +93,22 @@ describe("buildReportModel", () => {
     expect(sparse.sources[0]).toMatchObject({ id: "peak-rolling-average", status: "recalled" });
     expect(sparse.sources[0].citation).toMatch(/not in the registry/);
   });
+});
+
+describe("the test line names a stepped protocol by its stages", () => {
+  it("ACTES: +15 W every minute (the set's README) reads as stages of 60 s, about 15 W/min, not a ramp", async () => {
+    // Chabert C, Mongin D, Hermand E, Collado A, Hue O. Cardiorespiratory measurement from graded cycloergometer exercise
+    // testing, v1.0.0, PhysioNet 2022, doi:10.13026/2qs3-kh43 (ODC-By 1.0); test 13, details from actes_subject-info.csv
+    const built = await buildRecord({
+      bytes: new Uint8Array(fs.readFileSync(path.resolve(__dirname, "../fixtures/open-data/actes/actes_test_measure.csv"))),
+      fileName: "actes_test_measure.csv",
+      patient: { sex: "male", ageY: 18, heightCm: 183, weightKg: 83.9 },
+      ergometer: "cycle",
+      referral: "general",
+      importOptions: { select: { ID: "13" } },
+    });
+    const r = analyse(built.record!);
+    const model = buildReportModel(r, built.record!, "ACTES 13", { status: "draft", sections: initialDraftSections(r) });
+    expect(model.testLine).toMatch(/^cycle ergometer, stages of 60 s \(about 15 W\/min\), recording /);
+  }, 30_000);
 });
