@@ -38,6 +38,7 @@ export async function buildRecord(input: BuildRecordInput): Promise<BuildRecordR
       );
   }
   issues.push(...ergometerMismatch(imported.table.rows, input.ergometer));
+  issues.push(...modeMismatch(imported.modeNamed, input.ergometer));
   const record: TestRecord = {
     patient,
     ergometer: input.ergometer,
@@ -66,6 +67,40 @@ function ergometerMismatch(rows: readonly { workW?: number; speedKmh?: number }[
       "warning",
       "ergometer-differs-from-file",
       `The file has ${other === "treadmill" ? "treadmill speed and no work rate" : "a work rate and no treadmill speed"}, but the test is set as a ${ergometer} test: the ${ergometer} predicted values are used. Set the ergometer to ${other} if the test was done on one.`,
+    ),
+  ];
+}
+
+/** Exercise modes by the words a file uses for them (English; common export names). */
+const MODE_WORDS: { mode: string; ergometer: Ergometer | null; pattern: RegExp }[] = [
+  { mode: "cycling", ergometer: "cycle", pattern: /cycl|bike|biking|velo/i },
+  { mode: "running or walking", ergometer: "treadmill", pattern: /run|treadmill|walk/i },
+  { mode: "rowing", ergometer: null, pattern: /row/i },
+  { mode: "kayaking or canoeing", ergometer: null, pattern: /kayak|canoe|paddl/i },
+  { mode: "arm cranking", ergometer: null, pattern: /arm|crank/i },
+  { mode: "skiing", ergometer: null, pattern: /ski/i },
+  { mode: "swimming", ergometer: null, pattern: /swim/i },
+];
+
+/**
+ * The exercise mode a column of the file names (sport = "Rowing") against the ergometer chosen: equations and cut-offs
+ * are for cycle ergometry and treadmill walking or running only, and a rowing or kayak test read as either is compared
+ * with the wrong predicted values (common practice: predicted peak VO2 and work rate depend on the mode).
+ */
+function modeMismatch(named: { header: string; values: string[] } | null, ergometer: Ergometer): Issue[] {
+  if (!named) return [];
+  const found = MODE_WORDS.filter((m) => named.values.some((v) => m.pattern.test(v)));
+  const other = found.find((m) => m.ergometer !== ergometer);
+  if (!other || found.some((m) => m.ergometer === ergometer)) return [];
+  const said = named.values.join(", ");
+  return [
+    makeIssue(
+      "warning",
+      "exercise-mode-mismatch",
+      other.ergometer
+        ? `The file's column "${named.header}" says ${said} (${other.mode}), but the test is analysed as ${ergometer === "cycle" ? "cycle ergometry" : "a treadmill test"}: change the ergometer if the file is right; predicted values and cut-offs depend on it.`
+        : `The file's column "${named.header}" says ${said} (${other.mode}); this software has predicted values and cut-offs for cycle ergometry and treadmill tests only, so this test is read as ${ergometer === "cycle" ? "cycle ergometry" : "a treadmill test"}: its % predicted and graded findings do not describe ${other.mode}.`,
+      { field: "ergometer" },
     ),
   ];
 }

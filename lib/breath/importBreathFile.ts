@@ -82,7 +82,12 @@ export interface ImportResult {
   events: MarkerEvent[];
   /** Body mass used for per-kg columns, or null. */
   weight: { kg: number; from: "options" | "metadata" | "column" } | null;
+  /** A column naming the exercise mode (sport, mode, modality), with its values in the rows read, or null. */
+  modeNamed: { header: string; values: string[] } | null;
 }
+
+/** Headers of a column that names the exercise mode rather than measuring anything (common export names). */
+const MODE_HEADER = /^(sport|mode|modality|exercise[ _-]?(mode|type)|activity|ergometer[ _-]?type)$/i;
 
 const optionSchemas = {
   fileName: z.string(),
@@ -112,7 +117,7 @@ interface Column {
 const FIELD_LABEL: Record<Target, string> = { ...FIELD_WORDS, rrIntervalMs: "R–R interval" }; // plain words per field (types.ts)
 
 function failed(issues: Issue[], columns: ColumnDecision[] = [], format: FileFormat | null = null): ImportResult {
-  return { table: null, columns, issues, format, events: [], weight: null };
+  return { table: null, columns, issues, format, events: [], weight: null, modeNamed: null };
 }
 
 function sameCell(cell: Cell, wanted: string | number): boolean {
@@ -218,6 +223,7 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
   const ignored: string[] = [];
   const fractions: string[] = [];
   let bodyMassFromColumn: number | undefined;
+  let modeNamed: ImportResult["modeNamed"] = null;
   const n = rows.length;
   for (let i = 0; i < headers.length; i++) {
     const header = headers[i];
@@ -253,6 +259,10 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
           bodyMassFromColumn = st.median;
           decision.reason = `body mass ${fmt(st.median)} kg (same on every row)`;
         } else decision.reason = "body mass column (not constant); not a measurement";
+      } else if (MODE_HEADER.test(header.trim())) {
+        const values = [...new Set(rows.map((r) => String(r[i] ?? "").trim()).filter((v) => v !== ""))].slice(0, 3);
+        modeNamed = { header, values };
+        decision.reason = `names the exercise mode (${values.join(", ") || "empty"}); not a measurement`;
       } else {
         decision.reason = "not a recognised column name; ignored";
         ignored.push(header);
@@ -672,7 +682,7 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
   }
   const decisions = columns.map((c) => c.decision);
   if (issues.some((x) => x.severity === "error"))
-    return { table: null, columns: decisions, issues, format, events: placedEvents, weight };
+    return { table: null, columns: decisions, issues, format, events: placedEvents, weight, modeNamed };
   // values kept but beyond physiological plausibility, and recordings too short to hold a test (warnings)
   const headerOf = (t: Target) => byTarget.get(t)?.decision.header;
   issues.push(
@@ -693,7 +703,7 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
   }
   const table: BreathTable = { shape, rows: built, fields: [...fields] };
   if (built.some((r) => r.vo2MlKgMin !== undefined)) table.vo2PerKg = true;
-  return { table, columns: decisions, issues, format, events: placedEvents, weight };
+  return { table, columns: decisions, issues, format, events: placedEvents, weight, modeNamed };
 }
 
 /** Whether at least 80 % of the filled cells of column `i` name a phase (rest, warm-up, exercise, recovery). */
