@@ -90,6 +90,17 @@ export function toInterpretInput(
   ];
   const notRead: Partial<Record<keyof InterpretValues, string>> = {};
   for (const [why, keys] of minorOn) if (why) for (const k of keys) notRead[k] = why;
+  // steady-state stage means are not the breath-by-breath ramp the published cut-offs of these indices were set on: a
+  // stage above the RCP steepens the VE/VCO2 line, and VO2 per watt runs higher at steady state (common practice)
+  if (record.table.shape === "stage") {
+    const why = "read from steady-state stage means; its published cut-offs were set on breath-by-breath ramp tests";
+    for (const k of ["veVco2SlopeWhole", "veVco2SlopeToRcp", "dVo2dWr"] as const) notRead[k] ??= why;
+  }
+  // VO2 that rose too little with work to be believed (dVo2dWr.ts) is shown but not read: a leak or a calibration fault
+  // must not read as a cardiac limitation or a reduced capacity
+  if (indices.dVo2dWr.implausiblyLow)
+    for (const k of VO2_READ_KEYS)
+      notRead[k] ??= "VO2 rose too little with the work rate to be believed (see the issue on ΔVO2/ΔWR)";
   const plateauWhy = vo2PlateauNotAssessedReason(indices.vo2FinalIncrease);
   if (plateauWhy) reasons.vo2Plateau = plateauWhy;
   // the calibrated bands, as the values at each end (everything computed from VT1 moves with it)
@@ -280,17 +291,7 @@ export function toInterpretInput(
         }
       : {}),
   };
-  // VO2 that rose too little with work to be believed (dVo2dWr.ts) is shown but not read (a leak or a calibration fault
-  // must not read as a cardiac limitation or a reduced capacity)
-  // steady-state stage means are not the breath-by-breath ramp the published cut-offs of these indices were set on: a
-  // stage above the RCP steepens the VE/VCO2 line, and VO2 per watt runs higher at steady state (common practice)
-  if (record.table.shape === "stage") {
-    const why = "read from steady-state stage means; its published cut-offs were set on breath-by-breath ramp tests";
-    for (const k of ["veVco2SlopeWhole", "veVco2SlopeToRcp", "dVo2dWr"] as const) notRead[k] ??= why;
-  }
-  if (indices.dVo2dWr.implausiblyLow)
-    for (const k of VO2_READ_KEYS)
-      notRead[k] ??= "VO2 rose too little with the work rate to be believed (see the issue on ΔVO2/ΔWR)";
+  // the weight-basis split reads peak VO2 % predicted: not when that is not read
   if (!notRead.peakVo2PctPred) return input;
   const { weightBasisSplit: _split, ...rest } = input;
   void _split;

@@ -54,6 +54,9 @@ export function makeContext(
   return { ctx, resolved };
 }
 
+/** The lowest peak RER any cited source accepts as a maximal test: FRIEND's treadmill inclusion, RER ≥ 1.0 (confirmed). */
+export const EFFORT_RER_FLOOR = 1.0;
+
 /**
  * Interpret one test: effort first, then the stepwise flow (effort → peak VO2 → AT → cardiovascular
  * discriminators → breathing reserve → gas exchange; ATS/ACCP 2003 and Wasserman-school flowcharts),
@@ -64,9 +67,6 @@ export function makeContext(
  *
  * @example interpret({ patient: { sex: "male", ageY: 60 }, referral: "general", values: { peakVo2PctPred: 62 } })
  */
-/** The lowest peak RER any cited source accepts as a maximal test: FRIEND's treadmill inclusion, RER ≥ 1.0 (confirmed). */
-export const EFFORT_RER_FLOOR = 1.0;
-
 export function interpret(
   input: InterpretInput,
   settings: InterpretSettings = {},
