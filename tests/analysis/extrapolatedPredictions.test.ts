@@ -1,23 +1,29 @@
 /**
  * A child read against adult equations (INVENTED: the normal-adult demo file with the details of a 12-year-old boy,
- * 150 cm, 40 kg): Hansen 1984 (derived in adults) and the ERS 2019 adult cycle HRmax (20–80 y) are extrapolations, and
- * the draft says so beside every % predicted and in the conclusion, not only among the data-quality issues.
+ * 150 cm, 40 kg): Hansen 1984 (derived in adults) and the ERS 2019 adult cycle HRmax (20–80 y) are not read for him, and
+ * the draft says so beside every % predicted and in the conclusion; an 88-year-old is read, with the extrapolation said.
  */
 import fs from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { analyse, buildRecord } from "../../lib/analysis";
+import type { Patient } from "../../lib/core";
+
+/** The INVENTED normal-adult demo file analysed with other patient details. */
+async function normalAdultAs(patient: Patient) {
+  const built = await buildRecord({
+    bytes: new Uint8Array(fs.readFileSync(path.resolve(__dirname, "../fixtures/cases/normal-adult.csv"))),
+    fileName: "normal-adult.csv",
+    patient,
+    ergometer: "cycle",
+    referral: "general",
+  });
+  return analyse(built.record!, {});
+}
 
 describe("predictions outside the derivation population (invented)", () => {
   it("every % predicted from an extrapolated equation says so, and the conclusion says how to read them", async () => {
-    const built = await buildRecord({
-      bytes: new Uint8Array(fs.readFileSync(path.resolve(__dirname, "../fixtures/cases/normal-adult.csv"))),
-      fileName: "normal-adult.csv",
-      patient: { sex: "male", ageY: 12, heightCm: 150, weightKg: 40 },
-      ergometer: "cycle",
-      referral: "general",
-    });
-    const r = analyse(built.record!, {});
+    const r = await normalAdultAs({ sex: "male", ageY: 12, heightCm: 150, weightKg: 40 });
     expect(r.issues.some((i) => i.code === "outside-derivation-population")).toBe(true);
     const results = r.draft.sections.find((s) => s.id === "results")!.paragraphs;
     // a child is not read against equations derived in adults (Hansen 1984 from 18 y, ERS 2019 HRmax from 20 y): the
@@ -38,14 +44,7 @@ describe("predictions outside the derivation population (invented)", () => {
   });
 
   it("an adult outside an equation's age range is still read, with the extrapolation said", async () => {
-    const built = await buildRecord({
-      bytes: new Uint8Array(fs.readFileSync(path.resolve(__dirname, "../fixtures/cases/normal-adult.csv"))),
-      fileName: "normal-adult.csv",
-      patient: { sex: "male", ageY: 88, heightCm: 175, weightKg: 75 },
-      ergometer: "cycle",
-      referral: "general",
-    });
-    const r = analyse(built.record!, {});
+    const r = await normalAdultAs({ sex: "male", ageY: 88, heightCm: 175, weightKg: 75 });
     const hr = r.draft.sections.find((s) => s.id === "results")!.paragraphs.find((l) => l.startsWith("Peak heart rate"))!;
     expect(hr).toMatch(/\d+ % of predicted, .*extrapolated: the patient is outside its derivation population/);
     expect(r.interpretation.effort.criteria.find((c) => c.ruleId === "hr-reached")!.outcome).not.toBeNull();
