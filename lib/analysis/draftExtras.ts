@@ -42,6 +42,14 @@ export function draftExtras(record: TestRecord, thresholds: ThresholdResult, ind
       barometricPressureMmHg: record.conduct?.barometricPressureMmHg,
       notes: record.conduct?.notes,
     },
+    // the import's own warning that the file cannot hold a complete test is said beside the effort verdict, so an
+    // "effort adequate" is never read without it
+    ...(record.importIssues.some((i) => i.code === "short-recording")
+      ? {
+          effortCaution:
+            "The recording is shorter than a complete test (see the data-quality issues): the effort verdict and the peak values are not reliable.",
+        }
+      : {}),
     thresholdMethods: {
       vt1: thresholdMethodWords(thresholds.vt1, thresholds),
       vt2: thresholdMethodWords(thresholds.vt2, thresholds),

@@ -37,6 +37,8 @@ export interface DraftExtras {
    * "not determinable: reason"), written after "was".
    */
   thresholdMethods?: { vt1?: string; vt2?: string };
+  /** A sentence said right after the effort verdict when the data cannot support it (e.g. a recording too short). */
+  effortCaution?: string;
   /** VT2 (RCP) values, if found. */
   vt2?: { vo2MlMin?: number; hrBpm?: number; workW?: number };
   domains?: IntensityDomain[];
@@ -215,6 +217,7 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   } else if (input.ergometer) conduct.push(`Ergometer: ${input.ergometer}.`);
   const e = interpretation.effort;
   conduct.push(`Effort: ${e.label}${e.borderline ? ` (near a cut-off: ${e.borderline})` : ""}.`);
+  if (extras.effortCaution) conduct.push(extras.effortCaution);
   conduct.push(`Criteria: ${e.criteria.map((c) => c.text).join("; ")}.`);
   if (!e.peakConclusionsAllowed) {
     conduct.push(

@@ -36,4 +36,25 @@ describe("stage tables: slopes shown, not graded", () => {
     );
     expect(r.draft.sections.find((s) => s.id === "conclusion")!.paragraphs.join(" ")).not.toMatch(/disease is possible/);
   });
+
+  it("read at the assumed 60 s per stage, the 5-min recording is too short for a test, and the effort verdict says so", async () => {
+    const built = await buildRecord({
+      bytes: new Uint8Array(
+        fs.readFileSync(path.resolve(__dirname, "../fixtures/open-data/sylta2016-cycling/cyclingstudy_stages_long.csv")),
+      ),
+      fileName: "cyclingstudy_stages_long.csv",
+      patient: { sex: "male", ageY: 33, heightCm: 183, weightKg: 80.3 },
+      ergometer: "cycle",
+      referral: "general",
+      importOptions: { select: { subject: "1", timepoint: "pre" } },
+    });
+    const r = analyse(built.record!);
+    // 5 stages × 60 s < 8 min, the incremental phase alone (ERS statement, Radtke et al. 2019, confirmed)
+    expect(built.issues.map((i) => i.code)).toContain("short-recording");
+    const conduct = r.draft.sections.find((s) => s.id === "conduct")!.paragraphs;
+    const effort = conduct.findIndex((p) => p.startsWith("Effort:"));
+    expect(conduct[effort + 1]).toBe(
+      "The recording is shorter than a complete test (see the data-quality issues): the effort verdict and the peak values are not reliable.",
+    );
+  });
 });
