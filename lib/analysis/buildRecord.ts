@@ -98,8 +98,8 @@ function modeMismatch(named: { header: string; values: string[] } | null, ergome
       "warning",
       "exercise-mode-mismatch",
       other.ergometer
-        ? `The file's column "${named.header}" says ${said} (${other.mode}), but the test is analysed as ${ergometer === "cycle" ? "cycle ergometry" : "a treadmill test"}: change the ergometer if the file is right; predicted values and cut-offs depend on it.`
-        : `The file's column "${named.header}" says ${said} (${other.mode}); this software has predicted values and cut-offs for cycle ergometry and treadmill tests only, so this test is read as ${ergometer === "cycle" ? "cycle ergometry" : "a treadmill test"}: its % predicted and graded findings do not describe ${other.mode}.`,
+        ? `The file's column "${named.header}" says ${said} (${other.mode}), but the test is analysed as ${ergometer === "cycle" ? "cycle ergometry" : "a treadmill test"}: if the test was done that way, change the ergometer (predicted values and cut-offs depend on it); if the column names the athlete's sport, this does not apply.`
+        : `The file's column "${named.header}" says ${said} (${other.mode}). If the test was done on that ergometer, this software has predicted values and cut-offs for cycle ergometry and treadmill tests only: it is read as ${ergometer === "cycle" ? "cycle ergometry" : "a treadmill test"}, and its % predicted and graded findings do not describe ${other.mode}. If the column names the athlete's sport, this does not apply.`,
       { field: "ergometer" },
     ),
   ];

@@ -316,7 +316,7 @@ function adultEquationForMinor(
     const pop = getEquation(id).population;
     const min = ((sex ? pop.bySex?.[sex]?.ageY : undefined) ?? pop.ageY)?.min;
     if (min !== undefined && min >= ADULT_AGE_Y)
-      return `${getEquation(id).label} was derived in adults (from ${min} y); a patient of ${Math.round(ageY)} y is not read against it`;
+      return `${getEquation(id).label} was derived in adults (from ${min} y); a patient of ${Math.floor(ageY)} y is not read against it`;
   }
   return null;
 }

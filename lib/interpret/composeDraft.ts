@@ -206,7 +206,10 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     if (tc.protocol) bits.push(`Protocol: ${tc.protocol}.`);
     if (input.ergometer) bits.push(`Ergometer: ${input.ergometer}.`);
     if (have(tc.exerciseDurationS))
-      bits.push(`Exercise lasted ${Math.floor(tc.exerciseDurationS! / 60)} min ${Math.round(tc.exerciseDurationS! % 60)} s.`);
+      // whole seconds first, so 1079.6 s reads "18 min 0 s", never "17 min 60 s"
+      bits.push(
+        `Exercise lasted ${Math.floor(Math.round(tc.exerciseDurationS!) / 60)} min ${Math.round(tc.exerciseDurationS!) % 60} s.`,
+      );
     if (tc.reasonForStopping) bits.push(`The test was stopped because of ${tc.reasonForStopping}.`);
     if (tc.symptoms) bits.push(`Symptoms: ${tc.symptoms}.`);
     if (have(tc.peakBorg)) bits.push(`Peak perceived exertion (Borg): ${tc.peakBorg}.`);
@@ -263,8 +266,10 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   if (have(v.oues)) slopes.push(`OUES ${val("oues", v.oues)}`);
   if (have(v.petco2RestMmHg)) slopes.push(`resting PETCO2 ${val("petco2RestMmHg", v.petco2RestMmHg)}`);
   if (slopes.length) results.push(`Ventilatory efficiency: ${slopes.join(", ")}.`);
-  const slopeNotRead = notRead.veVco2SlopeWhole ?? notRead.veVco2SlopeToRcp;
-  if (slopeNotRead && !notRead.peakVo2MlMin) results.push(`The VE/VCO2 slope is shown but not interpreted: ${slopeNotRead}.`);
+  const slopeNotRead =
+    (have(v.veVco2SlopeWhole) ? notRead.veVco2SlopeWhole : undefined) ??
+    (have(v.veVco2SlopeToRcp) ? notRead.veVco2SlopeToRcp : undefined);
+  if (slopeNotRead) results.push(`The VE/VCO2 slope is shown but not interpreted: ${slopeNotRead}.`);
   const vent: string[] = [];
   if (have(v.veMvvPct))
     vent.push(`peak VE ${formatValue("veMvvPct", v.veMvvPct)} % of MVV${pred.mvv ? ` (MVV: ${pred.mvv})` : ""}`);
@@ -304,7 +309,11 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   sections.push({
     id: "pathway",
     title: "Step-by-step interpretation",
-    paragraphs: interpretation.path.steps.map((s) => `${s.title}: ${sentenceCase(s.finding)}.`),
+    // an effort judged on heart rate alone says so where the flow calls it adequate
+    paragraphs: interpretation.path.steps.map(
+      (s) =>
+        `${s.title}: ${sentenceCase(s.finding)}${s.nodeId === "effort" && interpretation.issues.some((i) => i.code === "effort-rests-on-heart-rate") ? " (on heart rate alone; see the data-quality warning)" : ""}.`,
+    ),
   });
 
   const supported = interpretation.patterns.filter(
@@ -410,6 +419,11 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
       if (rows.length) concl.push(`${s.name}: ${rows.join("; ")}.`);
     }
   if (!e.peakConclusionsAllowed) concl.push("Capacity could not be established because effort was submaximal.");
+  // a reading withheld for a doubted VO2 says why where the reader looks first
+  if (notRead.peakVo2MlMin)
+    concl.push(
+      `VO2-based values are not interpreted: ${notRead.peakVo2MlMin}. Check the cart and the ergometer, and repeat the test if the fault is confirmed.`,
+    );
   const pctKey = { peakVo2: "peakVo2PctPred", hrMax: "hrPctPred", o2Pulse: "o2PulsePctPred" } as const;
   const adultOnly = (["peakVo2", "hrMax", "o2Pulse"] as const).filter((k) => notRead[pctKey[k]]?.includes("derived in adults"));
   if (adultOnly.length)

@@ -113,7 +113,7 @@ export function interpret(
       makeIssue(
         "warning",
         "effort-rests-on-heart-rate",
-        `Effort is judged adequate on heart rate alone (the only effort criterion met), with ${typeof rer === "number" ? `peak RER ${rer.toFixed(2)} (below ${EFFORT_RER_FLOOR.toFixed(2)})` : "no peak RER"}: predicted maximal heart rate varies by about 10 bpm between people, so the test may have been submaximal and peak values may understate capacity.`,
+        `Effort is judged adequate on heart rate alone (the only effort criterion met), with ${typeof rer === "number" ? `peak RER ${rer.toFixed(rer.toFixed(2) === EFFORT_RER_FLOOR.toFixed(2) ? 3 : 2)} (below ${EFFORT_RER_FLOOR.toFixed(2)})` : "no peak RER"}: predicted maximal heart rate varies by about 10 bpm between people, so the test may have been submaximal and peak values may understate capacity.`,
         { field: "effort" },
       ),
     );

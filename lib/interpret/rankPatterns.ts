@@ -16,8 +16,9 @@ const LEVEL_RANK: Record<PatternResult["support"], number> = {
  * not shown to be maximal, features resting on effort-dependent values are not assessable (except for
  * patterns that describe effort itself).
  *
- * Support needs at least one key feature for the pattern: when every key feature is not assessable the
- * pattern is "not assessable" (the absence of other findings cannot stand in for its defining finding).
+ * Support needs at least one defining feature for the pattern (a key feature expected present; when a pattern has none,
+ * any key feature): when none is assessed as present the pattern is "not assessable" (the absence of other findings
+ * cannot stand in for its defining finding).
  * When the stepwise interpretation ends with no limitation identified (end severity 0), a pattern of weak
  * support is reported as not supported, so the patterns never contradict the conclusion. Engine rules,
  * not clinical cut-offs (common practice).
@@ -46,13 +47,17 @@ export function rankPatterns(ctx: EvalContext, effort: EffortResult, path?: Path
     const wAgainst = against.reduce((s, f) => s + f.weight, 0);
     const score = wFor + wAgainst > 0 ? wFor / (wFor + wAgainst) : null;
     const keys = features.filter((f) => f.key);
+    // the findings that define the pattern are its key findings expected present (a reduced capacity for deconditioning);
+    // key findings expected absent (no desaturation) can rule it out but not support it on their own
+    const defining = keys.filter((f) => f.expected);
+    const basis = defining.length ? defining : keys;
     let support: PatternResult["support"];
     let supportNote: string | undefined;
     if (score === null) support = "not-assessable";
     else if (against.some((f) => f.key)) support = "not-supported";
-    else if (!keys.some((f) => f.evidence === "for")) {
+    else if (!basis.some((f) => f.evidence === "for")) {
       support = "not-assessable";
-      supportNote = `its key finding could not be assessed (${keys.map((f) => ruleLabel(f.ruleId, ctx)).join("; ")}); other findings cannot support it on their own`;
+      supportNote = `its key finding could not be assessed (${basis.map((f) => ruleLabel(f.ruleId, ctx)).join("; ")}); other findings cannot support it on their own`;
     } else if (score >= supportLevels.strong && forF.length >= supportLevels.minFor && keys.every((f) => f.evidence === "for"))
       support = "strong";
     else if (score >= supportLevels.moderate) support = "moderate";

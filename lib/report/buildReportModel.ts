@@ -136,12 +136,23 @@ function patientLine(record: TestRecord): string {
   ].join(", ");
 }
 
+/** The interpretation values each key-value row stands for (`InterpretInput.notRead` keys), by comparison key. */
+const NOT_READ_KEYS: Record<string, readonly (keyof NonNullable<AnalysisResult["interpretInput"]["notRead"]>)[]> = {
+  peakVo2: ["peakVo2MlMin", "peakVo2PctPred"],
+  peakVo2PerKg: ["peakVo2MlKgMin", "peakVo2PctPred"],
+  peakHr: ["hrPctPred"],
+  peakO2Pulse: ["o2PulsePeakMlBeat", "o2PulsePctPred"],
+};
+
 function testLine(result: AnalysisResult, record: TestRecord): string {
   const parts = [`${record.ergometer} ergometer`];
   const rate = result.conditioned.rampRateWPerMin;
   // a stepped protocol is named by its steps (its mean rate beside them), not called a ramp
   const stage = stageLengthS(result.conditioned);
-  if (rate !== null && stage !== null) parts.push(`stages of ${formatNumber(stage, 0)} s (about ${formatNumber(rate, 0)} W/min)`);
+  // a table of steady-state stage means has no ramp rate worth a number (irregular steps read as a slow ramp)
+  if (stage !== null && record.table.shape === "stage") parts.push(`stages of ${formatNumber(stage, 0)} s`);
+  else if (rate !== null && stage !== null)
+    parts.push(`stages of ${formatNumber(stage, 0)} s (about ${formatNumber(rate, 0)} W/min)`);
   else if (rate !== null) parts.push(`ramp ${formatNumber(rate, 0)} W/min`);
   const d = result.indices.peaks.testDurationS.value;
   if (d !== null) parts.push(`recording ${formatClock(d)} min:s`);
@@ -183,6 +194,9 @@ export function buildReportModel(
         .join("; ");
     }
     if (c.percentPredicted !== null) row.pctPredicted = formatNumber(c.percentPredicted, 0);
+    // a value the interpretation does not read (a child's % of an adult equation, a doubted VO2) says so on its row
+    const notRead = (NOT_READ_KEYS[c.key] ?? []).map((k) => result.interpretInput.notRead?.[k]).find(Boolean);
+    if (notRead) row.note = [row.note, `not read: ${notRead}`].filter(Boolean).join("; ");
     // shown, but not read against the age-predicted maximum on a beta-blocker (common practice)
     if (c.key === "peakHr" && hrNotes.length) row.note = [row.note, ...hrNotes].filter(Boolean).join("; ");
     // O2 pulse is VO2 / HR: in atrial fibrillation it is shown, not interpreted

@@ -25,16 +25,19 @@ export interface DVo2dWrOptions {
 }
 
 /**
- * Below this whole-ramp ΔVO2/ΔWR (mL/min/W) VO2 is taken to be mis-measured (or the work rate mis-recorded) rather than
- * read as a finding: 8.29 − 2 × 1.17 ≈ 6.0, the lower end of the men with circulatory disorders in Hansen 1987 (confirmed,
- * `hansen-1987-vo2-wr`), 4 SD below its normal men (10.29 ± 1.01). It would also mean a delta efficiency near 48 %
- * (60 J/min per W ÷ (6.0 mL/min/W × 20.9 J/mL O2), `o2-energy-equivalent`, common practice), where cycling measures about
- * 25–35 % (`cycling-delta-efficiency`, recalled). The choice of 2 SD is ours.
+ * Whole-ramp ΔVO2/ΔWR (mL/min/W) below which VO2 is doubted: 8.29 − 2 × 1.17 ≈ 6.0, the lower end of the men with
+ * circulatory disorders in Hansen 1987 (confirmed, `hansen-1987-vo2-wr`; 4 SD below its normal men, 10.29 ± 1.01). Below
+ * it a warning asks for the cart and the ergometer to be checked, and the value is still read: severe oxygen-delivery
+ * limitation can reach it. The 2 SD is our choice.
  */
-export const IMPLAUSIBLE_DVO2_DWR_ML_MIN_W = 6.0;
+export const SUSPECT_DVO2_DWR_ML_MIN_W = 6.0;
 
-/** Energy released per mL of O2 consumed, J (about 20.9 J/mL over the exercise range of RER; common practice). */
-const O2_ENERGY_J_PER_ML = 20.9;
+/**
+ * Whole-ramp ΔVO2/ΔWR (mL/min/W) below which VO2-based values are shown but not interpreted: 8.29 − 3 × 1.17 ≈ 4.8, below
+ * about 999 in 1000 of Hansen 1987's men with circulatory disorders (confirmed), where a leak, a calibration fault or a
+ * wrong work-rate record is far likelier than disease. The 3 SD is our choice.
+ */
+export const IMPLAUSIBLE_DVO2_DWR_ML_MIN_W = 4.8;
 
 export interface DVo2dWrResult {
   /** OLS of VO2 (mL/min) on work rate (W) over the ramp after the lag window. */
@@ -50,7 +53,8 @@ export interface DVo2dWrResult {
   flattening: boolean | null;
   /**
    * true when the whole-ramp slope is below `IMPLAUSIBLE_DVO2_DWR_ML_MIN_W`: VO2 rose too little with the work rate to be
-   * believed (issue `vo2-too-low-for-work`), and VO2-based values are not interpreted; null when not determinable.
+   * believed (issue `vo2-too-low-for-work`, a warning), and VO2-based values are not interpreted; null when not
+   * determinable. Between that and `SUSPECT_DVO2_DWR_ML_MIN_W` the issue `vo2-low-for-work` asks for a check only.
    */
   implausiblyLow: boolean | null;
   /** Reference: 10.29 ± 1.01 mL/min/W in 54 normal men (Am J Cardiol 1987;59:669, confirmed). */
@@ -78,7 +82,7 @@ export function dVo2dWr(test: ConditionedTest, options: DVo2dWrOptions = {}): DV
   const sums = new PrefixSums(pairs.x, pairs.y);
   const units = { slope: "mL/min/W", intercept: "mL/min" };
   const minPoints = stage ? 3 : 10;
-  const sourceIds = ["hansen-1987-vo2-wr", "vo2-lag-exclusion", "o2-energy-equivalent", "cycling-delta-efficiency"];
+  const sourceIds = ["hansen-1987-vo2-wr", "vo2-lag-exclusion"];
   const averaging = stage ? "stage values" : "breath by breath (artefact-cleaned)";
   const wholeFit = lineIndexFromFit(
     sums,
@@ -158,12 +162,22 @@ export function dVo2dWr(test: ConditionedTest, options: DVo2dWrOptions = {}): DV
     );
   const slope = whole.slope.value;
   const implausiblyLow = slope === null ? null : slope < IMPLAUSIBLE_DVO2_DWR_ML_MIN_W;
+  const ranges = "normal men 10.3 ± 1.0, men with circulatory disorders 8.3 ± 1.2 (Hansen 1987)";
   if (slope !== null && implausiblyLow)
     issues.push(
       makeIssue(
         "warning",
         "vo2-too-low-for-work",
-        `VO2 rose only ${slope.toFixed(1)} mL/min per W of work rate (ΔVO2/ΔWR; normal men 10.3 ± 1.0, men with circulatory disorders 8.3 ± 1.2): below ${IMPLAUSIBLE_DVO2_DWR_ML_MIN_W.toFixed(1)} it would need a muscle efficiency of about ${slope > 0 ? `${Math.round((100 * 60) / (slope * O2_ENERGY_J_PER_ML))} %` : "more than 100 %"}, where cycling achieves about 25–35 %. The VO2 signal (gas or flow calibration, a mask leak) or the work-rate record is the likelier explanation: VO2-based values are shown but not interpreted (capacity, O2 pulse, plateau, VT1 against predicted, patterns, schemes). Check the cart and the ergometer; set the exercise phase by hand if the fit reads the wrong part of the test.`,
+        `VO2 rose only ${slope.toFixed(1)} mL/min per W of work rate (ΔVO2/ΔWR; ${ranges}): below ${IMPLAUSIBLE_DVO2_DWR_ML_MIN_W.toFixed(1)}, lower than in about 999 of 1000 men with circulatory disorders, a leak at the mask, a gas or flow calibration fault or a wrong work-rate record is far likelier than disease. VO2-based values are shown but not interpreted (capacity, O2 pulse, plateau, VT1 against predicted, patterns, schemes). Check the cart and the ergometer; set the exercise phase by hand if the fit reads the wrong part of the test.`,
+        { field: "dVo2dWr" },
+      ),
+    );
+  else if (slope !== null && slope < SUSPECT_DVO2_DWR_ML_MIN_W)
+    issues.push(
+      makeIssue(
+        "warning",
+        "vo2-low-for-work",
+        `VO2 rose only ${slope.toFixed(1)} mL/min per W of work rate (ΔVO2/ΔWR; ${ranges}): below ${SUSPECT_DVO2_DWR_ML_MIN_W.toFixed(1)}, lower than in about 39 of 40 men with circulatory disorders. Severe oxygen-delivery limitation can do this, and so can a leak at the mask, a gas or flow calibration fault or a wrong work-rate record: check the cart and the ergometer before reading VO2-based values (they are read as measured).`,
         { field: "dVo2dWr" },
       ),
     );

@@ -82,16 +82,6 @@ export const THRESHOLD_SOURCES = defineSources({
     pmid: "3825911",
     note: "ΔVO2/ΔWR 10.29 ± 1.01 mL/min/W in 54 normal men; 8.29 ± 1.17 in many men with circulatory disorders. Author list (Hansen, Sue, Oren, Wasserman) recalled.",
   },
-  "o2-energy-equivalent": {
-    citation:
-      "Energy equivalent of oxygen: about 20.1 J per mL O2 on fat to 21.1 J on carbohydrate, about 20.9 J/mL over the exercise range of RER (textbook value, common practice)",
-    status: "common-practice",
-  },
-  "cycling-delta-efficiency": {
-    citation:
-      "Delta efficiency of cycling about 25–35 % (Gaesser GA, Brooks GA. Muscular efficiency during steady-rate exercise: effects of speed and work rate. J Appl Physiol 1975;38:1132; figures and reference from memory)",
-    status: "recalled",
-  },
   "vo2-lag-exclusion": {
     citation:
       "Exclusion of the first ~1 min of the ramp from the VO2-work-rate fit because of the VO2 response lag (method detail, recalled)",

@@ -7,6 +7,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { analyse, buildRecord } from "../../lib/analysis";
+import { buildReportModel } from "../../lib/report/buildReportModel";
 import type { Patient } from "../../lib/core";
 
 /** The INVENTED normal-adult demo file analysed with other patient details. */
@@ -18,7 +19,7 @@ async function normalAdultAs(patient: Patient) {
     ergometer: "cycle",
     referral: "general",
   });
-  return analyse(built.record!, {});
+  return Object.assign(analyse(built.record!, {}), { record: built.record! });
 }
 
 describe("predictions outside the derivation population (invented)", () => {
@@ -41,6 +42,20 @@ describe("predictions outside the derivation population (invented)", () => {
     expect(effortHr.outcome).toBeNull();
     for (const p of r.interpretation.patterns)
       for (const f of [...p.for, ...p.against]) expect(f.text).not.toMatch(/% predicted .*(≥|<|>|≤)/);
+    // deconditioning is defined by a reduced capacity or a low VT1, neither read here: normal findings elsewhere do not
+    // support it on their own
+    const deconditioning = r.interpretation.patterns.find((p) => p.patternId === "deconditioning")!;
+    expect(deconditioning.support).toBe("not-assessable");
+    // the report's key-values rows show the % and say on the row that it is not read
+    const model = buildReportModel(r, r.record, "Child (invented)", {
+      status: "draft",
+      sections: r.draft.sections,
+    });
+    for (const label of ["Peak VO2", "Peak VO2 per kg", "Peak heart rate", "Peak O2 pulse"])
+      expect([label, model.keyValues.find((x) => x.label === label)!.note]).toEqual([
+        label,
+        expect.stringMatching(/not read: .+ was derived in adults \(from (18|20) y\); a patient of 12 y is not read against it$/),
+      ]);
   });
 
   it("an adult outside an equation's age range is still read, with the extrapolation said", async () => {

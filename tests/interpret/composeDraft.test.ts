@@ -16,6 +16,14 @@ describe("draft report text", () => {
     expect(caution).toMatch(/local protocols and licensed practice prevail/);
   });
 
+  it("gives a duration in whole minutes and seconds, rounding the total first (1079.6 s is 18 min 0 s, not 17 min 60 s)", () => {
+    const conduct = (s: number) =>
+      composeDraft(fx.input, r, { testConduct: { exerciseDurationS: s } }).sections.find((x) => x.id === "conduct")!;
+    expect(conduct(1079.6).paragraphs[0]).toContain("Exercise lasted 18 min 0 s.");
+    expect(conduct(1079.4).paragraphs[0]).toContain("Exercise lasted 17 min 59 s.");
+    expect(conduct(512).paragraphs[0]).toContain("Exercise lasted 8 min 32 s.");
+  });
+
   it("has the sections in report order as editable title + paragraphs", () => {
     const d = composeDraft(fx.input, r, {
       testConduct: {

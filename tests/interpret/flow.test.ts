@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { interpret, type InterpretInput } from "../../lib/interpret";
+import { composeDraft, interpret, type InterpretInput } from "../../lib/interpret";
 import { baseInput, deepFreeze } from "./helpers";
 
 // Flow: ATS/ACCP 2003 statement and Wasserman-school flowcharts (recalled); cut-offs per rules.json.
@@ -240,6 +240,14 @@ describe("effort when peak RER is missing", () => {
     expect(warned({ peakRer: 0.97 })).toBe(true);
     expect(warned({ peakRer: 1.02 })).toBe(false);
     expect(warned({ peakRer: 0.97, vo2Plateau: true })).toBe(false);
+    // an RER that rounds to the floor is printed with the digit that puts it below: "0.999 (below 1.00)"
+    const near = interpret(baseInput({ peakRer: 0.9993, hrPctPred: 95 })).issues.find(
+      (i) => i.code === "effort-rests-on-heart-rate",
+    );
+    expect(near?.message).toContain("peak RER 0.999 (below 1.00)");
+    // the draft's step-by-step line says what the adequate effort rests on
+    const steps = composeDraft(baseInput({ peakRer: 0.97, hrPctPred: 95 }), r).sections.find((s) => s.id === "pathway")!;
+    expect(steps.paragraphs[0]).toMatch(/^Test validity and effort: .+ \(on heart rate alone; see the data-quality warning\)\.$/);
   });
 });
 
