@@ -249,7 +249,7 @@ export function formatText(r: CliAnalysisJson, opts: Pick<AnalyseOptions, "betaB
         : "per kg not determinable (give --weight-kg)";
   const onTreadmill = r.peak.workW === null && r.peak.speedKmh != null;
   const effortWords = r.interpretation as {
-    effort?: { text?: string; verdict?: string };
+    effort?: { text?: string; verdict?: string; label?: string };
     path?: { end?: { label: string } | null };
     patterns?: { statement: string; support: string }[];
   };
@@ -267,7 +267,8 @@ export function formatText(r: CliAnalysisJson, opts: Pick<AnalyseOptions, "betaB
     `OUES            ${n(r.oues)}${r.ouesBand ? ` (${b(r.ouesBand).slice(2)})` : ""}`,
     `ΔVO2/ΔWR        ${onTreadmill && r.dVo2dWr === null ? "not applicable (no work rate: treadmill)" : `${n(r.dVo2dWr, 1, " mL/min/W")}${r.dVo2dWrBand ? ` (${b(r.dVo2dWrBand, 1).slice(2)})` : ""}`}`,
     `breathing reserve ${r.breathingReserve.pct === null ? "not determinable (give --mvv-l-min or --fev1-l)" : n(r.breathingReserve.pct, 0, " %")}`,
-    ...(effortWords.effort?.verdict ? [`effort          ${effortWords.effort.verdict}`] : []),
+    // the verdict in words ("Peak RER below the maximal-effort cut-off, but a physiological limit was reached: …")
+    ...(effortWords.effort?.verdict ? [`effort          ${effortWords.effort.label ?? effortWords.effort.verdict}`] : []),
     ...(effortWords.path?.end ? [`draft reading   ${effortWords.path.end.label}.${leading ? ` ${leading.statement}` : ""}`] : []),
     ...(r.lactate ? lactateLines(r.lactate) : []),
     ...r.issues.filter((i) => i.severity !== "info").map((i) => `${i.severity}: ${i.message}`),

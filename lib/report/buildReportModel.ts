@@ -326,10 +326,13 @@ export function buildReportModel(
 
   const methods: string[] = [
     `Peak values: ${pk.vo2MlMin.provenance.label}.`,
-    `VT1 and VT2: ${result.thresholds.methods
-      .map((m) => m.label)
-      .filter((l, i, a) => a.indexOf(l) === i)
-      .join("; ")}; consensus with confidence and band (${result.thresholds.series.averaging}). ${BAND_MEANING}`,
+    // no method ran (no VCO2, no exercise phase): the reason, not an empty list
+    result.thresholds.methods.length
+      ? `VT1 and VT2: ${result.thresholds.methods
+          .map((m) => m.label)
+          .filter((l, i, a) => a.indexOf(l) === i)
+          .join("; ")}; consensus with confidence and band (${result.thresholds.series.averaging}). ${BAND_MEANING}`
+      : `VT1 and VT2: no method could run (${result.thresholds.vt1.reason ?? "no data"}).`,
     `Display averaging: ${result.conditioned.averaging.label}.`,
     `Predicted values: ${Object.values(result.predicted.values)
       .flatMap((v) => (v ? [`${predictedQuantityWords(v.quantity)} by ${v.equationLabel}`] : []))

@@ -322,7 +322,11 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
     })),
     interpretation: {
       referral: result.interpretation.referral,
-      effort: { verdict: result.interpretation.effort.verdict, text: result.interpretation.effort.text },
+      effort: {
+        verdict: result.interpretation.effort.verdict,
+        label: result.interpretation.effort.label,
+        text: result.interpretation.effort.text,
+      },
       path: result.interpretation.path,
       patterns: result.interpretation.patterns,
       schemes: result.interpretation.schemes,

@@ -49,6 +49,10 @@ describe("cpet analyse (command line)", { timeout: CLI_TEST_TIMEOUT_MS }, () => 
     expect(without.stdout).toMatch(/breathing reserve not determinable \(give --mvv-l-min or --fev1-l\)/);
     expect(without.stdout).not.toMatch(/not determinable (mL|%)/);
     expect(without.stdout).toMatch(/reviewed by a qualified clinician/);
+    // the effort verdict in words, never its key (the JSON carries both: interpretation.effort.verdict and .label)
+    const effortLine = without.stdout.split("\n").find((l) => l.startsWith("effort "))!;
+    expect(effortLine).toMatch(/^effort {10}[A-Z][a-z]+ .+/);
+    expect(effortLine).not.toMatch(/^effort\s+[a-z-]+$/);
     const withKg = run(["analyse", file, "--weight-kg", "80"]);
     // 2500 / 80 = 31.25 mL/kg/min, printed to one decimal
     expect(withKg.stdout).toMatch(/2500 mL\/min, 31\.3 mL\/kg\/min/);
