@@ -137,6 +137,13 @@ export function fittedPoints(line: LineIndex): number | null {
 }
 
 /** Report an OLS fit over indices [from, to) of prefix sums as a LineIndex with shared provenance. */
+/** What a line's points pair, by its slope unit, for the reason when there are none. */
+const PAIRED_WORDS: Record<string, string> = {
+  "1": "VE with VCO2",
+  "mL/min/W": "VO2 with a work rate",
+  "mL/min per log10(L/min)": "VO2 with VE",
+};
+
 export function lineIndexFromFit(
   sums: PrefixSums,
   from: number,
@@ -147,7 +154,9 @@ export function lineIndexFromFit(
 ): LineIndex {
   const n = to - from;
   if (n < minPoints) {
-    const reason = `only ${Math.max(0, n)} points (need ${minPoints})`;
+    // none at all is a missing signal, not a short series: say which values the line needs
+    const reason =
+      n <= 0 ? `no ${PAIRED_WORDS[units.slope] ?? "paired values"} in the span it reads` : `only ${n} points (need ${minPoints})`;
     return {
       slope: notDetermined(units.slope, prov, reason),
       intercept: notDetermined(units.intercept, prov, reason),

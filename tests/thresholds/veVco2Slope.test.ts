@@ -114,3 +114,21 @@ describe("VE/VCO2 slope to an early VT2 where ventilation has not yet settled", 
     expect(r.slopeWholeExercise.slope.value).toBeGreaterThan(0);
   });
 });
+
+describe("lineIndexFromFit: a line with no points at all", () => {
+  it("names the missing pairing instead of 'only 0 points'", async () => {
+    const { lineIndexFromFit } = await import("../../lib/thresholds/veVco2Slope");
+    const { PrefixSums } = await import("../../lib/numeric/linearRegression");
+    const prov = { method: "invented", label: "invented line", sourceIds: [] };
+    const empty = new PrefixSums(new Float64Array(0), new Float64Array(0));
+    const slope = (unit: string) => lineIndexFromFit(empty, 0, 0, { slope: unit, intercept: "x" }, prov, 10).slope.reason;
+    expect(slope("1")).toBe("no VE with VCO2 in the span it reads");
+    expect(slope("mL/min/W")).toBe("no VO2 with a work rate in the span it reads");
+    expect(slope("mL/min per log10(L/min)")).toBe("no VO2 with VE in the span it reads");
+    // a short series keeps its count
+    const three = new PrefixSums(Float64Array.from([1, 2, 3]), Float64Array.from([2, 4, 6]));
+    expect(lineIndexFromFit(three, 0, 3, { slope: "1", intercept: "L/min" }, prov, 10).slope.reason).toBe(
+      "only 3 points (need 10)",
+    );
+  });
+});
