@@ -1,3 +1,4 @@
+import { DEFAULT_STAGE_DURATION_S } from "../breath";
 import type { DraftExtras } from "../interpret";
 import {
   DOMAINS_OUT_OF_ORDER,
@@ -35,6 +36,10 @@ export function draftExtras(record: TestRecord, thresholds: ThresholdResult, ind
     testConduct: {
       protocol: record.conduct?.protocol,
       exerciseDurationS: indices.peaks.exerciseDurationS.value ?? undefined,
+      // a stage table read without a time column or a stage length given: its durations rest on the 60-s assumption
+      ...(record.importIssues.some((i) => i.code === "time-assumed-stage-order" && i.severity === "warning")
+        ? { durationAssumed: `stages assumed ${DEFAULT_STAGE_DURATION_S} s apart; set the stage length if they were not` }
+        : {}),
       reasonForStopping: record.conduct?.reasonForStopping,
       symptoms: record.conduct?.symptoms,
       peakBorg: record.conduct?.peakBorg,

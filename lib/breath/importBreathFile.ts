@@ -53,6 +53,9 @@ export interface ColumnDecision {
 /** The stage lengths a user may give for a stage table without a time column, s (our choice: 10 s to 1 h). */
 export const STAGE_DURATION_LIMITS_S = { min: 10, max: 3600 } as const;
 
+/** Spacing assumed for the stages of a table without a time column when none is given, s (our choice). */
+export const DEFAULT_STAGE_DURATION_S = 60;
+
 /**
  * Import options (all optional).
  * - `mapping`: header → { field, unit } decisions that replace the automatic ones ("set by user").
@@ -462,7 +465,7 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
     const workCol = byTarget.get("workW") ?? byTarget.get("speedKmh");
     const fewRising = workCol?.values !== undefined && n <= 40 && isNonDecreasing(workCol.values);
     if (stageCol || fewRising) {
-      const d = opts.stageDurationS ?? 60;
+      const d = opts.stageDurationS ?? DEFAULT_STAGE_DURATION_S;
       times = new Float64Array(n);
       for (let r = 0; r < n; r++) times[r] = r * d;
       stageOrder = true;

@@ -22,6 +22,8 @@ export interface DraftExtras {
   testConduct?: {
     protocol?: string;
     exerciseDurationS?: number;
+    /** Why the duration is not measured (e.g. stages assumed 60 s apart), said beside it. */
+    durationAssumed?: string;
     reasonForStopping?: string;
     symptoms?: string;
     peakBorg?: number;
@@ -208,7 +210,7 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     if (have(tc.exerciseDurationS))
       // whole seconds first, so 1079.6 s reads "18 min 0 s", never "17 min 60 s"
       bits.push(
-        `Exercise lasted ${Math.floor(Math.round(tc.exerciseDurationS!) / 60)} min ${Math.round(tc.exerciseDurationS!) % 60} s.`,
+        `Exercise lasted ${Math.floor(Math.round(tc.exerciseDurationS!) / 60)} min ${Math.round(tc.exerciseDurationS!) % 60} s${tc.durationAssumed ? ` (${tc.durationAssumed})` : ""}.`,
       );
     if (tc.reasonForStopping) bits.push(`The test was stopped because of ${tc.reasonForStopping}.`);
     if (tc.symptoms) bits.push(`Symptoms: ${tc.symptoms}.`);

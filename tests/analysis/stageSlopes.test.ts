@@ -52,6 +52,10 @@ describe("stage tables: slopes shown, not graded", () => {
     // 5 stages × 60 s < 8 min, the incremental phase alone (ERS statement, Radtke et al. 2019, confirmed)
     expect(built.issues.map((i) => i.code)).toContain("short-recording");
     const conduct = r.draft.sections.find((s) => s.id === "conduct")!.paragraphs;
+    // 5 stages at the assumed 60 s: the duration says what it rests on
+    expect(conduct[0]).toMatch(
+      /Exercise lasted \d+ min \d+ s \(stages assumed 60 s apart; set the stage length if they were not\)\./,
+    );
     const effort = conduct.findIndex((p) => p.startsWith("Effort:"));
     expect(conduct[effort + 1]).toBe(
       "The recording is shorter than a complete test (see the data-quality issues): the effort verdict and the peak values are not reliable.",
