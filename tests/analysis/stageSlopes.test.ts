@@ -8,19 +8,24 @@ import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { analyse, buildRecord } from "../../lib/analysis";
 
+/** Sylta subject 1, pre, read with the stage length given (or the 60-s default), and analysed. */
+async function syltaSubject1(stageDurationS?: number) {
+  const built = await buildRecord({
+    bytes: new Uint8Array(
+      fs.readFileSync(path.resolve(__dirname, "../fixtures/open-data/sylta2016-cycling/cyclingstudy_stages_long.csv")),
+    ),
+    fileName: "cyclingstudy_stages_long.csv",
+    patient: { sex: "male", ageY: 33, heightCm: 183, weightKg: 80.3 },
+    ergometer: "cycle",
+    referral: "general",
+    importOptions: { select: { subject: "1", timepoint: "pre" }, ...(stageDurationS ? { stageDurationS } : {}) },
+  });
+  return { built, r: analyse(built.record!) };
+}
+
 describe("stage tables: slopes shown, not graded", () => {
   it("Sylta subject 1: a supra-RCP last stage steepens the whole-exercise line; no 'abnormal efficiency' is read from it", async () => {
-    const built = await buildRecord({
-      bytes: new Uint8Array(
-        fs.readFileSync(path.resolve(__dirname, "../fixtures/open-data/sylta2016-cycling/cyclingstudy_stages_long.csv")),
-      ),
-      fileName: "cyclingstudy_stages_long.csv",
-      patient: { sex: "male", ageY: 33, heightCm: 183, weightKg: 80.3 },
-      ergometer: "cycle",
-      referral: "general",
-      importOptions: { select: { subject: "1", timepoint: "pre" }, stageDurationS: 300 },
-    });
-    const r = analyse(built.record!);
+    const { built, r } = await syltaSubject1(300);
     expect(built.record!.table.shape).toBe("stage");
     // OLS of VE on VCO2 over the 5 stages (file: VCO2 2113…4411 mL/min, VE 55…133 L/min) is above the 34 cut-off …
     const slope = r.indices.veVco2.slopeWholeExercise.slope.value!;
@@ -38,17 +43,7 @@ describe("stage tables: slopes shown, not graded", () => {
   });
 
   it("read at the assumed 60 s per stage, the 5-min recording is too short for a test, and the effort verdict says so", async () => {
-    const built = await buildRecord({
-      bytes: new Uint8Array(
-        fs.readFileSync(path.resolve(__dirname, "../fixtures/open-data/sylta2016-cycling/cyclingstudy_stages_long.csv")),
-      ),
-      fileName: "cyclingstudy_stages_long.csv",
-      patient: { sex: "male", ageY: 33, heightCm: 183, weightKg: 80.3 },
-      ergometer: "cycle",
-      referral: "general",
-      importOptions: { select: { subject: "1", timepoint: "pre" } },
-    });
-    const r = analyse(built.record!);
+    const { built, r } = await syltaSubject1();
     // 5 stages × 60 s < 8 min, the incremental phase alone (ERS statement, Radtke et al. 2019, confirmed)
     expect(built.issues.map((i) => i.code)).toContain("short-recording");
     const conduct = r.draft.sections.find((s) => s.id === "conduct")!.paragraphs;
