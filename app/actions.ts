@@ -7,6 +7,7 @@ import { recordImportChoices, recordUploadDetails } from "@/lib/store/reimport";
 import { getUploadBytes, saveTest, saveUpload } from "@/lib/store/tests";
 import { STAGE_DURATION_LIMITS_S } from "@/lib/breath";
 import { fieldErrors, optionalNumber, testDetailsSchema, uploadFileProblem } from "./schemas";
+import { formatUtcMinute } from "@/lib/units";
 
 /** The upload's details, and the stage length for a stage table without a time column (as on the columns page). */
 const uploadDetailsSchema = testDetailsSchema.extend({
@@ -98,7 +99,7 @@ export async function uploadTest(prev: UploadState, form: FormData): Promise<Upl
     uploadId,
     // without a label the register names the test by its upload time, not by the file name, which often holds the
     // patient's name, birth date or number (the file name stays on the test's own pages for the physiologist)
-    label: d.label || `Test uploaded ${new Date().toISOString().slice(0, 16).replace("T", " ")} UTC`,
+    label: d.label || `Test uploaded ${formatUtcMinute(new Date().toISOString())}`,
     record: built.record,
     columns: built.columns,
     issues: built.issues,

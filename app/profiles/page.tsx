@@ -1,6 +1,7 @@
 import { listProfiles } from "@/lib/store/profiles";
 import { FIELD_LABEL } from "../tests/[id]/columns/fieldChoices";
 import { deleteProfileAction } from "./actions";
+import { formatUtcMinute } from "@/lib/units";
 
 export const dynamic = "force-dynamic";
 
@@ -33,7 +34,7 @@ export default function ProfilesPage() {
                 </button>
               </form>
             </div>
-            <p className="how">saved {p.createdAt.slice(0, 16).replace("T", " ")} UTC</p>
+            <p className="how">saved {formatUtcMinute(p.createdAt)}</p>
             <table>
               <thead>
                 <tr>

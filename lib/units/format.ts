@@ -11,3 +11,10 @@ export function formatClock(seconds: number): string {
   const m = Math.floor(s / 60);
   return `${sign}${m}:${String(s % 60).padStart(2, "0")}`;
 }
+
+/**
+ * An ISO 8601 UTC time to the minute, as the product prints times of signing, saving and upload: "2026-12-05 01:40 UTC".
+ */
+export function formatUtcMinute(iso: string): string {
+  return `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
+}

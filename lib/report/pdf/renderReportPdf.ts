@@ -1,7 +1,7 @@
 import "server-only";
 import path from "node:path";
 import { EVIDENCE_LABEL } from "../../core";
-import { displayUnit } from "../../units";
+import { displayUnit, formatUtcMinute } from "../../units";
 import pdfmake from "pdfmake";
 import type { Content, TableCell, TDocumentDefinitions } from "pdfmake/interfaces";
 import { renderChartSvg } from "../charts/renderChartSvg";
@@ -51,8 +51,7 @@ function mapStrings<T>(value: T, f: (s: string) => string): T {
 }
 
 function formatSignedAt(iso: string | undefined): string {
-  if (!iso) return "";
-  return `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
+  return iso ? formatUtcMinute(iso) : "";
 }
 
 /** Non-breaking space (U+00A0): keeps a short header or phrase on one line. */
@@ -198,7 +197,7 @@ function amendmentContent(model: ReportModel, draft: boolean): Content | null {
  */
 export async function renderReportPdf(rawModel: ReportModel, now: Date = new Date()): Promise<Buffer> {
   // when this copy was made: two PDFs of one signed version can differ in their version note, and this orders them
-  const generatedAt = `${now.toISOString().slice(0, 16).replace("T", " ")} UTC`;
+  const generatedAt = formatUtcMinute(now.toISOString());
   const model = mapStrings(rawModel, toPdfText);
   const draft = model.status !== "signed";
   // a signed report that a newer signed version amends says so in red on every page

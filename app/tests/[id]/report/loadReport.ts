@@ -16,6 +16,7 @@ import {
   type StoredTest,
 } from "@/lib/store/tests";
 import type { TestRecord } from "@/lib/analysis";
+import { formatUtcMinute } from "@/lib/units";
 
 export interface LoadedReport {
   test: StoredTest;
@@ -113,7 +114,7 @@ export function loadReport(testId: number, reportId?: number): LoadedReport | nu
   return { test, record, result, report, versions, model };
 }
 
-const day = (iso: string | null) => (iso ? `${iso.slice(0, 16).replace("T", " ")} UTC` : "an unknown time");
+const day = (iso: string | null) => (iso ? formatUtcMinute(iso) : "an unknown time");
 
 /**
  * What the version history says about this version, on the page and on every PDF page: its number; the signed version

@@ -11,10 +11,11 @@ import { loadReport } from "./loadReport";
 import type { ReportModel } from "@/lib/report/reportModel";
 import { ReportValuesTable } from "./ReportValuesTable";
 import { REPORT_NOTICE_SLOT } from "./schemas";
+import { formatUtcMinute } from "@/lib/units";
 
 export const dynamic = "force-dynamic";
 
-const when = (iso: string | null | undefined) => (iso ? `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC` : "");
+const when = (iso: string | null | undefined) => (iso ? formatUtcMinute(iso) : "");
 
 export default async function ReportPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;

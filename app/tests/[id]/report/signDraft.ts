@@ -5,6 +5,7 @@ import { PDF_PRINTABLE_WORDS, describeChar, unprintableInPdf } from "@/lib/repor
 import { getReport, listReports, saveDraft, signReport, type StoredReport } from "@/lib/store/reports";
 import { latestSettings } from "@/lib/store/tests";
 import { AMENDMENT_REASON_MIN_CHARS, DRAFT_CHANGED_ELSEWHERE } from "./schemas";
+import { formatUtcMinute } from "@/lib/units";
 
 /** A section as the reviewer has it on screen (paragraphs already split). */
 export interface OnScreenSection {
@@ -43,7 +44,7 @@ const sameText = (a: readonly ReportSection[], b: readonly ReportSection[]) =>
 /** When a version was made or signed, in words ("signed by Dr A on 2026-12-04 21:31 UTC", "a draft"). */
 function versionWords(r: StoredReport): string {
   return r.status === "signed"
-    ? `version ${r.version}, signed by ${r.signedBy} on ${r.signedAt?.slice(0, 16).replace("T", " ")} UTC`
+    ? `version ${r.version}, signed by ${r.signedBy} on ${r.signedAt ? formatUtcMinute(r.signedAt) : "an unknown time"}`
     : `version ${r.version}, a draft`;
 }
 
