@@ -9,7 +9,14 @@ import {
   type LineIndex,
   type ThresholdResult,
 } from "../thresholds";
-import { getEquation, OBESITY_BMI_KG_M2, type PredictedSet, type PredictedValue, type WeightBasisAssessment } from "../predicted";
+import {
+  getEquation,
+  OBESITY_BMI_KG_M2,
+  populationRange,
+  type PredictedSet,
+  type PredictedValue,
+  type WeightBasisAssessment,
+} from "../predicted";
 import type { InterpretInput, InterpretValues, UncertainValue } from "../interpret";
 import type { PredictedComparisonRow, TestRecord } from "./types";
 
@@ -313,10 +320,10 @@ function adultEquationForMinor(
 ): string | null {
   if (!pv || pv.value === null || ageY === undefined || ageY >= ADULT_AGE_Y) return null;
   for (const id of pv.usedEquationIds) {
-    const pop = getEquation(id).population;
-    const min = ((sex ? pop.bySex?.[sex]?.ageY : undefined) ?? pop.ageY)?.min;
+    const eq = getEquation(id);
+    const min = populationRange(eq, "ageY", sex)?.min;
     if (min !== undefined && min >= ADULT_AGE_Y)
-      return `${getEquation(id).label} was derived in adults (from ${min} y); a patient of ${Math.floor(ageY)} y is not read against it`;
+      return `${eq.label} was derived in adults (from ${min} y); a patient of ${Math.floor(ageY)} y is not read against it`;
   }
   return null;
 }

@@ -79,6 +79,19 @@ function rawInput(from: PredictorInput, inputs: EquationInputs): number | string
   }
 }
 
+/**
+ * The range of one characteristic in an equation's derivation population, the patient's sex's own range when the file
+ * gives one by sex; undefined when the source states none.
+ */
+export function populationRange(
+  eq: ReferenceEquation,
+  key: "ageY" | "heightCm" | "weightKg" | "bmi",
+  sex: "male" | "female" | undefined,
+): { min?: number; max?: number } | undefined {
+  const pop = eq.population;
+  return (sex ? pop.bySex?.[sex]?.[key] : undefined) ?? pop[key];
+}
+
 function populationIssues(eq: ReferenceEquation, inputs: EquationInputs): Issue[] {
   const issues: Issue[] = [];
   const p = inputs.patient;
@@ -97,7 +110,7 @@ function populationIssues(eq: ReferenceEquation, inputs: EquationInputs): Issue[
   const values = { ageY: p.ageY, heightCm: p.heightCm, weightKg: p.weightKg, bmi };
   const units = { ageY: "y", heightCm: "cm", weightKg: "kg", bmi: "kg/m²" };
   for (const key of ["ageY", "heightCm", "weightKg", "bmi"] as const) {
-    const range = (p.sex ? pop.bySex?.[p.sex]?.[key] : undefined) ?? pop[key];
+    const range = populationRange(eq, key, p.sex);
     const v = values[key];
     if (!range || v === undefined) continue;
     const below = range.min !== undefined && v < range.min;
