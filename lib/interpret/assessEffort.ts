@@ -1,9 +1,6 @@
 import { evaluateCondition, evaluateRule, type EvalContext } from "./evaluateCondition";
 import type { EffortResult } from "./types";
 
-/** Verdicts that rest on a physiological limit instead of peak RER: their label is followed by the criteria that held. */
-const LIMIT_VERDICTS = new Set(["physiological-limit", "limit-without-rer"]);
-
 /** The verdict of effort.json whose condition holds first in this context (or the "otherwise" one). */
 function verdictIn(ctx: EvalContext) {
   const e = ctx.data.effort;
@@ -29,12 +26,14 @@ export function assessEffort(ctx: EvalContext): EffortResult {
   const borderline = parts.join("; ");
   // a physiological-limit verdict names the limit that was reached, not the list of possible ones
   const met = criteria.filter((c) => c.ruleId !== "rer-maximal" && c.outcome === true).map((c) => c.label);
-  const namesLimit = LIMIT_VERDICTS.has(v.key) && met.length > 0;
+  const restsOnLimit = "restsOnLimit" in v && v.restsOnLimit === true;
+  const namesLimit = restsOnLimit && met.length > 0;
   return {
     verdict: v.key,
     label: namesLimit ? `${v.label}: ${met.join("; ")}` : v.label,
     severity: v.severity,
     peakConclusionsAllowed: v.peakConclusionsAllowed,
+    restsOnLimit,
     criteria,
     text: criteria.map((c) => c.text).join("; ") + (borderline ? `; borderline: ${borderline}` : ""),
     ...(borderline ? { borderline } : {}),

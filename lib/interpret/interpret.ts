@@ -104,7 +104,7 @@ export function interpret(
   const limits = effort.criteria.filter((c) => c.ruleId !== "rer-maximal" && c.outcome === true).map((c) => c.ruleId);
   const rer = ctx.vars.peakRer;
   if (
-    (effort.verdict === "physiological-limit" || effort.verdict === "limit-without-rer") &&
+    effort.restsOnLimit &&
     limits.length === 1 &&
     limits[0] === "hr-reached" &&
     (typeof rer !== "number" || rer < EFFORT_RER_FLOOR)

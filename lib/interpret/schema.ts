@@ -161,6 +161,8 @@ export const EffortFileSchema = z.strictObject({
         label: z.string(),
         severity: z.number().int().min(0),
         peakConclusionsAllowed: z.boolean(),
+        /** The verdict rests on a physiological limit instead of peak RER: its label is followed by the limits reached. */
+        restsOnLimit: z.boolean().optional(),
         when: ConditionSchema,
         ...Cited,
       }),

@@ -249,6 +249,8 @@ export interface EffortResult {
   severity: number;
   /** Whether conclusions from peak (effort-dependent) values may be drawn. */
   peakConclusionsAllowed: boolean;
+  /** The verdict rests on a physiological limit reached instead of peak RER (effort.json `restsOnLimit`). */
+  restsOnLimit: boolean;
   criteria: RuleResult[];
   /** The criteria with the patient's values as one readable line; the verdict is in `label` (not repeated here). */
   text: string;
