@@ -5,13 +5,12 @@ import { buildRecord } from "@/lib/analysis";
 import { getProfile } from "@/lib/store/profiles";
 import { recordImportChoices, recordUploadDetails } from "@/lib/store/reimport";
 import { getUploadBytes, saveTest, saveUpload } from "@/lib/store/tests";
-import { STAGE_DURATION_LIMITS_S } from "@/lib/breath";
-import { fieldErrors, optionalNumber, testDetailsSchema, uploadFileProblem } from "./schemas";
+import { fieldErrors, stageDurationField, testDetailsSchema, uploadFileProblem } from "./schemas";
 import { formatUtcMinute } from "@/lib/units";
 
 /** The upload's details, and the stage length for a stage table without a time column (as on the columns page). */
 const uploadDetailsSchema = testDetailsSchema.extend({
-  stageDurationS: optionalNumber(STAGE_DURATION_LIMITS_S.min, STAGE_DURATION_LIMITS_S.max, "Stage length (s)"),
+  stageDurationS: stageDurationField(),
 });
 
 export interface UploadState {

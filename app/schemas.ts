@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { PDF_PRINTABLE_WORDS, describeChar, unprintableInPdf } from "../lib/report/pdf/pdfText";
-import { PLAUSIBLE_LIMITS, type PlausibleField } from "../lib/core";
+import { PLAUSIBLE_LIMITS, STAGE_DURATION_LIMITS_S, type PlausibleField } from "../lib/core";
 
 /**
  * An optional number from a form field: empty → undefined, otherwise a number within [min, max] with plain messages.
@@ -56,6 +56,10 @@ export const labelSchema = z
         message: `The report PDF prints ${PDF_PRINTABLE_WORDS} and cannot show ${bad.map(describeChar).join(" ")} in the label; leave ${bad.length === 1 ? "it" : "them"} out.`,
       });
   });
+
+/** The stage length of a stage table without a time column, s, as the upload form and the columns page take it. */
+export const stageDurationField = () =>
+  optionalNumber(STAGE_DURATION_LIMITS_S.min, STAGE_DURATION_LIMITS_S.max, "Stage length (s)");
 
 /** Patient and test details sent with an upload. Ranges: `PLAUSIBLE_LIMITS` (generous; common practice). */
 export const testDetailsSchema = z.object({

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { makeIssue, type Issue } from "../core";
+import { DEFAULT_STAGE_DURATION_S, makeIssue, type Issue } from "../core";
 import {
   CANONICAL_UNIT_OF,
   columnStats,
@@ -50,11 +50,8 @@ export interface ColumnDecision {
   storedAs?: "vo2MlKgMin";
 }
 
-/** The stage lengths a user may give for a stage table without a time column, s (our choice: 10 s to 1 h). */
-export const STAGE_DURATION_LIMITS_S = { min: 10, max: 3600 } as const;
-
-/** Spacing assumed for the stages of a table without a time column when none is given, s (our choice). */
-export const DEFAULT_STAGE_DURATION_S = 60;
+// the stage lengths a user may give, and the one assumed, live with the other input limits (lib/core/plausibleLimits.ts)
+export { DEFAULT_STAGE_DURATION_S, STAGE_DURATION_LIMITS_S } from "../core";
 
 /**
  * Import options (all optional).

@@ -23,3 +23,9 @@ export function plausibilityProblem(field: PlausibleField, value: number): strin
   if (value < min || value > max) return `${label} must lie between ${min} and ${max}, got ${value}`;
   return null;
 }
+
+/** The stage lengths a user may give for a stage table without a time column, s (our choice: 10 s to 1 h). */
+export const STAGE_DURATION_LIMITS_S = { min: 10, max: 3600 } as const;
+
+/** Spacing assumed for the stages of a table without a time column when none is given, s (our choice). */
+export const DEFAULT_STAGE_DURATION_S = 60;

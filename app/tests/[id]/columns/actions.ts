@@ -4,20 +4,13 @@ import crypto from "node:crypto";
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { buildRecord, type TestRecord } from "@/lib/analysis";
-import {
-  importBreathFile,
-  parseUnitText,
-  STAGE_DURATION_LIMITS_S,
-  UNIT_KEYS_BY_FIELD,
-  type ColumnMapping,
-  type ColumnOverride,
-} from "@/lib/breath";
+import { importBreathFile, parseUnitText, UNIT_KEYS_BY_FIELD, type ColumnMapping, type ColumnOverride } from "@/lib/breath";
 import { readTableLayout } from "@/lib/breath/readTableLayout";
 import type { Issue } from "@/lib/core";
 import { saveProfile } from "@/lib/store/profiles";
 import { getImportChoices, getUploadDetails, replaceImport, type ImportChoices } from "@/lib/store/reimport";
 import { getTest, getUploadBytes } from "@/lib/store/tests";
-import { fieldErrors, optionalNumber, plausibleNumber, testDetailsSchema, recordId } from "../../../schemas";
+import { fieldErrors, plausibleNumber, recordId, stageDurationField, testDetailsSchema } from "../../../schemas";
 import { FIELD_LABEL, unitOptions, type FieldKey } from "./fieldChoices";
 
 export interface ColumnFormState {
@@ -38,7 +31,7 @@ const baseSchema = z.object({
   testId: recordId("test"),
   intent: z.enum(["reread", "save-profile"]),
   weightKg: plausibleNumber("weightKg"),
-  stageDurationS: optionalNumber(STAGE_DURATION_LIMITS_S.min, STAGE_DURATION_LIMITS_S.max, "Stage length (s)"),
+  stageDurationS: stageDurationField(),
   selectColumn: z.string().max(200).optional().default(""),
   selectValue: z.string().trim().max(200).optional().default(""),
   profileName: z.string().trim().max(80, "Keep the profile name under 80 characters").optional().default(""),
