@@ -65,6 +65,10 @@ function signedTest() {
   return { testId, first };
 }
 
+/** The body mass corrected after import, as the patient page does it (a new analysis version; INVENTED values). */
+const correctWeight = (testId: number, weightKg: number) =>
+  updatePatientDetails(testId, { ...record.patient, weightKg, ergometer: record.ergometer, referral: record.referral }, "tester");
+
 const tables = (r: ReturnType<typeof loadReport>) =>
   JSON.stringify([r!.model.patientLine, r!.model.keyValues, r!.model.thresholds]);
 
@@ -74,11 +78,7 @@ describe("a signed report keeps the record it was signed on", () => {
     const peakPerKg = first.result!.indices.peaks.vo2MlKgMin.value!;
     const before = listAnalysisVersions(testId).length;
     const weightKg = record.patient.weightKg!;
-    const change = updatePatientDetails(
-      testId,
-      { ...record.patient, weightKg: weightKg + 15, ergometer: record.ergometer, referral: record.referral },
-      "tester",
-    );
+    const change = correctWeight(testId, weightKg + 15);
     expect(change.ok).toBe(true);
     expect(listAnalysisVersions(testId)).toHaveLength(before + 1); // one version, not two
     const again = loadReport(testId, first.report.id)!;
@@ -102,11 +102,7 @@ describe("a signed report keeps the record it was signed on", () => {
     );
     expect(signed.ok).toBe(true);
     const weightKg = record.patient.weightKg!;
-    updatePatientDetails(
-      testId,
-      { ...record.patient, weightKg: weightKg + 15, ergometer: record.ergometer, referral: record.referral },
-      "tester",
-    );
+    correctWeight(testId, weightKg + 15);
     const carried = loadReport(testId)!.report.sections.find((s) => s.id === "conclusion")!;
     expect(carried.paragraphs).toEqual(["Reviewer's own conclusion (invented)."]);
     expect(carried.recheck?.reason).toMatch(/The numbers changed since it was written/);
@@ -306,11 +302,7 @@ describe("a signed report is kept as signed, and its history is marked", () => {
     const v1 = loadReport(testId)!;
     expect(signKept(testId, v1.report, "Dr A Example").ok).toBe(true);
     const weightKg = record.patient.weightKg!;
-    const change = updatePatientDetails(
-      testId,
-      { ...record.patient, weightKg: weightKg + 15, ergometer: record.ergometer, referral: record.referral },
-      "tester",
-    );
+    const change = correctWeight(testId, weightKg + 15);
     expect(change.ok).toBe(true);
     const draft = loadReport(testId)!.model;
     expect(draft.valueChanges?.sinceVersion).toBe(1);
@@ -335,11 +327,7 @@ describe("a signed report is kept as signed, and its history is marked", () => {
       /Signed before signed reports were kept as signed: rebuilt by engine \S+ from the record and settings/,
     );
     const weightKg = record.patient.weightKg!;
-    updatePatientDetails(
-      testId,
-      { ...record.patient, weightKg: weightKg + 10, ergometer: record.ergometer, referral: record.referral },
-      "tester",
-    );
+    correctWeight(testId, weightKg + 10);
     loadReport(testId); // the current report: a draft for the corrected data
     expect(loadReport(testId, first.report.id)!.model.versionNote).toMatch(
       /Changed after this version was signed: patient details changed: weight \d+ kg → \d+ kg\. The values here are those at signing; version 2, for the changed test, is an unsigned draft, and until it is signed this version remains the signed report\./,
