@@ -12,3 +12,4 @@ export * from "./describeInterpretationChanges";
 export * from "./carryForwardSections";
 export * from "./carryForwardDraft";
 export * from "./bandNote";
+export * from "./amendmentWords";

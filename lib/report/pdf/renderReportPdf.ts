@@ -8,6 +8,7 @@ import { renderChartSvg } from "../charts/renderChartSvg";
 import { SIGNER_NOT_VERIFIED } from "../caution";
 import { EVIDENCE_LEGEND } from "../sources";
 import type { ReportModel, ReportRow } from "../reportModel";
+import { amendmentWords } from "../amendmentWords";
 import { toPdfText } from "./pdfText";
 
 /**
@@ -149,31 +150,20 @@ function valuesTable(rows: ReportRow[], index: Map<string, number>): Content {
 }
 
 /** The amendment block of the first page: the version replaced, the signer's reason, the values that differ. */
-function amendmentContent(model: ReportModel, draft: boolean): Content | null {
-  const changes = model.valueChanges;
-  if (!model.amendment && !changes) return null;
-  const since = model.amendment?.revisesVersion ?? changes?.sinceVersion;
-  const lines: Content[] = [
-    {
-      text: [
-        { text: draft ? `Revises signed version ${since} (not signed yet).` : `Amends signed version ${since}.`, bold: true },
-        model.amendment ? ` Reason: ${model.amendment.reason}` : "",
-      ],
-    },
-  ];
-  if (changes)
+function amendmentContent(model: ReportModel): Content | null {
+  const words = amendmentWords(model);
+  if (!words) return null;
+  const lines: Content[] = [{ text: [{ text: words.heading, bold: true }, words.reason ? ` ${words.reason}` : ""] }];
+  if (words.changesIntro)
     lines.push(
-      changes.lines.length
+      words.lines.length
         ? {
             stack: [
-              { text: `Reported values that differ from version ${changes.sinceVersion}:`, margin: [0, 2, 0, 1] },
-              { ul: changes.lines.map((l) => ({ text: l })), fontSize: 8.5 },
+              { text: words.changesIntro, margin: [0, 2, 0, 1] },
+              { ul: words.lines.map((l) => ({ text: l })), fontSize: 8.5 },
             ],
           }
-        : {
-            text: `No key value, threshold or scheme result differs from version ${changes.sinceVersion}.`,
-            margin: [0, 2, 0, 0],
-          },
+        : { text: words.changesIntro, margin: [0, 2, 0, 0] },
     );
   return {
     table: { widths: ["*"], body: [[{ stack: lines, margin: [4, 3, 4, 3] }]] },
@@ -228,7 +218,7 @@ export async function renderReportPdf(rawModel: ReportModel, now: Date = new Dat
   }
 
   // an amendment says, on its first page, why it replaces the signed version and which reported values differ
-  const amendmentBlock = amendmentContent(model, draft);
+  const amendmentBlock = amendmentContent(model);
   if (amendmentBlock) content.push(amendmentBlock);
 
   content.push(heading("Key values"));

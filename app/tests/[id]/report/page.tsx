@@ -9,6 +9,7 @@ import { TableScroll } from "../../../components/TableScroll";
 import { DraftWorkspace } from "./DraftWorkspace";
 import { loadReport } from "./loadReport";
 import type { ReportModel } from "@/lib/report/reportModel";
+import { amendmentWords } from "@/lib/report/amendmentWords";
 import { ReportValuesTable } from "./ReportValuesTable";
 import { REPORT_NOTICE_SLOT } from "./schemas";
 import { formatUtcMinute } from "@/lib/units";
@@ -230,32 +231,27 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
  * version it replaces (for a draft: what signing it would change).
  */
 function AmendmentPanel({ model }: { model: ReportModel }) {
-  const changes = model.valueChanges;
-  if (!model.amendment && !changes) return null;
-  const since = model.amendment?.revisesVersion ?? changes?.sinceVersion;
+  const words = amendmentWords(model);
+  if (!words) return null;
   return (
     <section className="panel" data-testid="amendment-panel" aria-label="Amendment">
       <p style={{ margin: 0 }}>
-        <strong>
-          {model.status === "signed" ? `Amends signed version ${since}.` : `Revises signed version ${since} (not signed yet).`}
-        </strong>
-        {model.amendment ? <span data-testid="amendment-reason-shown"> Reason: {model.amendment.reason}</span> : null}
+        <strong>{words.heading}</strong>
+        {words.reason ? <span data-testid="amendment-reason-shown"> {words.reason}</span> : null}
       </p>
-      {changes ? (
-        changes.lines.length ? (
-          <>
-            <p style={{ margin: "0.4rem 0 0" }}>Reported values that differ from version {changes.sinceVersion}:</p>
-            <ul data-testid="amendment-changes" style={{ margin: "0.2rem 0 0" }}>
-              {changes.lines.map((l) => (
-                <li key={l}>{l}</li>
-              ))}
-            </ul>
-          </>
-        ) : (
-          <p style={{ margin: "0.4rem 0 0" }} data-testid="amendment-changes">
-            No key value, threshold or scheme result differs from version {changes.sinceVersion}.
-          </p>
-        )
+      {words.changesIntro && words.lines.length ? (
+        <>
+          <p style={{ margin: "0.4rem 0 0" }}>{words.changesIntro}</p>
+          <ul data-testid="amendment-changes" style={{ margin: "0.2rem 0 0" }}>
+            {words.lines.map((l) => (
+              <li key={l}>{l}</li>
+            ))}
+          </ul>
+        </>
+      ) : words.changesIntro ? (
+        <p style={{ margin: "0.4rem 0 0" }} data-testid="amendment-changes">
+          {words.changesIntro}
+        </p>
       ) : null}
     </section>
   );
