@@ -242,17 +242,20 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   }
   if (have(v.peakWorkW)) results.push(`Peak work rate ${val("peakWorkW", v.peakWorkW)}.`);
   if (have(v.peakHrBpm)) {
-    const against = [
-      ...[pctWords("hrPctPred", v.hrPctPred, pred.hrMax ? `, ${pred.hrMax}` : "")].filter((x): x is string => x !== null),
-      ...heartRateNotes(input.patient),
-    ];
+    const pctHr = pctWords("hrPctPred", v.hrPctPred, pred.hrMax ? `, ${pred.hrMax}` : "");
+    const against = [...(pctHr ? [pctHr] : []), ...heartRateNotes(input.patient)];
     results.push(
       `Peak heart rate ${val("peakHrBpm", v.peakHrBpm)}${against.length ? ` (${against.join("; ")})` : ""}${have(v.hrr1Bpm) ? `; recovery at 1 min ${val("hrr1Bpm", v.hrr1Bpm)}` : ""}.`,
     );
   }
   if (have(v.o2PulsePeakMlBeat)) {
+    const pctO2Pulse = pctWords(
+      "o2PulsePctPred",
+      v.o2PulsePctPred,
+      pred.o2Pulse?.includes("extrapolated") ? `, ${pred.o2Pulse}` : "",
+    );
     results.push(
-      `Peak O2 pulse ${val("o2PulsePeakMlBeat", v.o2PulsePeakMlBeat)}${((x) => (x ? ` (${x})` : ""))(pctWords("o2PulsePctPred", v.o2PulsePctPred, pred.o2Pulse?.includes("extrapolated") ? `, ${pred.o2Pulse}` : ""))}${v.o2PulsePlateau && !notRead.o2PulsePlateau ? ", flattening late in exercise" : ""}${input.patient.atrialFibrillation === true ? " (atrial fibrillation: not interpreted)" : ""}.`,
+      `Peak O2 pulse ${val("o2PulsePeakMlBeat", v.o2PulsePeakMlBeat)}${pctO2Pulse ? ` (${pctO2Pulse})` : ""}${v.o2PulsePlateau && !notRead.o2PulsePlateau ? ", flattening late in exercise" : ""}${input.patient.atrialFibrillation === true ? " (atrial fibrillation: not interpreted)" : ""}.`,
     );
   }
   const slopes: string[] = [];

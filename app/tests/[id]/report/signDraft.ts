@@ -52,14 +52,14 @@ function versionWords(r: StoredReport): string {
  * Checks every save and signature shares, inside their transaction: the version exists and is this test's, it is the
  * test's newest version (a page left open on an older one would otherwise write text nobody sees again, or sign it),
  * and the sections sent are this version's sections, in order. Returns the sections with the stored titles (a page
- * cannot rename or add a section; the caution section cannot be dropped).
+ * cannot rename or add a section; the caution section cannot be dropped) and the test's versions, newest first.
  */
 function checkVersion(
   testId: number,
   reportId: number,
   sent: readonly OnScreenSection[],
   doing: "saved" | "signed",
-): { current: StoredReport; sections: OnScreenSection[] } {
+): { current: StoredReport; sections: OnScreenSection[]; versions: StoredReport[] } {
   const current = getReport(reportId);
   if (!current)
     throw new Refusal({
@@ -67,7 +67,8 @@ function checkVersion(
     });
   if (current.testId !== testId)
     throw new Refusal({ form: `Not ${doing}: report version ${reportId} belongs to another test; reload the page.` });
-  const newest = listReports(testId)[0];
+  const versions = listReports(testId);
+  const newest = versions[0];
   if (newest && newest.id !== current.id)
     throw new Refusal({
       form:
@@ -90,7 +91,7 @@ function checkVersion(
     });
   }
   const titles = new Map(current.sections.map((s) => [s.id, s.title]));
-  return { current, sections: sent.map((s) => ({ ...s, title: titles.get(s.id) ?? s.title })) };
+  return { current, sections: sent.map((s) => ({ ...s, title: titles.get(s.id) ?? s.title })), versions };
 }
 
 export interface SaveDraftInput {
@@ -181,7 +182,7 @@ export function signDraft(
   const db = getDb();
   try {
     return db.transaction((): SignDraftResult => {
-      const { current, sections: sent } = checkVersion(input.testId, input.reportId, input.sections, "signed");
+      const { current, sections: sent, versions } = checkVersion(input.testId, input.reportId, input.sections, "signed");
       if (current.status === "signed")
         throw new Refusal({
           form: `This version was already signed by ${current.signedBy} on ${current.signedAt}. Reload the page to see it.`,
@@ -219,7 +220,7 @@ export function signDraft(
         });
       // an amended report says why it replaces the signed one (recalled practice for amended clinical reports: the
       // amendment is identified as such and explained; the minimum length is our choice)
-      const earlierSigned = listReports(input.testId).find((v) => v.id < current.id && v.status === "signed");
+      const earlierSigned = versions.find((v) => v.id < current.id && v.status === "signed");
       const reason = input.amendmentReason?.replace(/\s+/g, " ").trim() ?? "";
       if (earlierSigned && reason.length < AMENDMENT_REASON_MIN_CHARS)
         throw new Refusal({
