@@ -37,7 +37,7 @@ export const DRAFT_CHANGED_ELSEWHERE =
   "now would overwrite that text. Your text is still on screen: copy what you need, reload the page to see the saved " +
   "draft, and bring your changes into it.";
 
-/** Longest reason for an amendment (characters): a few sentences, printed on the report's first page. */
+/** Longest reason for an amendment (characters; our choice): a few sentences, printed on the report's first page. */
 export const AMENDMENT_REASON_MAX_CHARS = 500;
 
 /** Shortest reason for an amendment (characters, after collapsing spaces): "typo." passes, a blank or "x" does not. */
