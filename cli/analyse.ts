@@ -239,7 +239,10 @@ export function formatText(r: CliAnalysisJson, opts: Pick<AnalyseOptions, "betaB
   // % of the lab's predicted value, with the equation, where one was computed
   const pct = (q: string) => {
     const p = r.predicted[q];
-    return p && p.percentPredicted !== null ? `, ${p.percentPredicted.toFixed(0)} % predicted (${p.equationId})` : "";
+    if (!p || p.percentPredicted === null) return "";
+    // why it is not read, unless the heart-rate note beside it says so already
+    const why = p.notRead && !hrNote.includes(p.notRead) ? `; not read: ${p.notRead}` : "";
+    return `, ${p.percentPredicted.toFixed(0)} % predicted (${p.equationId}${why})`;
   };
   const perKg =
     r.peak.vo2MlKgMin !== null

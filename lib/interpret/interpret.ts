@@ -117,6 +117,23 @@ export function interpret(
         { field: "effort" },
       ),
     );
+  // the same reliance with a peak RER between that floor and the lab's maximal cut-off: within what FRIEND accepted, so
+  // an info line (said because heart rate alone still carries the verdict; common practice)
+  else if (
+    effort.restsOnLimit &&
+    limits.length === 1 &&
+    limits[0] === "hr-reached" &&
+    typeof rer === "number" &&
+    effort.criteria.some((c) => c.ruleId === "rer-maximal" && c.outcome === false)
+  )
+    issues.push(
+      makeIssue(
+        "info",
+        "effort-mainly-on-heart-rate",
+        `Effort is judged adequate mainly on heart rate: peak RER ${rer.toFixed(2)} is below the maximal-effort cut-off though not below ${EFFORT_RER_FLOOR.toFixed(2)}, and heart rate is the only other criterion met; predicted maximal heart rate varies by about 10 bpm between people.`,
+        { field: "effort" },
+      ),
+    );
   if (!effort.peakConclusionsAllowed) {
     issues.push(
       makeIssue(

@@ -1,6 +1,15 @@
 import type { Issue, Measured } from "../core";
 import type { AnalysisResult } from "../analysis";
+import { ATRIAL_FIBRILLATION_HR_NOTE, BETA_BLOCKER_HR_NOTE, type InterpretValues } from "../interpret";
 import { LACTATE_METHOD_NAMES, noiseCorrectedSlope, slopeToVt2Name, type ThresholdEstimate } from "../thresholds";
+
+/** The interpretation value that reads each predicted quantity's % predicted (the others are shown, not read). */
+const PCT_READ_AS: Record<string, keyof InterpretValues> = {
+  vo2PeakMlMin: "peakVo2PctPred",
+  vo2PeakMlKgMin: "peakVo2PctPred",
+  hrMaxBpm: "hrPctPred",
+  o2PulseMaxMlBeat: "o2PulsePctPred",
+};
 
 /**
  * The CLI's JSON object: a stable projection of the analysis result, documented by
@@ -28,7 +37,14 @@ export interface CliAnalysisJson {
     gradePct?: number | null;
     o2PulseMlBeat: number | null;
   };
-  predicted: Record<string, { value: number | null; unit: string; equationId: string; percentPredicted: number | null }>;
+  /**
+   * Predicted value per quantity. `notRead`: why the interpretation does not read this % predicted (a minor against an
+   * adult equation, VO2 not believable, a beta-blocker or atrial fibrillation for heart rate), or null when it is read.
+   */
+  predicted: Record<
+    string,
+    { value: number | null; unit: string; equationId: string; percentPredicted: number | null; notRead: string | null }
+  >;
   vt1: CliThreshold;
   vt2: CliThreshold;
   veVco2Slope: {
@@ -196,7 +212,13 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
         where: { field: `predicted.${q}.value` },
       });
     const cmp = result.comparisons.find((c) => c.predicted?.quantity === q);
-    predicted[q] = { value: pv.value, unit: pv.unit, equationId: pv.equationId, percentPredicted: cmp?.percentPredicted ?? null };
+    predicted[q] = {
+      value: pv.value,
+      unit: pv.unit,
+      equationId: pv.equationId,
+      percentPredicted: cmp?.percentPredicted ?? null,
+      notRead: cmp?.percentPredicted != null ? notReadReason(result, q) : null,
+    };
   }
   const lac = ix.lactate;
   const obla = lac?.thresholds.find((t) => t.id === "obla-4");
@@ -335,4 +357,18 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
     issues,
   };
   return json;
+}
+
+/** Why the interpretation does not read the % predicted of quantity `q`, in words; null when it reads it. */
+function notReadReason(result: AnalysisResult, q: string): string | null {
+  const key = PCT_READ_AS[q];
+  if (!key) return null;
+  const why = result.interpretInput.notRead?.[key];
+  if (why) return why;
+  const patient = result.interpretInput.patient;
+  if (key === "hrPctPred" || key === "o2PulsePctPred") {
+    if (patient.atrialFibrillation === true) return ATRIAL_FIBRILLATION_HR_NOTE;
+    if (key === "hrPctPred" && patient.betaBlocker === true) return BETA_BLOCKER_HR_NOTE;
+  }
+  return null;
 }

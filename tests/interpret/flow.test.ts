@@ -249,6 +249,17 @@ describe("effort when peak RER is missing", () => {
     const steps = composeDraft(baseInput({ peakRer: 0.97, hrPctPred: 95 }), r).sections.find((s) => s.id === "pathway")!;
     expect(steps.paragraphs[0]).toMatch(/^Test validity and effort: .+ \(on heart rate alone; see the data-quality warning\)\.$/);
   });
+
+  it("heart rate alone with peak RER 1.02 or 1.05 (not above the default > 1.05 of ERS 2019, confirmed) gets an info line", () => {
+    const info = (over: Partial<InterpretInput["values"]>) =>
+      interpret(baseInput({ hrPctPred: 95, ...over })).issues.find((i) => i.code === "effort-mainly-on-heart-rate");
+    expect(info({ peakRer: 1.02 })?.severity).toBe("info");
+    expect(info({ peakRer: 1.05 })?.message).toContain("peak RER 1.05 is below the maximal-effort cut-off though not below 1.00");
+    // not with RER above the cut-off, not with a second criterion, not below the floor (the warning says it there)
+    expect(info({ peakRer: 1.06 })).toBeUndefined();
+    expect(info({ peakRer: 1.02, vo2Plateau: true })).toBeUndefined();
+    expect(info({ peakRer: 0.97 })).toBeUndefined();
+  });
 });
 
 describe("submaximal test: the ventilatory-efficiency step names what it read (invented values)", () => {
