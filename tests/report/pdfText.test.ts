@@ -14,6 +14,7 @@ import {
 /** The part of fontkit's font object this test reads (fontkit ships no types). */
 interface FontkitFont {
   postscriptName: string;
+  name: { records: Record<string, Record<string, string> | undefined> };
   characterSet: number[];
   glyphForCodePoint(codePoint: number): { id: number };
 }
@@ -42,6 +43,18 @@ function asRanges(codePoints: number[]): string {
 }
 
 const tableCodePoints = (): number[] => PDF_FONT_RANGES.flatMap(([a, b]) => Array.from({ length: b - a + 1 }, (_, i) => a + i));
+
+describe("the embedded font's licence", () => {
+  // The fonts are not in this repository; pdfmake's package brings them, and each PDF embeds a subset. The font files'
+  // own name tables (record 13, licence description) say which licence that is: SIL Open Font License 1.1, which allows
+  // embedding in documents. A pdfmake update that ships fonts under another licence fails here and must be read first.
+  it("is the SIL Open Font License 1.1 in all four faces, as their name tables say", () => {
+    for (const face of FACES) {
+      expect(face.name.records.license?.en, face.postscriptName).toMatch(/SIL Open Font License, Version 1\.1/);
+      expect(face.name.records.copyright?.en, face.postscriptName).toMatch(/The Roboto Project Authors/);
+    }
+  });
+});
 
 describe("the checked coverage table", () => {
   it("is exactly what all four embedded Roboto faces map (their cmaps, read with fontkit)", () => {

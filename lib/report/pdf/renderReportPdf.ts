@@ -15,6 +15,8 @@ import { toPdfText } from "./pdfText";
  * The embedded report font: Roboto as shipped with pdfmake, one file per face (Medium serves as bold). Located from
  * the working directory (the app and the tests run from the project root), which works whether or not the server
  * code is bundled. pdfkit embeds the subset of glyphs a PDF uses. What these files can print is `pdfText.ts`.
+ * Licence: the files' name tables say SIL Open Font License 1.1 (Roboto 3.014, "The Roboto Project Authors"), which
+ * allows embedding in documents; the files are not copied into this repository (test: `tests/report/pdfText.test.ts`).
  */
 const FONT_DIR = path.join(process.cwd(), "node_modules", "pdfmake", "fonts", "Roboto");
 const PDF_FONT_FILES = {
