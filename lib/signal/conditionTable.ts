@@ -3,6 +3,7 @@ import type { BreathTable } from "../breath";
 import { averageSeries, averagingLabel } from "./averageSeries";
 import { detectPhases, type PhaseOptions } from "./detectPhases";
 import { DEFAULT_ARTEFACT_RULE, DEFAULT_RER_LIMITS, rejectArtefacts } from "./rejectArtefacts";
+import { findVo2Fall, vo2FallIssue } from "./vo2Falls";
 import type { ArtefactRule, AveragingSpec, ConditionedTest, ConditioningRecord } from "./types";
 
 /** Conditioning settings: plain data, stored with the analysis so the result can be reproduced. */
@@ -18,7 +19,8 @@ export interface ConditioningSettings {
 
 /**
  * Condition an imported table: artefact-breath rejection (`rejectArtefacts`), averaging
- * (`averageSeries`) and phases with the ramp rate (`detectPhases`, on the clean, unaveraged breaths).
+ * (`averageSeries`) and phases with the ramp rate (`detectPhases`, on the clean, unaveraged breaths), then a check for
+ * a sustained fall of VO2 in exercise (`findVo2Fall`, warning `vo2-falls-in-exercise`).
  * Stage tables skip the local-deviation rule (stage means are not breaths) and are not averaged.
  * The settings used are returned in `settings`. The input table is not mutated.
  */
@@ -40,6 +42,8 @@ export function conditionTable(table: BreathTable, settings: ConditioningSetting
   const art = rejectArtefacts(table.rows, { rule: record.artefacts, rer: record.rer, stageRows: table.shape === "stage" });
   const averaged = averageSeries(art.clean, averaging);
   const ph = detectPhases(art.clean, settings.phases);
+  // a sustained fall of VO2 at a held or rising load is a technical fault to check, not physiology (vo2Falls.ts)
+  const fall = table.shape !== "stage" && ph.exercise ? findVo2Fall(art.clean, ph.exercise) : null;
   return {
     shape: table.shape,
     clean: art.clean,
@@ -50,7 +54,7 @@ export function conditionTable(table: BreathTable, settings: ConditioningSetting
     exercise: ph.exercise,
     rampRateWPerMin: ph.rampRateWPerMin,
     rampRateR2: ph.rampRateR2,
-    issues: [...art.issues, ...ph.issues],
+    issues: [...art.issues, ...ph.issues, ...(fall ? [vo2FallIssue(fall)] : [])],
     settings: record,
   };
 }

@@ -7,3 +7,4 @@ export * from "./resampleToGrid";
 export * from "./detectPhases";
 export * from "./conditionTable";
 export * from "./rowSpacing";
+export * from "./vo2Falls";
