@@ -27,6 +27,8 @@ interface AnalyseOptions {
   referral: string;
   select: Record<string, string>;
   exerciseSpan?: { startS: number; endS: number };
+  /** Spans of the record set aside by hand (a leak, a run of coughs), each m:ss-m:ss. */
+  setAside?: { startS: number; endS: number }[];
 }
 
 export function registerAnalyse(program: Command): void {
@@ -80,6 +82,12 @@ export function registerAnalyse(program: Command): void {
       "the incremental exercise phase set by hand, m:ss-m:ss or seconds (e.g. 6:00-16:30), instead of the detected one",
       parseExerciseSpan,
     )
+    .option(
+      "--set-aside <start-end>",
+      "a span of the record whose breaths are not used (a leak, a run of coughs), m:ss-m:ss or seconds; repeatable",
+      collectSetAside,
+      [],
+    )
     .addHelpText("after", EXIT_STATUS_HELP)
     .action(async (file: string, opts: AnalyseOptions) => {
       const result = await runAnalyse(file, opts);
@@ -119,13 +127,21 @@ function parseStageSeconds(raw: string): number {
   return n;
 }
 
-/** "6:00-16:30" or "360-990": start and end of the exercise phase on the file's clock, s. */
-function parseExerciseSpan(raw: string): { startS: number; endS: number } {
+/** "6:00-16:30" or "360-990": start and end of a span on the file's clock, s. */
+function parseSpan(flag: string, raw: string): { startS: number; endS: number } {
   const parts = raw.split("-");
   const [startS, endS] = parts.length === 2 ? parts.map(parseTimeText) : [NaN, NaN];
   if (!Number.isFinite(startS) || !Number.isFinite(endS) || !(endS > startS))
-    throw new UsageError(`--exercise-span needs start-end as m:ss-m:ss or seconds with the end after the start, got "${raw}"`);
+    throw new UsageError(`${flag} needs start-end as m:ss-m:ss or seconds with the end after the start, got "${raw}"`);
   return { startS, endS };
+}
+
+function parseExerciseSpan(raw: string): { startS: number; endS: number } {
+  return parseSpan("--exercise-span", raw);
+}
+
+function collectSetAside(raw: string, acc: { startS: number; endS: number }[]): { startS: number; endS: number }[] {
+  return [...acc, parseSpan("--set-aside", raw)];
 }
 
 function collectSelect(raw: string, acc: Record<string, string>): Record<string, string> {
@@ -203,24 +219,29 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
     record.lactate = lac.samples;
     record.importIssues = [...record.importIssues, ...lac.issues];
   }
-  if (opts.exerciseSpan) {
-    // a span outside the record is a mistake in the command, not a clinical data problem: refused, like other options
-    const rows = record.table.rows;
-    const first = rows[0].timeS;
-    const last = rows[rows.length - 1].timeS;
-    const { startS, endS } = opts.exerciseSpan;
+  // a span outside the record is a mistake in the command, not a clinical data problem: refused, like other options
+  const rows = record.table.rows;
+  const first = rows[0].timeS;
+  const last = rows[rows.length - 1].timeS;
+  const spans: [string, { startS: number; endS: number }][] = [
+    ...(opts.exerciseSpan ? [["--exercise-span", opts.exerciseSpan] as [string, { startS: number; endS: number }]] : []),
+    ...(opts.setAside ?? []).map((s) => ["--set-aside", s] as [string, { startS: number; endS: number }]),
+  ];
+  for (const [flag, { startS, endS }] of spans)
     if (startS < first || endS > last) {
       const relative = record.importIssues.some((i) => i.code === "time-made-relative")
         ? " The file's clock times of day were counted from its first row, so give the span from there."
         : "";
       throw new UsageError(
-        `--exercise-span ${formatClock(startS)}-${formatClock(endS)} does not lie inside the record (${formatClock(first)}-${formatClock(last)}).${relative}`,
+        `${flag} ${formatClock(startS)}-${formatClock(endS)} does not lie inside the record (${formatClock(first)}-${formatClock(last)}).${relative}`,
       );
     }
-  }
-  const settings = opts.exerciseSpan
-    ? { conditioning: { phases: { exerciseSpan: { ...opts.exerciseSpan, reason: "set with --exercise-span" } } } }
-    : {};
+  const settings = {
+    conditioning: {
+      ...(opts.exerciseSpan ? { phases: { exerciseSpan: { ...opts.exerciseSpan, reason: "set with --exercise-span" } } } : {}),
+      ...(opts.setAside?.length ? { setAside: opts.setAside.map((s) => ({ ...s, reason: "set with --set-aside" })) } : {}),
+    },
+  };
   return toCliJson(analyse(record, settings), CLINICAL_CAUTION);
 }
 

@@ -155,3 +155,33 @@ test("a reviewer sets the exercise phase by hand: a new version, refused when th
   await box.getByRole("button", { name: "Use the detected phase again" }).click();
   await expect(page.getByTestId("versions")).toContainText("exercise phase set by review removed");
 });
+
+test("a reviewer sets a span of breaths aside: refused without a reason, recomputed as a new version, and put back", async ({
+  page,
+}) => {
+  await openDemo(page, /COPD, ventilatory limitation/);
+  const box = page.getByTestId("set-aside");
+  await box.getByText("set breaths aside by hand").click();
+  await box.locator('[name="start"]').fill("8:00");
+  await box.locator('[name="end"]').fill("8:30");
+  await box.locator('[name="by"]').fill("E2E Reviewer");
+  // no reason: refused, and the typed times are kept
+  await box.getByRole("button", { name: "Set these breaths aside" }).click();
+  await expect(box).toContainText("Give the reason");
+  await expect(box.locator('[name="start"]')).toHaveValue("8:00");
+  await box.locator('[name="reason"]').fill("mask leak noted on the test log");
+  await box.getByRole("button", { name: "Set these breaths aside" }).click();
+  await expect(box).toContainText("Span set aside in a new analysis version");
+  await expect(page.getByTestId("versions")).toContainText("breaths 8:00–8:30 set aside: mask leak noted on the test log");
+  await expect(box).toContainText("(1 span set aside)");
+  await expect(box).toContainText("8:00–8:30: mask leak noted on the test log, by E2E Reviewer");
+  // the data-quality list says how many breaths went and why, and the list of removed breaths names each
+  await expect(page.locator('[data-code="breaths-set-aside-by-review"]').first()).toContainText(
+    /\d+ breath\(s\) from 8:00 to 8:30 were set aside by review: mask leak noted on the test log, by E2E Reviewer\./,
+  );
+  await expect(page.getByText(/set aside by review \(8:00–8:30\): mask leak noted on the test log/).first()).toBeAttached();
+  await expect(page.getByTestId("clinical-caution")).toBeVisible();
+  await box.getByRole("button", { name: "Use these breaths again" }).click();
+  await expect(page.getByTestId("versions")).toContainText("breaths 8:00–8:30 used again");
+  await expect(box).not.toContainText("span set aside");
+});

@@ -342,8 +342,13 @@ export function buildReportModel(
     ),
   ];
   if (ix.lactate) methods.push(lactateMethods(ix.lactate));
-  if (result.conditioned.removed.length > 0)
-    methods.push(`${result.conditioned.removed.length} breath values were set aside as artefacts before analysis.`);
+  // spans a reviewer set aside are named with their reasons; the automatic screens are counted apart
+  const byReview = result.conditioned.settings?.setAside ?? [];
+  const reviewed = result.conditioned.removed.filter((r) => r.reason.startsWith("set aside by review")).length;
+  const automatic = result.conditioned.removed.length - reviewed;
+  for (const span of byReview)
+    methods.push(`Set aside by review before analysis: ${formatClock(span.startS)}–${formatClock(span.endS)} (${span.reason}).`);
+  if (automatic > 0) methods.push(`${automatic} breath values were set aside as artefacts before analysis.`);
 
   return {
     title: `Cardiopulmonary exercise test report: ${label}`,

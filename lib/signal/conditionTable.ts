@@ -4,7 +4,7 @@ import { averageSeries, averagingLabel } from "./averageSeries";
 import { detectPhases, type PhaseOptions } from "./detectPhases";
 import { DEFAULT_ARTEFACT_RULE, DEFAULT_RER_LIMITS, rejectArtefacts } from "./rejectArtefacts";
 import { findVo2Fall, vo2FallIssue } from "./vo2Falls";
-import type { ArtefactRule, AveragingSpec, ConditionedTest, ConditioningRecord } from "./types";
+import type { ArtefactRule, AveragingSpec, SetAsideSpan, ConditionedTest, ConditioningRecord } from "./types";
 
 /** Conditioning settings: plain data, stored with the analysis so the result can be reproduced. */
 export interface ConditioningSettings {
@@ -14,6 +14,8 @@ export interface ConditioningSettings {
   artefacts?: Partial<ArtefactRule>;
   /** RER screen. @default { min: 0.5, max: 2 } */
   rer?: { min: number; max: number };
+  /** Spans a reviewer set aside (a leak, a run of coughs, a pause); their breaths are not used. @default [] */
+  setAside?: SetAsideSpan[];
   phases?: PhaseOptions;
 }
 
@@ -38,8 +40,14 @@ export function conditionTable(table: BreathTable, settings: ConditioningSetting
     averaging,
     artefacts: { ...DEFAULT_ARTEFACT_RULE, ...settings.artefacts },
     rer: settings.rer ?? { ...DEFAULT_RER_LIMITS },
+    ...(settings.setAside?.length ? { setAside: settings.setAside.map((s) => ({ ...s })) } : {}),
   };
-  const art = rejectArtefacts(table.rows, { rule: record.artefacts, rer: record.rer, stageRows: table.shape === "stage" });
+  const art = rejectArtefacts(table.rows, {
+    rule: record.artefacts,
+    rer: record.rer,
+    stageRows: table.shape === "stage",
+    setAside: record.setAside,
+  });
   const averaged = averageSeries(art.clean, averaging);
   const ph = detectPhases(art.clean, settings.phases);
   // a sustained fall of VO2 at a held or rising load is a technical fault to check, not physiology (vo2Falls.ts)

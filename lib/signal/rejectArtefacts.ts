@@ -1,6 +1,7 @@
 import { makeIssue, type Issue } from "../core";
 import { isolatedBreaths, type BreathRow, type NumericField } from "../breath";
-import type { ArtefactRule, RemovedBreath } from "./types";
+import { formatClock } from "../units";
+import type { ArtefactRule, RemovedBreath, SetAsideSpan } from "./types";
 
 /** Default artefact rule: 4 SD from the local mean of 5 breaths on each side, on VO2, VCO2 and VE. */
 export const DEFAULT_ARTEFACT_RULE: ArtefactRule = {
@@ -20,6 +21,8 @@ export interface ArtefactOptions {
   rer?: { min: number; max: number };
   /** Stage tables: only the RER and impossible-value screens apply. @default false */
   stageRows?: boolean;
+  /** Spans a reviewer set aside: every row inside is removed first, with the reviewer's reason. @default [] */
+  setAside?: readonly SetAsideSpan[];
 }
 
 export interface ArtefactResult {
@@ -65,10 +68,38 @@ export function rejectArtefacts(rows: readonly BreathRow[], options: ArtefactOpt
   const rer = options.rer ?? DEFAULT_RER_LIMITS;
   const issues: Issue[] = [];
   const removedAt = new Map<number, RemovedBreath>();
+  // 0. spans set aside by a reviewer (a leak, a run of coughs, a pause): removed before any rule looks at them
+  for (const span of options.setAside ?? []) {
+    let count = 0;
+    rows.forEach((r, index) => {
+      if (r.timeS < span.startS || r.timeS > span.endS || removedAt.has(index)) return;
+      const field = (["vo2MlMin", "vco2MlMin", "veLMin", "hrBpm"] as const).find((f) => typeof r[f] === "number") ?? "vo2MlMin";
+      removedAt.set(index, {
+        index,
+        timeS: r.timeS,
+        sourceRow: r.sourceRow,
+        field,
+        value: r[field] ?? NaN,
+        reason: `set aside by review (${formatClock(span.startS)}–${formatClock(span.endS)}): ${span.reason}`,
+      });
+      count++;
+    });
+    issues.push(
+      makeIssue(
+        count > 0 ? "info" : "warning",
+        "breaths-set-aside-by-review",
+        count > 0
+          ? `${count} ${options.stageRows ? "row(s)" : "breath(s)"} from ${formatClock(span.startS)} to ${formatClock(span.endS)} were set aside by review: ${span.reason}.`
+          : `The span set aside by review, ${formatClock(span.startS)} to ${formatClock(span.endS)}, holds no rows: nothing was set aside there.`,
+        { timeS: span.startS },
+      ),
+    );
+  }
   // 1. screens
   let rerCount = 0;
   let impossible = 0;
   rows.forEach((r, index) => {
+    if (removedAt.has(index)) return;
     for (const f of ["vo2MlMin", "vco2MlMin", "veLMin"] as const) {
       const v = r[f];
       if (v !== undefined && !(v > 0)) {

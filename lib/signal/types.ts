@@ -54,6 +54,16 @@ export interface ConditioningRecord {
   artefacts: ArtefactRule;
   /** Breaths with RER outside [min, max] are set aside. @default { min: 0.5, max: 2 } */
   rer: { min: number; max: number };
+  /** Spans a reviewer set aside (every breath inside, ends included), with the reason. @default [] */
+  setAside?: SetAsideSpan[];
+}
+
+/** A span of the record a reviewer set aside as faulty (a leak, a cough run, a pause): its breaths are not used. */
+export interface SetAsideSpan {
+  startS: number;
+  endS: number;
+  /** Why, and by whom ("mask leak seen on the test log, by J. Smith"). */
+  reason: string;
 }
 
 /** The imported table after conditioning: what every measurement in lib/thresholds starts from. */

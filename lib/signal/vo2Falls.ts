@@ -94,7 +94,7 @@ export function vo2FallIssue(fall: Vo2Fall): Issue {
   return makeIssue(
     "warning",
     "vo2-falls-in-exercise",
-    `VO2 fell by ${pct} % during exercise while the load did not fall: its ${VO2_FALL_WINDOW_S}-s mean went from ${Math.round(fall.highMlMin)} mL/min (window ending ${formatClock(fall.highS)}) to ${Math.round(fall.lowMlMin)} mL/min (ending ${formatClock(fall.lowS)}). A mask or sampling-line leak, a gas-analyser fault or a pause in pedalling or walking can do this: check the record there. Values read across that time (VT1, VT2, the slopes, ΔVO2/ΔWR, peak VO2) may not describe the patient.`,
+    `VO2 fell by ${pct} % during exercise while the load did not fall: its ${VO2_FALL_WINDOW_S}-s mean went from ${Math.round(fall.highMlMin)} mL/min (window ending ${formatClock(fall.highS)}) to ${Math.round(fall.lowMlMin)} mL/min (ending ${formatClock(fall.lowS)}). A mask or sampling-line leak, a gas-analyser fault or a pause in pedalling or walking can do this: check the record there, and if it is a fault, set those breaths aside by hand. Values read across that time (VT1, VT2, the slopes, ΔVO2/ΔWR, peak VO2) may not describe the patient.`,
     { field: "vo2MlMin", timeS: fall.lowS },
   );
 }

@@ -170,7 +170,7 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
       makeIssue(
         "warning",
         "peak-vo2-before-end",
-        `The highest ${windowS}-s VO2 (${Math.round(vo2Found.m.value)} mL/min, ${Math.round(vo2Found.win!.startS)}–${Math.round(vo2Found.win!.endS)} s) ends ${Math.round(early)} s before the end of exercise, where VO2 is usually highest. Check the breaths in that window for artefacts (a burst of high values, a mask or sampling fault) and that the exercise phase ends where the load stopped: peak VO2 and the values read in its window (RER, O2 pulse) depend on it.`,
+        `The highest ${windowS}-s VO2 (${Math.round(vo2Found.m.value)} mL/min, ${Math.round(vo2Found.win!.startS)}–${Math.round(vo2Found.win!.endS)} s) ends ${Math.round(early)} s before the end of exercise, where VO2 is usually highest. Check the breaths in that window for artefacts (a burst of high values, a mask or sampling fault; set them aside by hand if so) and that the exercise phase ends where the load stopped: peak VO2 and the values read in its window (RER, O2 pulse) depend on it.`,
         { field: "peak.vo2MlMin" },
       ),
     );

@@ -105,3 +105,30 @@ describe("rejectArtefacts (local mean ± k SD, convention counted by doi 10.1055
     expect(rejectArtefacts(rows, { stageRows: true }).removed).toEqual([]);
   });
 });
+
+describe("spans set aside by review", () => {
+  it("removes exactly the breaths inside the span (ends included), with the reviewer's reason, before the screens", () => {
+    const rows = series([]);
+    // breaths 100..120 lie at 250.0..300.0 s (2.5 s apart)
+    const r = rejectArtefacts(rows, { setAside: [{ startS: 250, endS: 300, reason: "mask leak on the log, by A. Reviewer" }] });
+    expect(r.removed.map((x) => x.index)).toEqual(Array.from({ length: 21 }, (_, i) => 100 + i));
+    expect(r.removed[0].reason).toBe("set aside by review (4:10–5:00): mask leak on the log, by A. Reviewer");
+    expect(r.clean).toHaveLength(379);
+    const info = r.issues.find((i) => i.code === "breaths-set-aside-by-review")!;
+    expect(info.severity).toBe("info");
+    expect(info.message).toBe("21 breath(s) from 4:10 to 5:00 were set aside by review: mask leak on the log, by A. Reviewer.");
+  });
+
+  it("a spike inside a set-aside span is set aside once, by review; one outside is still found by the rule", () => {
+    const r = rejectArtefacts(series([110, 300]), { setAside: [{ startS: 250, endS: 300, reason: "cough run" }] });
+    expect(r.removed.filter((x) => x.index === 110)).toHaveLength(1);
+    expect(r.removed.find((x) => x.index === 110)!.reason).toMatch(/^set aside by review/);
+    expect(r.removed.find((x) => x.index === 300)!.reason).toMatch(/lies .* SD from the local mean/);
+  });
+
+  it("a span that holds no breath says so as a warning and removes nothing", () => {
+    const r = rejectArtefacts(series([]), { setAside: [{ startS: 251, endS: 252, reason: "between two breaths" }] });
+    expect(r.removed).toHaveLength(0);
+    expect(r.issues.find((i) => i.code === "breaths-set-aside-by-review")?.severity).toBe("warning");
+  });
+});

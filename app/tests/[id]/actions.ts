@@ -225,6 +225,81 @@ export async function saveExerciseSpan(_prev: FormState, form: FormData): Promis
   return { ok: "Exercise phase saved as a new analysis version; thresholds and all indices were recomputed." };
 }
 
+/** At most this many spans set aside per test (our choice: more would be a different recording). */
+const MAX_SET_ASIDE_SPANS = 20;
+
+const setAsideSchema = z
+  .object({
+    testId: recordId("test"),
+    start: clockOrSeconds("Start"),
+    end: clockOrSeconds("End"),
+    reason: z.string().trim().min(5, "Give the reason (at least a few words)").max(300),
+    by: z.string().trim().min(2, "Say who is setting the breaths aside").max(80),
+  })
+  .refine((o) => o.end > o.start, { message: "The end must come after the start", path: ["end"] });
+
+/** A reviewer sets a span of breaths aside (a leak, a run of coughs): a new settings version; everything is recomputed. */
+export async function saveSetAside(_prev: FormState, form: FormData): Promise<FormState> {
+  const values = formValues(form);
+  const parsed = setAsideSchema.safeParse(values);
+  if (!parsed.success) return { errors: errorsOf(parsed.error), values };
+  const o = parsed.data;
+  const record = getTest(o.testId)?.record;
+  if (!record || record.table.rows.length < 2) return { errors: { form: "This test has no usable data." }, values };
+  const stale = settingsChangedSince(o.testId, values.versionToken);
+  if (stale) return { errors: { form: stale }, values };
+  const first = record.table.rows[0].timeS;
+  const last = record.table.rows[record.table.rows.length - 1].timeS;
+  if (o.start < first || o.end > last)
+    return {
+      errors: { start: `The span must lie inside the record (${formatClock(first)} to ${formatClock(last)}).` },
+      values,
+    };
+  const current = effectiveSettings(o.testId, getLabDefaults());
+  const spans = current.conditioning?.setAside ?? [];
+  if (spans.length >= MAX_SET_ASIDE_SPANS)
+    return { errors: { form: `At most ${MAX_SET_ASIDE_SPANS} spans can be set aside; restore one first.` }, values };
+  const settings: AnalysisSettings = {
+    ...current,
+    conditioning: {
+      ...current.conditioning,
+      setAside: [...spans, { startS: o.start, endS: o.end, reason: `${o.reason}, by ${o.by}` }],
+    },
+  };
+  saveAnalysisVersion(
+    o.testId,
+    settings,
+    ENGINE_VERSION,
+    o.by,
+    `breaths ${formatClock(o.start)}–${formatClock(o.end)} set aside: ${o.reason}`,
+  );
+  revalidatePath(`/tests/${o.testId}`);
+  return { ok: "Span set aside in a new analysis version; thresholds and all indices were recomputed without it." };
+}
+
+/** Put a set-aside span back (by its place in the list): a new settings version. */
+const restoreSchema = z.object({ testId: recordId("test"), span: z.coerce.number().int().min(0).max(MAX_SET_ASIDE_SPANS) });
+
+export async function restoreSetAside(form: FormData): Promise<void> {
+  const values = formValues(form);
+  const parsed = restoreSchema.safeParse(values);
+  // a page opened before another change may list the spans in another order: nothing is restored from it
+  if (!parsed.success || settingsChangedSince(parsed.data.testId, values.versionToken)) return;
+  const { testId, span: at } = parsed.data;
+  const current = latestSettings(testId)?.settings;
+  const spans = current?.conditioning?.setAside ?? [];
+  if (!current || at >= spans.length) return;
+  const gone = spans[at];
+  saveAnalysisVersion(
+    testId,
+    { ...current, conditioning: { ...current.conditioning, setAside: spans.filter((_, i) => i !== at) } },
+    ENGINE_VERSION,
+    "local user",
+    `breaths ${formatClock(gone.startS)}–${formatClock(gone.endS)} used again`,
+  );
+  revalidatePath(`/tests/${testId}`);
+}
+
 export async function clearExerciseSpan(form: FormData): Promise<void> {
   const testId = Number(form.get("testId"));
   const current = latestSettings(testId)?.settings;

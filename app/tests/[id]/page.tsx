@@ -25,6 +25,7 @@ import { FIELD_LABEL, readAsShortText, shortFieldLabel, type FieldKey } from "./
 import { loadColumnReview } from "./columns/loadColumnReview";
 import { fmt, HowFound, SourceList } from "./parts/HowFound";
 import { ExerciseSpanForm } from "./parts/ExerciseSpanForm";
+import { SetAsideForm } from "./parts/SetAsideForm";
 import { OverrideForm } from "./parts/OverrideForm";
 import { SettingsForm } from "./parts/SettingsForm";
 import { SeverityScale } from "./parts/SeverityScale";
@@ -659,7 +660,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           {result.conditioned.removed.slice(0, 200).map((r) => (
             <li key={`${r.index}-${r.field}`}>
               {formatClock(r.timeS)} {r.field in FIELD_LABEL ? shortFieldLabel(r.field as FieldKey) : "value"}{" "}
-              {r.value.toFixed(1)}: {r.reason}
+              {Number.isFinite(r.value) ? r.value.toFixed(1) : "—"}: {r.reason}
             </li>
           ))}
         </ul>
@@ -673,6 +674,13 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
             : null
         }
         byReview={result.conditioned.phases.some((ph) => ph.source === "reviewer")}
+      />
+      <SetAsideForm
+        testId={testId}
+        versionToken={versionToken}
+        spans={(result.conditioned.settings?.setAside ?? []).map((s) => ({
+          label: `${formatClock(s.startS)}–${formatClock(s.endS)}: ${s.reason}`,
+        }))}
       />
       <h3>How the file was read</h3>
       <ColumnTable columns={test.importColumns} />
