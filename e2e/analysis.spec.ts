@@ -1,4 +1,6 @@
 import { expect, test } from "@playwright/test";
+import fs from "node:fs";
+import path from "node:path";
 
 // The register seeds six INVENTED demo cases on first start (lib/store/demoCases.ts).
 async function openDemo(page: import("@playwright/test").Page, label: RegExp) {
@@ -184,4 +186,49 @@ test("a reviewer sets a span of breaths aside: refused without a reason, recompu
   await box.getByRole("button", { name: "Use these breaths again" }).click();
   await expect(page.getByTestId("versions")).toContainText("breaths 8:00–8:30 used again");
   await expect(box).not.toContainText("span set aside");
+});
+
+test("VO2 that rose implausibly little is not read until a reviewer says the cart was checked, and can be doubted again", async ({
+  page,
+}) => {
+  // INVENTED: the normal-adult demo file with every gas volume scaled by 0.4, as a mask losing most of each breath would
+  const lines = fs.readFileSync(path.join(__dirname, "../tests/fixtures/cases/normal-adult.csv"), "utf8").trim().split("\n");
+  const header = lines[1].split(",");
+  const scaled = new Set(["vo2_ml_min", "vco2_ml_min", "ve_l_min"].map((c) => header.indexOf(c)));
+  const body = lines.slice(2).map((l) =>
+    l
+      .split(",")
+      .map((x, i) => (scaled.has(i) ? String(Number(x) * 0.4) : x))
+      .join(","),
+  );
+  const csv = ["# INVENTED leak variant of a synthetic test", lines[1], ...body].join("\n");
+  await page.goto("/");
+  const form = page.getByTestId("upload-form");
+  await form.locator('[name="label"]').fill("E2E invented leak");
+  await form.locator('[name="sex"]').selectOption("male");
+  await form.locator('[name="ageY"]').fill("45");
+  await form.locator('[name="heightCm"]').fill("178");
+  await form.locator('[name="weightKg"]').fill("80");
+  await form.locator('[name="ergometer"]').selectOption("cycle");
+  await page.getByTestId("upload-file").setInputFiles({ name: "leak.csv", mimeType: "text/csv", buffer: Buffer.from(csv) });
+  await page.getByTestId("upload-submit").click();
+  await page.waitForURL(/\/tests\/\d+$/);
+  await expect(page.locator('[data-code="vo2-too-low-for-work"]')).toContainText(
+    "VO2-based values are shown but not interpreted",
+  );
+  const box = page.getByTestId("vo2-checked");
+  await box.getByText("read VO2-based values after checking the cart").click();
+  await box.locator('[name="by"]').fill("E2E Reviewer");
+  await box.getByRole("button", { name: "Read VO2-based values" }).click();
+  await expect(box).toContainText("Say what was checked");
+  await box.locator('[name="reason"]').fill("calibration and a biological control checked");
+  await box.getByRole("button", { name: "Read VO2-based values" }).click();
+  await expect(page.locator('[data-code="vo2-read-at-review"]')).toContainText(
+    "read all the same, at a reviewer's word: calibration and a biological control checked, by E2E Reviewer",
+  );
+  await expect(page.getByTestId("versions")).toContainText("VO2-based values read after a check");
+  await expect(page.getByTestId("clinical-caution")).toBeVisible();
+  await page.getByTestId("vo2-checked").getByRole("button", { name: "Stop reading VO2-based values" }).click();
+  await expect(page.locator('[data-code="vo2-too-low-for-work"]')).toBeVisible();
+  await expect(page.getByTestId("versions")).toContainText("VO2-based values no longer read");
 });

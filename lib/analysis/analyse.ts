@@ -76,7 +76,17 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
   const weightBasis =
     peakVo2 !== null ? assessWeightBasis(peakVo2, record.patient, record.ergometer, { labSettings, reducedBelow }) : null;
   const peakRr = peakOverWindow(test.clean, "rrBrMin", { unit: "1/min", windowS: settings.peakWindowS ?? 30 });
-  const interpretInput = toInterpretInput(record, thresholds, indices, predicted, comparisons, peakRr.value, weightBasis);
+  const vo2Checked = settings.vo2Checked !== undefined && indices.dVo2dWr.implausiblyLow === true;
+  const interpretInput = toInterpretInput(
+    record,
+    thresholds,
+    indices,
+    predicted,
+    comparisons,
+    peakRr.value,
+    weightBasis,
+    vo2Checked,
+  );
   const interpretation = interpret(interpretInput, settings.interpret ?? {});
   const draft = composeDraft(interpretInput, interpretation, draftExtras(record, thresholds, indices));
   const issues: Issue[] = [
@@ -89,7 +99,10 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
       .filter(([quantity]) => !(quantity === "mvvLMin" && mvvEstimateUnused))
       .flatMap(([, pv]) => (pv?.issues ?? []).map((i): Issue => (i.severity === "error" ? { ...i, severity: "warning" } : i))),
     ...thresholds.issues,
-    ...indices.issues,
+    // read at a reviewer's word: the warning says so instead of "not interpreted"
+    ...(vo2Checked
+      ? indices.issues.map((i) => (i.code === "vo2-too-low-for-work" ? vo2ReadAtReview(i, settings.vo2Checked!) : i))
+      : indices.issues),
     ...interpretation.issues,
     ...(weightBasis?.issues ?? []),
   ];
@@ -157,4 +170,17 @@ function dedupeIssues(issues: Issue[]): Issue[] {
     seen.add(key);
     return true;
   });
+}
+
+/**
+ * The `vo2-too-low-for-work` warning when a reviewer chose to read VO2-based values after checking the cart: the first
+ * sentence (the measured ΔVO2/ΔWR and why it is doubted) kept, the "not interpreted" part replaced by the reviewer's word.
+ */
+function vo2ReadAtReview(issue: Issue, checked: { reason: string }): Issue {
+  const measuredPart = issue.message.split(" VO2-based values are shown but not interpreted")[0];
+  return {
+    ...issue,
+    code: "vo2-read-at-review",
+    message: `${measuredPart} VO2-based values are read all the same, at a reviewer's word: ${checked.reason}. Read capacity, O2 pulse and the patterns with that doubt in mind.`,
+  };
 }

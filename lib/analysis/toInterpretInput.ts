@@ -34,6 +34,8 @@ export function toInterpretInput(
   comparisons: PredictedComparisonRow[],
   peakRrBrMin: number | null,
   weightBasis: WeightBasisAssessment | null = null,
+  /** A reviewer's word that VO2 was checked (`AnalysisSettings.vo2Checked`): VO2-based values are read after all. */
+  vo2Checked = false,
 ): InterpretInput {
   const pct = (key: string) => comparisons.find((c) => c.key === key)?.percentPredicted ?? null;
   const p = indices.peaks;
@@ -105,7 +107,7 @@ export function toInterpretInput(
   }
   // VO2 that rose too little with work to be believed (dVo2dWr.ts) is shown but not read: a leak or a calibration fault
   // must not read as a cardiac limitation or a reduced capacity
-  if (indices.dVo2dWr.implausiblyLow)
+  if (indices.dVo2dWr.implausiblyLow && !vo2Checked)
     for (const k of VO2_READ_KEYS)
       notRead[k] ??= "VO2 rose too little with the work rate to be believed (see the issue on ΔVO2/ΔWR)";
   const plateauWhy = vo2PlateauNotAssessedReason(indices.vo2FinalIncrease);

@@ -65,6 +65,11 @@ export interface AnalysisSettings {
   interpret?: InterpretSettings;
   /** Bootstrap replicates for the threshold confidence band. @default 20 */
   bootstrap?: number;
+  /**
+   * A reviewer checked the cart and the ergometer and chose to read VO2-based values although VO2 rose implausibly
+   * little with the work rate (issue `vo2-too-low-for-work`): the reason, with who. Absent: those values are not read.
+   */
+  vo2Checked?: { reason: string };
 }
 
 /** A measured value set against its prediction. */

@@ -27,6 +27,41 @@ function leaking(record: TestRecord, f: number): TestRecord {
 const cardiovascular = (r: ReturnType<typeof analyse>) =>
   r.interpretation.patterns.find((p) => p.patternId === "cardiovascular")!;
 
+describe("VO2 read at a reviewer's word (AnalysisSettings.vo2Checked)", () => {
+  it("the same 60 % leak, with the cart checked by a reviewer: VO2-based values are read, and the warning says on whose word", async () => {
+    const base = { ...(await caseRecord("normal-adult")), referral: "heart-failure" as const };
+    const doubted = analyse(leaking(base, 0.4));
+    const checked = analyse(leaking(base, 0.4), {
+      vo2Checked: { reason: "calibration and a biological control checked, by Dr Invented" },
+    });
+    // not read without the reviewer's word; read with it
+    expect(doubted.interpretation.path.steps.find((s) => s.nodeId === "peak-vo2")!.outcome).toBe("not-assessable");
+    expect(checked.interpretation.path.steps.find((s) => s.nodeId === "peak-vo2")!.outcome).not.toBe("not-assessable");
+    expect(checked.interpretInput.notRead?.peakVo2PctPred).toBeUndefined();
+    // the measured values are the same either way
+    expect(checked.indices.peaks.vo2MlMin.value).toBe(doubted.indices.peaks.vo2MlMin.value);
+    const codes = checked.issues.map((i) => i.code);
+    expect(codes).not.toContain("vo2-too-low-for-work");
+    const said = checked.issues.find((i) => i.code === "vo2-read-at-review")!;
+    expect(said.severity).toBe("warning");
+    expect(said.message).toMatch(/^VO2 rose only \d+\.\d mL\/min per W of work rate/);
+    expect(said.message).toContain(
+      "read all the same, at a reviewer's word: calibration and a biological control checked, by Dr Invented.",
+    );
+    expect(said.message).not.toContain("not interpreted");
+  });
+
+  it("on a test whose VO2 is believable the setting changes nothing", async () => {
+    const base = await caseRecord("normal-adult");
+    const plain = analyse(base);
+    const checked = analyse(base, { vo2Checked: { reason: "routine check" } });
+    expect(checked.issues.map((i) => i.code)).toEqual(plain.issues.map((i) => i.code));
+    expect(checked.interpretation.path.steps.map((s) => s.outcome)).toEqual(
+      plain.interpretation.path.steps.map((s) => s.outcome),
+    );
+  });
+});
+
 describe("VO2 too low for the work done", () => {
   it("a leak that loses 60 % of every gas signal is flagged, and nothing VO2-based is interpreted", async () => {
     const base = await caseRecord("normal-adult");

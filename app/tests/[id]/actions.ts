@@ -300,6 +300,47 @@ export async function restoreSetAside(form: FormData): Promise<void> {
   revalidatePath(`/tests/${testId}`);
 }
 
+const vo2CheckedSchema = z.object({
+  testId: recordId("test"),
+  reason: z.string().trim().min(5, "Say what was checked (at least a few words)").max(300),
+  by: z.string().trim().min(2, "Say who checked the cart").max(80),
+});
+
+/**
+ * A reviewer checked the cart and the ergometer and reads VO2-based values although VO2 rose implausibly little with the
+ * work rate (`AnalysisSettings.vo2Checked`): a new settings version.
+ */
+export async function saveVo2Checked(_prev: FormState, form: FormData): Promise<FormState> {
+  const values = formValues(form);
+  const parsed = vo2CheckedSchema.safeParse(values);
+  if (!parsed.success) return { errors: errorsOf(parsed.error), values };
+  const o = parsed.data;
+  if (!getTest(o.testId)) return { errors: { form: "This test does not exist." }, values };
+  const stale = settingsChangedSince(o.testId, values.versionToken);
+  if (stale) return { errors: { form: stale }, values };
+  const current = effectiveSettings(o.testId, getLabDefaults());
+  saveAnalysisVersion(
+    o.testId,
+    { ...current, vo2Checked: { reason: `${o.reason}, by ${o.by}` } },
+    ENGINE_VERSION,
+    o.by,
+    `VO2-based values read after a check: ${o.reason}`,
+  );
+  revalidatePath(`/tests/${o.testId}`);
+  return { ok: "Saved as a new analysis version: VO2-based values are now read." };
+}
+
+export async function clearVo2Checked(form: FormData): Promise<void> {
+  const values = formValues(form);
+  const parsed = recordId("test").safeParse(values.testId);
+  if (!parsed.success || settingsChangedSince(parsed.data, values.versionToken)) return;
+  const current = latestSettings(parsed.data)?.settings;
+  if (!current?.vo2Checked) return;
+  const { vo2Checked: _gone, ...rest } = current;
+  saveAnalysisVersion(parsed.data, rest, ENGINE_VERSION, "local user", "VO2-based values no longer read (ΔVO2/ΔWR doubted)");
+  revalidatePath(`/tests/${parsed.data}`);
+}
+
 export async function clearExerciseSpan(form: FormData): Promise<void> {
   const testId = Number(form.get("testId"));
   const current = latestSettings(testId)?.settings;

@@ -26,6 +26,7 @@ import { loadColumnReview } from "./columns/loadColumnReview";
 import { fmt, HowFound, SourceList } from "./parts/HowFound";
 import { ExerciseSpanForm } from "./parts/ExerciseSpanForm";
 import { SetAsideForm } from "./parts/SetAsideForm";
+import { Vo2CheckedForm } from "./parts/Vo2CheckedForm";
 import { OverrideForm } from "./parts/OverrideForm";
 import { SettingsForm } from "./parts/SettingsForm";
 import { SeverityScale } from "./parts/SeverityScale";
@@ -650,6 +651,13 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
 
       <h2 id="quality">Data quality</h2>
       <IssueList issues={result.issues} />
+      {result.issues.some((i) => i.code === "vo2-too-low-for-work" || i.code === "vo2-read-at-review") && (
+        <Vo2CheckedForm
+          testId={testId}
+          versionToken={versionToken}
+          checkedBy={result.issues.some((i) => i.code === "vo2-read-at-review") ? (settings.vo2Checked?.reason ?? null) : null}
+        />
+      )}
       <details>
         <summary>
           {result.conditioned.removed.length} breath value(s) set aside by artefact rejection; phases:{" "}

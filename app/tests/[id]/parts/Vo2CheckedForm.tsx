@@ -1,0 +1,60 @@
+"use client";
+
+import { useActionState } from "react";
+import { clearVo2Checked, saveVo2Checked, type FormState } from "../actions";
+import { ReasonAndSubmit, ReviewerField } from "./ReviewerFields";
+
+/**
+ * Shown when VO2 rose implausibly little with the work rate: after checking the cart and the ergometer, a reviewer may
+ * read VO2-based values all the same (with what was checked), or stop reading them again.
+ */
+export function Vo2CheckedForm({
+  testId,
+  checkedBy,
+  versionToken,
+}: {
+  testId: number;
+  /** The reviewer's word when VO2-based values are read now, else null. */
+  checkedBy: string | null;
+  /** The analysis version the page shows (`settingsToken`): a change from a stale page is refused. */
+  versionToken: string;
+}) {
+  const [state, action, pending] = useActionState<FormState, FormData>(saveVo2Checked, {});
+  const v = state.values ?? {};
+  const e = state.errors ?? {};
+  if (checkedBy)
+    return (
+      <div className="how" data-testid="vo2-checked">
+        <p>VO2-based values are read at a reviewer&apos;s word: {checkedBy}.</p>
+        <form action={clearVo2Checked}>
+          <input type="hidden" name="versionToken" value={versionToken} />
+          <input type="hidden" name="testId" value={testId} />
+          <button type="submit">Stop reading VO2-based values</button>
+        </form>
+      </div>
+    );
+  return (
+    <details className="how" data-testid="vo2-checked">
+      <summary>read VO2-based values after checking the cart</summary>
+      <p>
+        Only after the gas and flow calibration, the mask and the ergometer&apos;s work-rate record were checked and found right:
+        the values are then read against cut-offs, with the doubt said beside them.
+      </p>
+      <form action={action} className="stack" style={{ marginTop: "0.5rem" }}>
+        <input type="hidden" name="versionToken" value={versionToken} />
+        <input type="hidden" name="testId" value={testId} />
+        <div className="row">
+          <ReviewerField value={v.by} />
+        </div>
+        <ReasonAndSubmit
+          value={v.reason}
+          placeholder="e.g. calibration and a biological control checked"
+          errors={e}
+          ok={state.ok}
+          pending={pending}
+          submitLabel="Read VO2-based values"
+        />
+      </form>
+    </details>
+  );
+}
