@@ -2,10 +2,11 @@ import fs from "node:fs";
 import path from "node:path";
 import type { Command } from "commander";
 import { analyse, buildRecord, type ReferralQuestion } from "../lib/analysis";
-import { importLactateFile, parseTimeText, STAGE_DURATION_LIMITS_S } from "../lib/breath";
+import { importLactateFile, parseSignedTimeText, STAGE_DURATION_LIMITS_S } from "../lib/breath";
 import { hasErrors, makeIssue, plausibilityProblem, type PlausibleField } from "../lib/core";
 import { ATRIAL_FIBRILLATION_HR_NOTE, BETA_BLOCKER_HR_NOTE, REFERRAL_QUESTIONS } from "../lib/interpret";
 import { CLINICAL_CAUTION, toCliJson, type CliAnalysisJson } from "../lib/report";
+import { conditionTable } from "../lib/signal";
 import { formatClock } from "../lib/units";
 import { EXIT_STATUS_HELP, UsageError } from "./usageError";
 
@@ -127,10 +128,10 @@ function parseStageSeconds(raw: string): number {
   return n;
 }
 
-/** "6:00-16:30" or "360-990": start and end of a span on the file's clock, s. */
+/** "6:00-16:30", "360-990" or "-2:00--1:00" (before 0:00): start and end of a span on the file's clock, s. */
 function parseSpan(flag: string, raw: string): { startS: number; endS: number } {
-  const parts = raw.split("-");
-  const [startS, endS] = parts.length === 2 ? parts.map(parseTimeText) : [NaN, NaN];
+  const m = /^\s*(-?[^-\s]+)\s*-\s*(-?[^-\s]+)\s*$/.exec(raw);
+  const [startS, endS] = m ? [parseSignedTimeText(m[1]), parseSignedTimeText(m[2])] : [NaN, NaN];
   if (!Number.isFinite(startS) || !Number.isFinite(endS) || !(endS > startS))
     throw new UsageError(`${flag} needs start-end as m:ss-m:ss or seconds with the end after the start, got "${raw}"`);
   return { startS, endS };
@@ -236,6 +237,18 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
         `${flag} ${formatClock(startS)}-${formatClock(endS)} does not lie inside the record (${formatClock(first)}-${formatClock(last)}).${relative}`,
       );
     }
+  // a span over most of the exercise phase is not a fault to set aside but a test to repeat: refused, as on the page
+  if (opts.setAside?.length) {
+    const ex = conditionTable(
+      record.table,
+      opts.exerciseSpan ? { phases: { exerciseSpan: { ...opts.exerciseSpan, reason: "" } } } : {},
+    ).exercise;
+    for (const { startS, endS } of opts.setAside)
+      if (ex && Math.min(endS, ex.endS) - Math.max(startS, ex.startS) > 0.5 * (ex.endS - ex.startS))
+        throw new UsageError(
+          `--set-aside ${formatClock(startS)}-${formatClock(endS)} covers more than half of the exercise phase (${formatClock(ex.startS)}-${formatClock(ex.endS)}): a recording that faulty should be repeated or re-imported.`,
+        );
+  }
   const settings = {
     conditioning: {
       ...(opts.exerciseSpan ? { phases: { exerciseSpan: { ...opts.exerciseSpan, reason: "set with --exercise-span" } } } : {}),

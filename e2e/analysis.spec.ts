@@ -179,12 +179,24 @@ test("a reviewer sets a span of breaths aside: refused without a reason, recompu
   await expect(box).toContainText("8:00–8:30: mask leak noted on the test log, by E2E Reviewer");
   // the data-quality list says how many breaths went and why, and the list of removed breaths names each
   await expect(page.locator('[data-code="breaths-set-aside-by-review"]').first()).toContainText(
-    /\d+ breath\(s\) from 8:00 to 8:30 were set aside by review: mask leak noted on the test log, by E2E Reviewer\./,
+    /The gas and ventilation values of \d+ breath\(s\) from 8:00 to 8:30 were set aside by review: mask leak noted on the test log, by E2E Reviewer\. Heart rate, SpO2 and the load there are kept\./,
   );
   await expect(page.getByText(/set aside by review \(8:00–8:30\): mask leak noted on the test log/).first()).toBeAttached();
+  // the same span again is refused; so is one over most of the exercise phase
+  await box.locator('[name="start"]').fill("8:05");
+  await box.locator('[name="end"]').fill("8:25");
+  await box.locator('form.stack [name="by"]').fill("E2E Reviewer");
+  await box.locator('[name="reason"]').fill("the same leak again");
+  await box.getByRole("button", { name: "Set these breaths aside" }).click();
+  await expect(box).toContainText("8:05–8:25 is already set aside (8:00–8:30)");
+  await box.locator('[name="start"]').fill("3:00");
+  await box.locator('[name="end"]').fill("17:00");
+  await box.getByRole("button", { name: "Set these breaths aside" }).click();
+  await expect(box).toContainText("The span covers more than half of the exercise phase");
   await expect(page.getByTestId("clinical-caution")).toBeVisible();
+  await box.locator("li").getByLabel("Reviewer").fill("E2E Second Reviewer");
   await box.getByRole("button", { name: "Use these breaths again" }).click();
-  await expect(page.getByTestId("versions")).toContainText("breaths 8:00–8:30 used again");
+  await expect(page.getByTestId("versions")).toContainText("breaths 8:00–8:30 used again, by E2E Second Reviewer");
   await expect(box).not.toContainText("span set aside");
 });
 
@@ -219,16 +231,23 @@ test("VO2 that rose implausibly little is not read until a reviewer says the car
   const box = page.getByTestId("vo2-checked");
   await box.getByText("read VO2-based values after checking the cart").click();
   await box.locator('[name="by"]').fill("E2E Reviewer");
+  await box.locator('[name="reason"]').fill("re-calibrated after the test; biological control within 3 %");
+  // every check must be ticked: one missing is refused, naming it, and what was typed is kept
+  for (const name of ["gas", "flow", "mask"]) await box.locator(`[name="${name}"]`).check();
   await box.getByRole("button", { name: "Read VO2-based values" }).click();
-  await expect(box).toContainText("Say what was checked");
-  await box.locator('[name="reason"]').fill("calibration and a biological control checked");
+  await expect(box).toContainText("Tick that the ergometer's work-rate record was checked");
+  await expect(box.locator('[name="reason"]')).toHaveValue("re-calibrated after the test; biological control within 3 %");
+  await box.locator('[name="work"]').check();
   await box.getByRole("button", { name: "Read VO2-based values" }).click();
   await expect(page.locator('[data-code="vo2-read-at-review"]')).toContainText(
-    "read all the same, at a reviewer's word: calibration and a biological control checked, by E2E Reviewer",
+    "re-calibrated after the test; biological control within 3 %, by E2E Reviewer",
   );
   await expect(page.getByTestId("versions")).toContainText("VO2-based values read after a check");
   await expect(page.getByTestId("clinical-caution")).toBeVisible();
+  await page.getByTestId("vo2-checked").getByLabel("Reviewer").fill("E2E Second Reviewer");
   await page.getByTestId("vo2-checked").getByRole("button", { name: "Stop reading VO2-based values" }).click();
   await expect(page.locator('[data-code="vo2-too-low-for-work"]')).toBeVisible();
-  await expect(page.getByTestId("versions")).toContainText("VO2-based values no longer read");
+  await expect(page.getByTestId("versions")).toContainText(
+    "VO2-based values no longer read (ΔVO2/ΔWR doubted), by E2E Second Reviewer",
+  );
 });

@@ -76,7 +76,7 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
   const weightBasis =
     peakVo2 !== null ? assessWeightBasis(peakVo2, record.patient, record.ergometer, { labSettings, reducedBelow }) : null;
   const peakRr = peakOverWindow(test.clean, "rrBrMin", { unit: "1/min", windowS: settings.peakWindowS ?? 30 });
-  const vo2Checked = settings.vo2Checked !== undefined && indices.dVo2dWr.implausiblyLow === true;
+  const vo2Checked = settings.vo2Checked !== undefined && indices.dVo2dWr.implausiblyLow === true ? settings.vo2Checked : null;
   const interpretInput = toInterpretInput(
     record,
     thresholds,

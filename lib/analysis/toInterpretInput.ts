@@ -1,6 +1,7 @@
 import { reasonWithoutLeadIn, type Issue, type Measured } from "../core";
 import {
   EOV_CARRY_OVER_CODE,
+  IMPLAUSIBLE_DVO2_DWR_ML_MIN_W,
   HR_RECOVERY_1MIN_ABNORMAL_BPM,
   slopeToVt2Name,
   vo2PlateauNotAssessedReason,
@@ -11,6 +12,7 @@ import {
 } from "../thresholds";
 import {
   getEquation,
+  walkExpr,
   OBESITY_BMI_KG_M2,
   populationRange,
   type PredictedSet,
@@ -35,7 +37,7 @@ export function toInterpretInput(
   peakRrBrMin: number | null,
   weightBasis: WeightBasisAssessment | null = null,
   /** A reviewer's word that VO2 was checked (`AnalysisSettings.vo2Checked`): VO2-based values are read after all. */
-  vo2Checked = false,
+  vo2Checked: { reason: string } | null = null,
 ): InterpretInput {
   const pct = (key: string) => comparisons.find((c) => c.key === key)?.percentPredicted ?? null;
   const p = indices.peaks;
@@ -99,6 +101,10 @@ export function toInterpretInput(
   ];
   const notRead: Partial<Record<keyof InterpretValues, string>> = {};
   for (const [why, keys] of minorOn) if (why) for (const k of keys) notRead[k] = why;
+  // a predicted O2 pulse built on an age-predicted maximal heart rate does not describe a beta-blocked heart, which
+  // reaches a lower heart rate and so a higher O2 pulse (common practice)
+  if (patient.betaBlocker === true && usesPredictedHrMax(predicted.values.o2PulseMaxMlBeat))
+    notRead.o2PulsePctPred ??= "it is predicted from an age-predicted maximal heart rate, which does not apply on a beta-blocker";
   // steady-state stage means are not the breath-by-breath ramp the published cut-offs of these indices were set on: a
   // stage above the RCP steepens the VE/VCO2 line, and VO2 per watt runs higher at steady state (common practice)
   if (record.table.shape === "stage") {
@@ -110,6 +116,15 @@ export function toInterpretInput(
   if (indices.dVo2dWr.implausiblyLow && !vo2Checked)
     for (const k of VO2_READ_KEYS)
       notRead[k] ??= "VO2 rose too little with the work rate to be believed (see the issue on ΔVO2/ΔWR)";
+  // read at a reviewer's word, ΔVO2/ΔWR itself stays unread: the value that raised the doubt is not evidence of disease
+  if (indices.dVo2dWr.implausiblyLow && vo2Checked)
+    notRead.dVo2dWr ??= "it is the value that made VO2 doubtful; the other VO2-based values are read at a reviewer's word";
+  // no VO2 over the end of exercise (a span set aside by review, or a gap): the highest VO2 before it is shown, not read
+  const endMissing = indices.peaks.vo2EndMissingS;
+  if (endMissing !== null)
+    for (const k of PEAK_VO2_KEYS)
+      notRead[k] ??=
+        `the last ${Math.round(endMissing)} s of exercise hold no VO2, so the peak may be understated (see the warning on peak VO2)`;
   const plateauWhy = vo2PlateauNotAssessedReason(indices.vo2FinalIncrease);
   if (plateauWhy) reasons.vo2Plateau = plateauWhy;
   // the calibrated bands, as the values at each end (everything computed from VT1 moves with it)
@@ -281,6 +296,11 @@ export function toInterpretInput(
     },
     reasons,
     notRead,
+    ...(vo2Checked && indices.dVo2dWr.implausiblyLow && indices.dVo2dWr.whole.slope.value !== null
+      ? {
+          vo2ReadAtReview: `ΔVO2/ΔWR was ${indices.dVo2dWr.whole.slope.value.toFixed(1)} mL/min/W, below ${IMPLAUSIBLE_DVO2_DWR_ML_MIN_W.toFixed(1)}: ${vo2Checked.reason}`,
+        }
+      : {}),
     // the slope "to VT2" is named for what it was fitted to (the RCP, the whole exercise, or a break the fit placed), in
     // rule texts and the draft as in the values table
     names: { veVco2SlopeToRcp: slopeToVt2Name(indices.veVco2.slopeToVt2) },
@@ -346,6 +366,29 @@ const VO2_READ_KEYS = [
   "o2PulsePlateau",
   "dVo2dWr",
   "oues",
+] as const satisfies readonly (keyof InterpretValues)[];
+
+/** True when a predicted value's equation is built on the predicted maximal heart rate (e.g. O2 pulse = VO2 ÷ HRmax). */
+function usesPredictedHrMax(pv: PredictedValue | undefined): boolean {
+  if (!pv) return false;
+  let found = false;
+  walkExpr(getEquation(pv.equationId).form, (node) => {
+    if ("ref" in node && node.ref.quantity === "hrMaxBpm") found = true;
+  });
+  return found;
+}
+
+/** The values read from the peak VO2 window or the end of exercise (not read when that end holds no VO2). */
+const PEAK_VO2_KEYS = [
+  "peakVo2MlMin",
+  "peakVo2MlKgMin",
+  "peakVo2PctPred",
+  "peakVo2LeanMlKgMin",
+  "vo2Plateau",
+  "vt1PctPeak",
+  "o2PulsePeakMlBeat",
+  "o2PulsePctPred",
+  "o2PulsePlateau",
 ] as const satisfies readonly (keyof InterpretValues)[];
 
 /** An equation's label, with "extrapolated" when the patient lies outside the population it was derived in. */

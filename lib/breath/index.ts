@@ -6,7 +6,7 @@ export * from "./parseUnitText";
 export * from "./recogniseHeader";
 export * from "./inferColumnUnit";
 export * from "./phaseFromText";
-export { parseTimeText } from "./parseCell";
+export { parseSignedTimeText, parseTimeText } from "./parseCell";
 export * from "./importBreathFile";
 export * from "./importLactateFile";
 export * from "./importBloodGasFile";

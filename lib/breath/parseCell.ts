@@ -79,9 +79,17 @@ export function parseClock(cell: Cell): number {
  * or plain seconds ("360"). Returns seconds, or NaN when the text is neither or the time is negative.
  */
 export function parseTimeText(text: string): number {
-  const s = text.trim();
-  const v = isClockCell(s) ? parseClock(s) : s === "" ? NaN : parseNumberCell(s, ".");
+  const v = parseSignedTimeText(text);
   return v >= 0 ? v : NaN;
+}
+
+/**
+ * As `parseTimeText`, but a leading minus is kept: a time on a record's clock that counts from the start of exercise, so
+ * rest lies before 0 ("-2:00" = −120 s). NaN when the text is not a time.
+ */
+export function parseSignedTimeText(text: string): number {
+  const s = text.trim();
+  return isClockCell(s) ? parseClock(s) : s === "" ? NaN : parseNumberCell(s, ".");
 }
 
 /** True when a text cell is a clock time ("m:ss", "h:mm:ss"). */

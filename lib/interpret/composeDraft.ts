@@ -429,6 +429,8 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     concl.push(
       `VO2-based values are not interpreted: ${notRead.peakVo2MlMin}. Check the cart and the ergometer, and repeat the test if the fault is confirmed.`,
     );
+  if (input.vo2ReadAtReview)
+    concl.push(`VO2-based values were read at a reviewer's word, although ${input.vo2ReadAtReview}. Read them with that doubt.`);
   const pctKey = { peakVo2: "peakVo2PctPred", hrMax: "hrPctPred", o2Pulse: "o2PulsePctPred" } as const;
   const adultOnly = (["peakVo2", "hrMax", "o2Pulse"] as const).filter((k) => notRead[pctKey[k]]?.includes("derived in adults"));
   if (adultOnly.length)

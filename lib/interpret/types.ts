@@ -158,6 +158,11 @@ export interface InterpretInput {
    */
   notRead?: Partial<Record<keyof InterpretValues, string>>;
   /**
+   * VO2-based values read although VO2 rose implausibly little with the work rate, at a reviewer's word: what was
+   * measured and what the reviewer said was checked. The draft's conclusion says it under the findings.
+   */
+  vo2ReadAtReview?: string;
+  /**
    * What a value was measured as, by value name, where that differs from the variable's usual label: e.g.
    * `veVco2SlopeToRcp` named "VE/VCO2 slope to a fitted break (RCP not determinable)" when no RCP was found
    * (`slopeToVt2Name` in the thresholds layer). Rule texts and the draft use it in place of the label, so a value is

@@ -349,6 +349,9 @@ export function buildReportModel(
   for (const span of byReview)
     methods.push(`Set aside by review before analysis: ${formatClock(span.startS)}–${formatClock(span.endS)} (${span.reason}).`);
   if (automatic > 0) methods.push(`${automatic} breath values were set aside as artefacts before analysis.`);
+  // a fixed line (not editable draft text): VO2-based values read although VO2 rose implausibly little with work
+  if (result.interpretInput.vo2ReadAtReview)
+    methods.push(`VO2-based values were read at a reviewer's word, although ${result.interpretInput.vo2ReadAtReview}.`);
 
   return {
     title: `Cardiopulmonary exercise test report: ${label}`,

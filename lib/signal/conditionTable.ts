@@ -63,6 +63,7 @@ export function conditionTable(table: BreathTable, settings: ConditioningSetting
     rampRateWPerMin: ph.rampRateWPerMin,
     rampRateR2: ph.rampRateR2,
     issues: [...art.issues, ...ph.issues, ...(fall ? [vo2FallIssue(fall)] : [])],
+    vo2Fall: fall,
     settings: record,
   };
 }

@@ -253,7 +253,7 @@ function detectPhasesFromData(rows: readonly BreathRow[], options: PhaseOptions)
 }
 
 /** Net O2 cost of treadmill walking, mL/kg/min: 0.1·S + 1.8·S·G (ACSM walking equation, secondary), S in m/min. */
-function treadmillLoad(speedKmh: number, gradePct: number | undefined): number {
+export function treadmillLoad(speedKmh: number, gradePct: number | undefined): number {
   const s = (speedKmh * 1000) / 60;
   return 0.1 * s + (1.8 * s * Math.max(0, gradePct ?? 0)) / 100;
 }

@@ -12,6 +12,9 @@ export const DEFAULT_ARTEFACT_RULE: ArtefactRule = {
   enabled: true,
 };
 
+/** The values a reviewer's span sets aside: gas exchange and ventilation (not time, HR, SpO2, load or markers). */
+const GAS_FIELDS = ["vo2MlMin", "vco2MlMin", "veLMin", "vo2MlKgMin", "rrBrMin", "vtL", "peto2MmHg", "petco2MmHg"] as const;
+
 /** Default RER screen: breaths with RER below 0.5 or above 2 are set aside (common practice). */
 export const DEFAULT_RER_LIMITS = { min: 0.5, max: 2 } as const;
 
@@ -68,29 +71,49 @@ export function rejectArtefacts(rows: readonly BreathRow[], options: ArtefactOpt
   const rer = options.rer ?? DEFAULT_RER_LIMITS;
   const issues: Issue[] = [];
   const removedAt = new Map<number, RemovedBreath>();
-  // 0. spans set aside by a reviewer (a leak, a run of coughs, a pause): removed before any rule looks at them
-  for (const span of options.setAside ?? []) {
+  // 0. spans set aside by a reviewer (a leak, a run of coughs, a pause): their gas and ventilation values are removed
+  // before any rule looks at them; time, heart rate, SpO2, load and phase markers stay (a leak does not change the ECG
+  // or the ergometer), so the phases, the end of exercise and peak HR and work rate are found as before
+  const byReview: RemovedBreath[] = [];
+  const spans = options.setAside ?? [];
+  const working: BreathRow[] = rows.slice();
+  for (const span of spans) {
     let count = 0;
-    rows.forEach((r, index) => {
-      if (r.timeS < span.startS || r.timeS > span.endS || removedAt.has(index)) return;
-      const field = (["vo2MlMin", "vco2MlMin", "veLMin", "hrBpm"] as const).find((f) => typeof r[f] === "number") ?? "vo2MlMin";
-      removedAt.set(index, {
+    let already = 0;
+    working.forEach((r, index) => {
+      if (r.timeS < span.startS || r.timeS > span.endS) return;
+      const field = GAS_FIELDS.find(
+        (f): f is NumericField & (typeof GAS_FIELDS)[number] => f !== "vo2MlKgMin" && typeof r[f] === "number",
+      );
+      if (!field) {
+        if (rows[index] !== r)
+          already++; // stripped by an earlier span
+        else if (typeof r.vo2MlKgMin === "number") working[index] = { ...r, vo2MlKgMin: undefined };
+        return;
+      }
+      byReview.push({
         index,
         timeS: r.timeS,
         sourceRow: r.sourceRow,
         field,
-        value: r[field] ?? NaN,
+        value: r[field]!,
         reason: `set aside by review (${formatClock(span.startS)}–${formatClock(span.endS)}): ${span.reason}`,
       });
+      const kept: BreathRow = { ...r };
+      for (const f of GAS_FIELDS) delete kept[f];
+      working[index] = kept;
       count++;
     });
+    const more = already > 0 ? ` (${already} more already set aside by an earlier span)` : "";
     issues.push(
       makeIssue(
         count > 0 ? "info" : "warning",
         "breaths-set-aside-by-review",
         count > 0
-          ? `${count} ${options.stageRows ? "row(s)" : "breath(s)"} from ${formatClock(span.startS)} to ${formatClock(span.endS)} were set aside by review: ${span.reason}.`
-          : `The span set aside by review, ${formatClock(span.startS)} to ${formatClock(span.endS)}, holds no rows: nothing was set aside there.`,
+          ? `The gas and ventilation values of ${count} ${options.stageRows ? "row(s)" : "breath(s)"} from ${formatClock(span.startS)} to ${formatClock(span.endS)} were set aside by review${more}: ${span.reason}. Heart rate, SpO2 and the load there are kept.`
+          : already > 0
+            ? `The span ${formatClock(span.startS)} to ${formatClock(span.endS)} lies within spans already set aside: nothing more was set aside.`
+            : `The span set aside by review, ${formatClock(span.startS)} to ${formatClock(span.endS)}, holds no rows: nothing was set aside there.`,
         { timeS: span.startS },
       ),
     );
@@ -98,7 +121,7 @@ export function rejectArtefacts(rows: readonly BreathRow[], options: ArtefactOpt
   // 1. screens
   let rerCount = 0;
   let impossible = 0;
-  rows.forEach((r, index) => {
+  working.forEach((r, index) => {
     if (removedAt.has(index)) return;
     for (const f of ["vo2MlMin", "vco2MlMin", "veLMin"] as const) {
       const v = r[f];
@@ -162,7 +185,7 @@ export function rejectArtefacts(rows: readonly BreathRow[], options: ArtefactOpt
     for (const field of rule.fields) {
       const idx: number[] = [];
       const v: number[] = [];
-      rows.forEach((r, i) => {
+      working.forEach((r, i) => {
         const x = r[field];
         if (typeof x === "number" && Number.isFinite(x) && !removedAt.has(i)) {
           idx.push(i);
@@ -223,7 +246,7 @@ export function rejectArtefacts(rows: readonly BreathRow[], options: ArtefactOpt
       }
     }
     for (const [index, hits] of [...flagged.entries()].sort((a, b) => a[0] - b[0])) {
-      const r = rows[index];
+      const r = working[index];
       const f = hits.reduce((a, b) => (b.z > a.z ? b : a));
       const others = hits.filter((x) => x !== f).map((x) => label(x.field));
       const zText = Number.isFinite(f.z) ? `${f.z.toFixed(1)} SD` : "far";
@@ -247,7 +270,7 @@ export function rejectArtefacts(rows: readonly BreathRow[], options: ArtefactOpt
       );
     }
   }
-  const removed = [...removedAt.values()].sort((a, b) => a.index - b.index);
-  const clean = rows.filter((_, i) => !removedAt.has(i));
+  const removed = [...byReview, ...removedAt.values()].sort((a, b) => a.index - b.index);
+  const clean = working.filter((_, i) => !removedAt.has(i));
   return { clean, removed, issues };
 }

@@ -1,3 +1,4 @@
+import type { Vo2Fall } from "./vo2Falls";
 import type { Issue } from "../core";
 import type { BreathRow, NumericField, Phase, TableShape } from "../breath";
 
@@ -85,4 +86,6 @@ export interface ConditionedTest {
   settings?: ConditioningRecord;
   /** Coefficient of determination of the ramp-rate regression (null without one). */
   rampRateR2?: number | null;
+  /** A sustained fall of VO2 in exercise at a held or rising load (`findVo2Fall`), or null / absent. */
+  vo2Fall?: Vo2Fall | null;
 }

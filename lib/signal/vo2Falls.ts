@@ -2,12 +2,15 @@ import { makeIssue, type Issue } from "../core";
 import type { BreathRow } from "../breath";
 import { robustSd, runningMedian } from "../numeric";
 import { formatClock } from "../units";
+import { treadmillLoad } from "./detectPhases";
 
 /**
  * A fall of VO2 during incremental exercise. In an incremental test VO2 rises with the work rate (about 10 mL/min per W
  * on a cycle ramp, Hansen, Sue & Wasserman 1984, Am Rev Respir Dis — confirmed): a sustained fall while the load holds
- * or rises is not the exercise physiology the test measures but a mask or sampling-line leak, a gas-analyser fault, or a
- * pause in pedalling or walking (common practice). Found on real recordings: ACTES test 4 (60-s VO2 1 693 → 1 345
+ * or rises is either a finding (oscillatory ventilation with long cycles; myocardial ischaemia or left-ventricular
+ * dysfunction, with a falling O2 pulse) or a fault (a mask or sampling-line leak, a gas-analyser fault, a pause in
+ * pedalling or walking, holding the treadmill's handrails) — common practice. The warning names both and asks for a
+ * check; it never removes data. It cannot see a stop in the last minute (the 60-s window and the 10-s end gap). Found on real recordings: ACTES test 4 (60-s VO2 1 693 → 1 345
  * mL/min at 200-215 W), 7 and 14 (open data, ODC-By 1.0).
  */
 export interface Vo2Fall {
@@ -58,7 +61,10 @@ export function findVo2Fall(rows: readonly BreathRow[], exercise: { startS: numb
     0,
   );
   if (!(sdBreath > 0)) return null;
-  const load = (r: BreathRow) => r.workW ?? r.speedKmh ?? r.gradePct ?? null;
+  // the load: the work rate, or on a treadmill the ACSM walking cost of speed and grade together (so a protocol that
+  // trades speed for grade is read by its cost), or the grade alone
+  const load = (r: BreathRow) =>
+    r.workW ?? (r.speedKmh !== undefined ? treadmillLoad(r.speedKmh, r.gradePct) : (r.gradePct ?? null));
   let best: Vo2Fall | null = null;
   let high = -Infinity;
   let highAt = 0;
@@ -94,7 +100,7 @@ export function vo2FallIssue(fall: Vo2Fall): Issue {
   return makeIssue(
     "warning",
     "vo2-falls-in-exercise",
-    `VO2 fell by ${pct} % during exercise while the load did not fall: its ${VO2_FALL_WINDOW_S}-s mean went from ${Math.round(fall.highMlMin)} mL/min (window ending ${formatClock(fall.highS)}) to ${Math.round(fall.lowMlMin)} mL/min (ending ${formatClock(fall.lowS)}). A mask or sampling-line leak, a gas-analyser fault or a pause in pedalling or walking can do this: check the record there, and if it is a fault, set those breaths aside by hand. Values read across that time (VT1, VT2, the slopes, ΔVO2/ΔWR, peak VO2) may not describe the patient.`,
+    `VO2 fell by ${pct} % during exercise while the load did not fall: its ${VO2_FALL_WINDOW_S}-s mean went from ${Math.round(fall.highMlMin)} mL/min (window ending ${formatClock(fall.highS)}) to ${Math.round(fall.lowMlMin)} mL/min (ending ${formatClock(fall.lowS)}). Physiology can do this: oscillatory ventilation with long cycles, or myocardial ischaemia or left-ventricular dysfunction (look at the ECG, blood pressure, heart rate and O2 pulse over the same time). So can a fault: a mask or sampling-line leak, a gas-analyser fault, a pause in pedalling or walking, or holding the treadmill's handrails. Set those breaths aside only when a fault is confirmed (test log; VE and VCO2 falling with VO2). Values read across that time (VT1, VT2, the slopes, ΔVO2/ΔWR, peak VO2) may not describe the patient, and the fall is not read as a VO2 plateau.`,
     { field: "vo2MlMin", timeS: fall.lowS },
   );
 }

@@ -168,7 +168,7 @@ export function dVo2dWr(test: ConditionedTest, options: DVo2dWrOptions = {}): DV
       makeIssue(
         "warning",
         "vo2-too-low-for-work",
-        `VO2 rose only ${slope.toFixed(1)} mL/min per W of work rate (ΔVO2/ΔWR; ${ranges}): below ${IMPLAUSIBLE_DVO2_DWR_ML_MIN_W.toFixed(1)}, lower than in about 999 of 1000 men with circulatory disorders, a leak at the mask, a gas or flow calibration fault or a wrong work-rate record is far likelier than disease. VO2-based values are shown but not interpreted (capacity, O2 pulse, plateau, VT1 against predicted, patterns, schemes). Check the cart and the ergometer; set the exercise phase by hand if the fit reads the wrong part of the test.`,
+        `VO2 rose only ${slope.toFixed(1)} mL/min per W of work rate (ΔVO2/ΔWR; ${ranges}): below ${IMPLAUSIBLE_DVO2_DWR_ML_MIN_W.toFixed(1)}, more than 3 SD below the mean reported even in men with circulatory disorders, a leak at the mask, a gas or flow calibration fault or a wrong work-rate record is far likelier than disease. VO2-based values are shown but not interpreted (capacity, O2 pulse, plateau, VT1 against predicted, patterns, schemes). Check the cart and the ergometer; set the exercise phase by hand if the fit reads the wrong part of the test.`,
         { field: "dVo2dWr" },
       ),
     );
@@ -177,7 +177,7 @@ export function dVo2dWr(test: ConditionedTest, options: DVo2dWrOptions = {}): DV
       makeIssue(
         "warning",
         "vo2-low-for-work",
-        `VO2 rose only ${slope.toFixed(1)} mL/min per W of work rate (ΔVO2/ΔWR; ${ranges}): below ${SUSPECT_DVO2_DWR_ML_MIN_W.toFixed(1)}, lower than in about 39 of 40 men with circulatory disorders. Severe oxygen-delivery limitation can do this, and so can a leak at the mask, a gas or flow calibration fault or a wrong work-rate record: check the cart and the ergometer before reading VO2-based values (they are read as measured).`,
+        `VO2 rose only ${slope.toFixed(1)} mL/min per W of work rate (ΔVO2/ΔWR; ${ranges}): below ${SUSPECT_DVO2_DWR_ML_MIN_W.toFixed(1)}, more than 2 SD below the mean reported in men with circulatory disorders. Severe oxygen-delivery limitation can do this, and so can a leak at the mask, a gas or flow calibration fault or a wrong work-rate record: check the cart and the ergometer before reading VO2-based values (they are read as measured).`,
         { field: "dVo2dWr" },
       ),
     );

@@ -399,6 +399,12 @@ export function vo2FinalIncrease(test: ConditionedTest, options: { windowS?: num
       }
     }
     const lo = Math.max(span.startS, centre - windowS / 2);
+    // a fall of VO2 at a held or rising load over these windows (lib/signal/vo2Falls.ts) is a fault or a finding to look
+    // at, not the levelling-off the plateau rule reads
+    if (test.vo2Fall && test.vo2Fall.lowS >= lo)
+      return nd(
+        `VO2 fell by ${Math.round(100 * test.vo2Fall.fraction)} % at a held or rising load over the end of exercise (see that warning): a fall is not read as a plateau`,
+      );
     a = m.mean(lo, centre + windowS / 2).mean;
     earlierWindow = { startS: lo, endS: centre + windowS / 2 };
     wa = wm.mean(lo, centre + windowS / 2).mean;

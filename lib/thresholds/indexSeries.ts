@@ -153,9 +153,23 @@ export interface RollingExtreme {
 }
 
 /**
+ * The longest gap a rolling window may hold between its values (or from its start to its first value), s: 10 s or 1.5 ×
+ * the median spacing of the values, whichever is longer (our choice). A window across a span of breaths set aside by
+ * review, or a run of removed breaths, is then not an "N-s average" of the few breaths left in it.
+ */
+export function windowGapLimitS(times: readonly number[]): number {
+  if (times.length < 2) return Infinity;
+  const d: number[] = [];
+  for (let i = 1; i < times.length; i++) d.push(times[i] - times[i - 1]);
+  d.sort((a, b) => a - b);
+  return Math.max(10, 1.5 * d[d.length >> 1]);
+}
+
+/**
  * Highest (or lowest) value of `evaluate(startS, endS)` over time windows of `windowS` seconds ending at each
  * of `ends` (window = [end − windowS, end]). Windows starting before `spanStartS` by more than 20% of the
- * window are skipped (a window must be at least 80% covered, as in `rollingTimeAverage`). O(n log n).
+ * window are skipped (a window must be at least 80% covered, as in `rollingTimeAverage`), and so are windows with a gap
+ * longer than `windowGapLimitS` between their values or before their first. O(n log n + n·k), k values per window.
  */
 export function rollingExtreme(
   ends: readonly number[],
@@ -165,9 +179,24 @@ export function rollingExtreme(
   kind: "max" | "min",
 ): RollingExtreme | null {
   let best: RollingExtreme | null = null;
-  for (const end of ends) {
+  const maxGapS = windowGapLimitS(ends);
+  for (let i = 0; i < ends.length; i++) {
+    const end = ends[i];
     if (end - spanStartS < 0.8 * windowS) continue;
     const startS = end - windowS;
+    if (windowS > 0) {
+      // walk back through the window's values: every gap, and the one from the window's start, within the limit
+      let j = i;
+      let covered = true;
+      while (j > 0 && ends[j - 1] > startS) {
+        if (ends[j] - ends[j - 1] > maxGapS) {
+          covered = false;
+          break;
+        }
+        j--;
+      }
+      if (!covered || ends[j] - Math.max(startS, spanStartS) > maxGapS) continue;
+    }
     const value = evaluate(startS, end);
     if (!Number.isFinite(value)) continue;
     if (!best || (kind === "max" ? value > best.value : value < best.value))

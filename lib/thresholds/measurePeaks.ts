@@ -1,6 +1,7 @@
 import type { BreathRow, NumericField } from "../breath";
 import { makeIssue, measured, notDetermined, type Issue, type Measured, type Provenance } from "../core";
 import { medianRowIntervalS, type ConditionedTest } from "../signal";
+import { formatClock } from "../units";
 import { CARRY_OVER_WARNING } from "./eov";
 import { exerciseSpan, fieldSeries, provenanceOf, restSpan, rollingExtreme, WindowMeans, type TimeSpan } from "./indexSeries";
 import { channelGaps, describeChannelGap } from "./channelGaps";
@@ -48,6 +49,11 @@ export interface PeakValues {
   /** Highest exercise PETCO2 window minus resting PETCO2. */
   petco2RiseMmHg: Measured;
   spo2LowestPct: Measured;
+  /**
+   * Seconds of the end of exercise with no VO2 (a span set aside by review, or a gap in the file), when longer than the
+   * peak window; null otherwise. Peak VO2 is then the highest before them and may understate the peak (`peak-vo2-end-missing`).
+   */
+  vo2EndMissingS: number | null;
   testDurationS: Measured;
   exerciseDurationS: Measured;
   issues: Issue[];
@@ -140,9 +146,9 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
     const d = meansOf(den).mean(win.startS, win.endS);
     const v = (n.mean / d.mean) * scale;
     if (Number.isFinite(v)) return measured(v, unit, prov);
-    // name the missing channel, e.g. "no HR in the peak VO2 window (1288–1318 s)"
+    // name the missing channel, e.g. "no HR in the peak VO2 window (21:28–21:58)"
     const missing = [num, den].filter((f) => !((f === num ? n : d).count > 0)).map((f) => RATIO_FIELD_LABEL[f] ?? f);
-    const where = `the peak VO2 window (${Math.round(win.startS)}–${Math.round(win.endS)} s)`;
+    const where = `the peak VO2 window (${formatClock(win.startS)}–${formatClock(win.endS)})`;
     return notDetermined(
       unit,
       prov,
@@ -165,12 +171,25 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
   // in an incremental test VO2 is highest at its end (common practice); a peak window that ends long before it is more
   // often a burst of artefactual breaths or a misplaced end of exercise than a real early peak
   const early = !stage && span && vo2Found.win ? span.endS - vo2Found.win.endS : 0;
-  if (early > PEAK_VO2_EARLY_S && vo2Found.m.value !== null)
+  // no VO2 over the end of exercise (set aside by review, or missing): the highest before it is not the peak
+  const vo2Ends = span ? ends("vo2MlMin") : [];
+  const endGap = !stage && span && vo2Ends.length > 0 ? span.endS - vo2Ends[vo2Ends.length - 1] : 0;
+  const vo2EndMissingS = endGap > windowS && vo2Found.m.value !== null ? endGap : null;
+  if (vo2EndMissingS !== null)
+    issues.push(
+      makeIssue(
+        "warning",
+        "peak-vo2-end-missing",
+        `The last ${Math.round(vo2EndMissingS)} s of exercise (to ${formatClock(span!.endS)}) hold no VO2${test.settings?.setAside?.length ? " (set aside by review, or missing from the file)" : " (missing from the file)"}: peak VO2 (${Math.round(vo2Found.m.value!)} mL/min) and the values read in its window are the highest before that and may understate the peak. They are shown, not read against predicted values or cut-offs.`,
+        { field: "peak.vo2MlMin", timeS: span!.endS - vo2EndMissingS },
+      ),
+    );
+  else if (early > PEAK_VO2_EARLY_S && vo2Found.m.value !== null)
     issues.push(
       makeIssue(
         "warning",
         "peak-vo2-before-end",
-        `The highest ${windowS}-s VO2 (${Math.round(vo2Found.m.value)} mL/min, ${Math.round(vo2Found.win!.startS)}–${Math.round(vo2Found.win!.endS)} s) ends ${Math.round(early)} s before the end of exercise, where VO2 is usually highest. Check the breaths in that window for artefacts (a burst of high values, a mask or sampling fault; set them aside by hand if so) and that the exercise phase ends where the load stopped: peak VO2 and the values read in its window (RER, O2 pulse) depend on it.`,
+        `The highest ${windowS}-s VO2 (${Math.round(vo2Found.m.value)} mL/min, ${formatClock(vo2Found.win!.startS)}–${formatClock(vo2Found.win!.endS)}) ends ${Math.round(early)} s before the end of exercise, where VO2 is usually highest. Check the breaths in that window for artefacts (a burst of high values, a mask or sampling fault; set them aside by hand if so) and that the exercise phase ends where the load stopped: peak VO2 and the values read in its window (RER, O2 pulse) depend on it.`,
         { field: "peak.vo2MlMin" },
       ),
     );
@@ -305,6 +324,7 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
     petco2PeakMmHg: petco2Peak.m,
     petco2RiseMmHg: petco2Rise,
     spo2LowestPct: peakOf("spo2Pct", "%", "SpO2", "min").m,
+    vo2EndMissingS,
     testDurationS: testDuration,
     exerciseDurationS: exerciseDuration,
     issues,

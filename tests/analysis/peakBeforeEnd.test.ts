@@ -10,6 +10,7 @@ import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { analyse, buildRecord } from "../../lib/analysis";
 import { PEAK_VO2_EARLY_S } from "../../lib/thresholds/measurePeaks";
+import { formatClock } from "../../lib/units";
 import { caseRecord } from "../fixtures/caseRecord";
 
 const flagged = (r: ReturnType<typeof analyse>) => r.issues.find((i) => i.code === "peak-vo2-before-end");
@@ -31,7 +32,7 @@ describe("a peak VO2 window long before the end of exercise", () => {
     const win = burst.indices.peaks.vo2MlMin.provenance.window!;
     expect(Math.abs((win.startS + win.endS) / 2 - at)).toBeLessThan(20);
     expect(end - win.endS).toBeGreaterThan(PEAK_VO2_EARLY_S);
-    expect(issue.message).toContain(`${Math.round(win.startS)}–${Math.round(win.endS)} s`);
+    expect(issue.message).toContain(`${formatClock(win.startS)}–${formatClock(win.endS)})`);
   });
 
   it("real test: ACTES 4's peak window, 113 s before the end, is flagged; ACTES 13's is not", async () => {

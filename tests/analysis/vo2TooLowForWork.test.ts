@@ -49,6 +49,14 @@ describe("VO2 read at a reviewer's word (AnalysisSettings.vo2Checked)", () => {
       "read all the same, at a reviewer's word: calibration and a biological control checked, by Dr Invented.",
     );
     expect(said.message).not.toContain("not interpreted");
+    // the conclusion says it under the findings; ΔVO2/ΔWR, the value that raised the doubt, is still not read
+    const slope = checked.indices.dVo2dWr.whole.slope.value!.toFixed(1);
+    expect(checked.draft.sections.find((x) => x.id === "conclusion")!.paragraphs).toContain(
+      `VO2-based values were read at a reviewer's word, although ΔVO2/ΔWR was ${slope} mL/min/W, below 4.8: calibration and a biological control checked, by Dr Invented. Read them with that doubt.`,
+    );
+    expect(checked.interpretInput.notRead?.dVo2dWr).toMatch(/^it is the value that made VO2 doubtful/);
+    for (const p of checked.interpretation.patterns)
+      for (const f of [...p.for, ...p.against]) expect(f.text).not.toMatch(/^ΔVO2\/ΔWR/);
   });
 
   it("on a test whose VO2 is believable the setting changes nothing", async () => {

@@ -34,6 +34,11 @@ describe("predicted.<quantity>.notRead", () => {
     const j = await runAnalyse(path.join(cases, "heart-failure.csv"), { ...base, age: 62, betaBlocker: true });
     expect(j.predicted.hrMaxBpm?.notRead).toBe(BETA_BLOCKER_HR_NOTE);
     expect(j.predicted.vo2PeakMlMin?.notRead).toBeNull();
+    // the lab's default predicted O2 pulse is predicted peak VO2 ÷ predicted maximal heart rate (o2pulse-derived)
+    expect(j.predicted.o2PulseMaxMlBeat?.equationId).toBe("o2pulse-derived");
+    expect(j.predicted.o2PulseMaxMlBeat?.notRead).toMatch(
+      /age-predicted maximal heart rate, which does not apply on a beta-blocker/,
+    );
     const text = formatText(j, { betaBlocker: true });
     expect(text.split(BETA_BLOCKER_HR_NOTE).length - 1).toBe(1);
   }, 60_000);

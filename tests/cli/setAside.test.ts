@@ -32,7 +32,7 @@ describe("--set-aside on ACTES test 4 (ODC-By 1.0)", () => {
     expect(Math.abs(cleaned.peak.vo2MlMin! - 2654) / 2654).toBeLessThan(0.01);
     expect(cleaned.issues.some((i) => i.code === "peak-vo2-before-end")).toBe(false);
     expect(cleaned.issues.find((i) => i.code === "breaths-set-aside-by-review")?.message).toMatch(
-      /^\d+ breath\(s\) from 17:16 to 17:28 were set aside by review: set with --set-aside\.$/,
+      /^The gas and ventilation values of 6 breath\(s\) from 17:16 to 17:28 were set aside by review: set with --set-aside\./,
     );
   }, 60_000);
 
@@ -40,6 +40,17 @@ describe("--set-aside on ACTES test 4 (ODC-By 1.0)", () => {
     await expect(runAnalyse(file, { ...base, setAside: [{ startS: 5000, endS: 5100 }] })).rejects.toThrow(UsageError);
     await expect(runAnalyse(file, { ...base, setAside: [{ startS: 5000, endS: 5100 }] })).rejects.toThrow(
       /^--set-aside 83:20-85:00 does not lie inside the record/,
+    );
+  }, 60_000);
+
+  it("a span before 0:00 (this file counts from the start of exercise) is written with a minus and read", async () => {
+    const r = await runAnalyse(file, { ...base, setAside: [{ startS: -120, endS: -60 }] });
+    expect(r.issues.find((i) => i.code === "breaths-set-aside-by-review")?.message).toMatch(/from -2:00 to -1:00/);
+  }, 60_000);
+
+  it("a span over more than half of the exercise phase is refused: such a test is repeated, not analysed without its exercise", async () => {
+    await expect(runAnalyse(file, { ...base, setAside: [{ startS: 181, endS: 1168 }] })).rejects.toThrow(
+      /^--set-aside 3:01-19:28 covers more than half of the exercise phase/,
     );
   }, 60_000);
 });

@@ -107,16 +107,27 @@ describe("rejectArtefacts (local mean ± k SD, convention counted by doi 10.1055
 });
 
 describe("spans set aside by review", () => {
-  it("removes exactly the breaths inside the span (ends included), with the reviewer's reason, before the screens", () => {
-    const rows = series([]);
+  it("removes the gas values of exactly the breaths inside the span (ends included), keeps the rows, HR and load", () => {
+    const rows = series([]).map((r, i) => ({ ...r, hrBpm: 80 + i / 4, workW: i / 2 }));
     // breaths 100..120 lie at 250.0..300.0 s (2.5 s apart)
     const r = rejectArtefacts(rows, { setAside: [{ startS: 250, endS: 300, reason: "mask leak on the log, by A. Reviewer" }] });
     expect(r.removed.map((x) => x.index)).toEqual(Array.from({ length: 21 }, (_, i) => 100 + i));
     expect(r.removed[0].reason).toBe("set aside by review (4:10–5:00): mask leak on the log, by A. Reviewer");
-    expect(r.clean).toHaveLength(379);
+    expect(r.clean).toHaveLength(400);
+    for (const row of r.clean.slice(100, 121)) {
+      expect(row.vo2MlMin).toBeUndefined();
+      expect(row.vco2MlMin).toBeUndefined();
+      expect(row.veLMin).toBeUndefined();
+      expect(row.hrBpm).toBeDefined();
+      expect(row.workW).toBeDefined();
+    }
+    // the input rows are not changed
+    expect(rows[110].vo2MlMin).toBeDefined();
     const info = r.issues.find((i) => i.code === "breaths-set-aside-by-review")!;
     expect(info.severity).toBe("info");
-    expect(info.message).toBe("21 breath(s) from 4:10 to 5:00 were set aside by review: mask leak on the log, by A. Reviewer.");
+    expect(info.message).toBe(
+      "The gas and ventilation values of 21 breath(s) from 4:10 to 5:00 were set aside by review: mask leak on the log, by A. Reviewer. Heart rate, SpO2 and the load there are kept.",
+    );
   });
 
   it("a spike inside a set-aside span is set aside once, by review; one outside is still found by the rule", () => {
@@ -126,9 +137,18 @@ describe("spans set aside by review", () => {
     expect(r.removed.find((x) => x.index === 300)!.reason).toMatch(/lies .* SD from the local mean/);
   });
 
-  it("a span that holds no breath says so as a warning and removes nothing", () => {
-    const r = rejectArtefacts(series([]), { setAside: [{ startS: 251, endS: 252, reason: "between two breaths" }] });
-    expect(r.removed).toHaveLength(0);
-    expect(r.issues.find((i) => i.code === "breaths-set-aside-by-review")?.severity).toBe("warning");
+  it("a span inside one already set aside says so and adds nothing; an empty span is a warning", () => {
+    const r = rejectArtefacts(series([]), {
+      setAside: [
+        { startS: 250, endS: 300, reason: "leak" },
+        { startS: 260, endS: 270, reason: "the same leak" },
+        { startS: 251, endS: 252, reason: "between two breaths" },
+      ],
+    });
+    expect(r.removed).toHaveLength(21);
+    const said = r.issues.filter((i) => i.code === "breaths-set-aside-by-review");
+    expect(said[1].message).toBe("The span 4:20 to 4:30 lies within spans already set aside: nothing more was set aside.");
+    expect(said[2].severity).toBe("warning");
+    expect(said[2].message).toMatch(/holds no rows: nothing was set aside there\.$/);
   });
 });

@@ -44,6 +44,9 @@ describe("findVo2Fall on invented tests (truth by construction)", () => {
     const issue = fallIssue(leaky)!;
     expect(issue.severity).toBe("warning");
     expect(issue.message).toMatch(/^VO2 fell by \d+ % during exercise while the load did not fall/);
+    // physiology is named beside the faults, and setting breaths aside waits for a confirmed fault
+    expect(issue.message).toContain("oscillatory ventilation with long cycles, or myocardial ischaemia");
+    expect(issue.message).toContain("Set those breaths aside only when a fault is confirmed");
     expect(issue.where?.timeS).toBe(fall.lowS);
   });
 

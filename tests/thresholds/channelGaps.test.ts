@@ -84,7 +84,7 @@ describe("O2 pulse pattern and peak O2 pulse across an HR gap", () => {
     const p = measurePeaks(withHrMissing((t) => t >= 702 && t <= 780));
     expect(p.vo2MlMin.provenance.window).toEqual({ startS: 750, endS: 780 });
     expect(p.o2PulseMlBeat.value).toBeNull();
-    expect(p.o2PulseMlBeat.reason).toBe("no HR in the peak VO2 window (750–780 s)");
+    expect(p.o2PulseMlBeat.reason).toBe("no HR in the peak VO2 window (12:30–13:00)");
     // the highest HR may lie in the gap: no peak HR is claimed (by construction HR is 100 bpm before it)
     expect(p.hrBpm.value).toBeNull();
     expect(p.hrBpm.reason).toBe("HR missing from 699 s to the end of exercise (780 s; 81 s): the highest HR may lie in the gap");

@@ -4,11 +4,13 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import type { AnalysisSettings } from "@/lib/analysis";
 import { analyse, checkThresholdOverride, ENGINE_VERSION } from "@/lib/analysis";
-import { parseTimeText } from "@/lib/breath";
+import { parseSignedTimeText, parseTimeText, type BreathTable } from "@/lib/breath";
+import { conditionTable } from "@/lib/signal";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { formatClock } from "@/lib/units";
 import { effectiveSettings, getTest, latestSettings, saveAnalysisVersion } from "@/lib/store/tests";
 import { settingsChangedSince } from "./recordToken";
+import { VO2_CHECKS } from "./vo2Checks";
 import { recordId } from "../../schemas";
 
 export interface FormState {
@@ -173,8 +175,8 @@ const clockOrSeconds = (what: string) =>
     .string()
     .trim()
     .min(1, `Give the ${what} as m:ss or seconds`)
-    .refine((t) => Number.isFinite(parseTimeText(t)), `${what} as m:ss or seconds`)
-    .transform(parseTimeText);
+    .refine((t) => Number.isFinite(parseSignedTimeText(t)), `${what} as m:ss or seconds (a minus for times before 0:00)`)
+    .transform(parseSignedTimeText);
 
 const exerciseSpanSchema = z
   .object({
@@ -238,6 +240,19 @@ const setAsideSchema = z
   })
   .refine((o) => o.end > o.start, { message: "The end must come after the start", path: ["end"] });
 
+/**
+ * Why a span may not be set aside: more than half of the exercise phase (as the current settings find it), or null. A
+ * recording that faulty is repeated or re-imported, not analysed without its exercise (our choice).
+ */
+function setAsideTooLong(table: BreathTable, settings: AnalysisSettings, startS: number, endS: number): string | null {
+  const ex = conditionTable(table, settings.conditioning).exercise;
+  if (!ex) return null;
+  const overlap = Math.min(endS, ex.endS) - Math.max(startS, ex.startS);
+  return overlap > 0.5 * (ex.endS - ex.startS)
+    ? `The span covers more than half of the exercise phase (${formatClock(ex.startS)}–${formatClock(ex.endS)}): a recording that faulty should be repeated or re-imported, not analysed without its exercise.`
+    : null;
+}
+
 /** A reviewer sets a span of breaths aside (a leak, a run of coughs): a new settings version; everything is recomputed. */
 export async function saveSetAside(_prev: FormState, form: FormData): Promise<FormState> {
   const values = formValues(form);
@@ -257,6 +272,16 @@ export async function saveSetAside(_prev: FormState, form: FormData): Promise<Fo
     };
   const current = effectiveSettings(o.testId, getLabDefaults());
   const spans = current.conditioning?.setAside ?? [];
+  const covering = spans.find((x) => x.startS <= o.start && x.endS >= o.end);
+  if (covering)
+    return {
+      errors: {
+        start: `${formatClock(o.start)}–${formatClock(o.end)} is already set aside (${formatClock(covering.startS)}–${formatClock(covering.endS)}).`,
+      },
+      values,
+    };
+  const tooLong = setAsideTooLong(record.table, current, o.start, o.end);
+  if (tooLong) return { errors: { start: tooLong }, values };
   if (spans.length >= MAX_SET_ASIDE_SPANS)
     return { errors: { form: `At most ${MAX_SET_ASIDE_SPANS} spans can be set aside; restore one first.` }, values };
   const settings: AnalysisSettings = {
@@ -278,14 +303,18 @@ export async function saveSetAside(_prev: FormState, form: FormData): Promise<Fo
 }
 
 /** Put a set-aside span back (by its place in the list): a new settings version. */
-const restoreSchema = z.object({ testId: recordId("test"), span: z.coerce.number().int().min(0).max(MAX_SET_ASIDE_SPANS) });
+const restoreSchema = z.object({
+  testId: recordId("test"),
+  span: z.coerce.number().int().min(0).max(MAX_SET_ASIDE_SPANS),
+  by: z.string().trim().min(2).max(80),
+});
 
 export async function restoreSetAside(form: FormData): Promise<void> {
   const values = formValues(form);
   const parsed = restoreSchema.safeParse(values);
   // a page opened before another change may list the spans in another order: nothing is restored from it
   if (!parsed.success || settingsChangedSince(parsed.data.testId, values.versionToken)) return;
-  const { testId, span: at } = parsed.data;
+  const { testId, span: at, by } = parsed.data;
   const current = latestSettings(testId)?.settings;
   const spans = current?.conditioning?.setAside ?? [];
   if (!current || at >= spans.length) return;
@@ -294,15 +323,21 @@ export async function restoreSetAside(form: FormData): Promise<void> {
     testId,
     { ...current, conditioning: { ...current.conditioning, setAside: spans.filter((_, i) => i !== at) } },
     ENGINE_VERSION,
-    "local user",
-    `breaths ${formatClock(gone.startS)}–${formatClock(gone.endS)} used again`,
+    by,
+    `breaths ${formatClock(gone.startS)}–${formatClock(gone.endS)} used again, by ${by}`,
   );
   revalidatePath(`/tests/${testId}`);
 }
 
+const ticked = (what: string) => z.literal("on", { error: `Tick that ${what} was checked` });
+
 const vo2CheckedSchema = z.object({
   testId: recordId("test"),
-  reason: z.string().trim().min(5, "Say what was checked (at least a few words)").max(300),
+  gas: ticked(VO2_CHECKS.gas),
+  flow: ticked(VO2_CHECKS.flow),
+  mask: ticked(VO2_CHECKS.mask),
+  work: ticked(VO2_CHECKS.work),
+  reason: z.string().trim().min(5, "Say how it was checked (at least a few words)").max(300),
   by: z.string().trim().min(2, "Say who checked the cart").max(80),
 });
 
@@ -321,7 +356,10 @@ export async function saveVo2Checked(_prev: FormState, form: FormData): Promise<
   const current = effectiveSettings(o.testId, getLabDefaults());
   saveAnalysisVersion(
     o.testId,
-    { ...current, vo2Checked: { reason: `${o.reason}, by ${o.by}` } },
+    {
+      ...current,
+      vo2Checked: { reason: `checked ${Object.values(VO2_CHECKS).join("; ")}: ${o.reason}, by ${o.by}` },
+    },
     ENGINE_VERSION,
     o.by,
     `VO2-based values read after a check: ${o.reason}`,
@@ -330,15 +368,18 @@ export async function saveVo2Checked(_prev: FormState, form: FormData): Promise<
   return { ok: "Saved as a new analysis version: VO2-based values are now read." };
 }
 
+const clearVo2Schema = z.object({ testId: recordId("test"), by: z.string().trim().min(2).max(80) });
+
 export async function clearVo2Checked(form: FormData): Promise<void> {
   const values = formValues(form);
-  const parsed = recordId("test").safeParse(values.testId);
-  if (!parsed.success || settingsChangedSince(parsed.data, values.versionToken)) return;
-  const current = latestSettings(parsed.data)?.settings;
+  const parsed = clearVo2Schema.safeParse(values);
+  if (!parsed.success || settingsChangedSince(parsed.data.testId, values.versionToken)) return;
+  const { testId, by } = parsed.data;
+  const current = latestSettings(testId)?.settings;
   if (!current?.vo2Checked) return;
   const { vo2Checked: _gone, ...rest } = current;
-  saveAnalysisVersion(parsed.data, rest, ENGINE_VERSION, "local user", "VO2-based values no longer read (ΔVO2/ΔWR doubted)");
-  revalidatePath(`/tests/${parsed.data}`);
+  saveAnalysisVersion(testId, rest, ENGINE_VERSION, by, `VO2-based values no longer read (ΔVO2/ΔWR doubted), by ${by}`);
+  revalidatePath(`/tests/${testId}`);
 }
 
 export async function clearExerciseSpan(form: FormData): Promise<void> {

@@ -25,8 +25,9 @@ export function SetAsideForm({
         set breaths aside by hand{spans.length > 0 ? ` (${spans.length} span${spans.length > 1 ? "s" : ""} set aside)` : ""}
       </summary>
       <p>
-        For a fault the automatic screens cannot see, such as a mask leak, a run of coughs or a pause: the breaths in the span are
-        not used for any value, and the analysis is recomputed as a new version.
+        For a fault the automatic screens cannot see, such as a mask leak, a run of coughs or a pause: the gas and ventilation
+        values in the span are not used (heart rate, SpO2 and the load are kept), and the analysis is recomputed as a new version.
+        A span over more than half of the exercise phase is refused.
       </p>
       {spans.length > 0 && (
         <ul>
@@ -37,6 +38,7 @@ export function SetAsideForm({
                 <input type="hidden" name="versionToken" value={versionToken} />
                 <input type="hidden" name="testId" value={testId} />
                 <input type="hidden" name="span" value={i} />
+                <input name="by" required minLength={2} size={12} placeholder="your name" aria-label="Reviewer" />{" "}
                 <button type="submit">Use these breaths again</button>
               </form>
             </li>

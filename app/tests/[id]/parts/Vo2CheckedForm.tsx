@@ -3,6 +3,7 @@
 import { useActionState } from "react";
 import { clearVo2Checked, saveVo2Checked, type FormState } from "../actions";
 import { ReasonAndSubmit, ReviewerField } from "./ReviewerFields";
+import { VO2_CHECKS } from "../vo2Checks";
 
 /**
  * Shown when VO2 rose implausibly little with the work rate: after checking the cart and the ergometer, a reviewer may
@@ -29,6 +30,7 @@ export function Vo2CheckedForm({
         <form action={clearVo2Checked}>
           <input type="hidden" name="versionToken" value={versionToken} />
           <input type="hidden" name="testId" value={testId} />
+          <input name="by" required minLength={2} size={12} placeholder="your name" aria-label="Reviewer" />{" "}
           <button type="submit">Stop reading VO2-based values</button>
         </form>
       </div>
@@ -37,18 +39,26 @@ export function Vo2CheckedForm({
     <details className="how" data-testid="vo2-checked">
       <summary>read VO2-based values after checking the cart</summary>
       <p>
-        Only after the gas and flow calibration, the mask and the ergometer&apos;s work-rate record were checked and found right:
-        the values are then read against cut-offs, with the doubt said beside them.
+        Only when every item below was checked and found right. The values are then read against cut-offs; the report&apos;s
+        conclusion and methods say they were read at your word, and ΔVO2/ΔWR itself is still not read.
       </p>
       <form action={action} className="stack" style={{ marginTop: "0.5rem" }}>
         <input type="hidden" name="versionToken" value={versionToken} />
         <input type="hidden" name="testId" value={testId} />
+        <fieldset>
+          <legend>Checked and found right</legend>
+          {Object.entries(VO2_CHECKS).map(([name, label]) => (
+            <label key={name} style={{ display: "block" }}>
+              <input type="checkbox" name={name} defaultChecked={v[name] === "on"} /> {label}
+            </label>
+          ))}
+        </fieldset>
         <div className="row">
           <ReviewerField value={v.by} />
         </div>
         <ReasonAndSubmit
           value={v.reason}
-          placeholder="e.g. calibration and a biological control checked"
+          placeholder="e.g. re-calibrated after the test; biological control within 3 %"
           errors={e}
           ok={state.ok}
           pending={pending}

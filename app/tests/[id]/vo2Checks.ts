@@ -1,0 +1,7 @@
+/** What must have been checked before VO2-based values are read despite an implausible ΔVO2/ΔWR (common practice). */
+export const VO2_CHECKS = {
+  gas: "gas analyser calibration",
+  flow: "flow or volume calibration",
+  mask: "mask fit and leaks during the test (VE and VCO2 consistent with VO2)",
+  work: "the ergometer's work-rate record",
+} as const;
