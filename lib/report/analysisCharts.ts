@@ -42,6 +42,7 @@ export function analysisCharts(result: AnalysisResult): ChartSpec[] {
       vt2TimeS: vt2.timeS,
       setByReviewer,
       spans: test.phases.map((p) => ({ startS: p.startS, endS: p.endS, label: p.phase })),
+      setAside: test.settings?.setAside ?? [],
     }),
   ];
   if (exRows.some((r) => r.vco2MlMin !== undefined)) {

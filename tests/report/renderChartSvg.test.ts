@@ -116,6 +116,27 @@ describe("renderChartSvg", () => {
     expect(Number(plates[0].width)).toBeCloseTo("exercise (invented)".length * 8 * 0.55 + 4, 1);
   });
 
+  it("draws data set aside by review as its own darker band, labelled at the top, over the phase bands", () => {
+    const svg = renderChartSvg({
+      ...base,
+      bands: [
+        { from: 10, to: 80, label: "exercise (invented)" },
+        { from: 30, to: 40, label: "set aside", kind: "set-aside" },
+      ],
+    });
+    const rects = elements(svg, "rect");
+    const phase = rects.find((r) => r.fill === "#f2eee3")!;
+    const aside = rects.find((r) => r.fill === "#ddd3c4")!;
+    expect(phase).toBeDefined();
+    expect(aside).toBeDefined();
+    // drawn after the phase band (on top of it), and a tenth of the x range wide against the phase's 70 %
+    expect(svg.indexOf('fill="#ddd3c4"')).toBeGreaterThan(svg.indexOf('fill="#f2eee3"'));
+    expect(Number(aside.width) / Number(phase.width)).toBeCloseTo(10 / 70, 2);
+    // its label sits near the top of the plot, the phase label near the foot
+    const y = (label: string) => Number(new RegExp(`<text [^>]*y="([\\d.]+)"[^>]*>${label}</text>`).exec(svg)![1]);
+    expect(y("set aside")).toBeLessThan(y("exercise \\(invented\\)"));
+  });
+
   it("clips a reference line to the plot: identity on x 0-100, y 0-50 runs (0,0)→(50,50)", () => {
     const spec: ChartSpec = { ...base, refLines: [{ slope: 1, intercept: 0, label: "identity" }] };
     // Legend: "A" (49.5 px) and "identity" (88 px) fit one row, so the layout is unchanged.

@@ -54,6 +54,8 @@ export interface ChartBand {
   from: number;
   to: number;
   label: string;
+  /** A phase of the test (default, pale, label at the foot) or data set aside by review (darker, label at the top). */
+  kind?: "phase" | "set-aside";
 }
 
 export interface ChartSpec {

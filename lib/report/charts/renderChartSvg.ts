@@ -36,6 +36,8 @@ const FONT = 'font-family="Roboto, Helvetica, Arial, sans-serif"';
 const AXIS_INK = "#333333";
 const GRID_INK = "#e4e0d6";
 const BAND_FILL = "#f2eee3";
+/** Data set aside by review: a darker warm grey than the phases, so the gap in the points reads as deliberate. */
+const SET_ASIDE_FILL = "#ddd3c4";
 const MUTED_INK = "#666666";
 const REF_INK = "#8c8c8c";
 const REF_DASH = "3 3";
@@ -205,14 +207,18 @@ export function renderChartSvg(spec: ChartSpec, opts: RenderChartOptions = {}): 
     const a = Math.max(left, Math.min(right, x(Math.min(b.from, b.to))));
     const z = Math.max(left, Math.min(right, x(Math.max(b.from, b.to))));
     if (z - a <= 0) continue;
-    out.push(`<rect x="${fmt(a)}" y="${fmt(top)}" width="${fmt(z - a)}" height="${fmt(bottom - top)}" fill="${BAND_FILL}"/>`);
+    const setAside = b.kind === "set-aside";
+    out.push(
+      `<rect x="${fmt(a)}" y="${fmt(top)}" width="${fmt(z - a)}" height="${fmt(bottom - top)}" fill="${setAside ? SET_ASIDE_FILL : BAND_FILL}"/>`,
+    );
     // a white plate behind the label rather than a stroked halo: the PDF's SVG renderer ignores paint-order and drew the
-    // white stroke over the letters, leaving blank boxes
+    // white stroke over the letters, leaving blank boxes; data set aside is labelled at the top, phases at the foot
     const cx = (a + z) / 2;
     const w = textWidth(b.label, 8) + 4;
+    const base = setAside ? top + 11 : bottom - 5;
     bandLabels.push(
-      `<rect x="${fmt(cx - w / 2)}" y="${fmt(bottom - 13)}" width="${fmt(w)}" height="11" fill="#ffffff" fill-opacity="0.85"/>`,
-      `<text x="${fmt(cx)}" y="${fmt(bottom - 5)}" ${FONT} font-size="8" text-anchor="middle" fill="${MUTED_INK}">${escapeXml(b.label)}</text>`,
+      `<rect x="${fmt(cx - w / 2)}" y="${fmt(base - 8)}" width="${fmt(w)}" height="11" fill="#ffffff" fill-opacity="0.85"/>`,
+      `<text x="${fmt(cx)}" y="${fmt(base)}" ${FONT} font-size="8" text-anchor="middle" fill="${MUTED_INK}">${escapeXml(b.label)}</text>`,
     );
   }
 

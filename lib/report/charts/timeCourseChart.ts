@@ -17,6 +17,8 @@ export interface TimeCourseChartInput {
   vt2TimeS?: MaybeNumber;
   /** Shaded spans, s, e.g. the exercise phase. */
   spans?: readonly { startS: number; endS: number; label: string }[];
+  /** Spans whose gas values a reviewer set aside, s (shaded darker, labelled "set aside"). @default none */
+  setAside?: readonly { startS: number; endS: number }[];
   /** Thresholds a reviewer set (their markers read "VT1 (reviewer)"). @default none */
   setByReviewer?: ThresholdsSetByReviewer;
 }
@@ -36,7 +38,15 @@ export function timeCourseChart(input: TimeCourseChartInput): ChartSpec {
   if (input.workW) right.push({ name: "Work rate", kind: "line", axis: "y2", points: pairSeries(input.timeS, input.workW, min) });
   const all = [...series, ...right].filter((s) => s.points.length > 0);
   const hasRight = all.some((s) => s.axis === "y2");
-  const bands: ChartBand[] = (input.spans ?? []).map((s) => ({ from: s.startS * min, to: s.endS * min, label: s.label }));
+  const bands: ChartBand[] = [
+    ...(input.spans ?? []).map((s) => ({ from: s.startS * min, to: s.endS * min, label: s.label })),
+    ...(input.setAside ?? []).map((s): ChartBand => ({
+      from: s.startS * min,
+      to: s.endS * min,
+      label: "set aside",
+      kind: "set-aside",
+    })),
+  ];
   return {
     id: "time-course",
     title: "Time course",
