@@ -6,7 +6,7 @@ import { importLactateFile, parseSignedTimeText, STAGE_DURATION_LIMITS_S } from 
 import { hasErrors, makeIssue, plausibilityProblem, type PlausibleField } from "../lib/core";
 import { ATRIAL_FIBRILLATION_HR_NOTE, BETA_BLOCKER_HR_NOTE, REFERRAL_QUESTIONS } from "../lib/interpret";
 import { CLINICAL_CAUTION, toCliJson, type CliAnalysisJson } from "../lib/report";
-import { conditionTable } from "../lib/signal";
+import { conditionTable, exerciseShareSetAside } from "../lib/signal";
 import { formatClock } from "../lib/units";
 import { EXIT_STATUS_HELP, UsageError } from "./usageError";
 
@@ -243,11 +243,10 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
       record.table,
       opts.exerciseSpan ? { phases: { exerciseSpan: { ...opts.exerciseSpan, reason: "" } } } : {},
     ).exercise;
-    for (const { startS, endS } of opts.setAside)
-      if (ex && Math.min(endS, ex.endS) - Math.max(startS, ex.startS) > 0.5 * (ex.endS - ex.startS))
-        throw new UsageError(
-          `--set-aside ${formatClock(startS)}-${formatClock(endS)} covers more than half of the exercise phase (${formatClock(ex.startS)}-${formatClock(ex.endS)}): a recording that faulty should be repeated or re-imported.`,
-        );
+    if (ex && exerciseShareSetAside(opts.setAside, ex) > 0.5)
+      throw new UsageError(
+        `--set-aside ${opts.setAside.map((x) => `${formatClock(x.startS)}-${formatClock(x.endS)}`).join(", ")} would set aside more than half of the exercise phase (${formatClock(ex.startS)}-${formatClock(ex.endS)}): a recording that faulty should be repeated or re-imported.`,
+      );
   }
   const settings = {
     conditioning: {

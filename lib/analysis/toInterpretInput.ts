@@ -124,7 +124,7 @@ export function toInterpretInput(
   if (endMissing !== null)
     for (const k of PEAK_VO2_KEYS)
       notRead[k] ??=
-        `the last ${Math.round(endMissing)} s of exercise hold no VO2, so the peak may be understated (see the warning on peak VO2)`;
+        `the last ${Math.round(endMissing)} s of exercise hold no full window of gas values, so the peak may be understated (see the warning on peak VO2)`;
   const plateauWhy = vo2PlateauNotAssessedReason(indices.vo2FinalIncrease);
   if (plateauWhy) reasons.vo2Plateau = plateauWhy;
   // the calibrated bands, as the values at each end (everything computed from VT1 moves with it)
@@ -378,7 +378,7 @@ function usesPredictedHrMax(pv: PredictedValue | undefined): boolean {
   return found;
 }
 
-/** The values read from the peak VO2 window or the end of exercise (not read when that end holds no VO2). */
+/** The values read from the peak window or the end of exercise (not read when that end holds no gas values). */
 const PEAK_VO2_KEYS = [
   "peakVo2MlMin",
   "peakVo2MlKgMin",
@@ -389,6 +389,11 @@ const PEAK_VO2_KEYS = [
   "o2PulsePeakMlBeat",
   "o2PulsePctPred",
   "o2PulsePlateau",
+  "peakRer",
+  "veMvvPct",
+  "breathingReserveLMin",
+  "breathingReservePct",
+  "rrPeak",
 ] as const satisfies readonly (keyof InterpretValues)[];
 
 /** An equation's label, with "extrapolated" when the patient lies outside the population it was derived in. */

@@ -144,6 +144,9 @@ const NOT_READ_KEYS: Record<string, readonly (keyof NonNullable<AnalysisResult["
   peakO2Pulse: ["o2PulsePeakMlBeat", "o2PulsePctPred"],
 };
 
+/** Key-value rows computed from VO2 (marked when VO2-based values are read at a reviewer's word). */
+const VO2_BASED_ROWS = new Set(["peakVo2", "peakVo2PerKg", "peakO2Pulse"]);
+
 function testLine(result: AnalysisResult, record: TestRecord): string {
   const parts = [`${record.ergometer} ergometer`];
   const rate = result.conditioned.rampRateWPerMin;
@@ -197,6 +200,11 @@ export function buildReportModel(
     // a value the interpretation does not read (a child's % of an adult equation, a doubted VO2) says so on its row
     const notRead = (NOT_READ_KEYS[c.key] ?? []).map((k) => result.interpretInput.notRead?.[k]).find(Boolean);
     if (notRead) row.note = [row.note, `not read: ${notRead}`].filter(Boolean).join("; ");
+    // read although VO2 was doubted, at a reviewer's word: said on every VO2-based row, where the reader looks first
+    else if (result.interpretInput.vo2ReadAtReview && VO2_BASED_ROWS.has(c.key))
+      row.note = [row.note, "VO2 doubted (ΔVO2/ΔWR below 4.8); read at a reviewer's word, see methods"]
+        .filter(Boolean)
+        .join("; ");
     // shown, but not read against the age-predicted maximum on a beta-blocker (common practice)
     if (c.key === "peakHr" && hrNotes.length) row.note = [row.note, ...hrNotes].filter(Boolean).join("; ");
     // O2 pulse is VO2 / HR: in atrial fibrillation it is shown, not interpreted

@@ -274,3 +274,26 @@ export function rejectArtefacts(rows: readonly BreathRow[], options: ArtefactOpt
   const clean = working.filter((_, i) => !removedAt.has(i));
   return { clean, removed, issues };
 }
+
+/**
+ * The share of the exercise phase covered by set-aside spans taken together (overlaps counted once), 0–1. Entry points
+ * refuse spans that would set aside more than half (a test to repeat, not one to read without its exercise).
+ */
+export function exerciseShareSetAside(
+  spans: readonly { startS: number; endS: number }[],
+  exercise: { startS: number; endS: number },
+): number {
+  const parts = spans
+    .map((s) => [Math.max(s.startS, exercise.startS), Math.min(s.endS, exercise.endS)] as const)
+    .filter(([a, b]) => b > a)
+    .sort((x, y) => x[0] - y[0]);
+  let covered = 0;
+  let reach = -Infinity;
+  for (const [a, b] of parts) {
+    if (b <= reach) continue;
+    covered += b - Math.max(a, reach);
+    reach = b;
+  }
+  const length = exercise.endS - exercise.startS;
+  return length > 0 ? covered / length : 0;
+}

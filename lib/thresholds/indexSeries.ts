@@ -166,6 +166,29 @@ export function windowGapLimitS(times: readonly number[]): number {
 }
 
 /**
+ * End of the last `windowS`-s window of `ends` that is covered (no gap longer than `windowGapLimitS` inside it or before
+ * its first value), or null when there is none: a few values left after a gap do not make a window.
+ */
+export function lastCoveredWindowEnd(ends: readonly number[], windowS: number, spanStartS: number): number | null {
+  const maxGapS = windowGapLimitS(ends);
+  for (let i = ends.length - 1; i >= 0; i--) {
+    const startS = ends[i] - windowS;
+    if (ends[i] - spanStartS < 0.8 * windowS) return null;
+    let j = i;
+    let covered = true;
+    while (j > 0 && ends[j - 1] > startS) {
+      if (ends[j] - ends[j - 1] > maxGapS) {
+        covered = false;
+        break;
+      }
+      j--;
+    }
+    if (covered && ends[j] - Math.max(startS, spanStartS) <= maxGapS) return ends[i];
+  }
+  return null;
+}
+
+/**
  * Highest (or lowest) value of `evaluate(startS, endS)` over time windows of `windowS` seconds ending at each
  * of `ends` (window = [end − windowS, end]). Windows starting before `spanStartS` by more than 20% of the
  * window are skipped (a window must be at least 80% covered, as in `rollingTimeAverage`), and so are windows with a gap

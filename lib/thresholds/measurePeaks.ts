@@ -3,7 +3,16 @@ import { makeIssue, measured, notDetermined, type Issue, type Measured, type Pro
 import { medianRowIntervalS, type ConditionedTest } from "../signal";
 import { formatClock } from "../units";
 import { CARRY_OVER_WARNING } from "./eov";
-import { exerciseSpan, fieldSeries, provenanceOf, restSpan, rollingExtreme, WindowMeans, type TimeSpan } from "./indexSeries";
+import {
+  exerciseSpan,
+  fieldSeries,
+  lastCoveredWindowEnd,
+  provenanceOf,
+  restSpan,
+  rollingExtreme,
+  WindowMeans,
+  type TimeSpan,
+} from "./indexSeries";
 import { channelGaps, describeChannelGap } from "./channelGaps";
 import { readAtTime, type ThresholdPoint } from "./valuesAtThreshold";
 
@@ -172,15 +181,16 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
   // often a burst of artefactual breaths or a misplaced end of exercise than a real early peak
   const early = !stage && span && vo2Found.win ? span.endS - vo2Found.win.endS : 0;
   // no VO2 over the end of exercise (set aside by review, or missing): the highest before it is not the peak
-  const vo2Ends = span ? ends("vo2MlMin") : [];
-  const endGap = !stage && span && vo2Ends.length > 0 ? span.endS - vo2Ends[vo2Ends.length - 1] : 0;
+  // judged by the last covered window, so a few breaths left after a span do not hide the gap
+  const lastWindowEnd = !stage && span ? lastCoveredWindowEnd(ends("vo2MlMin"), windowS, spanStart) : null;
+  const endGap = !stage && span && lastWindowEnd !== null ? span.endS - lastWindowEnd : 0;
   const vo2EndMissingS = endGap > windowS && vo2Found.m.value !== null ? endGap : null;
   if (vo2EndMissingS !== null)
     issues.push(
       makeIssue(
         "warning",
         "peak-vo2-end-missing",
-        `The last ${Math.round(vo2EndMissingS)} s of exercise (to ${formatClock(span!.endS)}) hold no VO2${test.settings?.setAside?.length ? " (set aside by review, or missing from the file)" : " (missing from the file)"}: peak VO2 (${Math.round(vo2Found.m.value!)} mL/min) and the values read in its window are the highest before that and may understate the peak. They are shown, not read against predicted values or cut-offs.`,
+        `The last ${Math.round(vo2EndMissingS)} s of exercise (to ${formatClock(span!.endS)}) hold no full ${windowS}-s window of VO2${test.settings?.setAside?.length ? " (set aside by review, or missing from the file)" : " (missing from the file)"}: peak VO2 (${Math.round(vo2Found.m.value!)} mL/min) and the values read in its window are the highest before that and may understate the peak. They are shown, not read against predicted values or cut-offs, and neither are peak RER and ventilation.`,
         { field: "peak.vo2MlMin", timeS: span!.endS - vo2EndMissingS },
       ),
     );

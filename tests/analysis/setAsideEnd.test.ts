@@ -27,11 +27,15 @@ describe("the last two minutes of exercise set aside by review (INVENTED demo)",
     expect(r.indices.peaks.vo2EndMissingS).toBeGreaterThan(110);
     const warning = r.issues.find((i) => i.code === "peak-vo2-end-missing")!;
     expect(warning.message).toMatch(
-      /^The last 1\d\d s of exercise \(to \d+:\d\d\) hold no VO2 \(set aside by review, or missing/,
+      /^The last 1\d\d s of exercise \(to \d+:\d\d\) hold no full 30-s window of VO2 \(set aside by review, or missing/,
     );
     expect(r.issues.map((i) => i.code)).not.toContain("peak-vo2-before-end");
     // shown, not read: no % predicted grading, no plateau, no O2 pulse reading
-    expect(r.interpretInput.notRead?.peakVo2PctPred).toMatch(/^the last \d+ s of exercise hold no VO2/);
+    expect(r.interpretInput.notRead?.peakVo2PctPred).toMatch(/^the last \d+ s of exercise hold no full window of gas values/);
+    // nor are peak RER and ventilation: effort is not called submaximal on an RER read before the span
+    expect(r.interpretInput.notRead?.peakRer).toBeDefined();
+    expect(r.interpretInput.notRead?.veMvvPct).toBeDefined();
+    expect(r.interpretation.effort.verdict).not.toBe("submaximal");
     expect(r.interpretInput.notRead?.o2PulsePctPred).toBeDefined();
     expect(r.interpretation.path.steps.find((s) => s.nodeId === "peak-vo2")!.outcome).toBe("not-assessable");
   });
@@ -72,5 +76,15 @@ describe("a fall of VO2 at the end of exercise is not a plateau (ACTES 14, ODC-B
     expect(r.indices.vo2FinalIncrease.increaseMlKgMin.value).toBeNull();
     expect(r.indices.vo2FinalIncrease.increaseMlKgMin.reason).toMatch(/^VO2 fell by 15 % at a held or rising load/);
     expect(r.interpretation.effort.label).not.toMatch(/VO2 plateau/);
+  });
+
+  it("a few breaths left at the very end do not hide the gap (the last covered window counts, not the last breath)", async () => {
+    const record = await caseRecord("normal-adult");
+    const ex = analyse(record).conditioned.exercise!;
+    const r = analyse(record, {
+      conditioning: { setAside: [{ startS: ex.endS - 120, endS: ex.endS - 6, reason: "leak, last breaths kept (INVENTED)" }] },
+    });
+    expect(r.indices.peaks.vo2EndMissingS).toBeGreaterThan(80);
+    expect(r.interpretInput.notRead?.peakVo2PctPred).toBeDefined();
   });
 });

@@ -50,7 +50,19 @@ describe("--set-aside on ACTES test 4 (ODC-By 1.0)", () => {
 
   it("a span over more than half of the exercise phase is refused: such a test is repeated, not analysed without its exercise", async () => {
     await expect(runAnalyse(file, { ...base, setAside: [{ startS: 181, endS: 1168 }] })).rejects.toThrow(
-      /^--set-aside 3:01-19:28 covers more than half of the exercise phase/,
+      /^--set-aside 3:01-19:28 would set aside more than half of the exercise phase/,
     );
+  }, 60_000);
+
+  it("two spans that together cover most of the exercise phase are refused as one", async () => {
+    await expect(
+      runAnalyse(file, {
+        ...base,
+        setAside: [
+          { startS: 181, endS: 659 },
+          { startS: 659, endS: 1140 },
+        ],
+      }),
+    ).rejects.toThrow(/^--set-aside 3:01-10:59, 10:59-19:00 would set aside more than half of the exercise phase/);
   }, 60_000);
 });

@@ -44,6 +44,9 @@ describe("report methods with a span set aside by review", () => {
     expect(doubted.methods.some((m) => m.startsWith("VO2-based values were read at a reviewer's word"))).toBe(false);
     const result = analyse(leak, { vo2Checked: { reason: "checked gas calibration, by Dr Invented" } });
     const model = buildReportModel(result, leak, "x", { status: "draft", sections: [] });
+    // the key-value rows computed from VO2 say it where the reader looks first
+    const peakRow = model.keyValues.find((r) => r.label.startsWith("Peak VO2"))!;
+    expect(peakRow.note).toContain("read at a reviewer's word, see methods");
     expect(model.methods).toContain(
       `VO2-based values were read at a reviewer's word, although ΔVO2/ΔWR was ${result.indices.dVo2dWr.whole.slope.value!.toFixed(1)} mL/min/W, below 4.8: checked gas calibration, by Dr Invented.`,
     );

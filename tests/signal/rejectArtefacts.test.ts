@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { BreathRow } from "../../lib/breath";
-import { rejectArtefacts } from "../../lib/signal";
+import { exerciseShareSetAside, rejectArtefacts } from "../../lib/signal";
 
 /** Small deterministic generator (LCG, Numerical Recipes constants) so the noise is the same on every run. */
 function lcg(seed: number) {
@@ -150,5 +150,33 @@ describe("spans set aside by review", () => {
     expect(said[1].message).toBe("The span 4:20 to 4:30 lies within spans already set aside: nothing more was set aside.");
     expect(said[2].severity).toBe("warning");
     expect(said[2].message).toMatch(/holds no rows: nothing was set aside there\.$/);
+  });
+});
+
+describe("exerciseShareSetAside", () => {
+  it("counts overlapping spans once and clips them to the exercise phase (arithmetic by hand)", () => {
+    const ex = { startS: 100, endS: 500 };
+    // 150–250 and 200–300 → 150–300 (150 s); 450–600 → 450–500 (50 s); 0–50 outside: 200 of 400 s
+    expect(
+      exerciseShareSetAside(
+        [
+          { startS: 150, endS: 250 },
+          { startS: 200, endS: 300 },
+          { startS: 450, endS: 600 },
+          { startS: 0, endS: 50 },
+        ],
+        ex,
+      ),
+    ).toBeCloseTo(0.5, 12);
+    expect(
+      exerciseShareSetAside(
+        [
+          { startS: 120, endS: 130 },
+          { startS: 125, endS: 126 },
+        ],
+        ex,
+      ),
+    ).toBeCloseTo(10 / 400, 12);
+    expect(exerciseShareSetAside([], ex)).toBe(0);
   });
 });

@@ -5,7 +5,7 @@ import { z } from "zod";
 import type { AnalysisSettings } from "@/lib/analysis";
 import { analyse, checkThresholdOverride, ENGINE_VERSION } from "@/lib/analysis";
 import { parseSignedTimeText, parseTimeText, type BreathTable } from "@/lib/breath";
-import { conditionTable } from "@/lib/signal";
+import { conditionTable, exerciseShareSetAside } from "@/lib/signal";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { formatClock } from "@/lib/units";
 import { effectiveSettings, getTest, latestSettings, saveAnalysisVersion } from "@/lib/store/tests";
@@ -247,9 +247,9 @@ const setAsideSchema = z
 function setAsideTooLong(table: BreathTable, settings: AnalysisSettings, startS: number, endS: number): string | null {
   const ex = conditionTable(table, settings.conditioning).exercise;
   if (!ex) return null;
-  const overlap = Math.min(endS, ex.endS) - Math.max(startS, ex.startS);
-  return overlap > 0.5 * (ex.endS - ex.startS)
-    ? `The span covers more than half of the exercise phase (${formatClock(ex.startS)}–${formatClock(ex.endS)}): a recording that faulty should be repeated or re-imported, not analysed without its exercise.`
+  const spans = [...(settings.conditioning?.setAside ?? []), { startS, endS }];
+  return exerciseShareSetAside(spans, ex) > 0.5
+    ? `With this span, more than half of the exercise phase (${formatClock(ex.startS)}–${formatClock(ex.endS)}) would be set aside: a recording that faulty should be repeated or re-imported, not analysed without its exercise.`
     : null;
 }
 

@@ -2,6 +2,6 @@
 export const VO2_CHECKS = {
   gas: "gas analyser calibration",
   flow: "flow or volume calibration",
-  mask: "mask fit and leaks during the test (VE and VCO2 consistent with VO2)",
+  mask: "mask fit and seal during the test (observed, or a leak test before and after)",
   work: "the ergometer's work-rate record",
 } as const;
