@@ -28,8 +28,10 @@ interface AnalyseOptions {
   referral: string;
   select: Record<string, string>;
   exerciseSpan?: { startS: number; endS: number };
-  /** Spans of the record set aside by hand (a leak, a run of coughs), each m:ss-m:ss. */
+  /** Spans of the record whose gas values are set aside by hand (a leak, a run of coughs), each m:ss-m:ss. */
   setAside?: { startS: number; endS: number }[];
+  /** Spans whose heart rate is set aside by hand (an ECG artefact). */
+  setAsideHr?: { startS: number; endS: number }[];
 }
 
 export function registerAnalyse(program: Command): void {
@@ -89,6 +91,12 @@ export function registerAnalyse(program: Command): void {
       collectSetAside,
       [],
     )
+    .option(
+      "--set-aside-hr <start-end>",
+      "a span of the record whose heart rate is not used (an ECG artefact), m:ss-m:ss or seconds; repeatable",
+      collectSetAsideHr,
+      [],
+    )
     .addHelpText("after", EXIT_STATUS_HELP)
     .action(async (file: string, opts: AnalyseOptions) => {
       const result = await runAnalyse(file, opts);
@@ -143,6 +151,10 @@ function parseExerciseSpan(raw: string): { startS: number; endS: number } {
 
 function collectSetAside(raw: string, acc: { startS: number; endS: number }[]): { startS: number; endS: number }[] {
   return [...acc, parseSpan("--set-aside", raw)];
+}
+
+function collectSetAsideHr(raw: string, acc: { startS: number; endS: number }[]): { startS: number; endS: number }[] {
+  return [...acc, parseSpan("--set-aside-hr", raw)];
 }
 
 function collectSelect(raw: string, acc: Record<string, string>): Record<string, string> {
@@ -227,6 +239,7 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
   const spans: [string, { startS: number; endS: number }][] = [
     ...(opts.exerciseSpan ? [["--exercise-span", opts.exerciseSpan] as [string, { startS: number; endS: number }]] : []),
     ...(opts.setAside ?? []).map((s) => ["--set-aside", s] as [string, { startS: number; endS: number }]),
+    ...(opts.setAsideHr ?? []).map((s) => ["--set-aside-hr", s] as [string, { startS: number; endS: number }]),
   ];
   for (const [flag, { startS, endS }] of spans)
     if (startS < first || endS > last) {
@@ -251,7 +264,18 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
   const settings = {
     conditioning: {
       ...(opts.exerciseSpan ? { phases: { exerciseSpan: { ...opts.exerciseSpan, reason: "set with --exercise-span" } } } : {}),
-      ...(opts.setAside?.length ? { setAside: opts.setAside.map((s) => ({ ...s, reason: "set with --set-aside" })) } : {}),
+      ...(opts.setAside?.length || opts.setAsideHr?.length
+        ? {
+            setAside: [
+              ...(opts.setAside ?? []).map((s) => ({ ...s, reason: "set with --set-aside" })),
+              ...(opts.setAsideHr ?? []).map((s) => ({
+                ...s,
+                reason: "set with --set-aside-hr",
+                channel: "heart-rate" as const,
+              })),
+            ],
+          }
+        : {}),
     },
   };
   return toCliJson(analyse(record, settings), CLINICAL_CAUTION);

@@ -355,7 +355,9 @@ export function buildReportModel(
   const reviewed = result.conditioned.removed.filter((r) => r.reason.startsWith("set aside by review")).length;
   const automatic = result.conditioned.removed.length - reviewed;
   for (const span of byReview)
-    methods.push(`Set aside by review before analysis: ${formatClock(span.startS)}–${formatClock(span.endS)} (${span.reason}).`);
+    methods.push(
+      `Set aside by review before analysis: ${span.channel === "heart-rate" ? "heart rate" : "gas and ventilation values"}, ${formatClock(span.startS)}–${formatClock(span.endS)} (${span.reason}).`,
+    );
   if (automatic > 0) methods.push(`${automatic} breath values were set aside as artefacts before analysis.`);
   // a fixed line (not editable draft text): VO2-based values read although VO2 rose implausibly little with work
   if (result.interpretInput.vo2ReadAtReview)

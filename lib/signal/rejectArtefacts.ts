@@ -14,6 +14,8 @@ export const DEFAULT_ARTEFACT_RULE: ArtefactRule = {
 
 /** The values a reviewer's span sets aside: gas exchange and ventilation (not time, HR, SpO2, load or markers). */
 const GAS_FIELDS = ["vo2MlMin", "vco2MlMin", "veLMin", "vo2MlKgMin", "rrBrMin", "vtL", "peto2MmHg", "petco2MmHg"] as const;
+/** The values a heart-rate span sets aside. */
+const HR_FIELDS = ["hrBpm"] as const;
 
 /** Default RER screen: breaths with RER below 0.5 or above 2 are set aside (common practice). */
 export const DEFAULT_RER_LIMITS = { min: 0.5, max: 2 } as const;
@@ -78,42 +80,44 @@ export function rejectArtefacts(rows: readonly BreathRow[], options: ArtefactOpt
   const spans = options.setAside ?? [];
   const working: BreathRow[] = rows.slice();
   for (const span of spans) {
+    const heart = span.channel === "heart-rate";
+    const fields: readonly (keyof BreathRow)[] = heart ? HR_FIELDS : GAS_FIELDS;
     let count = 0;
     let already = 0;
     working.forEach((r, index) => {
       if (r.timeS < span.startS || r.timeS > span.endS) return;
-      const field = GAS_FIELDS.find(
-        (f): f is NumericField & (typeof GAS_FIELDS)[number] => f !== "vo2MlKgMin" && typeof r[f] === "number",
-      );
-      if (!field) {
-        if (rows[index] !== r)
-          already++; // stripped by an earlier span
-        else if (typeof r.vo2MlKgMin === "number") working[index] = { ...r, vo2MlKgMin: undefined };
+      const present = fields.filter((f) => typeof r[f] === "number");
+      if (present.length === 0) {
+        if (fields.some((f) => typeof rows[index][f] === "number")) already++; // stripped by an earlier span
         return;
       }
+      const field = (present.find((f) => f !== "vo2MlKgMin") ?? "vo2MlMin") as NumericField;
       byReview.push({
         index,
         timeS: r.timeS,
         sourceRow: r.sourceRow,
         field,
-        value: r[field]!,
+        value: typeof r[field] === "number" ? (r[field] as number) : NaN,
         reason: `set aside by review (${formatClock(span.startS)}–${formatClock(span.endS)}): ${span.reason}`,
       });
       const kept: BreathRow = { ...r };
-      for (const f of GAS_FIELDS) delete kept[f];
+      for (const f of fields) delete kept[f];
       working[index] = kept;
       count++;
     });
     const more = already > 0 ? ` (${already} more already set aside by an earlier span)` : "";
+    const unit = options.stageRows ? "row(s)" : heart ? "row(s)" : "breath(s)";
+    const what = heart ? "heart rate" : "gas and ventilation values";
+    const keptWords = heart ? "The gas values and the load there are kept." : "Heart rate, SpO2 and the load there are kept.";
     issues.push(
       makeIssue(
         count > 0 ? "info" : "warning",
         "breaths-set-aside-by-review",
         count > 0
-          ? `The gas and ventilation values of ${count} ${options.stageRows ? "row(s)" : "breath(s)"} from ${formatClock(span.startS)} to ${formatClock(span.endS)} were set aside by review${more}: ${span.reason}. Heart rate, SpO2 and the load there are kept.`
+          ? `The ${what} of ${count} ${unit} from ${formatClock(span.startS)} to ${formatClock(span.endS)} were set aside by review${more}: ${span.reason}. ${keptWords}`
           : already > 0
             ? `The span ${formatClock(span.startS)} to ${formatClock(span.endS)} lies within spans already set aside: nothing more was set aside.`
-            : `The span set aside by review, ${formatClock(span.startS)} to ${formatClock(span.endS)}, holds no rows: nothing was set aside there.`,
+            : `The span set aside by review, ${formatClock(span.startS)} to ${formatClock(span.endS)}, holds no ${heart ? "heart rate" : "rows"}: nothing was set aside there.`,
         { timeS: span.startS },
       ),
     );

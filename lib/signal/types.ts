@@ -65,6 +65,11 @@ export interface SetAsideSpan {
   endS: number;
   /** Why, and by whom ("mask leak seen on the test log, by J. Smith"). */
   reason: string;
+  /**
+   * What is set aside: the gas and ventilation values (a leak, a cough run) or the heart rate (an ECG artefact, double
+   * counting). @default "gas"
+   */
+  channel?: "gas" | "heart-rate";
 }
 
 /** The imported table after conditioning: what every measurement in lib/thresholds starts from. */

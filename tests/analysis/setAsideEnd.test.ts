@@ -59,6 +59,30 @@ describe("the last two minutes of exercise set aside by review (INVENTED demo)",
   });
 });
 
+describe("heart rate set aside by review (an INVENTED ECG artefact)", () => {
+  it("a 40-s run of doubled beats sets peak HR; setting the heart rate aside there restores it and keeps the gases", async () => {
+    const record = await caseRecord("normal-adult");
+    const plain = analyse(record);
+    const ex = plain.conditioned.exercise!;
+    const [from, to] = [ex.endS - 100, ex.endS - 60];
+    // double counting of the ECG: the heart rate reads twice its value for 40 s (INVENTED)
+    const rows = record.table.rows.map((r) =>
+      r.timeS >= from && r.timeS <= to && r.hrBpm !== undefined ? { ...r, hrBpm: r.hrBpm * 2 } : r,
+    );
+    const faulty = { ...record, table: { ...record.table, rows } };
+    expect(analyse(faulty).indices.peaks.hrBpm.value!).toBeGreaterThan(plain.indices.peaks.hrBpm.value! + 50);
+    const r = analyse(faulty, {
+      conditioning: { setAside: [{ startS: from, endS: to, reason: "ECG double counting (INVENTED)", channel: "heart-rate" }] },
+    });
+    expect(r.indices.peaks.hrBpm.value).toBeCloseTo(plain.indices.peaks.hrBpm.value!, 6);
+    // the gases are untouched
+    expect(r.indices.peaks.vo2MlMin.value).toBe(plain.indices.peaks.vo2MlMin.value);
+    expect(r.issues.find((i) => i.code === "breaths-set-aside-by-review")?.message).toMatch(
+      /^The heart rate of \d+ row\(s\) from .* were set aside by review: ECG double counting \(INVENTED\)\. The gas values and the load there are kept\.$/,
+    );
+  });
+});
+
 describe("a fall of VO2 at the end of exercise is not a plateau (ACTES 14, ODC-By 1.0)", () => {
   it("the plateau criterion is not determined, with the fall as the reason", async () => {
     const file = path.resolve(__dirname, "../fixtures/open-data/actes/actes_vo2_breaths_derived.csv");

@@ -65,4 +65,11 @@ describe("--set-aside on ACTES test 4 (ODC-By 1.0)", () => {
       }),
     ).rejects.toThrow(/^--set-aside 3:01-10:59, 10:59-19:00 would set aside more than half of the exercise phase/);
   }, 60_000);
+
+  it("--set-aside-hr on a file without heart rate says there was none to set aside", async () => {
+    const r = await runAnalyse(file, { ...base, setAsideHr: [{ startS: 600, endS: 660 }] });
+    const said = r.issues.find((i) => i.code === "breaths-set-aside-by-review")!;
+    expect(said.severity).toBe("warning");
+    expect(said.message).toBe("The span set aside by review, 10:00 to 11:00, holds no heart rate: nothing was set aside there.");
+  }, 60_000);
 });

@@ -23,7 +23,9 @@ describe("report methods with a span set aside by review", () => {
     expect(result.conditioned.removed.filter((r) => r.reason.startsWith("set aside by review"))).toHaveLength(inSpan);
     const model = buildReportModel(result, record, demoLabel("normal-adult"), { status: "draft", sections: [] });
     const line = model.methods.find((m) => m.startsWith("Set aside by review before analysis:"));
-    expect(line).toMatch(/^Set aside by review before analysis: \d+:\d\d–\d+:\d\d \(cough run, by Dr Invented\)\.$/);
+    expect(line).toMatch(
+      /^Set aside by review before analysis: gas and ventilation values, \d+:\d\d–\d+:\d\d \(cough run, by Dr Invented\)\.$/,
+    );
     // the automatic count is what the screens removed, without the reviewer's breaths
     const automatic = result.conditioned.removed.length - inSpan;
     const autoLine = model.methods.find((m) => m.endsWith("breath values were set aside as artefacts before analysis."));

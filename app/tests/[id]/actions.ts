@@ -235,6 +235,7 @@ const setAsideSchema = z
     testId: recordId("test"),
     start: clockOrSeconds("Start"),
     end: clockOrSeconds("End"),
+    channel: z.enum(["gas", "heart-rate"], { error: "Choose what to set aside" }),
     reason: z.string().trim().min(5, "Give the reason (at least a few words)").max(300),
     by: z.string().trim().min(2, "Say who is setting the breaths aside").max(80),
   })
@@ -247,7 +248,7 @@ const setAsideSchema = z
 function setAsideTooLong(table: BreathTable, settings: AnalysisSettings, startS: number, endS: number): string | null {
   const ex = conditionTable(table, settings.conditioning).exercise;
   if (!ex) return null;
-  const spans = [...(settings.conditioning?.setAside ?? []), { startS, endS }];
+  const spans = [...(settings.conditioning?.setAside ?? []).filter((x) => x.channel !== "heart-rate"), { startS, endS }];
   return exerciseShareSetAside(spans, ex) > 0.5
     ? `With this span, more than half of the exercise phase (${formatClock(ex.startS)}–${formatClock(ex.endS)}) would be set aside: a recording that faulty should be repeated or re-imported, not analysed without its exercise.`
     : null;
@@ -272,7 +273,7 @@ export async function saveSetAside(_prev: FormState, form: FormData): Promise<Fo
     };
   const current = effectiveSettings(o.testId, getLabDefaults());
   const spans = current.conditioning?.setAside ?? [];
-  const covering = spans.find((x) => x.startS <= o.start && x.endS >= o.end);
+  const covering = spans.find((x) => (x.channel ?? "gas") === o.channel && x.startS <= o.start && x.endS >= o.end);
   if (covering)
     return {
       errors: {
@@ -280,7 +281,7 @@ export async function saveSetAside(_prev: FormState, form: FormData): Promise<Fo
       },
       values,
     };
-  const tooLong = setAsideTooLong(record.table, current, o.start, o.end);
+  const tooLong = o.channel === "gas" ? setAsideTooLong(record.table, current, o.start, o.end) : null;
   if (tooLong) return { errors: { start: tooLong }, values };
   if (spans.length >= MAX_SET_ASIDE_SPANS)
     return { errors: { form: `At most ${MAX_SET_ASIDE_SPANS} spans can be set aside; restore one first.` }, values };
@@ -288,7 +289,7 @@ export async function saveSetAside(_prev: FormState, form: FormData): Promise<Fo
     ...current,
     conditioning: {
       ...current.conditioning,
-      setAside: [...spans, { startS: o.start, endS: o.end, reason: `${o.reason}, by ${o.by}` }],
+      setAside: [...spans, { startS: o.start, endS: o.end, reason: `${o.reason}, by ${o.by}`, channel: o.channel }],
     },
   };
   saveAnalysisVersion(
@@ -296,7 +297,7 @@ export async function saveSetAside(_prev: FormState, form: FormData): Promise<Fo
     settings,
     ENGINE_VERSION,
     o.by,
-    `breaths ${formatClock(o.start)}–${formatClock(o.end)} set aside: ${o.reason}`,
+    `${o.channel === "heart-rate" ? "heart rate" : "breaths"} ${formatClock(o.start)}–${formatClock(o.end)} set aside: ${o.reason}`,
   );
   revalidatePath(`/tests/${o.testId}`);
   return { ok: "Span set aside in a new analysis version; thresholds and all indices were recomputed without it." };

@@ -687,7 +687,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         testId={testId}
         versionToken={versionToken}
         spans={(result.conditioned.settings?.setAside ?? []).map((s) => ({
-          label: `${formatClock(s.startS)}–${formatClock(s.endS)}: ${s.reason}`,
+          label: `${s.channel === "heart-rate" ? "heart rate, " : ""}${formatClock(s.startS)}–${formatClock(s.endS)}: ${s.reason}`,
         }))}
       />
       <h3>How the file was read</h3>

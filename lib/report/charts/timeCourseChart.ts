@@ -18,7 +18,7 @@ export interface TimeCourseChartInput {
   /** Shaded spans, s, e.g. the exercise phase. */
   spans?: readonly { startS: number; endS: number; label: string }[];
   /** Spans whose gas values a reviewer set aside, s (shaded darker, labelled "set aside"). @default none */
-  setAside?: readonly { startS: number; endS: number }[];
+  setAside?: readonly { startS: number; endS: number; channel?: "gas" | "heart-rate" }[];
   /** Thresholds a reviewer set (their markers read "VT1 (reviewer)"). @default none */
   setByReviewer?: ThresholdsSetByReviewer;
 }

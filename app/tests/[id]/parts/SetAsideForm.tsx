@@ -57,6 +57,13 @@ export function SetAsideForm({
             To (m:ss)
             <input name="end" defaultValue={v.end ?? ""} size={6} placeholder="13:20" />
           </label>
+          <label>
+            What
+            <select name="channel" defaultValue={v.channel ?? "gas"}>
+              <option value="gas">gas and ventilation values (a leak, coughs)</option>
+              <option value="heart-rate">heart rate (an ECG artefact)</option>
+            </select>
+          </label>
           <ReviewerField value={v.by} />
         </div>
         <ReasonAndSubmit
