@@ -166,6 +166,19 @@ export function windowGapLimitS(times: readonly number[]): number {
 }
 
 /**
+ * True when the window from `fromS` to `ends[i]` has no gap longer than `maxGapS` between its values or before its first:
+ * a walk back through the window's values, O(values in the window).
+ */
+function windowCovered(ends: readonly number[], i: number, fromS: number, maxGapS: number): boolean {
+  let j = i;
+  while (j > 0 && ends[j - 1] > fromS) {
+    if (ends[j] - ends[j - 1] > maxGapS) return false;
+    j--;
+  }
+  return ends[j] - fromS <= maxGapS;
+}
+
+/**
  * End of the last `windowS`-s window of `ends` that is covered (no gap longer than `windowGapLimitS` inside it or before
  * its first value), or null when there is none: a few values left after a gap do not make a window.
  */
@@ -174,16 +187,7 @@ export function lastCoveredWindowEnd(ends: readonly number[], windowS: number, s
   for (let i = ends.length - 1; i >= 0; i--) {
     const startS = ends[i] - windowS;
     if (ends[i] - spanStartS < 0.8 * windowS) return null;
-    let j = i;
-    let covered = true;
-    while (j > 0 && ends[j - 1] > startS) {
-      if (ends[j] - ends[j - 1] > maxGapS) {
-        covered = false;
-        break;
-      }
-      j--;
-    }
-    if (covered && ends[j] - Math.max(startS, spanStartS) <= maxGapS) return ends[i];
+    if (windowCovered(ends, i, Math.max(startS, spanStartS), maxGapS)) return ends[i];
   }
   return null;
 }
@@ -207,19 +211,7 @@ export function rollingExtreme(
     const end = ends[i];
     if (end - spanStartS < 0.8 * windowS) continue;
     const startS = end - windowS;
-    if (windowS > 0) {
-      // walk back through the window's values: every gap, and the one from the window's start, within the limit
-      let j = i;
-      let covered = true;
-      while (j > 0 && ends[j - 1] > startS) {
-        if (ends[j] - ends[j - 1] > maxGapS) {
-          covered = false;
-          break;
-        }
-        j--;
-      }
-      if (!covered || ends[j] - Math.max(startS, spanStartS) > maxGapS) continue;
-    }
+    if (windowS > 0 && !windowCovered(ends, i, Math.max(startS, spanStartS), maxGapS)) continue;
     const value = evaluate(startS, end);
     if (!Number.isFinite(value)) continue;
     if (!best || (kind === "max" ? value > best.value : value < best.value))

@@ -2,7 +2,7 @@
 
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
-import type { AnalysisSettings } from "@/lib/analysis";
+import type { AnalysisSettings, TestRecord } from "@/lib/analysis";
 import { analyse, checkThresholdOverride, ENGINE_VERSION } from "@/lib/analysis";
 import { parseSignedTimeText, parseTimeText, type BreathTable } from "@/lib/breath";
 import { conditionTable, exerciseShareSetAside } from "@/lib/signal";
@@ -188,23 +188,39 @@ const exerciseSpanSchema = z
   })
   .refine((o) => o.end > o.start, { message: "The end must come after the start", path: ["end"] });
 
+/**
+ * The test's record when a reviewer's span (an exercise phase, a span set aside) can be saved on it: the test has data,
+ * the page is not stale, and the span lies inside the record; otherwise the form's errors, with what was typed kept.
+ */
+function spanOnRecord(
+  testId: number,
+  startS: number,
+  endS: number,
+  what: "phase" | "span",
+  values: Record<string, string>,
+): { record: TestRecord } | { errors: Record<string, string>; values: Record<string, string> } {
+  const record = getTest(testId)?.record;
+  if (!record || record.table.rows.length < 2) return { errors: { form: "This test has no usable data." }, values };
+  const stale = settingsChangedSince(testId, values.versionToken);
+  if (stale) return { errors: { form: stale }, values };
+  const first = record.table.rows[0].timeS;
+  const last = record.table.rows[record.table.rows.length - 1].timeS;
+  if (startS < first || endS > last)
+    return {
+      errors: { start: `The ${what} must lie inside the record (${formatClock(first)} to ${formatClock(last)}).` },
+      values,
+    };
+  return { record };
+}
+
 /** A reviewer's incremental exercise phase: a new settings version; thresholds and every index are recomputed. */
 export async function saveExerciseSpan(_prev: FormState, form: FormData): Promise<FormState> {
   const values = formValues(form);
   const parsed = exerciseSpanSchema.safeParse(values);
   if (!parsed.success) return { errors: errorsOf(parsed.error), values };
   const o = parsed.data;
-  const record = getTest(o.testId)?.record;
-  if (!record || record.table.rows.length < 2) return { errors: { form: "This test has no usable data." }, values };
-  const stale = settingsChangedSince(o.testId, values.versionToken);
-  if (stale) return { errors: { form: stale }, values };
-  const first = record.table.rows[0].timeS;
-  const last = record.table.rows[record.table.rows.length - 1].timeS;
-  if (o.start < first || o.end > last)
-    return {
-      errors: { start: `The phase must lie inside the record (${formatClock(first)} to ${formatClock(last)}).` },
-      values,
-    };
+  const checked = spanOnRecord(o.testId, o.start, o.end, "phase", values);
+  if ("errors" in checked) return checked;
   const current = effectiveSettings(o.testId, getLabDefaults());
   const settings: AnalysisSettings = {
     ...current,
@@ -260,17 +276,9 @@ export async function saveSetAside(_prev: FormState, form: FormData): Promise<Fo
   const parsed = setAsideSchema.safeParse(values);
   if (!parsed.success) return { errors: errorsOf(parsed.error), values };
   const o = parsed.data;
-  const record = getTest(o.testId)?.record;
-  if (!record || record.table.rows.length < 2) return { errors: { form: "This test has no usable data." }, values };
-  const stale = settingsChangedSince(o.testId, values.versionToken);
-  if (stale) return { errors: { form: stale }, values };
-  const first = record.table.rows[0].timeS;
-  const last = record.table.rows[record.table.rows.length - 1].timeS;
-  if (o.start < first || o.end > last)
-    return {
-      errors: { start: `The span must lie inside the record (${formatClock(first)} to ${formatClock(last)}).` },
-      values,
-    };
+  const checked = spanOnRecord(o.testId, o.start, o.end, "span", values);
+  if ("errors" in checked) return checked;
+  const { record } = checked;
   const current = effectiveSettings(o.testId, getLabDefaults());
   const spans = current.conditioning?.setAside ?? [];
   const covering = spans.find((x) => (x.channel ?? "gas") === o.channel && x.startS <= o.start && x.endS >= o.end);
