@@ -159,9 +159,9 @@ export interface RollingExtreme {
  */
 export function windowGapLimitS(times: readonly number[]): number {
   if (times.length < 2) return Infinity;
-  const d: number[] = [];
-  for (let i = 1; i < times.length; i++) d.push(times[i] - times[i - 1]);
-  d.sort((a, b) => a - b);
+  const d = new Float64Array(times.length - 1);
+  for (let i = 1; i < times.length; i++) d[i - 1] = times[i] - times[i - 1];
+  d.sort(); // typed arrays sort numerically, without a comparator call per pair
   return Math.max(10, 1.5 * d[d.length >> 1]);
 }
 
@@ -196,7 +196,7 @@ export function lastCoveredWindowEnd(ends: readonly number[], windowS: number, s
  * Highest (or lowest) value of `evaluate(startS, endS)` over time windows of `windowS` seconds ending at each
  * of `ends` (window = [end − windowS, end]). Windows starting before `spanStartS` by more than 20% of the
  * window are skipped (a window must be at least 80% covered, as in `rollingTimeAverage`), and so are windows with a gap
- * longer than `windowGapLimitS` between their values or before their first. O(n log n + n·k), k values per window.
+ * longer than `windowGapLimitS` between their values or before their first. O(n log n).
  */
 export function rollingExtreme(
   ends: readonly number[],
@@ -207,11 +207,20 @@ export function rollingExtreme(
 ): RollingExtreme | null {
   let best: RollingExtreme | null = null;
   const maxGapS = windowGapLimitS(ends);
+  // the last long gap at or before each value (index of the value after it), and the first value inside the window,
+  // moved forward with the window: the coverage test is O(1) per window
+  let gapAt = -1;
+  let first = 0;
   for (let i = 0; i < ends.length; i++) {
+    if (i > 0 && ends[i] - ends[i - 1] > maxGapS) gapAt = i;
     const end = ends[i];
     if (end - spanStartS < 0.8 * windowS) continue;
     const startS = end - windowS;
-    if (windowS > 0 && !windowCovered(ends, i, Math.max(startS, spanStartS), maxGapS)) continue;
+    if (windowS > 0) {
+      const fromS = Math.max(startS, spanStartS);
+      while (ends[first] <= fromS && first < i) first++;
+      if (gapAt > first || ends[first] - fromS > maxGapS) continue;
+    }
     const value = evaluate(startS, end);
     if (!Number.isFinite(value)) continue;
     if (!best || (kind === "max" ? value > best.value : value < best.value))
