@@ -10,6 +10,9 @@ import { conditionTable, exerciseShareSetAside } from "../lib/signal";
 import { formatClock } from "../lib/units";
 import { EXIT_STATUS_HELP, UsageError } from "./usageError";
 
+/** A span on the file's clock, s. */
+type Span = { startS: number; endS: number };
+
 interface AnalyseOptions {
   json?: boolean;
   sex?: string;
@@ -27,11 +30,11 @@ interface AnalyseOptions {
   stageDurationS?: number;
   referral: string;
   select: Record<string, string>;
-  exerciseSpan?: { startS: number; endS: number };
+  exerciseSpan?: Span;
   /** Spans of the record whose gas values are set aside by hand (a leak, a run of coughs), each m:ss-m:ss. */
-  setAside?: { startS: number; endS: number }[];
+  setAside?: Span[];
   /** Spans whose heart rate is set aside by hand (an ECG artefact). */
-  setAsideHr?: { startS: number; endS: number }[];
+  setAsideHr?: Span[];
 }
 
 export function registerAnalyse(program: Command): void {
@@ -87,7 +90,7 @@ export function registerAnalyse(program: Command): void {
     )
     .option(
       "--set-aside <start-end>",
-      "a span of the record whose breaths are not used (a leak, a run of coughs), m:ss-m:ss or seconds; repeatable",
+      "a span of the record whose gas and ventilation values are not used (a leak, a run of coughs), m:ss-m:ss or seconds; repeatable",
       collectSetAside,
       [],
     )
@@ -137,7 +140,7 @@ function parseStageSeconds(raw: string): number {
 }
 
 /** "6:00-16:30", "360-990" or "-2:00--1:00" (before 0:00): start and end of a span on the file's clock, s. */
-function parseSpan(flag: string, raw: string): { startS: number; endS: number } {
+function parseSpan(flag: string, raw: string): Span {
   const m = /^\s*(-?[^-\s]+)\s*-\s*(-?[^-\s]+)\s*$/.exec(raw);
   const [startS, endS] = m ? [parseSignedTimeText(m[1]), parseSignedTimeText(m[2])] : [NaN, NaN];
   if (!Number.isFinite(startS) || !Number.isFinite(endS) || !(endS > startS))
@@ -145,15 +148,15 @@ function parseSpan(flag: string, raw: string): { startS: number; endS: number } 
   return { startS, endS };
 }
 
-function parseExerciseSpan(raw: string): { startS: number; endS: number } {
+function parseExerciseSpan(raw: string): Span {
   return parseSpan("--exercise-span", raw);
 }
 
-function collectSetAside(raw: string, acc: { startS: number; endS: number }[]): { startS: number; endS: number }[] {
+function collectSetAside(raw: string, acc: Span[]): Span[] {
   return [...acc, parseSpan("--set-aside", raw)];
 }
 
-function collectSetAsideHr(raw: string, acc: { startS: number; endS: number }[]): { startS: number; endS: number }[] {
+function collectSetAsideHr(raw: string, acc: Span[]): Span[] {
   return [...acc, parseSpan("--set-aside-hr", raw)];
 }
 
@@ -236,10 +239,10 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
   const rows = record.table.rows;
   const first = rows[0].timeS;
   const last = rows[rows.length - 1].timeS;
-  const spans: [string, { startS: number; endS: number }][] = [
-    ...(opts.exerciseSpan ? [["--exercise-span", opts.exerciseSpan] as [string, { startS: number; endS: number }]] : []),
-    ...(opts.setAside ?? []).map((s) => ["--set-aside", s] as [string, { startS: number; endS: number }]),
-    ...(opts.setAsideHr ?? []).map((s) => ["--set-aside-hr", s] as [string, { startS: number; endS: number }]),
+  const spans: [string, Span][] = [
+    ...(opts.exerciseSpan ? [["--exercise-span", opts.exerciseSpan] as [string, Span]] : []),
+    ...(opts.setAside ?? []).map((s): [string, Span] => ["--set-aside", s]),
+    ...(opts.setAsideHr ?? []).map((s): [string, Span] => ["--set-aside-hr", s]),
   ];
   for (const [flag, { startS, endS }] of spans)
     if (startS < first || endS > last) {

@@ -101,7 +101,7 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
     ...thresholds.issues,
     // read at a reviewer's word: the warning says so instead of "not interpreted"
     ...(vo2Checked
-      ? indices.issues.map((i) => (i.code === "vo2-too-low-for-work" ? vo2ReadAtReview(i, settings.vo2Checked!) : i))
+      ? indices.issues.map((i) => (i.code === "vo2-too-low-for-work" ? vo2ReadAtReview(i, vo2Checked) : i))
       : indices.issues),
     ...interpretation.issues,
     ...(weightBasis?.issues ?? []),

@@ -122,7 +122,7 @@ export function toInterpretInput(
   // no VO2 over the end of exercise (a span set aside by review, or a gap): the highest VO2 before it is shown, not read
   const endMissing = indices.peaks.vo2EndMissingS;
   if (endMissing !== null)
-    for (const k of PEAK_VO2_KEYS)
+    for (const k of END_OF_EXERCISE_KEYS)
       notRead[k] ??=
         `the last ${Math.round(endMissing)} s of exercise hold no full window of gas values, so the peak may be understated (see the warning on peak VO2)`;
   const plateauWhy = vo2PlateauNotAssessedReason(indices.vo2FinalIncrease);
@@ -379,7 +379,7 @@ function usesPredictedHrMax(pv: PredictedValue | undefined): boolean {
 }
 
 /** The values read from the peak window or the end of exercise (not read when that end holds no gas values). */
-const PEAK_VO2_KEYS = [
+const END_OF_EXERCISE_KEYS = [
   "peakVo2MlMin",
   "peakVo2MlKgMin",
   "peakVo2PctPred",

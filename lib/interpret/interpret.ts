@@ -103,12 +103,8 @@ export function interpret(
   // (common practice); the verdict stands, said with that caution
   const limits = effort.criteria.filter((c) => c.ruleId !== "rer-maximal" && c.outcome === true).map((c) => c.ruleId);
   const rer = ctx.vars.peakRer;
-  if (
-    effort.restsOnLimit &&
-    limits.length === 1 &&
-    limits[0] === "hr-reached" &&
-    (typeof rer !== "number" || rer < EFFORT_RER_FLOOR)
-  )
+  const heartRateAlone = effort.restsOnLimit && limits.length === 1 && limits[0] === "hr-reached";
+  if (heartRateAlone && (typeof rer !== "number" || rer < EFFORT_RER_FLOOR))
     issues.push(
       makeIssue(
         "warning",
@@ -120,9 +116,7 @@ export function interpret(
   // the same reliance with a peak RER between that floor and the lab's maximal cut-off: within what FRIEND accepted, so
   // an info line (said because heart rate alone still carries the verdict; common practice)
   else if (
-    effort.restsOnLimit &&
-    limits.length === 1 &&
-    limits[0] === "hr-reached" &&
+    heartRateAlone &&
     typeof rer === "number" &&
     effort.criteria.some((c) => c.ruleId === "rer-maximal" && c.outcome === false)
   )

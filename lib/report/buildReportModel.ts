@@ -9,6 +9,7 @@ import { CLINICAL_CAUTION, DRAFT_CAUTION } from "./caution";
 import { PREDICTED_QUANTITIES, type PredictedQuantity } from "../predicted";
 import {
   BAND_MEANING,
+  IMPLAUSIBLE_DVO2_DWR_ML_MIN_W,
   LACTATE_METHOD_NAMES,
   slopeToVt2Name,
   stageLengthS,
@@ -202,7 +203,10 @@ export function buildReportModel(
     if (notRead) row.note = [row.note, `not read: ${notRead}`].filter(Boolean).join("; ");
     // read although VO2 was doubted, at a reviewer's word: said on every VO2-based row, where the reader looks first
     else if (result.interpretInput.vo2ReadAtReview && VO2_BASED_ROWS.has(c.key))
-      row.note = [row.note, "VO2 doubted (ΔVO2/ΔWR below 4.8); read at a reviewer's word, see methods"]
+      row.note = [
+        row.note,
+        `VO2 doubted (ΔVO2/ΔWR below ${IMPLAUSIBLE_DVO2_DWR_ML_MIN_W.toFixed(1)}); read at a reviewer's word, see methods`,
+      ]
         .filter(Boolean)
         .join("; ");
     // shown, but not read against the age-predicted maximum on a beta-blocker (common practice)
@@ -352,7 +356,7 @@ export function buildReportModel(
   if (ix.lactate) methods.push(lactateMethods(ix.lactate));
   // spans a reviewer set aside are named with their reasons; the automatic screens are counted apart
   const byReview = result.conditioned.settings?.setAside ?? [];
-  const reviewed = result.conditioned.removed.filter((r) => r.reason.startsWith("set aside by review")).length;
+  const reviewed = result.conditioned.removed.filter((r) => r.byReview).length;
   const automatic = result.conditioned.removed.length - reviewed;
   for (const span of byReview)
     methods.push(

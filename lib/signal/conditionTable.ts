@@ -14,7 +14,7 @@ export interface ConditioningSettings {
   artefacts?: Partial<ArtefactRule>;
   /** RER screen. @default { min: 0.5, max: 2 } */
   rer?: { min: number; max: number };
-  /** Spans a reviewer set aside (a leak, a run of coughs, a pause); their breaths are not used. @default [] */
+  /** Spans a reviewer set aside (a leak, a run of coughs, an ECG artefact); their channel's values are not used. @default [] */
   setAside?: SetAsideSpan[];
   phases?: PhaseOptions;
 }
@@ -50,7 +50,7 @@ export function conditionTable(table: BreathTable, settings: ConditioningSetting
   });
   const averaged = averageSeries(art.clean, averaging);
   const ph = detectPhases(art.clean, settings.phases);
-  // a sustained fall of VO2 at a held or rising load is a technical fault to check, not physiology (vo2Falls.ts)
+  // a sustained fall of VO2 at a held or rising load: a finding or a fault to check (vo2Falls.ts)
   const fall = table.shape !== "stage" && ph.exercise ? findVo2Fall(art.clean, ph.exercise) : null;
   return {
     shape: table.shape,

@@ -26,7 +26,7 @@ export interface ArtefactOptions {
   rer?: { min: number; max: number };
   /** Stage tables: only the RER and impossible-value screens apply. @default false */
   stageRows?: boolean;
-  /** Spans a reviewer set aside: every row inside is removed first, with the reviewer's reason. @default [] */
+  /** Spans a reviewer set aside: their channel's values (gas, or heart rate) are removed first, rows kept. @default [] */
   setAside?: readonly SetAsideSpan[];
 }
 
@@ -99,6 +99,7 @@ export function rejectArtefacts(rows: readonly BreathRow[], options: ArtefactOpt
         field,
         value: typeof r[field] === "number" ? (r[field] as number) : NaN,
         reason: `set aside by review (${formatClock(span.startS)}–${formatClock(span.endS)}): ${span.reason}`,
+        byReview: true,
       });
       const kept: BreathRow = { ...r };
       for (const f of fields) delete kept[f];
@@ -106,7 +107,7 @@ export function rejectArtefacts(rows: readonly BreathRow[], options: ArtefactOpt
       count++;
     });
     const more = already > 0 ? ` (${already} more already set aside by an earlier span)` : "";
-    const unit = options.stageRows ? "row(s)" : heart ? "row(s)" : "breath(s)";
+    const unit = options.stageRows || heart ? "row(s)" : "breath(s)";
     const what = heart ? "heart rate" : "gas and ventilation values";
     const keptWords = heart ? "The gas values and the load there are kept." : "Heart rate, SpO2 and the load there are kept.";
     issues.push(

@@ -19,6 +19,8 @@ export interface RemovedBreath {
   field: NumericField;
   value: number;
   reason: string;
+  /** Set aside by a reviewer's span (`SetAsideSpan`), not by an automatic screen. */
+  byReview?: true;
 }
 
 /** How the series were averaged; recorded on every number derived from them. */
@@ -55,11 +57,11 @@ export interface ConditioningRecord {
   artefacts: ArtefactRule;
   /** Breaths with RER outside [min, max] are set aside. @default { min: 0.5, max: 2 } */
   rer: { min: number; max: number };
-  /** Spans a reviewer set aside (every breath inside, ends included), with the reason. @default [] */
+  /** Spans a reviewer set aside (ends included), with the channel and the reason. @default [] */
   setAside?: SetAsideSpan[];
 }
 
-/** A span of the record a reviewer set aside as faulty (a leak, a cough run, a pause): its breaths are not used. */
+/** A span of the record a reviewer set aside as faulty (a leak, a cough run, an ECG artefact): its `channel`'s values are not used. */
 export interface SetAsideSpan {
   startS: number;
   endS: number;

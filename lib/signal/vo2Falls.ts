@@ -6,7 +6,7 @@ import { treadmillLoad } from "./detectPhases";
 
 /**
  * A fall of VO2 during incremental exercise. In an incremental test VO2 rises with the work rate (about 10 mL/min per W
- * on a cycle ramp, Hansen, Sue & Wasserman 1984, Am Rev Respir Dis — confirmed): a sustained fall while the load holds
+ * on a cycle ramp: 10.29 ± 1.01 mL/min/W in normal men, Hansen 1987, Am J Cardiol 59:669 — confirmed): a sustained fall while the load holds
  * or rises is either a finding (oscillatory ventilation with long cycles; myocardial ischaemia or left-ventricular
  * dysfunction, with a falling O2 pulse) or a fault (a mask or sampling-line leak, a gas-analyser fault, a pause in
  * pedalling or walking, holding the treadmill's handrails) — common practice. The warning names both and asks for a
@@ -44,8 +44,8 @@ const END_GAP_S = 10;
 
 /**
  * The largest fall of the 60-s rolling VO2 mean below its highest earlier value within the exercise phase, when it is at
- * least `VO2_FALL_MIN_FRACTION` and `VO2_FALL_MIN_Z` standard errors, and the load (work rate, else speed, else grade) at
- * the low point is not below the load at the high point; null otherwise. One pass with a moving window: O(n), plus
+ * least `VO2_FALL_MIN_FRACTION` and `VO2_FALL_MIN_Z` standard errors, and the load (work rate, else the treadmill's
+ * walking cost of speed and grade, else grade) at the low point is not below the load at the high point; null otherwise. One pass with a moving window: O(n), plus
  * the running median for the breath noise.
  *
  * @param rows clean breaths (artefacts removed), time order

@@ -33,9 +33,10 @@ export interface DVo2dWrOptions {
 export const SUSPECT_DVO2_DWR_ML_MIN_W = 6.0;
 
 /**
- * Whole-ramp ΔVO2/ΔWR (mL/min/W) below which VO2-based values are shown but not interpreted: 8.29 − 3 × 1.17 ≈ 4.8, below
- * about 999 in 1000 of Hansen 1987's men with circulatory disorders (confirmed), where a leak, a calibration fault or a
- * wrong work-rate record is far likelier than disease. The 3 SD is our choice.
+ * Whole-ramp ΔVO2/ΔWR (mL/min/W) below which VO2-based values are shown but not interpreted: 8.29 − 3 × 1.17 ≈ 4.8, more
+ * than 3 SD below the mean of Hansen 1987's men with circulatory disorders (confirmed; a small series, so no tail
+ * fraction is claimed), where a leak, a calibration fault or a wrong work-rate record is far likelier than disease. The
+ * 3 SD is our choice. A reviewer who checked the cart can have the values read (`AnalysisSettings.vo2Checked`).
  */
 export const IMPLAUSIBLE_DVO2_DWR_ML_MIN_W = 4.8;
 

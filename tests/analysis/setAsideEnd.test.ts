@@ -9,6 +9,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { analyse, buildRecord } from "../../lib/analysis";
+import { analysisCharts } from "../../lib/report/analysisCharts";
 import { caseRecord } from "../fixtures/caseRecord";
 
 describe("the last two minutes of exercise set aside by review (INVENTED demo)", () => {
@@ -77,6 +78,9 @@ describe("heart rate set aside by review (an INVENTED ECG artefact)", () => {
     expect(r.indices.peaks.hrBpm.value).toBeCloseTo(plain.indices.peaks.hrBpm.value!, 6);
     // the gases are untouched
     expect(r.indices.peaks.vo2MlMin.value).toBe(plain.indices.peaks.vo2MlMin.value);
+    // the time-course chart marks the span by its channel
+    const bands = analysisCharts(r).find((c) => c.id === "time-course")!.bands!;
+    expect(bands.filter((b) => b.kind === "set-aside").map((b) => b.label)).toEqual(["HR set aside"]);
     expect(r.issues.find((i) => i.code === "breaths-set-aside-by-review")?.message).toMatch(
       /^The heart rate of \d+ row\(s\) from .* were set aside by review: ECG double counting \(INVENTED\)\. The gas values and the load there are kept\.$/,
     );

@@ -311,13 +311,13 @@ export async function saveSetAside(_prev: FormState, form: FormData): Promise<Fo
   return { ok: "Span set aside in a new analysis version; thresholds and all indices were recomputed without it." };
 }
 
-/** Put a set-aside span back (by its place in the list): a new settings version. */
 const restoreSchema = z.object({
   testId: recordId("test"),
   span: z.coerce.number().int().min(0).max(MAX_SET_ASIDE_SPANS),
   by: z.string().trim().min(2).max(80),
 });
 
+/** Put a set-aside span back (by its place in the list), with who did it: a new settings version. */
 export async function restoreSetAside(form: FormData): Promise<void> {
   const values = formValues(form);
   const parsed = restoreSchema.safeParse(values);
@@ -333,7 +333,7 @@ export async function restoreSetAside(form: FormData): Promise<void> {
     { ...current, conditioning: { ...current.conditioning, setAside: spans.filter((_, i) => i !== at) } },
     ENGINE_VERSION,
     by,
-    `breaths ${formatClock(gone.startS)}–${formatClock(gone.endS)} used again, by ${by}`,
+    `${gone.channel === "heart-rate" ? "heart rate" : "breaths"} ${formatClock(gone.startS)}–${formatClock(gone.endS)} used again, by ${by}`,
   );
   revalidatePath(`/tests/${testId}`);
 }

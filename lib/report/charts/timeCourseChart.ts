@@ -17,7 +17,7 @@ export interface TimeCourseChartInput {
   vt2TimeS?: MaybeNumber;
   /** Shaded spans, s, e.g. the exercise phase. */
   spans?: readonly { startS: number; endS: number; label: string }[];
-  /** Spans whose gas values a reviewer set aside, s (shaded darker, labelled "set aside"). @default none */
+  /** Spans a reviewer set aside, s (shaded darker, labelled "set aside" or "HR set aside"). @default none */
   setAside?: readonly { startS: number; endS: number; channel?: "gas" | "heart-rate" }[];
   /** Thresholds a reviewer set (their markers read "VT1 (reviewer)"). @default none */
   setByReviewer?: ThresholdsSetByReviewer;
@@ -43,7 +43,7 @@ export function timeCourseChart(input: TimeCourseChartInput): ChartSpec {
     ...(input.setAside ?? []).map((s): ChartBand => ({
       from: s.startS * min,
       to: s.endS * min,
-      label: "set aside",
+      label: s.channel === "heart-rate" ? "HR set aside" : "set aside",
       kind: "set-aside",
     })),
   ];
