@@ -282,7 +282,7 @@ export function rejectArtefacts(rows: readonly BreathRow[], options: ArtefactOpt
 
 /**
  * The share of the exercise phase covered by set-aside spans taken together (overlaps counted once), 0–1. Entry points
- * refuse spans that would set aside more than half (a test to repeat, not one to read without its exercise).
+ * refuse spans that would set aside more than half (our choice: a test to repeat, not one to read without its exercise).
  */
 export function exerciseShareSetAside(
   spans: readonly { startS: number; endS: number }[],

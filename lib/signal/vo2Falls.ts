@@ -37,9 +37,9 @@ export const VO2_FALL_WINDOW_S = 60;
 export const VO2_FALL_MIN_FRACTION = 0.1;
 /** … and by at least this many standard errors of a 60-s mean (our choice; see `VO2_FALL_MIN_FRACTION`). */
 export const VO2_FALL_MIN_Z = 10;
-/** The first two minutes of exercise (60 s after the window fills) are not read: VO2 is still settling after the load starts. */
+/** The first two minutes of exercise (60 s after the window fills) are not read: VO2 is still settling after the load starts (our choice). */
 const SETTLE_S = 60;
-/** The last seconds of exercise are not read: the end of exercise is placed to within a breath or two. */
+/** The last seconds of exercise are not read: the end of exercise is placed to within a breath or two (our choice). */
 const END_GAP_S = 10;
 
 /**

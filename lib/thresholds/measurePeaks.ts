@@ -60,7 +60,7 @@ export interface PeakValues {
   spo2LowestPct: Measured;
   /**
    * Seconds of the end of exercise after the last full peak window of VO2 (a span set aside by review, or a gap in the
-   * file), when longer than the peak window; null otherwise. Peak VO2 is then the highest before them and may understate the peak (`peak-vo2-end-missing`).
+   * file), when longer than the peak window (our choice: one window's worth of missing end); null otherwise. Peak VO2 is then the highest before them and may understate the peak (`peak-vo2-end-missing`).
    */
   vo2EndMissingS: number | null;
   testDurationS: Measured;
