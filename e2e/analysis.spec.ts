@@ -194,9 +194,12 @@ test("a reviewer sets a span of breaths aside: refused without a reason, recompu
   await box.getByRole("button", { name: "Set these breaths aside" }).click();
   await expect(box).toContainText("more than half of the exercise phase");
   await expect(page.getByTestId("clinical-caution")).toBeVisible();
+  await box.locator("li").getByLabel("Reason").fill("leak not confirmed in the log");
   await box.locator("li").getByLabel("Reviewer").fill("E2E Second Reviewer");
   await box.getByRole("button", { name: "Use these breaths again" }).click();
-  await expect(page.getByTestId("versions")).toContainText("breaths 8:00–8:30 used again, by E2E Second Reviewer");
+  await expect(page.getByTestId("versions")).toContainText(
+    "breaths 8:00–8:30 used again: leak not confirmed in the log, by E2E Second Reviewer",
+  );
   await expect(box).not.toContainText("span set aside");
 });
 
@@ -244,10 +247,11 @@ test("VO2 that rose implausibly little is not read until a reviewer says the car
   );
   await expect(page.getByTestId("versions")).toContainText("VO2-based values read after a check");
   await expect(page.getByTestId("clinical-caution")).toBeVisible();
+  await page.getByTestId("vo2-checked").getByLabel("Reason").fill("flow calibration found out of range");
   await page.getByTestId("vo2-checked").getByLabel("Reviewer").fill("E2E Second Reviewer");
   await page.getByTestId("vo2-checked").getByRole("button", { name: "Stop reading VO2-based values" }).click();
   await expect(page.locator('[data-code="vo2-too-low-for-work"]')).toBeVisible();
   await expect(page.getByTestId("versions")).toContainText(
-    "VO2-based values no longer read (ΔVO2/ΔWR doubted), by E2E Second Reviewer",
+    "VO2-based values no longer read (ΔVO2/ΔWR doubted): flow calibration found out of range, by E2E Second Reviewer",
   );
 });

@@ -314,16 +314,17 @@ export async function saveSetAside(_prev: FormState, form: FormData): Promise<Fo
 const restoreSchema = z.object({
   testId: recordId("test"),
   span: z.coerce.number().int().min(0).max(MAX_SET_ASIDE_SPANS),
+  reason: z.string().trim().min(3).max(200),
   by: z.string().trim().min(2).max(80),
 });
 
-/** Put a set-aside span back (by its place in the list), with who did it: a new settings version. */
+/** Put a set-aside span back (by its place in the list), with why and who did it: a new settings version. */
 export async function restoreSetAside(form: FormData): Promise<void> {
   const values = formValues(form);
   const parsed = restoreSchema.safeParse(values);
   // a page opened before another change may list the spans in another order: nothing is restored from it
   if (!parsed.success || settingsChangedSince(parsed.data.testId, values.versionToken)) return;
-  const { testId, span: at, by } = parsed.data;
+  const { testId, span: at, reason, by } = parsed.data;
   const current = latestSettings(testId)?.settings;
   const spans = current?.conditioning?.setAside ?? [];
   if (!current || at >= spans.length) return;
@@ -333,7 +334,7 @@ export async function restoreSetAside(form: FormData): Promise<void> {
     { ...current, conditioning: { ...current.conditioning, setAside: spans.filter((_, i) => i !== at) } },
     ENGINE_VERSION,
     by,
-    `${gone.channel === "heart-rate" ? "heart rate" : "breaths"} ${formatClock(gone.startS)}–${formatClock(gone.endS)} used again, by ${by}`,
+    `${gone.channel === "heart-rate" ? "heart rate" : "breaths"} ${formatClock(gone.startS)}–${formatClock(gone.endS)} used again: ${reason}, by ${by}`,
   );
   revalidatePath(`/tests/${testId}`);
 }
@@ -377,17 +378,27 @@ export async function saveVo2Checked(_prev: FormState, form: FormData): Promise<
   return { ok: "Saved as a new analysis version: VO2-based values are now read." };
 }
 
-const clearVo2Schema = z.object({ testId: recordId("test"), by: z.string().trim().min(2).max(80) });
+const clearVo2Schema = z.object({
+  testId: recordId("test"),
+  reason: z.string().trim().min(3).max(200),
+  by: z.string().trim().min(2).max(80),
+});
 
 export async function clearVo2Checked(form: FormData): Promise<void> {
   const values = formValues(form);
   const parsed = clearVo2Schema.safeParse(values);
   if (!parsed.success || settingsChangedSince(parsed.data.testId, values.versionToken)) return;
-  const { testId, by } = parsed.data;
+  const { testId, reason, by } = parsed.data;
   const current = latestSettings(testId)?.settings;
   if (!current?.vo2Checked) return;
   const { vo2Checked: _gone, ...rest } = current;
-  saveAnalysisVersion(testId, rest, ENGINE_VERSION, by, `VO2-based values no longer read (ΔVO2/ΔWR doubted), by ${by}`);
+  saveAnalysisVersion(
+    testId,
+    rest,
+    ENGINE_VERSION,
+    by,
+    `VO2-based values no longer read (ΔVO2/ΔWR doubted): ${reason}, by ${by}`,
+  );
   revalidatePath(`/tests/${testId}`);
 }
 

@@ -38,6 +38,15 @@ export function SetAsideForm({
                 <input type="hidden" name="versionToken" value={versionToken} />
                 <input type="hidden" name="testId" value={testId} />
                 <input type="hidden" name="span" value={i} />
+                <input
+                  name="reason"
+                  required
+                  minLength={3}
+                  maxLength={200}
+                  size={18}
+                  placeholder="why"
+                  aria-label="Reason"
+                />{" "}
                 <input name="by" required minLength={2} size={12} placeholder="your name" aria-label="Reviewer" />{" "}
                 <button type="submit">Use these breaths again</button>
               </form>
