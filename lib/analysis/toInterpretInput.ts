@@ -82,10 +82,8 @@ export function toInterpretInput(
   const hrr = indices.heartRate;
   if (hrr.recovery1MinBpm.value !== null && hrr.recovery1MinAbnormal === null)
     reasons.hrr1Bpm = `its margin (${hrr.recovery1MinBpm.provenance.averaging ? "time-averaged rows" : "the scatter of breath-by-breath HR"}) holds the ${HR_RECOVERY_1MIN_ABNORMAL_BPM}-bpm cut-off (see the issues)`;
-  // predicted-HRmax equations do not describe a beta-blocked heart (common practice): HR % predicted and HR reserve are
-  // not read against them; the chronotropic index has its own beta-blocker cut-off (rules.json)
-  const betaBlocked = patient.betaBlocker === true;
-  if (betaBlocked) for (const k of ["hrPctPred", "hrReserveBpm"] as const) reasons[k] = "the patient takes a beta-blocker";
+  // on a beta-blocker HR % predicted and HR reserve are read on one side only (the interpretation does it from
+  // `patient.betaBlocker`); the chronotropic index has its own beta-blocker cut-off (rules.json)
   // in atrial fibrillation the ventricular rate is irregular and not set by the sinus node (common practice): heart-rate
   // criteria and indices, and O2 pulse (VO2/HR), are not interpreted
   const irregular = patient.atrialFibrillation === true;
@@ -243,6 +241,8 @@ export function toInterpretInput(
       peakVo2MlKgMin: v(p.vo2MlKgMin),
       peakVo2PctPred: pct("peakVo2"),
       peakWorkW: v(p.workW),
+      peakSpeedKmh: v(p.speedKmh),
+      peakGradePct: v(p.gradePct),
       // one plateau determination for the effort set and the interpretation (`vo2PlateauPresent`)
       vo2Plateau: vo2PlateauPresent(indices.vo2FinalIncrease),
       vt1Determined: thresholds.vt1.confidence !== "not-determinable" && vt1Vo2 !== null,
@@ -253,8 +253,8 @@ export function toInterpretInput(
       peakRer: v(p.rerMax),
       peakHrBpm: v(p.hrBpm),
       restHrBpm: v(indices.heartRate.restingBpm),
-      hrPctPred: betaBlocked || irregular ? null : v(indices.heartRate.percentPredicted),
-      hrReserveBpm: betaBlocked || irregular ? null : v(indices.heartRate.reserveBpm),
+      hrPctPred: irregular ? null : v(indices.heartRate.percentPredicted),
+      hrReserveBpm: irregular ? null : v(indices.heartRate.reserveBpm),
       chronotropicIndex: irregular ? null : v(indices.heartRate.chronotropicIndex),
       // read from time-averaged rows with the 12-bpm cut-off inside its margin, the call is withheld (heartRateIndices)
       hrr1Bpm: irregular || indices.heartRate.recovery1MinAbnormal === null ? null : v(indices.heartRate.recovery1MinBpm),

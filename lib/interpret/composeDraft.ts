@@ -107,11 +107,6 @@ const REFERRAL_TEXT: Record<ReferralQuestion, string> = {
   training: "Assessment of fitness and intensity domains for exercise training.",
 };
 
-/**
- * The plain note beside every heart rate compared with a predicted maximum (% predicted, HR reserve, chronotropic index)
- * when the patient takes a beta-blocker: predicted-HRmax equations do not describe a beta-blocked heart, so the value is
- * shown but not read against them (common practice).
- */
 /** "a", "a and b", "a, b and c". */
 function andList(items: readonly string[]): string {
   return items.length > 1 ? `${items.slice(0, -1).join(", ")} and ${items[items.length - 1]}` : (items[0] ?? "");
@@ -120,7 +115,21 @@ function andList(items: readonly string[]): string {
 /** Plain names of the predicted quantities, for the extrapolation sentence of the conclusion. */
 const PREDICTED_WORDS = { peakVo2: "peak VO2", hrMax: "maximal heart rate", o2Pulse: "O2 pulse" } as const;
 
-export const BETA_BLOCKER_HR_NOTE = "on a beta-blocker: heart rate is not read against the age-predicted maximum";
+/**
+ * The plain note beside every heart rate compared with a predicted maximum (% predicted, HR reserve) when the patient
+ * takes a beta-blocker: predicted-HRmax equations do not describe a beta-blocked heart, so a heart rate short of them is
+ * not read (the drug lowers it), while one that reaches the predicted range despite the drug still counts as a sign of
+ * effort (common practice; `InterpretInput.readOneSided`).
+ */
+export const BETA_BLOCKER_HR_NOTE =
+  "on a beta-blocker: a heart rate short of the age-predicted maximum is not read, as the drug lowers it; one that reaches the predicted range still counts as a sign of effort";
+
+/** Why a beta-blocked heart rate is read on one side only, in the rule texts (`InterpretInput.readOneSided`). */
+export const BETA_BLOCKER_ONE_SIDED =
+  "the patient takes a beta-blocker, which lowers heart rate: only a heart rate that reaches the cut-off is read";
+
+/** Beside a beta-blocked peak heart rate that met the effort criterion (common practice). */
+export const BETA_BLOCKER_HR_REACHED_NOTE = "reached despite a beta-blocker: counted as a sign of effort";
 
 /**
  * Beside heart rates in atrial fibrillation. Ventricular rate in atrial fibrillation is irregular and not set by the
@@ -241,9 +250,20 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     if (notRead.peakVo2MlMin) results.push(`VO2-based values are shown but not interpreted: ${notRead.peakVo2MlMin}.`);
   }
   if (have(v.peakWorkW)) results.push(`Peak work rate ${val("peakWorkW", v.peakWorkW)}.`);
+  else if (have(v.peakSpeedKmh))
+    results.push(
+      `Highest treadmill load ${val("peakSpeedKmh", v.peakSpeedKmh)}${have(v.peakGradePct) ? ` at ${val("peakGradePct", v.peakGradePct)} grade` : ""}.`,
+    );
   if (have(v.peakHrBpm)) {
-    const pctHr = pctWords("hrPctPred", v.hrPctPred, pred.hrMax ? `, ${pred.hrMax}` : "");
-    const against = [...(pctHr ? [pctHr] : []), ...heartRateNotes(input.patient)];
+    // on a beta-blocker the % predicted is said only when it met the effort criterion (read one side only)
+    const blocked = input.patient.betaBlocker === true;
+    const reachedOnBlocker =
+      blocked && interpretation.effort.criteria.some((c) => c.ruleId === "hr-reached" && c.outcome === true);
+    const pctHr = !blocked || reachedOnBlocker ? pctWords("hrPctPred", v.hrPctPred, pred.hrMax ? `, ${pred.hrMax}` : "") : null;
+    const against = [
+      ...(pctHr ? [pctHr] : []),
+      ...(reachedOnBlocker ? [BETA_BLOCKER_HR_REACHED_NOTE] : heartRateNotes(input.patient)),
+    ];
     results.push(
       `Peak heart rate ${val("peakHrBpm", v.peakHrBpm)}${against.length ? ` (${against.join("; ")})` : ""}${have(v.hrr1Bpm) ? `; recovery at 1 min ${val("hrr1Bpm", v.hrr1Bpm)}` : ""}.`,
     );

@@ -1,7 +1,7 @@
 import type { EvidenceStatus } from "../core";
 import type { InterpretationData } from "./interpretationData";
 import type { ChoiceOptionSchema, Condition } from "./schema";
-import type { ChoiceUse, ComparisonTrace, Outcome, PredictedEquationLabels, RuleResult } from "./types";
+import type { ChoiceUse, ComparisonTrace, OneSidedReading, Outcome, PredictedEquationLabels, RuleResult } from "./types";
 import { variableInfo } from "./variables";
 import { OP_TEXT, categoryText, formatCutoff, formatValue, nearCutoffNote, unique, weakestStatus } from "./format";
 import type { z } from "zod";
@@ -23,6 +23,8 @@ export interface EvalContext {
    * (`InterpretInput.names`, e.g. the VE/VCO2 slope to a break the fit placed when no RCP was found).
    */
   names?: Readonly<Record<string, string>>;
+  /** Values read on one side of their cut-off only (`InterpretInput.readOneSided`), by variable name. */
+  oneSided?: Readonly<Record<string, OneSidedReading>>;
   /** Memo of rule results (rules are pure functions of vars and choices). */
   ruleCache: Map<string, RuleResult>;
   /**
@@ -201,6 +203,26 @@ export function evaluateCondition(cond: Condition, ctx: EvalContext): ConditionR
   else cutoff = cond.value;
   const raw = ctx.vars[variable];
   const value: VarValue = raw === undefined || (typeof raw === "number" && !Number.isFinite(raw)) ? null : raw;
+  // a one-sided value on its unread side of the cut-off is not assessable, with its reason (never true nor false)
+  const oneSided = ctx.oneSided?.[variable];
+  if (oneSided && typeof value === "number" && typeof cutoff === "number") {
+    const readable = oneSided.side === "high" ? value >= cutoff : value <= cutoff;
+    if (!readable) {
+      const info = variableInfo(variable);
+      const text = `${variableLabel(ctx, variable)} ${formatValue(variable, value)}${info.unit ? ` ${info.unit}` : ""} not read against ${formatCutoff(variable, cutoff)}${info.unit ? ` ${info.unit}` : ""} (${oneSided.reason})`;
+      comparisons.push({
+        variable,
+        label: variableLabel(ctx, variable),
+        unit: info.unit,
+        value,
+        op: cond.op,
+        cutoff,
+        outcome: null,
+        text,
+      });
+      return done(null, text);
+    }
+  }
   const outcome: Outcome = value === null ? null : compare(value, cond.op, cutoff);
   // The text always states what is true of the patient: a failed comparison shows the negated operator.
   const text = comparisonText(ctx, variable, value, outcome === false ? NEGATED[cond.op] : cond.op, cutoff);

@@ -1,6 +1,7 @@
 import { makeIssue, sortIssues, type Issue } from "../core";
 import { applySchemes } from "./applySchemes";
 import { assessEffort } from "./assessEffort";
+import { BETA_BLOCKER_ONE_SIDED } from "./composeDraft";
 import { buildVariables } from "./buildVariables";
 import type { EvalContext } from "./evaluateCondition";
 import { unique } from "./format";
@@ -8,7 +9,7 @@ import { INTERPRETATION_DATA, type InterpretationData } from "./interpretationDa
 import { rankPatterns } from "./rankPatterns";
 import { resolveChoices } from "./resolveChoices";
 import { runGraph } from "./runGraph";
-import type { InterpretInput, InterpretSettings, Interpretation } from "./types";
+import type { InterpretInput, InterpretSettings, Interpretation, OneSidedReading } from "./types";
 import { REFERRAL_QUESTIONS } from "./types";
 
 /** Build the evaluation context (variables, resolved choices) for one input. */
@@ -36,6 +37,11 @@ export function makeContext(
     names: Object.fromEntries(
       Object.entries(input.names ?? {}).filter((e): e is [string, string] => typeof e[1] === "string" && e[1] !== ""),
     ),
+    oneSided: Object.fromEntries(
+      Object.entries({ ...(input.patient.betaBlocker === true ? BETA_BLOCKER_READING : {}), ...input.readOneSided }).filter(
+        (e): e is [string, OneSidedReading] => !!e[1],
+      ),
+    ),
     ruleCache: new Map(),
   };
   // one context per end of each band, sharing everything but the variables (and the rule memo, a function of them)
@@ -53,6 +59,15 @@ export function makeContext(
   }));
   return { ctx, resolved };
 }
+
+/**
+ * On a beta-blocker, predicted-HRmax equations do not describe the heart (common practice): a heart rate short of the
+ * predicted range is not read (the drug lowers it), one that reaches it still counts (our reading of one side).
+ */
+const BETA_BLOCKER_READING: InterpretInput["readOneSided"] = {
+  hrPctPred: { side: "high", reason: BETA_BLOCKER_ONE_SIDED },
+  hrReserveBpm: { side: "low", reason: BETA_BLOCKER_ONE_SIDED },
+};
 
 /** The lowest peak RER any cited source accepts as a maximal test: FRIEND's treadmill inclusion, RER ≥ 1.0 (confirmed). */
 export const EFFORT_RER_FLOOR = 1.0;

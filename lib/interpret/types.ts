@@ -32,6 +32,9 @@ export interface InterpretValues {
   peakVo2LeanMlKgMin?: Maybe<number>;
   /** Peak work rate, W. */
   peakWorkW?: Maybe<number>;
+  /** Treadmill: speed and grade read together at the highest load reached (km/h, %). */
+  peakSpeedKmh?: Maybe<number>;
+  peakGradePct?: Maybe<number>;
   /** VO2 plateau present at peak (by the lab's plateau definition). */
   vo2Plateau?: Maybe<boolean>;
   /** Whether VT1 (AT) was determined at all. */
@@ -140,6 +143,12 @@ export interface PredictedEquationLabels {
   dlco?: string;
 }
 
+/** Which side of a cut-off a one-sided value is read on: "high" reads values at or above it, "low" at or below it. */
+export interface OneSidedReading {
+  side: "high" | "low";
+  reason: string;
+}
+
 export interface InterpretInput {
   patient: InterpretPatient;
   referral: ReferralQuestion;
@@ -157,6 +166,12 @@ export interface InterpretInput {
    * that reason; the draft still prints the measured value and says it is not read.
    */
   notRead?: Partial<Record<keyof InterpretValues, string>>;
+  /**
+   * Values read on one side only, with why (e.g. a beta-blocked patient's heart rate: one that reaches the predicted
+   * range still counts as a sign of effort, one short of it is not read because the drug lowers it). A comparison whose
+   * value lies on the other side of its cut-off is "not assessable" with that reason, never false.
+   */
+  readOneSided?: Partial<Record<keyof InterpretValues, OneSidedReading>>;
   /**
    * VO2-based values read although VO2 rose implausibly little with the work rate, at a reviewer's word: what was
    * measured and what the reviewer said was checked. The draft's conclusion says it under the findings.

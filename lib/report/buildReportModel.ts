@@ -228,6 +228,13 @@ export function buildReportModel(
     ["Heart-rate reserve", ix.heartRate.reserveBpm, 0],
     ["HR recovery at 1 min", ix.heartRate.recovery1MinBpm, 0],
     ["Lowest SpO2", ix.spo2.lowestPct, 0],
+    // treadmill: speed and grade at the highest load, read together (a cycle test has none)
+    ...(pk.speedKmh.value !== null
+      ? ([
+          ["Speed at peak treadmill load", pk.speedKmh, 1],
+          ["Grade at peak treadmill load", pk.gradePct, 1],
+        ] as [string, Measured, number][])
+      : []),
   ];
   for (const [label, m, d, line] of extra) {
     if (!m) continue;

@@ -259,11 +259,14 @@ function compare(value: number, comparator: Comparator, cutoff: number): boolean
  * @param values measured quantities
  * @param set a set id from EFFORT_CRITERIA_SETS, or a custom set @default "ers-2019"
  * @param uncertainty standard errors of the values, where known
+ * @param countOnlyWhenMet quantities read on one side only: a criterion on them that is not met is "not assessable"
+ *   instead (a beta-blocked heart rate short of the predicted maximum; common practice)
  */
 export function assessEffort(
   values: EffortValues,
   set: string | EffortCriteriaSet = DEFAULT_EFFORT_SET,
   uncertainty: EffortUncertainty = {},
+  countOnlyWhenMet: readonly EffortQuantity[] = [],
 ): EffortAssessment {
   const s = typeof set === "string" ? EFFORT_CRITERIA_SETS[set] : set;
   if (!s) throw new Error(`unknown effort criteria set ${String(set)}`);
@@ -272,7 +275,8 @@ export function assessEffort(
     const value = typeof v === "number" && Number.isFinite(v) ? v : null;
     const e = uncertainty[criterion.quantity];
     const se = typeof e === "number" && Number.isFinite(e) ? e : null;
-    return { criterion, value, se, met: criterionMet(criterion, value, se) };
+    const met = criterionMet(criterion, value, se);
+    return { criterion, value, se, met: met === false && countOnlyWhenMet.includes(criterion.quantity) ? null : met };
   });
   const assessed = criteria.filter((c) => c.met !== null);
   const maximal = assessed.length === 0 ? null : s.rule === "any" ? assessed.some((c) => c.met) : assessed.every((c) => c.met);

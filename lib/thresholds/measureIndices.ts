@@ -62,9 +62,8 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
   const effort = assessEffort(
     {
       rerPeak: peaks.rerMax.value,
-      // on a beta-blocker HR does not reach a predicted maximum: the HR criteria are not read (common practice)
-      hrPercentPredicted: ctx.patient.betaBlocker ? null : hr.percentPredicted.value,
-      hrReserveBpm: ctx.patient.betaBlocker ? null : hr.reserveBpm.value,
+      hrPercentPredicted: hr.percentPredicted.value,
+      hrReserveBpm: hr.reserveBpm.value,
       veMvvPercent: br.veMvvPercent.value,
       vo2FinalIncreaseMlKgMin: plateau.increaseMlKgMin.value,
       vo2FinalIncreaseMlMin: plateau.increaseMlMin.value,
@@ -72,6 +71,8 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
     },
     ctx.effortSet,
     { vo2FinalIncreaseMlKgMin: plateau.seMlKgMin.value, vo2FinalIncreaseMlMin: plateau.seMlMin.value },
+    // on a beta-blocker HR need not reach a predicted maximum: an HR criterion counts only when met (common practice)
+    ctx.patient.betaBlocker ? ["hrPercentPredicted", "hrReserveBpm"] : [],
   );
   // the slope "to the RCP" is not fitted to a VT2 that does not lie above VT1 (the RCP follows the AT; common practice):
   // it then goes as without a VT2 (README-thresholds.md round 20)

@@ -1,6 +1,6 @@
 import type { BreathRow, NumericField } from "../breath";
 import { makeIssue, measured, notDetermined, type Issue, type Measured, type Provenance } from "../core";
-import { medianRowIntervalS, type ConditionedTest } from "../signal";
+import { medianRowIntervalS, treadmillLoad, type ConditionedTest } from "../signal";
 import { formatClock } from "../units";
 import { CARRY_OVER_WARNING } from "./eov";
 import {
@@ -173,6 +173,34 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
     return measured(s.v[k], unit, { ...prov, window: { startS: s.t[k], endS: s.t[k] } });
   };
 
+  // treadmill: speed and grade read together at the row of highest load (net O2 cost of speed and grade), so the pair
+  // was reached at the same moment; a protocol that lowers the grade as the speed rises would otherwise report a
+  // speed and a grade never walked together (common practice: the peak stage is one speed at one grade)
+  const treadmillPeak = (): { speedKmh: Measured; gradePct: Measured } => {
+    const loaded = rows.filter((r) => r.speedKmh !== undefined && (!span || (r.timeS >= span.startS && r.timeS <= span.endS)));
+    if (loaded.length === 0) return { speedKmh: maxOf("speedKmh", "km/h", "speed"), gradePct: maxOf("gradePct", "%", "grade") };
+    let k = 0;
+    for (let i = 1; i < loaded.length; i++) {
+      const a = treadmillLoad(loaded[i].speedKmh!, loaded[i].gradePct);
+      if (a >= treadmillLoad(loaded[k].speedKmh!, loaded[k].gradePct)) k = i;
+    }
+    const at = loaded[k];
+    const prov = (what: string) =>
+      provenanceOf(
+        "treadmill-peak-load",
+        `${what} at the highest treadmill load in exercise (speed and grade read together, ranked by the ACSM walking cost)`,
+        ["common-practice", "acsm-metabolic-equations"],
+        { window: { startS: at.timeS, endS: at.timeS } },
+      );
+    return {
+      speedKmh: measured(at.speedKmh!, "km/h", prov("speed")),
+      gradePct:
+        at.gradePct !== undefined
+          ? measured(at.gradePct, "%", prov("grade"))
+          : notDetermined("%", prov("grade"), "no grade at the highest treadmill load"),
+    };
+  };
+
   const w = options.weightKg;
   // VO2 given per kg in the file and no body mass yet: the peak per kg straight from that column
   const perKgOnly = !rows.some((r) => r.vo2MlMin !== undefined) && !(w && w > 0) && rows.some((r) => r.vo2MlKgMin !== undefined);
@@ -318,8 +346,7 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
     rerMax,
     hrBpm: peakHr(),
     workW: maxOf("workW", "W", "work rate"),
-    speedKmh: maxOf("speedKmh", "km/h", "speed"),
-    gradePct: maxOf("gradePct", "%", "grade"),
+    ...treadmillPeak(),
     o2PulseMlBeat: ratioOver(
       "vo2MlMin",
       "hrBpm",

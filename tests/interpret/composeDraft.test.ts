@@ -94,6 +94,22 @@ describe("draft report text", () => {
     expect(rx).toMatch(/Heavy \(VT1 to VT2\): heart rate 118–151 bpm, speed 5\.9–7\.2 km\/h, grade 7\.6–12\.8 %\./);
   });
 
+  it("a treadmill test without a work rate states its highest load as speed with grade (invented values)", () => {
+    const { peakWorkW: _w, ...values } = fx.input.values;
+    const tm = { ...fx.input, ergometer: "treadmill" as const, values: { ...values, peakSpeedKmh: 6, peakGradePct: 10 } };
+    const res = composeDraft(tm, interpret(tm))
+      .sections.find((s) => s.id === "results")!
+      .paragraphs.join(" ");
+    expect(res).toContain("Highest treadmill load 6.0 km/h at 10.0 % grade.");
+    expect(res).not.toMatch(/Peak work rate/);
+    // a cycle test keeps its work rate and says nothing of speed
+    const cyc = composeDraft(fx.input, r)
+      .sections.find((s) => s.id === "results")!
+      .paragraphs.join(" ");
+    expect(cyc).toMatch(/Peak work rate 85 W\./);
+    expect(cyc).not.toMatch(/treadmill load/);
+  });
+
   it("a training referral with thresholds out of order says why there is no prescription", () => {
     const training = { ...fx.input, referral: "training" as const };
     const withheld =

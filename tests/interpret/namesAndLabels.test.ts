@@ -1,5 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { BETA_BLOCKER_HR_NOTE, composeDraft, interpret } from "../../lib/interpret";
+import {
+  BETA_BLOCKER_HR_NOTE,
+  BETA_BLOCKER_HR_REACHED_NOTE,
+  BETA_BLOCKER_ONE_SIDED,
+  composeDraft,
+  interpret,
+} from "../../lib/interpret";
 import { baseInput } from "./helpers";
 
 // INVENTED inputs. The name below is the thresholds layer's wording for a VE/VCO2 slope fitted to a break the fit placed
@@ -47,6 +53,43 @@ describe("beta-blocker: heart rate is shown but not read against the age-predict
         .paragraphs.find((p) => p.startsWith("Peak heart rate"))!;
     expect(text(on)).toBe(`Peak heart rate 133 bpm (${BETA_BLOCKER_HR_NOTE}).`);
     expect(text(off)).toBe("Peak heart rate 133 bpm (84 % of predicted).");
+  });
+});
+
+describe("beta-blocker: heart rate read on one side only (common practice; INVENTED values)", () => {
+  const blocked = { patient: { sex: "male" as const, ageY: 62, betaBlocker: true } };
+  // peak RER 1.03: below the default maximal cut-off (> 1.05, Radtke et al. 2019, confirmed), so effort rests on the rest
+  const input = (hrPctPred: number, hrReserveBpm: number) =>
+    baseInput({ peakRer: 1.03, peakHrBpm: 140, hrPctPred, hrReserveBpm, veMvvPct: 60, vo2Plateau: false, spo2Fall: 1 }, blocked);
+  const effortOf = (i: ReturnType<typeof input>) => interpret(i).effort;
+
+  it("a heart rate that reaches the predicted range despite the drug counts as a sign of effort", () => {
+    const e = effortOf(input(90, 16));
+    expect(e.verdict).toBe("physiological-limit");
+    expect(e.criteria.find((c) => c.ruleId === "hr-reached")!.outcome).toBe(true);
+    const i = input(90, 16);
+    const hrLine = composeDraft(i, interpret(i))
+      .sections.find((s) => s.id === "results")!
+      .paragraphs.find((p) => p.startsWith("Peak heart rate"))!;
+    expect(hrLine).toContain("90 % of predicted");
+    expect(hrLine).toContain(BETA_BLOCKER_HR_REACHED_NOTE);
+    expect(hrLine).not.toContain(BETA_BLOCKER_HR_NOTE);
+  });
+
+  it("one short of it is not assessable, never 'well below predicted', and the draft gives no % (the same value without the drug is read)", () => {
+    const e = effortOf(input(72, 45));
+    const hr = e.criteria.find((c) => c.ruleId === "hr-reached")!;
+    expect(hr.outcome).toBeNull();
+    expect(hr.text).toContain(BETA_BLOCKER_ONE_SIDED);
+    expect(e.verdict).toBe("submaximal");
+    const plain = interpret(baseInput({ peakRer: 1.03, hrPctPred: 72, hrReserveBpm: 45, veMvvPct: 60, vo2Plateau: false }));
+    expect(plain.effort.criteria.find((c) => c.ruleId === "hr-reached")!.outcome).toBe(false);
+    const i = input(72, 45);
+    const hrLine = composeDraft(i, interpret(i))
+      .sections.find((s) => s.id === "results")!
+      .paragraphs.find((p) => p.startsWith("Peak heart rate"))!;
+    expect(hrLine).not.toMatch(/% of predicted/);
+    expect(hrLine).toContain(BETA_BLOCKER_HR_NOTE);
   });
 });
 
