@@ -186,7 +186,7 @@ test("a reviewer sets a span of breaths aside: refused without a reason, recompu
   await box.locator('[name="start"]').fill("8:05");
   await box.locator('[name="end"]').fill("8:25");
   await box.locator('form.stack [name="by"]').fill("E2E Reviewer");
-  await box.locator('[name="reason"]').fill("the same leak again");
+  await box.locator('form.stack [name="reason"]').fill("the same leak again");
   await box.getByRole("button", { name: "Set these breaths aside" }).click();
   await expect(box).toContainText("8:05–8:25 is already set aside (8:00–8:30)");
   await box.locator('[name="start"]').fill("3:00");

@@ -1,7 +1,8 @@
 import type { BreathRow, NumericField } from "../breath";
 import { makeIssue, measured, notDetermined, type Issue, type Measured, type Provenance } from "../core";
+import { formatClock } from "../units";
 import { binByTime, linearRegression, PrefixSums, quantile, robustSd, runningMedian, seededRandom } from "../numeric";
-import type { ConditionedTest } from "../signal";
+import type { ConditionedTest, SetAsideSpan } from "../signal";
 import { BAND_CALIBRATION, calibrateBand } from "./bandCalibration";
 import { combineEstimates, timeAtLevel, vo2AtTime, type Consensus } from "./consensus";
 import { initialStep } from "./initialStep";
@@ -649,7 +650,42 @@ export function detectThresholds(test: ConditionedTest, options: DetectThreshold
     issues,
     series: { binS: series.binS, span: series.span, averaging: series.averaging, bins: series.timeS.length },
   };
-  return applyThresholdOverrides(test, result, options.overrides ?? [], series);
+  const final = applyThresholdOverrides(test, result, options.overrides ?? [], series);
+  final.issues.push(...besideSetAside(final, test.settings?.setAside ?? []));
+  return final;
+}
+
+/**
+ * How near a span of breaths set aside by review an automatic threshold may lie before it is said, s (our choice: three
+ * 20-s bins, about the reach of the corner each method fits).
+ */
+export const THRESHOLD_BESIDE_SPAN_S = 60;
+
+/**
+ * An automatic threshold placed inside or within `THRESHOLD_BESIDE_SPAN_S` of a span of gas values set aside by review:
+ * its corner was fitted across the gap, so it is said (a warning per threshold) for the reviewer to check on the charts.
+ * A reviewer's own threshold is not flagged; heart-rate spans leave the gas values, and so the thresholds, as they were.
+ */
+function besideSetAside(result: ThresholdResult, spans: readonly SetAsideSpan[]): Issue[] {
+  const gas = spans.filter((s) => s.channel !== "heart-rate");
+  const out: Issue[] = [];
+  for (const e of [result.vt1, result.vt2]) {
+    if (e.overridden || e.timeS === null || e.vo2MlMin.value === null) continue;
+    const t = e.timeS;
+    const near = gas.find((s) => t >= s.startS - THRESHOLD_BESIDE_SPAN_S && t <= s.endS + THRESHOLD_BESIDE_SPAN_S);
+    if (!near) continue;
+    const name = e.which === "vt1" ? "VT1" : "VT2";
+    const where = t >= near.startS && t <= near.endS ? "inside" : "next to";
+    out.push(
+      makeIssue(
+        "warning",
+        `${e.which}-beside-set-aside`,
+        `${name} (${formatClock(t)}) lies ${where} breaths set aside by review (${formatClock(near.startS)}–${formatClock(near.endS)}: ${near.reason}): its turning point was fitted across the gap. Check it on the charts, and set it by review if the breaths either side do not show it.`,
+        { field: e.which, timeS: t },
+      ),
+    );
+  }
+  return out;
 }
 
 /** A reason without its advice to review ("…; confirm by review"): for messages that give that advice themselves. */
