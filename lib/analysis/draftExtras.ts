@@ -66,12 +66,15 @@ export function draftExtras(record: TestRecord, thresholds: ThresholdResult, ind
       hrToBpm: whole(d.hrBpm.upper?.value),
       workFromW: whole(d.workW.lower?.value),
       workToW: whole(d.workW.upper?.value),
+      heldFromW: whole(d.workConstantLoadW.lower?.value),
+      heldToW: whole(d.workConstantLoadW.upper?.value),
       speedFromKmh: tenth(d.speedKmh.lower?.value),
       speedToKmh: tenth(d.speedKmh.upper?.value),
       gradeFromPct: tenth(d.gradePct.lower?.value),
       gradeToPct: tenth(d.gradePct.upper?.value),
     })),
     domainsWithheld: indices.domains.issues.find((i) => i.code === DOMAINS_OUT_OF_ORDER)?.message,
+    ...rampLagWords(indices),
     ...(indices.lactate ? { lactate: draftLactate(indices.lactate) } : {}),
   };
 }
@@ -96,4 +99,13 @@ function draftLactate(lac: LactateThresholdsResult): NonNullable<DraftExtras["la
       };
     }),
   };
+}
+
+/** The ramp's VO2 lag and the work-rate shift it gives, when the domains were read with one. */
+function rampLagWords(indices: IndicesResult): Pick<DraftExtras, "rampLag"> {
+  const lagS = indices.domains.lag.value;
+  const shift = indices.domains.domains
+    .map((d) => d.workConstantLoadW.upper ?? d.workConstantLoadW.lower)
+    .find((m) => m && m.value !== null)?.provenance.inputs?.shiftW;
+  return lagS !== null && typeof shift === "number" ? { rampLag: { lagS, shiftW: shift } } : {};
 }

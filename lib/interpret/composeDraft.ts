@@ -11,6 +11,9 @@ export interface IntensityDomain {
   hrToBpm?: number;
   workFromW?: number;
   workToW?: number;
+  /** The same work rates held at constant load (the ramp's one VO2 lag earlier), where the lag was measured. */
+  heldFromW?: number;
+  heldToW?: number;
   /** Treadmill speed (km/h, one decimal) and grade (%, one decimal) over the domain. */
   speedFromKmh?: number;
   speedToKmh?: number;
@@ -46,6 +49,8 @@ export interface DraftExtras {
   domains?: IntensityDomain[];
   /** Why no domain is given when both thresholds are there (they are out of order), in words for the draft. */
   domainsWithheld?: string;
+  /** VO2 lag on the ramp (s) and the work-rate shift it gives (W), when measured. */
+  rampLag?: { lagS: number; shiftW: number };
   /** Blood lactate thresholds, already in display words (the thresholds layer names and rounds them). */
   lactate?: DraftLactate;
   comparison?: SerialComparison;
@@ -382,7 +387,11 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
         hrTargets && (d.hrFromBpm !== undefined || d.hrToBpm !== undefined)
           ? `heart rate ${range(d.hrFromBpm, d.hrToBpm, "bpm")}`
           : "";
-      const w = d.workFromW !== undefined || d.workToW !== undefined ? `work rate ${range(d.workFromW, d.workToW, "W")}` : "";
+      const held = d.heldFromW !== undefined || d.heldToW !== undefined ? range(d.heldFromW, d.heldToW, "W") : "";
+      const w =
+        d.workFromW !== undefined || d.workToW !== undefined
+          ? `work rate ${range(d.workFromW, d.workToW, "W")} on the ramp${held ? ` (${held} at constant load)` : ""}`
+          : "";
       // on a treadmill the speed is prescribed with its grade
       const speed =
         d.speedFromKmh !== undefined || d.speedToKmh !== undefined ? `speed ${range(d.speedFromKmh, d.speedToKmh, "km/h")}` : "";
@@ -398,7 +407,9 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
       );
     if (domains.some((d) => d.workFromW !== undefined || d.workToW !== undefined))
       rx.push(
-        "Work rates are read from the ramp: VO2 lags a ramp, so constant-load training at these work rates sits at a higher intensity than the threshold itself (common practice).",
+        extras.rampLag
+          ? `Work rates are read from the ramp. VO2 lagged this ramp by about ${Math.round(extras.rampLag.lagS)} s, so the work rate held at constant load for the same intensity is about ${Math.round(extras.rampLag.shiftW)} W lower (in brackets); prescribe constant-load training from those.`
+          : "Work rates are read from the ramp: VO2 lags a ramp, so constant-load training at these work rates sits at a higher intensity than the threshold itself (common practice); the lag could not be measured on this test.",
       );
     const unsure = [input.vt1LowConfidence ? "VT1" : "", input.vt2LowConfidence ? "VT2" : ""].filter(Boolean);
     if (domains.length && unsure.length)

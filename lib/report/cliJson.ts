@@ -113,9 +113,12 @@ export interface CliAnalysisJson {
     label: string;
     hrBpm: [number | null, number | null];
     workW: [number | null, number | null];
+    workConstantLoadW: [number | null, number | null];
     speedKmh?: [number | null, number | null];
     gradePct?: [number | null, number | null];
   }[];
+  /** VO2 lag on the cycle ramp the constant-load work rates are read with, s. */
+  domainsRampLagS: number | null;
   interpretation: unknown;
   issues: Issue[];
 }
@@ -334,11 +337,13 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
           },
         }
       : null,
+    domainsRampLagS: val(ix.domains.lag),
     domains: ix.domains.domains.map((d) => ({
       id: d.id,
       label: d.label,
       hrBpm: [val(d.hrBpm.lower), val(d.hrBpm.upper)],
       workW: [val(d.workW.lower), val(d.workW.upper)],
+      workConstantLoadW: [val(d.workConstantLoadW.lower), val(d.workConstantLoadW.upper)],
       speedKmh: [val(d.speedKmh.lower), val(d.speedKmh.upper)],
       gradePct: [val(d.gradePct.lower), val(d.gradePct.upper)],
     })),

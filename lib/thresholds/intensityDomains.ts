@@ -1,8 +1,16 @@
-import { makeIssue, type Issue, type Measured } from "../core";
+import { makeIssue, measured, notDetermined, type Issue, type Measured } from "../core";
 import type { PeakValues } from "./measurePeaks";
+import type { RampLag } from "./rampLag";
 import type { ValuesAtThreshold } from "./valuesAtThreshold";
 
 export type DomainId = "moderate" | "heavy" | "severe";
+
+/** The lag when none was measured (no ramp given to the domains). */
+const NO_LAG = notDetermined(
+  "s",
+  { method: "ramp-vo2-lag", label: "VO2 lag on the ramp", sourceIds: ["whipp-1981-ramp"] },
+  "not measured",
+);
 
 /** Issue code when no domain is given because VT2 does not lie above VT1. */
 export const DOMAINS_OUT_OF_ORDER = "domains-thresholds-out-of-order";
@@ -18,6 +26,11 @@ export interface IntensityDomain {
   label: string;
   hrBpm: DomainRange;
   workW: DomainRange;
+  /**
+   * The work rate a patient can hold at the same intensity: the ramp's work rate one VO2 lag earlier (`RampLag`); null
+   * bounds where the lag is not known, and the severe domain's top (a peak is not held at constant load).
+   */
+  workConstantLoadW: DomainRange;
   speedKmh: DomainRange;
   /** Treadmill grade over the same range, % (the speed is prescribed with its grade). */
   gradePct: DomainRange;
@@ -25,6 +38,8 @@ export interface IntensityDomain {
 
 export interface IntensityDomainsResult {
   domains: IntensityDomain[];
+  /** The VO2 lag on the ramp the constant-load work rates are read with. */
+  lag: RampLag["lagS"];
   sourceIds: string[];
   issues: Issue[];
 }
@@ -39,10 +54,24 @@ export function intensityDomains(
   atVt1: ValuesAtThreshold | null,
   atVt2: ValuesAtThreshold | null,
   peaks: PeakValues,
+  lag: RampLag | null = null,
 ): IntensityDomainsResult {
   const issues: Issue[] = [];
   const domains: IntensityDomain[] = [];
   const usable = (m: Measured | undefined | null) => (m && m.value !== null ? m : null);
+  const lagS = lag?.lagS.value ?? null;
+  const shift = lagS !== null && lag?.rampWPerS ? lagS * lag.rampWPerS : null;
+  // the ramp's work rate one VO2 lag earlier: what VO2 at the threshold reflects (Whipp et al. 1981; see `RampLag`)
+  const held = (m: Measured | undefined | null): Measured | null => {
+    const w = usable(m);
+    if (!w || shift === null || !lag) return null;
+    return measured(Math.max(0, w.value! - shift), "W", {
+      ...lag.lagS.provenance,
+      label: `work rate at constant load: the ramp's work rate ${Math.round(lagS!)} s (the VO2 lag) before the threshold`,
+      sourceIds: [...lag.lagS.provenance.sourceIds, "intensity-domains"],
+      inputs: { ...lag.lagS.provenance.inputs, rampW: w.value!, shiftW: shift },
+    });
+  };
   // the RCP follows the AT (common practice): with VT2 at or below VT1 (or before it in time) one of them is wrong, and
   // ranges read between them would run backwards ("VT1 to VT2: 102–95 bpm"); no prescription is drawn from them
   const v1 = atVt1?.vo2MlMin.value ?? null;
@@ -57,7 +86,7 @@ export function intensityDomains(
         "Intensity domains are not given: VT2 does not lie above VT1 (in VO2 or in time), so at least one of them is wrong. Review both thresholds; the domains follow once they are in order.",
       ),
     );
-    return { domains, sourceIds: ["intensity-domains"], issues };
+    return { domains, lag: lag?.lagS ?? NO_LAG, sourceIds: ["intensity-domains"], issues };
   }
   if (atVt1) {
     domains.push({
@@ -65,6 +94,7 @@ export function intensityDomains(
       label: "moderate (below VT1)",
       hrBpm: { lower: null, upper: usable(atVt1.hrBpm) },
       workW: { lower: null, upper: usable(atVt1.workW) },
+      workConstantLoadW: { lower: null, upper: held(atVt1.workW) },
       speedKmh: { lower: null, upper: usable(atVt1.speedKmh) },
       gradePct: { lower: null, upper: usable(atVt1.gradePct) },
     });
@@ -75,6 +105,7 @@ export function intensityDomains(
       label: "heavy (VT1 to VT2)",
       hrBpm: { lower: usable(atVt1.hrBpm), upper: usable(atVt2.hrBpm) },
       workW: { lower: usable(atVt1.workW), upper: usable(atVt2.workW) },
+      workConstantLoadW: { lower: held(atVt1.workW), upper: held(atVt2.workW) },
       speedKmh: { lower: usable(atVt1.speedKmh), upper: usable(atVt2.speedKmh) },
       gradePct: { lower: usable(atVt1.gradePct), upper: usable(atVt2.gradePct) },
     });
@@ -85,6 +116,7 @@ export function intensityDomains(
       label: "severe (above VT2)",
       hrBpm: { lower: usable(atVt2.hrBpm), upper: usable(peaks.hrBpm) },
       workW: { lower: usable(atVt2.workW), upper: usable(peaks.workW) },
+      workConstantLoadW: { lower: held(atVt2.workW), upper: null },
       speedKmh: { lower: usable(atVt2.speedKmh), upper: usable(peaks.speedKmh) },
       gradePct: { lower: usable(atVt2.gradePct), upper: usable(peaks.gradePct) },
     });
@@ -103,9 +135,11 @@ export function intensityDomains(
       makeIssue(
         "info",
         "ramp-work-rates",
-        "Work rates at the thresholds are read from the ramp; VO2 lags a ramp, so constant-load training at these work rates sits at a higher intensity than the threshold itself.",
+        shift !== null
+          ? `Work rates at the thresholds are read from the ramp. VO2 lagged this ramp by about ${Math.round(lagS!)} s, so the work rate held at constant load for the same intensity is about ${Math.round(shift)} W lower; both are given.`
+          : `Work rates at the thresholds are read from the ramp; VO2 lags a ramp, so constant-load training at these work rates sits at a higher intensity than the threshold itself. The lag could not be measured on this test (${lag?.lagS.reason ?? "not a cycle ramp"}).`,
       ),
     );
   }
-  return { domains, sourceIds: ["intensity-domains"], issues };
+  return { domains, lag: lag?.lagS ?? NO_LAG, sourceIds: ["intensity-domains"], issues };
 }

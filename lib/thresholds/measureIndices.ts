@@ -8,6 +8,7 @@ import { assessEffort, vo2FinalIncrease } from "./effortCriteria";
 import { eov } from "./eov";
 import { heartRateIndices } from "./heartRateIndices";
 import type { IndicesContext, IndicesResult } from "./indexTypes";
+import { rampLag } from "./rampLag";
 import { intensityDomains } from "./intensityDomains";
 import { lactatePointsFromTest, lactateThresholds, type LactateThresholdsResult } from "./lactateThresholds";
 import { measurePeaks } from "./measurePeaks";
@@ -106,7 +107,7 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
   const o2p = o2Pulse(test);
   const sp = spo2(test, { windowS, definition: ctx.desaturationDefinition });
   const vd = vdVt(test, ctx.bloodGases, ctx.readAtTime, ctx.apparatusDeadSpaceMl, ctx.barometricPressureMmHg);
-  const domains = intensityDomains(atVt1, atVt2, peaks);
+  const domains = intensityDomains(atVt1, atVt2, peaks, rampLag(test, vt1?.timeS ?? null));
   const issues = [
     ...peaks.issues,
     ...(atVt1?.issues ?? []),

@@ -233,6 +233,19 @@ export const THRESHOLD_SOURCES = defineSources({
     status: "secondary",
     note: "Cubic fit of lactate vs work; threshold at maximum perpendicular distance from the chord joining the ends (secondary description).",
   },
+  "whipp-1981-ramp": {
+    citation:
+      "Whipp BJ, Davis JA, Torres F, Wasserman K. A test to determine parameters of aerobic function during exercise. J Appl Physiol 1981;50(1):217-221",
+    status: "confirmed",
+    doi: "10.1152/jappl.1981.50.1.217",
+    note: "Abstract seen: a 4-8 min cycle ramp gives maximal VO2, the anaerobic threshold, work efficiency and the time constant of VO2 kinetics. The method detail used here (the ramp's linear VO2 back-extrapolated to the baseline VO2 of unloaded pedalling; the delay is the mean response time) is recalled.",
+  },
+  "davis-1982-ramp-slope": {
+    citation:
+      "Davis JA, Whipp BJ, Lamarra N, Huntsman DJ, Frank MH, Wasserman K. Effect of ramp slope on determination of aerobic parameters from the ramp exercise test. Med Sci Sports Exerc 1982;14(5):339-343",
+    status: "confirmed",
+    note: "Abstract seen: ramps of 20-50 W/min gave the same aerobic parameters; at 100 W/min the VO2 time constant and efficiency could not be discerned. Author list recalled (the page seen gave none).",
+  },
   "intensity-domains": {
     citation:
       "Exercise intensity domains (moderate below the gas-exchange/lactate threshold, heavy up to the respiratory compensation point, severe above) — common practice in exercise physiology and prescription",

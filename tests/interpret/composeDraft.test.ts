@@ -68,10 +68,32 @@ describe("draft report text", () => {
       ],
     });
     const rx = d.sections.find((s) => s.id === "prescription")!.paragraphs.join(" ");
-    expect(rx).toMatch(/Moderate \(below VT1\): heart rate up to 122 bpm, work rate up to 90 W\./);
-    expect(rx).toMatch(/Heavy \(VT1 to VT2\): heart rate 122–158 bpm, work rate 90–160 W\./);
-    expect(rx).toMatch(/Severe \(above VT2\): heart rate from 158 bpm, work rate from 160 W\./);
+    expect(rx).toMatch(/Moderate \(below VT1\): heart rate up to 122 bpm, work rate up to 90 W on the ramp\./);
+    expect(rx).toMatch(/Heavy \(VT1 to VT2\): heart rate 122–158 bpm, work rate 90–160 W on the ramp\./);
+    expect(rx).toMatch(/Severe \(above VT2\): heart rate from 158 bpm, work rate from 160 W on the ramp\./);
     expect(rx).not.toMatch(/…/);
+    expect(rx).toMatch(/the lag could not be measured on this test/);
+  });
+
+  it("with the ramp's VO2 lag measured, constant-load work rates stand beside the ramp's (invented values)", () => {
+    // invented: a 10 W/min ramp and a 60-s lag move each bound 10 W down
+    const d = composeDraft(fx.input, r, {
+      domains: [
+        { name: "Moderate (below VT1)", hrToBpm: 105, workToW: 62, heldToW: 52 },
+        { name: "Heavy (VT1 to VT2)", hrFromBpm: 105, hrToBpm: 130, workFromW: 62, workToW: 90, heldFromW: 52, heldToW: 80 },
+        { name: "Severe (above VT2)", hrFromBpm: 130, workFromW: 90, workToW: 110, heldFromW: 80 },
+      ],
+      rampLag: { lagS: 60, shiftW: 10 },
+    });
+    const rx = d.sections.find((s) => s.id === "prescription")!.paragraphs.join(" ");
+    expect(rx).toMatch(
+      /Moderate \(below VT1\): heart rate up to 105 bpm, work rate up to 62 W on the ramp \(up to 52 W at constant load\)\./,
+    );
+    expect(rx).toMatch(/work rate 62–90 W on the ramp \(52–80 W at constant load\)/);
+    expect(rx).toMatch(/work rate 90–110 W on the ramp \(from 80 W at constant load\)/);
+    expect(rx).toMatch(
+      /VO2 lagged this ramp by about 60 s, so the work rate held at constant load for the same intensity is about 10 W lower/,
+    );
   });
 
   it("a treadmill prescription gives the speed with its grade (invented ranges)", () => {

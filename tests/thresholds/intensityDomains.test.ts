@@ -1,4 +1,5 @@
 import { describe, it, expect } from "vitest";
+import { measured } from "../../lib/core";
 import { intensityDomains } from "../../lib/thresholds/intensityDomains";
 import { measurePeaks } from "../../lib/thresholds/measurePeaks";
 import { valuesAtThreshold } from "../../lib/thresholds/valuesAtThreshold";
@@ -25,6 +26,31 @@ describe("intensity domains (invented ramp, VT1 at 420 s, VT2 at 660 s)", () => 
     expect(severe.speedKmh.lower).toBeNull();
     expect(r.sourceIds).toEqual(["intensity-domains"]);
     expect(r.issues.map((i) => i.code)).toEqual(["ramp-work-rates"]);
+  });
+
+  it("with a measured VO2 lag, the constant-load work rates are the ramp's one lag earlier", () => {
+    // the invented ramp rises 1/3 W per s (20 W/min); an invented 60-s lag moves each bound 20 W down: VT1 80 → 60 W,
+    // VT2 160 → 140 W, and the severe domain has no constant-load top (a peak is not held)
+    const lag = {
+      lagS: measured(60, "s", { method: "ramp-vo2-lag", label: "invented lag", sourceIds: ["whipp-1981-ramp"] }),
+      rampWPerS: 1 / 3,
+    };
+    const [mod, heavy, severe] = intensityDomains(a1, a2, peaks, lag).domains;
+    expect(mod.workConstantLoadW.lower).toBeNull();
+    expect(mod.workConstantLoadW.upper?.value).toBeCloseTo(60, 9);
+    expect(heavy.workConstantLoadW.lower?.value).toBeCloseTo(60, 9);
+    expect(heavy.workConstantLoadW.upper?.value).toBeCloseTo(140, 9);
+    expect(severe.workConstantLoadW.lower?.value).toBeCloseTo(140, 9);
+    expect(severe.workConstantLoadW.upper).toBeNull();
+    const r = intensityDomains(a1, a2, peaks, lag);
+    expect(r.lag.value).toBe(60);
+    expect(r.issues.find((i) => i.code === "ramp-work-rates")?.message).toMatch(
+      /about 60 s, so the work rate held at constant load for the same intensity is about 20 W lower/,
+    );
+    // without a lag, no constant-load work rate and the issue says the lag was not measured
+    const none = intensityDomains(a1, a2, peaks);
+    expect(none.domains.every((d) => d.workConstantLoadW.lower === null && d.workConstantLoadW.upper === null)).toBe(true);
+    expect(none.issues.find((i) => i.code === "ramp-work-rates")?.message).toMatch(/could not be measured/);
   });
 
   it("only VT1 → moderate domain only, with an issue", () => {

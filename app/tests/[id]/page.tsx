@@ -540,7 +540,8 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
             <tr>
               <th>Domain</th>
               <th className="num">Heart rate ({HR_UNIT})</th>
-              <th className="num">Work rate (W)</th>
+              <th className="num">Work rate on the ramp (W)</th>
+              <th className="num">Work rate held at constant load (W)</th>
               <th className="num">Speed (km/h)</th>
               <th className="num">Grade (%)</th>
             </tr>
@@ -548,7 +549,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           <tbody>
             {ix.domains.domains.length === 0 ? (
               <tr data-testid="domains-none">
-                <td colSpan={5}>
+                <td colSpan={6}>
                   {/* with no domain, its issues are the reason (thresholds missing or out of order) */}
                   {ix.domains.issues.map((i) => i.message).join(" ") || "No domain can be given."}
                 </td>
@@ -559,6 +560,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                 <td>{d.label}</td>
                 <td className="num">{range(d.hrBpm.lower, d.hrBpm.upper, 0)}</td>
                 <td className="num">{range(d.workW.lower, d.workW.upper, 0)}</td>
+                <td className="num">{range(d.workConstantLoadW.lower, d.workConstantLoadW.upper, 0)}</td>
                 <td className="num">{range(d.speedKmh.lower, d.speedKmh.upper, 1)}</td>
                 <td className="num">{range(d.gradePct.lower, d.gradePct.upper, 1)}</td>
               </tr>
@@ -566,6 +568,11 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           </tbody>
         </table>
       </TableScroll>
+      <p className="how" data-testid="domains-lag">
+        {ix.domains.lag.value !== null
+          ? `VO2 lagged this ramp by about ${Math.round(ix.domains.lag.value)} s (${ix.domains.lag.provenance.label}); the work rate held at constant load is the ramp's work rate that long before each threshold.`
+          : `Constant-load work rates are not given: the VO2 lag on the ramp could not be measured (${ix.domains.lag.reason ?? "not measured"}).`}
+      </p>
 
       <h2 id="interpretation">Interpretation path</h2>
       <ol data-testid="interpretation-path">

@@ -1,0 +1,166 @@
+import { measured, notDetermined, type Measured } from "../core";
+import { linearRegression } from "../numeric";
+import type { ConditionedTest } from "../signal";
+import { fieldSeries, provenanceOf } from "./indexSeries";
+
+/**
+ * How long VO2 lags a cycle ramp (its mean response time), from the test itself: the straight VO2 line of the ramp below
+ * VT1, back-extrapolated to the steady VO2 of the warm-up before the ramp, crosses it this long after the ramp left the
+ * warm-up load (Whipp, Davis, Torres & Wasserman 1981, J Appl Physiol 50:217 — confirmed abstract: a ramp gives the VO2
+ * time constant; the back-extrapolation detail is recalled). The work rate a patient can hold at a threshold's intensity
+ * is then the ramp's work rate one lag earlier (common practice: VO2 on a ramp reflects the work rate of about one mean
+ * response time before).
+ */
+export interface RampLag {
+  /** Mean response time of VO2 on the ramp, s; not determined without a warm-up, a ramp or enough breaths before VT1. */
+  lagS: Measured;
+  /** Ramp rate over the fitted span, W/s (null when not determined). */
+  rampWPerS: number | null;
+}
+
+/** Least warm-up before the ramp for its VO2 to be steady, s (our choice: two minutes of unloaded pedalling). */
+const WARMUP_MIN_S = 120;
+/** The warm-up's last seconds averaged for its baseline VO2, s (our choice). */
+const BASELINE_S = 60;
+/** Least span of the ramp before VT1, beyond the fit's own minimum, s (our choice: the response's curved start). */
+const SETTLE_S = 60;
+/** Longest phase-I delay tried, s (our choice; the cardiodynamic phase lasts about 15-20 s — recalled). */
+const MAX_DELAY_S = 25;
+/** Least span of the ramp between the settle window and VT1 to fit, s (our choice). */
+const FIT_MIN_S = 90;
+/**
+ * A lag outside this range is not used, s (our choice: about 30-50 s in healthy adults and longer in heart failure, up to
+ * about 90 s — recalled; beyond 150 s the line or the baseline is more likely at fault).
+ */
+const LAG_RANGE_S: [number, number] = [10, 150];
+/** Ramps faster than this do not give the VO2 time constant (Davis et al. 1982 — confirmed abstract: 100 W/min did not). */
+const MAX_RAMP_W_PER_MIN = 60;
+
+/**
+ * The ramp's VO2 lag (see `RampLag`). Cycle ramps only (work rate present, no long stages); needs a warm-up of at least
+ * two minutes at a steady load before the ramp and at least 90 s of ramp between its first minute and VT1.
+ *
+ * @param test conditioned test
+ * @param vt1TimeS time of VT1, s (the fit stays below it: above it VO2 gains a slow component)
+ */
+export function rampLag(test: ConditionedTest, vt1TimeS: number | null): RampLag {
+  const prov = (extra: Record<string, number> = {}) =>
+    provenanceOf(
+      "ramp-vo2-lag",
+      "VO2 lag on the ramp: its straight rise below VT1 back-extrapolated to the warm-up VO2 (mean response time)",
+      ["whipp-1981-ramp", "implementation-choice"],
+      { inputs: extra },
+    );
+  const none = (why: string): RampLag => ({ lagS: notDetermined("s", prov(), why), rampWPerS: null });
+  const ex = test.exercise;
+  if (!ex || test.shape === "stage") return none("no breath-by-breath ramp");
+  const rate = test.rampRateWPerMin;
+  if (rate === null || !(rate > 0) || (test.rampRateR2 ?? 0) < 0.95)
+    return none("the incremental phase is not a steady cycle ramp");
+  if (rate > MAX_RAMP_W_PER_MIN) return none(`the ramp (${Math.round(rate)} W/min) is too fast to show the VO2 lag`);
+  const warm = test.phases.find((p) => p.phase === "warmup" && p.endS <= ex.startS + 1 && p.endS - p.startS >= WARMUP_MIN_S);
+  if (!warm) return none(`no warm-up of at least ${WARMUP_MIN_S} s before the ramp`);
+  if (vt1TimeS === null || vt1TimeS - (ex.startS + SETTLE_S) < FIT_MIN_S)
+    return none(`less than ${FIT_MIN_S} s of ramp between its first minute and VT1`);
+
+  const base = { startS: warm.endS - BASELINE_S, endS: warm.endS };
+  const vb = fieldSeries(test.clean, "vo2MlMin", base);
+  const wb = fieldSeries(test.clean, "workW", base);
+  if (vb.v.length < 5 || wb.v.length < 2) return none("too few warm-up breaths with VO2 and work rate");
+  const mean = (a: ArrayLike<number>) => {
+    let sum = 0;
+    for (let k = 0; k < a.length; k++) sum += a[k];
+    return sum / a.length;
+  };
+  const vo2Base = mean(vb.v);
+  const workBase = mean(wb.v);
+
+  // the ramp's work-rate line, and when it left the warm-up load
+  const w = fieldSeries(test.clean, "workW", { startS: ex.startS, endS: vt1TimeS });
+  if (w.v.length < 5) return none("too few ramp breaths below VT1");
+  const workLine = linearRegression(w.t, w.v); // W per s
+  if (!(workLine.slope > 0)) return none("the work rate does not rise on the ramp below VT1");
+  const t0 = (workBase - workLine.intercept) / workLine.slope;
+  // VO2 from the ramp's start to VT1 against a first-order response to a ramp after a delay (Whipp et al. 1981 —
+  // recalled model): VO2 − baseline = A·g(t − t0 − delay), g(u) = u − τ·(1 − e^(−u/τ)) for u > 0, else 0. Its straight
+  // asymptote lags the ramp by delay + τ, the mean response time. A is fitted in closed form for each (delay, τ) on a grid.
+  // the fit runs from the start of the warm-up: its step from rest shows the same kinetics, which steadies the fit
+  const span = { startS: warm.startS, endS: vt1TimeS };
+  const v = fieldSeries(test.clean, "vo2MlMin", span);
+  if (v.v.length < 30 || vt1TimeS - t0 < SETTLE_S + FIT_MIN_S) return none("too few ramp breaths below VT1");
+  let best = { sse: Infinity, delay: 0, tau: 0, a: 0 };
+  const n = v.t.length;
+  for (let delay = 0; delay <= MAX_DELAY_S; delay += 5)
+    for (let tau = 5; tau <= LAG_RANGE_S[1]; tau += 1) {
+      // y = b + S·h(t − tw − delay) + A·g(t − t0 − delay): resting VO2, the step to the warm-up load (h(u) = 1 − e^(−u/τ))
+      // and the ramp (g as above), all with one first-order response (common practice in the moderate domain); linear in
+      // b, S and A for a given (delay, τ), solved by the normal equations
+      const cols = [new Float64Array(n).fill(1), new Float64Array(n), new Float64Array(n)];
+      for (let k = 0; k < n; k++) {
+        const us = v.t[k] - warm.startS - delay;
+        cols[1][k] = us > 0 ? 1 - Math.exp(-us / tau) : 0;
+        const u = v.t[k] - t0 - delay;
+        cols[2][k] = u > 0 ? u - tau * (1 - Math.exp(-u / tau)) : 0;
+      }
+      const fit = leastSquares(cols, v.v);
+      if (fit && fit.sse < best.sse) best = { sse: fit.sse, delay, tau, a: fit.coef[2] };
+    }
+  if (!(best.a > 0)) return none("VO2 does not rise on the ramp below VT1");
+  const lag = best.delay + best.tau;
+  const inputs = {
+    vo2BaseMlMin: vo2Base,
+    workBaseW: workBase,
+    rampWPerMin: 60 * workLine.slope,
+    delayS: best.delay,
+    tauS: best.tau,
+    fitStartS: span.startS,
+    fitEndS: span.endS,
+  };
+  if (!(lag >= LAG_RANGE_S[0] && lag < LAG_RANGE_S[1]))
+    return {
+      lagS: notDetermined(
+        "s",
+        prov(inputs),
+        `the fitted lag (${Math.round(lag)} s) lies outside ${LAG_RANGE_S[0]}–${LAG_RANGE_S[1]} s`,
+      ),
+      rampWPerS: null,
+    };
+  return { lagS: measured(lag, "s", { ...prov(inputs), window: span }), rampWPerS: workLine.slope };
+}
+
+/** Ordinary least squares on a few columns by the normal equations (Gaussian elimination with partial pivoting). */
+function leastSquares(cols: readonly Float64Array[], y: ArrayLike<number>): { coef: number[]; sse: number } | null {
+  const p = cols.length;
+  const n = y.length;
+  const m: number[][] = Array.from({ length: p }, () => new Array<number>(p + 1).fill(0));
+  for (let i = 0; i < p; i++) {
+    for (let j = i; j < p; j++) {
+      let s = 0;
+      for (let k = 0; k < n; k++) s += cols[i][k] * cols[j][k];
+      m[i][j] = s;
+      m[j][i] = s;
+    }
+    let s = 0;
+    for (let k = 0; k < n; k++) s += cols[i][k] * y[k];
+    m[i][p] = s;
+  }
+  for (let c = 0; c < p; c++) {
+    let piv = c;
+    for (let r = c + 1; r < p; r++) if (Math.abs(m[r][c]) > Math.abs(m[piv][c])) piv = r;
+    if (!(Math.abs(m[piv][c]) > 1e-12 * (Math.abs(m[c][c]) + 1))) return null;
+    [m[c], m[piv]] = [m[piv], m[c]];
+    for (let r = 0; r < p; r++) {
+      if (r === c) continue;
+      const f = m[r][c] / m[c][c];
+      for (let k = c; k <= p; k++) m[r][k] -= f * m[c][k];
+    }
+  }
+  const coef = m.map((row, i) => row[p] / row[i]);
+  let sse = 0;
+  for (let k = 0; k < n; k++) {
+    let f = 0;
+    for (let i = 0; i < p; i++) f += coef[i] * cols[i][k];
+    sse += (y[k] - f) ** 2;
+  }
+  return { coef, sse };
+}
