@@ -186,6 +186,27 @@ export function toInterpretInput(
       high: { peakRer: hi },
     });
   }
+  // an MVV estimated from FEV1: both published multipliers (× 35 and × 40; Otto-Yáñez 2020, confirmed, compares them)
+  // give the breathing-reserve values at the band's ends, so a ventilatory reading that one multiplier would change is
+  // said as borderline wherever it is read (flow, patterns, schemes)
+  const br = indices.breathingReserve;
+  const fev1 = record.spirometry?.fev1L;
+  const vePeak = v(p.veLMin);
+  if ((br.mvvChoice === "fev1x40" || br.mvvChoice === "fev1x35") && fev1 && fev1 > 0 && vePeak !== null) {
+    const at = (factor: number): Partial<InterpretValues> => {
+      const mvv = fev1 * factor;
+      return {
+        veMvvPct: (100 * vePeak) / mvv,
+        breathingReserveLMin: mvv - vePeak,
+        breathingReservePct: 100 * (1 - vePeak / mvv),
+      };
+    };
+    uncertainty.push({
+      words: `MVV estimated from FEV1 (${(fev1 * 35).toFixed(0)} L/min at × 35, ${(fev1 * 40).toFixed(0)} L/min at × 40; measure MVV)`,
+      low: at(35),
+      high: at(40),
+    });
+  }
   // obesity: per-kg values on actual weight understate capacity (lean or predicted-weight normalisation, Osman et al.
   // 2000, J Am Coll Cardiol — recalled); the reading on predicted body mass goes beside every per-kg category
   const ideal = weightBasis?.ideal;

@@ -441,7 +441,14 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     );
   // Only moderately or strongly supported patterns reach the conclusion; weak ones stay in the pattern section.
   const leading = supported.find((p) => p.support === "strong" || p.support === "moderate");
-  if (leading) concl.push(leading.statement);
+  if (leading) concl.push(leading.borderline ? `${leading.statement} Read with: ${leading.borderline}.` : leading.statement);
+  // a step of the stepwise reading that an uncertainty band would turn (an MVV estimated from FEV1 that one multiplier
+  // reads as ventilatory limitation) is said here too, unless the leading pattern already said that band
+  for (const step of interpretation.path.steps) {
+    if (!step.borderline) continue;
+    const parts = step.borderline.split("; ").filter((part) => !leading?.borderline?.includes(part.split(" reaches ")[0]));
+    if (parts.length) concl.push(`${step.title} is borderline: ${parts.join("; ")}.`);
+  }
   const combined = interpretation.schemes.filter((s) => s.overall && s.schemeId !== "peak-vo2-grade");
   for (const s of combined) {
     const caveats = conclusionCaveats(s, interpretation, input);

@@ -68,6 +68,19 @@ export function rankPatterns(ctx: EvalContext, effort: EffortResult, path?: Path
       support = "not-supported";
       supportNote = "support was weak and the stepwise interpretation found no exercise limitation";
     }
+    // a finding of this pattern that an end of a measurement's uncertainty band would reverse (an MVV estimated from FEV1,
+    // the VT1 band, a slope's band): said beside the pattern wherever it is stated, as the flow and the schemes do
+    const borderline: string[] = [];
+    if (support === "strong" || support === "moderate")
+      for (const end of ctx.bandEnds ?? [])
+        for (const f of features) {
+          if (f.evidence === "not-assessable") continue;
+          const here = evaluateRule(f.ruleId, ctx);
+          const flipped = [evaluateRule(f.ruleId, end.low), evaluateRule(f.ruleId, end.high)].find(
+            (r) => r.outcome !== null && here.outcome !== null && r.outcome !== here.outcome,
+          );
+          if (flipped) borderline.push(`the ${end.words} gives "${flipped.outcome ? flipped.label : flipped.labelFalse}"`);
+        }
     const statement =
       support === "not-assessable"
         ? `Whether the findings are consistent with ${p.consistentWith} cannot be assessed from the data available.`
@@ -80,6 +93,7 @@ export function rankPatterns(ctx: EvalContext, effort: EffortResult, path?: Path
       statement,
       support,
       ...(supportNote ? { supportNote } : {}),
+      ...(borderline.length ? { borderline: [...new Set(borderline)].join("; ") } : {}),
       score,
       for: forF,
       against,

@@ -329,6 +329,8 @@ export interface PatternResult {
    * pattern, or weak support set aside because the stepwise interpretation found no limitation).
    */
   supportNote?: string;
+  /** Findings of a strong or moderate pattern that an end of an uncertainty band would reverse, in words. */
+  borderline?: string;
   support: "strong" | "moderate" | "weak" | "not-supported" | "not-assessable";
   /** Weighted share of assessable features that fit, 0..1 (null when nothing assessable). */
   score: number | null;

@@ -609,6 +609,8 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
               <tr key={pt.patternId}>
                 <td>
                   {pt.statement}
+                  {pt.supportNote ? <div className="how">{pt.supportNote}</div> : null}
+                  {pt.borderline ? <div className="how">borderline: {pt.borderline}</div> : null}
                   <div className="how">evidence: {EVIDENCE_LABEL[pt.status]}</div>
                 </td>
                 <td className="nowrap">{pt.support.replace(/-/g, " ")}</td>

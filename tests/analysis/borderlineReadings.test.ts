@@ -1,0 +1,44 @@
+/**
+ * Readings an uncertainty band would turn are said in the conclusion (INVENTED demo cases):
+ * - an MVV estimated from FEV1: both multipliers in use, × 35 and × 40 (Otto-Yáñez et al. 2020, Front Physiol —
+ *   confirmed, compares them), give the breathing-reserve values at the band's ends; the ventilatory-limitation case read
+ *   with FEV1 alone (1.4 L: MVV 49 or 56 L/min) gives VE/MVV ≥ 85 % (ERS 2019 cut-off, confirmed) at × 35 only;
+ * - a leading pattern one of whose findings the VT1 band reverses says so beside it.
+ */
+import { describe, expect, it } from "vitest";
+import { analyse } from "../../lib/analysis";
+import { caseRecord } from "../fixtures/caseRecord";
+
+const conclusionOf = (r: ReturnType<typeof analyse>) => r.draft.sections.find((s) => s.id === "conclusion")!.paragraphs;
+
+describe("borderline readings in the conclusion (invented demo cases)", () => {
+  it("an estimated MVV that one multiplier reads as ventilatory limitation is said, with both MVVs", async () => {
+    const rec = await caseRecord("ventilatory-limitation");
+    const estimated = analyse({ ...rec, spirometry: { fev1L: 1.4 } }, {});
+    const lines = conclusionOf(estimated);
+    expect(lines.join(" ")).toMatch(
+      /Breathing reserve is borderline: the MVV estimated from FEV1 \(49 L\/min at × 35, 56 L\/min at × 40; measure MVV\) reaches "breathing reserve exhausted: ventilatory limitation"\./,
+    );
+    const step = estimated.interpretation.path.steps.find((s) => s.title === "Breathing reserve")!;
+    expect(step.borderline).toMatch(/MVV estimated from FEV1/);
+    // with the measured MVV there is no estimate to doubt
+    const measured = analyse(rec, {});
+    expect(conclusionOf(measured).join(" ")).not.toMatch(/MVV estimated/);
+    expect(measured.interpretInput.uncertainty?.some((u) => u.words.startsWith("MVV estimated"))).toBe(false);
+  });
+
+  it("a leading pattern whose finding the VT1 band reverses carries it on its conclusion line", async () => {
+    const r = analyse(await caseRecord("heart-failure"), {});
+    const leading = r.interpretation.patterns.find((p) => p.support === "strong" || p.support === "moderate")!;
+    expect(leading.borderline).toMatch(/^the VT1 band \d+–\d+ mL\/min gives "/);
+    const line = conclusionOf(r).find((l) => l.startsWith(leading.statement))!;
+    expect(line).toContain(`Read with: ${leading.borderline}.`);
+    // the same band is not said twice from the stepwise reading
+    expect(conclusionOf(r).filter((l) => l.includes("the VT1 band")).length).toBe(1);
+  });
+
+  it("a normal test has no borderline pattern line", async () => {
+    const r = analyse(await caseRecord("normal-adult"), {});
+    expect(conclusionOf(r).join(" ")).not.toMatch(/borderline|Read with: the/);
+  });
+});
