@@ -442,6 +442,21 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   // Only moderately or strongly supported patterns reach the conclusion; weak ones stay in the pattern section.
   const leading = supported.find((p) => p.support === "strong" || p.support === "moderate");
   if (leading) concl.push(leading.borderline ? `${leading.statement} Read with: ${leading.borderline}.` : leading.statement);
+  // patterns with the same support as the leading one are not ranked apart on a small score difference: each is said
+  const peers = leading ? supported.filter((p) => p !== leading && p.support === leading.support) : [];
+  for (const p of peers)
+    concl.push(
+      `${p.statement.replace(/^The findings are consistent with/, "They are equally consistent with")}${p.borderline ? ` Read with: ${p.borderline}.` : ""}`,
+    );
+  // deconditioning says "no sign of a specific disease": not while another limitation has moderate or strong support
+  const others = supported.filter((p) => p !== leading && (p.support === "strong" || p.support === "moderate"));
+  const alsoFit = others.filter((p) => !peers.includes(p));
+  if (leading?.patternId === "deconditioning" && alsoFit.length) {
+    const list = andList(alsoFit.map((p) => `${p.label.toLowerCase()} (${p.support} support)`));
+    concl.push(
+      `${list.charAt(0).toUpperCase()}${list.slice(1)} also ${alsoFit.length > 1 ? "fit" : "fits"}, so a specific cause is not excluded.`,
+    );
+  }
   // a step of the stepwise reading that an uncertainty band would turn (an MVV estimated from FEV1 that one multiplier
   // reads as ventilatory limitation) is said here too, unless the leading pattern already said that band
   for (const step of interpretation.path.steps) {

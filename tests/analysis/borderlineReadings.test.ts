@@ -42,3 +42,25 @@ describe("borderline readings in the conclusion (invented demo cases)", () => {
     expect(conclusionOf(r).join(" ")).not.toMatch(/borderline|Read with: the/);
   });
 });
+
+describe("patterns with equal support all reach the conclusion (invented demo cases)", () => {
+  it("pre-operative case: two patterns at moderate support are both stated, not ranked apart on their scores", async () => {
+    const r = analyse(await caseRecord("preop-low-at"), {});
+    const moderate = r.interpretation.patterns.filter((p) => p.support === "moderate");
+    expect(moderate.length).toBeGreaterThanOrEqual(2);
+    const text = conclusionOf(r).join(" ");
+    expect(text).toContain(moderate[0].statement);
+    for (const p of moderate.slice(1))
+      expect(text).toContain(p.statement.replace(/^The findings are consistent with/, "They are equally consistent with"));
+  });
+
+  it("deconditioning ('no sign of a specific disease') says when another limitation also has support", async () => {
+    const r = analyse(await caseRecord("deconditioning"), {});
+    const lead = r.interpretation.patterns[0];
+    expect(lead.patternId).toBe("deconditioning");
+    const other = r.interpretation.patterns.find((p) => p !== lead && (p.support === "moderate" || p.support === "strong"))!;
+    expect(conclusionOf(r).join(" ")).toContain(
+      `${other.label} (${other.support} support) also fits, so a specific cause is not excluded.`,
+    );
+  });
+});
