@@ -21,7 +21,7 @@ export function assessEffort(ctx: EvalContext): EffortResult {
   const parts: string[] = [];
   for (const end of ctx.bandEnds ?? []) {
     const other = [verdictIn(end.low), verdictIn(end.high)].filter((o) => o.key !== v.key).map((o) => o.label);
-    if (other.length > 0) parts.push(`the ${end.words} reaches ${[...new Set(other)].join(" and ")}`);
+    if (other.length > 0) parts.push(`the ${end.words} reaches ${[...new Set(other)].map((o) => `"${o}"`).join(" and ")}`);
   }
   const borderline = parts.join("; ");
   // a physiological-limit verdict names the limit that was reached, not the list of possible ones

@@ -235,7 +235,14 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     if (bits.length) conduct.push(bits.join(" "));
   } else if (input.ergometer) conduct.push(`Ergometer: ${input.ergometer}.`);
   const e = interpretation.effort;
-  conduct.push(`Effort: ${e.label}${e.borderline ? ` (near a cut-off: ${e.borderline})` : ""}.`);
+  // a referral scheme that reads peak RER against a stricter cut-off for its own purpose (heart-failure prognosis: RER
+  // ≥ 1.10, JACC HF 2020 — confirmed) says so on the effort line, so "maximal" is not read past it
+  const stricterRer = interpretation.schemes
+    .map((s) => ({ s, axis: s.axes.find((a) => a.axisId === "rer" && a.category && a.category.severity > 0) }))
+    .find((x) => x.axis);
+  const rerNote =
+    stricterRer && e.verdict === "maximal" ? ` For the ${stricterRer.s.name}: ${stricterRer.axis!.category!.label}.` : "";
+  conduct.push(`Effort: ${e.label}.${rerNote}${e.borderline ? ` Near a cut-off: ${e.borderline}.` : ""}`);
   if (extras.effortCaution) conduct.push(extras.effortCaution);
   conduct.push(`Criteria: ${e.criteria.map((c) => c.text).join("; ")}.`);
   if (!e.peakConclusionsAllowed) {

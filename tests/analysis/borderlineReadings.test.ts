@@ -64,3 +64,22 @@ describe("patterns with equal support all reach the conclusion (invented demo ca
     );
   });
 });
+
+describe("the effort line under a heart-failure referral (invented demo case)", () => {
+  it("'maximal' by peak RER > 1.05 (Radtke 2019, confirmed) says the prognostic scheme's stricter RER ≥ 1.10 (JACC HF 2020, confirmed)", async () => {
+    const r = analyse(await caseRecord("heart-failure"), {});
+    expect(r.interpretation.effort.verdict).toBe("maximal");
+    const effort = r.draft.sections.find((s) => s.id === "conduct")!.paragraphs.find((p) => p.startsWith("Effort:"))!;
+    expect(effort).toMatch(
+      /^Effort: Maximal effort \(peak RER criterion met\)\. For the Heart-failure prognostic [^:]+: Peak RER < 1\.10: read peak VO2 with caution\./,
+    );
+    // the band's end is quoted, not run into the sentence
+    expect(effort).toMatch(
+      /Near a cut-off: the peak RER [\d.]+–[\d.]+ \(±2 standard errors over its window\) reaches "Maximal effort not demonstrated/,
+    );
+    // a general referral has no such scheme
+    const general = analyse({ ...(await caseRecord("heart-failure")), referral: "general" }, {});
+    const line = general.draft.sections.find((s) => s.id === "conduct")!.paragraphs.find((p) => p.startsWith("Effort:"))!;
+    expect(line).not.toMatch(/For the Heart-failure/);
+  });
+});
