@@ -59,6 +59,7 @@ export function draftExtras(record: TestRecord, thresholds: ThresholdResult, ind
       vt1: thresholdMethodWords(thresholds.vt1, thresholds),
       vt2: thresholdMethodWords(thresholds.vt2, thresholds),
     },
+    vt1: indices.atVt1 ? { hrBpm: whole(indices.atVt1.hrBpm.value), workW: whole(indices.atVt1.workW.value) } : undefined,
     vt2: at2 ? { vo2MlMin: whole(at2.vo2MlMin.value), hrBpm: whole(at2.hrBpm.value), workW: whole(at2.workW.value) } : undefined,
     domains: indices.domains.domains.map((d) => ({
       name: d.label,

@@ -80,8 +80,11 @@ export function toInterpretInput(
     if (why) reasons[k] = why;
   }
   const hrr = indices.heartRate;
-  if (hrr.recovery1MinBpm.value !== null && hrr.recovery1MinAbnormal === null)
-    reasons.hrr1Bpm = `its margin (${hrr.recovery1MinBpm.provenance.averaging ? "time-averaged rows" : "the scatter of breath-by-breath HR"}) holds the ${HR_RECOVERY_1MIN_ABNORMAL_BPM}-bpm cut-off (see the issues)`;
+  // a recovery whose margin holds the cut-off is shown, as borderline, and not read (set in `notRead` below)
+  const hrrBorderline =
+    hrr.recovery1MinBpm.value !== null && hrr.recovery1MinAbnormal === null
+      ? `borderline: ${hrr.recovery1MinBpm.provenance.averaging ? "time-averaged rows" : "the scatter of breath-by-breath heart rate"} spans the ${HR_RECOVERY_1MIN_ABNORMAL_BPM}-bpm cut-off (see the issues)`
+      : null;
   // on a beta-blocker HR % predicted and HR reserve are read on one side only (the interpretation does it from
   // `patient.betaBlocker`); the chronotropic index has its own beta-blocker cut-off (rules.json)
   // in atrial fibrillation the ventricular rate is irregular and not set by the sinus node (common practice): heart-rate
@@ -98,6 +101,7 @@ export function toInterpretInput(
     [adultOnly(predicted.values.o2PulseMaxMlBeat), ["o2PulsePctPred"]],
   ];
   const notRead: Partial<Record<keyof InterpretValues, string>> = {};
+  if (hrrBorderline) notRead.hrr1Bpm = hrrBorderline;
   for (const [why, keys] of minorOn) if (why) for (const k of keys) notRead[k] = why;
   // a predicted O2 pulse built on an age-predicted maximal heart rate does not describe a beta-blocked heart, which
   // reaches a lower heart rate and so a higher O2 pulse (common practice)
@@ -278,7 +282,7 @@ export function toInterpretInput(
       hrReserveBpm: irregular ? null : v(indices.heartRate.reserveBpm),
       chronotropicIndex: irregular ? null : v(indices.heartRate.chronotropicIndex),
       // read from time-averaged rows with the 12-bpm cut-off inside its margin, the call is withheld (heartRateIndices)
-      hrr1Bpm: irregular || indices.heartRate.recovery1MinAbnormal === null ? null : v(indices.heartRate.recovery1MinBpm),
+      hrr1Bpm: irregular ? null : v(indices.heartRate.recovery1MinBpm),
       o2PulsePeakMlBeat: v(p.o2PulseMlBeat),
       o2PulsePctPred: irregular ? null : pct("peakO2Pulse"),
       o2PulsePlateau: irregular ? null : plateauOrFall,

@@ -46,6 +46,8 @@ export interface DraftExtras {
   effortCaution?: string;
   /** VT2 (RCP) values, if found. */
   vt2?: { vo2MlMin?: number; hrBpm?: number; workW?: number };
+  /** Heart rate and work rate at VT1 (its VO2 comes from the interpretation values). */
+  vt1?: { hrBpm?: number; workW?: number };
   domains?: IntensityDomain[];
   /** Why no domain is given when both thresholds are there (they are out of order), in words for the draft. */
   domainsWithheld?: string;
@@ -277,7 +279,7 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
       ...(reachedOnBlocker ? [BETA_BLOCKER_HR_REACHED_NOTE] : heartRateNotes(input.patient)),
     ];
     results.push(
-      `Peak heart rate ${val("peakHrBpm", v.peakHrBpm)}${against.length ? ` (${against.join("; ")})` : ""}${have(v.hrr1Bpm) ? `; recovery at 1 min ${val("hrr1Bpm", v.hrr1Bpm)}` : ""}.`,
+      `Peak heart rate ${val("peakHrBpm", v.peakHrBpm)}${against.length ? ` (${against.join("; ")})` : ""}${have(v.hrr1Bpm) ? `; recovery at 1 min ${val("hrr1Bpm", v.hrr1Bpm)}${notRead.hrr1Bpm ? ` (${notRead.hrr1Bpm})` : ""}` : ""}.`,
     );
   }
   if (have(v.o2PulsePeakMlBeat)) {
@@ -331,6 +333,8 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     if (have(v.vt1Vo2MlKgMin)) parts.push(val("vt1Vo2MlKgMin", v.vt1Vo2MlKgMin));
     if (have(v.vt1PctPredPeakVo2) && !notRead.vt1PctPredPeakVo2)
       parts.push(`${formatValue("vt1PctPredPeakVo2", v.vt1PctPredPeakVo2)} % of predicted peak VO2`);
+    if (extras.vt1?.hrBpm !== undefined) parts.push(`heart rate ${extras.vt1.hrBpm} bpm`);
+    if (extras.vt1?.workW !== undefined) parts.push(`${extras.vt1.workW} W`);
     thr.push(`VT1 at VO2 ${parts.join(", ")}.`);
   } else thr.push("No VT1 value was supplied.");
   if (extras.thresholdMethods?.vt1) thr.push(thresholdMethodSentence("VT1", extras.thresholdMethods.vt1));

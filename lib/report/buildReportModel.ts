@@ -245,6 +245,8 @@ export function buildReportModel(
     if (m === ix.heartRate.reserveBpm && hrNotes.length) row.note = [row.note, ...hrNotes].filter(Boolean).join("; ");
     // (the cut-off's protocol, a cool-down walk in Cole 1999, is said in the value's method)
     if (m === ix.heartRate.recovery1MinBpm && afNote) row.note = [row.note, afNote].filter(Boolean).join("; ");
+    const hrrNotRead = result.interpretInput.notRead?.hrr1Bpm;
+    if (m === ix.heartRate.recovery1MinBpm && hrrNotRead && !afNote) row.note = [row.note, hrrNotRead].filter(Boolean).join("; ");
     keyValues.push(row);
   }
   keyValues.push(measuredRow("Recording duration", pk.testDurationS, 0, formatClock));

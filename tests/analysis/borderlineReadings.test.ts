@@ -83,3 +83,16 @@ describe("the effort line under a heart-failure referral (invented demo case)", 
     expect(line).not.toMatch(/For the Heart-failure/);
   });
 });
+
+describe("a heart-rate recovery whose scatter spans the cut-off (invented demo case)", () => {
+  it("is shown with its value as borderline, not hidden, and not read against the 12-bpm cut-off (Cole 1999, confirmed)", async () => {
+    const r = analyse(await caseRecord("heart-failure"), {});
+    const hrr = r.indices.heartRate;
+    // this demo's recovery (about 12.7 bpm) lies within its breath scatter of the cut-off
+    expect(hrr.recovery1MinAbnormal).toBeNull();
+    expect(r.interpretInput.values.hrr1Bpm).toBeCloseTo(hrr.recovery1MinBpm.value!, 9);
+    expect(r.interpretInput.notRead?.hrr1Bpm).toMatch(/^borderline: .* spans the 12-bpm cut-off/);
+    const hrLine = r.draft.sections.find((s) => s.id === "results")!.paragraphs.find((p) => p.startsWith("Peak heart rate"))!;
+    expect(hrLine).toMatch(/recovery at 1 min \d+ bpm \(borderline: /);
+  });
+});

@@ -132,6 +132,13 @@ describe("draft report text", () => {
     expect(cyc).not.toMatch(/treadmill load/);
   });
 
+  it("VT1 is stated with its heart rate and work rate, as VT2 is (invented values)", () => {
+    const d = composeDraft(fx.input, r, { vt1: { hrBpm: 105, workW: 62 }, vt2: { vo2MlMin: 1000, hrBpm: 125, workW: 85 } });
+    const thr = d.sections.find((s) => s.id === "thresholds")!.paragraphs;
+    expect(thr.find((p) => p.startsWith("VT1 at VO2"))).toMatch(/, heart rate 105 bpm, 62 W\.$/);
+    expect(thr.find((p) => p.startsWith("VT2"))).toMatch(/heart rate 125 bpm, 85 W\.$/);
+  });
+
   it("a training referral with thresholds out of order says why there is no prescription", () => {
     const training = { ...fx.input, referral: "training" as const };
     const withheld =
