@@ -233,6 +233,18 @@ export const THRESHOLD_SOURCES = defineSources({
     status: "secondary",
     note: "Cubic fit of lactate vs work; threshold at maximum perpendicular distance from the chord joining the ends (secondary description).",
   },
+  "faude-2009-lactate-concepts": {
+    citation:
+      "Faude O, Kindermann W, Meyer T. Lactate threshold concepts: how valid are they? Sports Med 2009;39(6):469-490 (citation recalled)",
+    status: "recalled",
+    note: "Pairs lactate concepts with the two thresholds: a first rise above baseline (baseline + 1, log-log) with the aerobic threshold (VT1), fixed 4 mmol/L and Dmax-type markers with the anaerobic threshold / MLSS (VT2). Also that lactate rises steadily in an incremental test.",
+  },
+  "jamnick-2018-mod-dmax": {
+    citation:
+      "Jamnick NA, Botella J, Pyne DB, Bishop DJ. Manipulating graded exercise test variables affects the validity of the lactate threshold and VO2peak. PLoS One 2018;13(7):e0199794",
+    status: "secondary",
+    note: "Modified Dmax closest to the maximal lactate steady state; Dmax depends on stage length (seen second-hand in a review report).",
+  },
   "intensity-domains": {
     citation:
       "Exercise intensity domains (moderate below the gas-exchange/lactate threshold, heavy up to the respiratory compensation point, severe above) — common practice in exercise physiology and prescription",

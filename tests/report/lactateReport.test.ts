@@ -15,8 +15,9 @@ import { demoLabel, demoRecord } from "./demoRecord";
 // known by construction: 0 W 1.0, 50 W 1.1, 100 W 1.5, 150 W 3.0, 200 W 5.0 mmol/L, and a routine peak-lactate draw
 // 3 min into recovery (8.5 mmol/L, no work rate).
 // OBLA 4 mmol/L (Sjödin & Jacobs 1981, confirmed): 150 + (4 − 3)/(5 − 3) · 50 = 175 W.
-// Baseline + 1 mmol/L (Bishop et al. 1998, confirmed): 2.0 mmol/L between 100 W (1.5) and 150 W (3.0):
-// 100 + 0.5/1.5 · 50 = 116.7 W → "117".
+// The 0-W sample is a resting one: shown, but off the exercise curve the methods read (CLIN7 M3). Baseline + 1 mmol/L
+// (Bishop et al. 1998, confirmed; baseline = the lowest exercise value, 1.1 at 50 W, our choice): 2.1 mmol/L between
+// 100 W (1.5) and 150 W (3.0): 100 + 0.6/1.5 · 50 = 120 W.
 async function lactateCase(): Promise<{ record: TestRecord; result: ReturnType<typeof analyse> }> {
   const record = await demoRecord("normal-adult");
   const endS = analyse(record).conditioned.exercise!.endS;
@@ -58,10 +59,12 @@ describe("lactate thresholds in the report (table, draft text, chart, PDF)", () 
     const row = (label: string) => model.thresholds.find((r) => r.label === label)!;
     expect(row("OBLA (4 mmol/L)")).toMatchObject({ value: "175", unit: "W" });
     expect(row("OBLA (4 mmol/L)").method).toBe("OBLA (4 mmol/L): intensity at 4 mmol/L (linear interpolation)");
-    expect(row("OBLA (4 mmol/L)").note).toMatch(
-      /^lactate 4\.0 mmol\/L; \d+ W \(\d+\.\d%\) (above|below) VT[12] \(\d+ W\): (concordant within|apart by more than) /,
-    );
-    expect(row("Baseline + 1 mmol/L")).toMatchObject({ value: "117", unit: "W" });
+    expect(row("OBLA (4 mmol/L)").note).toMatch(/^lactate 4\.0 mmol\/L; \d+ W \(\d+\.\d%\) (above|below) VT2 \(\d+ W\): /);
+    // samples 50 W apart (wider than 20 W, our choice): within 25 W of its VT a threshold cannot be told apart from it
+    expect(row("OBLA (4 mmol/L)").note).toMatch(/VT2 \(194 W\): cannot be told apart at this sampling \(within 25 W\)$/);
+    expect(row("Baseline + 1 mmol/L")).toMatchObject({ value: "120", unit: "W" });
+    // Dmax (paired with VT2) lies far below VT2 and near VT1: a discordance, never "concordant" with VT1
+    expect(row("Dmax").note).toMatch(/below VT2 \(194 W\), near VT1 \(115 W\): check both/);
     expect(row("OBLA (4 mmol/L)").sourceIds).toContain("sjodin-jacobs-1981");
     // the recovery draw is peak lactate only
     expect(row("Peak lactate")).toMatchObject({ value: "8.5", unit: "mmol/L" });
@@ -76,8 +79,8 @@ describe("lactate thresholds in the report (table, draft text, chart, PDF)", () 
       .paragraphs.join("\n");
     expect(text).toMatch(/Blood lactate thresholds from 5 points against work rate; peak lactate 8\.5 mmol\/L\./);
     expect(text).toMatch(/1 sample drawn in recovery counts towards peak lactate only and is not on the curve\./);
-    expect(text).toMatch(/OBLA \(4 mmol\/L\) at 175 W \(lactate 4\.0 mmol\/L\), \d+ W \(\d+\.\d%\) (above|below) VT[12]/);
-    expect(text).toMatch(/Baseline \+ 1 mmol\/L at 117 W \(lactate 2\.0 mmol\/L\)/);
+    expect(text).toMatch(/OBLA \(4 mmol\/L\) at 175 W \(lactate 4\.0 mmol\/L\), \d+ W \(\d+\.\d%\) below VT2/);
+    expect(text).toMatch(/Baseline \+ 1 mmol\/L at 120 W \(lactate 2\.1 mmol\/L\)/);
   });
 
   it("the chart names the methods in its legend, draws VT1/VT2 and keeps the recovery draw off the curve", async () => {
@@ -86,7 +89,7 @@ describe("lactate thresholds in the report (table, draft text, chart, PDF)", () 
     const spec = model.charts.find((c) => c.id === "lactate")!;
     const names = spec.series.map((s) => s.name);
     expect(names).toContain("OBLA (4 mmol/L) 175 W");
-    expect(names).toContain("Baseline + 1 mmol/L 117 W");
+    expect(names).toContain("Baseline + 1 mmol/L 120 W");
     expect(spec.markers.map((m) => m.label).sort()).toEqual(["VT1", "VT2"]);
     expect(spec.series[0].points[0]).toEqual([0, 1.0]);
     expect(spec.note).toBe("1 recovery sample (peak lactate 8.5 mmol/L) not on the curve");
@@ -102,7 +105,7 @@ describe("lactate thresholds in the report (table, draft text, chart, PDF)", () 
     });
     const text = pdfText(await renderReportPdf(model));
     expect(text).toMatch(/OBLA \(4 mmol\/L\) 175 W/);
-    expect(text).toMatch(/Baseline \+ 1 mmol\/L 117 W/);
+    expect(text).toMatch(/Baseline \+ 1 mmol\/L 120 W/);
     expect(text).toMatch(/Peak lactate 8\.5 mmol\/L/);
     expect(text).toMatch(/OBLA \(4 mmol\/L\) at 175 W \(lactate 4\.0 mmol\/L\)/);
     expect(text).toContain("DRAFT - not signed");
