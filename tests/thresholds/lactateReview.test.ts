@@ -1,6 +1,6 @@
 /**
  * Lactate thresholds: pairing with the VT each method estimates, the curve's shape, a curve that starts high, resting
- * samples, and coarse sampling.
+ * samples, heart rate at each threshold, and coarse sampling.
  *
  * Data from Sylta et al., Med Sci Sports Exerc 2016;48:2165–2174, as curated in the exscidata R package by
  * D. Hammarström (CC0).
@@ -25,6 +25,7 @@ import {
   type LactateAxis,
   type LactatePoint,
 } from "../../lib/thresholds/lactateThresholds";
+import { valuesAtLactateThresholds } from "../../lib/thresholds/valuesAtLactateThresholds";
 import { makeTest } from "./indicesFixture";
 
 const byId = (r: ReturnType<typeof lactateThresholds>, id: string) => r.thresholds.find((t) => t.id === id)!;
@@ -318,5 +319,34 @@ describe("M3: resting samples and Dmax checks", () => {
   it("Dmax from a cubic through exactly four points is warned of (Sylta 20/pre)", () => {
     expect(codes(run(SYLTA.get("20-pre")!))).toContain("lactate-dmax-four-points");
     expect(codes(run(SYLTA.get("1-pre")!))).not.toContain("lactate-dmax-four-points"); // 5 points
+  });
+});
+
+describe("M4: heart rate and VO2 at each lactate threshold", () => {
+  it("on stage rows: interpolated by load between the stages (INVENTED, HR = 60 + 0.4·W, VO2 = 500 + 10·W)", () => {
+    // five 3-min stages ending at 180, 360, …, 900 s: 100–300 W, lactate 1.0, 1.2, 2.0, 3.5, 6.0 mmol/L
+    const rows = [100, 150, 200, 250, 300].map((w, i) => ({
+      timeS: 180 * (i + 1),
+      stage: i + 1,
+      phase: "exercise" as const,
+      workW: w,
+      hrBpm: 60 + 0.4 * w,
+      vo2MlMin: 500 + 10 * w,
+      lactateMmolL: [1.0, 1.2, 2.0, 3.5, 6.0][i],
+    }));
+    const test = makeTest(rows, { shape: "stage", exercise: { startS: 180, endS: 900 } });
+    const got = lactatePointsFromTest(test);
+    const r = lactateThresholds(got.points, got.axis);
+    valuesAtLactateThresholds(test, r);
+    // OBLA: 250 + (4 − 3.5)/(6 − 3.5) · 50 = 260 W → HR 60 + 0.4 · 260 = 164 bpm, VO2 500 + 2600 = 3100 mL/min
+    expect(byId(r, "obla-4").intensity.value).toBeCloseTo(260, 9);
+    expect(byId(r, "obla-4").hrBpm!.value).toBeCloseTo(164, 9);
+    expect(byId(r, "obla-4").vo2MlMin!.value).toBeCloseTo(3100, 9);
+    // baseline 1.0 + 1 = 2.0 reached at 200 W → HR 140 bpm
+    expect(byId(r, "baseline-plus-1").hrBpm!.value).toBeCloseTo(140, 9);
+    // every determined threshold: HR = 60 + 0.4 · its work rate
+    for (const t of r.thresholds)
+      if (t.intensity.value !== null) expect(t.hrBpm!.value, t.id).toBeCloseTo(60 + 0.4 * t.intensity.value, 6);
+      else expect(t.hrBpm!.value).toBeNull();
   });
 });
