@@ -60,7 +60,7 @@ export interface LactateThreshold {
  * is the first lactate threshold (LT1; Bishop, Jenkins & Mackinnon, Med Sci Sports Exerc 1998 — confirmed, registry
  * `bishop-1998`) and the log-log break is the lactate threshold of Beaver, Wasserman & Whipp 1985 (secondary): both
  * against VT1. OBLA 4 mmol/L, modified Dmax and Dmax are second-threshold (MLSS-type) markers (Faude, Kindermann &
- * Meyer, Sports Med 2009;39:469–490 — recalled; modified Dmax ≈ MLSS: Jamnick et al., PLoS One 2018 — secondary): against
+ * Meyer, Sports Med 2009;39:469–490 — secondary, registry `faude-2009-lactate-concepts`; modified Dmax ≈ MLSS: Jamnick et al., PLoS One 2018 — secondary): against
  * VT2. Dmax is not consistently either; we pair it with VT2 (our choice).
  */
 export const LACTATE_METHOD_ESTIMATES: Record<LactateMethodId, "VT1" | "VT2"> = {
@@ -571,8 +571,16 @@ export function lactateThresholds(
     return { axis, unit, points: pts, recoveryPoints, peakMmolL, thresholds, relations: [], concordance, issues };
   }
 
-  const suspects = [...shapeSuspects(xs, ys, f, unit), ...loadOrderSuspects(points, xs, f, unit)];
-  for (const s of suspects) issues.push(s.issue);
+  const shape = shapeSuspects(xs, ys, f, unit);
+  const order = loadOrderSuspects(points, xs, f, unit);
+  for (const s of [...shape, ...order]) issues.push(s.issue);
+  // one sample flagged by both checks is named once in a caution
+  const suspects: Suspect[] = [
+    ...shape.map((s) =>
+      order.some((o) => o.index === s.index) ? { ...s, words: `${s.words}, whose load falls in time order` } : s,
+    ),
+    ...order.filter((o) => !shape.some((s) => s.index === o.index)),
+  ];
 
   // OBLA
   const oblaX = firstUpwardCrossing(xs, ys, obla, minIdx);

@@ -234,10 +234,9 @@ export const THRESHOLD_SOURCES = defineSources({
     note: "Cubic fit of lactate vs work; threshold at maximum perpendicular distance from the chord joining the ends (secondary description).",
   },
   "faude-2009-lactate-concepts": {
-    citation:
-      "Faude O, Kindermann W, Meyer T. Lactate threshold concepts: how valid are they? Sports Med 2009;39(6):469-490 (citation recalled)",
-    status: "recalled",
-    note: "Pairs lactate concepts with the two thresholds: a first rise above baseline (baseline + 1, log-log) with the aerobic threshold (VT1), fixed 4 mmol/L and Dmax-type markers with the anaerobic threshold / MLSS (VT2). Also that lactate rises steadily in an incremental test.",
+    citation: "Faude O, Kindermann W, Meyer T. Lactate threshold concepts: how valid are they? Sports Med 2009;39(6):469-490",
+    status: "secondary",
+    note: "Citation, title and pages seen on the article's first page; its framework of two thresholds — an aerobic threshold where lactate first rises above baseline (with VT1) and an anaerobic threshold near the maximal lactate steady state (with VT2/RCP) — seen only second-hand (a teaching page redrawing Kindermann 2004 and citing Faude 2009). That lactate rises steadily in an incremental test is recalled.",
   },
   "jamnick-2018-mod-dmax": {
     citation:

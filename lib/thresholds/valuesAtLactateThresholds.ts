@@ -25,7 +25,7 @@ export function timeAtIntensity(test: ConditionedTest, axis: "workW" | "speedKmh
  * Heart rate and VO2 at each lactate threshold, read as VT1/VT2 values are (`readAtTime`: interpolation in averaged rows,
  * a centred window over breaths) at the time the test first reached the threshold's work rate or speed
  * (`timeAtIntensity`); on stage rows by linear interpolation between the stage values. Common practice: lactate thresholds are used to prescribe training by heart rate (Faude,
- * Kindermann & Meyer, Sports Med 2009 — recalled). Sets `hrBpm` and `vo2MlMin` on each threshold in place; a threshold
+ * Kindermann & Meyer, Sports Med 2009 — recalled for this point). Sets `hrBpm` and `vo2MlMin` on each threshold in place; a threshold
  * that is not determinable, or an intensity the test never reached, gets "not determinable" with the reason.
  */
 export function valuesAtLactateThresholds(

@@ -13,7 +13,7 @@
  *
  * Other curves are INVENTED, with their answers worked by hand in the comments. Cut-offs named here: OBLA 4 mmol/L
  * (Sjödin & Jacobs, Int J Sports Med 1981, confirmed); baseline + 1 mmol/L (Bishop, Jenkins & Mackinnon, Med Sci Sports
- * Exerc 1998, confirmed); pairing of methods with VT1/VT2 (Faude, Kindermann & Meyer, Sports Med 2009, recalled); the
+ * Exerc 1998, confirmed); pairing of methods with VT1/VT2 (Faude, Kindermann & Meyer, Sports Med 2009, secondary); the
  * shape rule max(1.0 mmol/L, 25 %), the 2.0 mmol/L high start, the 0.5 mmol/L Dmax rise and the 20 W coarse spacing are
  * our choices.
  */
@@ -219,7 +219,25 @@ describe("S2b: a stage load that falls in time order while heart rate keeps risi
     // given, with a caution naming it (the curve without it crosses 4 mmol/L near 338 W, the review's hand figure)
     expect(codes(r)).toContain("lactate-spike");
     expect(byId(r, "obla-4").intensity.value).toBeCloseTo(240 + (3 / 4.3) * 20, 9);
-    expect(byId(r, "obla-4").caution).toMatch(/the sample at 260 W \(5\.3 mmol\/L\), whose load falls in time order/);
+    expect(byId(r, "obla-4").caution).toBe(
+      "read across the spike of 5.3 mmol/L at 260 W, whose load falls in time order: may be wrong (a sampling or transcription error, or real)",
+    );
+  });
+  it("a falling load alone (no spike) is warned of and named in the caution (INVENTED)", () => {
+    // time order: 100 W 1.0, 150 W 1.3, 200 W 2.0, 175 W 2.4 (HR 140 → 150 bpm), 250 W 4.5. Sorted by load no fall or
+    // spike passes the shape rule (2.4 → 2.0 is 0.4 mmol/L). OBLA 200 + (4 − 2.0)/(4.5 − 2.0) · 50 = 240 W reads across it
+    const pts = [100, 150, 200, 175, 250].map((x, i) => ({
+      x,
+      lactateMmolL: [1.0, 1.3, 2.0, 2.4, 4.5][i],
+      timeS: 180 * (i + 1),
+      hrBpm: [110, 125, 140, 150, 170][i],
+    }));
+    const r = lactateThresholds(pts, "workW");
+    expect(codes(r).filter((c) => SHAPE_CODES.includes(c))).toEqual(["lactate-load-falls"]);
+    expect(byId(r, "obla-4").intensity.value).toBeCloseTo(240, 9);
+    expect(byId(r, "obla-4").caution).toMatch(
+      /^read across the sample at 175 W \(2\.4 mmol\/L\), whose load falls in time order/,
+    );
   });
   it("a falling load with heart rate falling too is not flagged (INVENTED)", () => {
     const pts = [100, 150, 200, 175, 250].map((x, i) => ({
