@@ -354,13 +354,19 @@ function lactateLines(l: NonNullable<CliAnalysisJson["lactate"]>): string[] {
   const onSpeed = l.axis === "speedKmh";
   const v = (x: number | null) => (x === null ? "not determinable" : onSpeed ? `${x.toFixed(1)} km/h` : `${x.toFixed(0)} W`);
   const obla = onSpeed ? l.obla4.speedKmh : l.obla4.workW;
-  const others = l.thresholds.filter((t) => t.method !== "obla-4").map((t) => `${t.name} ${v(t.value)}`);
+  // heart rate where read, and a mark on a value read across a suspect sample (the warning names it)
+  const extra = (t: (typeof l.thresholds)[number] | undefined) =>
+    t && t.value !== null
+      ? `${t.hrBpm !== null ? ` (heart rate ${t.hrBpm.toFixed(0)} bpm)` : ""}${t.caution ? " [caution: suspect sample, see warnings]" : ""}`
+      : "";
+  const oblaT = l.thresholds.find((t) => t.method === "obla-4");
+  const others = l.thresholds.filter((t) => t.method !== "obla-4").map((t) => `${t.name} ${v(t.value)}${extra(t)}`);
   const peak = l.peakMmolL !== null ? `; peak lactate ${l.peakMmolL.toFixed(1)} mmol/L` : "";
   const recovery = l.recoverySamples.length
     ? ` (${l.recoverySamples.length} recovery sample(s): peak lactate only, not on the curve)`
     : "";
   return [
-    `lactate 4 mmol/L ${v(obla)}${onSpeed ? " (samples placed by speed: the file gives no work rate)" : ""}`,
+    `lactate 4 mmol/L ${v(obla)}${extra(oblaT)}${onSpeed ? " (samples placed by speed: the file gives no work rate)" : ""}`,
     `lactate         ${others.join("; ")}${peak}${recovery}`,
   ];
 }

@@ -87,6 +87,7 @@ function draftLactate(lac: LactateThresholdsResult): NonNullable<DraftExtras["la
     axis: lac.axis === "speedKmh" ? "speed" : "work rate",
     points: lac.points.length,
     recoverySamples: lac.recoveryPoints.length,
+    ...(lac.points.some((p) => p.rest) ? { restSamples: lac.points.filter((p) => p.rest).length } : {}),
     ...(lac.peakMmolL !== null ? { peak: `${lac.peakMmolL.toFixed(1)} mmol/L` } : {}),
     ...(lac.relations.length ? { concordance: lac.concordance.note } : {}),
     thresholds: lac.thresholds.map((t) => {
@@ -96,7 +97,10 @@ function draftLactate(lac: LactateThresholdsResult): NonNullable<DraftExtras["la
         name: LACTATE_METHOD_NAMES[t.id],
         ...(v !== null ? { value: `${v.toFixed(d)} ${lac.unit}` } : { reason: t.intensity.reason ?? "not determinable" }),
         ...(t.lactateMmolL.value !== null ? { lactate: `${t.lactateMmolL.value.toFixed(1)} mmol/L` } : {}),
+        ...(t.hrBpm?.value != null ? { hr: `${t.hrBpm.value.toFixed(0)} bpm` } : {}),
+        ...(t.vo2MlMin?.value != null ? { vo2: `${t.vo2MlMin.value.toFixed(0)} mL/min` } : {}),
         ...(rel ? { relation: `${rel.where}: ${rel.verdictShort}` } : {}),
+        ...(t.caution ? { caution: t.caution } : {}),
       };
     }),
   };

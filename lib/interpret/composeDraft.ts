@@ -66,6 +66,8 @@ export interface DraftLactate {
   points: number;
   /** Samples drawn in recovery (peak lactate only, not on the curve). */
   recoverySamples: number;
+  /** Resting samples (before exercise, or at 0 W / 0 km/h) among `points`: shown, not on the curve the methods read. */
+  restSamples?: number;
   /** Highest lactate of all samples, "8.5 mmol/L". */
   peak?: string;
   /** How concordance with VT1/VT2 is read (tolerance and its basis), one sentence; said once before the methods. */
@@ -77,8 +79,17 @@ export interface DraftLactate {
     value?: string;
     /** Lactate at the threshold, e.g. "4.0 mmol/L". */
     lactate?: string;
-    /** Where it lies against the nearer VT and the verdict, e.g. "2 W (1.1%) below VT2 (194 W): concordant within 10 W". */
+    /** Heart rate at the threshold, e.g. "165 bpm". */
+    hr?: string;
+    /** VO2 at the threshold, e.g. "2210 mL/min". */
+    vo2?: string;
+    /**
+     * Where it lies against the VT it estimates and the verdict, e.g. "2 W (1.1%) below VT2 (194 W): concordant within
+     * 10 W", or "62 W (53.9%) above VT1 (115 W), near VT2 (194 W): check both".
+     */
     relation?: string;
+    /** Set when the method reads across a suspect sample: the sentence naming it. */
+    caution?: string;
     /** Why it is not determinable. */
     reason?: string;
   }[];
@@ -165,23 +176,28 @@ function thresholdMethodSentence(name: string, words: string): string {
 
 /**
  * The lactate paragraphs of the thresholds section: what the curve was made of (and the recovery samples kept off it),
- * then one sentence per method — value, lactate level, and where it lies against VT1/VT2 — or why it is not determinable.
+ * then one sentence per method — value, lactate, heart rate and VO2 there, where it lies against the VT it estimates, and
+ * a caution when it reads across a suspect sample — or why it is not determinable.
  */
 function lactateParagraphs(l: DraftLactate): string[] {
   const rec =
     l.recoverySamples > 0
       ? ` ${l.recoverySamples} sample${l.recoverySamples === 1 ? "" : "s"} drawn in recovery ${l.recoverySamples === 1 ? "counts" : "count"} towards peak lactate only and ${l.recoverySamples === 1 ? "is" : "are"} not on the curve.`
       : "";
+  const rest = l.restSamples ? ` (${l.restSamples} at rest, shown but not on the exercise curve the methods read)` : "";
   const out = [
-    `Blood lactate thresholds from ${l.points} point${l.points === 1 ? "" : "s"} against ${l.axis}${l.peak ? `; peak lactate ${l.peak}` : ""}.${rec}${l.concordance ? ` ${l.concordance}` : ""}`,
+    `Blood lactate thresholds from ${l.points} point${l.points === 1 ? "" : "s"}${rest} against ${l.axis}${l.peak ? `; peak lactate ${l.peak}` : ""}.${rec}${l.concordance ? ` ${l.concordance}` : ""}`,
   ];
   for (const t of l.thresholds) {
     if (t.value === undefined) {
       out.push(`${t.name}: not determinable${t.reason ? ` (${t.reason})` : ""}.`);
       continue;
     }
-    const lac = t.lactate ? ` (lactate ${t.lactate})` : "";
-    out.push(`${t.name} at ${t.value}${lac}${t.relation ? `, ${t.relation}` : ""}.`);
+    const at = [t.lactate ? `lactate ${t.lactate}` : "", t.hr ? `heart rate ${t.hr}` : "", t.vo2 ? `VO2 ${t.vo2}` : ""]
+      .filter(Boolean)
+      .join(", ");
+    const caution = t.caution ? ` Caution: ${t.caution}.` : "";
+    out.push(`${t.name} at ${t.value}${at ? ` (${at})` : ""}${t.relation ? `, ${t.relation}` : ""}.${caution}`);
   }
   return out;
 }

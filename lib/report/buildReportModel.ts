@@ -79,8 +79,9 @@ function measuredRow(label: string, m: Measured, decimals: number, format?: (v: 
 
 /**
  * The lactate thresholds as rows of the thresholds table, named as the page names them (`LACTATE_METHOD_NAMES`; the
- * method column carries the page's full label): value on the samples' axis, lactate at the threshold, and where it lies
- * against the nearer of VT1/VT2 with the concordance verdict; then peak lactate (recovery samples included).
+ * method column carries the page's full label): value on the samples' axis, lactate, heart rate and VO2 at the
+ * threshold, where it lies against the VT it estimates (`LACTATE_METHOD_ESTIMATES`) with the verdict, and the caution
+ * of a method that reads across a suspect sample; then peak lactate (recovery samples included).
  */
 function lactateRows(lac: LactateThresholdsResult): ReportRow[] {
   const d = lac.axis === "speedKmh" ? 1 : 0;
@@ -89,7 +90,10 @@ function lactateRows(lac: LactateThresholdsResult): ReportRow[] {
     const rel = lac.relations.find((r) => r.id === t.id);
     const bits = [
       t.lactateMmolL.value !== null ? `lactate ${formatNumber(t.lactateMmolL.value, 1)} mmol/L` : "",
+      t.hrBpm?.value != null ? `heart rate ${formatNumber(t.hrBpm.value, 0)} bpm` : "",
+      t.vo2MlMin?.value != null ? `VO2 ${formatNumber(t.vo2MlMin.value, 0)} mL/min` : "",
       rel ? `${rel.where}: ${rel.verdictShort}` : "",
+      t.caution ? `caution: ${t.caution}` : "",
     ];
     row.note = [row.note, ...bits].filter(Boolean).join("; ");
     return row;
@@ -118,8 +122,9 @@ function lactateMethods(lac: LactateThresholdsResult): string {
   const rec = lac.recoveryPoints.length;
   const axis = lac.axis === "speedKmh" ? "speed" : "work rate";
   const labels = unique(lac.thresholds.map((t) => t.intensity.provenance.label));
+  const rest = lac.points.filter((p) => p.rest).length;
   return [
-    `Lactate thresholds from ${n} point${n === 1 ? "" : "s"} of blood lactate against ${axis}: ${labels.join("; ")}.`,
+    `Lactate thresholds from ${n} point${n === 1 ? "" : "s"} of blood lactate against ${axis}${rest ? ` (${rest} at rest, not on the exercise curve the methods read)` : ""}: ${labels.join("; ")}.`,
     rec ? `${rec} sample${rec === 1 ? "" : "s"} drawn in recovery counted as peak lactate only.` : "",
     lac.relations.length ? lac.concordance.note : "",
   ]

@@ -1,7 +1,13 @@
 import type { Issue, Measured } from "../core";
 import type { AnalysisResult } from "../analysis";
 import { ATRIAL_FIBRILLATION_HR_NOTE, BETA_BLOCKER_HR_NOTE, type InterpretValues } from "../interpret";
-import { LACTATE_METHOD_NAMES, noiseCorrectedSlope, slopeToVt2Name, type ThresholdEstimate } from "../thresholds";
+import {
+  LACTATE_METHOD_ESTIMATES,
+  LACTATE_METHOD_NAMES,
+  noiseCorrectedSlope,
+  slopeToVt2Name,
+  type ThresholdEstimate,
+} from "../thresholds";
 
 /** The interpretation value that reads each predicted quantity's % predicted (the others are shown, not read). */
 const PCT_READ_AS: Record<string, keyof InterpretValues> = {
@@ -98,8 +104,23 @@ export interface CliAnalysisJson {
     axis: string;
     unit: string;
     obla4: { workW: number | null; speedKmh: number | null };
-    /** `name` as the page names the method; `reason` when `value` is null. */
-    thresholds: { method: string; name: string; value: number | null; lactateMmolL: number | null; reason: string | null }[];
+    /**
+     * `name` as the page names the method; `reason` when `value` is null; heart rate and VO2 at the threshold (null when
+     * not read); the VT it estimates and how it reads against it (`relation`, null without VT1/VT2); `caution` when it
+     * reads across a suspect sample.
+     */
+    thresholds: {
+      method: string;
+      name: string;
+      value: number | null;
+      lactateMmolL: number | null;
+      reason: string | null;
+      hrBpm: number | null;
+      vo2MlMin: number | null;
+      estimates: "VT1" | "VT2";
+      relation: { comparedWith: "VT1" | "VT2"; reading: string; difference: number | null } | null;
+      caution: string | null;
+    }[];
     relations: string[];
     /** Highest lactate of all samples, recovery samples included, mmol/L. */
     peakMmolL: number | null;
@@ -326,6 +347,13 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
             value: val(t.intensity),
             lactateMmolL: val(t.lactateMmolL),
             reason: t.intensity.value === null ? (t.intensity.reason ?? "not determinable") : null,
+            hrBpm: t.hrBpm ? val(t.hrBpm) : null,
+            vo2MlMin: t.vo2MlMin ? val(t.vo2MlMin) : null,
+            estimates: LACTATE_METHOD_ESTIMATES[t.id],
+            relation: ((r) => (r ? { comparedWith: r.comparedWith, reading: r.reading, difference: r.difference } : null))(
+              lac.relations.find((r) => r.id === t.id),
+            ),
+            caution: t.caution ?? null,
           })),
           relations: lac.relations.map((r) => r.statement),
           peakMmolL: lac.peakMmolL,

@@ -11,6 +11,7 @@ export * from "./intensityDomains";
 export * from "./jointVt1";
 export * from "./jointVt2";
 export * from "./lactateThresholds";
+export * from "./valuesAtLactateThresholds";
 export * from "./measureIndices";
 export * from "./measurePeaks";
 export * from "./modifiedVSlope";

@@ -19,6 +19,19 @@ export interface LactatePoint {
    * only and never enters the lactate–intensity curve (nor is it averaged with a resting sample at 0 W).
    */
   recoveryS?: number;
+  /**
+   * A resting sample (drawn before exercise began, or placed at 0 W / 0 km/h): kept with the points and shown, never on
+   * the exercise curve the methods read (Cheng et al. 1992 fit the exercise stages; see `lactateThresholds`).
+   */
+  rest?: boolean;
+  /**
+   * When the sample was drawn (s), or its stage number: the order the loads were given in, for the check that loads rise
+   * in time order (`lactate-load-falls`). Absent when not known.
+   */
+  timeS?: number;
+  /** Heart rate (bpm) and VO2 (mL/min) recorded with the sample's stage or at its time, for the same check. */
+  hrBpm?: number;
+  vo2MlMin?: number;
 }
 
 export type LactateMethodId = "obla-4" | "baseline-plus-1" | "log-log" | "dmax" | "modified-dmax";
@@ -29,17 +42,60 @@ export interface LactateThreshold {
   intensity: Measured;
   /** Lactate at that intensity, read from the measured points by linear interpolation. */
   lactateMmolL: Measured;
+  /**
+   * Heart rate and VO2 at the threshold, read at the time the test reached its intensity as VT1/VT2 values are read
+   * (`valuesAtLactateThresholds`, filled in by `measureIndices`); absent when the curve was given without a test.
+   */
+  hrBpm?: Measured;
+  vo2MlMin?: Measured;
+  /**
+   * Set when the method reads across a suspect sample (`lactate-curve-falls`, `lactate-spike`, `lactate-load-falls`):
+   * the value is given, with this sentence naming the sample.
+   */
+  caution?: string;
 }
 
-/** Where a lactate threshold sits against VT1 and VT2 on the same axis. */
+/**
+ * The threshold each lactate method estimates, and so the ventilatory threshold it is compared with. Baseline + 1 mmol/L
+ * is the first lactate threshold (LT1; Bishop, Jenkins & Mackinnon, Med Sci Sports Exerc 1998 — confirmed, registry
+ * `bishop-1998`) and the log-log break is the lactate threshold of Beaver, Wasserman & Whipp 1985 (secondary): both
+ * against VT1. OBLA 4 mmol/L, modified Dmax and Dmax are second-threshold (MLSS-type) markers (Faude, Kindermann &
+ * Meyer, Sports Med 2009;39:469–490 — secondary, registry `faude-2009-lactate-concepts`; modified Dmax ≈ MLSS: Jamnick et al., PLoS One 2018 — secondary): against
+ * VT2. Dmax is not consistently either; we pair it with VT2 (our choice).
+ */
+export const LACTATE_METHOD_ESTIMATES: Record<LactateMethodId, "VT1" | "VT2"> = {
+  "baseline-plus-1": "VT1",
+  "log-log": "VT1",
+  "obla-4": "VT2",
+  "modified-dmax": "VT2",
+  dmax: "VT2",
+};
+
+/**
+ * How a lactate threshold reads against the VT it estimates:
+ * - `concordant`: within the tolerance of its own VT;
+ * - `not-separable`: within the tolerance, but the tolerance is set by coarse sampling (samples more than 20 W /
+ *   1 km/h apart, our choice): the two cannot be told apart at this sampling, which is not a finding of agreement;
+ * - `apart`: farther than the tolerance from its own VT, and not nearer the other;
+ * - `nearer-other-vt`: farther than the tolerance from its own VT and nearer the other VT: a discordance, check both;
+ * - `obla-below-vt1`: OBLA below VT1, physiologically implausible (4 mmol/L lies above the first threshold);
+ * - `own-vt-not-determinable`: its own VT is not determinable, so it is not compared (never with the other VT instead).
+ */
+export type ThresholdReading =
+  "concordant" | "not-separable" | "apart" | "nearer-other-vt" | "obla-below-vt1" | "own-vt-not-determinable";
+
+/** Where a lactate threshold sits against the ventilatory threshold it estimates (`LACTATE_METHOD_ESTIMATES`). */
 export interface ThresholdRelation {
   id: LactateMethodId;
-  nearest: "VT1" | "VT2";
-  /** Lactate threshold minus the nearest VT, axis units. */
-  difference: number;
-  /** Difference as % of the VT. */
-  differencePercent: number;
+  /** The VT the method estimates and is compared with (never the other one). */
+  comparedWith: "VT1" | "VT2";
+  /** Lactate threshold minus that VT, axis units; null when that VT is not determinable. */
+  difference: number | null;
+  /** Difference as % of the VT; null when that VT is not determinable. */
+  differencePercent: number | null;
+  /** True only for the reading `concordant`. */
   concordant: boolean;
+  reading: ThresholdReading;
   /** Where it lies, in words: "2 W (1.1%) below VT2 (194 W)" or "at VT1 (115 W)". */
   where: string;
   /** The verdict in words, with the tolerance and, when the samples set it, their spacing. */
@@ -48,6 +104,8 @@ export interface ThresholdRelation {
   verdictShort: string;
   /** One sentence: name, value, where, verdict. */
   statement: string;
+  /** Sources of the pairing and the reading. */
+  sourceIds: string[];
 }
 
 export interface LactateThresholdsOptions {
@@ -87,7 +145,10 @@ export interface ConcordanceTolerance {
 export interface LactateThresholdsResult {
   axis: LactateAxis;
   unit: string;
-  /** Points of the lactate–intensity curve, sorted by intensity, duplicates averaged (recovery samples left out). */
+  /**
+   * Points of the lactate–intensity curve, sorted by intensity, duplicates averaged (recovery samples left out). Resting
+   * samples (`rest`) are kept here, marked, but no method reads them.
+   */
   points: LactatePoint[];
   /** Samples drawn in recovery: peak lactate only, never on the curve. */
   recoveryPoints: LactatePoint[];
@@ -161,7 +222,22 @@ export function lactatePointsFromTest(
   const work = fieldSeries(test.clean, "workW");
   const speed = fieldSeries(test.clean, "speedKmh");
   const ex = test.exercise;
-  const raw: { w: number; s: number; l: number; t?: number; recoveryS?: number }[] = [];
+  const raw: {
+    w: number;
+    s: number;
+    l: number;
+    t?: number;
+    recoveryS?: number;
+    rest?: boolean;
+    hr?: number;
+    vo2?: number;
+  }[] = [];
+  const hrS = fieldSeries(test.clean, "hrBpm");
+  const vo2S = fieldSeries(test.clean, "vo2MlMin");
+  /** HR and VO2 at a time (linear interpolation in the rows; for the load-order check only). */
+  const physAt = (t: number) => ({ hr: interpolateLinear(hrS.t, hrS.v, t), vo2: interpolateLinear(vo2S.t, vo2S.v, t) });
+  /** Drawn before exercise began: a resting sample. */
+  const beforeExercise = (t: number | undefined) => ex !== null && ex !== undefined && t !== undefined && t < ex.startS;
   let atEnd = 0;
   /** Where a sample drawn at time t is read: at t, at the end of exercise (just after it), or nowhere (recovery). */
   const readTime = (t: number): { at: number; recoveryS?: number } => {
@@ -186,9 +262,10 @@ export function lactatePointsFromTest(
       return { axis: work.v.some((v) => v > 0) ? "workW" : "speedKmh", points: [], issues };
     }
     // stage number → the work rate / speed of that stage's last row
-    const byStage = new Map<number, { w: number; s: number }>();
+    const byStage = new Map<number, { w: number; s: number; t: number; hr?: number; vo2?: number }>();
     for (const r of test.clean)
-      if (typeof r.stage === "number") byStage.set(r.stage, { w: r.workW ?? NaN, s: r.speedKmh ?? NaN });
+      if (typeof r.stage === "number")
+        byStage.set(r.stage, { w: r.workW ?? NaN, s: r.speedKmh ?? NaN, t: r.timeS, hr: r.hrBpm, vo2: r.vo2MlMin });
     for (const smp of samples) {
       const t = smp.timeS;
       const st = smp.stage !== undefined ? byStage.get(smp.stage) : undefined;
@@ -201,7 +278,16 @@ export function lactatePointsFromTest(
       }
       const w = smp.workW ?? (place ? interpolateLinear(work.t, work.v, place.at) : (st?.w ?? NaN));
       const s = smp.speedKmh ?? (place ? interpolateLinear(speed.t, speed.v, place.at) : (st?.s ?? NaN));
-      raw.push({ w, s, l: smp.lactateMmolL, t });
+      const phys = place ? physAt(place.at) : { hr: st?.hr, vo2: st?.vo2 };
+      raw.push({
+        w,
+        s,
+        l: smp.lactateMmolL,
+        t: t ?? st?.t,
+        rest: !given && beforeExercise(t),
+        hr: phys.hr,
+        vo2: phys.vo2,
+      });
     }
   } else {
     for (const r of test.clean) {
@@ -210,13 +296,23 @@ export function lactatePointsFromTest(
       const loaded = (r.workW ?? 0) > 0 || (r.speedKmh ?? 0) > 0;
       const place = loaded ? { at: r.timeS } : readTime(r.timeS);
       if (place.recoveryS !== undefined) raw.push({ w: NaN, s: NaN, l: r.lactateMmolL, t: r.timeS, recoveryS: place.recoveryS });
-      else if (place.at === r.timeS) raw.push({ w: r.workW ?? NaN, s: r.speedKmh ?? NaN, l: r.lactateMmolL, t: r.timeS });
+      else if (place.at === r.timeS)
+        raw.push({
+          w: r.workW ?? NaN,
+          s: r.speedKmh ?? NaN,
+          l: r.lactateMmolL,
+          t: r.timeS,
+          rest: !loaded && beforeExercise(r.timeS),
+          hr: r.hrBpm,
+          vo2: r.vo2MlMin,
+        });
       else
         raw.push({
           w: interpolateLinear(work.t, work.v, place.at),
           s: interpolateLinear(speed.t, speed.v, place.at),
           l: r.lactateMmolL,
           t: r.timeS,
+          ...physAt(place.at),
         });
     }
   }
@@ -233,7 +329,15 @@ export function lactatePointsFromTest(
       continue;
     }
     const x = axis === "workW" ? r.w : r.s;
-    if (Number.isFinite(x) && Number.isFinite(r.l)) points.push({ x, lactateMmolL: r.l });
+    if (Number.isFinite(x) && Number.isFinite(r.l))
+      points.push({
+        x,
+        lactateMmolL: r.l,
+        ...(r.rest || x <= 0 ? { rest: true } : {}),
+        ...(r.t !== undefined ? { timeS: r.t } : {}),
+        ...(r.hr !== undefined && Number.isFinite(r.hr) ? { hrBpm: r.hr } : {}),
+        ...(r.vo2 !== undefined && Number.isFinite(r.vo2) ? { vo2MlMin: r.vo2 } : {}),
+      });
     else dropped++;
   }
   if (recovery.length > 0) {
@@ -299,18 +403,22 @@ function allBeforeExerciseIssue(test: ConditionedTest, times: number[]): Issue {
   );
 }
 
-/** Curve points: recovery samples left out, sorted by intensity, samples at one intensity averaged. */
+/**
+ * Curve points: recovery samples left out, sorted by intensity, samples at one intensity averaged (a resting sample is
+ * never averaged with an exercise one). A point at 0 W / 0 km/h, or marked `rest`, is a resting sample.
+ */
 function prepare(points: readonly LactatePoint[]): LactatePoint[] {
   const sorted = [...points]
     .filter((p) => p.recoveryS === undefined && Number.isFinite(p.x) && Number.isFinite(p.lactateMmolL))
-    .sort((a, b) => a.x - b.x);
+    .map((p) => ({ x: p.x, lactateMmolL: p.lactateMmolL, rest: p.rest === true || p.x <= 0 }))
+    .sort((a, b) => Number(b.rest) - Number(a.rest) || a.x - b.x);
   const out: LactatePoint[] = [];
   let i = 0;
   while (i < sorted.length) {
     let j = i;
     let sum = 0;
-    while (j < sorted.length && sorted[j].x === sorted[i].x) sum += sorted[j++].lactateMmolL;
-    out.push({ x: sorted[i].x, lactateMmolL: sum / (j - i) });
+    while (j < sorted.length && sorted[j].x === sorted[i].x && sorted[j].rest === sorted[i].rest) sum += sorted[j++].lactateMmolL;
+    out.push({ x: sorted[i].x, lactateMmolL: sum / (j - i), ...(sorted[i].rest ? { rest: true } : {}) });
     i = j;
   }
   return out;
@@ -347,19 +455,65 @@ function dmaxOnFit(fit: PolynomialFit, a: number, b: number): { x: number; dista
 }
 
 /**
- * Lactate thresholds against work rate (or speed):
+ * A fall to the next point, or a spike above both neighbours, larger than this many mmol/L or `LACTATE_SHAPE_FRACTION`
+ * of the higher value, whichever is larger, marks a suspect sample (our choice: blood lactate rises monotonically in an
+ * incremental test apart from small early dips — common practice, Faude, Kindermann & Meyer, Sports Med
+ * 2009;39:469–490, recalled; 1 mmol/L is about twice the usual early dip and well above analyser error).
+ */
+export const LACTATE_SHAPE_FALL_MMOL_L = 1.0;
+/** The relative part of the shape check (our choice; see `LACTATE_SHAPE_FALL_MMOL_L`). */
+export const LACTATE_SHAPE_FRACTION = 0.25;
+/** Falls between the first this-many exercise points are not checked: small early dips are normal (common practice). */
+export const LACTATE_SHAPE_SKIP_POINTS = 2;
+/**
+ * A curve whose lowest exercise lactate lies at its first exercise point and above this level (mmol/L) starts above
+ * the first lactate threshold: resting blood lactate is about 0.5–2 mmol/L (common practice, recalled textbook range),
+ * so 2.0 mmol/L at the lowest point means the rise had begun before the first sample (our choice).
+ */
+export const LACTATE_HIGH_START_MMOL_L = 2.0;
+/**
+ * Dmax whose lactate lies less than this far above the baseline (mmol/L) sits on the flat part of the curve: a cubic
+ * bent by a late jump (our choice; the CLIN review's example: 0.1–0.4 mmol/L above baseline).
+ */
+export const LACTATE_DMAX_MIN_RISE_MMOL_L = 0.5;
+/**
+ * Sample spacing above which a concordance tolerance set by that spacing says "cannot be told apart at this sampling"
+ * rather than "concordant": twice the fixed tolerance, 20 W (1 km/h) (our choice).
+ */
+const COARSE_SPACING: Record<LactateAxis, number> = { workW: 20, speedKmh: 1 };
+
+/** A sample the shape or load-order checks call suspect: index on the exercise curve, and why. */
+interface Suspect {
+  index: number;
+  words: string;
+}
+
+/**
+ * Lactate thresholds against work rate (or speed), read from the exercise curve (resting samples — drawn before
+ * exercise or at 0 W / 0 km/h — kept with the points but off the curve: Cheng et al. 1992 fit the exercise stages,
+ * secondary; recovery samples count towards `peakMmolL` only):
  * - OBLA, intensity at 4 mmol/L by linear interpolation (Sjödin & Jacobs 1981, confirmed);
- * - baseline + 1.0 mmol/L (Bishop et al. 1998, confirmed; baseline = lowest value, implementation choice);
+ * - baseline + 1.0 mmol/L (Bishop et al. 1998, confirmed; baseline = lowest exercise value, implementation choice);
  * - log-log: two least-squares lines on log lactate vs log intensity, split minimising total squared error
  *   (prefix sums, O(n)), threshold at their intersection (Beaver, Wasserman & Whipp 1985; secondary);
  * - Dmax: cubic fit, point of maximum perpendicular distance from the chord joining the fitted curve's ends,
  *   found where the curve's slope equals the chord's (Cheng et al. 1992; secondary);
  * - modified Dmax: chord from the point before the first rise > 0.4 mmol/L (Bishop 1998 named, rule recalled).
- * Every threshold must lie inside the tested range, else "not determinable". Recovery samples (`recoveryS`) count
- * towards `peakMmolL` only. A curve whose lowest value is ≥ 4 mmol/L has no low-intensity part
- * (`LACTATE_LOWEST_IMPLAUSIBLE_MMOL_L`): only OBLA is read and a warning asks to check the unit and positions.
- * With VT1/VT2 on the same axis, each threshold is placed against the nearer VT and called concordant within the
- * larger of 10 W (0.5 km/h) and half the median sample spacing (our choice; `concordance` says which).
+ * Every threshold must lie inside the tested range, else "not determinable". A curve whose lowest value is ≥ 4 mmol/L
+ * has no low-intensity part (`LACTATE_LOWEST_IMPLAUSIBLE_MMOL_L`): only OBLA is read. A curve whose lowest value is its
+ * first point and above 2 mmol/L (`LACTATE_HIGH_START_MMOL_L`) started above the first threshold: baseline + 1 and
+ * log-log are not given.
+ *
+ * Shape checks (warnings; the methods are still given, each one that reads across a suspect sample with a `caution`
+ * naming it — no sample is deleted, since the suspect one may be the true one): a fall to the next point, after the
+ * first two exercise points, or a spike above both neighbours, of more than max(1.0 mmol/L, 25 %)
+ * (`lactate-curve-falls`, `lactate-spike`); a load that falls in the order the samples were drawn while heart rate or
+ * VO2 keep rising (`lactate-load-falls`, a typing error in the load?). Dmax less than 0.5 mmol/L above the baseline
+ * and a cubic through exactly four points are warned of.
+ *
+ * With VT1/VT2 on the same axis, each threshold is compared with the VT it estimates (`LACTATE_METHOD_ESTIMATES`),
+ * never the other, within the larger of 10 W (0.5 km/h) and half the median sample spacing (our choice;
+ * `concordance` says which); see `ThresholdReading` for the verdicts.
  */
 export function lactateThresholds(
   points: readonly LactatePoint[],
@@ -373,17 +527,19 @@ export function lactateThresholds(
   const minSeg = Math.max(2, options.logLogMinPerSegment ?? 2);
   const issues: Issue[] = [];
   const pts = prepare(points);
+  const curve = pts.filter((p) => !p.rest);
+  const restCount = pts.length - curve.length;
   const recoveryPoints = points.filter((p) => p.recoveryS !== undefined && Number.isFinite(p.lactateMmolL));
   const all = points.filter((p) => Number.isFinite(p.lactateMmolL)).map((p) => p.lactateMmolL);
   const peakMmolL = all.length ? Math.max(...all) : null;
-  const concordance = concordanceTolerance(pts, axis, options.concordanceTolerance);
-  const tol = concordance.value;
-  const xs = pts.map((p) => p.x);
-  const ys = pts.map((p) => p.lactateMmolL);
-  const n = pts.length;
+  const concordance = concordanceTolerance(curve, axis, options.concordanceTolerance);
+  const xs = curve.map((p) => p.x);
+  const ys = curve.map((p) => p.lactateMmolL);
+  const n = curve.length;
   const lo = n ? xs[0] : NaN;
   const hi = n ? xs[n - 1] : NaN;
-  const range = { rangeLow: lo, rangeHigh: hi, points: n };
+  const range = { rangeLow: lo, rangeHigh: hi, points: n, ...(restCount ? { restPointsLeftOut: restCount } : {}) };
+  const f = (v: number) => (axis === "workW" ? v.toFixed(0) : v.toFixed(1));
 
   const make = (id: LactateMethodId, x: number, reason: string, extra: Provenance["inputs"] = {}): LactateThreshold => {
     const prov = provenanceOf(id, LABELS[id], SOURCES[id], { inputs: { ...range, ...extra }, averaging: "lactate samples" });
@@ -405,11 +561,26 @@ export function lactateThresholds(
   const thresholds: LactateThreshold[] = [];
   if (n < 3) {
     issues.push(
-      makeIssue("info", "lactate-too-few-points", "Fewer than three lactate points: lactate thresholds not determinable."),
+      makeIssue(
+        "info",
+        "lactate-too-few-points",
+        `Fewer than three lactate points in exercise${restCount ? ` (${restCount} resting sample${restCount === 1 ? "" : "s"} not on the curve)` : ""}: lactate thresholds not determinable.`,
+      ),
     );
     for (const id of Object.keys(LABELS) as LactateMethodId[]) thresholds.push(make(id, NaN, "fewer than three lactate points"));
     return { axis, unit, points: pts, recoveryPoints, peakMmolL, thresholds, relations: [], concordance, issues };
   }
+
+  const shape = shapeSuspects(xs, ys, f, unit);
+  const order = loadOrderSuspects(points, xs, f, unit);
+  for (const s of [...shape, ...order]) issues.push(s.issue);
+  // one sample flagged by both checks is named once in a caution
+  const suspects: Suspect[] = [
+    ...shape.map((s) =>
+      order.some((o) => o.index === s.index) ? { ...s, words: `${s.words}, whose load falls in time order` } : s,
+    ),
+    ...order.filter((o) => !shape.some((s) => s.index === o.index)),
+  ];
 
   // OBLA
   const oblaX = firstUpwardCrossing(xs, ys, obla, minIdx);
@@ -434,12 +605,24 @@ export function lactateThresholds(
     return { axis, unit, points: pts, recoveryPoints, peakMmolL, thresholds, relations: [], concordance, issues };
   }
 
+  // a curve that starts high: the first stage already lay above the first lactate threshold
+  const highStart = minIdx === 0 && ys[0] > LACTATE_HIGH_START_MMOL_L;
+  const highStartWhy = `the lowest lactate (${ys[0].toFixed(1)} mmol/L) is at the first exercise point (${f(xs[0])} ${unit}) and above ${LACTATE_HIGH_START_MMOL_L.toFixed(1)} mmol/L: the first stage already lay above the first lactate threshold`;
+  if (highStart)
+    issues.push(
+      makeIssue(
+        "warning",
+        "lactate-high-start",
+        `Lactate is lowest at the first exercise point, ${ys[0].toFixed(1)} mmol/L at ${f(xs[0])} ${unit}, above ${LACTATE_HIGH_START_MMOL_L.toFixed(1)} mmol/L (our choice; resting lactate is about 0.5–2 mmol/L): the first stage already lay above the first lactate threshold, so ${SHORT["baseline-plus-1"]} and the ${SHORT["log-log"].toLowerCase()} are not given. OBLA and Dmax are read as usual. A lower first stage finds the first threshold.`,
+      ),
+    );
+
   // baseline + 1
   const baseIdx = options.baseline === "first" ? 0 : minIdx;
   const base = ys[baseIdx];
-  const b1 = firstUpwardCrossing(xs, ys, base + rise, baseIdx);
+  const b1 = highStart ? NaN : firstUpwardCrossing(xs, ys, base + rise, baseIdx);
   thresholds.push(
-    make("baseline-plus-1", b1, `lactate never rose ${rise} mmol/L above baseline`, {
+    make("baseline-plus-1", b1, highStart ? highStartWhy : `lactate never rose ${rise} mmol/L above baseline`, {
       baselineMmolL: base,
       riseMmolL: rise,
       baseline: options.baseline ?? "minimum",
@@ -455,7 +638,8 @@ export function lactateThresholds(
       ly.push(Math.log10(ys[i]));
     }
   }
-  if (lx.length < Math.max(5, 2 * minSeg)) {
+  if (highStart) thresholds.push(make("log-log", NaN, highStartWhy));
+  else if (lx.length < Math.max(5, 2 * minSeg)) {
     thresholds.push(make("log-log", NaN, `fewer than ${Math.max(5, 2 * minSeg)} points with positive intensity and lactate`));
   } else {
     const sums = new PrefixSums(lx, ly);
@@ -484,12 +668,28 @@ export function lactateThresholds(
     thresholds.push(make("modified-dmax", NaN, "a cubic needs at least four distinct intensities"));
   } else {
     const d = dmaxOnFit(fit, lo, hi);
-    thresholds.push(
-      make("dmax", d ? d.x : NaN, "the fitted curve never lies below its chord", {
-        cubicR2: fit.r2,
-        verticalDistanceMmolL: d?.distance ?? null,
-      }),
-    );
+    const dmax = make("dmax", d ? d.x : NaN, "the fitted curve never lies below its chord", {
+      cubicR2: fit.r2,
+      verticalDistanceMmolL: d?.distance ?? null,
+    });
+    thresholds.push(dmax);
+    const atDmax = dmax.lactateMmolL.value;
+    if (atDmax !== null && atDmax < ys[minIdx] + LACTATE_DMAX_MIN_RISE_MMOL_L)
+      issues.push(
+        makeIssue(
+          "warning",
+          "lactate-dmax-near-baseline",
+          `${SHORT.dmax} at ${f(dmax.intensity.value!)} ${unit} lies at ${atDmax.toFixed(1)} mmol/L, less than ${LACTATE_DMAX_MIN_RISE_MMOL_L} mmol/L above the baseline (${ys[minIdx].toFixed(1)} mmol/L; our choice): on the flat part of the curve, where a cubic bent by a late jump puts it. Read it with care.`,
+        ),
+      );
+    if (n === 4)
+      issues.push(
+        makeIssue(
+          "warning",
+          "lactate-dmax-four-points",
+          `${SHORT.dmax} and ${SHORT["modified-dmax"]} rest on a cubic through exactly four points: it passes through every one, so one sample's error moves them freely. Read them with care.`,
+        ),
+      );
     let start = -1;
     for (let i = 0; i + 1 < n; i++)
       if (ys[i + 1] - ys[i] > modRise) {
@@ -511,47 +711,216 @@ export function lactateThresholds(
     }
   }
 
-  // relation to VT1 / VT2
-  const relations: ThresholdRelation[] = [];
-  const vts = (
-    [
-      ["VT1", options.vt1],
-      ["VT2", options.vt2],
-    ] as const
-  ).filter((v): v is readonly ["VT1" | "VT2", number] => typeof v[1] === "number" && Number.isFinite(v[1]) && v[1] > 0);
-  if (vts.length > 0) {
+  // a method that reads across a suspect sample is given with a caution naming it
+  if (suspects.length > 0)
     for (const th of thresholds) {
       const x = th.intensity.value;
       if (x === null) continue;
-      let nearest = vts[0];
-      for (const v of vts) if (Math.abs(x - v[1]) < Math.abs(x - nearest[1])) nearest = v;
-      const diff = x - nearest[1];
-      const pct = (100 * diff) / nearest[1];
-      const concordant = Math.abs(diff) <= tol;
-      const f = (v: number) => (axis === "workW" ? v.toFixed(0) : v.toFixed(1));
-      const offset =
-        diff === 0 ? "at" : `${f(Math.abs(diff))} ${unit} (${Math.abs(pct).toFixed(1)}%) ${diff > 0 ? "above" : "below"}`;
-      const where = `${offset} ${nearest[0]} (${f(nearest[1])} ${unit})`;
-      const spacing =
-        concordance.basis === "sample-spacing" && concordance.sampleSpacing !== null
-          ? ` (half the ${f(concordance.sampleSpacing)} ${unit} median sample spacing)`
-          : "";
-      const verdictShort = `${concordant ? "concordant within" : "apart by more than"} ${fmtTol(tol, axis)} ${unit}`;
-      const verdict = `${verdictShort}${spacing}`;
-      relations.push({
-        id: th.id,
-        nearest: nearest[0],
-        difference: diff,
-        differencePercent: pct,
-        concordant,
-        where,
-        verdict,
-        verdictShort,
-        statement: `${SHORT[th.id]} at ${f(x)} ${unit} lies ${where}: ${verdict}.`,
+      const crossing = th.id === "obla-4" || th.id === "baseline-plus-1";
+      // a crossing read from the lowest point upwards reads every point up to the one above it; a fit reads them all
+      const upTo = crossing ? xs.findIndex((v) => v >= x) : n - 1;
+      const hit = suspects.filter((s) => s.index <= upTo);
+      if (hit.length)
+        th.caution = `read across ${hit.map((s) => s.words).join(" and ")}: may be wrong (a sampling or transcription error, or real)`;
+    }
+
+  const relations = relate(thresholds, options, axis, concordance, f);
+  return { axis, unit, points: pts, recoveryPoints, peakMmolL, thresholds, relations, concordance, issues };
+}
+
+/**
+ * Falls and spikes on the exercise curve (sorted by intensity): a fall from point i to i + 1 (i from the third exercise
+ * point on) of more than max(1.0 mmol/L, 25 % of point i), or a point above both neighbours by more than max(1.0 mmol/L,
+ * 25 % of itself). A spike and the fall after it are one finding.
+ */
+function shapeSuspects(
+  xs: readonly number[],
+  ys: readonly number[],
+  f: (v: number) => string,
+  unit: string,
+): (Suspect & { issue: Issue })[] {
+  const out: (Suspect & { issue: Issue })[] = [];
+  const lim = (v: number) => Math.max(LACTATE_SHAPE_FALL_MMOL_L, LACTATE_SHAPE_FRACTION * v);
+  const at = (i: number) => `${ys[i].toFixed(1)} mmol/L at ${f(xs[i])} ${unit}`;
+  const rule = `more than ${LACTATE_SHAPE_FALL_MMOL_L.toFixed(1)} mmol/L or ${100 * LACTATE_SHAPE_FRACTION} %, our choice`;
+  let skipFallAt = -1;
+  for (let i = 1; i + 1 < ys.length; i++) {
+    if (ys[i] - ys[i - 1] > lim(ys[i]) && ys[i] - ys[i + 1] > lim(ys[i])) {
+      skipFallAt = i;
+      out.push({
+        index: i,
+        words: `the spike of ${at(i)}`,
+        issue: makeIssue(
+          "warning",
+          "lactate-spike",
+          `Lactate spikes to ${at(i)}, above both neighbours (${at(i - 1)}, ${at(i + 1)}; ${rule}): blood lactate rises steadily in an incremental test, so this sample is a sampling or transcription error, or real. The thresholds that read across it are given with this caution and may be wrong.`,
+        ),
+      });
+      continue;
+    }
+    if (i >= LACTATE_SHAPE_SKIP_POINTS && i !== skipFallAt && ys[i] - ys[i + 1] > lim(ys[i])) {
+      // either the sample after the fall is wrong, or every earlier sample the fall contradicts (above the later value
+      // by the same margin): a method reading any of them reads across the fall
+      let first = i;
+      while (first > 0 && ys[first - 1] - ys[i + 1] > lim(ys[first - 1])) first--;
+      out.push({
+        index: first,
+        words: `the fall from ${at(i)} to ${at(i + 1)}`,
+        issue: makeIssue(
+          "warning",
+          "lactate-curve-falls",
+          `Lactate falls from ${at(i)} to ${at(i + 1)} (${rule}): blood lactate rises steadily in an incremental test after its first stages, so one of these samples is a sampling or transcription error, or the fall is real. The thresholds that read across it are given with this caution and may be wrong.`,
+        ),
       });
     }
   }
-  return { axis, unit, points: pts, recoveryPoints, peakMmolL, thresholds, relations, concordance, issues };
+  return out;
+}
+
+/**
+ * Loads out of order: in the order the samples were drawn (`timeS`, exercise samples only), a load below the one
+ * before while heart rate or VO2 rise (or neither was recorded) — a typing error in the load is likely (TCD-like stage
+ * tables; common practice: the load of an incremental test does not fall). Checked before the points are sorted.
+ */
+function loadOrderSuspects(
+  points: readonly LactatePoint[],
+  xs: readonly number[],
+  f: (v: number) => string,
+  unit: string,
+): (Suspect & { issue: Issue })[] {
+  const timed = points
+    .filter((p) => p.recoveryS === undefined && p.rest !== true && p.x > 0 && p.timeS !== undefined && Number.isFinite(p.x))
+    .sort((a, b) => a.timeS! - b.timeS!);
+  const out: (Suspect & { issue: Issue })[] = [];
+  for (let i = 1; i < timed.length; i++) {
+    const a = timed[i - 1];
+    const b = timed[i];
+    if (!(b.x < a.x)) continue;
+    const hrUp = a.hrBpm !== undefined && b.hrBpm !== undefined && b.hrBpm > a.hrBpm;
+    const vo2Up = a.vo2MlMin !== undefined && b.vo2MlMin !== undefined && b.vo2MlMin > a.vo2MlMin;
+    const noSign = a.hrBpm === undefined && b.hrBpm === undefined && a.vo2MlMin === undefined && b.vo2MlMin === undefined;
+    if (!hrUp && !vo2Up && !noSign) continue;
+    const rising = [
+      hrUp ? `heart rate rises ${a.hrBpm!.toFixed(0)} → ${b.hrBpm!.toFixed(0)} bpm` : "",
+      vo2Up ? `VO2 rises ${a.vo2MlMin!.toFixed(0)} → ${b.vo2MlMin!.toFixed(0)} mL/min` : "",
+    ]
+      .filter(Boolean)
+      .join(" and ");
+    const index = xs.indexOf(b.x);
+    out.push({
+      index: index < 0 ? 0 : index,
+      words: `the sample at ${f(b.x)} ${unit} (${b.lactateMmolL.toFixed(1)} mmol/L), whose load falls in time order`,
+      issue: makeIssue(
+        "warning",
+        "lactate-load-falls",
+        `The load falls in time order from ${f(a.x)} to ${f(b.x)} ${unit} (lactate ${b.lactateMmolL.toFixed(1)} mmol/L)${rising ? ` while ${rising}` : " (no heart rate or VO2 to judge by)"}: check for a typing error in that stage's load. The points are sorted by load as given; the thresholds that read across this sample are given with this caution and may be wrong.`,
+      ),
+    });
+  }
+  return out;
+}
+
+/** Each threshold against the VT it estimates (`LACTATE_METHOD_ESTIMATES`); none when neither VT is given. */
+function relate(
+  thresholds: readonly LactateThreshold[],
+  options: LactateThresholdsOptions,
+  axis: LactateAxis,
+  concordance: ConcordanceTolerance,
+  f: (v: number) => string,
+): ThresholdRelation[] {
+  const unit = AXIS_UNIT[axis];
+  const ok = (v: number | null | undefined): v is number => typeof v === "number" && Number.isFinite(v) && v > 0;
+  const vt = { VT1: ok(options.vt1) ? options.vt1 : null, VT2: ok(options.vt2) ? options.vt2 : null };
+  if (vt.VT1 === null && vt.VT2 === null) return [];
+  const tol = concordance.value;
+  const coarse =
+    concordance.basis === "sample-spacing" &&
+    concordance.sampleSpacing !== null &&
+    concordance.sampleSpacing > COARSE_SPACING[axis];
+  const spacing =
+    concordance.basis === "sample-spacing" && concordance.sampleSpacing !== null
+      ? ` (half the ${f(concordance.sampleSpacing)} ${unit} median sample spacing)`
+      : "";
+  const out: ThresholdRelation[] = [];
+  for (const th of thresholds) {
+    const x = th.intensity.value;
+    if (x === null) continue;
+    const own = LACTATE_METHOD_ESTIMATES[th.id];
+    const other = own === "VT1" ? "VT2" : "VT1";
+    const sourceIds = [
+      ...SOURCES[th.id],
+      "faude-2009-lactate-concepts",
+      ...(th.id === "modified-dmax" ? ["jamnick-2018-mod-dmax"] : []),
+      "implementation-choice",
+    ];
+    const ownVt = vt[own];
+    const name = `${SHORT[th.id]} at ${f(x)} ${unit}`;
+    if (ownVt === null) {
+      const where = `${own} not determinable`;
+      const verdict = `not compared (it estimates ${own === "VT1" ? "the first" : "the second"} threshold, ${own})`;
+      out.push({
+        id: th.id,
+        comparedWith: own,
+        difference: null,
+        differencePercent: null,
+        concordant: false,
+        reading: "own-vt-not-determinable",
+        where,
+        verdict,
+        verdictShort: verdict,
+        statement: `${name}: ${where}, so ${verdict}.`,
+        sourceIds,
+      });
+      continue;
+    }
+    const diff = x - ownVt;
+    const pct = (100 * diff) / ownVt;
+    const offset =
+      diff === 0 ? "at" : `${f(Math.abs(diff))} ${unit} (${Math.abs(pct).toFixed(1)}%) ${diff > 0 ? "above" : "below"}`;
+    let where = `${offset} ${own} (${f(ownVt)} ${unit})`;
+    const otherVt = vt[other];
+    const within = Math.abs(diff) <= tol;
+    let reading: ThresholdReading;
+    let verdictShort: string;
+    let verdict: string;
+    if (th.id === "obla-4" && vt.VT1 !== null && x < vt.VT1) {
+      reading = "obla-below-vt1";
+      if (own !== "VT1") where = `${f(vt.VT1 - x)} ${unit} below VT1 (${f(vt.VT1)} ${unit})`;
+      verdictShort = "below VT1, physiologically implausible: check the samples and VT1";
+      verdict = verdictShort;
+    } else if (within && coarse) {
+      reading = "not-separable";
+      verdictShort = `cannot be told apart at this sampling (within ${fmtTol(tol, axis)} ${unit})`;
+      verdict = `cannot be told apart at this sampling: the samples lie a median ${f(concordance.sampleSpacing!)} ${unit} apart, so a threshold is placed only to within ${fmtTol(tol, axis)} ${unit}`;
+    } else if (within) {
+      reading = "concordant";
+      verdictShort = `concordant within ${fmtTol(tol, axis)} ${unit}`;
+      verdict = `${verdictShort}${spacing}`;
+    } else if (otherVt !== null && Math.abs(x - otherVt) < Math.abs(diff)) {
+      reading = "nearer-other-vt";
+      where = `${where}, ${Math.abs(x - otherVt) <= tol ? "near" : "nearer"} ${other} (${f(otherVt)} ${unit})`;
+      verdictShort = "check both";
+      verdict = `check both: it estimates ${own}`;
+    } else {
+      reading = "apart";
+      verdictShort = `apart by more than ${fmtTol(tol, axis)} ${unit}`;
+      verdict = `${verdictShort}${spacing}`;
+    }
+    out.push({
+      id: th.id,
+      comparedWith: own,
+      difference: diff,
+      differencePercent: pct,
+      concordant: reading === "concordant",
+      reading,
+      where,
+      verdict,
+      verdictShort,
+      statement: `${name} lies ${where}: ${verdict}.`,
+      sourceIds,
+    });
+  }
+  return out;
 }
 
 /**
@@ -570,7 +939,7 @@ function concordanceTolerance(pts: readonly LactatePoint[], axis: LactateAxis, g
       value: given,
       basis: "option",
       sampleSpacing,
-      note: `Concordance with VT1/VT2 is read within ${fmtTol(given, axis)} ${AXIS_UNIT[axis]} (set by the lab).`,
+      note: `${PAIRING_NOTE} Concordance is read within ${fmtTol(given, axis)} ${AXIS_UNIT[axis]} (set by the lab).`,
     };
   const floor = FIXED_TOLERANCE[axis];
   // half the spacing as displayed (whole W, 0.1 km/h), so the tolerance written is the one applied
@@ -582,17 +951,21 @@ function concordanceTolerance(pts: readonly LactatePoint[], axis: LactateAxis, g
         value: shown / 2,
         basis: "sample-spacing",
         sampleSpacing: shown,
-        note: `Concordance of the lactate thresholds with VT1/VT2 is read within ${fmtTol(shown / 2, axis)} ${u}: the samples lie a median ${shown} ${u} apart and a threshold between two samples is interpolated, so its place is known only to about half that spacing (our choice; at least ${floor} ${u}).`,
+        note: `${PAIRING_NOTE} The samples lie a median ${shown} ${u} apart and a threshold between two samples is interpolated, so its place is known only to about half that spacing, ${fmtTol(shown / 2, axis)} ${u}: within that of its VT the two cannot be told apart at this sampling, which is not a finding of agreement (our choice; at least ${floor} ${u}, and "concordant" only with samples ${COARSE_SPACING[axis]} ${u} apart or closer).`,
       }
     : {
         value: floor,
         basis: "fixed",
         sampleSpacing: shown,
-        note: `Concordance of the lactate thresholds with VT1/VT2 is read within ${floor} ${u} (our choice, no published value${shown !== null ? `; half the ${shown} ${u} median sample spacing is no wider` : ""}).`,
+        note: `${PAIRING_NOTE} Concordance is read within ${floor} ${u} (our choice, no published value${shown !== null ? `; half the ${shown} ${u} median sample spacing is no wider` : ""}).`,
       };
 }
 
 const AXIS_UNIT: Record<LactateAxis, string> = { workW: "W", speedKmh: "km/h" };
+
+/** How the lactate thresholds are paired with the VTs (`LACTATE_METHOD_ESTIMATES`), said once in the methods. */
+const PAIRING_NOTE =
+  "Each lactate threshold is compared with the ventilatory threshold it estimates: baseline + 1 mmol/L and the log-log threshold with VT1; OBLA, Dmax and modified Dmax with VT2.";
 
 /** A tolerance as written: whole W or 0.1 km/h, one more decimal when it is half of such a value (12.5 W, 0.25 km/h). */
 function fmtTol(v: number, axis: LactateAxis): string {

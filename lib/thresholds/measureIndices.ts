@@ -15,6 +15,7 @@ import { measurePeaks } from "./measurePeaks";
 import { o2Pulse } from "./o2Pulse";
 import { oues } from "./oues";
 import { spo2 } from "./spo2";
+import { valuesAtLactateThresholds } from "./valuesAtLactateThresholds";
 import { valuesAtThreshold } from "./valuesAtThreshold";
 import { vdVt } from "./vdVt";
 import { veVco2Slope, type LineIndex } from "./veVco2Slope";
@@ -57,6 +58,8 @@ export function measureIndices(test: ConditionedTest, ctx: IndicesContext): Indi
     const axisVt = (a: typeof atVt1) => (a ? (lp.axis === "workW" ? a.workW.value : a.speedKmh.value) : null);
     lactate = lactateThresholds(lp.points, lp.axis, { ...ctx.lactateOptions, vt1: axisVt(atVt1), vt2: axisVt(atVt2) });
     lactate.issues.unshift(...lp.issues);
+    // heart rate and VO2 at each lactate threshold, read as the values at VT1/VT2 are
+    valuesAtLactateThresholds(test, lactate, ctx.readAtTime);
   }
   const lactatePeak = lp.points.length > 0 ? Math.max(...lp.points.map((p) => p.lactateMmolL)) : null;
 

@@ -246,6 +246,17 @@ export const THRESHOLD_SOURCES = defineSources({
     status: "confirmed",
     note: "Abstract seen: ramps of 20-50 W/min gave the same aerobic parameters; at 100 W/min the VO2 time constant and efficiency could not be discerned. Author list recalled (the page seen gave none).",
   },
+  "faude-2009-lactate-concepts": {
+    citation: "Faude O, Kindermann W, Meyer T. Lactate threshold concepts: how valid are they? Sports Med 2009;39(6):469-490",
+    status: "secondary",
+    note: "Citation, title and pages seen on the article's first page; its framework of two thresholds — an aerobic threshold where lactate first rises above baseline (with VT1) and an anaerobic threshold near the maximal lactate steady state (with VT2/RCP) — seen only second-hand (a teaching page redrawing Kindermann 2004 and citing Faude 2009). That lactate rises steadily in an incremental test is recalled.",
+  },
+  "jamnick-2018-mod-dmax": {
+    citation:
+      "Jamnick NA, Botella J, Pyne DB, Bishop DJ. Manipulating graded exercise test variables affects the validity of the lactate threshold and VO2peak. PLoS One 2018;13(7):e0199794",
+    status: "secondary",
+    note: "Modified Dmax closest to the maximal lactate steady state; Dmax depends on stage length (seen second-hand in a review report).",
+  },
   "intensity-domains": {
     citation:
       "Exercise intensity domains (moderate below the gas-exchange/lactate threshold, heavy up to the respiratory compensation point, severe above) — common practice in exercise physiology and prescription",

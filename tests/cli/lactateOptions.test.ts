@@ -72,13 +72,17 @@ describe("cpet analyse: lactate options and issues", { timeout: 90_000 }, () => 
     const r = run(["analyse", file, "--ergometer", "treadmill", "--stage-duration-s", "180"]);
     expect(r.status).toBe(0);
     // 4 mmol/L between 14 (3.5) and 16 km/h (6.0): 14 + 0.5/2.5 × 2 = 14.4 km/h
-    expect(r.stdout).toMatch(/lactate 4 mmol\/L 14\.4 km\/h \(samples placed by speed/);
+    // heart rate at OBLA from the same stage rows, by speed: 165 + (14.4 − 14)/(16 − 14) × (180 − 165) = 168 bpm
+    expect(r.stdout).toMatch(/lactate 4 mmol\/L 14\.4 km\/h \(heart rate 168 bpm\) \(samples placed by speed/);
     expect(r.stdout).toMatch(/Baseline \+ 1 mmol\/L \d+\.\d km\/h/);
     expect(r.stdout).not.toMatch(/lactate\.obla4/);
     expect(r.stdout).not.toMatch(/not determinable: Lactate 4 mmol\/L/);
     const json = JSON.parse(run(["analyse", file, "--json", "--ergometer", "treadmill"]).stdout);
     const why = (json.issues as Issue[]).find((i) => i.where?.field === "lactate.obla4.workW")!;
     expect(why.message).toMatch(/OBLA is given as a speed \(14\.4 km\/h\)/);
-    expect(json.lactate.thresholds[0]).toMatchObject({ method: "obla-4", name: "OBLA (4 mmol/L)" });
+    expect(json.lactate.thresholds[0]).toMatchObject({ method: "obla-4", name: "OBLA (4 mmol/L)", estimates: "VT2" });
+    // VO2 at OBLA: 3300 + 0.2 × (3800 − 3300) = 3400 mL/min; HR 168 bpm (as above)
+    expect(json.lactate.thresholds[0].hrBpm).toBeCloseTo(168, 6);
+    expect(json.lactate.thresholds[0].vo2MlMin).toBeCloseTo(3400, 6);
   });
 });

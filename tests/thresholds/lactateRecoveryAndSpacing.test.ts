@@ -34,8 +34,8 @@ describe("a lactate sample drawn in recovery (3 min after exercise, the routine 
 
   it("is not on the curve and never averaged with the resting sample at 0 W", () => {
     // without the rule it was read at 0 W (the work rate at 960 s) and averaged with rest: (1.0 + 8.5)/2 = 4.75
-    expect(r.points).toEqual([
-      { x: 0, lactateMmolL: 1.0 },
+    expect(r.points).toMatchObject([
+      { x: 0, lactateMmolL: 1.0, rest: true },
       { x: 50, lactateMmolL: 1.1 },
       { x: 100, lactateMmolL: 1.5 },
       { x: 150, lactateMmolL: 3.0 },
@@ -70,7 +70,7 @@ describe("a lactate sample drawn in recovery (3 min after exercise, the routine 
 
   it("a sample drawn within 10 s after the end of exercise is read at the end of exercise (200 W), not at 0 W", () => {
     const got = lactatePointsFromTest(ramp(), [...CURVE.slice(0, 4), { timeS: EX_END_S + 5, lactateMmolL: 5.0 }]);
-    expect(got.points.at(-1)).toEqual({ x: 200, lactateMmolL: 5.0 });
+    expect(got.points.at(-1)).toMatchObject({ x: 200, lactateMmolL: 5.0 });
     expect(got.issues.map((i) => i.code)).toContain("lactate-at-end-of-exercise");
   });
 });
@@ -127,11 +127,16 @@ describe("concordance with VT1/VT2 read within the sample spacing (our choice)",
     // baseline 1.1 → 2.1 mmol/L between 60 W (1.1) and 160 W (2.7): 60 + (1.0/1.6)·100 = 122.5 W; 7.5 W above VT1 (6.5%)
     expect(byId(r, "baseline-plus-1").intensity.value).toBeCloseTo(122.5, 9);
     const b1 = r.relations.find((x) => x.id === "baseline-plus-1")!;
+    // samples 88 W apart, wider than 20 W (our choice): within the tolerance the two cannot be told apart, which is not
+    // a finding of agreement (CLIN7 m3)
     expect(b1.statement).toBe(
-      "Baseline + 1 mmol/L at 123 W lies 8 W (6.5%) above VT1 (115 W): concordant within 44 W (half the 88 W median sample spacing).",
+      "Baseline + 1 mmol/L at 123 W lies 8 W (6.5%) above VT1 (115 W): cannot be told apart at this sampling: the samples lie a median 88 W apart, so a threshold is placed only to within 44 W.",
     );
-    expect(b1.verdictShort).toBe("concordant within 44 W");
-    expect(r.concordance.note).toMatch(/median 88 W apart .* half that spacing \(our choice; at least 10 W\)/);
+    expect(b1.reading).toBe("not-separable");
+    expect(b1.verdictShort).toBe("cannot be told apart at this sampling (within 44 W)");
+    expect(r.concordance.note).toMatch(
+      /median 88 W apart .* half that spacing, 44 W: within that of its VT the two cannot be told apart at this sampling, which is not a finding of agreement \(our choice; at least 10 W, and "concordant" only with samples 20 W apart or closer\)/,
+    );
   });
 
   it("samples 25 W apart: 12.5 W; samples 5 W apart: the 10 W floor; a lab's own tolerance is kept", () => {

@@ -44,7 +44,7 @@ describe("measureIndices on the invented ramp", () => {
     // lactate at 660 s (160 W) 4.2, at 540 s (120 W) 2.6 → OBLA = 120 + (1.4/1.6)·40 = 155 W; VT2 at 160 W
     const obla = r.lactate!.thresholds.find((t) => t.id === "obla-4")!;
     expect(obla.intensity.value).toBeCloseTo(155, 9);
-    expect(r.lactate!.relations.find((x) => x.id === "obla-4")?.nearest).toBe("VT2");
+    expect(r.lactate!.relations.find((x) => x.id === "obla-4")?.comparedWith).toBe("VT2");
     expect(r.domains.domains).toHaveLength(3);
   });
 

@@ -519,7 +519,14 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                     label={t.intensity.provenance.label}
                     m={t.intensity}
                     d={ix.lactate?.axis === "speedKmh" ? 1 : 0}
-                    extra={`lactate ${fmt(t.lactateMmolL, 1)} mmol/L`}
+                    extra={[
+                      `lactate ${fmt(t.lactateMmolL, 1)} mmol/L`,
+                      t.hrBpm?.value != null ? `heart rate ${fmt(t.hrBpm, 0)} ${HR_UNIT}` : "",
+                      t.vo2MlMin?.value != null ? `VO2 ${fmt(t.vo2MlMin, 0)} mL/min` : "",
+                      t.caution ? `caution: ${t.caution}` : "",
+                    ]
+                      .filter(Boolean)
+                      .join("; ")}
                   />
                 ))}
               </tbody>
@@ -527,7 +534,9 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           </TableScroll>
           <ul>
             {ix.lactate.relations.map((r) => (
-              <li key={r.id}>{r.statement}</li>
+              <li key={r.id} data-reading={r.reading}>
+                {r.statement}
+              </li>
             ))}
           </ul>
         </>
