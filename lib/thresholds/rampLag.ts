@@ -1,15 +1,15 @@
 import { measured, notDetermined, type Measured } from "../core";
-import { linearRegression } from "../numeric";
+import { linearRegression, solveLinearSystem } from "../numeric";
 import type { ConditionedTest } from "../signal";
 import { fieldSeries, provenanceOf } from "./indexSeries";
 
 /**
- * How long VO2 lags a cycle ramp (its mean response time), from the test itself: the straight VO2 line of the ramp below
- * VT1, back-extrapolated to the steady VO2 of the warm-up before the ramp, crosses it this long after the ramp left the
- * warm-up load (Whipp, Davis, Torres & Wasserman 1981, J Appl Physiol 50:217 — confirmed abstract: a ramp gives the VO2
- * time constant; the back-extrapolation detail is recalled). The work rate a patient can hold at a threshold's intensity
- * is then the ramp's work rate one lag earlier (common practice: VO2 on a ramp reflects the work rate of about one mean
- * response time before).
+ * How long VO2 lags a cycle ramp (its mean response time, MRT = phase-I delay + time constant), from the test itself:
+ * VO2 from the start of the warm-up to VT1 is fitted as resting VO2 plus a first-order response to the step up to the
+ * warm-up load and one to the ramp, both with the same delay and time constant (Whipp, Davis, Torres & Wasserman 1981,
+ * J Appl Physiol 50:217 — confirmed abstract: a ramp gives the VO2 time constant; the first-order model in the moderate
+ * domain is recalled). The ramp response's straight asymptote lags the ramp by the MRT, so the work rate a patient can hold
+ * at a threshold's intensity is the ramp's work rate one MRT earlier (common practice).
  */
 export interface RampLag {
   /** Mean response time of VO2 on the ramp, s; not determined without a warm-up, a ramp or enough breaths before VT1. */
@@ -20,9 +20,9 @@ export interface RampLag {
 
 /** Least warm-up before the ramp for its VO2 to be steady, s (our choice: two minutes of unloaded pedalling). */
 const WARMUP_MIN_S = 120;
-/** The warm-up's last seconds averaged for its baseline VO2, s (our choice). */
+/** The warm-up's last seconds averaged for its load (and its VO2, reported beside the lag), s (our choice). */
 const BASELINE_S = 60;
-/** Least span of the ramp before VT1, beyond the fit's own minimum, s (our choice: the response's curved start). */
+/** The ramp's first seconds, while its response still curves, not counted towards the span it needs, s (our choice). */
 const SETTLE_S = 60;
 /** Longest phase-I delay tried, s (our choice; the cardiodynamic phase lasts about 15-20 s — recalled). */
 const MAX_DELAY_S = 25;
@@ -47,7 +47,7 @@ export function rampLag(test: ConditionedTest, vt1TimeS: number | null): RampLag
   const prov = (extra: Record<string, number> = {}) =>
     provenanceOf(
       "ramp-vo2-lag",
-      "VO2 lag on the ramp: its straight rise below VT1 back-extrapolated to the warm-up VO2 (mean response time)",
+      "VO2 lag on the ramp (mean response time): first-order response to the warm-up step and the ramp below VT1, fitted",
       ["whipp-1981-ramp", "implementation-choice"],
       { inputs: extra },
     );
@@ -81,10 +81,8 @@ export function rampLag(test: ConditionedTest, vt1TimeS: number | null): RampLag
   const workLine = linearRegression(w.t, w.v); // W per s
   if (!(workLine.slope > 0)) return none("the work rate does not rise on the ramp below VT1");
   const t0 = (workBase - workLine.intercept) / workLine.slope;
-  // VO2 from the ramp's start to VT1 against a first-order response to a ramp after a delay (Whipp et al. 1981 —
-  // recalled model): VO2 − baseline = A·g(t − t0 − delay), g(u) = u − τ·(1 − e^(−u/τ)) for u > 0, else 0. Its straight
-  // asymptote lags the ramp by delay + τ, the mean response time. A is fitted in closed form for each (delay, τ) on a grid.
-  // the fit runs from the start of the warm-up: its step from rest shows the same kinetics, which steadies the fit
+  // the ramp's response g(u) = u − τ·(1 − e^(−u/τ)) for u > 0 (else 0) has a straight asymptote lagging by τ (after the
+  // delay); the fit runs from the start of the warm-up, whose step from rest shows the same kinetics and steadies the fit
   const span = { startS: warm.startS, endS: vt1TimeS };
   const v = fieldSeries(test.clean, "vo2MlMin", span);
   if (v.v.length < 30 || vt1TimeS - t0 < SETTLE_S + FIT_MIN_S) return none("too few ramp breaths below VT1");
@@ -128,34 +126,23 @@ export function rampLag(test: ConditionedTest, vt1TimeS: number | null): RampLag
   return { lagS: measured(lag, "s", { ...prov(inputs), window: span }), rampWPerS: workLine.slope };
 }
 
-/** Ordinary least squares on a few columns by the normal equations (Gaussian elimination with partial pivoting). */
+/** Ordinary least squares on a few columns: the normal equations solved by `solveLinearSystem`; null when singular. */
 function leastSquares(cols: readonly Float64Array[], y: ArrayLike<number>): { coef: number[]; sse: number } | null {
   const p = cols.length;
   const n = y.length;
-  const m: number[][] = Array.from({ length: p }, () => new Array<number>(p + 1).fill(0));
+  const xtx: number[][] = Array.from({ length: p }, () => new Array<number>(p).fill(0));
+  const xty = new Array<number>(p).fill(0);
   for (let i = 0; i < p; i++) {
     for (let j = i; j < p; j++) {
       let s = 0;
       for (let k = 0; k < n; k++) s += cols[i][k] * cols[j][k];
-      m[i][j] = s;
-      m[j][i] = s;
+      xtx[i][j] = s;
+      xtx[j][i] = s;
     }
-    let s = 0;
-    for (let k = 0; k < n; k++) s += cols[i][k] * y[k];
-    m[i][p] = s;
+    for (let k = 0; k < n; k++) xty[i] += cols[i][k] * y[k];
   }
-  for (let c = 0; c < p; c++) {
-    let piv = c;
-    for (let r = c + 1; r < p; r++) if (Math.abs(m[r][c]) > Math.abs(m[piv][c])) piv = r;
-    if (!(Math.abs(m[piv][c]) > 1e-12 * (Math.abs(m[c][c]) + 1))) return null;
-    [m[c], m[piv]] = [m[piv], m[c]];
-    for (let r = 0; r < p; r++) {
-      if (r === c) continue;
-      const f = m[r][c] / m[c][c];
-      for (let k = c; k <= p; k++) m[r][k] -= f * m[c][k];
-    }
-  }
-  const coef = m.map((row, i) => row[p] / row[i]);
+  const coef = solveLinearSystem(xtx, xty);
+  if (!coef) return null;
   let sse = 0;
   for (let k = 0; k < n; k++) {
     let f = 0;

@@ -579,7 +579,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       </TableScroll>
       <p className="how" data-testid="domains-lag">
         {ix.domains.lag.value !== null
-          ? `VO2 lagged this ramp by about ${Math.round(ix.domains.lag.value)} s (${ix.domains.lag.provenance.label}); the work rate held at constant load is the ramp's work rate that long before each threshold.`
+          ? `VO2 lagged this ramp by about ${Math.round(ix.domains.lag.value)} s (its mean response time, fitted to the warm-up and the ramp below VT1); the work rate held at constant load is the ramp's work rate that long before each threshold.`
           : `Constant-load work rates are not given: the VO2 lag on the ramp could not be measured (${ix.domains.lag.reason ?? "not measured"}).`}
       </p>
 
