@@ -753,7 +753,7 @@ function shapeSuspects(
         issue: makeIssue(
           "warning",
           "lactate-spike",
-          `Lactate spikes to ${at(i)}, above both neighbours (${at(i - 1)}, ${at(i + 1)}; ${rule}): blood lactate rises steadily in an incremental test, so this sample is a sampling or transcription error, or real. The thresholds that read across it are given with this caution and may be wrong.`,
+          `Lactate spikes to ${at(i)}, above both neighbours (${at(i - 1)}, ${at(i + 1)}; ${rule}): blood lactate rises steadily in an incremental test, so this sample may be a sampling or transcription error (or the spike is real). The thresholds that read across it are given with this caution and may be wrong.`,
         ),
       });
       continue;

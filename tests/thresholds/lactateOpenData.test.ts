@@ -14,7 +14,6 @@
  * LT 138.5 W, LT1 179.2, LTLOG 144.0, L4 198.1) come from other subjects and cannot be reproduced here; these tests
  * check properties that hold curve by curve.
  */
-import { readFileSync } from "node:fs";
 import { describe, it, expect } from "vitest";
 import { evaluatePolynomialFit, polynomialFit } from "../../lib/numeric/polynomialFit";
 import {
@@ -23,17 +22,9 @@ import {
   type LactatePoint,
   type LactateMethodId,
 } from "../../lib/thresholds/lactateThresholds";
+import { readOpenDataCsv } from "../fixtures/openDataCsv";
 
-const dataDir = new URL("../fixtures/open-data/", import.meta.url);
-
-function readCsv(rel: string): Record<string, string>[] {
-  const [head, ...lines] = readFileSync(new URL(rel, dataDir), "utf8").trim().split(/\r?\n/);
-  const cols = head.split(",");
-  return lines.map((l) => {
-    const cells = l.split(",");
-    return Object.fromEntries(cols.map((c, i) => [c, cells[i] ?? ""]));
-  });
-}
+const readCsv = readOpenDataCsv;
 
 interface Curve {
   id: string;

@@ -17,7 +17,6 @@
  * shape rule max(1.0 mmol/L, 25 %), the 2.0 mmol/L high start, the 0.5 mmol/L Dmax rise and the 20 W coarse spacing are
  * our choices.
  */
-import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import {
   lactatePointsFromTest,
@@ -27,21 +26,14 @@ import {
 } from "../../lib/thresholds/lactateThresholds";
 import { valuesAtLactateThresholds } from "../../lib/thresholds/valuesAtLactateThresholds";
 import { makeTest } from "./indicesFixture";
+import { readOpenDataCsv } from "../fixtures/openDataCsv";
 
 const byId = (r: ReturnType<typeof lactateThresholds>, id: string) => r.thresholds.find((t) => t.id === id)!;
 const rel = (r: ReturnType<typeof lactateThresholds>, id: string) => r.relations.find((t) => t.id === id)!;
 const codes = (r: ReturnType<typeof lactateThresholds>) => r.issues.map((i) => i.code);
 const SHAPE_CODES = ["lactate-spike", "lactate-curve-falls", "lactate-load-falls"];
 
-const dataDir = new URL("../fixtures/open-data/", import.meta.url);
-function readCsv(rel: string): Record<string, string>[] {
-  const [head, ...lines] = readFileSync(new URL(rel, dataDir), "utf8").trim().split(/\r?\n/);
-  const cols = head.split(",");
-  return lines.map((l) => {
-    const cells = l.split(",");
-    return Object.fromEntries(cols.map((c, i) => [c, cells[i] ?? ""]));
-  });
-}
+const readCsv = readOpenDataCsv;
 const numOrUndef = (v: string) => (v === "" || v === "NA" || !Number.isFinite(Number(v)) ? undefined : Number(v));
 
 /** Curves in the order the stages were run (`timeS` = stage order), heart rate with each stage. */
