@@ -282,7 +282,7 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   if (have(v.peakWorkW)) results.push(`Peak work rate ${val("peakWorkW", v.peakWorkW)}.`);
   else if (have(v.peakSpeedKmh))
     results.push(
-      `Highest treadmill load ${val("peakSpeedKmh", v.peakSpeedKmh)}${have(v.peakGradePct) ? ` at ${val("peakGradePct", v.peakGradePct)} grade` : ""}.`,
+      `Final treadmill stage ${val("peakSpeedKmh", v.peakSpeedKmh)}${have(v.peakGradePct) ? ` at ${val("peakGradePct", v.peakGradePct)} grade` : ""}.`,
     );
   if (have(v.peakHrBpm)) {
     // on a beta-blocker the % predicted is said only when it met the effort criterion (read one side only)

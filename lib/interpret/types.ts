@@ -32,7 +32,7 @@ export interface InterpretValues {
   peakVo2LeanMlKgMin?: Maybe<number>;
   /** Peak work rate, W. */
   peakWorkW?: Maybe<number>;
-  /** Treadmill: speed and grade read together at the highest load reached (km/h, %). */
+  /** Treadmill: speed and grade read together at the end of exercise, the last stage reached (km/h, %). */
   peakSpeedKmh?: Maybe<number>;
   peakGradePct?: Maybe<number>;
   /** VO2 plateau present at peak (by the lab's plateau definition). */

@@ -47,8 +47,20 @@ export const VARIABLES = {
     effortDependent: true,
   },
   peakWorkW: { label: "Peak work rate", unit: "W", kind: "number", effortDependent: true },
-  peakSpeedKmh: { label: "Speed at peak treadmill load", unit: "km/h", kind: "number", decimals: 1, effortDependent: true },
-  peakGradePct: { label: "Grade at peak treadmill load", unit: "%", kind: "number", decimals: 1, effortDependent: true },
+  peakSpeedKmh: {
+    label: "Treadmill speed at the end of exercise",
+    unit: "km/h",
+    kind: "number",
+    decimals: 1,
+    effortDependent: true,
+  },
+  peakGradePct: {
+    label: "Treadmill grade at the end of exercise",
+    unit: "%",
+    kind: "number",
+    decimals: 1,
+    effortDependent: true,
+  },
   vo2Plateau: { label: "VO2 plateau", unit: "", kind: "boolean" },
   // anaerobic threshold (VT1)
   vt1Determined: { label: "VT1 determined", unit: "", kind: "boolean" },

@@ -233,11 +233,11 @@ export function buildReportModel(
     ["Heart-rate reserve", ix.heartRate.reserveBpm, 0],
     ["HR recovery at 1 min", ix.heartRate.recovery1MinBpm, 0],
     ["Lowest SpO2", ix.spo2.lowestPct, 0],
-    // treadmill: speed and grade at the highest load, read together (a cycle test has none)
+    // treadmill: speed and grade at the end of exercise, read together (a cycle test has none)
     ...(pk.speedKmh.value !== null
       ? ([
-          ["Speed at peak treadmill load", pk.speedKmh, 1],
-          ["Grade at peak treadmill load", pk.gradePct, 1],
+          ["Treadmill speed at the end of exercise", pk.speedKmh, 1],
+          ["Treadmill grade at the end of exercise", pk.gradePct, 1],
         ] as [string, Measured, number][])
       : []),
   ];

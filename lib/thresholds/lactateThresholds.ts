@@ -466,16 +466,12 @@ export const LACTATE_SHAPE_FRACTION = 0.25;
 /** Falls between the first this-many exercise points are not checked: small early dips are normal (common practice). */
 export const LACTATE_SHAPE_SKIP_POINTS = 2;
 /**
- * A curve whose lowest exercise lactate lies at its first exercise point and above this level (mmol/L) starts above
- * the first lactate threshold: resting blood lactate is about 0.5–2 mmol/L (common practice, recalled textbook range),
- * so 2.0 mmol/L at the lowest point means the rise had begun before the first sample (our choice).
+ * A curve whose lowest exercise lactate lies above this level (mmol/L) starts above the first lactate threshold: resting
+ * blood lactate is about 0.5–2 mmol/L (common practice, recalled textbook range), so 2.0 mmol/L at the lowest point
+ * means the rise had begun before the first sample, or lactate was raised before the test (our choice). An early dip
+ * (3.8 → 3.0 → 8.0) does not make such a curve readable from a baseline.
  */
 export const LACTATE_HIGH_START_MMOL_L = 2.0;
-/**
- * Dmax whose lactate lies less than this far above the baseline (mmol/L) sits on the flat part of the curve: a cubic
- * bent by a late jump (our choice; the CLIN review's example: 0.1–0.4 mmol/L above baseline).
- */
-export const LACTATE_DMAX_MIN_RISE_MMOL_L = 0.5;
 /**
  * Sample spacing above which a concordance tolerance set by that spacing says "cannot be told apart at this sampling"
  * rather than "concordant": twice the fixed tolerance, 20 W (1 km/h) (our choice).
@@ -500,16 +496,17 @@ interface Suspect {
  *   found where the curve's slope equals the chord's (Cheng et al. 1992; secondary);
  * - modified Dmax: chord from the point before the first rise > 0.4 mmol/L (Bishop 1998 named, rule recalled).
  * Every threshold must lie inside the tested range, else "not determinable". A curve whose lowest value is ≥ 4 mmol/L
- * has no low-intensity part (`LACTATE_LOWEST_IMPLAUSIBLE_MMOL_L`): only OBLA is read. A curve whose lowest value is its
- * first point and above 2 mmol/L (`LACTATE_HIGH_START_MMOL_L`) started above the first threshold: baseline + 1 and
+ * has no low-intensity part (`LACTATE_LOWEST_IMPLAUSIBLE_MMOL_L`): only OBLA is read. A curve whose lowest exercise value is
+ * above 2 mmol/L (`LACTATE_HIGH_START_MMOL_L`) started above the first threshold: baseline + 1 and
  * log-log are not given.
  *
  * Shape checks (warnings; the methods are still given, each one that reads across a suspect sample with a `caution`
  * naming it — no sample is deleted, since the suspect one may be the true one): a fall to the next point, after the
  * first two exercise points, or a spike above both neighbours, of more than max(1.0 mmol/L, 25 %)
  * (`lactate-curve-falls`, `lactate-spike`); a load that falls in the order the samples were drawn while heart rate or
- * VO2 keep rising (`lactate-load-falls`, a typing error in the load?). Dmax less than 0.5 mmol/L above the baseline
- * and a cubic through exactly four points are warned of.
+ * VO2 keep rising (`lactate-load-falls`, a typing error in the load?). A cubic through exactly four points is warned
+ * of (Dmax near the baseline is not: on smooth, steeply rising curves it is where Dmax falls, 50 of 271 TCD running
+ * curves).
  *
  * With VT1/VT2 on the same axis, each threshold is compared with the VT it estimates (`LACTATE_METHOD_ESTIMATES`),
  * never the other, within the larger of 10 W (0.5 km/h) and half the median sample spacing (our choice;
@@ -606,14 +603,14 @@ export function lactateThresholds(
   }
 
   // a curve that starts high: the first stage already lay above the first lactate threshold
-  const highStart = minIdx === 0 && ys[0] > LACTATE_HIGH_START_MMOL_L;
-  const highStartWhy = `the lowest lactate (${ys[0].toFixed(1)} mmol/L) is at the first exercise point (${f(xs[0])} ${unit}) and above ${LACTATE_HIGH_START_MMOL_L.toFixed(1)} mmol/L: the first stage already lay above the first lactate threshold`;
+  const highStart = ys[minIdx] > LACTATE_HIGH_START_MMOL_L;
+  const highStartWhy = `the lowest exercise lactate (${ys[minIdx].toFixed(1)} mmol/L at ${f(xs[minIdx])} ${unit}) is above ${LACTATE_HIGH_START_MMOL_L.toFixed(1)} mmol/L: the first stage already lay above the first lactate threshold`;
   if (highStart)
     issues.push(
       makeIssue(
         "warning",
         "lactate-high-start",
-        `Lactate is lowest at the first exercise point, ${ys[0].toFixed(1)} mmol/L at ${f(xs[0])} ${unit}, above ${LACTATE_HIGH_START_MMOL_L.toFixed(1)} mmol/L (our choice; resting lactate is about 0.5–2 mmol/L): the first stage already lay above the first lactate threshold, so ${SHORT["baseline-plus-1"]} and the ${SHORT["log-log"].toLowerCase()} are not given. OBLA and Dmax are read as usual. A lower first stage finds the first threshold.`,
+        `The lowest exercise lactate, ${ys[minIdx].toFixed(1)} mmol/L at ${f(xs[minIdx])} ${unit}, is above ${LACTATE_HIGH_START_MMOL_L.toFixed(1)} mmol/L (our choice; resting lactate is about 0.5–2 mmol/L): the first stage already lay above the first lactate threshold, so ${SHORT["baseline-plus-1"]} and the ${SHORT["log-log"].toLowerCase()} are not given. OBLA and Dmax are read as usual. A lower first stage finds the first threshold.`,
       ),
     );
 
@@ -673,15 +670,6 @@ export function lactateThresholds(
       verticalDistanceMmolL: d?.distance ?? null,
     });
     thresholds.push(dmax);
-    const atDmax = dmax.lactateMmolL.value;
-    if (atDmax !== null && atDmax < ys[minIdx] + LACTATE_DMAX_MIN_RISE_MMOL_L)
-      issues.push(
-        makeIssue(
-          "warning",
-          "lactate-dmax-near-baseline",
-          `${SHORT.dmax} at ${f(dmax.intensity.value!)} ${unit} lies at ${atDmax.toFixed(1)} mmol/L, less than ${LACTATE_DMAX_MIN_RISE_MMOL_L} mmol/L above the baseline (${ys[minIdx].toFixed(1)} mmol/L; our choice): on the flat part of the curve, where a cubic bent by a late jump puts it. Read it with care.`,
-        ),
-      );
     if (n === 4)
       issues.push(
         makeIssue(

@@ -1,6 +1,6 @@
 import type { BreathRow, NumericField } from "../breath";
 import { makeIssue, measured, notDetermined, type Issue, type Measured, type Provenance } from "../core";
-import { medianRowIntervalS, treadmillLoad, type ConditionedTest } from "../signal";
+import { medianRowIntervalS, type ConditionedTest } from "../signal";
 import { formatClock } from "../units";
 import { CARRY_OVER_WARNING } from "./eov";
 import {
@@ -173,23 +173,18 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
     return measured(s.v[k], unit, { ...prov, window: { startS: s.t[k], endS: s.t[k] } });
   };
 
-  // treadmill: speed and grade read together at the row of highest load (net O2 cost of speed and grade), so the pair
-  // was reached at the same moment; a protocol that lowers the grade as the speed rises would otherwise report a
-  // speed and a grade never walked together (common practice: the peak stage is one speed at one grade)
+  // treadmill: speed and grade read together at the end of exercise, the last stage reached (common practice: a treadmill
+  // test reports the stage it ended in). A protocol that lowers the grade as the speed rises would otherwise report a
+  // speed and a grade never walked together, and no single cost equation ranks walking and running stages alike.
   const treadmillPeak = (): { speedKmh: Measured; gradePct: Measured } => {
-    const loaded = rows.filter((r) => r.speedKmh !== undefined && (!span || (r.timeS >= span.startS && r.timeS <= span.endS)));
+    const loaded = span ? rows.filter((r) => r.speedKmh !== undefined && r.timeS >= span.startS && r.timeS <= span.endS) : [];
     if (loaded.length === 0) return { speedKmh: maxOf("speedKmh", "km/h", "speed"), gradePct: maxOf("gradePct", "%", "grade") };
-    let k = 0;
-    for (let i = 1; i < loaded.length; i++) {
-      const a = treadmillLoad(loaded[i].speedKmh!, loaded[i].gradePct);
-      if (a >= treadmillLoad(loaded[k].speedKmh!, loaded[k].gradePct)) k = i;
-    }
-    const at = loaded[k];
+    const at = loaded[loaded.length - 1];
     const prov = (what: string) =>
       provenanceOf(
-        "treadmill-peak-load",
-        `${what} at the highest treadmill load in exercise (speed and grade read together, ranked by the ACSM walking cost)`,
-        ["common-practice", "acsm-metabolic-equations"],
+        "treadmill-end-of-exercise",
+        `${what} at the end of exercise (the last stage reached; speed and grade read together)`,
+        ["common-practice"],
         { window: { startS: at.timeS, endS: at.timeS } },
       );
     return {
@@ -197,7 +192,7 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
       gradePct:
         at.gradePct !== undefined
           ? measured(at.gradePct, "%", prov("grade"))
-          : notDetermined("%", prov("grade"), "no grade at the highest treadmill load"),
+          : notDetermined("%", prov("grade"), "no grade at the end of exercise"),
     };
   };
 

@@ -122,14 +122,14 @@ describe("draft report text", () => {
     const res = composeDraft(tm, interpret(tm))
       .sections.find((s) => s.id === "results")!
       .paragraphs.join(" ");
-    expect(res).toContain("Highest treadmill load 6.0 km/h at 10.0 % grade.");
+    expect(res).toContain("Final treadmill stage 6.0 km/h at 10.0 % grade.");
     expect(res).not.toMatch(/Peak work rate/);
     // a cycle test keeps its work rate and says nothing of speed
     const cyc = composeDraft(fx.input, r)
       .sections.find((s) => s.id === "results")!
       .paragraphs.join(" ");
     expect(cyc).toMatch(/Peak work rate 85 W\./);
-    expect(cyc).not.toMatch(/treadmill load/);
+    expect(cyc).not.toMatch(/treadmill stage/);
   });
 
   it("VT1 is stated with its heart rate and work rate, as VT2 is (invented values)", () => {

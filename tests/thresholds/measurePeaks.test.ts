@@ -119,23 +119,21 @@ describe("measurePeaks on an invented ramp", () => {
     expect(p2.rerMax.provenance.inputs?.rerSe as number).toBeLessThan(0.02);
   });
 
-  it("treadmill: peak speed and grade are read together, at the highest load (invented protocol that trades grade for speed)", () => {
-    // invented: 6 km/h at 10 % until 600 s, then 8 km/h at 2 % to the end (780 s). ACSM walking cost 0.1·S + 1.8·S·G with
-    // S in m/min (secondary, ACSM 10th ed. via Bushman 2020): 6 km/h = 100 m/min → 10 + 18 = 28; 8 km/h = 133.3 m/min →
-    // 13.3 + 4.8 = 18.1 mL/kg/min. The highest load is 6 km/h at 10 %, not "8 km/h and 10 %", which was never walked.
+  it("treadmill: speed and grade are read together at the end of exercise (invented protocol that trades grade for speed)", () => {
+    // invented: 6 km/h at 16 % until 600 s, then 12 km/h at 2 % to the end of exercise (780 s). The last stage reached is
+    // 12 km/h at 2 %: never "12 km/h and 16 %", which was not run, and not the walking stage a walking-cost equation
+    // would rank first (ACSM walking 0.1·S + 1.8·S·G, S in m/min: 6 km/h at 16 % 38.8 against 27.2 mL/kg/min)
     const rows = buildRows((t, phase) =>
       phase === "exercise"
-        ? { vo2MlMin: 1500, vco2MlMin: 1400, speedKmh: t <= 600 ? 6 : 8, gradePct: t <= 600 ? 10 : 2 }
+        ? { vo2MlMin: 1500, vco2MlMin: 1400, speedKmh: t <= 600 ? 6 : 12, gradePct: t <= 600 ? 16 : 2 }
         : { vo2MlMin: 500, vco2MlMin: 420 },
     );
     const q = measurePeaks(makeTest(rows), { windowS: 30 });
-    expect(q.speedKmh.value).toBe(6);
-    expect(q.gradePct.value).toBe(10);
-    expect(q.speedKmh.provenance.method).toBe("treadmill-peak-load");
-    // the later of equal loads: the last row at 6 km/h and 10 %
+    expect(q.speedKmh.value).toBe(12);
+    expect(q.gradePct.value).toBe(2);
+    expect(q.speedKmh.provenance.method).toBe("treadmill-end-of-exercise");
     expect(q.speedKmh.provenance.window?.startS).toBe(q.gradePct.provenance.window?.startS);
-    expect(q.speedKmh.provenance.window!.startS).toBeLessThanOrEqual(600);
-    expect(q.speedKmh.provenance.window!.startS).toBeGreaterThan(600 - 2 * STEP_S);
+    expect(q.speedKmh.provenance.window!.startS).toBe(780);
     // a usual protocol (speed and grade rising together): the last and highest stage, as before
     const rising = buildRows((t, phase) =>
       phase === "exercise" ? { vo2MlMin: 1500, vco2MlMin: 1400, speedKmh: 2.7 + (t - 180) / 200, gradePct: (t - 180) / 50 } : {},
