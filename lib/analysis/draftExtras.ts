@@ -3,6 +3,7 @@ import type { DraftExtras } from "../interpret";
 import {
   DOMAINS_OUT_OF_ORDER,
   LACTATE_METHOD_NAMES,
+  RAMP_LAG_SPREAD_S,
   type IndicesResult,
   type LactateThresholdsResult,
   type ThresholdEstimate,
@@ -112,5 +113,8 @@ function rampLagWords(indices: IndicesResult): Pick<DraftExtras, "rampLag"> {
   const shift = indices.domains.domains
     .map((d) => d.workConstantLoadW.upper ?? d.workConstantLoadW.lower)
     .find((m) => m && m.value !== null)?.provenance.inputs?.shiftW;
-  return lagS !== null && typeof shift === "number" ? { rampLag: { lagS, shiftW: shift } } : {};
+  const perS = lagS !== null && typeof shift === "number" && lagS > 0 ? shift / lagS : null;
+  return lagS !== null && typeof shift === "number" && perS !== null
+    ? { rampLag: { lagS, shiftW: shift, spreadS: RAMP_LAG_SPREAD_S, spreadW: RAMP_LAG_SPREAD_S * perS } }
+    : {};
 }

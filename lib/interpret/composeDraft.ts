@@ -51,8 +51,11 @@ export interface DraftExtras {
   domains?: IntensityDomain[];
   /** Why no domain is given when both thresholds are there (they are out of order), in words for the draft. */
   domainsWithheld?: string;
-  /** VO2 lag on the ramp (s) and the work-rate shift it gives (W), when measured. */
-  rampLag?: { lagS: number; shiftW: number };
+  /**
+   * VO2 lag on the ramp (s), the work-rate shift it gives (W), and how far the lag may be off (s) with the work that
+   * stands for (W), when measured.
+   */
+  rampLag?: { lagS: number; shiftW: number; spreadS: number; spreadW: number };
   /** Blood lactate thresholds, already in display words (the thresholds layer names and rounds them). */
   lactate?: DraftLactate;
   comparison?: SerialComparison;
@@ -435,7 +438,7 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     if (domains.some((d) => d.workFromW !== undefined || d.workToW !== undefined))
       rx.push(
         extras.rampLag
-          ? `Work rates are read from the ramp. VO2 lagged this ramp by about ${Math.round(extras.rampLag.lagS)} s, so the work rate held at constant load for the same intensity is about ${Math.round(extras.rampLag.shiftW)} W lower (in brackets); prescribe constant-load training from those.`
+          ? `Work rates are read from the ramp. VO2 lagged this ramp by about ${Math.round(extras.rampLag.lagS)} s, so the work rate held at constant load for the same intensity is about ${Math.round(extras.rampLag.shiftW)} W lower (in brackets). The lag is fitted on this test and may be off by ${extras.rampLag.spreadS} s (${Math.round(extras.rampLag.spreadW)} W here), so those work rates are approximate: set constant-load training by heart rate, which the lag does not shift, and expect work at the VT2 bound to be harder at constant load than on the ramp.`
           : "Work rates are read from the ramp: VO2 lags a ramp, so constant-load training at these work rates sits at a higher intensity than the threshold itself (common practice); the lag could not be measured on this test.",
       );
     const unsure = [input.vt1LowConfidence ? "VT1" : "", input.vt2LowConfidence ? "VT2" : ""].filter(Boolean);

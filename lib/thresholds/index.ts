@@ -8,6 +8,7 @@ export * from "./eov";
 export * from "./heartRateIndices";
 export * from "./indexTypes";
 export * from "./intensityDomains";
+export * from "./rampLag";
 export * from "./jointVt1";
 export * from "./jointVt2";
 export * from "./lactateThresholds";

@@ -83,7 +83,7 @@ describe("draft report text", () => {
         { name: "Heavy (VT1 to VT2)", hrFromBpm: 105, hrToBpm: 130, workFromW: 62, workToW: 90, heldFromW: 52, heldToW: 80 },
         { name: "Severe (above VT2)", hrFromBpm: 130, workFromW: 90, workToW: 110, heldFromW: 80 },
       ],
-      rampLag: { lagS: 60, shiftW: 10 },
+      rampLag: { lagS: 60, shiftW: 10, spreadS: 40, spreadW: 6.7 },
     });
     const rx = d.sections.find((s) => s.id === "prescription")!.paragraphs.join(" ");
     expect(rx).toMatch(
@@ -93,6 +93,9 @@ describe("draft report text", () => {
     expect(rx).toMatch(/work rate 90–110 W on the ramp \(from 80 W at constant load\)/);
     expect(rx).toMatch(
       /VO2 lagged this ramp by about 60 s, so the work rate held at constant load for the same intensity is about 10 W lower/,
+    );
+    expect(rx).toMatch(
+      /may be off by 40 s \(7 W here\), so those work rates are approximate: set constant-load training by heart rate/,
     );
   });
 

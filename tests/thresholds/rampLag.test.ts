@@ -12,6 +12,7 @@ import { generateSyntheticTest } from "../../lib/synthetic";
 import { crossCheckSpec, generateCrossCheckTest } from "../../lib/synthetic/generateCrossCheckTest";
 import { detectThresholds } from "../../lib/thresholds/detectThresholds";
 import { rampLag } from "../../lib/thresholds/rampLag";
+import { caseRecord } from "../fixtures/caseRecord";
 
 const lagOf = (table: Parameters<typeof conditionTable>[0]) => {
   const test = conditionTable(table);
@@ -63,5 +64,13 @@ describe("VO2 lag on a cycle ramp (invented tests)", () => {
     const fast = lagOf(generateSyntheticTest({ noise: "none", rampWPerMin: 100 }, 3).table);
     expect(fast.lagS.value).toBeNull();
     expect(fast.lagS.reason).toMatch(/too fast/);
+  });
+
+  it("a fit that settles on the edge of its search is not used (invented heart-failure demo: best at delay 25 s, τ 5 s)", async () => {
+    const rec = await caseRecord("heart-failure");
+    const lag = lagOf(rec.table);
+    expect(lag.lagS.value).toBeNull();
+    expect(lag.lagS.reason).toMatch(/did not settle/);
+    expect(lag.lagS.provenance.inputs).toMatchObject({ delayS: 25, tauS: 5 });
   });
 });

@@ -9,6 +9,7 @@ import {
   BAND_MEANING,
   EOV_CARRY_OVER_CODE,
   METHOD_REASON_SEPARATOR,
+  RAMP_LAG_SPREAD_S,
   slopeToVt2Name,
   veVco2BandEndsWords,
   type ThresholdEstimate,
@@ -579,7 +580,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       </TableScroll>
       <p className="how" data-testid="domains-lag">
         {ix.domains.lag.value !== null
-          ? `VO2 lagged this ramp by about ${Math.round(ix.domains.lag.value)} s (its mean response time, fitted to the warm-up and the ramp below VT1); the work rate held at constant load is the ramp's work rate that long before each threshold.`
+          ? `VO2 lagged this ramp by about ${Math.round(ix.domains.lag.value)} s (its mean response time, fitted to the warm-up and the ramp below VT1; it may be off by ${RAMP_LAG_SPREAD_S} s); the work rate held at constant load is the ramp's work rate that long before each threshold, so it is approximate: set constant-load training by heart rate.`
           : `Constant-load work rates are not given: the VO2 lag on the ramp could not be measured (${ix.domains.lag.reason ?? "not measured"}).`}
       </p>
 
