@@ -284,6 +284,13 @@ export async function runAnalyse(file: string, opts: AnalyseOptions): Promise<Cl
   return toCliJson(analyse(record, settings), CLINICAL_CAUTION);
 }
 
+/** How MVV was obtained, for the text summary: an estimate says so, as the report does. */
+const MVV_METHOD_WORDS: Record<string, string> = {
+  measured: "MVV measured",
+  fev1x40: "MVV estimated as FEV1 × 40; × 35 would give less reserve",
+  fev1x35: "MVV estimated as FEV1 × 35",
+};
+
 export function formatText(r: CliAnalysisJson, opts: Pick<AnalyseOptions, "betaBlocker" | "atrialFibrillation"> = {}): string {
   // the same words beside heart rate as on the page and in the report
   const hrNote = opts.atrialFibrillation
@@ -313,8 +320,8 @@ export function formatText(r: CliAnalysisJson, opts: Pick<AnalyseOptions, "betaB
   const onTreadmill = r.peak.workW === null && r.peak.speedKmh != null;
   const effortWords = r.interpretation as {
     effort?: { text?: string; verdict?: string; label?: string };
-    path?: { end?: { label: string } | null };
-    patterns?: { statement: string; support: string }[];
+    path?: { end?: { label: string } | null; steps?: { title: string; borderline?: string }[] };
+    patterns?: { statement: string; support: string; borderline?: string }[];
   };
   const leading = effortWords.patterns?.find((p) => p.support === "strong" || p.support === "moderate");
   const lines = [
@@ -329,10 +336,16 @@ export function formatText(r: CliAnalysisJson, opts: Pick<AnalyseOptions, "betaB
     `VE/VCO2 slope   ${n(r.veVco2Slope.toRcp, 1)} (${r.veVco2Slope.toRcpFittedTo.replace(/^VE\/VCO2 slope,? /, "")}${b(r.veVco2Slope.toRcpBand, 1)}); ${n(r.veVco2Slope.whole, 1)} (whole exercise, ${r.averaging.startsWith("breath by breath") ? "breath by breath" : "on the rows as exported"}${b(r.veVco2Slope.wholeBand, 1)})`,
     `OUES            ${n(r.oues)}${r.ouesBand ? ` (${b(r.ouesBand).slice(2)})` : ""}`,
     `ΔVO2/ΔWR        ${onTreadmill && r.dVo2dWr === null ? "not applicable (no work rate: treadmill)" : `${n(r.dVo2dWr, 1, " mL/min/W")}${r.dVo2dWrBand ? ` (${b(r.dVo2dWrBand, 1).slice(2)})` : ""}`}`,
-    `breathing reserve ${r.breathingReserve.pct === null ? "not determinable (give --mvv-l-min or --fev1-l)" : n(r.breathingReserve.pct, 0, " %")}`,
+    `breathing reserve ${r.breathingReserve.pct === null ? "not determinable (give --mvv-l-min or --fev1-l)" : `${n(r.breathingReserve.pct, 0, " %")}, VE/MVV ${n(r.breathingReserve.veMvvPct, 0, " %")} (${MVV_METHOD_WORDS[r.breathingReserve.mvvMethod ?? ""] ?? "MVV"})`}`,
     // the verdict in words ("Peak RER below the maximal-effort cut-off, but a physiological limit was reached: …")
     ...(effortWords.effort?.verdict ? [`effort          ${effortWords.effort.label ?? effortWords.effort.verdict}`] : []),
-    ...(effortWords.path?.end ? [`draft reading   ${effortWords.path.end.label}.${leading ? ` ${leading.statement}` : ""}`] : []),
+    ...(effortWords.path?.end
+      ? [
+          `draft reading   ${effortWords.path.end.label}.${leading ? ` ${leading.statement}${leading.borderline ? ` Read with: ${leading.borderline}.` : ""}` : ""}`,
+        ]
+      : []),
+    // a step an uncertainty band would turn (an MVV estimated from FEV1, a threshold's band), as the draft says it
+    ...(effortWords.path?.steps ?? []).filter((s) => s.borderline).map((s) => `borderline      ${s.title}: ${s.borderline}`),
     ...(r.lactate ? lactateLines(r.lactate) : []),
     ...r.issues.filter((i) => i.severity !== "info").map((i) => `${i.severity}: ${i.message}`),
     // why a value above is missing (predicted values say so in the warnings already; OBLA given as a speed is not missing)

@@ -369,10 +369,11 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
   sections.push({
     id: "pathway",
     title: "Step-by-step interpretation",
-    // an effort judged on heart rate alone says so where the flow calls it adequate
+    // an effort judged on heart rate alone says so where the flow calls it adequate; a step an uncertainty band would
+    // turn says so beside its finding
     paragraphs: interpretation.path.steps.map(
       (s) =>
-        `${s.title}: ${sentenceCase(s.finding)}${s.nodeId === "effort" && interpretation.issues.some((i) => i.code === "effort-rests-on-heart-rate") ? " (on heart rate alone; see the data-quality warning)" : ""}.`,
+        `${s.title}: ${sentenceCase(s.finding)}${s.nodeId === "effort" && interpretation.issues.some((i) => i.code === "effort-rests-on-heart-rate") ? " (on heart rate alone; see the data-quality warning)" : ""}${s.borderline ? `; borderline: ${s.borderline}` : ""}.`,
     ),
   });
 
@@ -471,15 +472,19 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     );
   // Only moderately or strongly supported patterns reach the conclusion; weak ones stay in the pattern section.
   const leading = supported.find((p) => p.support === "strong" || p.support === "moderate");
-  if (leading) concl.push(leading.borderline ? `${leading.statement} Read with: ${leading.borderline}.` : leading.statement);
+  // deconditioning says "no sign of a specific disease": not while another limitation has moderate or strong support
+  const others = supported.filter((p) => p !== leading && (p.support === "strong" || p.support === "moderate"));
+  const leadStatement =
+    leading?.patternId === "deconditioning" && others.length
+      ? leading.statement.replace(/ with no sign of a specific [^)]*\)/, ")")
+      : leading?.statement;
+  if (leading) concl.push(leading.borderline ? `${leadStatement} Read with: ${leading.borderline}.` : leadStatement!);
   // patterns with the same support as the leading one are not ranked apart on a small score difference: each is said
   const peers = leading ? supported.filter((p) => p !== leading && p.support === leading.support) : [];
   for (const p of peers)
     concl.push(
       `${p.statement.replace(/^The findings are consistent with/, "They are equally consistent with")}${p.borderline ? ` Read with: ${p.borderline}.` : ""}`,
     );
-  // deconditioning says "no sign of a specific disease": not while another limitation has moderate or strong support
-  const others = supported.filter((p) => p !== leading && (p.support === "strong" || p.support === "moderate"));
   const alsoFit = others.filter((p) => !peers.includes(p));
   if (leading?.patternId === "deconditioning" && alsoFit.length) {
     const list = andList(alsoFit.map((p) => `${p.label.toLowerCase()} (${p.support} support)`));

@@ -79,7 +79,10 @@ export function rankPatterns(ctx: EvalContext, effort: EffortResult, path?: Path
           const flipped = [evaluateRule(f.ruleId, end.low), evaluateRule(f.ruleId, end.high)].find(
             (r) => r.outcome !== null && here.outcome !== null && r.outcome !== here.outcome,
           );
-          if (flipped) borderline.push(`the ${end.words} gives "${flipped.outcome ? flipped.label : flipped.labelFalse}"`);
+          if (flipped)
+            borderline.push(
+              `the ${end.words} gives "${flipped.outcome ? flipped.label : flipped.labelFalse}", which would ${flipped.outcome === f.expected ? "add to" : "weigh against"} it`,
+            );
         }
     const statement =
       support === "not-assessable"

@@ -21,6 +21,9 @@ describe("borderline readings in the conclusion (invented demo cases)", () => {
     );
     const step = estimated.interpretation.path.steps.find((s) => s.title === "Breathing reserve")!;
     expect(step.borderline).toMatch(/MVV estimated from FEV1/);
+    // the step-by-step section says it beside the step's finding, not only the conclusion
+    const pathway = estimated.draft.sections.find((s) => s.id === "pathway")!.paragraphs.join(" ");
+    expect(pathway).toMatch(/Breathing reserve: [^.]*; borderline: the MVV estimated from FEV1/);
     // with the measured MVV there is no estimate to doubt
     const measured = analyse(rec, {});
     expect(conclusionOf(measured).join(" ")).not.toMatch(/MVV estimated/);
