@@ -1,4 +1,4 @@
-import type { Issue, Measured } from "../core";
+import { makeIssue, type Issue, type Measured } from "../core";
 import { conditionTable } from "../signal";
 import {
   detectThresholds,
@@ -7,6 +7,7 @@ import {
   type MvvChoice,
   type ThresholdEstimate,
   type ThresholdPoint,
+  type ThresholdResult,
 } from "../thresholds";
 import {
   assessWeightBasis,
@@ -47,6 +48,7 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
     bootstrap: settings.bootstrap ?? 20,
     seed: 1,
   });
+  thresholds.issues.push(...movedBySetAside(record, settings, thresholds));
   const hrMax = predicted.values.hrMaxBpm;
   const mvvChoice = settings.mvvChoice ?? defaultMvvChoice(record);
   // the MVV estimated from FEV1 says "prefer a measured value": not said when a measured MVV is the one used
@@ -183,4 +185,50 @@ function vo2ReadAtReview(issue: Issue, checked: { reason: string }): Issue {
     code: "vo2-read-at-review",
     message: `${measuredPart} VO2-based values are read all the same, at a reviewer's word: ${checked.reason}. Read capacity, O2 pulse and the patterns with that doubt in mind.`,
   };
+}
+
+/** A threshold that moves more than this fraction when a reviewer sets breaths aside is said (our choice). */
+export const SET_ASIDE_MOVE_FRACTION = 0.05;
+
+/**
+ * Thresholds that a reviewer's set-aside gas spans moved: the reported consensus differs from the one found the same way
+ * (same resampling and seed) without the spans by more than `SET_ASIDE_MOVE_FRACTION` of the latter. Said as a warning per threshold (`vt1-moved-by-set-aside`), for the reviewer to check on the charts: a span far
+ * from the threshold's time can still move it, through the fits either side. A reviewer's own threshold is not checked.
+ */
+function movedBySetAside(record: TestRecord, settings: AnalysisSettings, thresholds: ThresholdResult): Issue[] {
+  const spans = (settings.conditioning?.setAside ?? []).filter((s) => s.channel !== "heart-rate");
+  if (spans.length === 0) return [];
+  const without = detectThresholds(
+    conditionTable(record.table, {
+      ...settings.conditioning,
+      setAside: (settings.conditioning?.setAside ?? []).filter((s) => s.channel === "heart-rate"),
+    }),
+    { bootstrap: settings.bootstrap ?? 20, seed: 1 },
+  );
+  const out: Issue[] = [];
+  for (const which of ["vt1", "vt2"] as const) {
+    if (thresholds[which].overridden) continue;
+    const a = without[which].vo2MlMin.value;
+    const b = thresholds[which].vo2MlMin.value;
+    const name = which === "vt1" ? "VT1" : "VT2";
+    if (a !== null && b !== null && Math.abs(b - a) > SET_ASIDE_MOVE_FRACTION * a)
+      out.push(
+        makeIssue(
+          "warning",
+          `${which}-moved-by-set-aside`,
+          `${name} moved from ${Math.round(a)} to ${Math.round(b)} mL/min (${b > a ? "+" : "−"}${Math.round((100 * Math.abs(b - a)) / a)} %) when breaths were set aside by review: check it on the charts, and set it by review if the breaths either side do not show it.`,
+          { field: which },
+        ),
+      );
+    else if ((a === null) !== (b === null))
+      out.push(
+        makeIssue(
+          "warning",
+          `${which}-moved-by-set-aside`,
+          `${name} ${a === null ? "was found only" : "is not determinable"} once breaths were set aside by review: check it on the charts.`,
+          { field: which },
+        ),
+      );
+  }
+  return out;
 }

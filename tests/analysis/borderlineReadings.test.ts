@@ -99,3 +99,25 @@ describe("a heart-rate recovery whose scatter spans the cut-off (invented demo c
     expect(hrLine).toMatch(/recovery at 1 min \d+ bpm \(borderline: /);
   });
 });
+
+describe("a threshold moved by breaths set aside by review (invented demo case)", () => {
+  it("is said with both values when it moves more than 5 % (our choice), even from a span outside its 60-s reach", async () => {
+    const rec = await caseRecord("normal-adult");
+    const base = analyse(rec, {});
+    const t1 = base.thresholds.vt1.timeS!;
+    const before = base.thresholds.vt1.vo2MlMin.value!;
+    const r = analyse(rec, { conditioning: { setAside: [{ startS: t1 + 45, endS: t1 + 75, reason: "cough" }] } });
+    const after = r.thresholds.vt1.vo2MlMin.value!;
+    const moved = r.issues.find((i) => i.code === "vt1-moved-by-set-aside");
+    // the warning follows the measured move either way: said exactly when it exceeds 5 % of the value without the span
+    expect(Boolean(moved)).toBe(Math.abs(after - before) > 0.05 * before);
+    expect(Math.abs(after - before) / before).toBeGreaterThan(0.05);
+    expect(moved!.message).toContain(`VT1 moved from ${Math.round(before)} to ${Math.round(after)} mL/min`);
+    // a heart-rate span leaves the gas values, and the thresholds, where they were
+    const hr = analyse(rec, {
+      conditioning: { setAside: [{ startS: t1 + 45, endS: t1 + 75, reason: "lead off", channel: "heart-rate" }] },
+    });
+    expect(hr.issues.map((i) => i.code)).not.toContain("vt1-moved-by-set-aside");
+    expect(hr.thresholds.vt1.vo2MlMin.value).toBe(before);
+  });
+});

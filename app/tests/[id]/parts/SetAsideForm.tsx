@@ -43,6 +43,8 @@ export function SetAsideForm({
                   required
                   minLength={3}
                   maxLength={200}
+                  pattern=".*\S.*\S.*\S.*"
+                  title="Say why, in a few words"
                   size={18}
                   placeholder="why"
                   aria-label="Reason"

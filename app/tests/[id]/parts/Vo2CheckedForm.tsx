@@ -30,7 +30,17 @@ export function Vo2CheckedForm({
         <form action={clearVo2Checked}>
           <input type="hidden" name="versionToken" value={versionToken} />
           <input type="hidden" name="testId" value={testId} />
-          <input name="reason" required minLength={3} maxLength={200} size={18} placeholder="why" aria-label="Reason" />{" "}
+          <input
+            name="reason"
+            required
+            minLength={3}
+            maxLength={200}
+            pattern=".*\S.*\S.*\S.*"
+            title="Say why, in a few words"
+            size={18}
+            placeholder="why"
+            aria-label="Reason"
+          />{" "}
           <input name="by" required minLength={2} size={12} placeholder="your name" aria-label="Reviewer" />{" "}
           <button type="submit">Stop reading VO2-based values</button>
         </form>
