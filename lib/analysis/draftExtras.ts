@@ -60,8 +60,8 @@ export function draftExtras(record: TestRecord, thresholds: ThresholdResult, ind
       vt1: thresholdMethodWords(thresholds.vt1, thresholds),
       vt2: thresholdMethodWords(thresholds.vt2, thresholds),
     },
-    vt1: indices.atVt1 ? { hrBpm: whole(indices.atVt1.hrBpm.value), workW: whole(indices.atVt1.workW.value) } : undefined,
-    vt2: at2 ? { vo2MlMin: whole(at2.vo2MlMin.value), hrBpm: whole(at2.hrBpm.value), workW: whole(at2.workW.value) } : undefined,
+    vt1: indices.atVt1 ? { hrBpm: whole(indices.atVt1.hrBpm.value), ...loadAt(indices.atVt1) } : undefined,
+    vt2: at2 ? { vo2MlMin: whole(at2.vo2MlMin.value), hrBpm: whole(at2.hrBpm.value), ...loadAt(at2) } : undefined,
     domains: indices.domains.domains.map((d) => ({
       name: d.label,
       hrFromBpm: whole(d.hrBpm.lower?.value),
@@ -117,4 +117,9 @@ function rampLagWords(indices: IndicesResult): Pick<DraftExtras, "rampLag"> {
   return lagS !== null && typeof shift === "number" && perS !== null
     ? { rampLag: { lagS, shiftW: shift, spreadS: RAMP_LAG_SPREAD_S, spreadW: RAMP_LAG_SPREAD_S * perS } }
     : {};
+}
+
+/** Work rate, or treadmill speed and grade, at a threshold, as the draft shows them. */
+function loadAt(at: NonNullable<IndicesResult["atVt1"]>): { workW?: number; speedKmh?: number; gradePct?: number } {
+  return { workW: whole(at.workW.value), speedKmh: tenth(at.speedKmh.value), gradePct: tenth(at.gradePct.value) };
 }

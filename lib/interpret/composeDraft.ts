@@ -45,9 +45,9 @@ export interface DraftExtras {
   /** A sentence said right after the effort verdict when the data cannot support it (e.g. a recording too short). */
   effortCaution?: string;
   /** VT2 (RCP) values, if found. */
-  vt2?: { vo2MlMin?: number; hrBpm?: number; workW?: number };
-  /** Heart rate and work rate at VT1 (its VO2 comes from the interpretation values). */
-  vt1?: { hrBpm?: number; workW?: number };
+  vt2?: { vo2MlMin?: number; hrBpm?: number; workW?: number; speedKmh?: number; gradePct?: number };
+  /** Heart rate and load at VT1 (its VO2 comes from the interpretation values); on a treadmill speed and grade. */
+  vt1?: { hrBpm?: number; workW?: number; speedKmh?: number; gradePct?: number };
   domains?: IntensityDomain[];
   /** Why no domain is given when both thresholds are there (they are out of order), in words for the draft. */
   domainsWithheld?: string;
@@ -353,13 +353,14 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     if (have(v.vt1PctPredPeakVo2) && !notRead.vt1PctPredPeakVo2)
       parts.push(`${formatValue("vt1PctPredPeakVo2", v.vt1PctPredPeakVo2)} % of predicted peak VO2`);
     if (extras.vt1?.hrBpm !== undefined) parts.push(`heart rate ${extras.vt1.hrBpm} bpm`);
-    if (extras.vt1?.workW !== undefined) parts.push(`${extras.vt1.workW} W`);
+    const load1 = loadWords(extras.vt1);
+    if (load1) parts.push(load1);
     thr.push(`VT1 at VO2 ${parts.join(", ")}.`);
   } else thr.push("No VT1 value was supplied.");
   if (extras.thresholdMethods?.vt1) thr.push(thresholdMethodSentence("VT1", extras.thresholdMethods.vt1));
   if (extras.vt2?.vo2MlMin !== undefined) {
     thr.push(
-      `VT2 (respiratory compensation point) at VO2 ${formatValue("vt1Vo2MlMin", extras.vt2.vo2MlMin)} mL/min${extras.vt2.hrBpm !== undefined ? `, heart rate ${extras.vt2.hrBpm} bpm` : ""}${extras.vt2.workW !== undefined ? `, ${extras.vt2.workW} W` : ""}.`,
+      `VT2 (respiratory compensation point) at VO2 ${formatValue("vt1Vo2MlMin", extras.vt2.vo2MlMin)} mL/min${extras.vt2.hrBpm !== undefined ? `, heart rate ${extras.vt2.hrBpm} bpm` : ""}${loadWords(extras.vt2) ? `, ${loadWords(extras.vt2)}` : ""}.`,
     );
   }
   if (extras.thresholdMethods?.vt2) thr.push(thresholdMethodSentence("VT2", extras.thresholdMethods.vt2));
@@ -588,4 +589,12 @@ function conclusionCaveats(s: SchemeResult, interpretation: Interpretation, inpu
   if (graded.some((a) => a.axisId.startsWith("peak")) && rerAxis?.category && rerAxis.category.severity > 0)
     out.push(`${rerAxis.category.label}${typeof rer === "number" ? ` (peak RER ${rer.toFixed(2)})` : ""}`);
   return out;
+}
+
+/** The load at a threshold in words: the work rate, or on a treadmill the speed with its grade. */
+function loadWords(at: { workW?: number; speedKmh?: number; gradePct?: number } | undefined): string {
+  if (!at) return "";
+  if (at.workW !== undefined) return `${at.workW} W`;
+  if (at.speedKmh === undefined) return "";
+  return `${at.speedKmh.toFixed(1)} km/h${at.gradePct !== undefined ? ` at ${at.gradePct.toFixed(1)} % grade` : ""}`;
 }

@@ -142,6 +142,16 @@ describe("draft report text", () => {
     expect(thr.find((p) => p.startsWith("VT2"))).toMatch(/heart rate 125 bpm, 85 W\.$/);
   });
 
+  it("on a treadmill the thresholds' load is the speed with its grade (invented values)", () => {
+    const d = composeDraft(fx.input, r, {
+      vt1: { hrBpm: 118, speedKmh: 5.9, gradePct: 7.6 },
+      vt2: { vo2MlMin: 1500, hrBpm: 151, speedKmh: 7.2, gradePct: 12.8 },
+    });
+    const thr = d.sections.find((s) => s.id === "thresholds")!.paragraphs;
+    expect(thr.find((p) => p.startsWith("VT1 at VO2"))).toMatch(/, heart rate 118 bpm, 5\.9 km\/h at 7\.6 % grade\.$/);
+    expect(thr.find((p) => p.startsWith("VT2"))).toMatch(/heart rate 151 bpm, 7\.2 km\/h at 12\.8 % grade\.$/);
+  });
+
   it("a training referral with thresholds out of order says why there is no prescription", () => {
     const training = { ...fx.input, referral: "training" as const };
     const withheld =
