@@ -281,7 +281,7 @@ export function toInterpretInput(
       hrPctPred: irregular ? null : v(indices.heartRate.percentPredicted),
       hrReserveBpm: irregular ? null : v(indices.heartRate.reserveBpm),
       chronotropicIndex: irregular ? null : v(indices.heartRate.chronotropicIndex),
-      // read from time-averaged rows with the 12-bpm cut-off inside its margin, the call is withheld (heartRateIndices)
+      // with the 12-bpm cut-off inside its margin the value is shown as borderline and not read (`notRead.hrr1Bpm`)
       hrr1Bpm: irregular ? null : v(indices.heartRate.recovery1MinBpm),
       o2PulsePeakMlBeat: v(p.o2PulseMlBeat),
       o2PulsePctPred: irregular ? null : pct("peakO2Pulse"),
