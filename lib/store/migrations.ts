@@ -117,4 +117,28 @@ export const MIGRATIONS: { id: number; name: string; sql: string }[] = [
       alter table reports add column signed_model_json text;
     `,
   },
+  {
+    id: 6,
+    name: "accounts_and_sessions",
+    // Optional log-in. With no enabled account the app stays open to whoever reaches it on this machine (the default
+    // for one workstation); once an account exists every page, download and form asks for a session. Passwords are
+    // kept only as scrypt hashes; sessions only as the SHA-256 of their random token.
+    sql: `
+      create table accounts (
+        id integer primary key,
+        username text not null unique,
+        display_name text not null,
+        role text not null check (role in ('clinician', 'physiologist')),
+        password_hash text not null,
+        disabled integer not null default 0,
+        created_at text not null
+      );
+      create table sessions (
+        token_sha256 text primary key,
+        account_id integer not null references accounts(id),
+        created_at text not null,
+        expires_at text not null
+      );
+    `,
+  },
 ];
