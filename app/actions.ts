@@ -7,6 +7,7 @@ import { recordImportChoices, recordUploadDetails } from "@/lib/store/reimport";
 import { getUploadBytes, saveTest, saveUpload } from "@/lib/store/tests";
 import { fieldErrors, stageDurationField, testDetailsSchema, uploadFileProblem } from "./schemas";
 import { formatUtcMinute } from "@/lib/units";
+import { SESSION_NEEDED, currentAccess } from "./access";
 
 /** The upload's details, and the stage length for a stage table without a time column (as on the columns page). */
 const uploadDetailsSchema = testDetailsSchema.extend({
@@ -39,6 +40,9 @@ export async function uploadTest(prev: UploadState, form: FormData): Promise<Upl
   const values: Record<string, string> = {};
   for (const [k, v] of form.entries()) if (typeof v === "string") values[k] = v;
   const attempt = (prev?.attempt ?? 0) + 1;
+  // nothing is kept from a request without a session (the file is chosen again after signing in)
+  const access = await currentAccess();
+  if (!access) return { errors: { file: SESSION_NEEDED }, values, attempt };
 
   // 1. Keep the file first, whatever else is wrong, so nothing the user sent is lost.
   let uploadId = values.uploadId ? Number(values.uploadId) : undefined;
@@ -102,18 +106,26 @@ export async function uploadTest(prev: UploadState, form: FormData): Promise<Upl
     record: built.record,
     columns: built.columns,
     issues: built.issues,
-    actor: "local user",
+    actor: access.actor,
   });
   // A refused file has no record to hold the details entered with it: keep them for when it becomes usable.
   if (!built.record)
-    recordUploadDetails(id, { patient, ergometer: d.ergometer, referral: d.referral, ...(spirometry ? { spirometry } : {}) });
+    recordUploadDetails(
+      id,
+      { patient, ergometer: d.ergometer, referral: d.referral, ...(spirometry ? { spirometry } : {}) },
+      access.actor,
+    );
   // the choices the file was read with, so a re-read on the columns page starts from them
   if (profile || d.stageDurationS !== undefined)
-    recordImportChoices(id, {
-      mapping: profile?.mapping ?? {},
-      ...(profile ? { profileName: profile.name } : {}),
-      weightKg: d.weightKg,
-      ...(d.stageDurationS !== undefined ? { stageDurationS: d.stageDurationS } : {}),
-    });
+    recordImportChoices(
+      id,
+      {
+        mapping: profile?.mapping ?? {},
+        ...(profile ? { profileName: profile.name } : {}),
+        weightKg: d.weightKg,
+        ...(d.stageDurationS !== undefined ? { stageDurationS: d.stageDurationS } : {}),
+      },
+      access.actor,
+    );
   redirect(`/tests/${id}`);
 }

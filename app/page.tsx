@@ -3,10 +3,12 @@ import { ensureDemoData } from "@/lib/store/seedDemo";
 import { listTests } from "@/lib/store/tests";
 import { TableScroll } from "./components/TableScroll";
 import { UploadForm } from "./components/UploadForm";
+import { pageAccess } from "./access";
 
 export const dynamic = "force-dynamic";
 
 export default async function RegisterPage() {
+  await pageAccess("/");
   await ensureDemoData();
   const tests = listTests();
   return (

@@ -1,4 +1,5 @@
 import { Command, CommanderError } from "commander";
+import { registerAccount } from "./account";
 import { registerAnalyse } from "./analyse";
 import { registerPredict } from "./predict";
 import { UsageError } from "./usageError";
@@ -20,6 +21,7 @@ export function buildProgram(): Command {
     .exitOverride();
   registerAnalyse(program);
   registerPredict(program);
+  registerAccount(program);
   return program;
 }
 

@@ -351,7 +351,7 @@ test("report: two tabs revising one signed report — the second is refused with
     "Reason: Conclusion reworded after the team's review (e2e).",
   );
   await expect(a.getByTestId("version-note")).toContainText(/Revises version \d+, signed by Dr E2E First/);
-  await expect(a.getByTestId("signer-not-verified")).toContainText("not verified");
+  await expect(a.getByTestId("signer-identity")).toContainText("not verified");
   // the list of versions says which is current and which the new signature amends
   await expect(a.getByTestId("report-versions")).toContainText(/signed by Dr E2E Second on .+ \(current\)/);
   await expect(a.getByTestId("report-versions")).toContainText(/signed by Dr E2E First on .+ \(amended by version \d+\)/);

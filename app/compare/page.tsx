@@ -10,6 +10,7 @@ import { TableScroll } from "../components/TableScroll";
 import { SourceList } from "../tests/[id]/parts/HowFound";
 import { samePatientCheck } from "./samePatientCheck";
 import { recordId } from "../schemas";
+import { pageAccess } from "../access";
 
 export const dynamic = "force-dynamic";
 
@@ -79,6 +80,7 @@ export default async function ComparePage({
 }: {
   searchParams: Promise<Record<string, string | string[] | undefined>>;
 }) {
+  await pageAccess("/compare");
   const parsed = querySchema.safeParse(await searchParams);
   const q = parsed.success ? parsed.data : {};
   const tests = listTests().filter((t) => t.status === "imported");

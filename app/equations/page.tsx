@@ -1,7 +1,9 @@
 import { DEFAULT_LAB_SETTINGS, EQUATIONS, PREDICTED_QUANTITIES, type PredictedQuantity } from "@/lib/predicted";
 import { TableScroll } from "../components/TableScroll";
+import { pageAccess } from "../access";
 
-export const dynamic = "force-static";
+// per request: the page asks who is signed in (app/access.ts)
+export const dynamic = "force-dynamic";
 
 const STATUS_WORDS: Record<string, string> = {
   confirmed: "confirmed in the primary text",
@@ -19,7 +21,8 @@ function quantityWords(quantity: PredictedQuantity): string {
 const ERGOMETER_WORDS: Record<string, string> = { both: "cycle or treadmill" };
 
 /** The reference equations the engine can evaluate, each with its population, source and check values. */
-export default function EquationsPage() {
+export default async function EquationsPage() {
+  await pageAccess("/equations");
   const defaults = new Set(Object.values(DEFAULT_LAB_SETTINGS.equations).flatMap((byErg) => Object.values(byErg ?? {})));
   return (
     <>

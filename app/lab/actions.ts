@@ -5,6 +5,7 @@ import { z } from "zod";
 import type { AnalysisSettings } from "@/lib/analysis";
 import { LabSettingsSchema } from "@/lib/predicted";
 import { getLabDefaults, labDefaultsToken, saveLabDefaults } from "@/lib/store/labSettings";
+import { SESSION_NEEDED, currentAccess } from "../access";
 
 export interface LabFormState {
   ok?: string;
@@ -20,6 +21,7 @@ const formSchema = z.object({
 export async function saveLab(_prev: LabFormState, form: FormData): Promise<LabFormState> {
   const values: Record<string, string> = {};
   for (const [k, v] of form.entries()) if (typeof v === "string") values[k] = v;
+  if (!(await currentAccess())) return { errors: { form: SESSION_NEEDED } };
   const parsed = formSchema.safeParse(values);
   if (!parsed.success) return { errors: Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0]), i.message])) };
   if (values.labToken !== labDefaultsToken())

@@ -2,11 +2,13 @@ import { listCutoffChoices } from "@/lib/interpret";
 import { DEFAULT_LAB_SETTINGS, EQUATIONS, LAB_QUANTITIES, PREDICTED_QUANTITIES, sameConcept } from "@/lib/predicted";
 import { getLabDefaults, labDefaultsToken } from "@/lib/store/labSettings";
 import { LabForm } from "./LabForm";
+import { pageAccess } from "../access";
 
 export const dynamic = "force-dynamic";
 
 /** The lab's choices, named in every result and report: equations per quantity and ergometer, disputed cut-offs. */
-export default function LabSettingsPage() {
+export default async function LabSettingsPage() {
+  await pageAccess("/lab");
   const current = getLabDefaults();
   const eqs = current.labSettings?.equations ?? {};
   const quantities = LAB_QUANTITIES.map((q) => {

@@ -2,10 +2,12 @@ import { listProfiles } from "@/lib/store/profiles";
 import { FIELD_LABEL } from "../tests/[id]/columns/fieldChoices";
 import { deleteProfileAction } from "./actions";
 import { formatUtcMinute } from "@/lib/units";
+import { pageAccess } from "../access";
 
 export const dynamic = "force-dynamic";
 
-export default function ProfilesPage() {
+export default async function ProfilesPage() {
+  await pageAccess("/profiles");
   const profiles = listProfiles();
   return (
     <>

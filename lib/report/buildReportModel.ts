@@ -31,6 +31,8 @@ export interface ReportDraftState {
   attestation?: string | null;
   /** A signed version that amends an earlier signed one: which, and why. */
   amendment?: { revisesVersion: number; reason: string } | null;
+  /** The account the signer was signed in with; null or absent for a name typed without log-in. */
+  signerAccount?: string | null;
 }
 
 export interface BuildReportModelOptions {
@@ -392,6 +394,7 @@ export function buildReportModel(
     ...(draft.status === "signed" && draft.signedAt ? { signedAt: draft.signedAt } : {}),
     ...(draft.status === "signed" && draft.attestation ? { attestation: draft.attestation } : {}),
     ...(draft.status === "signed" && draft.amendment ? { amendment: { ...draft.amendment } } : {}),
+    ...(draft.status === "signed" && draft.signerAccount ? { signerAccount: draft.signerAccount } : {}),
     caution: CLINICAL_CAUTION,
     draftMark: DRAFT_CAUTION,
     keyValues,

@@ -97,6 +97,8 @@ export interface ReportModel {
   engineVersion: string;
   status: "draft" | "signed";
   signedBy?: string;
+  /** The user name of the account the signer was signed in with; absent when the name was typed without log-in. */
+  signerAccount?: string;
   /** ISO 8601 time of signature. */
   signedAt?: string;
   /** The attestation the signer confirmed, printed with the signature. */

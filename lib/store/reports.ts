@@ -31,6 +31,8 @@ export interface StoredReport {
   signedModelJson: string | null;
   /** For a signed version that amends an earlier signed one: which, and the signer's reason (kept with the signature). */
   amendment: ReportAmendment | null;
+  /** The user name of the account the signer was signed in with (`lib/store/accounts`); null for a name typed without log-in. */
+  signerAccount: string | null;
 }
 
 /** Why a signed version replaces an earlier signed version of the same test's report, as its signer gave it. */
@@ -45,6 +47,8 @@ interface DraftJson {
   sections: ReportSection[];
   attestation?: string;
   amendment?: ReportAmendment;
+  /** Set when the signer was signed in: their account's user name (the signed name is that account's display name). */
+  signerAccount?: string;
 }
 
 interface ReportRow {
@@ -81,6 +85,7 @@ function toReport(row: ReportRow): StoredReport {
     revision: row.revision,
     signedModelJson: row.signed_model_json ?? null,
     amendment: json.amendment ?? null,
+    signerAccount: json.signerAccount ?? null,
   };
 }
 
@@ -163,6 +168,7 @@ export function signReport(
   attestation: string,
   freeze?: (signed: StoredReport) => string,
   amendment?: ReportAmendment,
+  signerAccount?: string,
 ): SignResult {
   const db = getDb();
   return db.transaction((): SignResult => {
@@ -172,7 +178,15 @@ export function signReport(
       return { ok: false, reason: `This version was already signed by ${current.signedBy} on ${current.signedAt}.` };
     const signedAt = now();
     const frozen = freeze
-      ? freeze({ ...current, status: "signed", signedBy: signer, signedAt, attestation, amendment: amendment ?? null })
+      ? freeze({
+          ...current,
+          status: "signed",
+          signedBy: signer,
+          signedAt,
+          attestation,
+          amendment: amendment ?? null,
+          signerAccount: signerAccount ?? null,
+        })
       : null;
     const info = db
       .prepare(
@@ -181,13 +195,18 @@ export function signReport(
       .run(
         signer,
         signedAt,
-        JSON.stringify({ sections: current.sections, attestation, ...(amendment ? { amendment } : {}) } satisfies DraftJson),
+        JSON.stringify({
+          sections: current.sections,
+          attestation,
+          ...(amendment ? { amendment } : {}),
+          ...(signerAccount ? { signerAccount } : {}),
+        } satisfies DraftJson),
         frozen,
         reportId,
       );
     if (info.changes !== 1) return { ok: false, reason: "This version could not be signed; reload the page." };
     audit(
-      signer,
+      signerAccount ?? signer,
       "report-signed",
       current.testId,
       `report ${reportId} (version ${current.version}): ${attestation}` +

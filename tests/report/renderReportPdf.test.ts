@@ -124,6 +124,15 @@ describe("renderReportPdf", () => {
     expect(pages.join(" ")).toContain("Signed by Dr A Example on 2026-12-01 10:00 UTC.");
   });
 
+  it("a report signed while signed in names the account on every page instead of calling the name unverified", async () => {
+    const model = exampleReportModel({ status: "signed", signedBy: "Dr A Example", signedAt, signerAccount: "aexample" });
+    const pages = pagesText(await renderReportPdf(model));
+    for (const text of pages) expect(text).toContain('Signed by Dr A Example (account "aexample") on 2026-12-01 10:00 UTC');
+    const all = pages.join(" ");
+    expect(all).not.toContain("not verified");
+    expect(all).toContain('The signer was signed in as the account "aexample"');
+  });
+
   it("prints values, sources with evidence status and the model's symbols as written", async () => {
     const all = pagesText(await renderReportPdf(exampleReportModel())).join(" ");
     // the embedded font has these glyphs: printed as themselves, not as ASCII stand-ins

@@ -41,6 +41,14 @@ describe("report drafts and signatures (SQLite in memory)", () => {
     expect(saveDraft(9999, edited, "reviewer")).toBeNull();
   });
 
+  it("a signature made while signed in keeps the account with it, and the audit names the account", () => {
+    const { testId, analysisId } = newTestWithAnalysis();
+    const draft = getOrCreateDraft(testId, analysisId, initial);
+    expect(signReport(draft.id, "Dr A Example", "Reviewed.", undefined, undefined, "aexample").ok).toBe(true);
+    expect(getReport(draft.id)).toMatchObject({ status: "signed", signedBy: "Dr A Example", signerAccount: "aexample" });
+    expect(listAudit(testId).find((a) => a.action === "report-signed")?.actor).toBe("aexample");
+  });
+
   it("signing records signer, time and attestation, and makes the version immutable", () => {
     const { testId, analysisId } = newTestWithAnalysis();
     const draft = getOrCreateDraft(testId, analysisId, initial);
@@ -53,6 +61,7 @@ describe("report drafts and signatures (SQLite in memory)", () => {
       attestation: "I have reviewed the data and the text.",
     });
     expect(Number.isNaN(Date.parse(signed.signedAt!))).toBe(false);
+    expect(signed.signerAccount).toBeNull();
     // Signing twice is refused with a reason, not an exception.
     const again = signReport(draft.id, "Someone Else", "x");
     expect(again.ok).toBe(false);

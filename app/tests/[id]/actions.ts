@@ -12,6 +12,16 @@ import { effectiveSettings, getTest, latestSettings, saveAnalysisVersion } from 
 import { settingsChangedSince } from "./recordToken";
 import { VO2_CHECKS } from "./vo2Checks";
 import { recordId } from "../../schemas";
+import { SESSION_NEEDED, actionAccess, currentAccess, type Access } from "../../access";
+
+/** Where a form without typed text sends a user whose session ended: back to the test after signing in. */
+const testPath = (form: FormData) => {
+  const id = Number(form.get("testId"));
+  return Number.isInteger(id) && id > 0 ? `/tests/${id}` : "/";
+};
+
+/** Who a new analysis version is by: the signed-in account, or without log-in the name typed on the form. */
+const actorFor = (access: Access, typed: string) => (access.mode === "account" ? access.actor : typed);
 
 export interface FormState {
   ok?: string;
@@ -64,6 +74,8 @@ function errorsOf(error: z.ZodError): Record<string, string> {
 /** A reviewer's threshold override is a new settings version; everything dependent is recomputed. */
 export async function overrideThreshold(_prev: FormState, form: FormData): Promise<FormState> {
   const values = formValues(form);
+  const access = await currentAccess();
+  if (!access) return { errors: { form: SESSION_NEEDED }, values };
   const parsed = overrideSchema.safeParse(values);
   if (!parsed.success) return { errors: errorsOf(parsed.error), values };
   const o = parsed.data;
@@ -96,12 +108,19 @@ export async function overrideThreshold(_prev: FormState, form: FormData): Promi
       },
     ],
   };
-  saveAnalysisVersion(o.testId, settings, ENGINE_VERSION, o.by, `${o.which.toUpperCase()} override: ${o.reason}`);
+  saveAnalysisVersion(
+    o.testId,
+    settings,
+    ENGINE_VERSION,
+    actorFor(access, o.by),
+    `${o.which.toUpperCase()} override: ${o.reason}`,
+  );
   revalidatePath(`/tests/${o.testId}`);
   return { ok: `${o.which.toUpperCase()} override saved as a new analysis version; all dependent values were recomputed.` };
 }
 
 export async function clearOverride(form: FormData): Promise<void> {
+  const access = await actionAccess(testPath(form));
   const testId = Number(form.get("testId"));
   const which = String(form.get("which"));
   const current = latestSettings(testId)?.settings;
@@ -110,7 +129,7 @@ export async function clearOverride(form: FormData): Promise<void> {
     testId,
     { ...current, overrides: current.overrides.filter((x) => x.which !== which) },
     ENGINE_VERSION,
-    "local user",
+    access.actor,
     `${which.toUpperCase()} override removed`,
   );
   revalidatePath(`/tests/${testId}`);
@@ -140,6 +159,8 @@ const settingsSchema = z.object({
 /** Lab and reviewer choices: a new settings version (old ones are kept and listed). */
 export async function saveSettings(_prev: FormState, form: FormData): Promise<FormState> {
   const values = formValues(form);
+  const access = await currentAccess();
+  if (!access) return { errors: { form: SESSION_NEEDED }, values };
   const parsed = settingsSchema.safeParse(values);
   if (!parsed.success) return { errors: errorsOf(parsed.error), values };
   const s = parsed.data;
@@ -165,7 +186,7 @@ export async function saveSettings(_prev: FormState, form: FormData): Promise<Fo
     },
     interpret: { ...current.interpret, choices },
   };
-  saveAnalysisVersion(s.testId, settings, ENGINE_VERSION, "local user", s.note || "settings changed");
+  saveAnalysisVersion(s.testId, settings, ENGINE_VERSION, access.actor, s.note || "settings changed");
   revalidatePath(`/tests/${s.testId}`);
   return { ok: "Settings saved as a new analysis version." };
 }
@@ -216,6 +237,8 @@ function spanOnRecord(
 /** A reviewer's incremental exercise phase: a new settings version; thresholds and every index are recomputed. */
 export async function saveExerciseSpan(_prev: FormState, form: FormData): Promise<FormState> {
   const values = formValues(form);
+  const access = await currentAccess();
+  if (!access) return { errors: { form: SESSION_NEEDED }, values };
   const parsed = exerciseSpanSchema.safeParse(values);
   if (!parsed.success) return { errors: errorsOf(parsed.error), values };
   const o = parsed.data;
@@ -236,7 +259,7 @@ export async function saveExerciseSpan(_prev: FormState, form: FormData): Promis
     o.testId,
     settings,
     ENGINE_VERSION,
-    o.by,
+    actorFor(access, o.by),
     `exercise phase set to ${formatClock(o.start)}–${formatClock(o.end)}: ${o.reason}`,
   );
   revalidatePath(`/tests/${o.testId}`);
@@ -273,6 +296,8 @@ function setAsideTooLong(table: BreathTable, settings: AnalysisSettings, startS:
 /** A reviewer sets a span of breaths aside (a leak, a run of coughs): a new settings version; everything is recomputed. */
 export async function saveSetAside(_prev: FormState, form: FormData): Promise<FormState> {
   const values = formValues(form);
+  const access = await currentAccess();
+  if (!access) return { errors: { form: SESSION_NEEDED }, values };
   const parsed = setAsideSchema.safeParse(values);
   if (!parsed.success) return { errors: errorsOf(parsed.error), values };
   const o = parsed.data;
@@ -304,7 +329,7 @@ export async function saveSetAside(_prev: FormState, form: FormData): Promise<Fo
     o.testId,
     settings,
     ENGINE_VERSION,
-    o.by,
+    actorFor(access, o.by),
     `${o.channel === "heart-rate" ? "heart rate" : "breaths"} ${formatClock(o.start)}–${formatClock(o.end)} set aside: ${o.reason}`,
   );
   revalidatePath(`/tests/${o.testId}`);
@@ -320,6 +345,7 @@ const restoreSchema = z.object({
 
 /** Put a set-aside span back (by its place in the list), with why and who did it: a new settings version. */
 export async function restoreSetAside(form: FormData): Promise<void> {
+  const access = await actionAccess(testPath(form));
   const values = formValues(form);
   const parsed = restoreSchema.safeParse(values);
   // a page opened before another change may list the spans in another order: nothing is restored from it
@@ -333,7 +359,7 @@ export async function restoreSetAside(form: FormData): Promise<void> {
     testId,
     { ...current, conditioning: { ...current.conditioning, setAside: spans.filter((_, i) => i !== at) } },
     ENGINE_VERSION,
-    by,
+    actorFor(access, by),
     `${gone.channel === "heart-rate" ? "heart rate" : "breaths"} ${formatClock(gone.startS)}–${formatClock(gone.endS)} used again: ${reason}, by ${by}`,
   );
   revalidatePath(`/tests/${testId}`);
@@ -357,6 +383,8 @@ const vo2CheckedSchema = z.object({
  */
 export async function saveVo2Checked(_prev: FormState, form: FormData): Promise<FormState> {
   const values = formValues(form);
+  const access = await currentAccess();
+  if (!access) return { errors: { form: SESSION_NEEDED }, values };
   const parsed = vo2CheckedSchema.safeParse(values);
   if (!parsed.success) return { errors: errorsOf(parsed.error), values };
   const o = parsed.data;
@@ -371,7 +399,7 @@ export async function saveVo2Checked(_prev: FormState, form: FormData): Promise<
       vo2Checked: { reason: `checked ${Object.values(VO2_CHECKS).join("; ")}: ${o.reason}, by ${o.by}` },
     },
     ENGINE_VERSION,
-    o.by,
+    actorFor(access, o.by),
     `VO2-based values read after a check: ${o.reason}`,
   );
   revalidatePath(`/tests/${o.testId}`);
@@ -385,6 +413,7 @@ const clearVo2Schema = z.object({
 });
 
 export async function clearVo2Checked(form: FormData): Promise<void> {
+  const access = await actionAccess(testPath(form));
   const values = formValues(form);
   const parsed = clearVo2Schema.safeParse(values);
   if (!parsed.success || settingsChangedSince(parsed.data.testId, values.versionToken)) return;
@@ -396,13 +425,14 @@ export async function clearVo2Checked(form: FormData): Promise<void> {
     testId,
     rest,
     ENGINE_VERSION,
-    by,
+    actorFor(access, by),
     `VO2-based values no longer read (ΔVO2/ΔWR doubted): ${reason}, by ${by}`,
   );
   revalidatePath(`/tests/${testId}`);
 }
 
 export async function clearExerciseSpan(form: FormData): Promise<void> {
+  const access = await actionAccess(testPath(form));
   const testId = Number(form.get("testId"));
   const current = latestSettings(testId)?.settings;
   if (!current?.conditioning?.phases?.exerciseSpan) return;
@@ -411,7 +441,7 @@ export async function clearExerciseSpan(form: FormData): Promise<void> {
     testId,
     { ...current, conditioning: { ...current.conditioning, phases } },
     ENGINE_VERSION,
-    "local user",
+    access.actor,
     "exercise phase set by review removed (detected again)",
   );
   revalidatePath(`/tests/${testId}`);

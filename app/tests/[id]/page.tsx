@@ -32,6 +32,7 @@ import { OverrideForm } from "./parts/OverrideForm";
 import { SettingsForm } from "./parts/SettingsForm";
 import { SeverityScale } from "./parts/SeverityScale";
 import { settingsToken } from "./recordToken";
+import { pageAccess } from "../../access";
 
 export const dynamic = "force-dynamic";
 
@@ -76,6 +77,7 @@ const AVERAGING_KEY: Record<string, string> = {
 
 export default async function TestPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
+  await pageAccess(`/tests/${id}`);
   const testId = Number(id);
   if (!Number.isInteger(testId)) notFound();
   const test = getTest(testId);

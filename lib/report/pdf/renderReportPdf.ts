@@ -5,7 +5,7 @@ import { displayUnit, formatUtcMinute } from "../../units";
 import pdfmake from "pdfmake";
 import type { Content, TableCell, TDocumentDefinitions } from "pdfmake/interfaces";
 import { renderChartSvg } from "../charts/renderChartSvg";
-import { SIGNER_NOT_VERIFIED } from "../caution";
+import { signerIdentityNote } from "../caution";
 import { EVIDENCE_LEGEND } from "../sources";
 import type { ReportModel, ReportRow } from "../reportModel";
 import { amendmentWords } from "../amendmentWords";
@@ -197,7 +197,7 @@ export async function renderReportPdf(rawModel: ReportModel, now: Date = new Dat
   const index = new Map(model.sources.map((s, i) => [s.id, i + 1]));
   const statusLine = draft
     ? "DRAFT - not signed"
-    : `Signed by ${model.signedBy ?? "(unknown)"} (name as typed, not verified) on ${formatSignedAt(model.signedAt)}`;
+    : `Signed by ${model.signedBy ?? "(unknown)"} (${model.signerAccount ? `account "${model.signerAccount}"` : "name as typed, not verified"}) on ${formatSignedAt(model.signedAt)}`;
 
   const content: Content[] = [
     { text: model.title, style: "h1" },
@@ -342,7 +342,7 @@ export async function renderReportPdf(rawModel: ReportModel, now: Date = new Dat
             ...(model.attestation
               ? [{ text: `The signer confirmed: "${model.attestation}"`, margin: [0, 2, 0, 0] } as Content]
               : []),
-            { text: toPdfText(SIGNER_NOT_VERIFIED), color: MUTED, fontSize: 8 },
+            { text: toPdfText(signerIdentityNote(model.signerAccount)), color: MUTED, fontSize: 8 },
           ],
         },
   );

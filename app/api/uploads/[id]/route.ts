@@ -1,9 +1,12 @@
 import { getUploadBytes } from "@/lib/store/tests";
+import { routeAccess } from "@/app/access";
 
 export const dynamic = "force-dynamic";
 
 /** The original upload, byte for byte. */
 export async function GET(_req: Request, { params }: { params: Promise<{ id: string }> }) {
+  const access = await routeAccess();
+  if (access instanceof Response) return access;
   const { id } = await params;
   const n = Number(id);
   if (!Number.isInteger(n)) return new Response("Not found", { status: 404 });

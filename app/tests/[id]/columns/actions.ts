@@ -12,6 +12,7 @@ import { getImportChoices, getUploadDetails, replaceImport, type ImportChoices }
 import { getTest, getUploadBytes } from "@/lib/store/tests";
 import { fieldErrors, plausibleNumber, recordId, stageDurationField, testDetailsSchema } from "../../../schemas";
 import { FIELD_LABEL, unitOptions, type FieldKey } from "./fieldChoices";
+import { SESSION_NEEDED, currentAccess } from "../../../access";
 
 export interface ColumnFormState {
   ok?: string;
@@ -24,7 +25,6 @@ export interface ColumnFormState {
   stamp?: number;
 }
 
-const ACTOR = "local user";
 const FIELD_KEYS = Object.keys(FIELD_LABEL) as FieldKey[];
 
 const baseSchema = z.object({
@@ -103,6 +103,8 @@ export async function applyColumnChoices(_prev: ColumnFormState, form: FormData)
   const values = formValues(form);
   const stamp = Date.now();
   const keep = (errors: Record<string, string>, issues?: Issue[]): ColumnFormState => ({ errors, values, issues, stamp });
+  const access = await currentAccess();
+  if (!access) return keep({ form: SESSION_NEEDED });
   const base = baseSchema.safeParse(values);
   if (!base.success) return keep(fieldErrors(base.error));
   const { testId, intent, weightKg, stageDurationS, selectColumn, selectValue, profileName } = base.data;
@@ -132,7 +134,7 @@ export async function applyColumnChoices(_prev: ColumnFormState, form: FormData)
 
   if (intent === "save-profile") {
     if (!profileName) return keep({ profileName: "Give the profile a name." });
-    const saved = saveProfile({ name: profileName, mapping }, ACTOR);
+    const saved = saveProfile({ name: profileName, mapping }, access.actor);
     if (!saved.ok) return keep({ profileName: saved.message });
     revalidatePath("/profiles");
     return {
@@ -205,7 +207,7 @@ export async function applyColumnChoices(_prev: ColumnFormState, form: FormData)
         }
       : { ...built.record, ...(kept?.spirometry ? { spirometry: kept.spirometry } : {}) }
     : null;
-  replaceImport(testId, { record, columns: built.columns, issues: built.issues, choices, actor: ACTOR });
+  replaceImport(testId, { record, columns: built.columns, issues: built.issues, choices, actor: access.actor });
   revalidatePath(`/tests/${testId}`);
   revalidatePath(`/tests/${testId}/columns`);
   if (!record)

@@ -3,6 +3,7 @@ import { notFound } from "next/navigation";
 import { ColumnForm } from "./ColumnForm";
 import { ImportIssueTable } from "./ImportIssueTable";
 import { loadColumnReview } from "./loadColumnReview";
+import { pageAccess } from "../../../access";
 
 export const dynamic = "force-dynamic";
 
@@ -17,6 +18,7 @@ const KIND_TEXT: Record<string, string> = {
 
 export default async function ColumnReviewPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
+  await pageAccess(`/tests/${id}/columns`);
   const testId = Number(id);
   if (!Number.isInteger(testId) || testId <= 0) notFound();
   const review = await loadColumnReview(testId);

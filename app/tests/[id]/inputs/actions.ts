@@ -8,6 +8,7 @@ import { audit, getTest, saveUpload, updateTestRecord } from "@/lib/store/tests"
 import { fieldErrors } from "../../../schemas";
 import { changedSince } from "../recordToken";
 import { conductSchema, contextSchema, fileFormSchema } from "./schemas";
+import { SESSION_NEEDED, currentAccess, type Access } from "../../../access";
 
 export interface InputFormState {
   ok?: string;
@@ -19,7 +20,6 @@ export interface InputFormState {
   stamp?: number;
 }
 
-const ACTOR = "local user";
 /** `Issue.where.field` of the notes kept from the last lactate file read. */
 const LACTATE_FILE_FIELD = "lactateFile";
 const MAX_BYTES = 5 * 1024 * 1024;
@@ -40,10 +40,10 @@ function loadForSave(testId: number, sentToken: unknown): { record: TestRecord |
   return { record: test?.record ?? null, stale: changedSince(test, sentToken) };
 }
 
-function done(testId: number, record: TestRecord, action: string, detail: string): void {
+function done(testId: number, record: TestRecord, action: string, detail: string, actor: string): void {
   // a new analysis version pins the changed inputs; a report already signed keeps the record it was signed on
-  updateTestRecord(testId, record, ACTOR, `${action.replace(/-/g, " ")}: ${detail}`);
-  audit(ACTOR, action, testId, detail);
+  updateTestRecord(testId, record, actor, `${action.replace(/-/g, " ")}: ${detail}`);
+  audit(actor, action, testId, detail);
   revalidatePath(`/tests/${testId}`);
   revalidatePath(`/tests/${testId}/inputs`);
   revalidatePath(`/tests/${testId}/report`);
@@ -61,6 +61,7 @@ async function readFile(form: FormData): Promise<{ name: string; bytes: Uint8Arr
  * samples, and on success store the upload and the updated record. Nothing changes when no sample is read.
  */
 async function addSampleFile<S>(
+  access: Access,
   form: FormData,
   what: string,
   importSamples: (
@@ -88,13 +89,17 @@ async function addSampleFile<S>(
     apply(record, samples, issues),
     action,
     `${samples.length} sample(s) from ${file.name} (upload ${upload.id})`,
+    access.actor,
   );
   return { ok: `${samples.length} ${what} sample(s) saved from ${file.name}.`, issues, values, stamp };
 }
 
 /** Blood lactate samples from a file (importLactateFile); replaces the test's lactate samples. The file is kept. */
 export async function addLactateFile(_prev: InputFormState, form: FormData): Promise<InputFormState> {
+  const access = await currentAccess();
+  if (!access) return { errors: { form: SESSION_NEEDED }, values: formValues(form), stamp: Date.now() };
   return addSampleFile(
+    access,
     form,
     "lactate",
     (bytes, timeUnit, { lactateUnit }) => importLactateFile(bytes, { timeUnit, ...(lactateUnit ? { lactateUnit } : {}) }),
@@ -117,7 +122,10 @@ export async function addLactateFile(_prev: InputFormState, form: FormData): Pro
  * test's blood gases. The file is kept.
  */
 export async function addBloodGasFile(_prev: InputFormState, form: FormData): Promise<InputFormState> {
+  const access = await currentAccess();
+  if (!access) return { errors: { form: SESSION_NEEDED }, values: formValues(form), stamp: Date.now() };
   return addSampleFile(
+    access,
     form,
     "blood gas",
     (bytes, timeUnit) => importBloodGasFile(bytes, { timeUnit }),
@@ -153,6 +161,8 @@ function detailWords(details: object): string {
 export async function saveSpirometry(_prev: InputFormState, form: FormData): Promise<InputFormState> {
   const values = formValues(form);
   const stamp = Date.now();
+  const access = await currentAccess();
+  if (!access) return { errors: { form: SESSION_NEEDED }, values, stamp };
   const testId = Number(values.testId);
   const { record, stale } = Number.isInteger(testId) ? loadForSave(testId, values.recordToken) : { record: null, stale: null };
   if (!record) return { errors: { form: "This test has no usable breath data yet." }, values, stamp };
@@ -173,7 +183,7 @@ export async function saveSpirometry(_prev: InputFormState, form: FormData): Pro
   const next: TestRecord = { ...record };
   if (spirometry) next.spirometry = spirometry;
   else delete next.spirometry;
-  done(testId, next, "spirometry-updated", spirometry ? detailWords(spirometry) : "cleared");
+  done(testId, next, "spirometry-updated", spirometry ? detailWords(spirometry) : "cleared", access.actor);
   return { ok: spirometry ? "Spirometry saved; the breathing reserve is recomputed." : "Spirometry cleared.", stamp };
 }
 
@@ -181,6 +191,8 @@ export async function saveSpirometry(_prev: InputFormState, form: FormData): Pro
 export async function saveContext(_prev: InputFormState, form: FormData): Promise<InputFormState> {
   const values = formValues(form);
   const stamp = Date.now();
+  const access = await currentAccess();
+  if (!access) return { errors: { form: SESSION_NEEDED }, values, stamp };
   const parsed = contextSchema.safeParse(values);
   if (!parsed.success) return { errors: fieldErrors(parsed.error), values, stamp };
   const c = parsed.data;
@@ -207,6 +219,7 @@ export async function saveContext(_prev: InputFormState, form: FormData): Promis
     "clinical-context-updated",
     detailWords({ ...next.context, betaBlocker: patient.betaBlocker, atrialFibrillation: patient.atrialFibrillation }) ||
       "cleared",
+    access.actor,
   );
   return { ok: "Clinical context saved; the interpretation is recomputed.", stamp };
 }
@@ -215,6 +228,8 @@ export async function saveContext(_prev: InputFormState, form: FormData): Promis
 export async function saveConduct(_prev: InputFormState, form: FormData): Promise<InputFormState> {
   const values = formValues(form);
   const stamp = Date.now();
+  const access = await currentAccess();
+  if (!access) return { errors: { form: SESSION_NEEDED }, values, stamp };
   const parsed = conductSchema.safeParse(values);
   if (!parsed.success) return { errors: fieldErrors(parsed.error), values, stamp };
   const { testId, ...c } = parsed.data;
@@ -232,7 +247,7 @@ export async function saveConduct(_prev: InputFormState, form: FormData): Promis
     apparatusDeadSpaceMl: c.apparatusDeadSpaceMl,
     barometricPressureMmHg: c.barometricPressureMmHg,
   });
-  done(testId, { ...record, conduct }, "test-conduct-updated", Object.keys(conduct).join(", ") || "cleared");
+  done(testId, { ...record, conduct }, "test-conduct-updated", Object.keys(conduct).join(", ") || "cleared", access.actor);
   return { ok: "Test conduct saved.", stamp };
 }
 

@@ -5,11 +5,13 @@ import { recordToken } from "../recordToken";
 import { formatClock } from "@/lib/units";
 import styles from "../columns/columns.module.css";
 import { BloodGasForm, ConductForm, ContextForm, LactateForm, SpirometryForm } from "./InputForms";
+import { pageAccess } from "../../../access";
 
 export const dynamic = "force-dynamic";
 
 export default async function InputsPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
+  await pageAccess(`/tests/${id}/inputs`);
   const testId = Number(id);
   if (!Number.isInteger(testId) || testId <= 0) notFound();
   const test = getTest(testId);

@@ -8,6 +8,7 @@ import { updatePatientDetails } from "@/lib/store/updatePatientDetails";
 import { getTest, renameTest } from "@/lib/store/tests";
 import { fieldErrors, labelSchema, testDetailsSchema, recordId } from "../../../schemas";
 import { changedSince } from "../recordToken";
+import { SESSION_NEEDED, currentAccess } from "../../../access";
 
 export interface PatientFormState {
   ok?: string;
@@ -17,8 +18,6 @@ export interface PatientFormState {
   /** Changes on every answer so the form re-mounts with the answer's values. */
   stamp?: number;
 }
-
-const ACTOR = "local user";
 
 /** Same fields, limits (PLAUSIBLE_LIMITS) and messages as the upload form. */
 const patientSchema = testDetailsSchema
@@ -33,6 +32,8 @@ export async function savePatientDetails(_prev: PatientFormState, form: FormData
   const values: Record<string, string> = {};
   for (const [k, v] of form.entries()) if (typeof v === "string") values[k] = v;
   const stamp = Date.now();
+  const access = await currentAccess();
+  if (!access) return { errors: { form: SESSION_NEEDED }, values, stamp };
   const parsed = patientSchema.safeParse(values);
   if (!parsed.success) return { errors: fieldErrors(parsed.error), values, stamp };
   const d = parsed.data;
@@ -48,7 +49,7 @@ export async function savePatientDetails(_prev: PatientFormState, form: FormData
       ergometer: d.ergometer,
       referral: d.referral,
     },
-    ACTOR,
+    access.actor,
   );
   if (!result.ok) return { errors: { [result.field ?? "form"]: result.message }, values, stamp };
   for (const p of ["", "/patient", "/columns", "/report"]) revalidatePath(`/tests/${d.testId}${p}`);
@@ -78,9 +79,11 @@ const labelFormSchema = z.object({
 /** Rename a test: its label in the register and its report's title (a signed report keeps the title it was signed with). */
 export async function saveLabel(_prev: LabelFormState, form: FormData): Promise<LabelFormState> {
   const value = String(form.get("label") ?? "");
+  const access = await currentAccess();
+  if (!access) return { error: SESSION_NEEDED, value };
   const parsed = labelFormSchema.safeParse({ testId: form.get("testId"), label: value });
   if (!parsed.success) return { error: parsed.error.issues[0].message, value };
-  if (!renameTest(parsed.data.testId, parsed.data.label, ACTOR)) return { error: "This test does not exist.", value };
+  if (!renameTest(parsed.data.testId, parsed.data.label, access.actor)) return { error: "This test does not exist.", value };
   for (const p of ["", "/patient", "/columns", "/inputs", "/report"]) revalidatePath(`/tests/${parsed.data.testId}${p}`);
   revalidatePath("/");
   return { ok: "Label saved. Reports already signed keep the title they were signed with." };
@@ -101,6 +104,8 @@ const copyFormSchema = z.object({
 /** Make an anonymised teaching copy of the test (`makeAnonymisedCopy`) and open it. */
 export async function makeTeachingCopy(_prev: CopyFormState, form: FormData): Promise<CopyFormState> {
   const value = { label: String(form.get("label") ?? ""), keepFreeText: form.get("keepFreeText") === "on" };
+  const access = await currentAccess();
+  if (!access) return { error: SESSION_NEEDED, value };
   const parsed = copyFormSchema.safeParse({
     testId: form.get("testId"),
     label: value.label,
@@ -110,7 +115,7 @@ export async function makeTeachingCopy(_prev: CopyFormState, form: FormData): Pr
   const res = makeAnonymisedCopy(parsed.data.testId, {
     label: parsed.data.label,
     keepFreeText: parsed.data.keepFreeText === "on",
-    actor: ACTOR,
+    actor: access.actor,
   });
   if (!res.ok) return { error: res.reason, value };
   revalidatePath("/");

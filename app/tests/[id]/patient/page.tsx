@@ -8,6 +8,7 @@ import { LabelForm } from "./LabelForm";
 import { CopyForm } from "./CopyForm";
 import { ANONYMISED_COPY_FREE_TEXT, ANONYMISED_COPY_REMOVES } from "@/lib/store/anonymisedCopy";
 import { PatientForm, type PatientFormProps } from "./PatientForm";
+import { pageAccess } from "../../../access";
 
 export const dynamic = "force-dynamic";
 
@@ -16,6 +17,7 @@ const text = (x: number | undefined) => (x === undefined ? "" : String(x));
 /** Correct the patient and test details of a test after import. */
 export default async function PatientPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
+  await pageAccess(`/tests/${id}/patient`);
   const testId = Number(id);
   if (!Number.isInteger(testId) || testId <= 0) notFound();
   const test = getTest(testId);

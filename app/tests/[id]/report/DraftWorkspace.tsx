@@ -6,7 +6,7 @@ import type { SignState } from "./actions";
 import { createPortal } from "react-dom";
 import { DraftEditor, newVersionKey, type EditableSection } from "./DraftEditor";
 import { REPORT_NOTICE_SLOT, toParagraphs } from "./schemas";
-import { SignForm } from "./SignForm";
+import { SignForm, type SignAs } from "./SignForm";
 
 const LEAVE_WARNING = "The report text has changes that are not saved. Leave this page and lose them?";
 /** Two texts are the same when saving either would store the same paragraphs (CRLF, blank lines and edge spaces aside). */
@@ -53,6 +53,8 @@ const pdfOrLeave = (url: URL) => (url.pathname.startsWith("/api/") ? PDF_WARNING
  */
 export function DraftWorkspace(props: {
   testId: number;
+  /** The signed-in account that would sign (absent without log-in: the signer types a name). */
+  signAs?: SignAs;
   reportId: number;
   /** Version number of this report (1-based, per test). */
   version: number;
@@ -231,6 +233,7 @@ export function DraftWorkspace(props: {
               acks={acks}
               dirty={dirty}
               amends={props.amends}
+              signAs={props.signAs}
               onResult={onSignResult}
             />
           </section>

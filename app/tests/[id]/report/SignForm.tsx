@@ -6,6 +6,13 @@ import { toPdfText } from "@/lib/report/pdf/pdfText";
 import { signReportAction, type SignState } from "./actions";
 import { AMENDMENT_REASON_MAX_CHARS, ATTESTATION } from "./schemas";
 
+/** The signed-in account a signature is made with (its display name is the signed name). */
+export interface SignAs {
+  username: string;
+  displayName: string;
+  role: "clinician" | "physiologist";
+}
+
 /**
  * Sign the current draft: the signer's name, an explicit review attestation, and the report text
  * exactly as it is on screen (hidden fields mirroring the editor), which the server saves and signs
@@ -24,6 +31,8 @@ export function SignForm(props: {
   dirty: boolean;
   /** The signed version this draft replaces: the form then asks for the reason for the amendment. */
   amends?: { version: number; words: string };
+  /** Signed in: the name is the account's and is not typed; a physiologist account cannot sign. */
+  signAs?: SignAs;
   onResult: (state: SignState) => void;
 }) {
   const [state, action, pending] = useActionState<SignState, FormData>(signReportAction, {});
@@ -61,24 +70,38 @@ export function SignForm(props: {
           signs that text; nothing else is signed.
         </p>
       ) : null}
-      <label>
-        Signed by (full name)
-        <input
-          name="signer"
-          data-testid="signer"
-          value={signer}
-          onChange={(e) => setSigner(e.target.value)}
-          autoComplete="name"
-        />
-        {errors.signer ? <span className="sev-error">{errors.signer}</span> : null}
-        {signer.trim() !== "" && toPdfText(signer.trim()) !== signer.trim().normalize("NFC") ? (
-          // the PDF's font lacks a few letters and signs and prints a stand-in (ǎ → a, ✓ → yes): said before signing
-          <span className="how" data-testid="signer-pdf-form">
-            In the PDF the name prints as “{toPdfText(signer.trim())}”.
-          </span>
-        ) : null}
-        <span className="how">{SIGNER_NOT_VERIFIED}</span>
-      </label>
+      {props.signAs ? (
+        <p data-testid="sign-as">
+          You sign as <strong>{props.signAs.displayName}</strong> (account &ldquo;{props.signAs.username}&rdquo;,{" "}
+          {props.signAs.role}).
+          <input type="hidden" name="signer" value={props.signAs.displayName} />
+          {props.signAs.role !== "clinician" ? (
+            <span className="sev-warning" data-testid="sign-role-note">
+              {" "}
+              Only a clinician account can sign: save the draft for a clinician to review and sign.
+            </span>
+          ) : null}
+        </p>
+      ) : (
+        <label>
+          Signed by (full name)
+          <input
+            name="signer"
+            data-testid="signer"
+            value={signer}
+            onChange={(e) => setSigner(e.target.value)}
+            autoComplete="name"
+          />
+          {errors.signer ? <span className="sev-error">{errors.signer}</span> : null}
+          {signer.trim() !== "" && toPdfText(signer.trim()) !== signer.trim().normalize("NFC") ? (
+            // the PDF's font lacks a few letters and signs and prints a stand-in (ǎ → a, ✓ → yes): said before signing
+            <span className="how" data-testid="signer-pdf-form">
+              In the PDF the name prints as “{toPdfText(signer.trim())}”.
+            </span>
+          ) : null}
+          <span className="how">{SIGNER_NOT_VERIFIED}</span>
+        </label>
+      )}
       {props.amends ? (
         <label>
           Reason for the amendment (replaces {props.amends.words})
@@ -134,7 +157,11 @@ export function SignForm(props: {
         </span>
       ) : null}
       <div>
-        <button type="submit" disabled={pending} data-testid="sign-submit">
+        <button
+          type="submit"
+          disabled={pending || (props.signAs !== undefined && props.signAs.role !== "clinician")}
+          data-testid="sign-submit"
+        >
           {pending ? "Signing…" : props.dirty ? "Save the text on screen and sign" : "Sign the report"}
         </button>
       </div>

@@ -4,6 +4,7 @@ import { revalidatePath } from "next/cache";
 import { freezeReport } from "./loadReport";
 import { draftFormSchema, readSectionsForm, readSignForm, sectionErrors, toOnScreen } from "./schemas";
 import { saveDraftChecked, signDraft } from "./signDraft";
+import { SESSION_NEEDED, currentAccess } from "../../../access";
 
 export interface DraftState {
   /** The text as the user sent it, so nothing typed is lost when validation fails. */
@@ -21,6 +22,9 @@ export interface DraftState {
 export async function saveDraftAction(_prev: DraftState, form: FormData): Promise<DraftState> {
   const { sections, rechecked } = readSectionsForm(form);
   const texts = Object.fromEntries(sections.map((s) => [s.id, s.text]));
+  // the text stays on screen when the session has ended
+  const access = await currentAccess();
+  if (!access) return { texts, errors: { form: SESSION_NEEDED } };
   const parsed = draftFormSchema.safeParse({
     testId: form.get("testId"),
     reportId: form.get("reportId"),
@@ -38,7 +42,7 @@ export async function saveDraftAction(_prev: DraftState, form: FormData): Promis
     shownStatus: parsed.data.shownStatus,
     sections: toOnScreen(parsed.data.sections),
     rechecked,
-    actor: "local user",
+    actor: access.actor,
   });
   if (!res.ok) return { texts, errors: res.errors };
   revalidatePath(`/tests/${testId}/report`);
@@ -50,6 +54,11 @@ export async function saveDraftAction(_prev: DraftState, form: FormData): Promis
     revision: res.report.revision,
   };
 }
+
+const readSignValues = (form: FormData) => ({
+  signer: String(form.get("signer") ?? ""),
+  amendmentReason: String(form.get("amendmentReason") ?? ""),
+});
 
 export interface SignState {
   values?: { signer?: string; amendmentReason?: string };
@@ -64,7 +73,18 @@ export interface SignState {
  * it): saved and signed in one transaction by `signDraft`.
  */
 export async function signReportAction(_prev: SignState, form: FormData): Promise<SignState> {
-  const values = { signer: String(form.get("signer") ?? ""), amendmentReason: String(form.get("amendmentReason") ?? "") };
+  const access = await currentAccess();
+  if (!access) return { values: readSignValues(form), errors: { form: `Not signed. ${SESSION_NEEDED}` } };
+  // signed in, the signature is the account's display name, whatever the form sends; only a clinician account signs
+  if (access.mode === "account" && access.account.role !== "clinician")
+    return {
+      values: readSignValues(form),
+      errors: {
+        form: `Not signed: the account "${access.account.username}" is a ${access.account.role} account, and only a clinician account can sign. Save the draft for a clinician to sign.`,
+      },
+    };
+  if (access.mode === "account") form.set("signer", access.account.displayName);
+  const values = readSignValues(form);
   const { sections, input, error } = readSignForm(form);
   if (!input) {
     const errors: Record<string, string> = {};
@@ -79,7 +99,11 @@ export async function signReportAction(_prev: SignState, form: FormData): Promis
   }
   // the report as it will read once signed is kept with the signature, so it never changes afterwards
   const kept = freezeReport(input.testId, input.reportId);
-  const res = signDraft(input, kept?.freeze, kept?.label);
+  const res = signDraft(
+    access.mode === "account" ? { ...input, signerAccount: access.account.username } : input,
+    kept?.freeze,
+    kept?.label,
+  );
   if (!res.ok) return { values, errors: res.errors };
   revalidatePath(`/tests/${input.testId}/report`);
   return { signed: true, textSaved: res.textSaved };

@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { EVIDENCE_LABEL } from "@/lib/core";
-import { SIGNER_NOT_VERIFIED } from "@/lib/report/caution";
+import { signerIdentityNote } from "@/lib/report/caution";
 import { EVIDENCE_LEGEND } from "@/lib/report/sources";
 import { notFound } from "next/navigation";
 import { Chart } from "../../../components/Chart";
@@ -13,6 +13,7 @@ import { amendmentWords } from "@/lib/report/amendmentWords";
 import { ReportValuesTable } from "./ReportValuesTable";
 import { REPORT_NOTICE_SLOT } from "./schemas";
 import { formatUtcMinute } from "@/lib/units";
+import { pageAccess } from "../../../access";
 
 export const dynamic = "force-dynamic";
 
@@ -20,6 +21,7 @@ const when = (iso: string | null | undefined) => (iso ? formatUtcMinute(iso) : "
 
 export default async function ReportPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
+  const access = await pageAccess(`/tests/${id}/report`);
   const testId = Number(id);
   if (!Number.isInteger(testId) || testId <= 0) notFound();
   const loaded = loadReport(testId);
@@ -173,6 +175,15 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
         revision={report.revision}
         signed={signed}
         amends={amends}
+        {...(access.mode === "account"
+          ? {
+              signAs: {
+                username: access.account.username,
+                displayName: access.account.displayName,
+                role: access.account.role,
+              },
+            }
+          : {})}
         sections={model.sections.map((s) => ({
           id: s.id,
           title: s.title,
@@ -186,8 +197,8 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
           <p data-testid="signature">
             Signed by {model.signedBy} on {when(model.signedAt)}. <span className="how">{report.attestation}</span>
           </p>
-          <p className="how" data-testid="signer-not-verified">
-            {SIGNER_NOT_VERIFIED}
+          <p className="how" data-testid="signer-identity">
+            {signerIdentityNote(report.signerAccount)}
           </p>
         </>
       ) : null}

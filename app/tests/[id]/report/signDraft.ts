@@ -158,6 +158,8 @@ export interface SignDraftInput {
    * ignored otherwise.
    */
   amendmentReason?: string;
+  /** The account the signer is signed in with (its display name is `signer`); absent when the app runs without log-in. */
+  signerAccount?: string;
 }
 
 export type SignDraftResult =
@@ -254,10 +256,10 @@ export function signDraft(
             ". Leave them out or write them in one of those scripts; your text is still on screen.",
         });
       const textSaved = !sameText(current.sections, sections);
-      if (textSaved && !saveDraft(current.id, sections, input.signer))
+      if (textSaved && !saveDraft(current.id, sections, input.signerAccount ?? input.signer))
         throw new Refusal({ form: "This report version does not exist; reload the page." });
       const amendment = earlierSigned ? { revisesVersion: earlierSigned.version, reason } : undefined;
-      const signed = signReport(current.id, input.signer, input.attestation, freeze, amendment);
+      const signed = signReport(current.id, input.signer, input.attestation, freeze, amendment, input.signerAccount);
       if (!signed.ok) throw new Refusal({ form: signed.reason });
       return { ok: true, report: signed.report, textSaved };
     })();

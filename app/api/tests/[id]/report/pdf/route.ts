@@ -2,6 +2,7 @@ import { z } from "zod";
 import { renderReportPdf } from "@/lib/report/pdf/renderReportPdf";
 import { loadReport } from "@/app/tests/[id]/report/loadReport";
 import { recordId } from "../../../../../schemas";
+import { routeAccess } from "@/app/access";
 
 export const dynamic = "force-dynamic";
 
@@ -10,6 +11,8 @@ const querySchema = z.object({ report: recordId("report version").optional() });
 
 /** The report of a test as PDF: the current version, or `?report=<id>` for a given version. */
 export async function GET(request: Request, { params }: { params: Promise<{ id: string }> }) {
+  const access = await routeAccess();
+  if (access instanceof Response) return access;
   const p = paramsSchema.safeParse(await params);
   const q = querySchema.safeParse(Object.fromEntries(new URL(request.url).searchParams));
   if (!p.success || !q.success) return Response.json({ error: "Invalid test or report id" }, { status: 400 });

@@ -1,0 +1,52 @@
+import "server-only";
+import { cookies } from "next/headers";
+import { redirect } from "next/navigation";
+import { accountsEnabled, sessionAccount, type Account } from "@/lib/store/accounts";
+
+/** The session cookie (httpOnly; its value is a random token whose SHA-256 is kept in `sessions`). */
+export const SESSION_COOKIE = "cpet_session";
+
+/**
+ * Who is acting. `open`: the installation has no enabled account, so whoever reaches it acts as "local user" and a
+ * signature carries a typed name. `account`: signed in; the user name is written to the audit trail.
+ */
+export type Access = { mode: "open"; actor: string } | { mode: "account"; actor: string; account: Account };
+
+/** Words for a request that needs a session and has none (pages redirect instead). */
+export const SESSION_NEEDED =
+  "Your session has ended or you are not signed in. Nothing was saved: keep this page open, sign in again in another tab, then repeat the step here.";
+
+/** The access of this request, or null when log-in is required and there is no valid session. */
+export async function currentAccess(): Promise<Access | null> {
+  // the cookie is read first: it marks the render as per-request, so a build never opens the database here
+  const token = (await cookies()).get(SESSION_COOKIE)?.value;
+  if (!accountsEnabled()) return { mode: "open", actor: "local user" };
+  const account = sessionAccount(token);
+  return account ? { mode: "account", actor: account.username, account } : null;
+}
+
+/** A path inside the app to come back to after signing in (anything else goes to the register). */
+export function safeNext(next: unknown): string {
+  return typeof next === "string" && next.startsWith("/") && !next.startsWith("//") && !next.startsWith("/\\") ? next : "/";
+}
+
+/** For a page: its access, or a redirect to the log-in page, which brings the user back to `path`. */
+export async function pageAccess(path: string): Promise<Access> {
+  const access = await currentAccess();
+  if (!access) redirect(`/login?next=${encodeURIComponent(safeNext(path))}`);
+  return access;
+}
+
+/**
+ * For a form that has nothing typed to lose: its access, or a redirect to the log-in page. Forms that carry typed text
+ * (the report) call `currentAccess` and answer `SESSION_NEEDED` instead, keeping the text on screen.
+ */
+export async function actionAccess(backTo = "/"): Promise<Access> {
+  return pageAccess(backTo);
+}
+
+/** For a download or API route: its access, or a 401 response to send. */
+export async function routeAccess(): Promise<Access | Response> {
+  const access = await currentAccess();
+  return access ?? new Response("Sign in to cpet-desk first.", { status: 401, headers: { "content-type": "text/plain" } });
+}

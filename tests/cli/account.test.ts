@@ -1,0 +1,46 @@
+/**
+ * `cpet account` run as a user runs it (node bin/cpet.mjs, a temporary database): the password comes from stdin, a bad
+ * role or short password is a usage error (exit 2), the first account says log-in is now required, and list --json
+ * shows the accounts without any password hash. Account names and passwords are INVENTED.
+ */
+import { spawnSync } from "node:child_process";
+import fs from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { afterAll, describe, expect, it } from "vitest";
+
+const bin = path.join(__dirname, "..", "..", "bin", "cpet.mjs");
+const dir = fs.mkdtempSync(path.join(os.tmpdir(), "cpet-account-cli-"));
+const db = path.join(dir, "accounts.sqlite");
+const cpet = (args: string[], input = "") =>
+  spawnSync(process.execPath, [bin, "account", "--db", db, ...args], { encoding: "utf8", input, timeout: 60_000 });
+
+afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));
+
+describe("cpet account", () => {
+  it("makes, lists, disables and enables accounts; refuses bad input with exit status 2", () => {
+    const bad = cpet(["add", "jdoe", "--name", "Dr J Doe (invented)", "--role", "nurse"], "correct horse battery\n");
+    expect(bad.status).toBe(2);
+    expect(bad.stderr).toContain("--role must be clinician or physiologist");
+    const short = cpet(["add", "jdoe", "--name", "Dr J Doe (invented)", "--role", "clinician"], "short\n");
+    expect(short.status).toBe(2);
+    expect(short.stderr).toContain("at least 10 characters");
+
+    const made = cpet(["add", "jdoe", "--name", "Dr J Doe (invented)", "--role", "clinician"], "correct horse battery\n");
+    expect(made.status).toBe(0);
+    expect(made.stdout).toContain('account "jdoe" made (Dr J Doe (invented), clinician)');
+    expect(made.stdout).toContain("from now on the app asks everyone to sign in");
+
+    const list = cpet(["list", "--json"]);
+    expect(list.status).toBe(0);
+    const accounts = JSON.parse(list.stdout);
+    expect(accounts).toEqual([expect.objectContaining({ username: "jdoe", role: "clinician", disabled: false })]);
+    expect(list.stdout).not.toMatch(/scrypt|password/i);
+
+    const off = cpet(["disable", "jdoe"]);
+    expect(off.stdout).toContain("no longer asks anyone to sign in");
+    expect(JSON.parse(cpet(["list", "--json"]).stdout)[0].disabled).toBe(true);
+    expect(cpet(["enable", "jdoe"]).status).toBe(0);
+    expect(cpet(["disable", "nobody"]).status).toBe(2);
+  });
+});
