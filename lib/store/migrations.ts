@@ -141,4 +141,20 @@ export const MIGRATIONS: { id: number; name: string; sql: string }[] = [
       );
     `,
   },
+  {
+    id: 7,
+    name: "append_only_audit",
+    // The audit trail is written once and kept: the database itself refuses to change or delete an entry, as it does
+    // for a signed report (a file copied elsewhere can still be edited with other tools; this guards the app's own use).
+    sql: `
+      create trigger audit_no_update before update on audit
+      begin
+        select raise(abort, 'the audit trail is append-only');
+      end;
+      create trigger audit_no_delete before delete on audit
+      begin
+        select raise(abort, 'the audit trail is append-only');
+      end;
+    `,
+  },
 ];

@@ -67,6 +67,9 @@ describe("report drafts and signatures (SQLite in memory)", () => {
     expect(again.ok).toBe(false);
     // The database itself refuses to change or delete a signed version (migration 2 triggers).
     expect(() => getDb().prepare("update reports set draft_json = '{}' where id = ?").run(draft.id)).toThrow(/immutable/);
+    // nor an entry of the audit trail (migration 7)
+    expect(() => getDb().prepare("delete from audit").run()).toThrow(/append-only/);
+    expect(() => getDb().prepare("update audit set actor = 'someone else'").run()).toThrow(/append-only/);
     expect(() => getDb().prepare("delete from reports where id = ?").run(draft.id)).toThrow(/cannot be deleted/);
     expect(getReport(draft.id)!.signedBy).toBe("Dr A Example");
     expect(listAudit(testId).find((e) => e.action === "report-signed")?.actor).toBe("Dr A Example");
