@@ -193,6 +193,13 @@ export function applySchemes(
     if (s.kind === "graph") {
       const path = runGraph(s.graph!, ctx);
       for (const st of path.steps) for (const c of st.checks) uses.push(...c.choicesUsed);
+      const conflicts = path.steps.filter((st) => st.conflict);
+      for (const st of conflicts)
+        issues.push(
+          makeIssue("warning", "scheme-criteria-conflict", `${s.name}, ${st.title}: ${st.conflict}.`, {
+            field: `${s.id}.${st.nodeId}`,
+          }),
+        );
       const maxSeverity = Math.max(
         0,
         ...s.graph!.nodes.flatMap((n) => [...n.cases, n.otherwise, n.unknown]).map((b) => b.end?.severity ?? 0),
@@ -207,7 +214,7 @@ export function applySchemes(
         path,
         overall: path.end ? { ...path.end, basis: "end of the algorithm" } : null,
         overallText: path.end
-          ? `${path.end.label} (end of the algorithm)`
+          ? `${path.end.label} (end of the algorithm)${conflicts.length ? `; criteria conflict at ${conflicts.map((st) => st.title).join(", ")}: reviewer decision required` : ""}`
           : "No overall result: the algorithm could not be followed to its end with the data given",
         maxSeverity,
         notes: s.notes ?? [],

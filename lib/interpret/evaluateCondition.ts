@@ -3,7 +3,7 @@ import type { InterpretationData } from "./interpretationData";
 import type { ChoiceOptionSchema, Condition } from "./schema";
 import type { ChoiceUse, ComparisonTrace, OneSidedReading, Outcome, PredictedEquationLabels, RuleResult } from "./types";
 import { variableInfo } from "./variables";
-import { OP_TEXT, categoryText, formatCutoff, formatValue, nearCutoffNote, unique, weakestStatus } from "./format";
+import { OP_TEXT, categoryText, formatCutoff, formatValue, nearCutoffNote, snapToCutoff, unique, weakestStatus } from "./format";
 import type { z } from "zod";
 
 export type VarValue = number | string | boolean | null;
@@ -59,7 +59,8 @@ function chosen(ctx: EvalContext, choiceId: string, uses: ChoiceUse[]): ChoiceOp
 
 const NEGATED: Record<string, string> = { "<": ">=", "<=": ">", ">": "<=", ">=": "<", "==": "!=", "!=": "==", in: "not in" };
 
-function compare(value: VarValue, op: string, cutoff: number | string | boolean | readonly string[]): boolean {
+function compare(raw: VarValue, op: string, cutoff: number | string | boolean | readonly string[]): boolean {
+  const value = typeof raw === "number" && typeof cutoff === "number" ? snapToCutoff(raw, cutoff) : raw;
   switch (op) {
     case "<":
       return (value as number) < (cutoff as number);

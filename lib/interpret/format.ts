@@ -32,13 +32,22 @@ export function formatValue(variable: string, value: number | string | boolean |
 }
 
 /**
+ * A computed value that differs from a cut-off only by floating-point rounding (57 × 10/19 = 30.000000000000004 for an
+ * exact 30) is the cut-off: relative difference ≤ 1e-9, far below any measurement's precision (common practice).
+ */
+export function snapToCutoff(value: number, cutoff: number): number {
+  return Math.abs(value - cutoff) <= 1e-9 * Math.max(1, Math.abs(cutoff)) ? cutoff : value;
+}
+
+/**
  * Which side of a cut-off a value lies on when the value at its display decimals does not show it. Values beside a
  * cut-off keep the variable's display decimals like everywhere else (more would be spurious precision: a
  * breath-by-breath "4.01" is not known to the hundredth), and the side is said in words (common practice):
  * " (just above the cut-off)" for 4.01 against 4 (shown "4.0"), " (just below the cut-off)" for 1.046 against 1.05
  * (shown "1.05"); "" when the rounded value already reads on its own side, or equals the cut-off.
  */
-export function nearCutoffNote(variable: string, value: number, cutoff: number): string {
+export function nearCutoffNote(variable: string, computed: number, cutoff: number): string {
+  const value = snapToCutoff(computed, cutoff);
   if (!Number.isFinite(value) || value === cutoff) return "";
   const shown = Number(value.toFixed(variableInfo(variable).decimals ?? 0));
   if (value > cutoff && !(shown > cutoff)) return " (just above the cut-off)";

@@ -6,7 +6,7 @@ import type { PathResult, PathStep } from "./types";
 /**
  * Walk a data-defined decision graph (the interpretation flow, or a graph scheme such as the
  * lung-resection algorithm). At each node the node's check rules are evaluated and shown; the first
- * case whose condition is true is taken; if none is true the `unknown` branch is taken when some input
+ * case whose condition is true is taken (when cases of other outcomes hold too, the step's `conflict` says so); if none is true the `unknown` branch is taken when some input
  * was missing, else `otherwise`. A branch with neither `next` nor `end` stops the walk (not assessable).
  * The graph is acyclic (checked at load), so the walk ends.
  */
@@ -19,6 +19,14 @@ export function runGraph(graph: GraphData, ctx: EvalContext): PathResult {
     const node: NodeData = nodes.get(id)!;
     const checks = node.checks.map((c) => evaluateRule(c, ctx));
     const taken = branchTaken(node, ctx);
+    // criteria of branches with other outcomes that hold too (e.g. < 10 mL/kg/min and > 75 % predicted): the first
+    // listed case is taken (the data lists the cautious one first) and the step says so, for a reviewer to decide
+    const alsoTrue = node.cases.filter(
+      (c) => c !== taken && c.outcome !== taken.outcome && evaluateCondition(c.when, ctx).outcome === true,
+    );
+    const conflict = alsoTrue.length
+      ? `the criteria of ${unique(alsoTrue.map((c) => `"${c.finding}"`)).join(" and ")} hold too; "${taken.finding}", listed first, is taken: a reviewer decides`
+      : "";
     const checkText = checks.map((c) => c.text).join("; ");
     // where an end of a measurement's uncertainty band takes another branch here, say so (as schemes and the effort
     // verdict do); the walk goes on along the value's branch
@@ -30,7 +38,8 @@ export function runGraph(graph: GraphData, ctx: EvalContext): PathResult {
       if (other.length > 0) parts.push(`the ${end.words} reaches ${unique(other).join(" and ")}`);
     }
     const borderline = parts.join("; ");
-    const line = checkText ? `${checkText} ⇒ ${taken.finding}` : taken.finding;
+    const base = checkText ? `${checkText} ⇒ ${taken.finding}` : taken.finding;
+    const line = conflict ? `${base} (conflicting criteria: ${conflict})` : base;
     steps.push({
       nodeId: node.id,
       title: node.title,
@@ -39,6 +48,7 @@ export function runGraph(graph: GraphData, ctx: EvalContext): PathResult {
       finding: taken.finding,
       text: borderline ? `${line} (borderline: ${borderline})` : line,
       ...(borderline ? { borderline } : {}),
+      ...(conflict ? { conflict } : {}),
       sourceIds: unique([...node.sourceIds, ...checks.flatMap((c) => c.sourceIds)]),
       status: weakestStatus([node.status]),
       next: taken.next ?? null,

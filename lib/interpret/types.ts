@@ -293,6 +293,8 @@ export interface PathStep {
    * in words ("the VT1 band 731–902 mL/min reaches \"AT reduced\""); absent when none does.
    */
   borderline?: string;
+  /** Where cases of other outcomes also hold at this step (criteria in conflict), in words; the first case is taken. */
+  conflict?: string;
   sourceIds: string[];
   status: EvidenceStatus;
   next: string | null;

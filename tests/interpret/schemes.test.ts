@@ -324,6 +324,37 @@ describe("Lung resection, ERS/ESTS 2009 (Brunelli et al., Eur Respir J 34:17-41;
       "lr-ppo:both-over-30",
     );
   });
+  it("conflicting peak-VO2 criteria (< 10 mL/kg/min and > 75 % predicted, as in obesity) end at high risk and say they conflict", () => {
+    // INVENTED: 9.9 mL/kg/min and 86 % predicted (the review's case); either high-risk criterion alone marks high risk
+    // (Brunelli et al. 2009, secondary)
+    const r = end({ fev1PctPred: 60, dlcoPctPred: 60, peakVo2MlKgMin: 9.9, peakVo2PctPred: 86 });
+    expect(r.key).toBe("not-advised");
+    const step = r.s.path!.steps.find((st) => st.nodeId === "lr-cpet")!;
+    expect(step.conflict).toBe(
+      'the criteria of "capacity adequate" hold too; "high risk", listed first, is taken: a reviewer decides',
+    );
+    expect(r.s.overallText).toContain("criteria conflict at Peak VO2: reviewer decision required");
+    const accp = end(
+      { resectedSegments: 0, fev1PctPred: 29.99, dlcoPctPred: 60, peakVo2MlKgMin: 9, peakVo2PctPred: 80 },
+      { "lung-resection-algorithm": "accp-2013" },
+    );
+    expect(accp.key).toBe("high-risk");
+    expect(accp.s.path!.steps.at(-1)!.conflict).toContain('"low risk" hold too');
+    // no conflict without one
+    expect(
+      end({ fev1PctPred: 60, dlcoPctPred: 60, peakVo2MlKgMin: 9.9, peakVo2PctPred: 50 }).s.path!.steps[1].conflict,
+    ).toBeUndefined();
+  });
+  it("a ppo value equal to the cut-off up to floating-point rounding is the cut-off: 57 % × 10/19 = 30 % goes on to ppo peak VO2", () => {
+    // INVENTED: FEV1 57 %, 9 of 19 segments → ppoFEV1 = 57 × 10/19 = 30 exactly (30.000000000000004 in floating point)
+    const r = end({ fev1PctPred: 57, dlcoPctPred: 80, resectedSegments: 9, peakVo2MlKgMin: 15, peakVo2PctPred: 55 });
+    expect(57 * (1 - 9 / 19)).not.toBe(30);
+    expect(r.path).toContain("lr-ppo:low");
+    // ppo peak VO2 = 15 × 10/19 = 7.9 mL/kg/min < 10 → high risk (it had ended at "up to the calculated extent")
+    expect(r.path.at(-1)).toBe("lr-ppo-vo2:low");
+    expect(r.key).toBe("not-advised");
+    expect(r.s.path!.steps[2].text).not.toContain("just above");
+  });
   it("ACCP 2013 alternative", () => {
     const ch = { "lung-resection-algorithm": "accp-2013" };
     const seg0 = { resectedSegments: 0 };
