@@ -95,7 +95,9 @@ export function assessWeightBasis(
   if (out.changesConclusion) {
     out.issues.push(
       makeIssue(
-        "info",
+        // a warning, not a note: the reading of peak VO2 turns on it (per-kg equations such as FRIEND read higher on
+        // actual weight in obesity; FRIEND 2017 abstract: marked differences in % predicted among overweight and obese)
+        "warning",
         "weight-basis-changes-conclusion",
         `Peak VO2 reads as ${out.actual.reduced ? "reduced" : "not reduced"} on actual weight but ${out.ideal.reduced ? "reduced" : "not reduced"} on predicted (ideal) weight (${out.criterion}); state the basis used.`,
         { field: "weightKg" },

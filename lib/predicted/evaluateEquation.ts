@@ -54,6 +54,12 @@ export interface PredictedValue {
   provenance: Provenance;
 }
 
+/**
+ * Lowest predicted peak VO2 kept: twice resting VO2, 2 × 3.5 mL/kg/min (1 MET = 3.5 mL/kg/min: Jetté M, Sidney K,
+ * Blümchen G, Clin Cardiol 1990;13:555-565, recalled; "twice rest" as the floor is this product's choice).
+ */
+export const PEAK_VO2_FLOOR_ML_KG_MIN = 7;
+
 const INPUT_LABEL: Record<PredictorInput, string> = {
   sex: "sex",
   ageY: "age",
@@ -293,6 +299,25 @@ function evaluateInternal(
     return { ...base, value: null, reason: message, issues: uniqueIssues(issues), provenance: provenance() };
   }
 
+  // a predicted PEAK below twice resting VO2 is no longer a prediction of the population the equation was fitted on (a
+  // per-kg weight term taken far beyond its cohort gives such values in severe obesity: FRIEND 2018 at 140 kg predicts
+  // 2 mL/kg/min): withheld, so no % predicted is read from it
+  const perKg =
+    eq.quantity === "vo2PeakMlKgMin"
+      ? value
+      : eq.quantity === "vo2PeakMlMin" && inputs.patient.weightKg
+        ? value / inputs.patient.weightKg
+        : null;
+  if (eq.kind === "predicted-normal" && perKg !== null && perKg < PEAK_VO2_FLOOR_ML_KG_MIN) {
+    const reason =
+      `${eq.label} predicts a peak VO2 of ${perKg.toFixed(1)} mL/kg/min for this patient, below twice resting VO2 ` +
+      `(${PEAK_VO2_FLOOR_ML_KG_MIN} mL/kg/min): outside the range the equation was fitted on` +
+      `${eq.predictors.some((p) => p.from === "weightKg") ? " (its weight term, far beyond the cohort's weights)" : ""}; ` +
+      `no % predicted is read from it. Choose an equation with a rule for body weight, or read peak VO2 against predicted weight.`;
+    issues.push(makeIssue("warning", "equation-outside-its-range", reason, { field: "weightKg" }));
+    return { ...base, value: null, reason, issues: uniqueIssues(issues), provenance: provenance() };
+  }
+
   const out: PredictedValue = { ...base, value, issues: [], provenance: provenance() };
   const abnormalHigh = PREDICTED_QUANTITIES[eq.quantity].abnormalWhen === "high";
   let limit: number | undefined;
@@ -308,6 +333,19 @@ function evaluateInternal(
     } catch (e) {
       if (!(e instanceof FormError)) throw e;
     }
+  }
+  // a lower limit of peak VO2 below resting VO2 (1 MET) separates nothing: not given
+  const perKgLimit = limit === undefined || perKg === null ? null : (limit * perKg) / value;
+  if (perKgLimit !== null && !abnormalHigh && perKgLimit < PEAK_VO2_FLOOR_ML_KG_MIN / 2) {
+    issues.push(
+      makeIssue(
+        "info",
+        "lln-below-rest",
+        `${eq.label}: its lower limit of normal for this patient (${perKgLimit.toFixed(1)} mL/kg/min) lies below resting VO2 (${PEAK_VO2_FLOOR_ML_KG_MIN / 2} mL/kg/min), so it is not given; read % predicted.`,
+        { field: "weightKg" },
+      ),
+    );
+    limit = undefined;
   }
   if (limit !== undefined) {
     if (abnormalHigh) out.uln = limit;
