@@ -89,7 +89,7 @@ export const VARIABLES = {
   veVco2AtVt1: { label: "VE/VCO2 at VT1", unit: "", kind: "number", decimals: 1 },
   petco2RestMmHg: { label: "Resting PETCO2", unit: "mmHg", kind: "number", decimals: 1 },
   // highest exercise PETCO2 minus the resting mean (lib/thresholds/measurePeaks.ts), the "rise during exercise" of the sheets
-  petco2RiseMmHg: { label: "PETCO2 rise during exercise (highest minus rest)", unit: "mmHg", kind: "number", decimals: 1 },
+  petco2RiseMmHg: { label: "PETCO2 rise from rest to VT1", unit: "mmHg", kind: "number", decimals: 1 },
   oues: { label: "OUES", unit: "mL/min per log10(L/min)", kind: "number" },
   eovPresent: { label: "Exercise oscillatory ventilation", unit: "", kind: "boolean" },
   // ventilation

@@ -287,22 +287,29 @@ export function measurePeaks(test: ConditionedTest, options: MeasurePeaksOptions
     ? measured(restPetco2, "mmHg", restProv)
     : notDetermined("mmHg", restProv, rest ? "no PETCO2 at rest" : "no rest phase marked");
   const petco2Peak = peakOf("petco2MmHg", "mmHg", "PETCO2");
-  const riseProv = provenanceOf(
-    "petco2-rise",
-    "PETCO2 rise: highest exercise window minus resting mean",
-    ["implementation-choice", "guazzi-2012-petco2"],
-    {
-      inputs: { restMmHg: petco2Rest.value, peakMmHg: petco2Peak.m.value },
-    },
-  );
-  const petco2Rise =
-    petco2Rest.value !== null && petco2Peak.m.value !== null
-      ? measured(petco2Peak.m.value - petco2Rest.value, "mmHg", riseProv)
-      : notDetermined("mmHg", riseProv, petco2Rest.reason ?? petco2Peak.m.reason ?? "not determinable");
   const vt1Prov = provenanceOf("at-vt1", "PETCO2 at VT1", ["common-practice"]);
   const petco2AtVt1 = options.vt1
     ? readAtTime(test, "petco2MmHg", options.vt1.timeS, "mmHg")
     : notDetermined("mmHg", vt1Prov, "VT1 not given");
+  // the rise that grades heart failure is from rest to the anaerobic threshold (3-8 mmHg normally; Guazzi et al.,
+  // Circulation 2012, recalled): the highest exercise window is not it, since PETCO2 can peak late or on a noisy window
+  // (review: the heart-failure demo rose 0.4 mmHg to VT1 but 8.4 mmHg to its highest window)
+  const riseProv = provenanceOf(
+    "petco2-rise",
+    "PETCO2 rise: PETCO2 at VT1 minus resting mean",
+    ["implementation-choice", "guazzi-2012-petco2"],
+    {
+      inputs: { restMmHg: petco2Rest.value, atVt1MmHg: petco2AtVt1.value },
+    },
+  );
+  const petco2Rise =
+    petco2Rest.value !== null && petco2AtVt1.value !== null
+      ? measured(petco2AtVt1.value - petco2Rest.value, "mmHg", riseProv)
+      : notDetermined(
+          "mmHg",
+          riseProv,
+          petco2Rest.reason ?? (options.vt1 ? (petco2AtVt1.reason ?? "no PETCO2 at VT1") : "VT1 not determined"),
+        );
 
   const durProv = (label: string) => provenanceOf("duration", label, ["common-practice"]);
   // a stage row stands for a whole stage: the first stage's length is counted too (rows equally spaced; whether a stage

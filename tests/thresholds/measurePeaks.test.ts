@@ -43,9 +43,13 @@ describe("measurePeaks on an invented ramp", () => {
     // best window [465, 495] centred on the tent's top: mean |t − 480| = 2·(15+12+9+6+3)/11 = 90/11
     // → 42 − 0.02·90/11 = 41.836363...
     expect(p.petco2PeakMmHg.value).toBeCloseTo(42 - (0.02 * 90) / 11, 9);
-    expect(p.petco2RiseMmHg.value).toBeCloseTo(42 - (0.02 * 90) / 11 - 36, 9);
     // at VT1 (420 s), centred 30-s window [405, 435]: symmetric on the rising limb → 42 − 0.02·60 = 40.8
     expect(p.petco2AtVt1MmHg.value).toBeCloseTo(40.8, 9);
+    // the rise is from rest to VT1 (Guazzi et al. 2012, recalled), not to the highest window: 40.8 − 36 = 4.8
+    expect(p.petco2RiseMmHg.value).toBeCloseTo(40.8 - 36, 9);
+    expect(p.petco2RiseMmHg.provenance.label).toBe("PETCO2 rise: PETCO2 at VT1 minus resting mean");
+    // without VT1 there is no rise to read
+    expect(measurePeaks(test, {}).petco2RiseMmHg).toMatchObject({ value: null, reason: "VT1 not determined" });
   });
 
   it("lowest SpO2 and durations", () => {

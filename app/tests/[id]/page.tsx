@@ -459,11 +459,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
               label="Highest PETCO2 during exercise"
               m={pk.petco2PeakMmHg}
               d={1}
-              extra={
-                pk.petco2RiseMmHg.value !== null
-                  ? `highest exercise value minus rest ${fmt(pk.petco2RiseMmHg, 1)} mmHg`
-                  : undefined
-              }
+              extra={pk.petco2RiseMmHg.value !== null ? `rise from rest to VT1 ${fmt(pk.petco2RiseMmHg, 1)} mmHg` : undefined}
             />
             {ix.eov.definitions.map((d) => (
               <tr key={d.id}>
