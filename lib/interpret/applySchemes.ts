@@ -53,10 +53,27 @@ function evaluateAxis(
     return { ...base, category: null, text: `${axis.label}: ${reason}`, reason };
   }
   const tried: string[] = [];
-  for (const b of bands) {
+  for (const [i, b] of bands.entries()) {
     const r = evaluateCondition(b.when, ctx);
     uses.push(...r.choicesUsed);
     if (r.outcome === null) {
+      // a worse band that cannot be decided (an input not recorded) above a milder band that holds whatever it is: the
+      // milder band is a floor ("at least intermediate; high not excluded"), not "not assessable"
+      const floor = floorBelow(bands.slice(i + 1), b, ctx);
+      if (floor) {
+        const words = `at least ${lowerFirst(floor.label)}; ${lowerFirst(b.label)} not excluded (${r.text})`;
+        issues.push(
+          makeIssue("warning", "scheme-category-floor", `${axis.label}: ${words}.`, { field: `${schemeId}.${axis.id}` }),
+        );
+        return {
+          ...base,
+          sourceIds: unique([...axis.sourceIds, ...floor.sourceIds]),
+          status: weakestStatus([axis.status, floor.status]),
+          category: { key: floor.key, label: `At least ${lowerFirst(floor.label)}`, severity: floor.severity },
+          text: `${axis.label}: ${words}`,
+          atLeast: true,
+        };
+      }
       const reason = `not assessable (${r.text})`;
       return { ...base, category: null, text: `${axis.label}: ${reason}`, reason };
     }
@@ -83,6 +100,19 @@ function evaluateAxis(
   issues.push(makeIssue("warning", "value-between-bands", `${axis.label}: ${reason}.`, { field: `${schemeId}.${axis.id}` }));
   return { ...base, category: null, text: `${axis.label}: ${reason}`, reason };
 }
+
+/** The first of the later bands that holds for sure and is milder than the undecided band, or null. */
+function floorBelow(later: BandData[], undecided: BandData, ctx: EvalContext): BandData | null {
+  for (const l of later) {
+    const o = evaluateCondition(l.when, ctx).outcome;
+    // a floor at the mildest band says nothing ("at least low risk"): then the axis stays not assessable
+    if (o === true) return l.severity < undecided.severity && l.severity > Math.min(...later.map((x) => x.severity)) ? l : null;
+    if (o === null) return null;
+  }
+  return null;
+}
+
+const lowerFirst = (t: string) => t.charAt(0).toLowerCase() + t.slice(1);
 
 /** The first band whose condition holds in this context, or null (not assessable, or between bands). */
 function categoryWith(bands: BandData[], alt: EvalContext): BandData | null {
@@ -169,7 +199,8 @@ function bandEndWords(ctx: EvalContext, end: NonNullable<EvalContext["bandEnds"]
 function noCategoryReason(mode: string, axes: readonly SchemeAxisResult[]): string {
   const a = mode.startsWith("axis:") ? axes.find((x) => `axis:${x.axisId}` === mode) : undefined;
   if (a) return `${a.label}: ${a.reason ?? "not graded"}`;
-  return "none of the graded variables could be placed in a band";
+  const why = axes.filter((x) => x.inCombination && !x.category && x.reason).map((x) => `${x.label}: ${x.reason}`);
+  return `none of the graded variables could be placed in a band${why.length ? ` (${why.join("; ")})` : ""}`;
 }
 
 /** The overall line of a scheme that grades each variable on its own and publishes no combined category. */

@@ -367,6 +367,11 @@ export interface SchemeAxisResult {
   bandReaches?: string;
   /** Severities of the other categories an end of an uncertainty band falls in (absent when none). */
   bandReachesSeverities?: number[];
+  /**
+   * The category is a floor: a worse band could not be decided (an input not recorded) and this milder one holds
+   * whatever that input is ("at least intermediate").
+   */
+  atLeast?: boolean;
 }
 
 export interface SchemeResult {

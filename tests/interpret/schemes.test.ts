@@ -223,8 +223,24 @@ describe("Pre-operative three-tier scheme (Authorea preprint, authors not record
   ] as [V, string][])("%o → %s", (v, k) => {
     expect(axis("preop-three-tier", "tier", v)).toBe(k);
   });
-  it("missing ischaemic-heart-disease status makes a low-AT-only case not assessable rather than low risk", () => {
+  it("missing ischaemic-heart-disease status makes a low-AT-only case not assessable rather than low risk, and says why", () => {
     expect(axis("preop-three-tier", "tier", { vt1Vo2MlKgMin: 12, veVco2AtVt1: 30 })).toBeNull();
+    const { s } = run("preop-three-tier", { vt1Vo2MlKgMin: 11, veVco2AtVt1: 34 });
+    expect(s.overallText).toMatch(/could be placed in a band \(.*Ischaemic heart disease not available/i);
+  });
+  it("with ischaemic heart disease not recorded, AT 8-10.9 is at least intermediate risk (high not excluded), not 'no category'", () => {
+    // INVENTED: AT 8.0 mL/kg/min, VE/VCO2 at AT 30: one risk factor for sure, the second (IHD) unknown
+    const { r, s } = run("preop-three-tier", { vt1Vo2MlKgMin: 8, veVco2AtVt1: 30 });
+    const tier = s.axes[0];
+    expect(tier.category?.key).toBe("intermediate");
+    expect(tier.atLeast).toBe(true);
+    expect(tier.text).toMatch(
+      /at least intermediate risk .*; high risk .* not excluded \(.*Ischaemic heart disease not available/i,
+    );
+    expect(s.overall?.label).toMatch(/^At least intermediate risk/);
+    expect(r.issues.map((i) => i.code)).toContain("scheme-category-floor");
+    // with IHD recorded the category is exact again
+    expect(axis("preop-three-tier", "tier", { vt1Vo2MlKgMin: 8, veVco2AtVt1: 30, ischaemicHeartDisease: true })).toBe("high");
   });
 });
 
