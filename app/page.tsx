@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { ensureDemoData } from "@/lib/store/seedDemo";
 import { listTests } from "@/lib/store/tests";
+import { reportStandings, standingWords } from "@/lib/store/reports";
 import { TableScroll } from "./components/TableScroll";
 import { UploadForm } from "./components/UploadForm";
 import { pageAccess } from "./access";
@@ -11,6 +12,7 @@ export default async function RegisterPage() {
   await pageAccess("/");
   await ensureDemoData();
   const tests = listTests();
+  const standings = reportStandings();
   return (
     <>
       <h1>Test register</h1>
@@ -32,6 +34,7 @@ export default async function RegisterPage() {
                 <th>Label</th>
                 <th>File</th>
                 <th>State</th>
+                <th>Report</th>
                 <th>Imported</th>
               </tr>
             </thead>
@@ -43,6 +46,13 @@ export default async function RegisterPage() {
                   </td>
                   <td>{t.fileName ?? <span className="how">none kept</span>}</td>
                   <td>{t.status === "imported" ? "imported" : "refused — see why"}</td>
+                  <td data-testid={`report-standing-${t.id}`}>
+                    {standings.get(t.id)?.newest === "signed" ? (
+                      standingWords(standings.get(t.id))
+                    ) : (
+                      <span className={standings.get(t.id) ? "draft-word" : "how"}>{standingWords(standings.get(t.id))}</span>
+                    )}
+                  </td>
                   {/* a date and time never break across lines ("2026-12-02 10:15") */}
                   <td className="nowrap">{t.createdAt.slice(0, 16).replace("T", " ")}</td>
                 </tr>

@@ -53,6 +53,10 @@ test("a wrong password is refused with one message; a physiologist works on a re
   await expect(page.getByTestId("sign-role-note")).toContainText("Only a clinician account can sign");
   await expect(page.getByTestId("sign-submit")).toBeDisabled();
   await expect(page.getByTestId("signer")).toHaveCount(0);
+  await page.goto(page.url().replace(/\/report$/, ""));
+  await expect(page.getByTestId("report-standing")).toContainText("draft version 1, not signed");
+  await expect(page.getByTestId("report-standing")).toContainText("not a signed report");
+  await page.goto(`${page.url()}/report`);
   // signing out ends the session: the report asks for a log-in again
   const reportUrl = page.url();
   await page.getByTestId("log-out").click();
@@ -93,4 +97,10 @@ test("a clinician signs with the account: page and PDF name the account, not a t
   expect(text).toContain(`Signed by ${E2E_ACCOUNTS.clinician.name} (account "${E2E_ACCOUNTS.clinician.username}")`);
   expect(text).not.toContain("not verified");
   expect(text).not.toContain("DRAFT");
+
+  // the register and the analysis view say where the report stands
+  await page.goto("/");
+  await expect(page.getByTestId(`report-standing-${testId}`)).toHaveText(`signed (version 1, ${E2E_ACCOUNTS.clinician.name})`);
+  await page.goto(`/tests/${testId}`);
+  await expect(page.getByTestId("report-standing")).toContainText("Report: signed (version 1");
 });

@@ -103,6 +103,37 @@ export function getReport(reportId: number): StoredReport | null {
 }
 
 /** All report versions of a test, newest first. */
+/** Where a test's report stands, for the register and the analysis view. */
+export interface ReportStanding {
+  /** How many report versions the test has (0: none made yet). */
+  versions: number;
+  /** The newest version's status. */
+  newest: "draft" | "signed" | null;
+  /** The newest signed version's number and signer, when one is signed. */
+  lastSigned: { version: number; signedBy: string | null; signedAt: string | null } | null;
+}
+
+/** Report standing of every test at once (one query), by test id; tests without a report are absent. */
+export function reportStandings(): Map<number, ReportStanding> {
+  const rows = getDb().prepare(`${SELECT} order by r.test_id, r.id`).all() as ReportRow[];
+  const out = new Map<number, ReportStanding>();
+  for (const r of rows) {
+    const cur = out.get(r.test_id) ?? { versions: 0, newest: null, lastSigned: null };
+    cur.versions = r.version;
+    cur.newest = r.status;
+    if (r.status === "signed") cur.lastSigned = { version: r.version, signedBy: r.signed_by, signedAt: r.signed_at };
+    out.set(r.test_id, cur);
+  }
+  return out;
+}
+
+/** A report standing in words: "signed (version 2, Dr A)", "draft version 3, not signed (revises signed version 2)". */
+export function standingWords(s: ReportStanding | undefined): string {
+  if (!s || s.versions === 0) return "no report yet";
+  if (s.newest === "signed") return `signed (version ${s.versions}${s.lastSigned?.signedBy ? `, ${s.lastSigned.signedBy}` : ""})`;
+  return `draft version ${s.versions}, not signed${s.lastSigned ? ` (revises signed version ${s.lastSigned.version})` : ""}`;
+}
+
 export function listReports(testId: number): StoredReport[] {
   return (getDb().prepare(`${SELECT} where r.test_id = ? order by r.id desc`).all(testId) as ReportRow[]).map(toReport);
 }

@@ -1,6 +1,14 @@
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { closeDb, getDb } from "../../lib/store/db";
-import { getOrCreateDraft, getReport, listReports, saveDraft, signReport } from "../../lib/store/reports";
+import {
+  getOrCreateDraft,
+  getReport,
+  listReports,
+  reportStandings,
+  saveDraft,
+  signReport,
+  standingWords,
+} from "../../lib/store/reports";
 import { latestSettings, listAudit, saveAnalysisVersion, saveTest } from "../../lib/store/tests";
 import type { ReportSection } from "../../lib/report/reportModel";
 
@@ -39,6 +47,19 @@ describe("report drafts and signatures (SQLite in memory)", () => {
     expect(saved).toMatchObject({ id: draft.id, status: "draft", sections: edited });
     expect(listReports(testId)).toHaveLength(1);
     expect(saveDraft(9999, edited, "reviewer")).toBeNull();
+  });
+
+  it("says where each test's report stands: none, draft, signed, and a draft that revises a signed version", () => {
+    const { testId, analysisId } = newTestWithAnalysis();
+    expect(standingWords(reportStandings().get(testId))).toBe("no report yet");
+    const v1 = getOrCreateDraft(testId, analysisId, initial);
+    expect(standingWords(reportStandings().get(testId))).toBe("draft version 1, not signed");
+    signReport(v1.id, "Dr A Example", "Reviewed.");
+    expect(standingWords(reportStandings().get(testId))).toBe("signed (version 1, Dr A Example)");
+    // editing the signed version's text makes version 2, a draft that revises it
+    saveDraft(v1.id, [{ ...initial[0], paragraphs: ["Edited after signing (invented)."] }, ...initial.slice(1)], "reviewer");
+    expect(listReports(testId)).toHaveLength(2);
+    expect(standingWords(reportStandings().get(testId))).toBe("draft version 2, not signed (revises signed version 1)");
   });
 
   it("a signature made while signed in keeps the account with it, and the audit names the account", () => {

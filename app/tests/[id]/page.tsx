@@ -18,6 +18,7 @@ import { AVERAGED_ROW_INTERVAL_S, medianRowIntervalS } from "@/lib/signal";
 import { displayUnit, formatClock, formatNumber } from "@/lib/units";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { getTest, listAnalysisVersions } from "@/lib/store/tests";
+import { reportStandings, standingWords } from "@/lib/store/reports";
 import { Chart } from "../../components/Chart";
 import { IssueList } from "../../components/IssueList";
 import { TableScroll } from "../../components/TableScroll";
@@ -115,6 +116,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
   }
 
   const versions = listAnalysisVersions(testId);
+  const standing = reportStandings().get(testId);
   const settings = versions[0]?.settings ?? getLabDefaults();
   // the analysis version this page shows, sent back by its forms (a save from a stale page is refused)
   const versionToken = settingsToken(testId);
@@ -153,7 +155,11 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       <p className="row">
         <Link href={`/tests/${testId}/report`} data-testid="report-link">
           Draft report and signature →
-        </Link>
+        </Link>{" "}
+        <span data-testid="report-standing" className={standing?.newest === "signed" ? "how" : "draft-word"}>
+          Report: {standingWords(standing)}
+          {standing?.newest === "signed" ? "" : ". The values on this page are not a signed report."}
+        </span>
         <Link href={`/tests/${testId}/columns`} data-testid="columns-link">
           How the file was read
         </Link>{" "}

@@ -19,7 +19,10 @@ export async function GET(request: Request, { params }: { params: Promise<{ id: 
   const loaded = loadReport(p.data.id, q.data.report);
   if (!loaded) return Response.json({ error: "No report for this test" }, { status: 404 });
   const pdf = await renderReportPdf(loaded.model);
-  const name = `cpet-report-test${p.data.id}-v${loaded.report.version}-${loaded.report.status}.pdf`;
+  // a signed version that a newer signed version amends is named so, not just "signed"
+  const superseded =
+    loaded.report.status === "signed" && loaded.versions.some((v) => v.id > loaded.report.id && v.status === "signed");
+  const name = `cpet-report-test${p.data.id}-v${loaded.report.version}-${superseded ? "superseded" : loaded.report.status}.pdf`;
   return new Response(new Uint8Array(pdf), {
     headers: {
       "content-type": "application/pdf",
