@@ -505,13 +505,24 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     const caveats = conclusionCaveats(s, interpretation, input);
     concl.push(`${s.name}: ${s.overall!.label}.${caveats.length ? ` Read with: ${caveats.join("; ")}.` : ""}`);
   }
-  // a referral whose schemes publish no combined category (pulmonary hypertension's risk table) gives its graded rows
-  if (combined.length === 0)
-    for (const s of interpretation.schemes) {
-      if (s.schemeId === "peak-vo2-grade" || s.kind !== "bands") continue;
+  // a referral whose schemes publish no combined category (pulmonary hypertension's risk table) gives its graded rows;
+  // beside schemes that do (heart failure: Weber, ventilatory class), the heart-failure prognostic table's adverse rows
+  // are named (oscillatory ventilation, a small PETCO2 rise), so a prognostic marker graded only in the schemes section
+  // is not missing from the conclusion
+  for (const s of interpretation.schemes) {
+    if (s.schemeId === "peak-vo2-grade" || s.kind !== "bands" || s.overall) continue;
+    if (combined.length === 0) {
       const rows = s.axes.filter((a) => a.category).map((a) => `${a.label}: ${a.category!.label}`);
       if (rows.length) concl.push(`${s.name}: ${rows.join("; ")}.`);
+      continue;
     }
+    // rows the conclusion already states (Weber class, ventilatory class, the peak-RER caution) are not repeated
+    if (s.schemeId !== "hf-prognostic-table") continue;
+    const adverse = s.axes
+      .filter((a) => a.category && a.category.severity > 0 && !concl.some((line) => line.includes(a.category!.label)))
+      .map((a) => `${a.label}: ${a.category!.label}`);
+    if (adverse.length) concl.push(`${s.name}, markers outside the favourable band: ${adverse.join("; ")}.`);
+  }
   if (!e.peakConclusionsAllowed) concl.push("Capacity could not be established because effort was submaximal.");
   // a reading withheld for a doubted VO2 says why where the reader looks first
   if (notRead.peakVo2MlMin)

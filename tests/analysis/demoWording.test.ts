@@ -118,3 +118,15 @@ describe("a reviewer's threshold replaces the engine's doubt about the automatic
     expect(info.join(" ")).not.toMatch(/by review/);
   });
 });
+
+describe("heart-failure demo: prognostic markers in the conclusion", () => {
+  it("names the adverse rows of the prognostic table the conclusion does not already state", () => {
+    const r = results.get("heart-failure")!;
+    const concl = r.draft.sections.find((s) => s.id === "conclusion")!.paragraphs.join("\n");
+    // the INVENTED demo has oscillatory ventilation and a resting PETCO2 below 33 mmHg (EACPR/AHA 2012, recalled)
+    expect(concl).toMatch(/markers outside the favourable band: .*Exercise oscillatory ventilation: EOV present/);
+    expect(concl).toMatch(/Resting PETCO2 < 33 mmHg/);
+    // Weber and ventilatory class are stated once each
+    expect(concl.match(/Ventilatory class III/g)).toHaveLength(1);
+  });
+});
