@@ -129,6 +129,10 @@ export function toInterpretInput(
         `the last ${Math.round(endMissing)} s of exercise hold no full window of gas values, so the peak may be understated (see the warning on peak VO2)`;
   const plateauWhy = vo2PlateauNotAssessedReason(indices.vo2FinalIncrease);
   if (plateauWhy) reasons.vo2Plateau = plateauWhy;
+  const peakEndsEarly = indices.peaks.issues.some((i) => i.code === "peak-vo2-before-end");
+  if (peakEndsEarly && vo2PlateauPresent(indices.vo2FinalIncrease) !== null)
+    reasons.vo2Plateau =
+      "the highest VO2 window ends well before the end of exercise (see the warning on peak VO2): check those breaths before reading a plateau";
   // the calibrated bands, as the values at each end (everything computed from VT1 moves with it)
   const uncertainty: UncertainValue[] = [];
   const vt1Band = thresholds.vt1.band;
@@ -269,7 +273,9 @@ export function toInterpretInput(
       peakSpeedKmh: v(p.speedKmh),
       peakGradePct: v(p.gradePct),
       // one plateau determination for the effort set and the interpretation (`vo2PlateauPresent`)
-      vo2Plateau: vo2PlateauPresent(indices.vo2FinalIncrease),
+      // a plateau at the end of exercise when the highest VO2 window ended well before it (`peak-vo2-before-end`) is
+      // not read as a limit reached until the breaths are checked (review: ACTES test 11)
+      vo2Plateau: peakEndsEarly ? null : vo2PlateauPresent(indices.vo2FinalIncrease),
       vt1Determined: thresholds.vt1.confidence !== "not-determinable" && vt1Vo2 !== null,
       vt1Vo2MlMin: vt1Vo2,
       vt1Vo2MlKgMin: vt1Vo2 !== null && patient.weightKg ? vt1Vo2 / patient.weightKg : null,

@@ -55,7 +55,7 @@ export interface PeakValues {
   petco2RestMmHg: Measured;
   petco2AtVt1MmHg: Measured;
   petco2PeakMmHg: Measured;
-  /** Highest exercise PETCO2 window minus resting PETCO2. */
+  /** PETCO2 at VT1 minus resting PETCO2 (not determined without VT1). */
   petco2RiseMmHg: Measured;
   spo2LowestPct: Measured;
   /**

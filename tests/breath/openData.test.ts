@@ -127,6 +127,23 @@ describe("ACTES heart rate from R–R intervals (ODC-By 1.0)", () => {
     expect(a.indices.peaks.hrBpm.value).toBeNull();
     expect(a.indices.peaks.hrBpm.reason).toMatch(/gap/);
   });
+
+  it("test 11: its highest VO2 window ends about 2 min before the end of exercise, so no VO2 plateau is read as the limit reached", async () => {
+    // age, weight and height of test 11 from actes_subject-info.csv (18 y, 84.8 kg, 182 cm); ACTES records no sex
+    const built = await buildRecord({
+      bytes: read("actes/actes_test_measure.csv"),
+      fileName: "actes_test_measure.csv",
+      patient: { ageY: 18, weightKg: 84.8, heightCm: 182 },
+      ergometer: "cycle",
+      importOptions: { select: { ID: "11" } },
+    });
+    const a = analyse(built.record!, {});
+    expect(a.issues.map((i) => i.code)).toContain("peak-vo2-before-end");
+    // the review's own check: the 30-s peak ends at 1144 s and exercise at 1267 s
+    expect(a.interpretInput.values.vo2Plateau).toBeNull();
+    expect(a.interpretInput.reasons.vo2Plateau).toMatch(/check those breaths before reading a plateau/);
+    expect(a.interpretation.effort.label).not.toMatch(/plateau/i);
+  });
 });
 
 describe("Sylta 2016 cycling stages (CC0)", () => {
