@@ -98,6 +98,13 @@ export function populationRange(
   return (sex ? pop.bySex?.[sex]?.[key] : undefined) ?? pop[key];
 }
 
+/**
+ * Where an equation records no range for a predictor (or no upper age), a patient beyond these is named as a possible
+ * extrapolation: most adult reference cohorts hold few people over 80 y or outside 150-200 cm (this product's choice,
+ * common practice; review: an 88-year-old and a 205-cm man had no warning on peak VO2).
+ */
+const UNRECORDED_RANGE_EDGES = { ageY: { min: 18, max: 80 }, heightCm: { min: 150, max: 200 } } as const;
+
 function populationIssues(eq: ReferenceEquation, inputs: EquationInputs): Issue[] {
   const issues: Issue[] = [];
   const p = inputs.patient;
@@ -118,6 +125,28 @@ function populationIssues(eq: ReferenceEquation, inputs: EquationInputs): Issue[
   for (const key of ["ageY", "heightCm", "weightKg", "bmi"] as const) {
     const range = populationRange(eq, key, p.sex);
     const v = values[key];
+    const edge = UNRECORDED_RANGE_EDGES[key as keyof typeof UNRECORDED_RANGE_EDGES];
+    // a derived prediction carries the notes of the equations it is built from
+    const uses = eq.kind !== "derived-predicted" && eq.predictors.some((pr) => pr.from === key);
+    if (
+      v !== undefined &&
+      edge &&
+      uses &&
+      (!range ||
+        (range.min === undefined && range.max === undefined) ||
+        (key === "ageY" && range.max === undefined && v > edge.max))
+    ) {
+      if (v < edge.min || v > edge.max)
+        issues.push(
+          makeIssue(
+            "warning",
+            "derivation-range-not-recorded",
+            `${eq.label}: the ${INPUT_LABEL[key as "ageY" | "heightCm"]} range of its cohort is not recorded here (${pop.cohort.split(". ")[0].replace(/\.$/, "")}); at ${Math.round(v * 10) / 10} ${units[key]} the prediction may be an extrapolation: read % predicted with caution.`,
+            { field: key },
+          ),
+        );
+      if (!range) continue;
+    }
     if (!range || v === undefined) continue;
     const below = range.min !== undefined && v < range.min;
     const above = range.max !== undefined && v > range.max;

@@ -141,7 +141,7 @@ describe("ACTES heart rate from R–R intervals (ODC-By 1.0)", () => {
     expect(a.issues.map((i) => i.code)).toContain("peak-vo2-before-end");
     // the review's own check: the 30-s peak ends at 1144 s and exercise at 1267 s
     expect(a.interpretInput.values.vo2Plateau).toBeNull();
-    expect(a.interpretInput.reasons.vo2Plateau).toMatch(/check those breaths before reading a plateau/);
+    expect(a.interpretInput.reasons?.vo2Plateau).toMatch(/check those breaths before reading a plateau/);
     expect(a.interpretation.effort.label).not.toMatch(/plateau/i);
   });
 });
