@@ -457,16 +457,12 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
               d={1}
               extra={
                 pk.petco2AtVt1MmHg.value !== null && pk.petco2RestMmHg.value !== null
-                  ? `rise from rest ${formatNumber(pk.petco2AtVt1MmHg.value - pk.petco2RestMmHg.value, 1)} mmHg`
+                  ? `rise from rest ${pk.petco2RiseMmHg.value !== null ? fmt(pk.petco2RiseMmHg, 1) : formatNumber(pk.petco2AtVt1MmHg.value - pk.petco2RestMmHg.value, 1)} mmHg`
                   : undefined
               }
             />
-            <IndexRow
-              label="Highest PETCO2 during exercise"
-              m={pk.petco2PeakMmHg}
-              d={1}
-              extra={pk.petco2RiseMmHg.value !== null ? `rise from rest to VT1 ${fmt(pk.petco2RiseMmHg, 1)} mmHg` : undefined}
-            />
+            {/* the rise that grades heart failure is the one from rest to VT1, given on the row above */}
+            <IndexRow label="Highest PETCO2 during exercise" m={pk.petco2PeakMmHg} d={1} />
             {ix.eov.definitions.map((d) => (
               <tr key={d.id}>
                 <td>Exercise oscillatory ventilation ({d.label})</td>
