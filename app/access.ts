@@ -25,9 +25,20 @@ export async function currentAccess(): Promise<Access | null> {
   return account ? { mode: "account", actor: account.username, account } : null;
 }
 
-/** A path inside the app to come back to after signing in (anything else goes to the register). */
+/**
+ * A path inside the app to come back to after signing in; anything else goes to the register. Control characters and
+ * backslashes are refused outright (a browser drops tabs and newlines from a URL, so "/<TAB>/host" would become
+ * "//host"), and what is left must resolve to this app's own origin.
+ */
 export function safeNext(next: unknown): string {
-  return typeof next === "string" && next.startsWith("/") && !next.startsWith("//") && !next.startsWith("/\\") ? next : "/";
+  if (typeof next !== "string" || !next.startsWith("/") || /[\u0000-\u001f\u007f\\]/.test(next)) return "/";
+  try {
+    const base = "http://app.invalid";
+    const url = new URL(next, base);
+    return url.origin === base ? `${url.pathname}${url.search}${url.hash}` : "/";
+  } catch {
+    return "/";
+  }
 }
 
 /** For a page: its access, or a redirect to the log-in page, which brings the user back to `path`. */
