@@ -9,7 +9,7 @@ import { EXIT_STATUS_HELP, UsageError } from "./usageError";
  * web page). With no enabled account the app needs no log-in; the first account makes log-in required.
  *   cpet account add jdoe --name "Dr J Doe" --role clinician     (asks the password twice, or reads one line from stdin)
  *   cpet account list [--json]
- *   cpet account disable jdoe | enable jdoe | password jdoe
+ *   cpet account disable jdoe [--leave-app-open] | enable jdoe | unlock jdoe | password jdoe
  * `--db FILE` (or CPET_DB) names the database; the default is the app's, data/cpet-desk.sqlite under the current folder.
  */
 export function registerAccount(program: Command): void {
@@ -54,20 +54,43 @@ export function registerAccount(program: Command): void {
         );
     });
 
-  for (const [name, disabled] of [
-    ["disable", true],
-    ["enable", false],
-  ] as const)
-    account
-      .command(`${name} <username>`)
-      .description(disabled ? "disable an account and end its sessions" : "enable a disabled account")
-      .action(async (username: string) => {
-        const store = await openStore(account);
-        if (!store.setAccountDisabled(username, disabled)) throw new UsageError(`no account "${username}"`);
-        process.stdout.write(`account "${username}" ${disabled ? "disabled" : "enabled"}\n`);
-        if (disabled && !store.accountsEnabled())
-          process.stdout.write("No enabled account is left: the app no longer asks anyone to sign in.\n");
-      });
+  account
+    .command("disable <username>")
+    .description("disable an account and end its sessions")
+    .option("--leave-app-open", "allow disabling the last enabled account, which turns log-in off for everyone")
+    .action(async (username: string, opts: { leaveAppOpen?: boolean }) => {
+      const store = await openStore(account);
+      const target = store.getAccount(username);
+      if (!target) throw new UsageError(`no account "${username}"`);
+      const othersEnabled = store.listAccounts().some((a) => !a.disabled && a.username !== target.username);
+      // failing open must be asked for: without log-in anyone who reaches the app can sign with a typed name
+      if (!target.disabled && !othersEnabled && !opts.leaveAppOpen)
+        throw new UsageError(
+          `"${target.username}" is the last enabled account: disabling it turns log-in off, and anyone who reaches the app could then sign with a typed name. Make another account first, or repeat with --leave-app-open.`,
+        );
+      store.setAccountDisabled(username, true);
+      process.stdout.write(`account "${target.username}" disabled\n`);
+      if (!store.accountsEnabled())
+        process.stdout.write("No enabled account is left: the app no longer asks anyone to sign in.\n");
+    });
+
+  account
+    .command("enable <username>")
+    .description("enable a disabled account")
+    .action(async (username: string) => {
+      const store = await openStore(account);
+      if (!store.setAccountDisabled(username, false)) throw new UsageError(`no account "${username}"`);
+      process.stdout.write(`account "${username}" enabled\n`);
+    });
+
+  account
+    .command("unlock <username>")
+    .description("lift a lock-out after repeated failed log-ins")
+    .action(async (username: string) => {
+      const store = await openStore(account);
+      if (!store.unlockAccount(username)) throw new UsageError(`no account "${username}"`);
+      process.stdout.write(`log-in for "${username}" unlocked\n`);
+    });
 
   account
     .command("password <username>")

@@ -26,7 +26,7 @@ export async function logInAction(_prev: LogInState, form: FormData): Promise<Lo
   });
   const username = String(form.get("username") ?? "");
   if (!parsed.success) return { username, error: parsed.error.issues[0].message };
-  const res = logIn(parsed.data.username, parsed.data.password);
+  const res = await logIn(parsed.data.username, parsed.data.password);
   if (!res.ok) return { username, error: res.reason };
   // secure only over HTTPS: the default installation serves plain HTTP on 127.0.0.1
   const https = (await headers()).get("x-forwarded-proto") === "https";

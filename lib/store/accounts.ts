@@ -1,5 +1,5 @@
 import "server-only";
-import { createHash, randomBytes, scryptSync, timingSafeEqual } from "node:crypto";
+import { createHash, randomBytes, scrypt, scryptSync, timingSafeEqual } from "node:crypto";
 import { unprintableInPdf } from "../report/pdf/pdfText";
 import { getDb } from "./db";
 import { audit } from "./tests";
@@ -38,8 +38,13 @@ interface AccountRow {
 export const PASSWORD_MIN_CHARS = 10;
 /** Longest password accepted (keeps a hash request bounded). */
 export const PASSWORD_MAX_CHARS = 200;
-/** How long a session lasts from log-in: one working shift (common practice). */
+/** How long a session lasts from log-in at most: one working shift (common practice). */
 export const SESSION_HOURS = 12;
+/**
+ * A session unused this long ends: NIST SP 800-63B (2017) asks re-authentication after 30 minutes of inactivity at its
+ * second assurance level (recalled).
+ */
+export const SESSION_IDLE_MINUTES = 30;
 /** Failed log-ins for one user name within `LOCKOUT_MINUTES` after which log-in is refused for that long (common practice). */
 export const LOCKOUT_FAILURES = 5;
 export const LOCKOUT_MINUTES = 15;
@@ -77,6 +82,25 @@ export function verifyPassword(password: string, stored: string): boolean {
     maxmem: scryptMaxmem(Number(n), Number(r)),
   });
   return key.length === expected.length && timingSafeEqual(key, expected);
+}
+
+/**
+ * `verifyPassword` off the server's main thread (libuv's pool): a log-in costs about 0.35 s of hashing, which must not
+ * stall every other request while it runs.
+ */
+export function verifyPasswordAsync(password: string, stored: string): Promise<boolean> {
+  const [kind, n, r, p, salt, hash] = stored.split("$");
+  if (kind !== "scrypt" || !salt || !hash) return Promise.resolve(false);
+  const expected = Buffer.from(hash, "base64");
+  return new Promise((resolve, reject) =>
+    scrypt(
+      password.normalize("NFC"),
+      Buffer.from(salt, "base64"),
+      expected.length,
+      { N: Number(n), r: Number(r), p: Number(p), maxmem: scryptMaxmem(Number(n), Number(r)) },
+      (err, key) => (err ? reject(err) : resolve(key.length === expected.length && timingSafeEqual(key, expected))),
+    ),
+  );
 }
 
 /** A hash to compare against when the user name is unknown, so a wrong name takes as long as a wrong password. */
@@ -184,6 +208,35 @@ export function setAccountPassword(username: string, password: string): AccountR
   return { ok: true, account };
 }
 
+/**
+ * Whether log-in for a user name is locked: `LOCKOUT_FAILURES` failed attempts within the `LOCKOUT_MINUTES` before `at`,
+ * counted since the name was last unlocked (`unlockAccount`). Attempts refused while locked are not failures.
+ */
+export function lockedOut(username: string, at: Date = new Date()): boolean {
+  const db = getDb();
+  const since = new Date(at.getTime() - LOCKOUT_MINUTES * 60_000).toISOString();
+  const unlocked = (
+    db.prepare("select max(at) as at from audit where action = 'account-unlocked' and detail = ?").get(username) as {
+      at: string | null;
+    }
+  ).at;
+  const from = unlocked && unlocked > since ? unlocked : since;
+  const n = (
+    db.prepare("select count(*) as n from audit where action = 'log-in-failed' and actor = ? and at > ?").get(username, from) as {
+      n: number;
+    }
+  ).n;
+  return n >= LOCKOUT_FAILURES;
+}
+
+/** Lift a lock-out now (audit: `account-unlocked`); failures before this no longer count. */
+export function unlockAccount(username: string): boolean {
+  const account = getAccount(username);
+  if (!account) return false;
+  audit(null, "account-unlocked", null, account.username);
+  return true;
+}
+
 export type LogInResult = { ok: true; token: string; account: Account; expiresAt: string } | { ok: false; reason: string };
 
 /** The same words for an unknown name, a wrong password and a disabled account, so the page does not tell which. */
@@ -193,22 +246,20 @@ export const LOG_IN_REFUSED = "The user name or password is not right, or the ac
  * Check a user name and password and open a session (audit: `log-in` / `log-in-failed`). After `LOCKOUT_FAILURES`
  * failed attempts for one user name within `LOCKOUT_MINUTES`, log-in for that name is refused until the window passes.
  */
-export function logIn(usernameSent: string, password: string, at: Date = new Date()): LogInResult {
+export async function logIn(usernameSent: string, password: string, at: Date = new Date()): Promise<LogInResult> {
   const username = usernameSent.trim().toLowerCase().slice(0, 40);
   const db = getDb();
-  const since = new Date(at.getTime() - LOCKOUT_MINUTES * 60_000).toISOString();
-  const failures = (
-    db
-      .prepare("select count(*) as n from audit where action = 'log-in-failed' and actor = ? and at > ?")
-      .get(username, since) as { n: number }
-  ).n;
-  if (failures >= LOCKOUT_FAILURES) {
-    audit(username, "log-in-failed", null, "refused: too many failed attempts");
-    return { ok: false, reason: `Too many failed attempts for this user name: try again in ${LOCKOUT_MINUTES} minutes.` };
+  if (lockedOut(username, at)) {
+    // not counted as a failure, so attempts while locked do not keep the lock going
+    audit(username, "log-in-locked", null, "refused: too many failed attempts");
+    return {
+      ok: false,
+      reason: `Too many failed attempts for this user name: try again in ${LOCKOUT_MINUTES} minutes, or ask whoever keeps the accounts to unlock it.`,
+    };
   }
   const row = db.prepare("select * from accounts where username = ?").get(username) as AccountRow | undefined;
   decoyHash ??= hashPassword(randomBytes(12).toString("base64"));
-  const matches = verifyPassword(password.slice(0, PASSWORD_MAX_CHARS), row?.password_hash ?? decoyHash);
+  const matches = await verifyPasswordAsync(password.slice(0, PASSWORD_MAX_CHARS), row?.password_hash ?? decoyHash);
   if (!row || !matches || row.disabled === 1) {
     audit(
       username,
@@ -220,25 +271,45 @@ export function logIn(usernameSent: string, password: string, at: Date = new Dat
   }
   const token = randomBytes(32).toString("base64url");
   const expiresAt = new Date(at.getTime() + SESSION_HOURS * 3_600_000).toISOString();
-  db.prepare("insert into sessions (token_sha256, account_id, created_at, expires_at) values (?, ?, ?, ?)").run(
+  db.prepare("insert into sessions (token_sha256, account_id, created_at, expires_at, last_seen_at) values (?, ?, ?, ?, ?)").run(
     sha256(token),
     row.id,
     at.toISOString(),
     expiresAt,
+    at.toISOString(),
   );
   audit(username, "log-in", null, null);
   return { ok: true, token, account: toAccount(row), expiresAt };
 }
 
-/** The account a session token belongs to, when the session has not expired and the account is enabled. */
+/**
+ * The account a session token belongs to, when the session has not expired, has been used within
+ * `SESSION_IDLE_MINUTES`, and the account is enabled; each use keeps it alive.
+ */
 export function sessionAccount(token: string | undefined | null, at: Date = new Date()): Account | null {
   if (!token) return null;
-  const row = getDb()
+  const db = getDb();
+  const idleSince = new Date(at.getTime() - SESSION_IDLE_MINUTES * 60_000).toISOString();
+  const row = db
     .prepare(
-      "select a.* from sessions s join accounts a on a.id = s.account_id where s.token_sha256 = ? and s.expires_at > ? and a.disabled = 0",
+      "select a.* from sessions s join accounts a on a.id = s.account_id where s.token_sha256 = ? and s.expires_at > ? and coalesce(s.last_seen_at, s.created_at) > ? and a.disabled = 0",
     )
-    .get(sha256(token), at.toISOString()) as AccountRow | undefined;
-  return row ? toAccount(row) : null;
+    .get(sha256(token), at.toISOString(), idleSince) as AccountRow | undefined;
+  if (!row) return null;
+  db.prepare("update sessions set last_seen_at = ? where token_sha256 = ?").run(at.toISOString(), sha256(token));
+  return toAccount(row);
+}
+
+/**
+ * Re-check a signed-in user's password (a signature asks for it again). A wrong password counts as a failed log-in
+ * (lock-out included), so the sign form cannot be used to guess it.
+ */
+export async function confirmPassword(username: string, password: string): Promise<boolean> {
+  const row = getDb().prepare("select * from accounts where username = ?").get(username) as AccountRow | undefined;
+  if (!row || row.disabled === 1 || lockedOut(row.username)) return false;
+  const ok = await verifyPasswordAsync(password.slice(0, PASSWORD_MAX_CHARS), row.password_hash);
+  if (!ok) audit(row.username, "log-in-failed", null, "wrong password at signing");
+  return ok;
 }
 
 /** End a session (audit: `log-out`); expired sessions are cleared at the same time. */

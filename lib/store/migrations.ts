@@ -157,4 +157,12 @@ export const MIGRATIONS: { id: number; name: string; sql: string }[] = [
       end;
     `,
   },
+  {
+    id: 8,
+    name: "session_idle_time",
+    // A session also ends after a spell without use (`SESSION_IDLE_MINUTES`): the time of its last use is kept.
+    sql: `
+      alter table sessions add column last_seen_at text;
+    `,
+  },
 ];

@@ -55,7 +55,7 @@ describe("access in a server action (invented test and account)", () => {
     testCookieJar.set(SESSION_COOKIE, "a-token-that-was-never-issued");
     expect(await saveLabel({}, form(testId, "Case C (invented)"))).toMatchObject({ error: SESSION_NEEDED });
 
-    const session = logIn("jdoe", "correct horse battery");
+    const session = await logIn("jdoe", "correct horse battery");
     if (!session.ok) throw new Error("log-in refused");
     testCookieJar.set(SESSION_COOKIE, session.token);
     expect(await saveLabel({}, form(testId, "Case C (invented)"))).toMatchObject({ ok: expect.any(String) });

@@ -37,7 +37,12 @@ describe("cpet account", () => {
     expect(accounts).toEqual([expect.objectContaining({ username: "jdoe", role: "clinician", disabled: false })]);
     expect(list.stdout).not.toMatch(/scrypt|password/i);
 
-    const off = cpet(["disable", "jdoe"]);
+    // the last enabled account is not disabled unless that is asked for: log-in would be off for everyone
+    const refused = cpet(["disable", "jdoe"]);
+    expect(refused.status).toBe(2);
+    expect(refused.stderr).toContain("is the last enabled account");
+    expect(cpet(["unlock", "jdoe"]).stdout).toContain('log-in for "jdoe" unlocked');
+    const off = cpet(["disable", "jdoe", "--leave-app-open"]);
     expect(off.stdout).toContain("no longer asks anyone to sign in");
     expect(JSON.parse(cpet(["list", "--json"]).stdout)[0].disabled).toBe(true);
     expect(cpet(["enable", "jdoe"]).status).toBe(0);
