@@ -80,6 +80,12 @@ test("a clinician signs with the account: page and PDF name the account, not a t
   await expect(page.getByTestId("draft-workspace")).toHaveAttribute("data-ready", "true");
   await expect(page.getByTestId("sign-as")).toContainText(`You sign as ${E2E_ACCOUNTS.clinician.name}`);
   await page.getByTestId("attest").check();
+  // the signature asks for the password again: a wrong one is refused, nothing signed
+  await page.getByTestId("sign-password").fill("not the password at all");
+  await page.getByTestId("sign-submit").click();
+  await expect(page.getByTestId("sign-error")).toContainText("the password is not right");
+  await expect(page.getByTestId("draft-mark")).toContainText("DRAFT");
+  await page.getByTestId("sign-password").fill(E2E_ACCOUNTS.clinician.password);
   await page.getByTestId("sign-submit").click();
   await expect(page.getByTestId("signature")).toContainText(`Signed by ${E2E_ACCOUNTS.clinician.name}`);
   await expect(page.getByTestId("signer-identity")).toContainText(

@@ -21,7 +21,10 @@ const formSchema = z.object({
 export async function saveLab(_prev: LabFormState, form: FormData): Promise<LabFormState> {
   const values: Record<string, string> = {};
   for (const [k, v] of form.entries()) if (typeof v === "string") values[k] = v;
-  if (!(await currentAccess())) return { errors: { form: SESSION_NEEDED } };
+  const access = await currentAccess();
+  if (!access) return { errors: { form: SESSION_NEEDED } };
+  // signed in, the change is the account's (the audit names it too)
+  if (access.mode === "account") values.by = access.account.displayName;
   const parsed = formSchema.safeParse(values);
   if (!parsed.success) return { errors: Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0]), i.message])) };
   if (values.labToken !== labDefaultsToken())

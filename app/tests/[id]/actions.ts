@@ -20,6 +20,14 @@ const testPath = (form: FormData) => {
   return Number.isInteger(id) && id > 0 ? `/tests/${id}` : "/";
 };
 
+/**
+ * Signed in, the reviewer named in an override, a set-aside or a VO2 check is the account's display name, whatever the
+ * form sends (the page shows it and sends it; a crafted form cannot name someone else).
+ */
+function signedInAs(access: Access, values: Record<string, string>): void {
+  if (access.mode === "account") values.by = access.account.displayName;
+}
+
 /** Who a new analysis version is by: the signed-in account, or without log-in the name typed on the form. */
 const actorFor = (access: Access, typed: string) => (access.mode === "account" ? access.actor : typed);
 
@@ -76,6 +84,7 @@ export async function overrideThreshold(_prev: FormState, form: FormData): Promi
   const values = formValues(form);
   const access = await currentAccess();
   if (!access) return { errors: { form: SESSION_NEEDED }, values };
+  signedInAs(access, values);
   const parsed = overrideSchema.safeParse(values);
   if (!parsed.success) return { errors: errorsOf(parsed.error), values };
   const o = parsed.data;
@@ -161,6 +170,7 @@ export async function saveSettings(_prev: FormState, form: FormData): Promise<Fo
   const values = formValues(form);
   const access = await currentAccess();
   if (!access) return { errors: { form: SESSION_NEEDED }, values };
+  signedInAs(access, values);
   const parsed = settingsSchema.safeParse(values);
   if (!parsed.success) return { errors: errorsOf(parsed.error), values };
   const s = parsed.data;
@@ -239,6 +249,7 @@ export async function saveExerciseSpan(_prev: FormState, form: FormData): Promis
   const values = formValues(form);
   const access = await currentAccess();
   if (!access) return { errors: { form: SESSION_NEEDED }, values };
+  signedInAs(access, values);
   const parsed = exerciseSpanSchema.safeParse(values);
   if (!parsed.success) return { errors: errorsOf(parsed.error), values };
   const o = parsed.data;
@@ -298,6 +309,7 @@ export async function saveSetAside(_prev: FormState, form: FormData): Promise<Fo
   const values = formValues(form);
   const access = await currentAccess();
   if (!access) return { errors: { form: SESSION_NEEDED }, values };
+  signedInAs(access, values);
   const parsed = setAsideSchema.safeParse(values);
   if (!parsed.success) return { errors: errorsOf(parsed.error), values };
   const o = parsed.data;
@@ -347,6 +359,7 @@ const restoreSchema = z.object({
 export async function restoreSetAside(form: FormData): Promise<void> {
   const access = await actionAccess(testPath(form));
   const values = formValues(form);
+  signedInAs(access, values);
   const parsed = restoreSchema.safeParse(values);
   // a page opened before another change may list the spans in another order: nothing is restored from it
   if (!parsed.success || settingsChangedSince(parsed.data.testId, values.versionToken)) return;
@@ -385,6 +398,7 @@ export async function saveVo2Checked(_prev: FormState, form: FormData): Promise<
   const values = formValues(form);
   const access = await currentAccess();
   if (!access) return { errors: { form: SESSION_NEEDED }, values };
+  signedInAs(access, values);
   const parsed = vo2CheckedSchema.safeParse(values);
   if (!parsed.success) return { errors: errorsOf(parsed.error), values };
   const o = parsed.data;
@@ -415,6 +429,7 @@ const clearVo2Schema = z.object({
 export async function clearVo2Checked(form: FormData): Promise<void> {
   const access = await actionAccess(testPath(form));
   const values = formValues(form);
+  signedInAs(access, values);
   const parsed = clearVo2Schema.safeParse(values);
   if (!parsed.success || settingsChangedSince(parsed.data.testId, values.versionToken)) return;
   const { testId, reason, by } = parsed.data;

@@ -78,7 +78,8 @@ const AVERAGING_KEY: Record<string, string> = {
 
 export default async function TestPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  await pageAccess(`/tests/${id}`);
+  const access = await pageAccess(`/tests/${id}`);
+  const signedInName = access.mode === "account" ? access.account.displayName : undefined;
   const testId = Number(id);
   if (!Number.isInteger(testId)) notFound();
   const test = getTest(testId);
@@ -299,6 +300,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           predVo2={result.predicted.values.vo2PeakMlMin?.value ?? null}
           methodLabels={methodLabels}
           versionToken={versionToken}
+          signedInName={signedInName}
         />
         <ThresholdCard
           testId={testId}
@@ -308,6 +310,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
           predVo2={result.predicted.values.vo2PeakMlMin?.value ?? null}
           methodLabels={methodLabels}
           versionToken={versionToken}
+          signedInName={signedInName}
         />
       </div>
       {[result.thresholds.vt1, result.thresholds.vt2].some((t) => t.band && !t.overridden) || ix.veVco2.slopeToVt2.band ? (
@@ -673,6 +676,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       {result.issues.some((i) => i.code === "vo2-too-low-for-work" || i.code === "vo2-read-at-review") && (
         <Vo2CheckedForm
           testId={testId}
+          signedInName={signedInName}
           versionToken={versionToken}
           checkedBy={result.issues.some((i) => i.code === "vo2-read-at-review") ? (settings.vo2Checked?.reason ?? null) : null}
         />
@@ -694,6 +698,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       </details>
       <ExerciseSpanForm
         testId={testId}
+        signedInName={signedInName}
         versionToken={versionToken}
         current={
           result.conditioned.exercise
@@ -704,6 +709,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       />
       <SetAsideForm
         testId={testId}
+        signedInName={signedInName}
         versionToken={versionToken}
         spans={(result.conditioned.settings?.setAside ?? []).map((s) => ({
           label: `${s.channel === "heart-rate" ? "heart rate, " : ""}${formatClock(s.startS)}–${formatClock(s.endS)}: ${s.reason}`,
@@ -799,9 +805,11 @@ function ThresholdCard({
   predVo2,
   methodLabels,
   versionToken,
+  signedInName,
 }: {
   testId: number;
   versionToken: string;
+  signedInName?: string;
   methodLabels: Record<string, string>;
   t: ThresholdEstimate;
   at: import("@/lib/thresholds").ValuesAtThreshold | null;
@@ -874,7 +882,7 @@ function ThresholdCard({
         </div>
       ) : null}
       <HowFound m={t.vo2MlMin} methodLabels={methodLabels} />
-      <OverrideForm testId={testId} which={which} versionToken={versionToken} />
+      <OverrideForm testId={testId} which={which} versionToken={versionToken} signedInName={signedInName} />
     </section>
   );
 }

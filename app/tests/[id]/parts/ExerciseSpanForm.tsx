@@ -6,11 +6,14 @@ import { ReasonAndSubmit, ReviewerField } from "./ReviewerFields";
 
 /** Set the incremental exercise phase by hand (start, end, reason), or go back to the detected one. */
 export function ExerciseSpanForm({
+  signedInName,
   testId,
   current,
   byReview,
   versionToken,
 }: {
+  /** Signed in: the reviewer is the account and the name is not typed. */
+  signedInName?: string;
   testId: number;
   /** The analysis version the page shows (`settingsToken`): a save from a stale page is refused. */
   versionToken: string;
@@ -35,7 +38,7 @@ export function ExerciseSpanForm({
             End (m:ss)
             <input name="end" defaultValue={v.end ?? current?.end ?? ""} size={6} placeholder="16:30" />
           </label>
-          <ReviewerField value={v.by} />
+          <ReviewerField value={v.by} signedInName={signedInName} />
         </div>
         <ReasonAndSubmit
           value={v.reason}

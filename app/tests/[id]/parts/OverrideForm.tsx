@@ -4,7 +4,18 @@ import { useActionState } from "react";
 import { overrideThreshold, type FormState } from "../actions";
 import { ReasonAndSubmit, ReviewerField } from "./ReviewerFields";
 
-export function OverrideForm({ testId, which, versionToken }: { testId: number; which: "vt1" | "vt2"; versionToken: string }) {
+export function OverrideForm({
+  testId,
+  which,
+  versionToken,
+  signedInName,
+}: {
+  testId: number;
+  which: "vt1" | "vt2";
+  versionToken: string;
+  /** Signed in: the reviewer is the account and the name is not typed. */
+  signedInName?: string;
+}) {
   const [state, action, pending] = useActionState<FormState, FormData>(overrideThreshold, {});
   const v = state.values ?? {};
   const e = state.errors ?? {};
@@ -24,7 +35,7 @@ export function OverrideForm({ testId, which, versionToken }: { testId: number; 
             or time (m:ss)
             <input name="time" defaultValue={v.time ?? ""} size={6} placeholder="8:30" />
           </label>
-          <ReviewerField value={v.by} />
+          <ReviewerField value={v.by} signedInName={signedInName} />
         </div>
         <ReasonAndSubmit
           value={v.reason}

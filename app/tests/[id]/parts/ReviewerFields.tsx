@@ -1,13 +1,29 @@
 import { FormMessages } from "../../../components/CutoffChoiceFields";
 
-/** The reviewer's name field of a reviewer form (threshold override, exercise phase). */
-export function ReviewerField({ value }: { value?: string }) {
+/**
+ * The reviewer's name field of a reviewer form (threshold override, exercise phase). Signed in, the name is the
+ * account's and is not typed (the server uses the account's name whatever a form sends).
+ */
+export function ReviewerField({ value, signedInName }: { value?: string; signedInName?: string }) {
+  if (signedInName)
+    return (
+      <span className="how" data-testid="reviewer-signed-in">
+        Reviewer: {signedInName} (signed in)
+        <input type="hidden" name="by" value={signedInName} />
+      </span>
+    );
   return (
     <label>
       Reviewer
       <input name="by" defaultValue={value ?? ""} size={14} />
     </label>
   );
+}
+
+/** The short reviewer-name input of a one-line form (put a span back, doubt VO2 again); hidden when signed in. */
+export function ReviewerNameInput({ signedInName }: { signedInName?: string }) {
+  if (signedInName) return <input type="hidden" name="by" value={signedInName} />;
+  return <input name="by" required minLength={2} size={12} placeholder="your name" aria-label="Reviewer" />;
 }
 
 /** Reason, messages and submit button that close a reviewer form. */

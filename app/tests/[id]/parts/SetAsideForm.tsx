@@ -2,14 +2,17 @@
 
 import { useActionState } from "react";
 import { restoreSetAside, saveSetAside, type FormState } from "../actions";
-import { ReasonAndSubmit, ReviewerField } from "./ReviewerFields";
+import { ReasonAndSubmit, ReviewerField, ReviewerNameInput } from "./ReviewerFields";
 
 /** Set a span of breaths aside by hand (start, end, reason), and put set-aside spans back. */
 export function SetAsideForm({
+  signedInName,
   testId,
   spans,
   versionToken,
 }: {
+  /** Signed in: the reviewer is the account and the name is not typed. */
+  signedInName?: string;
   testId: number;
   /** The spans set aside now, as shown ("17:16–17:28: mask leak, by J. Smith"). */
   spans: { label: string }[];
@@ -49,8 +52,7 @@ export function SetAsideForm({
                   placeholder="why"
                   aria-label="Reason"
                 />{" "}
-                <input name="by" required minLength={2} size={12} placeholder="your name" aria-label="Reviewer" />{" "}
-                <button type="submit">Use these breaths again</button>
+                <ReviewerNameInput signedInName={signedInName} /> <button type="submit">Use these breaths again</button>
               </form>
             </li>
           ))}
@@ -75,7 +77,7 @@ export function SetAsideForm({
               <option value="heart-rate">heart rate (an ECG artefact)</option>
             </select>
           </label>
-          <ReviewerField value={v.by} />
+          <ReviewerField value={v.by} signedInName={signedInName} />
         </div>
         <ReasonAndSubmit
           value={v.reason}

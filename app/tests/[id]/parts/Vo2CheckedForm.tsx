@@ -2,7 +2,7 @@
 
 import { useActionState } from "react";
 import { clearVo2Checked, saveVo2Checked, type FormState } from "../actions";
-import { ReasonAndSubmit, ReviewerField } from "./ReviewerFields";
+import { ReasonAndSubmit, ReviewerField, ReviewerNameInput } from "./ReviewerFields";
 import { VO2_CHECKS } from "../vo2Checks";
 
 /**
@@ -10,10 +10,13 @@ import { VO2_CHECKS } from "../vo2Checks";
  * read VO2-based values all the same (with what was checked), or stop reading them again.
  */
 export function Vo2CheckedForm({
+  signedInName,
   testId,
   checkedBy,
   versionToken,
 }: {
+  /** Signed in: the reviewer is the account and the name is not typed. */
+  signedInName?: string;
   testId: number;
   /** The reviewer's word when VO2-based values are read now, else null. */
   checkedBy: string | null;
@@ -41,8 +44,7 @@ export function Vo2CheckedForm({
             placeholder="why"
             aria-label="Reason"
           />{" "}
-          <input name="by" required minLength={2} size={12} placeholder="your name" aria-label="Reviewer" />{" "}
-          <button type="submit">Stop reading VO2-based values</button>
+          <ReviewerNameInput signedInName={signedInName} /> <button type="submit">Stop reading VO2-based values</button>
         </form>
       </div>
     );
@@ -65,7 +67,7 @@ export function Vo2CheckedForm({
           ))}
         </fieldset>
         <div className="row">
-          <ReviewerField value={v.by} />
+          <ReviewerField value={v.by} signedInName={signedInName} />
         </div>
         <ReasonAndSubmit
           value={v.reason}

@@ -75,6 +75,20 @@ export function SignForm(props: {
           You sign as <strong>{props.signAs.displayName}</strong> (account &ldquo;{props.signAs.username}&rdquo;,{" "}
           {props.signAs.role}).
           <input type="hidden" name="signer" value={props.signAs.displayName} />
+          {props.signAs.role === "clinician" ? (
+            <label style={{ display: "block", marginTop: "0.4rem" }}>
+              Your password (confirms the signature)
+              <input
+                type="password"
+                name="password"
+                autoComplete="current-password"
+                required
+                data-testid="sign-password"
+                aria-invalid={errors.password ? true : undefined}
+              />
+              {errors.password ? <span className="sev-error">{errors.password}</span> : null}
+            </label>
+          ) : null}
           {props.signAs.role !== "clinician" ? (
             <span className="sev-warning" data-testid="sign-role-note">
               {" "}

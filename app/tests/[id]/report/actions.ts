@@ -5,6 +5,7 @@ import { freezeReport } from "./loadReport";
 import { draftFormSchema, readSectionsForm, readSignForm, sectionErrors, toOnScreen } from "./schemas";
 import { saveDraftChecked, signDraft } from "./signDraft";
 import { SESSION_NEEDED, currentAccess } from "../../../access";
+import { confirmPassword } from "@/lib/store/accounts";
 
 export interface DraftState {
   /** The text as the user sent it, so nothing typed is lost when validation fails. */
@@ -81,6 +82,15 @@ export async function signReportAction(_prev: SignState, form: FormData): Promis
       values: readSignValues(form),
       errors: {
         form: `Not signed: the account "${access.account.username}" is a ${access.account.role} account, and only a clinician account can sign. Save the draft for a clinician to sign.`,
+      },
+    };
+  // signed in, a signature asks for the password again: a session left open on a ward computer does not sign
+  if (access.mode === "account" && !(await confirmPassword(access.account.username, String(form.get("password") ?? ""))))
+    return {
+      values: readSignValues(form),
+      errors: {
+        form: "Not signed: the password is not right (or log-in for this account is locked after repeated failures). Your text is still on screen.",
+        password: "Give your password to sign.",
       },
     };
   if (access.mode === "account") form.set("signer", access.account.displayName);
