@@ -7,6 +7,7 @@
  */
 import { describe, expect, it } from "vitest";
 import { analyse } from "../../lib/analysis";
+import { composeDraft, interpret } from "../../lib/interpret";
 import { caseRecord } from "../fixtures/caseRecord";
 
 const conclusionOf = (r: ReturnType<typeof analyse>) => r.draft.sections.find((s) => s.id === "conclusion")!.paragraphs;
@@ -59,12 +60,24 @@ describe("patterns with equal support all reach the conclusion (invented demo ca
 
   it("deconditioning ('no sign of a specific disease') says when another limitation also has support", async () => {
     const r = analyse(await caseRecord("deconditioning"), {});
-    const lead = r.interpretation.patterns[0];
+    expect(r.interpretation.patterns[0].patternId).toBe("deconditioning");
+    // as recorded, the PETCO2 rise to VT1 is normal (5.2 mmHg), which weighs against a cardiovascular limitation: no
+    // other pattern reaches moderate support and none is said to fit
+    expect(r.interpretation.patterns.slice(1).some((p) => p.support === "moderate" || p.support === "strong")).toBe(false);
+    expect(conclusionOf(r).join(" ")).not.toContain("also fits");
+    // INVENTED alteration: the same test with a rise of 1 mmHg (a heart-failure marker) gives the cardiovascular pattern
+    // moderate support beside deconditioning, and the conclusion says it also fits
+    const input = { ...r.interpretInput, values: { ...r.interpretInput.values, petco2RiseMmHg: 1 } };
+    const i2 = interpret(input);
+    const lead = i2.patterns[0];
     expect(lead.patternId).toBe("deconditioning");
-    const other = r.interpretation.patterns.find((p) => p !== lead && (p.support === "moderate" || p.support === "strong"))!;
-    expect(conclusionOf(r).join(" ")).toContain(
-      `${other.label} (${other.support} support) also fits, so a specific cause is not excluded.`,
-    );
+    const other = i2.patterns.find((p) => p !== lead && (p.support === "moderate" || p.support === "strong"))!;
+    expect(other.patternId).toBe("cardiovascular");
+    expect(
+      composeDraft(input, i2)
+        .sections.find((x) => x.id === "conclusion")!
+        .paragraphs.join(" "),
+    ).toContain(`${other.label} (${other.support} support) also fits, so a specific cause is not excluded.`);
   });
 });
 
