@@ -47,7 +47,7 @@ export default async function RegisterPage() {
                   <td>{t.fileName ?? <span className="how">none kept</span>}</td>
                   <td>{t.status === "imported" ? "imported" : "refused — see why"}</td>
                   <td data-testid={`report-standing-${t.id}`}>
-                    {standings.get(t.id)?.newest === "signed" ? (
+                    {standings.get(t.id)?.newest === "signed" && !standings.get(t.id)?.analysisChanged ? (
                       standingWords(standings.get(t.id))
                     ) : (
                       <span className={standings.get(t.id) ? "draft-word" : "how"}>{standingWords(standings.get(t.id))}</span>

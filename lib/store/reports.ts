@@ -111,16 +111,26 @@ export interface ReportStanding {
   newest: "draft" | "signed" | null;
   /** The newest signed version's number and signer, when one is signed. */
   lastSigned: { version: number; signedBy: string | null; signedAt: string | null } | null;
+  /**
+   * The test's analysis changed after its newest report version was written (inputs corrected, a threshold set by hand):
+   * that version no longer shows the current values, and a new draft is made when the report page is opened.
+   */
+  analysisChanged: boolean;
 }
 
 /** Report standing of every test at once (one query), by test id; tests without a report are absent. */
 export function reportStandings(): Map<number, ReportStanding> {
-  const rows = getDb().prepare(`${SELECT} order by r.test_id, r.id`).all() as ReportRow[];
+  const rows = getDb()
+    .prepare(
+      `select x.*, (select max(a.id) from analyses a where a.test_id = x.test_id) as latest_analysis_id from (${SELECT}) x order by x.test_id, x.id`,
+    )
+    .all() as (ReportRow & { latest_analysis_id: number | null })[];
   const out = new Map<number, ReportStanding>();
   for (const r of rows) {
-    const cur = out.get(r.test_id) ?? { versions: 0, newest: null, lastSigned: null };
+    const cur = out.get(r.test_id) ?? { versions: 0, newest: null, lastSigned: null, analysisChanged: false };
     cur.versions = r.version;
     cur.newest = r.status;
+    cur.analysisChanged = r.latest_analysis_id !== null && r.latest_analysis_id !== r.analysis_id;
     if (r.status === "signed") cur.lastSigned = { version: r.version, signedBy: r.signed_by, signedAt: r.signed_at };
     out.set(r.test_id, cur);
   }
@@ -130,6 +140,8 @@ export function reportStandings(): Map<number, ReportStanding> {
 /** A report standing in words: "signed (version 2, Dr A)", "draft version 3, not signed (revises signed version 2)". */
 export function standingWords(s: ReportStanding | undefined): string {
   if (!s || s.versions === 0) return "no report yet";
+  if (s.analysisChanged)
+    return `${s.newest === "signed" ? `signed (version ${s.versions}${s.lastSigned?.signedBy ? `, ${s.lastSigned.signedBy}` : ""})` : `draft version ${s.versions}, not signed`}; the analysis has changed since: open the report to review a new draft`;
   if (s.newest === "signed") return `signed (version ${s.versions}${s.lastSigned?.signedBy ? `, ${s.lastSigned.signedBy}` : ""})`;
   return `draft version ${s.versions}, not signed${s.lastSigned ? ` (revises signed version ${s.lastSigned.version})` : ""}`;
 }

@@ -60,6 +60,11 @@ describe("report drafts and signatures (SQLite in memory)", () => {
     saveDraft(v1.id, [{ ...initial[0], paragraphs: ["Edited after signing (invented)."] }, ...initial.slice(1)], "reviewer");
     expect(listReports(testId)).toHaveLength(2);
     expect(standingWords(reportStandings().get(testId))).toBe("draft version 2, not signed (revises signed version 1)");
+    // a new analysis version (inputs corrected) leaves the newest report behind until the report page makes a new draft
+    saveAnalysisVersion(testId, {}, "0.0.0-test", "tester", "weight corrected (invented)");
+    expect(standingWords(reportStandings().get(testId))).toBe(
+      "draft version 2, not signed; the analysis has changed since: open the report to review a new draft",
+    );
   });
 
   it("a signature made while signed in keeps the account with it, and the audit names the account", () => {

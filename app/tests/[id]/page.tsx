@@ -157,9 +157,12 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
         <Link href={`/tests/${testId}/report`} data-testid="report-link">
           Draft report and signature →
         </Link>{" "}
-        <span data-testid="report-standing" className={standing?.newest === "signed" ? "how" : "draft-word"}>
+        <span
+          data-testid="report-standing"
+          className={standing?.newest === "signed" && !standing.analysisChanged ? "how" : "draft-word"}
+        >
           Report: {standingWords(standing)}
-          {standing?.newest === "signed" ? "" : ". The values on this page are not a signed report."}
+          {standing?.newest === "signed" && !standing.analysisChanged ? "" : ". The values on this page are not a signed report."}
         </span>
         <Link href={`/tests/${testId}/columns`} data-testid="columns-link">
           How the file was read
