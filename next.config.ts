@@ -8,6 +8,21 @@ const nextConfig: NextConfig = {
   // The upload's own limit (MAX_UPLOAD_BYTES, 20 MB) is checked in the browser and by the upload action with a plain
   // message; the body limit sits 1 MB above it so a file at the limit is never cut off here with a bare error.
   experimental: { serverActions: { bodySizeLimit: UPLOAD_BODY_LIMIT_BYTES } },
+  // No page of the app may be framed by another (clickjacking of the sign form), a download is never sniffed into
+  // something else, and no address leaves with a link (OWASP cheat sheets on clickjacking and headers, recalled).
+  async headers() {
+    return [
+      {
+        source: "/:path*",
+        headers: [
+          { key: "Content-Security-Policy", value: "frame-ancestors 'none'" },
+          { key: "X-Frame-Options", value: "DENY" },
+          { key: "X-Content-Type-Options", value: "nosniff" },
+          { key: "Referrer-Policy", value: "no-referrer" },
+        ],
+      },
+    ];
+  },
 };
 
 export default nextConfig;

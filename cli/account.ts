@@ -1,3 +1,4 @@
+import os from "node:os";
 import { createInterface } from "node:readline";
 import { Writable } from "node:stream";
 import type { Command } from "commander";
@@ -30,7 +31,7 @@ export function registerAccount(program: Command): void {
         throw new UsageError(`--role must be clinician or physiologist, not "${opts.role}"`);
       const wasOpen = !store.accountsEnabled();
       const password = await readNewPassword();
-      const res = store.createAccount({ username, displayName: opts.name, role: opts.role, password });
+      const res = store.createAccount({ username, displayName: opts.name, role: opts.role, password }, cliActor());
       if (!res.ok) throw new UsageError(res.reason);
       process.stdout.write(`account "${res.account.username}" made (${res.account.displayName}, ${res.account.role})\n`);
       if (wasOpen) process.stdout.write("This is the first account: from now on the app asks everyone to sign in.\n");
@@ -68,7 +69,7 @@ export function registerAccount(program: Command): void {
         throw new UsageError(
           `"${target.username}" is the last enabled account: disabling it turns log-in off, and anyone who reaches the app could then sign with a typed name. Make another account first, or repeat with --leave-app-open.`,
         );
-      store.setAccountDisabled(username, true);
+      store.setAccountDisabled(username, true, cliActor());
       process.stdout.write(`account "${target.username}" disabled\n`);
       if (!store.accountsEnabled())
         process.stdout.write("No enabled account is left: the app no longer asks anyone to sign in.\n");
@@ -79,7 +80,7 @@ export function registerAccount(program: Command): void {
     .description("enable a disabled account")
     .action(async (username: string) => {
       const store = await openStore(account);
-      if (!store.setAccountDisabled(username, false)) throw new UsageError(`no account "${username}"`);
+      if (!store.setAccountDisabled(username, false, cliActor())) throw new UsageError(`no account "${username}"`);
       process.stdout.write(`account "${username}" enabled\n`);
     });
 
@@ -88,7 +89,7 @@ export function registerAccount(program: Command): void {
     .description("lift a lock-out after repeated failed log-ins")
     .action(async (username: string) => {
       const store = await openStore(account);
-      if (!store.unlockAccount(username)) throw new UsageError(`no account "${username}"`);
+      if (!store.unlockAccount(username, cliActor())) throw new UsageError(`no account "${username}"`);
       process.stdout.write(`log-in for "${username}" unlocked\n`);
     });
 
@@ -98,7 +99,7 @@ export function registerAccount(program: Command): void {
     .action(async (username: string) => {
       const store = await openStore(account);
       if (!store.getAccount(username)) throw new UsageError(`no account "${username}"`);
-      const res = store.setAccountPassword(username, await readNewPassword());
+      const res = store.setAccountPassword(username, await readNewPassword(), cliActor());
       if (!res.ok) throw new UsageError(res.reason);
       process.stdout.write(`password of "${username}" set\n`);
     });
@@ -144,4 +145,13 @@ function askHidden(question: string): Promise<string> {
     });
     muted = true;
   });
+}
+
+/** Who ran the command, for the audit trail: the operating-system user on the database's machine. */
+function cliActor(): string {
+  try {
+    return `cli:${os.userInfo().username}`;
+  } catch {
+    return "cli";
+  }
 }

@@ -27,7 +27,12 @@ test("with accounts, nothing is shown or sent without signing in; the health che
     const res = await request.get(url, { maxRedirects: 0 });
     expect(res.status(), url).toBe(401);
   }
-  expect((await request.get("/api/health")).status()).toBe(200);
+  const health = await request.get("/api/health");
+  expect(health.status()).toBe(200);
+  // no page may be framed by another site, nor a download sniffed
+  expect(health.headers()["x-frame-options"]).toBe("DENY");
+  expect(health.headers()["content-security-policy"]).toBe("frame-ancestors 'none'");
+  expect(health.headers()["x-content-type-options"]).toBe("nosniff");
   // a redirect to another site is not followed after signing in
   await page.goto("/login?next=//example.org/");
   await signIn(page, "physiologist");

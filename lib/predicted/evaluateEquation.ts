@@ -141,7 +141,7 @@ function populationIssues(eq: ReferenceEquation, inputs: EquationInputs): Issue[
           makeIssue(
             "warning",
             "derivation-range-not-recorded",
-            `${eq.label}: the ${INPUT_LABEL[key as "ageY" | "heightCm"]} range of its cohort is not recorded here (${pop.cohort.split(". ")[0].replace(/\.$/, "")}); at ${Math.round(v * 10) / 10} ${units[key]} the prediction may be an extrapolation: read % predicted with caution.`,
+            `${eq.label}: the ${INPUT_LABEL[key as "ageY" | "heightCm"]} range of its cohort is not recorded here; at ${Math.round(v * 10) / 10} ${units[key]} the prediction may be an extrapolation: read % predicted with caution.`,
             { field: key },
           ),
         );

@@ -132,12 +132,11 @@ export function passwordProblems(password: string, username: string): string[] {
 export type AccountResult = { ok: true; account: Account } | { ok: false; reason: string };
 
 /** Make an account (audit: `account-created`). The display name is what a signature shows, so it must print in the PDF. */
-export function createAccount(input: {
-  username: string;
-  displayName: string;
-  role: AccountRole;
-  password: string;
-}): AccountResult {
+export function createAccount(
+  input: { username: string; displayName: string; role: AccountRole; password: string },
+  /** Who made it (the CLI passes the operating-system user). */
+  actor: string | null = null,
+): AccountResult {
   const username = input.username.trim().toLowerCase();
   const displayName = input.displayName.trim().normalize("NFC");
   if (!USERNAME.test(username))
@@ -161,7 +160,7 @@ export function createAccount(input: {
     hashPassword(input.password),
     now(),
   );
-  audit(null, "account-created", null, `${username} (${displayName}, ${input.role})`);
+  audit(actor, "account-created", null, `${username} (${displayName}, ${input.role})`);
   return { ok: true, account: getAccount(username)! };
 }
 
@@ -181,20 +180,20 @@ export function accountsEnabled(): boolean {
 }
 
 /** Disable (or enable again) an account; disabling ends its sessions (audit: `account-disabled` / `account-enabled`). */
-export function setAccountDisabled(username: string, disabled: boolean): boolean {
+export function setAccountDisabled(username: string, disabled: boolean, actor: string | null = null): boolean {
   const db = getDb();
   return db.transaction(() => {
     const account = getAccount(username);
     if (!account) return false;
     db.prepare("update accounts set disabled = ? where id = ?").run(disabled ? 1 : 0, account.id);
     if (disabled) db.prepare("delete from sessions where account_id = ?").run(account.id);
-    audit(null, disabled ? "account-disabled" : "account-enabled", null, account.username);
+    audit(actor, disabled ? "account-disabled" : "account-enabled", null, account.username);
     return true;
   })();
 }
 
 /** Set a new password; ends the account's sessions (audit: `account-password-set`). */
-export function setAccountPassword(username: string, password: string): AccountResult {
+export function setAccountPassword(username: string, password: string, actor: string | null = null): AccountResult {
   const account = getAccount(username);
   if (!account) return { ok: false, reason: `no account "${username}"` };
   const problems = passwordProblems(password, account.username);
@@ -203,7 +202,7 @@ export function setAccountPassword(username: string, password: string): AccountR
   db.transaction(() => {
     db.prepare("update accounts set password_hash = ? where id = ?").run(hashPassword(password), account.id);
     db.prepare("delete from sessions where account_id = ?").run(account.id);
-    audit(null, "account-password-set", null, account.username);
+    audit(actor, "account-password-set", null, account.username);
   })();
   return { ok: true, account };
 }
@@ -230,10 +229,10 @@ export function lockedOut(username: string, at: Date = new Date()): boolean {
 }
 
 /** Lift a lock-out now (audit: `account-unlocked`); failures before this no longer count. */
-export function unlockAccount(username: string): boolean {
+export function unlockAccount(username: string, actor: string | null = null): boolean {
   const account = getAccount(username);
   if (!account) return false;
-  audit(null, "account-unlocked", null, account.username);
+  audit(actor, "account-unlocked", null, account.username);
   return true;
 }
 

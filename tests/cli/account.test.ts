@@ -7,13 +7,14 @@ import { spawnSync } from "node:child_process";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
+import Database from "better-sqlite3";
 import { afterAll, describe, expect, it } from "vitest";
 
 const bin = path.join(__dirname, "..", "..", "bin", "cpet.mjs");
 const dir = fs.mkdtempSync(path.join(os.tmpdir(), "cpet-account-cli-"));
-const db = path.join(dir, "accounts.sqlite");
+const dbFile = path.join(dir, "accounts.sqlite");
 const cpet = (args: string[], input = "") =>
-  spawnSync(process.execPath, [bin, "account", "--db", db, ...args], { encoding: "utf8", input, timeout: 60_000 });
+  spawnSync(process.execPath, [bin, "account", "--db", dbFile, ...args], { encoding: "utf8", input, timeout: 60_000 });
 
 afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));
 
@@ -30,6 +31,12 @@ describe("cpet account", () => {
     expect(made.status).toBe(0);
     expect(made.stdout).toContain('account "jdoe" made (Dr J Doe (invented), clinician)');
     expect(made.stdout).toContain("from now on the app asks everyone to sign in");
+
+    // the audit trail names who ran the command on the database's machine
+    const db = new Database(dbFile, { readonly: true });
+    const createdBy = db.prepare("select actor from audit where action = 'account-created'").get() as { actor: string };
+    db.close();
+    expect(createdBy.actor).toMatch(/^cli(:.+)?$/);
 
     const list = cpet(["list", "--json"]);
     expect(list.status).toBe(0);
