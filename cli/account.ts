@@ -26,7 +26,7 @@ export function registerAccount(program: Command): void {
     .requiredOption("--name <display name>", 'the name a signature shows, e.g. "Dr J Doe"')
     .requiredOption("--role <role>", "clinician (may sign reports) | physiologist (everything but signing)")
     .action(async (username: string, opts: { name: string; role: string }) => {
-      const store = await openStore(account);
+      const store = useDatabase(account);
       if (opts.role !== "clinician" && opts.role !== "physiologist")
         throw new UsageError(`--role must be clinician or physiologist, not "${opts.role}"`);
       const wasOpen = !store.accountsEnabled();
@@ -42,7 +42,7 @@ export function registerAccount(program: Command): void {
     .description("list the accounts")
     .option("--json", "print one JSON array on stdout")
     .action(async (opts: { json?: boolean }) => {
-      const store = await openStore(account);
+      const store = useDatabase(account);
       const all = store.listAccounts();
       if (opts.json) {
         process.stdout.write(JSON.stringify(all, null, 2) + "\n");
@@ -60,7 +60,7 @@ export function registerAccount(program: Command): void {
     .description("disable an account and end its sessions")
     .option("--leave-app-open", "allow disabling the last enabled account, which turns log-in off for everyone")
     .action(async (username: string, opts: { leaveAppOpen?: boolean }) => {
-      const store = await openStore(account);
+      const store = useDatabase(account);
       const target = store.getAccount(username);
       if (!target) throw new UsageError(`no account "${username}"`);
       const othersEnabled = store.listAccounts().some((a) => !a.disabled && a.username !== target.username);
@@ -79,7 +79,7 @@ export function registerAccount(program: Command): void {
     .command("enable <username>")
     .description("enable a disabled account")
     .action(async (username: string) => {
-      const store = await openStore(account);
+      const store = useDatabase(account);
       if (!store.setAccountDisabled(username, false, cliActor())) throw new UsageError(`no account "${username}"`);
       process.stdout.write(`account "${username}" enabled\n`);
     });
@@ -88,7 +88,7 @@ export function registerAccount(program: Command): void {
     .command("unlock <username>")
     .description("lift a lock-out after repeated failed log-ins")
     .action(async (username: string) => {
-      const store = await openStore(account);
+      const store = useDatabase(account);
       if (!store.unlockAccount(username, cliActor())) throw new UsageError(`no account "${username}"`);
       process.stdout.write(`log-in for "${username}" unlocked\n`);
     });
@@ -97,7 +97,7 @@ export function registerAccount(program: Command): void {
     .command("password <username>")
     .description("set a new password (ends the account's sessions)")
     .action(async (username: string) => {
-      const store = await openStore(account);
+      const store = useDatabase(account);
       if (!store.getAccount(username)) throw new UsageError(`no account "${username}"`);
       const res = store.setAccountPassword(username, await readNewPassword(), cliActor());
       if (!res.ok) throw new UsageError(res.reason);
@@ -106,7 +106,7 @@ export function registerAccount(program: Command): void {
 }
 
 /** The accounts store, on `--db` when given (the database opens on first use, so other commands never open it). */
-async function openStore(account: Command) {
+function useDatabase(account: Command): typeof accounts {
   const db = account.opts<{ db?: string }>().db;
   if (db) process.env.CPET_DB = db;
   return accounts;

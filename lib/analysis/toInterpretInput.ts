@@ -130,7 +130,8 @@ export function toInterpretInput(
   const plateauWhy = vo2PlateauNotAssessedReason(indices.vo2FinalIncrease);
   if (plateauWhy) reasons.vo2Plateau = plateauWhy;
   const peakEndsEarly = indices.peaks.issues.some((i) => i.code === "peak-vo2-before-end");
-  if (peakEndsEarly && vo2PlateauPresent(indices.vo2FinalIncrease) !== null)
+  const plateau = vo2PlateauPresent(indices.vo2FinalIncrease);
+  if (peakEndsEarly && plateau !== null)
     reasons.vo2Plateau =
       "the highest VO2 window ends well before the end of exercise (see the warning on peak VO2): check those breaths before reading a plateau";
   // the calibrated bands, as the values at each end (everything computed from VT1 moves with it)
@@ -275,7 +276,7 @@ export function toInterpretInput(
       // one plateau determination for the effort set and the interpretation (`vo2PlateauPresent`)
       // a plateau at the end of exercise when the highest VO2 window ended well before it (`peak-vo2-before-end`) is
       // not read as a limit reached until the breaths are checked (review: ACTES test 11)
-      vo2Plateau: peakEndsEarly ? null : vo2PlateauPresent(indices.vo2FinalIncrease),
+      vo2Plateau: peakEndsEarly ? null : plateau,
       vt1Determined: thresholds.vt1.confidence !== "not-determinable" && vt1Vo2 !== null,
       vt1Vo2MlMin: vt1Vo2,
       vt1Vo2MlKgMin: vt1Vo2 !== null && patient.weightKg ? vt1Vo2 / patient.weightKg : null,

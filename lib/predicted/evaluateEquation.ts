@@ -99,7 +99,7 @@ export function populationRange(
 }
 
 /**
- * Where an equation records no range for a predictor (or no upper age), a patient beyond these is named as a possible
+ * Where an equation records no bound for a predictor it uses (no range, or no upper age), a patient beyond these is named as a possible
  * extrapolation: most adult reference cohorts hold few people over 80 y or outside 150-200 cm (this product's choice,
  * common practice; review: an 88-year-old and a 205-cm man had no warning on peak VO2).
  */
@@ -128,25 +128,21 @@ function populationIssues(eq: ReferenceEquation, inputs: EquationInputs): Issue[
     const edge = UNRECORDED_RANGE_EDGES[key as keyof typeof UNRECORDED_RANGE_EDGES];
     // a derived prediction carries the notes of the equations it is built from
     const uses = eq.kind !== "derived-predicted" && eq.predictors.some((pr) => pr.from === key);
+    // a bound the cohort does not record is replaced by the edge: beyond it the value may be an extrapolation
     if (
       v !== undefined &&
       edge &&
       uses &&
-      (!range ||
-        (range.min === undefined && range.max === undefined) ||
-        (key === "ageY" && range.max === undefined && v > edge.max))
-    ) {
-      if (v < edge.min || v > edge.max)
-        issues.push(
-          makeIssue(
-            "warning",
-            "derivation-range-not-recorded",
-            `${eq.label}: the ${INPUT_LABEL[key as "ageY" | "heightCm"]} range of its cohort is not recorded here; at ${Math.round(v * 10) / 10} ${units[key]} the prediction may be an extrapolation: read % predicted with caution.`,
-            { field: key },
-          ),
-        );
-      if (!range) continue;
-    }
+      ((range?.min === undefined && v < edge.min) || (range?.max === undefined && v > edge.max))
+    )
+      issues.push(
+        makeIssue(
+          "warning",
+          "derivation-range-not-recorded",
+          `${eq.label}: the ${INPUT_LABEL[key as "ageY" | "heightCm"]} range of its cohort is not recorded here; at ${Math.round(v * 10) / 10} ${units[key]} the prediction may be an extrapolation: read % predicted with caution.`,
+          { field: key },
+        ),
+      );
     if (!range || v === undefined) continue;
     const below = range.min !== undefined && v < range.min;
     const above = range.max !== undefined && v > range.max;

@@ -70,25 +70,11 @@ export function hashPassword(password: string): string {
   return ["scrypt", SCRYPT.N, SCRYPT.r, SCRYPT.p, salt.toString("base64"), key.toString("base64")].join("$");
 }
 
-/** Whether `password` matches a hash made by `hashPassword` (constant-time comparison of the derived keys). */
-export function verifyPassword(password: string, stored: string): boolean {
-  const [kind, n, r, p, salt, hash] = stored.split("$");
-  if (kind !== "scrypt" || !salt || !hash) return false;
-  const expected = Buffer.from(hash, "base64");
-  const key = scryptSync(password.normalize("NFC"), Buffer.from(salt, "base64"), expected.length, {
-    N: Number(n),
-    r: Number(r),
-    p: Number(p),
-    maxmem: scryptMaxmem(Number(n), Number(r)),
-  });
-  return key.length === expected.length && timingSafeEqual(key, expected);
-}
-
 /**
- * `verifyPassword` off the server's main thread (libuv's pool): a log-in costs about 0.35 s of hashing, which must not
- * stall every other request while it runs.
+ * Whether `password` matches a hash made by `hashPassword` (constant-time comparison of the derived keys). Runs off the
+ * server's main thread (libuv's pool): a check costs about 0.35 s of hashing, which must not stall other requests.
  */
-export function verifyPasswordAsync(password: string, stored: string): Promise<boolean> {
+export function verifyPassword(password: string, stored: string): Promise<boolean> {
   const [kind, n, r, p, salt, hash] = stored.split("$");
   if (kind !== "scrypt" || !salt || !hash) return Promise.resolve(false);
   const expected = Buffer.from(hash, "base64");
@@ -103,8 +89,18 @@ export function verifyPasswordAsync(password: string, stored: string): Promise<b
   );
 }
 
-/** A hash to compare against when the user name is unknown, so a wrong name takes as long as a wrong password. */
-let decoyHash: string | null = null;
+/**
+ * A stored hash to check against when the user name is unknown, so a wrong name takes as long as a wrong password: the
+ * cost is the key derivation, which does not depend on the stored key, so random bytes serve (nothing is hashed here).
+ */
+const DECOY_HASH = [
+  "scrypt",
+  SCRYPT.N,
+  SCRYPT.r,
+  SCRYPT.p,
+  randomBytes(16).toString("base64"),
+  randomBytes(SCRYPT.keyLen).toString("base64"),
+].join("$");
 
 const now = () => new Date().toISOString();
 const sha256 = (s: string) => createHash("sha256").update(s).digest("hex");
@@ -257,8 +253,7 @@ export async function logIn(usernameSent: string, password: string, at: Date = n
     };
   }
   const row = db.prepare("select * from accounts where username = ?").get(username) as AccountRow | undefined;
-  decoyHash ??= hashPassword(randomBytes(12).toString("base64"));
-  const matches = await verifyPasswordAsync(password.slice(0, PASSWORD_MAX_CHARS), row?.password_hash ?? decoyHash);
+  const matches = await verifyPassword(password.slice(0, PASSWORD_MAX_CHARS), row?.password_hash ?? DECOY_HASH);
   if (!row || !matches || row.disabled === 1) {
     audit(
       username,
@@ -306,7 +301,7 @@ export function sessionAccount(token: string | undefined | null, at: Date = new 
 export async function confirmPassword(username: string, password: string): Promise<boolean> {
   const row = getDb().prepare("select * from accounts where username = ?").get(username) as AccountRow | undefined;
   if (!row || row.disabled === 1 || lockedOut(row.username)) return false;
-  const ok = await verifyPasswordAsync(password.slice(0, PASSWORD_MAX_CHARS), row.password_hash);
+  const ok = await verifyPassword(password.slice(0, PASSWORD_MAX_CHARS), row.password_hash);
   if (!ok) audit(row.username, "log-in-failed", null, "wrong password at signing");
   return ok;
 }

@@ -120,11 +120,20 @@ export interface ReportStanding {
 
 /** Report standing of every test at once (one query), by test id; tests without a report are absent. */
 export function reportStandings(): Map<number, ReportStanding> {
+  return standingsOf(null);
+}
+
+/** Report standing of one test (for its own page: reads only that test's reports); undefined without a report. */
+export function reportStanding(testId: number): ReportStanding | undefined {
+  return standingsOf(testId).get(testId);
+}
+
+function standingsOf(testId: number | null): Map<number, ReportStanding> {
   const rows = getDb()
     .prepare(
-      `select x.*, (select max(a.id) from analyses a where a.test_id = x.test_id) as latest_analysis_id from (${SELECT}) x order by x.test_id, x.id`,
+      `select x.*, (select max(a.id) from analyses a where a.test_id = x.test_id) as latest_analysis_id from (${SELECT}${testId === null ? "" : " where r.test_id = ?"}) x order by x.test_id, x.id`,
     )
-    .all() as (ReportRow & { latest_analysis_id: number | null })[];
+    .all(...(testId === null ? [] : [testId])) as (ReportRow & { latest_analysis_id: number | null })[];
   const out = new Map<number, ReportStanding>();
   for (const r of rows) {
     const cur = out.get(r.test_id) ?? { versions: 0, newest: null, lastSigned: null, analysisChanged: false };

@@ -4,6 +4,7 @@ import {
   getOrCreateDraft,
   getReport,
   listReports,
+  reportStanding,
   reportStandings,
   saveDraft,
   signReport,
@@ -56,6 +57,7 @@ describe("report drafts and signatures (SQLite in memory)", () => {
     expect(standingWords(reportStandings().get(testId))).toBe("draft version 1, not signed");
     signReport(v1.id, "Dr A Example", "Reviewed.");
     expect(standingWords(reportStandings().get(testId))).toBe("signed (version 1, Dr A Example)");
+    expect(reportStanding(testId)).toEqual(reportStandings().get(testId));
     // editing the signed version's text makes version 2, a draft that revises it
     saveDraft(v1.id, [{ ...initial[0], paragraphs: ["Edited after signing (invented)."] }, ...initial.slice(1)], "reviewer");
     expect(listReports(testId)).toHaveLength(2);

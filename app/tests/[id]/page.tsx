@@ -18,7 +18,7 @@ import { AVERAGED_ROW_INTERVAL_S, medianRowIntervalS } from "@/lib/signal";
 import { displayUnit, formatClock, formatNumber } from "@/lib/units";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { getTest, listAnalysisVersions } from "@/lib/store/tests";
-import { reportStandings, standingWords } from "@/lib/store/reports";
+import { reportStanding, standingWords } from "@/lib/store/reports";
 import { Chart } from "../../components/Chart";
 import { IssueList } from "../../components/IssueList";
 import { TableScroll } from "../../components/TableScroll";
@@ -117,7 +117,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
   }
 
   const versions = listAnalysisVersions(testId);
-  const standing = reportStandings().get(testId);
+  const standing = reportStanding(testId);
   const settings = versions[0]?.settings ?? getLabDefaults();
   // the analysis version this page shows, sent back by its forms (a save from a stale page is refused)
   const versionToken = settingsToken(testId);
@@ -461,11 +461,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
               label="PETCO2 at VT1"
               m={pk.petco2AtVt1MmHg}
               d={1}
-              extra={
-                pk.petco2AtVt1MmHg.value !== null && pk.petco2RestMmHg.value !== null
-                  ? `rise from rest ${pk.petco2RiseMmHg.value !== null ? fmt(pk.petco2RiseMmHg, 1) : formatNumber(pk.petco2AtVt1MmHg.value - pk.petco2RestMmHg.value, 1)} mmHg`
-                  : undefined
-              }
+              extra={pk.petco2RiseMmHg.value !== null ? `rise from rest ${fmt(pk.petco2RiseMmHg, 1)} mmHg` : undefined}
             />
             {/* the rise that grades heart failure is the one from rest to VT1, given on the row above */}
             <IndexRow label="Highest PETCO2 during exercise" m={pk.petco2PeakMmHg} d={1} />
