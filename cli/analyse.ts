@@ -321,6 +321,7 @@ export function formatText(r: CliAnalysisJson, opts: Pick<AnalyseOptions, "betaB
   const effortWords = r.interpretation as {
     effort?: { text?: string; verdict?: string; label?: string };
     path?: { end?: { label: string } | null; steps?: { title: string; borderline?: string }[] };
+    lead?: string[];
     patterns?: { statement: string; support: string; borderline?: string }[];
   };
   const leading = effortWords.patterns?.find((p) => p.support === "strong" || p.support === "moderate");
@@ -341,7 +342,7 @@ export function formatText(r: CliAnalysisJson, opts: Pick<AnalyseOptions, "betaB
     ...(effortWords.effort?.verdict ? [`effort          ${effortWords.effort.label ?? effortWords.effort.verdict}`] : []),
     ...(effortWords.path?.end
       ? [
-          `draft reading   ${effortWords.path.end.label}.${leading ? ` ${leading.statement}${leading.borderline ? ` Read with: ${leading.borderline}.` : ""}` : ""}`,
+          `draft reading   ${(effortWords.lead ?? [`${effortWords.path.end.label}.`]).join(" ")}${leading ? ` ${leading.statement}${leading.borderline ? ` Read with: ${leading.borderline}.` : ""}` : ""}`,
         ]
       : []),
     // a step an uncertainty band would turn (an MVV estimated from FEV1, a threshold's band), as the draft says it

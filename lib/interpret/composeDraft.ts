@@ -1,8 +1,31 @@
 import { DRAFT_CAUTION } from "../core/cautions";
 import type { SerialComparison } from "./compareTests";
-import { formatValue, unique } from "./format";
+import { andList, formatValue, unique } from "./format";
 import type { InterpretInput, Interpretation, ReferralQuestion, SchemeResult } from "./types";
 import { variableInfo, type VariableId } from "./variables";
+
+/**
+ * The first sentences of the conclusion: where the stepwise reading ended and, when peak VO2 reads as reduced on one
+ * weight basis only, both readings. The stepwise reading grades % predicted on actual body weight, so with a split its
+ * end is said as the reading on actual weight, after the two readings: "No exercise limitation identified" must not
+ * lead a conclusion whose peak VO2 is reduced on predicted body mass (obesity: per-kg equations such as FRIEND read
+ * higher on actual weight — Osman et al., J Am Coll Cardiol 2000, recalled). The draft, the page and the CLI's one-line
+ * reading all use this.
+ */
+export function conclusionLead(interpretation: Interpretation, input: InterpretInput): string[] {
+  const end = interpretation.path.end;
+  const wb = input.weightBasisSplit;
+  if (!wb || !interpretation.effort.peakConclusionsAllowed) return end ? [`${end.label}.`] : [];
+  const actual = `${wb.actualPct.toFixed(0)} % on actual body weight (${wb.reducedOnActual ? "reduced" : "not reduced"})`;
+  const ideal = `${wb.idealPct.toFixed(0)} % on predicted body mass (${wb.idealWeightKg.toFixed(1)} kg; ${wb.reducedOnActual ? "not reduced" : "reduced"})`;
+  // the reduced reading first, so the reader meets it before any "no limitation"
+  const readings = wb.reducedOnActual ? `${actual} and ${ideal}` : `${ideal} but ${actual}`;
+  const out = [
+    `Peak VO2 is ${readings.replace(/^(\d+) %/, "$1 % of predicted")}: the reading depends on the weight basis, which the report should state.`,
+  ];
+  if (end) out.push(`On actual body weight: ${end.label.charAt(0).toLowerCase()}${end.label.slice(1)}.`);
+  return out;
+}
 
 /** An intensity domain for exercise prescription (from the thresholds layer), all optional ranges. */
 export interface IntensityDomain {
@@ -129,10 +152,6 @@ const REFERRAL_TEXT: Record<ReferralQuestion, string> = {
 };
 
 /** "a", "a and b", "a, b and c". */
-function andList(items: readonly string[]): string {
-  return items.length > 1 ? `${items.slice(0, -1).join(", ")} and ${items[items.length - 1]}` : (items[0] ?? "");
-}
-
 /** Plain names of the predicted quantities, for the extrapolation sentence of the conclusion. */
 const PREDICTED_WORDS = { peakVo2: "peak VO2", hrMax: "maximal heart rate", o2Pulse: "O2 pulse" } as const;
 
@@ -462,15 +481,7 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     });
   }
 
-  const concl: string[] = [];
-  const end = interpretation.path.end;
-  if (end) concl.push(`${end.label}.`);
-  // a capacity read as reduced on one weight basis only says so beside the reading (obesity: Osman 2000, recalled)
-  const wb = input.weightBasisSplit;
-  if (wb && e.peakConclusionsAllowed)
-    concl.push(
-      `Peak VO2 is ${wb.actualPct.toFixed(0)} % of predicted on actual body weight (${wb.reducedOnActual ? "reduced" : "not reduced"}) and ${wb.idealPct.toFixed(0)} % on predicted body mass (${wb.idealWeightKg.toFixed(1)} kg; ${wb.reducedOnActual ? "not reduced" : "reduced"}): the reading depends on the weight basis, which the report should state.`,
-    );
+  const concl: string[] = conclusionLead(interpretation, input);
   // Only moderately or strongly supported patterns reach the conclusion; weak ones stay in the pattern section.
   const leading = supported.find((p) => p.support === "strong" || p.support === "moderate");
   // deconditioning says "no sign of a specific disease": not while another limitation has moderate or strong support

@@ -79,3 +79,8 @@ export const OP_TEXT: Record<string, string> = {
 export function unique<T>(items: readonly T[]): T[] {
   return [...new Set(items)];
 }
+
+/** "a", "a and b", "a, b and c". */
+export function andList(items: readonly string[]): string {
+  return items.length > 1 ? `${items.slice(0, -1).join(", ")} and ${items[items.length - 1]}` : (items[0] ?? "");
+}

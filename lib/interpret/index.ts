@@ -3,6 +3,7 @@ export * from "./variables";
 export { interpret, makeContext } from "./interpret";
 export {
   composeDraft,
+  conclusionLead,
   ATRIAL_FIBRILLATION_HR_NOTE,
   BETA_BLOCKER_HR_NOTE,
   BETA_BLOCKER_HR_REACHED_NOTE,

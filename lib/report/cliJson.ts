@@ -1,6 +1,6 @@
 import type { Issue, Measured } from "../core";
 import type { AnalysisResult } from "../analysis";
-import { ATRIAL_FIBRILLATION_HR_NOTE, BETA_BLOCKER_HR_NOTE, type InterpretValues } from "../interpret";
+import { ATRIAL_FIBRILLATION_HR_NOTE, BETA_BLOCKER_HR_NOTE, conclusionLead, type InterpretValues } from "../interpret";
 import {
   LACTATE_METHOD_ESTIMATES,
   LACTATE_METHOD_NAMES,
@@ -383,6 +383,7 @@ export function toCliJson(result: AnalysisResult, caution: string): CliAnalysisJ
         text: result.interpretation.effort.text,
       },
       path: result.interpretation.path,
+      lead: conclusionLead(result.interpretation, result.interpretInput),
       patterns: result.interpretation.patterns,
       schemes: result.interpretation.schemes,
       settingsUsed: result.interpretation.settingsUsed,
