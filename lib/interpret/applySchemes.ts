@@ -1,6 +1,6 @@
 import { makeIssue, type Issue } from "../core";
 import { conditionVariables, dedupeUses, evaluateCondition, variableLabel, type EvalContext } from "./evaluateCondition";
-import { formatCutoff, formatValue, unique, weakestStatus } from "./format";
+import { andList, formatCutoff, formatValue, unique, weakestStatus } from "./format";
 import { variableInfo } from "./variables";
 import { runGraph } from "./runGraph";
 import type { AxisData, BandData, SchemeData } from "./schema";
@@ -74,6 +74,17 @@ function evaluateAxis(
           atLeast: true,
         };
       }
+      // the undecided input is a yes/no one (ischaemic heart disease): the category each answer would give, so the
+      // reader sees "low risk if absent; intermediate if present" instead of "not assessable"
+      const dependsOn = categoryByAnswer(bands, ctx);
+      if (dependsOn) {
+        issues.push(
+          makeIssue("warning", "scheme-category-depends-on-input", `${axis.label}: ${dependsOn}.`, {
+            field: `${schemeId}.${axis.id}`,
+          }),
+        );
+        return { ...base, category: null, text: `${axis.label}: ${dependsOn}`, reason: dependsOn, dependsOn };
+      }
       const reason = `not assessable (${r.text})`;
       return { ...base, category: null, text: `${axis.label}: ${reason}`, reason };
     }
@@ -110,6 +121,35 @@ function floorBelow(later: BandData[], undecided: BandData, ctx: EvalContext): B
     if (o === null) return null;
   }
   return null;
+}
+
+/**
+ * When the only inputs an axis lacks are yes/no ones (at most two), the category each answer gives, in words:
+ * "depends on ischaemic heart disease (not recorded): low risk (…) if absent; intermediate risk (…) if present". Null when
+ * a numeric input is missing, when an answer still leaves the axis undecided, or when every answer gives the same
+ * category (then the caller's reading stands).
+ */
+function categoryByAnswer(bands: BandData[], ctx: EvalContext): string | null {
+  const used = new Set(bands.flatMap((b) => [...conditionVariables(b.when, ctx)]));
+  const missing = [...used].filter((name) => ctx.vars[name] === null || ctx.vars[name] === undefined);
+  if (missing.length === 0 || missing.length > 2 || missing.some((name) => variableInfo(name).kind !== "boolean")) return null;
+  const answers: { words: string; band: BandData }[] = [];
+  for (let mask = 0; mask < 1 << missing.length; mask++) {
+    const vars = { ...ctx.vars };
+    const said: string[] = [];
+    missing.forEach((name, i) => {
+      const yes = Boolean(mask & (1 << i));
+      vars[name] = yes;
+      const word = yes ? "present" : "absent";
+      said.push(missing.length > 1 ? `${lowerFirst(variableLabel(ctx, name))} ${word}` : word);
+    });
+    const band = categoryWith(bands, { ...ctx, vars, ruleCache: new Map(), bandEnds: [] });
+    if (!band) return null;
+    answers.push({ words: said.join(", "), band });
+  }
+  if (new Set(answers.map((a) => a.band.key)).size === 1) return null;
+  const what = andList(missing.map((name) => lowerFirst(variableLabel(ctx, name))));
+  return `depends on ${what} (not recorded): ${answers.map((a) => `${lowerFirst(a.band.label)} if ${a.words}`).join("; ")}`;
 }
 
 const lowerFirst = (t: string) => t.charAt(0).toLowerCase() + t.slice(1);
@@ -199,6 +239,10 @@ function bandEndWords(ctx: EvalContext, end: NonNullable<EvalContext["bandEnds"]
 function noCategoryReason(mode: string, axes: readonly SchemeAxisResult[]): string {
   const a = mode.startsWith("axis:") ? axes.find((x) => `axis:${x.axisId}` === mode) : undefined;
   if (a) return `${a.label}: ${a.reason ?? "not graded"}`;
+  // an axis waiting on a yes/no answer says what each answer gives, without the "could not be placed" preamble
+  const waiting = axes.filter((x) => x.inCombination && !x.category && x.dependsOn);
+  if (waiting.length && waiting.length === axes.filter((x) => x.inCombination && !x.category).length)
+    return waiting.map((x) => x.dependsOn).join("; ");
   const why = axes.filter((x) => x.inCombination && !x.category && x.reason).map((x) => `${x.label}: ${x.reason}`);
   return `none of the graded variables could be placed in a band${why.length ? ` (${why.join("; ")})` : ""}`;
 }

@@ -516,6 +516,15 @@ export function composeDraft(input: InterpretInput, interpretation: Interpretati
     const caveats = conclusionCaveats(s, interpretation, input);
     concl.push(`${s.name}: ${s.overall!.label}.${caveats.length ? ` Read with: ${caveats.join("; ")}.` : ""}`);
   }
+  // a combined scheme that waits on a yes/no input not recorded (ischaemic heart disease) says what each answer gives
+  for (const s of interpretation.schemes) {
+    if (s.overall || s.kind !== "bands" || !s.overallMode) continue;
+    const waiting = s.axes.filter((a) => a.inCombination && a.dependsOn);
+    if (waiting.length)
+      concl.push(
+        `${s.name}: ${waiting.map((a) => a.dependsOn).join("; ")}. Record it with the clinical context to settle the category.`,
+      );
+  }
   // a referral whose schemes publish no combined category (pulmonary hypertension's risk table) gives its graded rows;
   // beside schemes that do (heart failure: Weber, ventilatory class), the heart-failure prognostic table's adverse rows
   // are named (oscillatory ventilation, a small PETCO2 rise), so a prognostic marker graded only in the schemes section

@@ -372,6 +372,11 @@ export interface SchemeAxisResult {
    * whatever that input is ("at least intermediate").
    */
   atLeast?: boolean;
+  /**
+   * The axis waits on a yes/no input not recorded, and each answer gives a known category: "depends on ischaemic heart
+   * disease (not recorded): low risk (…) if absent; intermediate risk (…) if present". The category is then null.
+   */
+  dependsOn?: string;
 }
 
 export interface SchemeResult {

@@ -223,10 +223,26 @@ describe("Pre-operative three-tier scheme (Authorea preprint, authors not record
   ] as [V, string][])("%o → %s", (v, k) => {
     expect(axis("preop-three-tier", "tier", v)).toBe(k);
   });
-  it("missing ischaemic-heart-disease status makes a low-AT-only case not assessable rather than low risk, and says why", () => {
+  it("missing ischaemic-heart-disease status leaves no category but says what each answer gives (low if absent, intermediate if present)", () => {
+    // INVENTED: AT 11.0 mL/kg/min and VE/VCO2 at AT 34.0 are both on the favourable side of their cut-offs (Older 1993 /
+    // Wilson 2010 via the three-tier scheme, periop-3tier-s34): IHD alone then decides low (no factor) or intermediate (one)
     expect(axis("preop-three-tier", "tier", { vt1Vo2MlKgMin: 12, veVco2AtVt1: 30 })).toBeNull();
-    const { s } = run("preop-three-tier", { vt1Vo2MlKgMin: 11, veVco2AtVt1: 34 });
-    expect(s.overallText).toMatch(/could be placed in a band \(.*Ischaemic heart disease not available/i);
+    const { r, s } = run("preop-three-tier", { vt1Vo2MlKgMin: 11, veVco2AtVt1: 34 });
+    expect(s.overall).toBeNull();
+    expect(s.axes[0].dependsOn).toMatch(
+      /^depends on ischaemic heart disease \(not recorded\): low risk \(.*\) if absent; intermediate risk \(.*\) if present$/,
+    );
+    expect(s.overallText).toBe(`No overall category: ${s.axes[0].dependsOn}`);
+    expect(r.issues.map((i) => i.code)).toContain("scheme-category-depends-on-input");
+    // each answer, recorded, gives the category the sentence promised
+    expect(axis("preop-three-tier", "tier", { vt1Vo2MlKgMin: 11, veVco2AtVt1: 34, ischaemicHeartDisease: false })).toBe("low");
+    expect(axis("preop-three-tier", "tier", { vt1Vo2MlKgMin: 11, veVco2AtVt1: 34, ischaemicHeartDisease: true })).toBe(
+      "intermediate",
+    );
+    // a missing number is not guessed at: AT unknown stays not assessable
+    const { s: noAt } = run("preop-three-tier", { vt1Vo2MlKgMin: null, veVco2AtVt1: 30 });
+    expect(noAt.axes[0].dependsOn).toBeUndefined();
+    expect(noAt.overallText).toMatch(/could be placed in a band/);
   });
   it("with ischaemic heart disease not recorded, AT 8-10.9 is at least intermediate risk (high not excluded), not 'no category'", () => {
     // INVENTED: AT 8.0 mL/kg/min, VE/VCO2 at AT 30: one risk factor for sure, the second (IHD) unknown
