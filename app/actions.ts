@@ -85,6 +85,7 @@ export async function uploadTest(prev: UploadState, form: FormData): Promise<Upl
     weightKg: d.weightKg,
   };
   const spirometry = d.fev1L !== undefined || d.mvvLMin !== undefined ? { fev1L: d.fev1L, mvvLMin: d.mvvLMin } : undefined;
+  const context = d.ischaemicHeartDisease ? { ischaemicHeartDisease: d.ischaemicHeartDisease === "yes" } : undefined;
   const built = await buildRecord({
     bytes,
     fileName: stored.fileName,
@@ -98,6 +99,7 @@ export async function uploadTest(prev: UploadState, form: FormData): Promise<Upl
     },
   });
   if (built.record && spirometry) built.record.spirometry = spirometry;
+  if (built.record && context) built.record.context = { ...built.record.context, ...context };
   const id = saveTest({
     uploadId,
     // without a label the register names the test by its upload time, not by the file name, which often holds the
@@ -112,7 +114,13 @@ export async function uploadTest(prev: UploadState, form: FormData): Promise<Upl
   if (!built.record)
     recordUploadDetails(
       id,
-      { patient, ergometer: d.ergometer, referral: d.referral, ...(spirometry ? { spirometry } : {}) },
+      {
+        patient,
+        ergometer: d.ergometer,
+        referral: d.referral,
+        ...(spirometry ? { spirometry } : {}),
+        ...(context ? { context } : {}),
+      },
       access.actor,
     );
   // the choices the file was read with, so a re-read on the columns page starts from them

@@ -74,6 +74,9 @@ export const testDetailsSchema = z.object({
     .default("general"),
   fev1L: plausibleNumber("fev1L"),
   mvvLMin: plausibleNumber("mvvLMin"),
+  // read by the pre-operative schemes (three-tier: a risk factor); asked with the upload so a pre-operative test is not
+  // left without a category until someone finds the clinical-context form
+  ischaemicHeartDisease: z.enum(["", "yes", "no"]).optional().default(""),
 });
 
 export type TestDetails = z.infer<typeof testDetailsSchema>;

@@ -76,3 +76,33 @@ test("breaths exported smoothed: oscillatory ventilation is reported with a warn
   await expect(page.getByText(/Breath VE noise carries over from one breath to the next/).first()).toBeVisible();
   await expect(page.getByTestId("clinical-caution")).toContainText("qualified clinician");
 });
+
+test("ischaemic heart disease asked with a pre-operative upload settles the three-tier category", async ({ page }) => {
+  // The INVENTED normal-adult demo (tests/fixtures/cases) sent as a pre-operative referral: AT ≥ 11 mL/kg/min and
+  // VE/VCO2 at AT ≤ 34, so ischaemic heart disease alone decides low or intermediate risk in the three-tier scheme.
+  const csv = fs.readFileSync(path.resolve(__dirname, "../tests/fixtures/cases/normal-adult.csv"), "utf8");
+  const details = { weightKg: "75", sex: "male", ageY: "45", heightCm: "178", referral: "pre-operative" };
+  const register = new RegisterPage(page);
+  await register.open();
+  await register.upload({ name: "normal-preop.csv", content: csv }, { ...details, label: "E2E pre-op, IHD not stated" });
+  await page.waitForURL(/\/tests\/\d+/);
+  await expect(page.getByTestId("schemes")).toContainText(
+    "depends on ischaemic heart disease (not recorded): low risk (AT ≥ 11 mL/kg/min, no other risk factor) if absent",
+  );
+  await expect(page.getByTestId("clinical-caution")).toContainText("qualified clinician");
+
+  await register.open();
+  await register.upload(
+    { name: "normal-preop.csv", content: csv },
+    { ...details, ischaemicHeartDisease: "yes", label: "E2E pre-op, IHD yes" },
+  );
+  await page.waitForURL(/\/tests\/\d+/);
+  const schemes = page.getByTestId("schemes");
+  await expect(schemes).toContainText(
+    "Intermediate risk (one of AT 8-10.9 mL/kg/min, VE/VCO2 at AT > 34, ischaemic heart disease)",
+  );
+  await expect(schemes).not.toContainText("depends on ischaemic heart disease");
+  // the answer is the clinical context's, where it can be changed later
+  await page.goto(`${new URL(page.url()).pathname}/inputs`);
+  await expect(page.getByTestId("context-form").locator('[name="ischaemicHeartDisease"]')).toHaveValue("yes");
+});

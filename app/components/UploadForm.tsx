@@ -139,6 +139,15 @@ function UploadFields({
           Measured MVV (L/min)
           <input name="mvvLMin" type="number" step="any" defaultValue={v.mvvLMin ?? ""} size={5} />
         </label>
+        <label>
+          Ischaemic heart disease
+          <select name="ischaemicHeartDisease" defaultValue={v.ischaemicHeartDisease ?? ""} data-testid="upload-ihd">
+            <option value="">not stated</option>
+            <option value="yes">yes</option>
+            <option value="no">no</option>
+          </select>
+          <span className="how">Read by the pre-operative risk schemes.</span>
+        </label>
       </div>
       <label>
         Stage length (s), for a stage table without a time column

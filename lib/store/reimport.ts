@@ -1,5 +1,5 @@
 import "server-only";
-import { ENGINE_VERSION, type ReferralQuestion, type TestRecord } from "../analysis";
+import { ENGINE_VERSION, type ClinicalContext, type ReferralQuestion, type TestRecord } from "../analysis";
 import { columnMappingSchema, type ColumnDecision, type ColumnMapping } from "../breath";
 import type { Ergometer, Issue, Patient, Spirometry } from "../core";
 import { getDb } from "./db";
@@ -28,6 +28,7 @@ export interface UploadDetails {
   ergometer: Ergometer;
   referral: ReferralQuestion;
   spirometry?: Spirometry;
+  context?: ClinicalContext;
 }
 
 interface ImportJson {
@@ -87,6 +88,9 @@ export function describeDetails(d: UploadDetails): string {
     `${p.weightKg ?? "?"} kg`,
     d.ergometer,
     d.referral,
+    ...(d.context?.ischaemicHeartDisease !== undefined
+      ? [`ischaemic heart disease ${d.context.ischaemicHeartDisease ? "yes" : "no"}`]
+      : []),
   ].join(", ");
 }
 

@@ -145,7 +145,8 @@ export async function applyColumnChoices(_prev: ColumnFormState, form: FormData)
   }
 
   // Re-read. A refused test has no record: its details come from this form, which shows the ones kept with the
-  // upload (spirometry entered with the upload is not on this form and is taken from what was kept).
+  // upload (spirometry and ischaemic heart disease entered with the upload are not on this form and are taken from what
+  // was kept).
   const kept = test.record ? null : getUploadDetails(testId);
   let patient: TestRecord["patient"];
   let ergometer: TestRecord["ergometer"];
@@ -205,7 +206,11 @@ export async function applyColumnChoices(_prev: ColumnFormState, form: FormData)
           importIssues: built.issues,
           upload: built.record.upload,
         }
-      : { ...built.record, ...(kept?.spirometry ? { spirometry: kept.spirometry } : {}) }
+      : {
+          ...built.record,
+          ...(kept?.spirometry ? { spirometry: kept.spirometry } : {}),
+          ...(kept?.context ? { context: kept.context } : {}),
+        }
     : null;
   replaceImport(testId, { record, columns: built.columns, issues: built.issues, choices, actor: access.actor });
   revalidatePath(`/tests/${testId}`);
