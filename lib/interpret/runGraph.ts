@@ -32,9 +32,15 @@ export function runGraph(graph: GraphData, ctx: EvalContext): PathResult {
     // verdict do); the walk goes on along the value's branch
     const parts: string[] = [];
     for (const end of ctx.bandEnds ?? []) {
-      const other = [branchTaken(node, end.low), branchTaken(node, end.high)]
-        .filter((b) => b.outcome !== taken.outcome && b.outcome !== "not-assessable")
-        .map((b) => `"${b.finding}"`);
+      // each other branch with the criterion that takes it there (an end on predicted body mass can reach "capacity
+      // adequate" by % predicted although its per-kg value stays under the per-kg cut-off: name the % predicted)
+      const other = [end.low, end.high]
+        .map((e) => ({ e, b: branchTaken(node, e) }))
+        .filter(({ b }) => b.outcome !== taken.outcome && b.outcome !== "not-assessable")
+        .map(({ e, b }) => {
+          const by = metCriterion(b, e);
+          return `"${b.finding}"${by ? ` (by ${by})` : ""}`;
+        });
       if (other.length > 0) parts.push(`the ${end.words} reaches ${unique(other).join(" and ")}`);
     }
     const borderline = parts.join("; ");
@@ -68,4 +74,16 @@ function branchTaken(node: NodeData, ctx: EvalContext): BranchData {
     if (r.outcome === null) sawUnknown = true;
   }
   return sawUnknown ? node.unknown : node.otherwise;
+}
+
+/** What holds for a branch's condition in a context, in words (the met comparisons of its rule), or "" when unclear. */
+function metCriterion(branch: BranchData, ctx: EvalContext): string {
+  if (!("when" in branch)) return "";
+  const when = (branch as NodeData["cases"][number]).when;
+  if ("rule" in when) {
+    const r = evaluateRule(when.rule, ctx);
+    return r.outcome === true ? (r.text.split(" → ")[0] ?? "") : "";
+  }
+  const r = evaluateCondition(when, ctx);
+  return r.outcome === true ? r.text : "";
 }

@@ -56,6 +56,33 @@ describe("analyse: a per-kg class in obesity says where predicted body mass puts
   });
 });
 
+describe("analyse: a lung-resection step turned by predicted body mass names the criterion that turns it", () => {
+  // ERS/ESTS 2009 (Brunelli et al., Eur Respir J — secondary): peak VO2 > 20 mL/kg/min or > 75 % predicted = capacity
+  // adequate; < 10 mL/kg/min or < 35 % predicted = high risk. INVENTED pulmonary-vascular demo file; the patient is
+  // invented: woman 80 y, 155 cm, 105 kg (BMI 43.7), so peak VO2 is under 10 mL/kg/min on actual weight and between 10
+  // and 20 on predicted body mass (0.65·155 − 42.8 = 57.95 kg, Hansen/Wasserman women — secondary), while % predicted
+  // stays above 75 %.
+  it("the predicted-body-mass reading reaches 'capacity adequate' by its % predicted, not by a per-kg value under 20", async () => {
+    const bytes = new Uint8Array(fs.readFileSync(path.resolve(__dirname, "../fixtures/cases/pulmonary-vascular.csv")));
+    const patient = { sex: "female" as const, ageY: 80, heightCm: 155, weightKg: 105 };
+    const built = await buildRecord({ bytes, fileName: "pv.csv", patient, ergometer: "cycle", referral: "lung-resection" });
+    const r = analyse(built.record!, { bootstrap: 0 });
+    const ideal = r.weightBasis!.ideal!;
+    expect(ideal.weightKg).toBeCloseTo(57.95, 6);
+    expect(ideal.measuredMlKgMin).toBeGreaterThan(10);
+    expect(ideal.measuredMlKgMin).toBeLessThan(20);
+    const pct = r.weightBasis!.actual!.percentPredicted!;
+    expect(pct).toBeGreaterThan(75);
+    const step = r.interpretation.schemes
+      .find((s) => s.schemeId === "lung-resection-ers-ests-2009")!
+      .path!.steps.find((st) => st.borderline?.includes("predicted body mass"))!;
+    expect(step.borderline).toContain(
+      `the peak VO2 ${ideal.measuredMlKgMin.toFixed(1)} mL/kg/min on predicted body mass (58 kg; BMI 43.7) reaches "capacity adequate" (by Peak VO2 ${pct.toFixed(0)} % predicted`,
+    );
+    expect(step.borderline).toMatch(/> 75 % predicted\)$/);
+  });
+});
+
 describe("buildRecord: body mass from the file", () => {
   const file = path.resolve(__dirname, "../fixtures/layouts/aligned_units_row_per_kg.txt");
   const bytes = () => new Uint8Array(fs.readFileSync(file));
