@@ -54,5 +54,6 @@ describe("cpet account", () => {
     expect(JSON.parse(cpet(["list", "--json"]).stdout)[0].disabled).toBe(true);
     expect(cpet(["enable", "jdoe"]).status).toBe(0);
     expect(cpet(["disable", "nobody"]).status).toBe(2);
-  });
+    // about a dozen fresh Node processes, several hashing a password (scrypt N = 2^17): 29 s on a busy 2-core machine
+  }, 180_000);
 });
