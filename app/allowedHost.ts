@@ -25,3 +25,28 @@ export function hostAllowed(hostHeader: string | null, env: Record<string, strin
   const name = hostNameOf(hostHeader);
   return name !== null && allowedHostNames(env).has(name);
 }
+
+/**
+ * Whether a request is a write sent from another site's page: a method other than GET/HEAD/OPTIONS whose Origin header
+ * is present and names another host than the one the request was sent to (`x-forwarded-host` when a reverse proxy set
+ * it, else Host). Browsers send Origin on every cross-site POST, so a forged form on another site is refused here with a
+ * plain 403 (before, the server-action origin check answered 500). "Origin: null" (a sandboxed or file page) counts as
+ * another site. Requests without Origin (the CLI, curl) are left to the access checks.
+ */
+export function crossSiteWrite(
+  method: string,
+  originHeader: string | null,
+  hostHeader: string | null,
+  forwardedHostHeader: string | null = null,
+): boolean {
+  if (["GET", "HEAD", "OPTIONS"].includes(method.toUpperCase())) return false;
+  if (originHeader === null) return false;
+  let originHost: string;
+  try {
+    originHost = new URL(originHeader).host.toLowerCase();
+  } catch {
+    return true; // "null" or garbage: not this site
+  }
+  const target = (forwardedHostHeader?.split(",")[0] ?? hostHeader ?? "").trim().toLowerCase();
+  return originHost === "" || originHost !== target;
+}

@@ -185,3 +185,26 @@ test("10-s time averages are counted as rows, not breaths", async ({ page }) => 
   await expect(page.locator("p.how").first()).not.toContainText("breaths");
   await expect(page.getByTestId("clinical-caution")).toContainText("qualified clinician");
 });
+
+test("a form sent from another site's page is refused plainly (403), and a foreign Host name is misdirected (421)", async ({
+  request,
+}) => {
+  // INVENTED host names; the server-action origin check had answered such a post with 500
+  const forged = await request.post("/", {
+    headers: { origin: "http://forms.invalid", "content-type": "application/x-www-form-urlencoded" },
+    data: "label=forged",
+  });
+  expect(forged.status()).toBe(403);
+  expect(await forged.text()).toContain("sent from another site's page");
+  const rebound = await request.get("/", { headers: { host: "rebound.invalid" } });
+  expect(rebound.status()).toBe(421);
+  // the same post from this site's own origin is not refused by the guard
+  const own = await request.post("/", {
+    headers: {
+      origin: new URL("/", test.info().project.use.baseURL).origin,
+      "content-type": "application/x-www-form-urlencoded",
+    },
+    data: "label=own",
+  });
+  expect(own.status()).not.toBe(403);
+});

@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from "vitest";
 import { safeNext } from "../../app/access";
-import { allowedHostNames, hostAllowed, hostNameOf } from "../../app/allowedHost";
+import { allowedHostNames, crossSiteWrite, hostAllowed, hostNameOf } from "../../app/allowedHost";
 
 describe("safeNext", () => {
   it.each([
@@ -49,5 +49,22 @@ describe("allowed hosts", () => {
     expect(hostAllowed("192.168.1.20:3000", { HOST: "192.168.1.20" })).toBe(true);
     expect([...allowedHostNames({ HOST: "0.0.0.0" })].sort()).toEqual(["127.0.0.1", "[::1]", "localhost"]);
     expect(hostNameOf("[::1]:8080")).toBe("[::1]");
+  });
+});
+
+describe("cross-site writes", () => {
+  it("refuses a POST whose Origin names another host, or 'null', and lets same-site posts and reads through", () => {
+    expect(crossSiteWrite("POST", "http://127.0.0.1:3000", "127.0.0.1:3000")).toBe(false);
+    expect(crossSiteWrite("POST", "http://evil.example", "127.0.0.1:3000")).toBe(true);
+    // another port on the same machine is another site's page (another app on 127.0.0.1)
+    expect(crossSiteWrite("POST", "http://127.0.0.1:8080", "127.0.0.1:3000")).toBe(true);
+    expect(crossSiteWrite("POST", "null", "127.0.0.1:3000")).toBe(true);
+    expect(crossSiteWrite("DELETE", "http://evil.example", "localhost:3000")).toBe(true);
+    // reads, and requests without Origin (CLI, curl), are left to the access checks
+    expect(crossSiteWrite("GET", "http://evil.example", "127.0.0.1:3000")).toBe(false);
+    expect(crossSiteWrite("POST", null, "127.0.0.1:3000")).toBe(false);
+    // behind a reverse proxy the forwarded host is the one the browser saw
+    expect(crossSiteWrite("POST", "https://cpet.lab.example", "127.0.0.1:3000", "cpet.lab.example")).toBe(false);
+    expect(crossSiteWrite("POST", "HTTP://LOCALHOST:3000", "localhost:3000")).toBe(false);
   });
 });
