@@ -179,6 +179,19 @@ export const BETA_BLOCKER_HR_REACHED_NOTE = "reached despite a beta-blocker: cou
 export const ATRIAL_FIBRILLATION_HR_NOTE =
   "atrial fibrillation: heart rate is not read against predicted values, and heart-rate indices and O2 pulse are not interpreted";
 
+/**
+ * Beside a heart-rate reserve of zero or less (predicted maximum − peak HR): the peak heart rate reached or passed the
+ * predicted maximum, which is a prediction with a scatter of its own, so "−8 bpm" reads as no reserve left, not as an
+ * error. Null for a positive reserve or none.
+ */
+export function hrReserveNote(reserveBpm: number | null): string | null {
+  if (reserveBpm === null || !Number.isFinite(reserveBpm) || Math.round(reserveBpm) > 0) return null;
+  const over = -Math.round(reserveBpm);
+  return over === 0
+    ? "peak heart rate at the predicted maximum: no heart-rate reserve left"
+    : `peak heart rate ${over} bpm above the predicted maximum: no heart-rate reserve left (the predicted maximum is an estimate with its own scatter)`;
+}
+
 /** The notes a heart rate read against a predicted maximum needs for this patient (beta-blocker, atrial fibrillation). */
 export function heartRateNotes(patient: { betaBlocker?: boolean | null; atrialFibrillation?: boolean | null }): string[] {
   return [

@@ -9,6 +9,7 @@ export {
   BETA_BLOCKER_HR_REACHED_NOTE,
   BETA_BLOCKER_ONE_SIDED,
   heartRateNotes,
+  hrReserveNote,
   DRAFT_BANNER,
   COMPOSED_TEXT_CAUTION,
   type DraftExtras,

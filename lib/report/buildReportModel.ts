@@ -1,7 +1,7 @@
 import type { AnalysisResult, ReferralQuestion, TestRecord } from "../analysis";
 import { EVIDENCE_LABEL, type Measured, type Source } from "../core";
 import { thresholdMethodWords } from "../analysis";
-import { ATRIAL_FIBRILLATION_HR_NOTE, heartRateNotes } from "../interpret";
+import { ATRIAL_FIBRILLATION_HR_NOTE, heartRateNotes, hrReserveNote } from "../interpret";
 import { analysisCharts } from "./analysisCharts";
 import { ALL_SOURCES } from "./sources";
 import { formatClock, formatNumber } from "../units";
@@ -250,6 +250,7 @@ export function buildReportModel(
     row.note = [row.note, bandNote(line, d)].filter(Boolean).join("; ") || row.note;
     // HR reserve is predicted HRmax − peak HR: the same beta-blocker note as the peak HR's % predicted
     if (m === ix.heartRate.reserveBpm && hrNotes.length) row.note = [row.note, ...hrNotes].filter(Boolean).join("; ");
+    if (m === ix.heartRate.reserveBpm) row.note = [row.note, hrReserveNote(m.value)].filter(Boolean).join("; ") || row.note;
     // (the cut-off's protocol, a cool-down walk in Cole 1999, is said in the value's method)
     if (m === ix.heartRate.recovery1MinBpm && afNote) row.note = [row.note, afNote].filter(Boolean).join("; ");
     const hrrNotRead = result.interpretInput.notRead?.hrr1Bpm;

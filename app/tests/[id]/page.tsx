@@ -3,7 +3,7 @@ import { notFound } from "next/navigation";
 import { analyse } from "@/lib/analysis";
 import { EVIDENCE_LABEL, type Measured } from "@/lib/core";
 import { EQUATIONS } from "@/lib/predicted";
-import { ATRIAL_FIBRILLATION_HR_NOTE, heartRateNotes, listCutoffChoices } from "@/lib/interpret";
+import { ATRIAL_FIBRILLATION_HR_NOTE, heartRateNotes, hrReserveNote, listCutoffChoices } from "@/lib/interpret";
 import { analysisCharts, bandNote } from "@/lib/report";
 import {
   BAND_MEANING,
@@ -435,7 +435,10 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
               m={ix.heartRate.reserveBpm}
               d={0}
               unit={HR_UNIT}
-              extra={heartRateNotes(record.patient).join("; ") || undefined}
+              extra={
+                [hrReserveNote(ix.heartRate.reserveBpm.value), ...heartRateNotes(record.patient)].filter(Boolean).join("; ") ||
+                undefined
+              }
             />
             <IndexRow
               label="Chronotropic index"
