@@ -76,8 +76,13 @@ function branchTaken(node: NodeData, ctx: EvalContext): BranchData {
   return sawUnknown ? node.unknown : node.otherwise;
 }
 
-/** What holds for a branch's condition in a context, in words (the met comparisons of its rule), or "" when unclear. */
-function metCriterion(branch: BranchData, ctx: EvalContext): string {
+/**
+ * What holds for a branch's condition in a context, in words (the met comparisons of its rule), or "" when unclear.
+ * The context is a band end: the names and predicted-value labels the measured value carries ("MVV estimated as FEV1 ×
+ * 40") describe the value, not the end (the × 35 one), so they are left out, with a fresh rule memo.
+ */
+function metCriterion(branch: BranchData, end: EvalContext): string {
+  const ctx: EvalContext = { ...end, names: undefined, predicted: {}, ruleCache: new Map() };
   if (!("when" in branch)) return "";
   const when = (branch as NodeData["cases"][number]).when;
   if ("rule" in when) {

@@ -18,7 +18,7 @@ describe("borderline readings in the conclusion (invented demo cases)", () => {
     const estimated = analyse({ ...rec, spirometry: { fev1L: 1.4 } }, {});
     const lines = conclusionOf(estimated);
     expect(lines.join(" ")).toMatch(
-      /Breathing reserve is borderline: the MVV estimated from FEV1 \(49 L\/min at × 35, 56 L\/min at × 40; measure MVV\) reaches "breathing reserve exhausted: ventilatory limitation"\./,
+      /Breathing reserve is borderline: the MVV estimated from FEV1 \(49 L\/min at × 35, 56 L\/min at × 40; measure MVV\) reaches "breathing reserve exhausted: ventilatory limitation" \(by Peak VE\/MVV 91 % ≥ 85 %\)\./,
     );
     const step = estimated.interpretation.path.steps.find((s) => s.title === "Breathing reserve")!;
     expect(step.borderline).toMatch(/MVV estimated from FEV1/);
