@@ -198,6 +198,11 @@ function populationIssues(eq: ReferenceEquation, inputs: EquationInputs): Issue[
   return issues;
 }
 
+/** "height", "age", "body weight", "BMI": the predictor a population issue names. */
+function fieldWords(field: string): string {
+  return field === "bmi" ? "BMI" : (INPUT_LABEL[field as keyof typeof INPUT_LABEL] ?? field);
+}
+
 function failureMessage(eq: ReferenceEquation, f: FormFailure): { code: string; message: string } {
   switch (f.kind) {
     case "missing":
@@ -371,6 +376,24 @@ function evaluateInternal(
       ),
     );
     limit = undefined;
+  }
+  // an SEE describes the scatter inside the cohort; beyond its recorded range (an extrapolation) the scatter is not
+  // known, so neither the limit nor a z-score is given from it (common practice: a prediction interval widens away
+  // from the data it was fitted on); % predicted stays, with the extrapolation warning beside it
+  const outside = issues.find(
+    (i) => i.code === "outside-derivation-population" && i.where?.field !== "sex" && i.where?.field !== undefined,
+  );
+  if (limit !== undefined && outside) {
+    issues.push(
+      makeIssue(
+        "info",
+        "limit-not-given-outside-range",
+        `${eq.label}: no ${abnormalHigh ? "upper" : "lower"} limit of normal or z-score is given for this patient, who lies outside the range the equation was derived on (${fieldWords(outside.where!.field!)}); read % predicted with caution.`,
+        { field: outside.where!.field! },
+      ),
+    );
+    limit = undefined;
+    delete out.zScore;
   }
   if (limit !== undefined) {
     if (abnormalHigh) out.uln = limit;

@@ -38,3 +38,29 @@ describe("derivation range not recorded", () => {
     ).not.toContain("derivation-range-not-recorded");
   });
 });
+
+describe("no limit of normal beyond the derivation range", () => {
+  // Jones et al. 1985 maximal work rate (jones-1985-wmax, confirmed): women 152-176 cm in the cohort, SEE 216 kpm/min
+  // (35.29 W). Patients INVENTED: a woman of 60 y at 165 cm (inside) and at 140 cm (outside).
+  it("inside: LLN = predicted − 1.645·SEE and a z-score; outside: % predicted only, with the reason", () => {
+    const inside = evaluateEquation(
+      "jones-1985-wmax",
+      { patient: { sex: "female", ageY: 60, heightCm: 165, weightKg: 60 }, ergometer: "cycle" },
+      { measured: 100 },
+    );
+    // by hand: (20.4·165 − 8.74·60 − 288·1 − 1909) / 6.12 = (3366 − 524.4 − 288 − 1909) / 6.12 = 105.327 W
+    expect(inside.value).toBeCloseTo(105.327, 3);
+    expect(inside.lln).toBeCloseTo(105.327 - 1.645 * 35.294, 2);
+    expect(inside.zScore).toBeCloseTo((100 - 105.327) / 35.294, 3);
+    const outside = evaluateEquation(
+      "jones-1985-wmax",
+      { patient: { sex: "female", ageY: 60, heightCm: 140, weightKg: 50 }, ergometer: "cycle" },
+      { measured: 100 },
+    );
+    expect(outside.value).toBeCloseTo((20.4 * 140 - 8.74 * 60 - 288 - 1909) / 6.12, 3);
+    expect(outside.lln).toBeUndefined();
+    expect(outside.zScore).toBeUndefined();
+    const note = outside.issues.find((i) => i.code === "limit-not-given-outside-range");
+    expect(note?.message).toMatch(/no lower limit of normal or z-score .* \(height\)/);
+  });
+});
