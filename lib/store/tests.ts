@@ -3,6 +3,7 @@ import crypto from "node:crypto";
 import { ENGINE_VERSION, type AnalysisSettings, type TestRecord } from "../analysis";
 import type { ColumnDecision } from "../breath";
 import type { Issue } from "../core";
+import { audit } from "./auditTrail";
 import { getDb } from "./db";
 
 export interface StoredTestSummary {
@@ -246,11 +247,8 @@ export function renameTest(testId: number, label: string, actor: string): boolea
   })();
 }
 
-export function audit(actor: string | null, action: string, testId: number | null, detail: string | null): void {
-  getDb()
-    .prepare("insert into audit (at, actor, action, test_id, detail) values (?, ?, ?, ?, ?)")
-    .run(now(), actor, action, testId, detail);
-}
+/** Add an entry to the audit trail (its time is the database clock's; hash-chained): lib/store/auditTrail.ts. */
+export { audit };
 
 export function listAudit(testId: number): { at: string; actor: string | null; action: string; detail: string | null }[] {
   return getDb().prepare("select at, actor, action, detail from audit where test_id = ? order by id desc").all(testId) as {
