@@ -130,8 +130,8 @@ export type AccountResult = { ok: true; account: Account } | { ok: false; reason
 /** Make an account (audit: `account-created`). The display name is what a signature shows, so it must print in the PDF. */
 export function createAccount(
   input: { username: string; displayName: string; role: AccountRole; password: string },
-  /** Who made it (the CLI passes the operating-system user). */
-  actor: string | null = null,
+  /** Who made it, for the audit trail (the CLI passes `cli:<operating-system user>`). */
+  actor: string,
 ): AccountResult {
   const username = input.username.trim().toLowerCase();
   const displayName = input.displayName.trim().normalize("NFC");
@@ -176,7 +176,7 @@ export function accountsEnabled(): boolean {
 }
 
 /** Disable (or enable again) an account; disabling ends its sessions (audit: `account-disabled` / `account-enabled`). */
-export function setAccountDisabled(username: string, disabled: boolean, actor: string | null = null): boolean {
+export function setAccountDisabled(username: string, disabled: boolean, actor: string): boolean {
   const db = getDb();
   return db.transaction(() => {
     const account = getAccount(username);
@@ -189,7 +189,7 @@ export function setAccountDisabled(username: string, disabled: boolean, actor: s
 }
 
 /** Set a new password; ends the account's sessions (audit: `account-password-set`). */
-export function setAccountPassword(username: string, password: string, actor: string | null = null): AccountResult {
+export function setAccountPassword(username: string, password: string, actor: string): AccountResult {
   const account = getAccount(username);
   if (!account) return { ok: false, reason: `no account "${username}"` };
   const problems = passwordProblems(password, account.username);
@@ -225,7 +225,7 @@ export function lockedOut(username: string, at: Date = new Date()): boolean {
 }
 
 /** Lift a lock-out now (audit: `account-unlocked`); failures before this no longer count. */
-export function unlockAccount(username: string, actor: string | null = null): boolean {
+export function unlockAccount(username: string, actor: string): boolean {
   const account = getAccount(username);
   if (!account) return false;
   audit(actor, "account-unlocked", null, account.username);
