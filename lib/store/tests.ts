@@ -41,6 +41,21 @@ export function getUploadBytes(uploadId: number): { fileName: string; bytes: Buf
   return row ? { fileName: row.file_name, bytes: row.bytes } : null;
 }
 
+/**
+ * An upload's bytes for someone downloading it, written to the audit trail (`original-file-downloaded`, under the test
+ * read from it, or none for a file kept from a refused form). Null when there is no such upload (nothing audited).
+ */
+export function downloadUpload(uploadId: number, actor: string): { fileName: string; bytes: Buffer } | null {
+  const db = getDb();
+  const row = db.prepare("select file_name, sha256, bytes from uploads where id = ?").get(uploadId) as
+    { file_name: string; sha256: string; bytes: Buffer } | undefined;
+  if (!row) return null;
+  const test = db.prepare("select id from tests where upload_id = ? order by id limit 1").get(uploadId) as
+    { id: number } | undefined;
+  audit(actor, "original-file-downloaded", test?.id ?? null, `upload ${uploadId} “${row.file_name}” (sha256 ${row.sha256})`);
+  return { fileName: row.file_name, bytes: row.bytes };
+}
+
 export function saveTest(input: {
   uploadId: number | null;
   label: string;
