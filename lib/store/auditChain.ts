@@ -3,9 +3,10 @@ import { createHash } from "node:crypto";
 import type Database from "better-sqlite3";
 
 /**
- * The audit trail's hash chain. Each entry stores `hash` = SHA-256 (hex) over the previous entry's hash and its own
- * fields, so changing, inserting or removing an entry in the middle of the trail changes every later hash: one pass over
- * the table (`verifyAuditChain`) finds the first entry that no longer fits. The first entry chains from `AUDIT_GENESIS`.
+ * The audit trail's hash chain. Each entry stores `hash` = SHA-256 (FIPS 180-4, NIST 2015, recalled; node:crypto's
+ * implementation), in hex, over the previous entry's hash and its own fields, so changing, inserting or removing an
+ * entry in the middle of the trail changes every later hash: one pass over the table (`verifyAuditChain`) finds the
+ * first entry that no longer fits. The first entry chains from `AUDIT_GENESIS`.
  *
  * What it does and does not prove: it detects an entry edited by someone who does not recompute the chain (another tool
  * on the database file, a raw SQL statement). Someone who knows this code can recompute every hash after an edit, and

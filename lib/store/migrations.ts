@@ -181,8 +181,9 @@ export const MIGRATIONS: { id: number; name: string; sql: string; run?: (db: Dat
     // The time of an entry is the database's own clock. SQLite triggers cannot assign NEW.at, and a trigger that rewrote
     // the row after the insert would need a hole in the no-update trigger, so instead the insert trigger refuses an entry
     // whose time is not in the canonical form or differs from the database clock by more than 1 second. The app's insert
-    // reads the clock in the same statement (`strftime(..., 'now')`, which SQLite keeps fixed within one statement, so the
-    // difference is 0); the second's leeway only keeps the check from depending on that. A backdated or future-dated entry
+    // reads the clock in the same statement (`strftime(..., 'now')`, which SQLite keeps fixed within one statement: SQLite
+    // documentation, date and time functions, recalled; so the difference is 0); the second's leeway (this product's
+    // choice) only keeps the check from depending on that. A backdated or future-dated entry
     // is refused, and so is one without a hash. (A person who can drop triggers can drop this one too: docs say so.)
     sql: `
       alter table audit add column hash text;
