@@ -12,6 +12,21 @@ export const SESSION_COOKIE = "cpet_session";
  */
 export type Access = { mode: "open"; actor: string } | { mode: "account"; actor: string; account: Account };
 
+/**
+ * Whether the session cookie gets the `secure` flag (sent back over HTTPS only). `npm start` serves plain HTTP, so the
+ * app cannot see HTTPS itself; only a TLS proxy in front of it can say so, in `X-Forwarded-Proto`. That header is
+ * trusted only when the installation says a proxy sets it (`CPET_TRUST_PROXY=1`): otherwise any client could send it.
+ * The proxy must overwrite the header, not append to it; its first value is read. (`X-Forwarded-Proto` is a de-facto
+ * header, common practice; RFC 7239's `Forwarded` is the standardised form and is not read here — recalled.)
+ */
+export function sessionCookieSecure(
+  forwardedProto: string | null,
+  env: Record<string, string | undefined> = process.env,
+): boolean {
+  if (env.CPET_TRUST_PROXY !== "1" || !forwardedProto) return false;
+  return forwardedProto.split(",")[0].trim().toLowerCase() === "https";
+}
+
 /** Words for a request that needs a session and has none (pages redirect instead). */
 export const SESSION_NEEDED =
   "Your session has ended or you are not signed in. Nothing was saved: keep this page open, sign in again in another tab, then repeat the step here.";

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { CLINICAL_CAUTION } from "@/lib/report";
 import { currentAccess } from "./access";
+import { auditTrailWarning } from "./auditTrailWarning";
 import { logOutAction } from "./login/actions";
 import "./globals.css";
 
@@ -32,6 +33,26 @@ async function AccountBar() {
   );
 }
 
+/**
+ * A warning on every page when the audit trail cannot be trusted (`auditTrailWarning`); not shown to someone who has
+ * not signed in. The first page drawn after start-up checks the whole hash chain, later ones only what was added.
+ */
+async function AuditTrailBanner() {
+  const access = await currentAccess();
+  if (!access) return null;
+  const words = auditTrailWarning();
+  if (words.length === 0) return null;
+  return (
+    <div className="panel sev-error" role="alert" data-testid="audit-trail-warning">
+      {words.map((w) => (
+        <p key={w}>
+          <strong>{w}</strong>
+        </p>
+      ))}
+    </div>
+  );
+}
+
 export default function RootLayout({ children }: { children: React.ReactNode }) {
   return (
     <html lang="en">
@@ -49,6 +70,7 @@ export default function RootLayout({ children }: { children: React.ReactNode }) 
           </nav>
           <AccountBar />
         </header>
+        <AuditTrailBanner />
         <p className="caution" role="note" data-testid="clinical-caution">
           {CLINICAL_CAUTION}
         </p>

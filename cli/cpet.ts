@@ -1,6 +1,7 @@
 import { Command, CommanderError } from "commander";
 import { registerAccount } from "./account";
 import { registerAnalyse } from "./analyse";
+import { registerAudit } from "./audit";
 import { registerPredict } from "./predict";
 import { UsageError } from "./usageError";
 
@@ -22,6 +23,7 @@ export function buildProgram(): Command {
   registerAnalyse(program);
   registerPredict(program);
   registerAccount(program);
+  registerAudit(program);
   return program;
 }
 

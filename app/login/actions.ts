@@ -4,7 +4,7 @@ import { cookies, headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { z } from "zod";
 import { logIn, logOut } from "@/lib/store/accounts";
-import { SESSION_COOKIE, safeNext } from "../access";
+import { SESSION_COOKIE, safeNext, sessionCookieSecure } from "../access";
 
 export interface LogInState {
   username?: string;
@@ -26,14 +26,15 @@ export async function logInAction(_prev: LogInState, form: FormData): Promise<Lo
   });
   const username = String(form.get("username") ?? "");
   if (!parsed.success) return { username, error: parsed.error.issues[0].message };
-  const res = await logIn(parsed.data.username, parsed.data.password);
+  const jar = await cookies();
+  // a session this browser already holds ends with this log-in: one browser, one live session
+  const res = await logIn(parsed.data.username, parsed.data.password, new Date(), jar.get(SESSION_COOKIE)?.value ?? null);
   if (!res.ok) return { username, error: res.reason };
-  // secure only over HTTPS: the default installation serves plain HTTP on 127.0.0.1
-  const https = (await headers()).get("x-forwarded-proto") === "https";
-  (await cookies()).set(SESSION_COOKIE, res.token, {
+  // secure only over HTTPS, which only a trusted proxy can report: the default installation serves plain HTTP on 127.0.0.1
+  jar.set(SESSION_COOKIE, res.token, {
     httpOnly: true,
     sameSite: "lax",
-    secure: https,
+    secure: sessionCookieSecure((await headers()).get("x-forwarded-proto")),
     path: "/",
     expires: new Date(res.expiresAt),
   });

@@ -130,8 +130,8 @@ export type AccountResult = { ok: true; account: Account } | { ok: false; reason
 /** Make an account (audit: `account-created`). The display name is what a signature shows, so it must print in the PDF. */
 export function createAccount(
   input: { username: string; displayName: string; role: AccountRole; password: string },
-  /** Who made it (the CLI passes the operating-system user). */
-  actor: string | null = null,
+  /** Who made it, for the audit trail (the CLI passes `cli:<operating-system user>`). */
+  actor: string,
 ): AccountResult {
   const username = input.username.trim().toLowerCase();
   const displayName = input.displayName.trim().normalize("NFC");
@@ -176,7 +176,7 @@ export function accountsEnabled(): boolean {
 }
 
 /** Disable (or enable again) an account; disabling ends its sessions (audit: `account-disabled` / `account-enabled`). */
-export function setAccountDisabled(username: string, disabled: boolean, actor: string | null = null): boolean {
+export function setAccountDisabled(username: string, disabled: boolean, actor: string): boolean {
   const db = getDb();
   return db.transaction(() => {
     const account = getAccount(username);
@@ -189,7 +189,7 @@ export function setAccountDisabled(username: string, disabled: boolean, actor: s
 }
 
 /** Set a new password; ends the account's sessions (audit: `account-password-set`). */
-export function setAccountPassword(username: string, password: string, actor: string | null = null): AccountResult {
+export function setAccountPassword(username: string, password: string, actor: string): AccountResult {
   const account = getAccount(username);
   if (!account) return { ok: false, reason: `no account "${username}"` };
   const problems = passwordProblems(password, account.username);
@@ -225,7 +225,7 @@ export function lockedOut(username: string, at: Date = new Date()): boolean {
 }
 
 /** Lift a lock-out now (audit: `account-unlocked`); failures before this no longer count. */
-export function unlockAccount(username: string, actor: string | null = null): boolean {
+export function unlockAccount(username: string, actor: string): boolean {
   const account = getAccount(username);
   if (!account) return false;
   audit(actor, "account-unlocked", null, account.username);
@@ -240,8 +240,15 @@ export const LOG_IN_REFUSED = "The user name or password is not right, or the ac
 /**
  * Check a user name and password and open a session (audit: `log-in` / `log-in-failed`). After `LOCKOUT_FAILURES`
  * failed attempts for one user name within `LOCKOUT_MINUTES`, log-in for that name is refused until the window passes.
+ * `replacesToken`, the session cookie the browser already held, is ended when the log-in succeeds (audit: `log-out`,
+ * "ended by a new log-in from the same browser"), so a browser never holds two live sessions; a failed log-in leaves it.
  */
-export async function logIn(usernameSent: string, password: string, at: Date = new Date()): Promise<LogInResult> {
+export async function logIn(
+  usernameSent: string,
+  password: string,
+  at: Date = new Date(),
+  replacesToken: string | null = null,
+): Promise<LogInResult> {
   const username = usernameSent.trim().toLowerCase().slice(0, 40);
   const db = getDb();
   if (lockedOut(username, at)) {
@@ -265,14 +272,13 @@ export async function logIn(usernameSent: string, password: string, at: Date = n
   }
   const token = randomBytes(32).toString("base64url");
   const expiresAt = new Date(at.getTime() + SESSION_HOURS * 3_600_000).toISOString();
-  db.prepare("insert into sessions (token_sha256, account_id, created_at, expires_at, last_seen_at) values (?, ?, ?, ?, ?)").run(
-    sha256(token),
-    row.id,
-    at.toISOString(),
-    expiresAt,
-    at.toISOString(),
-  );
-  audit(username, "log-in", null, null);
+  db.transaction(() => {
+    if (replacesToken) endSession(replacesToken, "ended by a new log-in from the same browser");
+    db.prepare(
+      "insert into sessions (token_sha256, account_id, created_at, expires_at, last_seen_at) values (?, ?, ?, ?, ?)",
+    ).run(sha256(token), row.id, at.toISOString(), expiresAt, at.toISOString());
+    audit(username, "log-in", null, null);
+  })();
   return { ok: true, token, account: toAccount(row), expiresAt };
 }
 
@@ -309,8 +315,13 @@ export async function confirmPassword(username: string, password: string): Promi
 /** End a session (audit: `log-out`); expired sessions are cleared at the same time. */
 export function logOut(token: string | undefined | null): void {
   if (!token) return;
+  endSession(token, null);
+}
+
+/** Delete a session and the expired ones; a session still live when ended is audited as a log-out with `detail`. */
+function endSession(token: string, detail: string | null): void {
   const db = getDb();
   const account = sessionAccount(token);
   db.prepare("delete from sessions where token_sha256 = ? or expires_at <= ?").run(sha256(token), now());
-  if (account) audit(account.username, "log-out", null, null);
+  if (account) audit(account.username, "log-out", null, detail);
 }

@@ -2,6 +2,7 @@ import "server-only";
 import fs from "node:fs";
 import path from "node:path";
 import Database from "better-sqlite3";
+import { registerAuditHashFunction } from "./auditChain";
 import { MIGRATIONS } from "./migrations";
 
 let instance: Database.Database | null = null;
@@ -24,8 +25,12 @@ export function getDb(): Database.Database {
   return db;
 }
 
-/** Apply numbered migrations not yet applied (recorded in `schema_migrations`). */
+/**
+ * Apply numbered migrations not yet applied (recorded in `schema_migrations`). Also gives the connection the audit
+ * trail's hash function, which every audit insert uses (`cpet_audit_hash`, lib/store/auditChain.ts).
+ */
 export function migrate(db: Database.Database): void {
+  registerAuditHashFunction(db);
   db.exec("create table if not exists schema_migrations (id integer primary key, name text not null, applied_at text not null)");
   const done = new Set(
     db
@@ -37,6 +42,7 @@ export function migrate(db: Database.Database): void {
     if (done.has(m.id)) continue;
     db.transaction(() => {
       db.exec(m.sql);
+      m.run?.(db);
       db.prepare("insert into schema_migrations (id, name, applied_at) values (?, ?, ?)").run(
         m.id,
         m.name,

@@ -1,5 +1,11 @@
-/** Numbered migrations, named by intent. Never edit an applied one: add a new one. */
-export const MIGRATIONS: { id: number; name: string; sql: string }[] = [
+import type Database from "better-sqlite3";
+import { chainExistingAuditEntries } from "./auditChain";
+
+/**
+ * Numbered migrations, named by intent. Never edit an applied one: add a new one. `sql` runs first, then `run` (for a
+ * step SQL alone cannot do), both in the migration's transaction.
+ */
+export const MIGRATIONS: { id: number; name: string; sql: string; run?: (db: Database.Database) => void }[] = [
   {
     id: 1,
     name: "create_uploads_tests_analyses_reports",
@@ -164,5 +170,43 @@ export const MIGRATIONS: { id: number; name: string; sql: string }[] = [
     sql: `
       alter table sessions add column last_seen_at text;
     `,
+  },
+  {
+    id: 9,
+    name: "audit_time_from_the_database_and_hash_chain",
+    // Every audit entry carries `hash`, the SHA-256 over the previous entry's hash and its own fields (lib/store/auditChain.ts),
+    // so an entry changed behind the app's back shows in `verifyAuditChain`. Entries already in the table are chained here,
+    // in id order from the genesis value; the no-update trigger is lifted for that one pass and put back as it was.
+    //
+    // The time of an entry is the database's own clock. SQLite triggers cannot assign NEW.at, and a trigger that rewrote
+    // the row after the insert would need a hole in the no-update trigger, so instead the insert trigger refuses an entry
+    // whose time is not in the canonical form or differs from the database clock by more than 1 second. The app's insert
+    // reads the clock in the same statement (`strftime(..., 'now')`, which SQLite keeps fixed within one statement: SQLite
+    // documentation, date and time functions, recalled; so the difference is 0); the second's leeway (this product's
+    // choice) only keeps the check from depending on that. A backdated or future-dated entry
+    // is refused, and so is one without a hash. (A person who can drop triggers can drop this one too: docs say so.)
+    sql: `
+      alter table audit add column hash text;
+      drop trigger audit_no_update;
+    `,
+    run: (db) => {
+      chainExistingAuditEntries(db);
+      db.exec(`
+        create trigger audit_no_update before update on audit
+        begin
+          select raise(abort, 'the audit trail is append-only');
+        end;
+        create trigger audit_time_and_hash before insert on audit
+        when new.at is null
+          or new.at is not strftime('%Y-%m-%dT%H:%M:%fZ', new.at)
+          or abs(julianday(new.at) - julianday('now')) * 86400.0 > 1.0
+          or new.hash is null
+          or length(new.hash) <> 64
+        begin
+          select raise(abort, 'an audit entry takes its time from the database clock and carries its chain hash');
+        end;
+        create index audit_by_test on audit (test_id, action, actor, at);
+      `);
+    },
   },
 ];

@@ -1,7 +1,34 @@
 import "server-only";
 import type { ReportSection } from "../report/reportModel";
+import { auditAtMostEvery } from "./auditTrail";
 import { getDb } from "./db";
 import { audit } from "./tests";
+
+/**
+ * A report page opened again by the same person within this many minutes is not audited again (this product's choice):
+ * the page is drawn anew after every save, signature and reload, so each drawing would flood the trail with one
+ * reviewer's editing, while 10 minutes still says who read which report when, at a finer grain than the 30-minute idle
+ * limit of a session. Downloads are audited every time.
+ */
+export const REPORT_VIEW_AUDIT_MINUTES = 10;
+
+/**
+ * Audit that `actor` opened a test's report page (`report-viewed`, at most once per actor and test every
+ * `REPORT_VIEW_AUDIT_MINUTES`). Returns whether an entry was written.
+ */
+export function auditReportViewed(
+  actor: string,
+  testId: number,
+  report: { id: number; version: number; status: string },
+): boolean {
+  return auditAtMostEvery(
+    REPORT_VIEW_AUDIT_MINUTES,
+    actor,
+    "report-viewed",
+    testId,
+    `report ${report.id} (version ${report.version}, ${report.status})`,
+  );
+}
 
 /**
  * A stored report version: the editable text of one test's report for one analysis version, and its

@@ -3,6 +3,7 @@ import crypto from "node:crypto";
 import { ENGINE_VERSION, type AnalysisSettings, type TestRecord } from "../analysis";
 import type { ColumnDecision } from "../breath";
 import type { Issue } from "../core";
+import { audit } from "./auditTrail";
 import { getDb } from "./db";
 
 export interface StoredTestSummary {
@@ -38,6 +39,21 @@ export function getUploadBytes(uploadId: number): { fileName: string; bytes: Buf
   const row = getDb().prepare("select file_name, bytes from uploads where id = ?").get(uploadId) as
     { file_name: string; bytes: Buffer } | undefined;
   return row ? { fileName: row.file_name, bytes: row.bytes } : null;
+}
+
+/**
+ * An upload's bytes for someone downloading it, written to the audit trail (`original-file-downloaded`, under the test
+ * read from it, or none for a file kept from a refused form). Null when there is no such upload (nothing audited).
+ */
+export function downloadUpload(uploadId: number, actor: string): { fileName: string; bytes: Buffer } | null {
+  const db = getDb();
+  const row = db.prepare("select file_name, sha256, bytes from uploads where id = ?").get(uploadId) as
+    { file_name: string; sha256: string; bytes: Buffer } | undefined;
+  if (!row) return null;
+  const test = db.prepare("select id from tests where upload_id = ? order by id limit 1").get(uploadId) as
+    { id: number } | undefined;
+  audit(actor, "original-file-downloaded", test?.id ?? null, `upload ${uploadId} “${row.file_name}” (sha256 ${row.sha256})`);
+  return { fileName: row.file_name, bytes: row.bytes };
 }
 
 export function saveTest(input: {
@@ -246,11 +262,8 @@ export function renameTest(testId: number, label: string, actor: string): boolea
   })();
 }
 
-export function audit(actor: string | null, action: string, testId: number | null, detail: string | null): void {
-  getDb()
-    .prepare("insert into audit (at, actor, action, test_id, detail) values (?, ?, ?, ?, ?)")
-    .run(now(), actor, action, testId, detail);
-}
+/** Add an entry to the audit trail (its time is the database clock's; hash-chained): lib/store/auditTrail.ts. */
+export { audit };
 
 export function listAudit(testId: number): { at: string; actor: string | null; action: string; detail: string | null }[] {
   return getDb().prepare("select at, actor, action, detail from audit where test_id = ? order by id desc").all(testId) as {

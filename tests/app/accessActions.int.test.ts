@@ -14,6 +14,9 @@ import { closeDb } from "../../lib/store/db";
 import { getTest, listAudit, saveTest } from "../../lib/store/tests";
 import { testCookieJar } from "../stubs/nextHeaders";
 
+/** Who changes accounts in these tests (the CLI passes `cli:<os user>`); INVENTED. */
+const ADMIN = "cli:operator";
+
 const form = (testId: number, label: string) => {
   const f = new FormData();
   f.set("testId", String(testId));
@@ -42,12 +45,15 @@ describe("access in a server action (invented test and account)", () => {
 
   it("with an account: refused without a session (typed value kept, nothing changed), audited under the account with one", async () => {
     expect(
-      createAccount({
-        username: "jdoe",
-        displayName: "Dr J Doe (invented)",
-        role: "physiologist",
-        password: "correct horse battery",
-      }).ok,
+      createAccount(
+        {
+          username: "jdoe",
+          displayName: "Dr J Doe (invented)",
+          role: "physiologist",
+          password: "correct horse battery",
+        },
+        ADMIN,
+      ).ok,
     ).toBe(true);
     expect(await saveLabel({}, form(testId, "Case C (invented)"))).toEqual({ error: SESSION_NEEDED, value: "Case C (invented)" });
     expect(getTest(testId)?.label).toBe("Case A (invented)");

@@ -19,7 +19,9 @@ const cpet = (args: string[], input = "") =>
 afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));
 
 describe("cpet account", () => {
-  it("makes, lists, disables and enables accounts; refuses bad input with exit status 2", () => {
+  // a dozen runs of the command, each starting node and tsx, several hashing a password (scrypt N = 2^17): 29 s on a busy
+  // 2-core machine
+  it("makes, lists, disables and enables accounts; refuses bad input with exit status 2", { timeout: 180_000 }, () => {
     const bad = cpet(["add", "jdoe", "--name", "Dr J Doe (invented)", "--role", "nurse"], "correct horse battery\n");
     expect(bad.status).toBe(2);
     expect(bad.stderr).toContain("--role must be clinician or physiologist");
@@ -54,6 +56,17 @@ describe("cpet account", () => {
     expect(JSON.parse(cpet(["list", "--json"]).stdout)[0].disabled).toBe(true);
     expect(cpet(["enable", "jdoe"]).status).toBe(0);
     expect(cpet(["disable", "nobody"]).status).toBe(2);
-    // about a dozen fresh Node processes, several hashing a password (scrypt N = 2^17): 29 s on a busy 2-core machine
-  }, 180_000);
+    // every account change made with the command names who ran it, and the trail still holds together
+    const trail = new Database(dbFile, { readonly: true });
+    const changes = trail.prepare("select action, actor, detail from audit where action like 'account-%' order by id").all() as {
+      action: string;
+      actor: string | null;
+      detail: string;
+    }[];
+    trail.close();
+    expect(changes.map((c) => c.action)).toEqual(["account-created", "account-unlocked", "account-disabled", "account-enabled"]);
+    for (const c of changes) expect(c.actor).toMatch(/^cli(:.+)?$/);
+    const verify = spawnSync(process.execPath, [bin, "audit", "--db", dbFile, "verify"], { encoding: "utf8", timeout: 60_000 });
+    expect(verify.status).toBe(0);
+  });
 });

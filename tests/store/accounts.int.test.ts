@@ -25,9 +25,12 @@ import {
 } from "../../lib/store/accounts";
 import { closeDb, getDb } from "../../lib/store/db";
 
+/** Who changes accounts in these tests (the CLI passes `cli:<os user>`); INVENTED. */
+const ADMIN = "cli:operator";
+
 const PASSWORD = "correct horse battery"; // INVENTED
 const clinician = () =>
-  createAccount({ username: "jdoe", displayName: "Dr J Doe (invented)", role: "clinician", password: PASSWORD });
+  createAccount({ username: "jdoe", displayName: "Dr J Doe (invented)", role: "clinician", password: PASSWORD }, ADMIN);
 
 describe("password hashing", () => {
   it("checks a password against the scrypt test vector of RFC 7914 §12 (Percival & Josefsson 2016; vector recalled, node:crypto gives the same)", async () => {
@@ -68,30 +71,30 @@ describe("accounts and sessions", () => {
     expect(accountsEnabled()).toBe(false);
     expect(clinician().ok).toBe(true);
     expect(accountsEnabled()).toBe(true);
-    expect(setAccountDisabled("jdoe", true)).toBe(true);
+    expect(setAccountDisabled("jdoe", true, ADMIN)).toBe(true);
     expect(accountsEnabled()).toBe(false);
     expect(listAccounts().map((a) => [a.username, a.disabled])).toEqual([["jdoe", true]]);
   });
 
   it("refuses bad user names, roles, short passwords, passwords holding the user name, taken names and names the PDF cannot print", () => {
     const base = { displayName: "Dr A (invented)", role: "clinician" as const, password: PASSWORD };
-    expect(createAccount({ ...base, username: "a" }).ok).toBe(false);
-    expect(createAccount({ ...base, username: "has space" }).ok).toBe(false);
-    expect(createAccount({ ...base, username: "ann", password: "short" })).toEqual({
+    expect(createAccount({ ...base, username: "a" }, ADMIN).ok).toBe(false);
+    expect(createAccount({ ...base, username: "has space" }, ADMIN).ok).toBe(false);
+    expect(createAccount({ ...base, username: "ann", password: "short" }, ADMIN)).toEqual({
       ok: false,
       reason: "the password must have at least 10 characters",
     });
-    expect(createAccount({ ...base, username: "ann", password: "ann-is-my-password" }).ok).toBe(false);
-    expect(createAccount({ ...base, username: "ann", role: "nurse" as never }).ok).toBe(false);
-    expect(createAccount({ ...base, username: "ann", displayName: "Dr 王 (invented)" })).toMatchObject({ ok: false });
-    expect(createAccount({ ...base, username: "Ann" })).toMatchObject({ ok: true, account: { username: "ann" } });
-    expect(createAccount({ ...base, username: "ann" })).toEqual({ ok: false, reason: 'user name "ann" is taken' });
+    expect(createAccount({ ...base, username: "ann", password: "ann-is-my-password" }, ADMIN).ok).toBe(false);
+    expect(createAccount({ ...base, username: "ann", role: "nurse" as never }, ADMIN).ok).toBe(false);
+    expect(createAccount({ ...base, username: "ann", displayName: "Dr 王 (invented)" }, ADMIN)).toMatchObject({ ok: false });
+    expect(createAccount({ ...base, username: "Ann" }, ADMIN)).toMatchObject({ ok: true, account: { username: "ann" } });
+    expect(createAccount({ ...base, username: "ann" }, ADMIN)).toEqual({ ok: false, reason: 'user name "ann" is taken' });
   });
 
   it("opens a session for the right password only, with one message for every refusal, and audits each attempt", async () => {
     clinician();
-    createAccount({ username: "off", displayName: "Off (invented)", role: "physiologist", password: PASSWORD });
-    setAccountDisabled("off", true);
+    createAccount({ username: "off", displayName: "Off (invented)", role: "physiologist", password: PASSWORD }, ADMIN);
+    setAccountDisabled("off", true, ADMIN);
     expect(await logIn("jdoe", "wrong password here")).toEqual({ ok: false, reason: LOG_IN_REFUSED });
     expect(await logIn("nobody", PASSWORD)).toEqual({ ok: false, reason: LOG_IN_REFUSED });
     expect(await logIn("off", PASSWORD)).toEqual({ ok: false, reason: LOG_IN_REFUSED });
@@ -139,13 +142,13 @@ describe("accounts and sessions", () => {
 
     const c = await logIn("jdoe", PASSWORD);
     if (!c.ok) throw new Error("log-in refused");
-    setAccountDisabled("jdoe", true);
-    setAccountDisabled("jdoe", false);
+    setAccountDisabled("jdoe", true, ADMIN);
+    setAccountDisabled("jdoe", false, ADMIN);
     expect(sessionAccount(c.token)).toBeNull();
 
     const d = await logIn("jdoe", PASSWORD);
     if (!d.ok) throw new Error("log-in refused");
-    expect(setAccountPassword("jdoe", "another long password").ok).toBe(true);
+    expect(setAccountPassword("jdoe", "another long password", ADMIN).ok).toBe(true);
     expect(sessionAccount(d.token)).toBeNull();
     expect((await logIn("jdoe", PASSWORD)).ok).toBe(false);
     expect((await logIn("jdoe", "another long password")).ok).toBe(true);
@@ -173,7 +176,7 @@ describe("accounts and sessions", () => {
     );
     expect(actions.filter((a) => a === "log-in-failed")).toHaveLength(LOCKOUT_FAILURES);
     expect(actions.filter((a) => a === "log-in-locked")).toHaveLength(3);
-    expect(unlockAccount("jdoe")).toBe(true);
+    expect(unlockAccount("jdoe", ADMIN)).toBe(true);
     expect(lockedOut("jdoe")).toBe(false);
     expect((await logIn("jdoe", PASSWORD)).ok).toBe(true);
   });

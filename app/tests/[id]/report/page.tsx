@@ -14,6 +14,7 @@ import { ReportValuesTable } from "./ReportValuesTable";
 import { REPORT_NOTICE_SLOT } from "./schemas";
 import { formatUtcMinute } from "@/lib/units";
 import { pageAccess } from "../../../access";
+import { auditReportViewed } from "@/lib/store/reports";
 
 export const dynamic = "force-dynamic";
 
@@ -27,6 +28,7 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
   const loaded = loadReport(testId);
   if (!loaded) notFound();
   const { model, report, versions } = loaded;
+  auditReportViewed(access.actor, testId, report);
   const signed = model.status === "signed";
   const recheck = model.sections.filter((s) => s.recheck);
   const sourceNumber = new Map(model.sources.map((s, i) => [s.id, i + 1]));

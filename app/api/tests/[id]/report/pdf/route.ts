@@ -3,13 +3,14 @@ import { renderReportPdf } from "@/lib/report/pdf/renderReportPdf";
 import { loadReport } from "@/app/tests/[id]/report/loadReport";
 import { recordId } from "../../../../../schemas";
 import { routeAccess } from "@/app/access";
+import { audit } from "@/lib/store/tests";
 
 export const dynamic = "force-dynamic";
 
 const paramsSchema = z.object({ id: recordId("test") });
 const querySchema = z.object({ report: recordId("report version").optional() });
 
-/** The report of a test as PDF: the current version, or `?report=<id>` for a given version. */
+/** The report of a test as PDF: the current version, or `?report=<id>` for a given version (audited: `report-pdf-downloaded`). */
 export async function GET(request: Request, { params }: { params: Promise<{ id: string }> }) {
   const access = await routeAccess();
   if (access instanceof Response) return access;
@@ -23,6 +24,12 @@ export async function GET(request: Request, { params }: { params: Promise<{ id: 
   const superseded =
     loaded.report.status === "signed" && loaded.versions.some((v) => v.id > loaded.report.id && v.status === "signed");
   const name = `cpet-report-test${p.data.id}-v${loaded.report.version}-${superseded ? "superseded" : loaded.report.status}.pdf`;
+  audit(
+    access.actor,
+    "report-pdf-downloaded",
+    p.data.id,
+    `report ${loaded.report.id} (version ${loaded.report.version}, ${name})`,
+  );
   return new Response(new Uint8Array(pdf), {
     headers: {
       "content-type": "application/pdf",
