@@ -126,13 +126,15 @@ function floorBelow(later: BandData[], undecided: BandData, ctx: EvalContext): B
 /**
  * When the only inputs an axis lacks are yes/no ones (at most two), the category each answer gives, in words:
  * "depends on ischaemic heart disease (not recorded): low risk (…) if absent; intermediate risk (…) if present". Null when
- * a numeric input is missing, when an answer still leaves the axis undecided, or when every answer gives the same
- * category (then the caller's reading stands).
+ * a numeric input is missing, when the axis reads nothing but the missing answers, when an answer still leaves the
+ * axis undecided, or when every answer gives the same category (then the caller's reading stands).
  */
 function categoryByAnswer(bands: BandData[], ctx: EvalContext): string | null {
   const used = new Set(bands.flatMap((b) => [...conditionVariables(b.when, ctx)]));
   const missing = [...used].filter((name) => ctx.vars[name] === null || ctx.vars[name] === undefined);
   if (missing.length === 0 || missing.length > 2 || missing.some((name) => variableInfo(name).kind !== "boolean")) return null;
+  // an axis that reads nothing but the missing answer ("oscillatory ventilation: present if present") stays not assessable
+  if (missing.length === used.size) return null;
   const answers: { words: string; band: BandData }[] = [];
   for (let mask = 0; mask < 1 << missing.length; mask++) {
     const vars = { ...ctx.vars };

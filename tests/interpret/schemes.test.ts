@@ -239,6 +239,12 @@ describe("Pre-operative three-tier scheme (Authorea preprint, authors not record
     expect(axis("preop-three-tier", "tier", { vt1Vo2MlKgMin: 11, veVco2AtVt1: 34, ischaemicHeartDisease: true })).toBe(
       "intermediate",
     );
+    // an axis reading nothing but the missing answer is not spelled out both ways (heart-failure prognostic table's
+    // oscillatory-ventilation row: "present if present" says nothing)
+    const hf = interpret(baseInput({ eovPresent: null }, { referral: "heart-failure" }));
+    const eovAxes = hf.schemes.flatMap((x) => x.axes).filter((a) => a.label.toLowerCase().includes("oscillatory"));
+    expect(eovAxes.length).toBeGreaterThan(0);
+    for (const a of eovAxes) expect(a.dependsOn).toBeUndefined();
     // a missing number is not guessed at: AT unknown stays not assessable
     const { s: noAt } = run("preop-three-tier", { vt1Vo2MlKgMin: null, veVco2AtVt1: 30 });
     expect(noAt.axes[0].dependsOn).toBeUndefined();
