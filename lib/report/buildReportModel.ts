@@ -152,6 +152,15 @@ const NOT_READ_KEYS: Record<string, readonly (keyof NonNullable<AnalysisResult["
   peakO2Pulse: ["o2PulsePeakMlBeat", "o2PulsePctPred"],
 };
 
+/**
+ * Why the interpretation does not read a key-value row's value or its % predicted (a beta-blocker under an O2 pulse
+ * predicted from an age-predicted maximal heart rate, a child's % of an adult equation, a doubted VO2); undefined when it
+ * reads them. The page and the report put it beside the % predicted, which is then shown in brackets.
+ */
+export function keyValueNotRead(result: AnalysisResult, comparisonKey: string): string | undefined {
+  return (NOT_READ_KEYS[comparisonKey] ?? []).map((k) => result.interpretInput.notRead?.[k]).find(Boolean);
+}
+
 /** Key-value rows computed from VO2 (marked when VO2-based values are read at a reviewer's word). */
 const VO2_BASED_ROWS = new Set(["peakVo2", "peakVo2PerKg", "peakO2Pulse"]);
 
@@ -204,9 +213,11 @@ export function buildReportModel(
         .filter(Boolean)
         .join("; ");
     }
-    if (c.percentPredicted !== null) row.pctPredicted = formatNumber(c.percentPredicted, 0);
-    // a value the interpretation does not read (a child's % of an adult equation, a doubted VO2) says so on its row
-    const notRead = (NOT_READ_KEYS[c.key] ?? []).map((k) => result.interpretInput.notRead?.[k]).find(Boolean);
+    // a value the interpretation does not read (a child's % of an adult equation, a doubted VO2) says so on its row, and
+    // its % predicted is bracketed so "62" is not taken for a reading
+    const notRead = keyValueNotRead(result, c.key);
+    if (c.percentPredicted !== null)
+      row.pctPredicted = notRead ? `(${formatNumber(c.percentPredicted, 0)})` : formatNumber(c.percentPredicted, 0);
     if (notRead) row.note = [row.note, `not read: ${notRead}`].filter(Boolean).join("; ");
     // read although VO2 was doubted, at a reviewer's word: said on every VO2-based row, where the reader looks first
     else if (result.interpretInput.vo2ReadAtReview && VO2_BASED_ROWS.has(c.key))

@@ -4,7 +4,7 @@ import { analyse } from "@/lib/analysis";
 import { EVIDENCE_LABEL, type Measured } from "@/lib/core";
 import { EQUATIONS } from "@/lib/predicted";
 import { ATRIAL_FIBRILLATION_HR_NOTE, heartRateNotes, hrReserveNote, listCutoffChoices } from "@/lib/interpret";
-import { analysisCharts, bandNote } from "@/lib/report";
+import { analysisCharts, bandNote, keyValueNotRead } from "@/lib/report";
 import {
   BAND_MEANING,
   EOV_CARRY_OVER_CODE,
@@ -237,7 +237,16 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                   ) : null}
                 </td>
                 <td className="num">
-                  {c.percentPredicted !== null ? `${c.percentPredicted.toFixed(0)} %` : "—"}
+                  {c.percentPredicted !== null
+                    ? keyValueNotRead(result, c.key)
+                      ? `(${c.percentPredicted.toFixed(0)} %)`
+                      : `${c.percentPredicted.toFixed(0)} %`
+                    : "—"}
+                  {keyValueNotRead(result, c.key) ? (
+                    <div className="how" data-testid={`not-read-${c.key}`}>
+                      not read: {keyValueNotRead(result, c.key)}
+                    </div>
+                  ) : null}
                   {c.key === "peakHr" && heartRateNotes(record.patient).length > 0 ? (
                     <div className="how" data-testid="beta-blocker-hr-note">
                       {heartRateNotes(record.patient).join("; ")}

@@ -1,5 +1,5 @@
 /**
- * A heart-rate reserve of zero or less (predicted maximum − peak HR) is said as "no reserve left", with how far the peak
+ * Notes on key-value rows. A heart-rate reserve of zero or less (predicted maximum − peak HR) is said as "no reserve left", with how far the peak
  * passed the prediction, on the page and in the report. Input: the INVENTED demo case "normal-adult" (synthetic preset,
  * fixed seed), given an older age so that its peak heart rate passes the age-predicted maximum.
  */
@@ -29,5 +29,21 @@ describe("heart-rate reserve at or below zero", () => {
     const model = buildReportModel(result, record, demoLabel("normal-adult"), { status: "draft", sections: [] });
     const row = model.keyValues.find((r) => r.label === "Heart-rate reserve")!;
     expect(row.note).toContain(`peak heart rate ${-Math.round(reserve)} bpm above the predicted maximum`);
+  });
+});
+
+describe("a % predicted the interpretation does not read is bracketed beside its reason", () => {
+  it("the INVENTED heart-failure demo on a beta-blocker: O2 pulse % predicted in brackets, 'not read' on its row", async () => {
+    const record = await demoRecord("heart-failure");
+    expect(record.patient.betaBlocker).toBe(true);
+    const result = analyse(record, { bootstrap: 0 });
+    const model = buildReportModel(result, record, demoLabel("heart-failure"), { status: "draft", sections: [] });
+    const row = model.keyValues.find((r) => r.label.startsWith("Peak O2 pulse"))!;
+    const pct = result.comparisons.find((c) => c.key === "peakO2Pulse")!.percentPredicted!;
+    expect(row.pctPredicted).toBe(`(${pct.toFixed(0)})`);
+    expect(row.note).toMatch(/not read: .*beta-blocker/);
+    // peak VO2 % predicted is read: no brackets
+    const vo2 = model.keyValues.find((r) => r.label === result.comparisons.find((c) => c.key === "peakVo2")!.label)!;
+    expect(vo2.pctPredicted).toMatch(/^\d+$/);
   });
 });
