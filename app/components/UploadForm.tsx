@@ -2,6 +2,7 @@
 
 import { useActionState, useEffect, useState } from "react";
 import { ErgometerReferralFields } from "./ErgometerReferralFields";
+import { useLeaveGuard } from "./useLeaveGuard";
 import { uploadTest, type UploadState } from "../actions";
 import { uploadFileProblem } from "../schemas";
 
@@ -41,6 +42,10 @@ function UploadFields({
   // The browser's check of the chosen file (empty, or over the upload limit): shown at once, and it stops the form from
   // being sent, so nothing typed or chosen is lost and no oversize request reaches the server.
   const [fileProblem, setFileProblem] = useState<string | null>(null);
+  // typed details and a chosen file are not sent until "Import and analyse": leaving before that asks first (a refused
+  // upload comes back with its fields, which are unsaved too). Nothing is kept across pages: a file cannot be.
+  const [dirty, setDirty] = useState(Boolean(state.errors));
+  useLeaveGuard(dirty && !pending, "The upload form has details or a file that were not sent. Leave the page and lose them?");
   const v = state.values ?? {};
   const err = state.errors ?? {};
   const fileError = fileProblem ?? err.file;
@@ -52,6 +57,7 @@ function UploadFields({
       // while the file is read, typing would be overwritten by the fields as sent when the answer comes back
       inert={pending}
       aria-busy={pending}
+      onChange={() => setDirty(true)}
       onSubmit={(e) => {
         const problem = chosenFileProblem(e.currentTarget.elements.namedItem("file") as HTMLInputElement | null);
         if (problem) {

@@ -1,6 +1,8 @@
 "use client";
 
-import { useActionState } from "react";
+import { useActionState, useRef } from "react";
+import { KeptNotice } from "../components/KeptNotice";
+import { useKeptForm } from "../components/useKeptForm";
 import { CutoffChoiceFields, FormMessages } from "../components/CutoffChoiceFields";
 import { saveLab, type LabFormState } from "./actions";
 
@@ -28,8 +30,13 @@ export interface LabFormProps {
 
 export function LabForm({ quantities, current, cutoffChoices, labToken }: LabFormProps) {
   const [state, action, pending] = useActionState<LabFormState, FormData>(saveLab, {});
+  const formRef = useRef<HTMLFormElement>(null);
+  // changed defaults are kept until saved: leaving asks first, Back and Forward put them back (the form is not
+  // re-mounted after an answer, so a refused save keeps what was chosen)
+  const kept = useKeptForm(formRef, "lab-defaults", state.stamp ?? 0, Boolean(state.errors));
   return (
-    <form action={action} className="stack" data-testid="lab-form" style={{ maxWidth: 960 }}>
+    <form action={action} className="stack" data-testid="lab-form" style={{ maxWidth: 960 }} ref={formRef}>
+      <KeptNotice kept={kept} testId="lab-restored" />
       <input type="hidden" name="labToken" value={labToken} />
       <h2>Predicted-value equations</h2>
       <table>

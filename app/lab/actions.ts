@@ -10,6 +10,8 @@ import { SESSION_NEEDED, currentAccess } from "../access";
 export interface LabFormState {
   ok?: string;
   errors?: Record<string, string>;
+  /** When the answer was made (`useKeptForm` starts again from each answer). */
+  stamp?: number;
 }
 
 const formSchema = z.object({
@@ -22,13 +24,15 @@ export async function saveLab(_prev: LabFormState, form: FormData): Promise<LabF
   const values: Record<string, string> = {};
   for (const [k, v] of form.entries()) if (typeof v === "string") values[k] = v;
   const access = await currentAccess();
-  if (!access) return { errors: { form: SESSION_NEEDED } };
+  if (!access) return { stamp: Date.now(), errors: { form: SESSION_NEEDED } };
   // signed in, the change is the account's (the audit names it too)
   if (access.mode === "account") values.by = access.account.displayName;
   const parsed = formSchema.safeParse(values);
-  if (!parsed.success) return { errors: Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0]), i.message])) };
+  if (!parsed.success)
+    return { stamp: Date.now(), errors: Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0]), i.message])) };
   if (values.labToken !== labDefaultsToken())
     return {
+      stamp: Date.now(),
       errors: {
         form:
           "Not saved: the lab defaults were changed elsewhere (another tab or another person) after this page was opened, " +
@@ -44,7 +48,7 @@ export async function saveLab(_prev: LabFormState, form: FormData): Promise<LabF
     if (k.startsWith("choice:") && v) choices[k.slice(7)] = v;
   }
   const lab = LabSettingsSchema.safeParse({ equations });
-  if (!lab.success) return { errors: { equations: "An equation choice is not valid for its quantity." } };
+  if (!lab.success) return { stamp: Date.now(), errors: { equations: "An equation choice is not valid for its quantity." } };
   const settings: AnalysisSettings = {
     ...getLabDefaults(),
     labSettings: lab.data,
@@ -53,5 +57,8 @@ export async function saveLab(_prev: LabFormState, form: FormData): Promise<LabF
   };
   saveLabDefaults(settings, parsed.data.by);
   revalidatePath("/lab");
-  return { ok: "Lab defaults saved. Tests without a test-specific version now use them; saved versions are unchanged." };
+  return {
+    stamp: Date.now(),
+    ok: "Lab defaults saved. Tests without a test-specific version now use them; saved versions are unchanged.",
+  };
 }

@@ -35,6 +35,8 @@ export interface FormState {
   ok?: string;
   errors?: Record<string, string>;
   values?: Record<string, string>;
+  /** When the answer was made: a form that keeps unsaved values (`useKeptForm`) starts again from each answer. */
+  stamp?: number;
 }
 
 const overrideSchema = z
@@ -169,15 +171,15 @@ const settingsSchema = z.object({
 export async function saveSettings(_prev: FormState, form: FormData): Promise<FormState> {
   const values = formValues(form);
   const access = await currentAccess();
-  if (!access) return { errors: { form: SESSION_NEEDED }, values };
+  if (!access) return { stamp: Date.now(), errors: { form: SESSION_NEEDED }, values };
   signedInAs(access, values);
   const parsed = settingsSchema.safeParse(values);
-  if (!parsed.success) return { errors: errorsOf(parsed.error), values };
+  if (!parsed.success) return { stamp: Date.now(), errors: errorsOf(parsed.error), values };
   const s = parsed.data;
   const test = getTest(s.testId);
-  if (!test?.record) return { errors: { form: "This test has no usable data." }, values };
+  if (!test?.record) return { stamp: Date.now(), errors: { form: "This test has no usable data." }, values };
   const stale = settingsChangedSince(s.testId, values.versionToken);
-  if (stale) return { errors: { form: stale }, values };
+  if (stale) return { stamp: Date.now(), errors: { form: stale }, values };
   const erg = test.record.ergometer;
   const current = effectiveSettings(s.testId, getLabDefaults());
   const choices: Record<string, string> = {};
@@ -198,7 +200,7 @@ export async function saveSettings(_prev: FormState, form: FormData): Promise<Fo
   };
   saveAnalysisVersion(s.testId, settings, ENGINE_VERSION, access.actor, s.note || "settings changed");
   revalidatePath(`/tests/${s.testId}`);
-  return { ok: "Settings saved as a new analysis version." };
+  return { stamp: Date.now(), ok: "Settings saved as a new analysis version." };
 }
 
 const clockOrSeconds = (what: string) =>

@@ -1,6 +1,8 @@
 "use client";
 
-import { useActionState } from "react";
+import { useActionState, useRef } from "react";
+import { KeptNotice } from "../../../components/KeptNotice";
+import { useKeptForm } from "../../../components/useKeptForm";
 import { CutoffChoiceFields, FormMessages } from "../../../components/CutoffChoiceFields";
 import { saveSettings, type FormState } from "../actions";
 
@@ -39,9 +41,13 @@ const AVERAGING: [string, string][] = [
 
 export function SettingsForm({ testId, current, vo2Equations, hrEquations, cutoffChoices, versionToken }: SettingsFormProps) {
   const [state, action, pending] = useActionState<FormState, FormData>(saveSettings, {});
+  const formRef = useRef<HTMLFormElement>(null);
+  // a changed choice and its reason are kept until saved: leaving asks first, Back and Forward put them back
+  const kept = useKeptForm(formRef, `settings-${testId}`, state.stamp ?? 0, Boolean(state.errors));
   const v = state.values ?? {};
   return (
-    <form action={action} className="stack" data-testid="settings-form">
+    <form action={action} className="stack" data-testid="settings-form" key={state.stamp ?? 0} ref={formRef}>
+      <KeptNotice kept={kept} testId="settings-restored" />
       <input type="hidden" name="testId" value={testId} />
       <input type="hidden" name="versionToken" value={versionToken} />
       <div className="row">
