@@ -53,9 +53,17 @@ test("a reviewer override of VT1 is saved as a new version and recomputes the de
   await expect(card).toContainText("Set by the reviewer (E2E Reviewer)");
   await expect(card.locator(".keyfig")).toContainText("1250");
   await expect(page.getByTestId("versions")).toContainText("VT1 override");
-  // Removing the override returns to the automatic estimate.
-  await card.getByRole("button", { name: "Remove override" }).click();
+  // Removing the override asks why and who, as setting it did, and returns to the automatic estimate.
+  const remove = card.getByTestId("remove-override-vt1");
+  await remove.getByRole("button", { name: "Remove override" }).click();
+  await expect(card).toContainText("Set by the reviewer"); // refused in the browser: no reason, no name
+  await remove.locator('[name="reason"]').fill("break not supported on second look");
+  await remove.locator('[name="by"]').fill("E2E Reviewer");
+  await remove.getByRole("button", { name: "Remove override" }).click();
   await expect(card).not.toContainText("Set by the reviewer");
+  await expect(page.getByTestId("versions")).toContainText(
+    "VT1 override removed (the automatic estimate is used again): break not supported on second look, by E2E Reviewer",
+  );
 });
 
 test("an override the test cannot have (VT1 above peak VO2) is refused with the reason and nothing is saved", async ({

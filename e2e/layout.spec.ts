@@ -164,7 +164,10 @@ test("a reviewer's threshold shows who set it and why instead of a confidence", 
     "Set by the reviewer (E2E Layout Reviewer): nadir of VE/VO2 at this point",
   );
   await expect(card.getByTestId("confidence-vt1")).toHaveCount(0);
-  await card.getByRole("button", { name: "Remove override" }).click();
+  const remove = card.getByTestId("remove-override-vt1");
+  await remove.locator('[name="reason"]').fill("layout check done");
+  await remove.locator('[name="by"]').fill("E2E Layout Reviewer");
+  await remove.getByRole("button", { name: "Remove override" }).click();
   await expect(card.getByTestId("confidence-vt1")).toBeVisible();
 });
 

@@ -263,7 +263,10 @@ test("report: after a threshold override the reviewer's edited text is carried i
 
   // Removing the override after signing: a new draft again carries the signed text, with the note.
   await page.goto(`/tests/${testId}`);
-  await page.getByTestId("threshold-vt1").getByRole("button", { name: "Remove override" }).click();
+  const remove = page.getByTestId("remove-override-vt1");
+  await remove.locator('[name="reason"]').fill("automatic estimate preferred after review");
+  await remove.locator('[name="by"]').fill("Dr E2E Reviewer");
+  await remove.getByRole("button", { name: "Remove override" }).click();
   await expect(page.getByTestId("threshold-vt1")).not.toContainText("Set by the reviewer");
   await page.goto(`/tests/${testId}/report`);
   await report.ready();

@@ -130,18 +130,32 @@ export async function overrideThreshold(_prev: FormState, form: FormData): Promi
   return { ok: `${o.which.toUpperCase()} override saved as a new analysis version; all dependent values were recomputed.` };
 }
 
+const clearOverrideSchema = z.object({
+  testId: recordId("test"),
+  which: z.enum(["vt1", "vt2"]),
+  reason: z.string().trim().min(3).max(200),
+  by: z.string().trim().min(2).max(80),
+});
+
+/**
+ * Remove a reviewer's threshold override, with why and who did it (as setting one asks): a new settings version. A page
+ * opened before another change removes nothing.
+ */
 export async function clearOverride(form: FormData): Promise<void> {
   const access = await actionAccess(testPath(form));
-  const testId = Number(form.get("testId"));
-  const which = String(form.get("which"));
+  const values = formValues(form);
+  signedInAs(access, values);
+  const parsed = clearOverrideSchema.safeParse(values);
+  if (!parsed.success || settingsChangedSince(parsed.data.testId, values.versionToken)) return;
+  const { testId, which, reason, by } = parsed.data;
   const current = latestSettings(testId)?.settings;
   if (!current?.overrides?.some((x) => x.which === which)) return;
   saveAnalysisVersion(
     testId,
     { ...current, overrides: current.overrides.filter((x) => x.which !== which) },
     ENGINE_VERSION,
-    access.actor,
-    `${which.toUpperCase()} override removed`,
+    actorFor(access, by),
+    `${which.toUpperCase()} override removed (the automatic estimate is used again): ${reason}, by ${by}`,
   );
   revalidatePath(`/tests/${testId}`);
 }

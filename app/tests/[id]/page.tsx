@@ -22,14 +22,13 @@ import { reportStanding, standingWords } from "@/lib/store/reports";
 import { Chart } from "../../components/Chart";
 import { IssueList } from "../../components/IssueList";
 import { TableScroll } from "../../components/TableScroll";
-import { clearOverride } from "./actions";
 import { FIELD_LABEL, readAsShortText, shortFieldLabel, type FieldKey } from "./columns/fieldChoices";
 import { loadColumnReview } from "./columns/loadColumnReview";
 import { fmt, HowFound, SourceList } from "./parts/HowFound";
 import { ExerciseSpanForm } from "./parts/ExerciseSpanForm";
 import { SetAsideForm } from "./parts/SetAsideForm";
 import { Vo2CheckedForm } from "./parts/Vo2CheckedForm";
-import { OverrideForm } from "./parts/OverrideForm";
+import { OverrideForm, RemoveOverrideForm } from "./parts/OverrideForm";
 import { SettingsForm } from "./parts/SettingsForm";
 import { SeverityScale } from "./parts/SeverityScale";
 import { settingsToken } from "./recordToken";
@@ -694,7 +693,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       )}
       <details>
         <summary>
-          {result.conditioned.removed.length} breath value(s) set aside by artefact rejection; phases:{" "}
+          {setAsideCounts(result.conditioned.removed)}; phases:{" "}
           {result.conditioned.phases.map((ph) => `${ph.phase} ${formatClock(ph.startS)}–${formatClock(ph.endS)}`).join(", ")}
           {result.conditioned.rampRateWPerMin !== null ? `; ramp ${result.conditioned.rampRateWPerMin.toFixed(1)} W/min` : ""}
         </summary>
@@ -883,13 +882,7 @@ function ThresholdCard({
           {t.overridden.automatic.vo2MlMin !== null
             ? `Automatic estimate was ${formatNumber(t.overridden.automatic.vo2MlMin, 0)} mL/min (confidence ${t.overridden.automatic.confidence}).`
             : "The automatic estimate was not determinable."}
-          <form action={clearOverride}>
-            <input type="hidden" name="testId" value={testId} />
-            <input type="hidden" name="which" value={which} />
-            <button type="submit" className="secondary">
-              Remove override
-            </button>
-          </form>
+          <RemoveOverrideForm testId={testId} which={which} versionToken={versionToken} signedInName={signedInName} />
         </div>
       ) : null}
       <HowFound m={t.vo2MlMin} methodLabels={methodLabels} />
@@ -944,4 +937,14 @@ function NotDeterminable({ reason }: { reason: string }) {
       </ul>
     </>
   );
+}
+
+/**
+ * "3 breath value(s) set aside by artefact rejection and 25 by review": the automatic screens and the reviewer's spans
+ * counted apart (the reviewer's carry the reason "set aside by review …").
+ */
+function setAsideCounts(removed: readonly { reason: string }[]): string {
+  const byReview = removed.filter((r) => r.reason.startsWith("set aside by review")).length;
+  const automatic = removed.length - byReview;
+  return `${automatic} breath value(s) set aside by artefact rejection${byReview ? ` and ${byReview} by review` : ""}`;
 }

@@ -1,8 +1,8 @@
 "use client";
 
 import { useActionState } from "react";
-import { overrideThreshold, type FormState } from "../actions";
-import { ReasonAndSubmit, ReviewerField } from "./ReviewerFields";
+import { clearOverride, overrideThreshold, type FormState } from "../actions";
+import { ReasonAndSubmit, ReviewerField, ReviewerNameInput } from "./ReviewerFields";
 
 export function OverrideForm({
   testId,
@@ -47,5 +47,44 @@ export function OverrideForm({
         />
       </form>
     </details>
+  );
+}
+
+/**
+ * Remove a reviewer's override and use the automatic estimate again: like setting one, it says why and who (the server
+ * refuses it otherwise, and the version list names both).
+ */
+export function RemoveOverrideForm({
+  testId,
+  which,
+  versionToken,
+  signedInName,
+}: {
+  testId: number;
+  which: "vt1" | "vt2";
+  versionToken: string;
+  signedInName?: string;
+}) {
+  return (
+    <form action={clearOverride} data-testid={`remove-override-${which}`}>
+      <input type="hidden" name="testId" value={testId} />
+      <input type="hidden" name="which" value={which} />
+      <input type="hidden" name="versionToken" value={versionToken} />
+      <input
+        name="reason"
+        required
+        minLength={3}
+        maxLength={200}
+        pattern=".*\S.*\S.*\S.*"
+        title="Say why, in a few words"
+        size={18}
+        placeholder="why"
+        aria-label="Reason for removing the override"
+      />{" "}
+      <ReviewerNameInput signedInName={signedInName} />{" "}
+      <button type="submit" className="secondary">
+        Remove override
+      </button>
+    </form>
   );
 }
