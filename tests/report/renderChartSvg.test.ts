@@ -284,6 +284,16 @@ describe("standard chart builders", () => {
     expect(svg).toMatch(/transform="rotate\(90 [^"]*"[^>]*>Heart rate and work rate \(bpm, W\)<\/text>/);
     expect(svg).toContain(">Heart rate (right axis)</text>");
     expect(svg).toContain(">Work rate (right axis)</text>");
+    // an axis names only what is drawn on it: this input has no VCO2
+    expect(tc.y).toEqual({ label: "VO2", unit: "mL/min" });
+    const both = timeCourseChart({
+      timeS,
+      vo2MlMin: [300, 800, 1200, 1600],
+      vco2MlMin: [250, 700, 1150, 1700],
+      hrBpm: [70, 90, 110, 130],
+    });
+    expect(both.y.label).toBe("VO2 and VCO2");
+    expect(both.y2).toEqual({ label: "Heart rate", unit: "bpm", min: 0 });
     const noRight = timeCourseChart({ timeS, vo2MlMin: [300, 800, 1200, 1600] });
     expect(noRight.y2).toBeUndefined();
     expect(renderChartSvg(noRight)).not.toContain("right axis");
