@@ -26,6 +26,12 @@ const BASELINE_S = 60;
 const SETTLE_S = 60;
 /** Longest phase-I delay tried, s (our choice: the cardiodynamic phase lasts about 15-20 s — recalled — plus gas mixing). */
 const MAX_DELAY_S = 30;
+/**
+ * A lag whose fit puts the delay at `MAX_DELAY_S` is used only up to this, s (our choice: about 90 s is the longest
+ * expected in heart failure — recalled, as `LAG_RANGE_S`; a review found 124 s with the delay at 30 s on an open-data test
+ * of a trained 18-year-old whose back-extrapolated lag was about 46 s — ACTES test 12, PhysioNet 2022, ODC-By 1.0).
+ */
+const LAG_AT_MAX_DELAY_CEILING_S = 90;
 /** Shortest time constant tried, s (our choice). */
 const TAU_MIN_S = 5;
 /**
@@ -164,6 +170,18 @@ export function rampLag(test: ConditionedTest, vt1TimeS: number | null): RampLag
   if (best.tau <= TAU_MIN_S || best.tau >= LAG_RANGE_S[1])
     return {
       lagS: notDetermined("s", prov(inputs), "the fit did not settle (its best time constant lies at the edge of those tried)"),
+      rampWPerS: null,
+    };
+  // a best delay at its longest with a long τ: the model wants more delay than a phase I can have, the sign of a
+  // response it does not describe (a stepped protocol, an onset that is not first order); a lag over
+  // LAG_AT_MAX_DELAY_CEILING_S is then not used
+  if (best.delay >= MAX_DELAY_S && lag > LAG_AT_MAX_DELAY_CEILING_S)
+    return {
+      lagS: notDetermined(
+        "s",
+        prov(inputs),
+        `the fit did not settle (its best delay lies at the longest tried, ${MAX_DELAY_S} s, with a lag of ${Math.round(lag)} s)`,
+      ),
       rampWPerS: null,
     };
   if (!(lag >= LAG_RANGE_S[0] && lag < LAG_RANGE_S[1]))
