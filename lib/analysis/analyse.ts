@@ -30,9 +30,12 @@ import { draftExtras } from "./draftExtras";
  * VE/VCO2 at VT1 is read over 60 s of breaths and at the ends of the VT1 band, which the schemes read too; smoothed or
  * averaged exports cap threshold confidence and drop the breath-calibrated bands; short tests show no plateau or
  * whole-exercise slope or OUES; HR gaps, HR recovery from averaged rows and beta-blockers are read as such; an effort
- * verdict near its cut-off and a per-kg class in obesity say so; round 20).
+ * verdict near its cut-off and a per-kg class in obesity say so; round 20; 0.7.0: a peak VO2 reduced on predicted body
+ * mass only leads the conclusion with both readings; a scheme waiting on a yes/no input says what each answer gives; no
+ * SEE-based limit of normal beyond an equation's derivation range; a % predicted not read is bracketed; a ramp lag whose
+ * fit needs the longest delay and exceeds 90 s is not used).
  */
-export const ENGINE_VERSION = "0.6.0";
+export const ENGINE_VERSION = "0.7.0";
 
 /**
  * The whole analysis as one pure, deterministic function of (record, settings):
