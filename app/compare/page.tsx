@@ -192,7 +192,8 @@ export default async function ComparePage({
             </div>
           ) : null}
           <p>
-            Effort: earlier {comparison.effort.before.replace(/-/g, " ")}, later {comparison.effort.after.replace(/-/g, " ")}
+            Effort: earlier test {lowerFirst(comparison.effort.beforeLabel)}; later test{" "}
+            {lowerFirst(comparison.effort.afterLabel)}
             {comparison.effort.comparable ? "" : " — peak values are not judged because the tests are not both maximal"}.
           </p>
           <p data-testid="compare-population">
@@ -277,3 +278,5 @@ export default async function ComparePage({
     </>
   );
 }
+
+const lowerFirst = (t: string) => t.charAt(0).toLowerCase() + t.slice(1);

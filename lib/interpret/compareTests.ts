@@ -58,7 +58,8 @@ export interface SerialComparison {
   population: string;
   populationLabel: string;
   items: SerialItem[];
-  effort: { before: string; after: string; comparable: boolean };
+  /** Effort verdict keys of the earlier and later test, with their labels in words (what the page shows). */
+  effort: { before: string; after: string; beforeLabel: string; afterLabel: string; comparable: boolean };
   issues: Issue[];
   sourceIds: string[];
 }
@@ -241,7 +242,13 @@ export function compareTests(
     population,
     populationLabel: pop?.label ?? population,
     items,
-    effort: { before: effortA.verdict, after: effortB.verdict, comparable },
+    effort: {
+      before: effortA.verdict,
+      after: effortB.verdict,
+      beforeLabel: effortA.label,
+      afterLabel: effortB.label,
+      comparable,
+    },
     issues,
     sourceIds: unique(items.flatMap((i) => i.noise?.sourceIds ?? [])),
   };

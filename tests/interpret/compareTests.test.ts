@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { compareTests } from "../../lib/interpret";
+import { compareTests, interpret } from "../../lib/interpret";
 import { baseInput, loadFixture } from "./helpers";
 
 // INVENTED before/after pairs; noise bands from the cited test-retest studies (clinical-confirmations §11).
@@ -110,6 +110,9 @@ describe("serial comparison against published test-retest variability", () => {
       "heart-failure",
     );
     expect(c.effort.comparable).toBe(false);
+    // the verdicts in words, as each test's own page says them (no keys such as "limit-without-rer" on the page)
+    expect(c.effort.beforeLabel).toBe(interpret(baseInput({ peakVo2MlKgMin: 20 })).effort.label);
+    expect(c.effort.afterLabel).not.toMatch(/-/);
     expect(item(c, "peakVo2MlKgMin").verdict).toBe("not-judged");
     expect(c.issues.map((i) => i.code)).toContain("serial-effort-not-comparable");
   });

@@ -307,7 +307,8 @@ export async function renderReportPdf(rawModel: ReportModel, now: Date = new Dat
     model.issues.length
       ? {
           ul: model.issues.map((i) => ({
-            text: [{ text: `${i.severity}: `, bold: true }, i.message, { text: ` [${i.code}]`, color: MUTED }],
+            // the message only: its code ("record-selected") is for the software, not for the clinician reading
+            text: [{ text: `${i.severity}: `, bold: true }, i.message],
           })),
           fontSize: 8.5,
         }
