@@ -39,6 +39,7 @@ export async function buildRecord(input: BuildRecordInput): Promise<BuildRecordR
   }
   issues.push(...ergometerMismatch(imported.table.rows, input.ergometer));
   issues.push(...modeMismatch(imported.modeNamed, input.ergometer));
+  const selected = selectedWords(input.importOptions?.select);
   const record: TestRecord = {
     patient,
     ergometer: input.ergometer,
@@ -46,7 +47,12 @@ export async function buildRecord(input: BuildRecordInput): Promise<BuildRecordR
     table: imported.table,
     columns: imported.columns,
     importIssues: issues,
-    upload: { fileName: input.fileName, sha256: input.sha256 ?? "", sizeBytes: input.bytes.byteLength },
+    upload: {
+      fileName: input.fileName,
+      sha256: input.sha256 ?? "",
+      sizeBytes: input.bytes.byteLength,
+      ...(selected ? { selected } : {}),
+    },
   };
   return { record, columns: imported.columns, issues };
 }
@@ -103,4 +109,11 @@ function modeMismatch(named: { header: string; values: string[] } | null, ergome
       { field: "ergometer" },
     ),
   ];
+}
+
+/** The rows kept from a file holding several tests, in words: "ID = 13" ("" without a selection). */
+function selectedWords(select: Record<string, string | number> | undefined): string {
+  return Object.entries(select ?? {})
+    .map(([column, value]) => `${column} = ${value}`)
+    .join(" and ");
 }

@@ -42,7 +42,11 @@ export interface TestRecord {
   /** Import decisions and problems, carried into every result. */
   columns: ColumnDecision[];
   importIssues: Issue[];
-  upload?: { fileName: string; sha256: string; sizeBytes: number };
+  /**
+   * The uploaded file. `selected`: the one test kept from a file holding several, in words ("ID = 13"), said wherever the
+   * file is named, since which record was used is the patient's identity.
+   */
+  upload?: { fileName: string; sha256: string; sizeBytes: number; selected?: string };
   lactate?: LactateSample[];
   spirometry?: Spirometry;
   bloodGases?: BloodGasSample[];

@@ -177,6 +177,8 @@ function testLine(result: AnalysisResult, record: TestRecord): string {
   const d = result.indices.peaks.testDurationS.value;
   if (d !== null) parts.push(`recording ${formatClock(d)} min:s`);
   parts.push(`${record.table.rows.length} ${record.table.shape === "breath" ? "breaths" : "rows"}`);
+  // one test of a file holding several: which one is the patient's identity
+  if (record.upload?.selected) parts.push(`the test where ${record.upload.selected} in a file holding several`);
   // the upload's file name is not printed: carts and sites often put the patient's name, birth date or number in it
   return parts.join(", ");
 }

@@ -148,7 +148,8 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
       <h1 data-testid="test-title">{test.label}</h1>
       <p className="how">
         {p.sex ?? "sex not given"}, {p.ageY ?? "?"} y, {p.heightCm ?? "?"} cm, {p.weightKg ?? "?"} kg · {erg} · referral:{" "}
-        {record.referral} · {test.fileName ? `file ${test.fileName}` : "no uploaded file kept"} (
+        {record.referral} · {test.fileName ? `file ${test.fileName}` : "no uploaded file kept"}
+        {record.upload?.selected ? <span data-testid="selected-record">, the test where {record.upload.selected}</span> : null} (
         <span data-testid="row-count">{rowCountWords(record.table)}</span>) · analysis version{" "}
         {versions[0]?.version ?? "lab defaults"} · engine {result.engineVersion}
       </p>
