@@ -240,7 +240,11 @@ test("(e) a lactate file added on the inputs page gives the analysis a lactate t
   await spiro.locator('[name="fev1L"]').fill("31");
   await spiro.locator('[name="fvcL"]').fill("4.0");
   await spiro.getByTestId("spirometry-submit").click();
-  await expect(page.getByTestId("spirometry-error")).toContainText("FEV1 (L) must lie between 0.2 and 8, got 31");
+  // the whole form is refused: the field's problem, and that nothing was saved (not "left out" while the rest saves)
+  await expect(page.getByTestId("spirometry-error").filter({ hasText: "FEV1" })).toHaveText(
+    "FEV1 (L) must lie between 0.2 and 8, got 31.",
+  );
+  await expect(page.getByTestId("spirometry-error").filter({ hasText: "Nothing was saved" })).toBeVisible();
   await expect(spiro.locator('[name="fvcL"]')).toHaveValue("4.0");
   await spiro.locator('[name="fev1L"]').fill("3.1");
   await spiro.getByTestId("spirometry-submit").click();

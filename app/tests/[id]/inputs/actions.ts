@@ -176,8 +176,10 @@ export async function saveSpirometry(_prev: InputFormState, form: FormData): Pro
   });
   const problems = issues.filter((i) => i.severity !== "info");
   if (problems.length > 0) {
-    const errors: Record<string, string> = {};
-    for (const i of problems) errors[String(i.where?.field ?? "form")] ??= i.message;
+    // the form is refused whole: nothing is "left out" and the rest saved, so the field says what is wrong and the form
+    // says nothing was saved
+    const errors: Record<string, string> = { form: "Nothing was saved: correct the value marked below and save again." };
+    for (const i of problems) errors[String(i.where?.field ?? "form")] ??= i.message.replace(/; it was left out\.$/, ".");
     return { errors, values, stamp };
   }
   const next: TestRecord = { ...record };
