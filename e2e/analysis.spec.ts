@@ -127,6 +127,11 @@ test("lab settings choose the predicted-value equation named on every test witho
   await expect(form).toContainText("Lab defaults saved");
   await openDemo(page, /breathless runner/);
   await expect(page.getByTestId("row-peakVo2")).toContainText("Jones");
+  // the equations page tags this lab's defaults with their ergometer
+  await page.goto("/equations");
+  await expect(page.getByTestId("lab-default-jones-1985")).toHaveText("lab default, cycle");
+  await expect(page.getByTestId("lab-default-friend-2018")).toHaveText("lab default, treadmill");
+  await expect(page.getByTestId("lab-default-hansen-1984")).toHaveCount(0);
   // Restore the documented default so other checks see Hansen 1984 again.
   await page.goto("/lab");
   await page.getByTestId("lab-form").getByLabel("peak VO2, cycle").selectOption("hansen-1984");

@@ -1,4 +1,5 @@
-import { DEFAULT_LAB_SETTINGS, EQUATIONS, PREDICTED_QUANTITIES, type PredictedQuantity } from "@/lib/predicted";
+import { DEFAULT_LAB_SETTINGS, EQUATIONS, PREDICTED_QUANTITIES, type LabQuantity, type PredictedQuantity } from "@/lib/predicted";
+import { getLabDefaults } from "@/lib/store/labSettings";
 import { TableScroll } from "../components/TableScroll";
 import { pageAccess } from "../access";
 
@@ -23,14 +24,22 @@ const ERGOMETER_WORDS: Record<string, string> = { both: "cycle or treadmill" };
 /** The reference equations the engine can evaluate, each with its population, source and check values. */
 export default async function EquationsPage() {
   await pageAccess("/equations");
-  const defaults = new Set(Object.values(DEFAULT_LAB_SETTINGS.equations).flatMap((byErg) => Object.values(byErg ?? {})));
+  // this lab's defaults (the lab page may have changed the built-in ones), by equation: for which ergometers
+  const lab = getLabDefaults().labSettings?.equations ?? {};
+  const defaults = new Map<string, string[]>();
+  for (const q of new Set([...Object.keys(DEFAULT_LAB_SETTINGS.equations), ...Object.keys(lab)]) as Set<LabQuantity>)
+    for (const erg of ["cycle", "treadmill"] as const) {
+      const id = lab[q]?.[erg] ?? DEFAULT_LAB_SETTINGS.equations[q]?.[erg];
+      if (id) defaults.set(id, [...(defaults.get(id) ?? []), erg]);
+    }
   return (
     <>
       <h1>Reference equations</h1>
       <p className="how">
         Every predicted value in cpet-desk names one of these equations. Each is a data file in <code>reference-equations/</code>{" "}
         with its citation, evidence status, derivation population and check values that the test suite reproduces. Equations
-        marked “lab default” are used unless the lab chooses otherwise.
+        marked “lab default” are the ones this lab's settings use, for the ergometer named; a test's own settings may choose
+        another.
       </p>
       <TableScroll label="Reference equations">
         <table className="wide" data-testid="equation-list" style={{ minWidth: "60rem" }}>
@@ -48,7 +57,12 @@ export default async function EquationsPage() {
             {EQUATIONS.map((e) => (
               <tr key={e.id}>
                 <td>
-                  <code>{e.id}</code> {defaults.has(e.id) ? <span className="tag">lab default</span> : null}
+                  <code>{e.id}</code>{" "}
+                  {defaults.has(e.id) ? (
+                    <span className="tag" data-testid={`lab-default-${e.id}`}>
+                      lab default, {defaults.get(e.id)!.join(" and ")}
+                    </span>
+                  ) : null}
                   {e.kind === "performance-estimate" ? <span className="tag">not a predicted normal</span> : null}
                 </td>
                 <td>
