@@ -102,8 +102,17 @@ test("an override without a reason is refused and the typed values are kept", as
 test("comparing two tests judges each change against published test-retest variability", async ({ page }) => {
   await page.goto("/compare");
   const form = page.getByTestId("compare-form");
-  await form.locator('[name="before"]').selectOption({ label: "Demo (invented): deconditioning after illness" });
-  await form.locator('[name="after"]').selectOption({ label: "Demo (invented): breathless runner, normal study" });
+  // options read "label (test N, added …)": serial tests of one patient are told apart by number and date
+  const option = (name: string, text: string) => form.locator(`[name="${name}"] option`, { hasText: text });
+  await expect(option("before", "deconditioning after illness")).toHaveText(
+    /^Demo \(invented\): deconditioning after illness \(test \d+, added \d{4}-\d\d-\d\d/,
+  );
+  await form
+    .locator('[name="before"]')
+    .selectOption((await option("before", "deconditioning after illness").getAttribute("value"))!);
+  await form
+    .locator('[name="after"]')
+    .selectOption((await option("after", "breathless runner, normal study").getAttribute("value"))!);
   await form.locator('[name="population"]').selectOption("healthy");
   await form.getByRole("button", { name: "Compare" }).click();
   // two different invented patients (40 y, 185 cm against 45 y, 178 cm): the page warns and withholds the verdicts

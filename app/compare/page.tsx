@@ -5,7 +5,7 @@ import type { Patient } from "@/lib/core";
 import { compareTests, INTERPRETATION_DATA, variableInfo, type ReferralQuestion, type SerialItem } from "@/lib/interpret";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { effectiveSettings, getTest, listTests } from "@/lib/store/tests";
-import { formatNumber } from "@/lib/units";
+import { formatNumber, formatUtcMinute } from "@/lib/units";
 import { TableScroll } from "../components/TableScroll";
 import { SourceList } from "../tests/[id]/parts/HowFound";
 import { samePatientCheck } from "./samePatientCheck";
@@ -36,7 +36,7 @@ function TestSelect({
 }: {
   name: string;
   label: string;
-  tests: { id: number; label: string }[];
+  tests: { id: number; label: string; createdAt?: string }[];
   value?: number;
 }) {
   return (
@@ -46,7 +46,9 @@ function TestSelect({
         <option value="">choose…</option>
         {tests.map((t) => (
           <option key={t.id} value={t.id}>
-            {t.label}
+            {/* serial tests of one patient often share a label: the number and when each was added tell them apart */}
+            {t.label} (test {t.id}
+            {t.createdAt ? `, added ${formatUtcMinute(t.createdAt)}` : ""})
           </option>
         ))}
       </select>
