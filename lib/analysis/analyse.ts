@@ -110,6 +110,7 @@ export function analyse(record: TestRecord, settings: AnalysisSettings = {}): An
       : indices.issues),
     ...interpretation.issues,
     ...(weightBasis?.issues ?? []),
+    ...peakHrAbovePrediction(indices.peaks.hrBpm.value, hrMax?.value ?? null, record.patient.atrialFibrillation === true),
   ];
   return {
     engineVersion: ENGINE_VERSION,
@@ -234,4 +235,31 @@ function movedBySetAside(record: TestRecord, settings: AnalysisSettings, thresho
       );
   }
   return out;
+}
+
+/**
+ * Scatter of measured maximal heart rate about an age-predicted one, bpm: the SEE of Jones et al. 1985 HRmax = 202 −
+ * 0.72·age, 10.3 bpm (Jones NL, Makrides L, Hitchcock C, Chypchar T, McCartney N. Am Rev Respir Dis 1985;131:700-708 —
+ * confirmed, clinical-reference §1.2 [S4]).
+ */
+export const HR_MAX_SEE_BPM = 10.3;
+
+/**
+ * A peak heart rate more than two SEE (about 21 bpm) above the predicted maximum is rare in a correctly entered age with a
+ * clean heart-rate signal (about 1 in 40 by the normal scatter): a warning to check the age and the signal (an R-wave
+ * double count, an artefact). Not raised in atrial fibrillation, where the ventricular rate is not read against a
+ * prediction.
+ */
+function peakHrAbovePrediction(peakHrBpm: number | null, predictedBpm: number | null, atrialFibrillation: boolean): Issue[] {
+  if (atrialFibrillation || peakHrBpm === null || predictedBpm === null || !(predictedBpm > 0)) return [];
+  const over = peakHrBpm - predictedBpm;
+  if (!(over > 2 * HR_MAX_SEE_BPM)) return [];
+  return [
+    makeIssue(
+      "warning",
+      "peak-hr-far-above-predicted",
+      `Peak heart rate ${Math.round(peakHrBpm)} bpm is ${Math.round(over)} bpm above the predicted maximum (${Math.round(predictedBpm)} bpm), more than twice the usual scatter of maximal heart rate about its prediction (${HR_MAX_SEE_BPM} bpm): check the age entered and the heart-rate signal (a doubled count or an artefact) before reading heart-rate criteria.`,
+      { field: "hrBpm" },
+    ),
+  ];
 }

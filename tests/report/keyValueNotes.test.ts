@@ -29,6 +29,15 @@ describe("heart-rate reserve at or below zero", () => {
     const model = buildReportModel(result, record, demoLabel("normal-adult"), { status: "draft", sections: [] });
     const row = model.keyValues.find((r) => r.label === "Heart-rate reserve")!;
     expect(row.note).toContain(`peak heart rate ${-Math.round(reserve)} bpm above the predicted maximum`);
+    // more than two SEE of HRmax (Jones 1985: 10.3 bpm, confirmed) above the prediction: check the age and the signal
+    expect(-reserve).toBeGreaterThan(2 * 10.3);
+    expect(result.issues.find((i) => i.code === "peak-hr-far-above-predicted")?.message).toMatch(
+      /check the age entered and the heart-rate signal/,
+    );
+    // at the demo's own age (45 y) the peak lies within the scatter: no such warning
+    const own = analyse(base, { bootstrap: 0 });
+    expect(own.indices.peaks.hrBpm.value! - own.predicted.values.hrMaxBpm!.value!).toBeLessThan(2 * 10.3);
+    expect(own.issues.some((i) => i.code === "peak-hr-far-above-predicted")).toBe(false);
   });
 });
 
