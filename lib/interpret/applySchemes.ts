@@ -85,7 +85,7 @@ function evaluateAxis(
         );
         return { ...base, category: null, text: `${axis.label}: ${dependsOn}`, reason: dependsOn, dependsOn };
       }
-      const reason = `not assessable (${r.text})`;
+      const reason = `not assessable (${missingWords(bands, ctx) || r.text})`;
       return { ...base, category: null, text: `${axis.label}: ${reason}`, reason };
     }
     if (r.outcome) {
@@ -152,6 +152,23 @@ function categoryByAnswer(bands: BandData[], ctx: EvalContext): string | null {
   if (new Set(answers.map((a) => a.band.key)).size === 1) return null;
   const what = andList(missing.map((name) => lowerFirst(variableLabel(ctx, name))));
   return `depends on ${what} (not recorded): ${answers.map((a) => `${lowerFirst(a.band.label)} if ${a.words}`).join("; ")}`;
+}
+
+/**
+ * The inputs an axis lacks, each named once with why: "VO2 at VT1 (mL/kg/min) not available (the recording has no
+ * VCO2…); VE/VCO2 at VT1 not available (VT1 not given)". A band condition's own text repeats a missing input once per
+ * comparison that reads it (three times in the three-tier scheme); "" when no input is missing.
+ */
+function missingWords(bands: BandData[], ctx: EvalContext): string {
+  const used = [...new Set(bands.flatMap((b) => [...conditionVariables(b.when, ctx)]))];
+  return used
+    .filter((name) => ctx.vars[name] === null || ctx.vars[name] === undefined)
+    .map((name) => {
+      const unit = variableInfo(name).unit;
+      const why = ctx.reasons[name];
+      return `${variableLabel(ctx, name)}${unit ? ` (${unit})` : ""} not available${why ? ` (${why})` : ""}`;
+    })
+    .join("; ");
 }
 
 const lowerFirst = (t: string) => t.charAt(0).toLowerCase() + t.slice(1);

@@ -249,6 +249,8 @@ describe("Pre-operative three-tier scheme (Authorea preprint, authors not record
     const { s: noAt } = run("preop-three-tier", { vt1Vo2MlKgMin: null, veVco2AtVt1: 30 });
     expect(noAt.axes[0].dependsOn).toBeUndefined();
     expect(noAt.overallText).toMatch(/could be placed in a band/);
+    // each missing input is named once, not once per comparison that reads it (three for AT in this scheme)
+    expect(noAt.axes[0].text.match(/VO2 at VT1 \(mL\/kg\/min\) not available/g)).toHaveLength(1);
   });
   it("with ischaemic heart disease not recorded, AT 8-10.9 is at least intermediate risk (high not excluded), not 'no category'", () => {
     // INVENTED: AT 8.0 mL/kg/min, VE/VCO2 at AT 30: one risk factor for sure, the second (IHD) unknown
