@@ -120,6 +120,8 @@ function failed(issues: Issue[], columns: ColumnDecision[] = [], format: FileFor
   return { table: null, columns, issues, format, events: [], weight: null, modeNamed: null };
 }
 
+const NO_VO2_COLUMN = "No VO2 column was found. Add a column named vo2_ml_min (mL/min) or map the VO2 column (e.g. VO2, V'O2).";
+
 function sameCell(cell: Cell, wanted: string | number): boolean {
   if (cell === null) return false;
   const a = String(cell).trim();
@@ -367,12 +369,17 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
 
   // several tests in one file: choosing one comes first (what else is missing can only be judged on one test's rows);
   // the column decisions so far (an R–R column read as heart rate) are kept for the column review
-  if (issues.some((i) => i.code === "several-records"))
+  if (issues.some((i) => i.code === "several-records")) {
+    // …unless the file has no VO2 column at all (a subject-information sheet keyed by ID): no choice of test makes it
+    // usable, so that leads
+    if (!byTarget.get("vo2MlMin") && !byTarget.get("vo2MlKgMin"))
+      issues.unshift(makeIssue("error", "no-vo2-column", NO_VO2_COLUMN));
     return failed(
       issues,
       columns.map((c) => c.decision),
       { ...formatBase, timeFormat: "none" },
     );
+  }
 
   // ---- per kg → absolute ---------------------------------------------------------------------
   let weight: ImportResult["weight"] = null;
@@ -496,13 +503,7 @@ function buildTable(layout: TableLayout, opts: ImportOptions, issues: Issue[]): 
 
   const vo2Target = byTarget.get("vo2MlMin") ?? byTarget.get("vo2MlKgMin");
   if (!vo2Target) {
-    issues.push(
-      makeIssue(
-        "error",
-        "no-vo2-column",
-        "No VO2 column was found. Add a column named vo2_ml_min (mL/min) or map the VO2 column (e.g. VO2, V'O2).",
-      ),
-    );
+    issues.push(makeIssue("error", "no-vo2-column", NO_VO2_COLUMN));
   }
   if (issues.some((i) => i.severity === "error"))
     return failed(

@@ -49,6 +49,13 @@ describe("ACTES breath VO2 (ODC-By 1.0)", () => {
     expect(beats.columns.find((c) => c.header === "RR")).toMatchObject({ field: "hrBpm", unit: "R–R interval, ms" });
   });
 
+  it("actes_subject-info.csv (ages, weights and threshold powers keyed by ID, no VO2): refused for having no VO2 first, then for holding 18 people", async () => {
+    const r = await importBreathFile(read("actes/actes_subject-info.csv"));
+    expect(r.table).toBeNull();
+    const errors = r.issues.filter((i) => i.severity === "error").map((i) => i.code);
+    expect(errors).toEqual(["no-vo2-column", "several-records"]);
+  });
+
   it("actes_test_measure.csv: RR is the R–R interval (ms), not breathing; VO2 carried on every beat collapses to the breath series", async () => {
     const r = await importBreathFile(read("actes/actes_test_measure.csv"), { select: { ID: "1" } });
     const rr = r.columns.find((c) => c.header === "RR")!;
