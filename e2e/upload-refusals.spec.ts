@@ -208,3 +208,32 @@ test("a form sent from another site's page is refused plainly (403), and a forei
   });
   expect(own.status()).not.toBe(403);
 });
+
+test("a file holding two people is refused with the choice to make first, and the chosen test is named on its page", async ({
+  page,
+}) => {
+  // INVENTED: the plain ramp written twice under an ID column (7 and 8), the second with VO2 × 0.8
+  const [header, ...rows] = plainRampCsv().trim().split("\n");
+  const scaled = rows.map((r) => {
+    const c = r.split(",");
+    c[1] = (Number(c[1]) * 0.8).toFixed(1);
+    return c.join(",");
+  });
+  const csv = [`ID,${header}`, ...rows.map((r) => `7,${r}`), ...scaled.map((r) => `8,${r}`)].join("\n") + "\n";
+  await page.goto("/");
+  await page.getByTestId("upload-file").setInputFiles({ name: "two-people.csv", mimeType: "text/csv", buffer: Buffer.from(csv) });
+  await page.getByTestId("upload-submit").click();
+  await page.waitForURL(/\/tests\/\d+/);
+  await expect(page.getByTestId("refused")).toContainText("holds 2 tests");
+  await page.goto(`${new URL(page.url()).pathname}/columns`);
+  await expect(page.getByTestId("refused-what-next")).toHaveText(
+    "This file holds several tests. Choose the one to import (the test's identifier below), then re-read it.",
+  );
+  await page.getByTestId("record-select").selectOption("8");
+  await page.getByRole("button", { name: "Re-read the file with these choices" }).click();
+  await expect(page.getByTestId("import-status")).toHaveText("imported");
+  await page.goto(new URL(page.url()).pathname.replace(/\/columns$/, ""));
+  await expect(page.getByTestId("selected-record")).toHaveText(", the test where ID = 8");
+  // by construction the second person's VO2 holds at 2500 × 0.8 = 2000 mL/min
+  await expect(page.getByTestId("row-peakVo2")).toContainText("2000");
+});

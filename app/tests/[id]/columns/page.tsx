@@ -72,9 +72,12 @@ export default async function ColumnReviewPage({ params }: { params: Promise<{ i
       </section>
 
       {refused ? (
-        <p className="sev-warning" style={{ padding: "0.5rem" }}>
-          This file could not be used as read automatically. Say what each needed column holds (at least time and VO2), then
-          re-read it.
+        <p className="sev-warning" style={{ padding: "0.5rem" }} data-testid="refused-what-next">
+          {/* what to do first: only the test to choose when that is the one problem, else the columns it lacks */}
+          {review.issues.some((i) => i.code === "several-records") &&
+          !review.issues.some((i) => i.code === "no-vo2-column" || i.code === "no-time-column")
+            ? "This file holds several tests. Choose the one to import (the test's identifier below), then re-read it."
+            : "This file could not be used as read automatically. Say what each needed column holds (at least time and VO2), then re-read it."}
         </p>
       ) : null}
 
