@@ -2,20 +2,18 @@
 
 import { useActionState } from "react";
 import { clearOverride, overrideThreshold, type FormState } from "../actions";
-import { ReasonAndSubmit, ReviewerField, ReviewerNameInput } from "./ReviewerFields";
+import { ReasonAndSubmit, ReviewerField, ReviewerNameInput, ShortReasonInput } from "./ReviewerFields";
 
-export function OverrideForm({
-  testId,
-  which,
-  versionToken,
-  signedInName,
-}: {
+/** The threshold a reviewer form acts on, the analysis version the page shows, and the signed-in reviewer. */
+interface OverrideFormProps {
   testId: number;
   which: "vt1" | "vt2";
   versionToken: string;
   /** Signed in: the reviewer is the account and the name is not typed. */
   signedInName?: string;
-}) {
+}
+
+export function OverrideForm({ testId, which, versionToken, signedInName }: OverrideFormProps) {
   const [state, action, pending] = useActionState<FormState, FormData>(overrideThreshold, {});
   const v = state.values ?? {};
   const e = state.errors ?? {};
@@ -54,34 +52,13 @@ export function OverrideForm({
  * Remove a reviewer's override and use the automatic estimate again: like setting one, it says why and who (the server
  * refuses it otherwise, and the version list names both).
  */
-export function RemoveOverrideForm({
-  testId,
-  which,
-  versionToken,
-  signedInName,
-}: {
-  testId: number;
-  which: "vt1" | "vt2";
-  versionToken: string;
-  signedInName?: string;
-}) {
+export function RemoveOverrideForm({ testId, which, versionToken, signedInName }: OverrideFormProps) {
   return (
     <form action={clearOverride} data-testid={`remove-override-${which}`}>
       <input type="hidden" name="testId" value={testId} />
       <input type="hidden" name="which" value={which} />
       <input type="hidden" name="versionToken" value={versionToken} />
-      <input
-        name="reason"
-        required
-        minLength={3}
-        maxLength={200}
-        pattern=".*\S.*\S.*\S.*"
-        title="Say why, in a few words"
-        size={18}
-        placeholder="why"
-        aria-label="Reason for removing the override"
-      />{" "}
-      <ReviewerNameInput signedInName={signedInName} />{" "}
+      <ShortReasonInput label="Reason for removing the override" /> <ReviewerNameInput signedInName={signedInName} />{" "}
       <button type="submit" className="secondary">
         Remove override
       </button>

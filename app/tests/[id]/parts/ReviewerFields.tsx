@@ -26,6 +26,23 @@ export function ReviewerNameInput({ signedInName }: { signedInName?: string }) {
   return <input name="by" required minLength={2} size={12} placeholder="your name" aria-label="Reviewer" />;
 }
 
+/** The short reason input of a one-line reviewer form (undo a decision: put a span back, remove an override). */
+export function ShortReasonInput({ label = "Reason" }: { label?: string }) {
+  return (
+    <input
+      name="reason"
+      required
+      minLength={3}
+      maxLength={200}
+      pattern=".*\S.*\S.*\S.*"
+      title="Say why, in a few words"
+      size={18}
+      placeholder="why"
+      aria-label={label}
+    />
+  );
+}
+
 /** Reason, messages and submit button that close a reviewer form. */
 export function ReasonAndSubmit({
   value,

@@ -2,7 +2,7 @@
 
 import { useActionState } from "react";
 import { restoreSetAside, saveSetAside, type FormState } from "../actions";
-import { ReasonAndSubmit, ReviewerField, ReviewerNameInput } from "./ReviewerFields";
+import { ReasonAndSubmit, ReviewerField, ReviewerNameInput, ShortReasonInput } from "./ReviewerFields";
 
 /** Set a span of breaths aside by hand (start, end, reason), and put set-aside spans back. */
 export function SetAsideForm({
@@ -41,18 +41,8 @@ export function SetAsideForm({
                 <input type="hidden" name="versionToken" value={versionToken} />
                 <input type="hidden" name="testId" value={testId} />
                 <input type="hidden" name="span" value={i} />
-                <input
-                  name="reason"
-                  required
-                  minLength={3}
-                  maxLength={200}
-                  pattern=".*\S.*\S.*\S.*"
-                  title="Say why, in a few words"
-                  size={18}
-                  placeholder="why"
-                  aria-label="Reason"
-                />{" "}
-                <ReviewerNameInput signedInName={signedInName} /> <button type="submit">Use these breaths again</button>
+                <ShortReasonInput /> <ReviewerNameInput signedInName={signedInName} />{" "}
+                <button type="submit">Use these breaths again</button>
               </form>
             </li>
           ))}

@@ -2,7 +2,7 @@
 
 import { useActionState } from "react";
 import { clearVo2Checked, saveVo2Checked, type FormState } from "../actions";
-import { ReasonAndSubmit, ReviewerField, ReviewerNameInput } from "./ReviewerFields";
+import { ReasonAndSubmit, ReviewerField, ReviewerNameInput, ShortReasonInput } from "./ReviewerFields";
 import { VO2_CHECKS } from "../vo2Checks";
 
 /**
@@ -33,18 +33,8 @@ export function Vo2CheckedForm({
         <form action={clearVo2Checked}>
           <input type="hidden" name="versionToken" value={versionToken} />
           <input type="hidden" name="testId" value={testId} />
-          <input
-            name="reason"
-            required
-            minLength={3}
-            maxLength={200}
-            pattern=".*\S.*\S.*\S.*"
-            title="Say why, in a few words"
-            size={18}
-            placeholder="why"
-            aria-label="Reason"
-          />{" "}
-          <ReviewerNameInput signedInName={signedInName} /> <button type="submit">Stop reading VO2-based values</button>
+          <ShortReasonInput /> <ReviewerNameInput signedInName={signedInName} />{" "}
+          <button type="submit">Stop reading VO2-based values</button>
         </form>
       </div>
     );
