@@ -8,7 +8,6 @@ import fs from "node:fs";
 import Module from "node:module";
 import os from "node:os";
 import path from "node:path";
-import Database from "better-sqlite3";
 
 // lib/store marks itself "server-only" for the web bundler; here that marker resolves to the CLI's empty stand-in
 const stub = path.join(path.dirname(new URL(import.meta.url).pathname), "..", "bin", "server-only-stub.cjs");
@@ -23,7 +22,7 @@ async function main() {
   const { closeDb, getDb } = await import("../lib/store/db");
   const { audit } = await import("../lib/store/tests");
   const { auditTrailStatus, verifyAuditChain } = await import("../lib/store/auditTrail");
-  const { MIGRATIONS } = await import("../lib/store/migrations");
+  const { databaseAtMigration } = await import("../tests/fixtures/databaseAtMigration");
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), "cpet-audit-bench-"));
   const rows: [string, number, string][] = [];
   const time = (label: string, n: number, f: () => unknown) => {
@@ -55,16 +54,7 @@ async function main() {
 
     // a database made before the chain, with N entries, brought up to date
     const old = path.join(dir, "old.sqlite");
-    const db = new Database(old);
-    db.exec("create table schema_migrations (id integer primary key, name text not null, applied_at text not null)");
-    for (const m of MIGRATIONS.filter((m) => m.id <= 8)) {
-      db.exec(m.sql);
-      db.prepare("insert into schema_migrations (id, name, applied_at) values (?, ?, ?)").run(
-        m.id,
-        m.name,
-        "2024-01-01T00:00:00.000Z",
-      );
-    }
+    const db = databaseAtMigration(old, 8, "2024-01-01T00:00:00.000Z");
     const put = db.prepare("insert into audit (at, actor, action, test_id, detail) values (?, ?, ?, ?, ?)");
     db.transaction(() => {
       for (let i = 0; i < N; i++)

@@ -8,7 +8,6 @@ import { createHash } from "node:crypto";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import Database from "better-sqlite3";
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { AUDIT_GENESIS, auditChainHash } from "../../lib/store/auditChain";
 import {
@@ -19,7 +18,7 @@ import {
   verifyAuditChain,
 } from "../../lib/store/auditTrail";
 import { closeDb, getDb } from "../../lib/store/db";
-import { MIGRATIONS } from "../../lib/store/migrations";
+import { databaseAtMigration } from "../fixtures/databaseAtMigration";
 import { audit, listAudit } from "../../lib/store/tests";
 import { auditTrailWarning } from "../../app/auditTrailWarning";
 
@@ -222,16 +221,7 @@ describe("a database made before the chain (temporary file)", () => {
 
   /** A database at migration 8 with entries written as the app wrote them then (times from the app, free text). */
   function oldDatabase(file: string) {
-    const db = new Database(file);
-    db.exec("create table schema_migrations (id integer primary key, name text not null, applied_at text not null)");
-    for (const m of MIGRATIONS.filter((m) => m.id <= 8)) {
-      db.exec(m.sql);
-      db.prepare("insert into schema_migrations (id, name, applied_at) values (?, ?, ?)").run(
-        m.id,
-        m.name,
-        "2024-05-01T08:00:00.000Z",
-      );
-    }
+    const db = databaseAtMigration(file, 8, "2024-05-01T08:00:00.000Z");
     const put = db.prepare("insert into audit (id, at, actor, action, test_id, detail) values (?, ?, ?, ?, ?, ?)");
     put.run(1, "2024-05-01T08:00:00.000Z", "system", "test-imported", 1, "Demo A (invented)");
     put.run(2, "2024-05-01T08:05:00.000Z", null, "account-created", null, "jdoe (Dr J Doe (invented), clinician)");
