@@ -13,6 +13,15 @@ import { audit } from "./tests";
 export const REPORT_VIEW_AUDIT_MINUTES = 10;
 
 /**
+ * Audit that `actor` opened one of a test's own pages, which show the patient's details and values (`test-viewed`, with
+ * the page; at most once per actor and test every `REPORT_VIEW_AUDIT_MINUTES`, whichever of the test's pages). Returns
+ * whether an entry was written.
+ */
+export function auditTestViewed(actor: string, testId: number, page: "analysis" | "inputs" | "patient" | "columns"): boolean {
+  return auditAtMostEvery(REPORT_VIEW_AUDIT_MINUTES, actor, "test-viewed", testId, `${page} page`);
+}
+
+/**
  * Audit that `actor` opened a test's report page (`report-viewed`, at most once per actor and test every
  * `REPORT_VIEW_AUDIT_MINUTES`). Returns whether an entry was written.
  */

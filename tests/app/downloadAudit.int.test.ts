@@ -15,6 +15,8 @@ import { SESSION_COOKIE } from "../../app/access";
 import { GET as getPdf } from "../../app/api/tests/[id]/report/pdf/route";
 import { GET as getUpload } from "../../app/api/uploads/[id]/route";
 import ReportPage from "../../app/tests/[id]/report/page";
+import TestPage from "../../app/tests/[id]/page";
+import InputsPage from "../../app/tests/[id]/inputs/page";
 import { createAccount, logIn } from "../../lib/store/accounts";
 import { verifyAuditChain } from "../../lib/store/auditTrail";
 import { closeDb, getDb } from "../../lib/store/db";
@@ -143,4 +145,14 @@ describe("downloads and report views are audited (invented test and account)", (
     await openReportPage(testId);
     expect(entries("report-viewed").map((e) => e.actor)).toEqual(["local user", "jdoe"]);
   });
+
+  it("opening the test's own pages (analysis, inputs) is audited as a view of that test, once per actor within the window", async () => {
+    await TestPage({ params: Promise.resolve({ id: String(testId) }) });
+    await InputsPage({ params: Promise.resolve({ id: String(testId) }) });
+    await TestPage({ params: Promise.resolve({ id: String(testId) }) });
+    expect(entries("test-viewed")).toEqual([
+      { actor: "local user", action: "test-viewed", test_id: testId, detail: "analysis page" },
+    ]);
+    expect(verifyAuditChain().ok).toBe(true);
+  }, 60_000);
 });

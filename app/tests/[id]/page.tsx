@@ -18,7 +18,7 @@ import { AVERAGED_ROW_INTERVAL_S, medianRowIntervalS } from "@/lib/signal";
 import { displayUnit, formatClock, formatNumber } from "@/lib/units";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { getTest, listAnalysisVersions } from "@/lib/store/tests";
-import { reportStanding, standingWords } from "@/lib/store/reports";
+import { auditTestViewed, reportStanding, standingWords } from "@/lib/store/reports";
 import { Chart } from "../../components/Chart";
 import { IssueList } from "../../components/IssueList";
 import { TableScroll } from "../../components/TableScroll";
@@ -83,6 +83,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
   if (!Number.isInteger(testId)) notFound();
   const test = getTest(testId);
   if (!test) notFound();
+  auditTestViewed(access.actor, testId, "analysis");
 
   if (!test.record) {
     // Mapping columns by hand helps only when the kept file reads as a table (the column page says the same).

@@ -4,6 +4,7 @@ import { ColumnForm } from "./ColumnForm";
 import { ImportIssueTable } from "./ImportIssueTable";
 import { loadColumnReview } from "./loadColumnReview";
 import { pageAccess } from "../../../access";
+import { auditTestViewed } from "@/lib/store/reports";
 
 export const dynamic = "force-dynamic";
 
@@ -18,11 +19,12 @@ const KIND_TEXT: Record<string, string> = {
 
 export default async function ColumnReviewPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  await pageAccess(`/tests/${id}/columns`);
+  const access = await pageAccess(`/tests/${id}/columns`);
   const testId = Number(id);
   if (!Number.isInteger(testId) || testId <= 0) notFound();
   const review = await loadColumnReview(testId);
   if (!review) notFound();
+  auditTestViewed(access.actor, testId, "columns");
   const { test, format } = review;
   const refused = !test.record;
   const meta = format ? Object.entries(format.metadata) : [];

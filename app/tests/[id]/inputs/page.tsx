@@ -6,16 +6,18 @@ import { formatClock } from "@/lib/units";
 import styles from "../columns/columns.module.css";
 import { BloodGasForm, ConductForm, ContextForm, LactateForm, SpirometryForm } from "./InputForms";
 import { pageAccess } from "../../../access";
+import { auditTestViewed } from "@/lib/store/reports";
 
 export const dynamic = "force-dynamic";
 
 export default async function InputsPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  await pageAccess(`/tests/${id}/inputs`);
+  const access = await pageAccess(`/tests/${id}/inputs`);
   const testId = Number(id);
   if (!Number.isInteger(testId) || testId <= 0) notFound();
   const test = getTest(testId);
   if (!test) notFound();
+  auditTestViewed(access.actor, testId, "inputs");
   const record = test.record;
   const token = recordToken(test);
   if (!record) {

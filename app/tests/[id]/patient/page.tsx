@@ -9,6 +9,7 @@ import { CopyForm } from "./CopyForm";
 import { ANONYMISED_COPY_FREE_TEXT, ANONYMISED_COPY_REMOVES } from "@/lib/store/anonymisedCopy";
 import { PatientForm, type PatientFormProps } from "./PatientForm";
 import { pageAccess } from "../../../access";
+import { auditTestViewed } from "@/lib/store/reports";
 
 export const dynamic = "force-dynamic";
 
@@ -17,11 +18,12 @@ const text = (x: number | undefined) => (x === undefined ? "" : String(x));
 /** Correct the patient and test details of a test after import. */
 export default async function PatientPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
-  await pageAccess(`/tests/${id}/patient`);
+  const access = await pageAccess(`/tests/${id}/patient`);
   const testId = Number(id);
   if (!Number.isInteger(testId) || testId <= 0) notFound();
   const test = getTest(testId);
   if (!test) notFound();
+  auditTestViewed(access.actor, testId, "patient");
   const refused = !test.record;
   const kept = refused ? getUploadDetails(testId) : null;
   const source = test.record ?? kept;
