@@ -1,8 +1,10 @@
+import fs from "node:fs";
 import os from "node:os";
 import { createInterface } from "node:readline";
 import { Writable } from "node:stream";
 import type { Command } from "commander";
 import * as accounts from "../lib/store/accounts";
+import { databasePath } from "../lib/store/db";
 import { EXIT_STATUS_HELP, UsageError } from "./usageError";
 
 /**
@@ -26,7 +28,7 @@ export function registerAccount(program: Command): void {
     .requiredOption("--name <display name>", 'the name a signature shows, e.g. "Dr J Doe"')
     .requiredOption("--role <role>", "clinician (may sign reports) | physiologist (everything but signing)")
     .action(async (username: string, opts: { name: string; role: string }) => {
-      const store = useDatabase(account);
+      const store = useDatabase(account, true);
       if (opts.role !== "clinician" && opts.role !== "physiologist")
         throw new UsageError(`--role must be clinician or physiologist, not "${opts.role}"`);
       const wasOpen = !store.accountsEnabled();
@@ -105,10 +107,16 @@ export function registerAccount(program: Command): void {
     });
 }
 
-/** The accounts store, on `--db` when given (the database opens on first use, so other commands never open it). */
-function useDatabase(account: Command): typeof accounts {
+/**
+ * The accounts store, on `--db` when given (the database opens on first use, so other commands never open it). Only
+ * `add` may make a new database (the first account of a new installation); every other command refuses a path with no
+ * database, where opening it would leave an empty file behind and answer as if the installation had no accounts.
+ */
+function useDatabase(account: Command, mayCreate = false): typeof accounts {
   const db = account.opts<{ db?: string }>().db;
   if (db) process.env.CPET_DB = db;
+  const file = databasePath();
+  if (!mayCreate && file !== ":memory:" && !fs.existsSync(file)) throw new UsageError(`no database at ${file}`);
   return accounts;
 }
 

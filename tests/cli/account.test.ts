@@ -22,6 +22,11 @@ describe("cpet account", () => {
   // a dozen runs of the command, each starting node and tsx, several hashing a password (scrypt N = 2^17): 29 s on a busy
   // 2-core machine
   it("makes, lists, disables and enables accounts; refuses bad input with exit status 2", { timeout: 180_000 }, () => {
+    // before the first account there is no database: only "add" may make one; "list" says so and leaves no file behind
+    const none = cpet(["list"]);
+    expect(none.status).toBe(2);
+    expect(none.stderr).toContain(`no database at ${dbFile}`);
+    expect(fs.existsSync(dbFile)).toBe(false);
     const bad = cpet(["add", "jdoe", "--name", "Dr J Doe (invented)", "--role", "nurse"], "correct horse battery\n");
     expect(bad.status).toBe(2);
     expect(bad.stderr).toContain("--role must be clinician or physiologist");
