@@ -95,7 +95,9 @@ test("an override without a reason is refused and the typed values are kept", as
   await card.locator('[name="vo2MlMin"]').fill("2100");
   await card.locator('[name="by"]').fill("E2E");
   await card.getByRole("button", { name: "Save override" }).click();
-  await expect(card).toContainText("Give the reason");
+  // the browser refuses it before sending (the reason is required); the server's own refusal is a unit test
+  expect(await card.locator('[name="reason"]').evaluate((el) => (el as HTMLInputElement).validity.valueMissing)).toBe(true);
+  await expect(card).not.toContainText("Set by the reviewer");
   await expect(card.locator('[name="vo2MlMin"]')).toHaveValue("2100");
 });
 
@@ -189,9 +191,15 @@ test("a reviewer sets a span of breaths aside: refused without a reason, recompu
   await box.locator('[name="start"]').fill("8:00");
   await box.locator('[name="end"]').fill("8:30");
   await box.locator('[name="by"]').fill("E2E Reviewer");
-  // no reason: refused, and the typed times are kept
+  // no reason: refused by the browser before sending (the server refuses it too: tests/app), and the typed times are kept
   await box.getByRole("button", { name: "Set these breaths aside" }).click();
-  await expect(box).toContainText("Give the reason");
+  expect(
+    await box
+      .locator('[name="reason"]')
+      .first()
+      .evaluate((el) => (el as HTMLInputElement).validity.valueMissing),
+  ).toBe(true);
+  await expect(box).not.toContainText("Span set aside");
   await expect(box.locator('[name="start"]')).toHaveValue("8:00");
   await box.locator('[name="reason"]').fill("mask leak noted on the test log");
   await box.getByRole("button", { name: "Set these breaths aside" }).click();

@@ -9,9 +9,11 @@ vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
 
 import { SESSION_COOKIE, SESSION_NEEDED } from "../../app/access";
 import { saveLabel } from "../../app/tests/[id]/patient/actions";
+import { overrideThreshold } from "../../app/tests/[id]/actions";
 import { createAccount, logIn } from "../../lib/store/accounts";
 import { closeDb } from "../../lib/store/db";
-import { getTest, listAudit, saveTest } from "../../lib/store/tests";
+import { getTest, latestSettings, listAudit, saveTest } from "../../lib/store/tests";
+import { caseRecord } from "../fixtures/caseRecord";
 import { testCookieJar } from "../stubs/nextHeaders";
 
 /** Who changes accounts in these tests (the CLI passes `cli:<os user>`); INVENTED. */
@@ -67,5 +69,35 @@ describe("access in a server action (invented test and account)", () => {
     expect(await saveLabel({}, form(testId, "Case C (invented)"))).toMatchObject({ ok: expect.any(String) });
     expect(getTest(testId)?.label).toBe("Case C (invented)");
     expect(listAudit(testId)[0].actor).toBe("jdoe");
+  });
+});
+
+describe("a reviewer override without a reason (invented demo case)", () => {
+  beforeEach(() => {
+    process.env.CPET_DB = ":memory:";
+    closeDb();
+    testCookieJar.clear();
+  });
+  afterEach(() => closeDb());
+
+  it("is refused by the server with its own words and the typed values kept, whatever the browser checked", async () => {
+    const testId = saveTest({
+      uploadId: null,
+      label: "Normal adult (invented)",
+      record: await caseRecord("normal-adult"),
+      columns: [],
+      issues: [],
+    });
+    const f = new FormData();
+    f.set("testId", String(testId));
+    f.set("which", "vt2");
+    f.set("vo2MlMin", "2100");
+    f.set("by", "E2E");
+    f.set("reason", "  ");
+    f.set("versionToken", "");
+    const answer = await overrideThreshold({}, f);
+    expect(answer.errors?.reason).toMatch(/^Give the reason/);
+    expect(answer.values?.vo2MlMin).toBe("2100");
+    expect(latestSettings(testId)?.settings.overrides ?? []).toEqual([]);
   });
 });

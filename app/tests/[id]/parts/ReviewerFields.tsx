@@ -15,7 +15,7 @@ export function ReviewerField({ value, signedInName }: { value?: string; signedI
   return (
     <label>
       Reviewer
-      <input name="by" defaultValue={value ?? ""} size={14} />
+      <input name="by" defaultValue={value ?? ""} size={14} required minLength={2} />
     </label>
   );
 }
@@ -63,7 +63,8 @@ export function ReasonAndSubmit({
     <>
       <label>
         Reason
-        <input name="reason" defaultValue={value ?? ""} placeholder={placeholder} />
+        {/* the browser asks first; the server refuses a blank or short reason anyway, with its own words */}
+        <input name="reason" defaultValue={value ?? ""} placeholder={placeholder} required minLength={5} />
       </label>
       <FormMessages errors={errors} ok={ok} />
       <div>
