@@ -2,7 +2,14 @@ import Link from "next/link";
 import { z } from "zod";
 import { analyse } from "@/lib/analysis";
 import type { Patient } from "@/lib/core";
-import { compareTests, INTERPRETATION_DATA, variableInfo, type ReferralQuestion, type SerialItem } from "@/lib/interpret";
+import {
+  compareTests,
+  INTERPRETATION_DATA,
+  lowerFirst,
+  variableInfo,
+  type ReferralQuestion,
+  type SerialItem,
+} from "@/lib/interpret";
 import { getLabDefaults } from "@/lib/store/labSettings";
 import { effectiveSettings, getTest, listTests } from "@/lib/store/tests";
 import { formatNumber, formatUtcMinute } from "@/lib/units";
@@ -280,5 +287,3 @@ export default async function ComparePage({
     </>
   );
 }
-
-const lowerFirst = (t: string) => t.charAt(0).toLowerCase() + t.slice(1);

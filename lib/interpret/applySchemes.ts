@@ -1,6 +1,13 @@
 import { makeIssue, type Issue } from "../core";
-import { conditionVariables, dedupeUses, evaluateCondition, variableLabel, type EvalContext } from "./evaluateCondition";
-import { andList, formatCutoff, formatValue, unique, weakestStatus } from "./format";
+import {
+  conditionVariables,
+  dedupeUses,
+  evaluateCondition,
+  notAvailableText,
+  variableLabel,
+  type EvalContext,
+} from "./evaluateCondition";
+import { andList, formatCutoff, formatValue, lowerFirst, unique, weakestStatus } from "./format";
 import { variableInfo } from "./variables";
 import { runGraph } from "./runGraph";
 import type { AxisData, BandData, SchemeData } from "./schema";
@@ -130,11 +137,10 @@ function floorBelow(later: BandData[], undecided: BandData, ctx: EvalContext): B
  * axis undecided, or when every answer gives the same category (then the caller's reading stands).
  */
 function categoryByAnswer(bands: BandData[], ctx: EvalContext): string | null {
-  const used = new Set(bands.flatMap((b) => [...conditionVariables(b.when, ctx)]));
-  const missing = [...used].filter((name) => ctx.vars[name] === null || ctx.vars[name] === undefined);
+  const { used, missing } = axisInputs(bands, ctx);
   if (missing.length === 0 || missing.length > 2 || missing.some((name) => variableInfo(name).kind !== "boolean")) return null;
   // an axis that reads nothing but the missing answer ("oscillatory ventilation: present if present") stays not assessable
-  if (missing.length === used.size) return null;
+  if (missing.length === used.length) return null;
   const answers: { words: string; band: BandData }[] = [];
   for (let mask = 0; mask < 1 << missing.length; mask++) {
     const vars = { ...ctx.vars };
@@ -160,18 +166,16 @@ function categoryByAnswer(bands: BandData[], ctx: EvalContext): string | null {
  * comparison that reads it (three times in the three-tier scheme); "" when no input is missing.
  */
 function missingWords(bands: BandData[], ctx: EvalContext): string {
-  const used = [...new Set(bands.flatMap((b) => [...conditionVariables(b.when, ctx)]))];
-  return used
-    .filter((name) => ctx.vars[name] === null || ctx.vars[name] === undefined)
-    .map((name) => {
-      const unit = variableInfo(name).unit;
-      const why = ctx.reasons[name];
-      return `${variableLabel(ctx, name)}${unit ? ` (${unit})` : ""} not available${why ? ` (${why})` : ""}`;
-    })
+  return axisInputs(bands, ctx)
+    .missing.map((name) => notAvailableText(ctx, name))
     .join("; ");
 }
 
-const lowerFirst = (t: string) => t.charAt(0).toLowerCase() + t.slice(1);
+/** The inputs an axis's bands read, and those of them not recorded (null or absent), each once. */
+function axisInputs(bands: BandData[], ctx: EvalContext): { used: string[]; missing: string[] } {
+  const used = [...new Set(bands.flatMap((b) => [...conditionVariables(b.when, ctx)]))];
+  return { used, missing: used.filter((name) => ctx.vars[name] === null || ctx.vars[name] === undefined) };
+}
 
 /** The first band whose condition holds in this context, or null (not assessable, or between bands). */
 function categoryWith(bands: BandData[], alt: EvalContext): BandData | null {

@@ -1,6 +1,6 @@
 import { DRAFT_CAUTION } from "../core/cautions";
 import type { SerialComparison } from "./compareTests";
-import { andList, formatValue, unique } from "./format";
+import { andList, formatValue, lowerFirst, unique } from "./format";
 import type { InterpretInput, Interpretation, ReferralQuestion, SchemeResult } from "./types";
 import { variableInfo, type VariableId } from "./variables";
 
@@ -16,14 +16,14 @@ export function conclusionLead(interpretation: Interpretation, input: InterpretI
   const end = interpretation.path.end;
   const wb = input.weightBasisSplit;
   if (!wb || !interpretation.effort.peakConclusionsAllowed) return end ? [`${end.label}.`] : [];
-  const actual = `${wb.actualPct.toFixed(0)} % on actual body weight (${wb.reducedOnActual ? "reduced" : "not reduced"})`;
-  const ideal = `${wb.idealPct.toFixed(0)} % on predicted body mass (${wb.idealWeightKg.toFixed(1)} kg; ${wb.reducedOnActual ? "not reduced" : "reduced"})`;
+  const actual = `on actual body weight (${wb.reducedOnActual ? "reduced" : "not reduced"})`;
+  const ideal = `on predicted body mass (${wb.idealWeightKg.toFixed(1)} kg; ${wb.reducedOnActual ? "not reduced" : "reduced"})`;
   // the reduced reading first, so the reader meets it before any "no limitation"
-  const readings = wb.reducedOnActual ? `${actual} and ${ideal}` : `${ideal} but ${actual}`;
-  const out = [
-    `Peak VO2 is ${readings.replace(/^(\d+) %/, "$1 % of predicted")}: the reading depends on the weight basis, which the report should state.`,
-  ];
-  if (end) out.push(`On actual body weight: ${end.label.charAt(0).toLowerCase()}${end.label.slice(1)}.`);
+  const readings = wb.reducedOnActual
+    ? `${wb.actualPct.toFixed(0)} % of predicted ${actual} and ${wb.idealPct.toFixed(0)} % ${ideal}`
+    : `${wb.idealPct.toFixed(0)} % of predicted ${ideal} but ${wb.actualPct.toFixed(0)} % ${actual}`;
+  const out = [`Peak VO2 is ${readings}: the reading depends on the weight basis, which the report should state.`];
+  if (end) out.push(`On actual body weight: ${lowerFirst(end.label)}.`);
   return out;
 }
 

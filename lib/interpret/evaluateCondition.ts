@@ -81,6 +81,13 @@ function compare(raw: VarValue, op: string, cutoff: number | string | boolean | 
   }
 }
 
+/** "VO2 at VT1 (mL/kg/min) not available (why)": a missing input in words, with the reason it is missing when known. */
+export function notAvailableText(ctx: Pick<EvalContext, "names" | "reasons">, variable: string): string {
+  const unit = variableInfo(variable).unit;
+  const why = ctx.reasons[variable];
+  return `${variableLabel(ctx, variable)}${unit ? ` (${unit})` : ""} not available${why ? ` (${why})` : ""}`;
+}
+
 function comparisonText(
   ctx: EvalContext,
   variable: string,
@@ -91,10 +98,7 @@ function comparisonText(
   const info = { ...variableInfo(variable), label: variableLabel(ctx, variable) };
   const unit = info.unit ? ` ${info.unit}` : "";
   const pred = info.predictedKey && ctx.predicted[info.predictedKey] ? ` (${ctx.predicted[info.predictedKey]})` : "";
-  if (value === null) {
-    const why = ctx.reasons[variable];
-    return `${info.label}${unit ? ` (${info.unit})` : ""} not available${why ? ` (${why})` : ""}`;
-  }
+  if (value === null) return notAvailableText(ctx, variable);
   if (info.kind === "boolean") return `${info.label}: ${formatValue(variable, value)}`;
   if (info.kind === "string") {
     // categories in words, never as operators: "Sex: male, not female"; "Effort: submaximal, not maximal or …"

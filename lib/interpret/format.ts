@@ -84,3 +84,6 @@ export function unique<T>(items: readonly T[]): T[] {
 export function andList(items: readonly string[]): string {
   return items.length > 1 ? `${items.slice(0, -1).join(", ")} and ${items[items.length - 1]}` : (items[0] ?? "");
 }
+
+/** The text with its first letter in lower case, to run on inside a sentence ("Low risk (…)" → "low risk (…)"). */
+export const lowerFirst = (t: string) => t.charAt(0).toLowerCase() + t.slice(1);

@@ -28,4 +28,4 @@ export {
 } from "./interpretationData";
 export { INTERPRET_SOURCES } from "./sources";
 export { UNCOMBINED_SCHEME_TEXT } from "./applySchemes";
-export { nearCutoffNote } from "./format";
+export { lowerFirst, nearCutoffNote } from "./format";
