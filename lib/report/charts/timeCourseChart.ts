@@ -39,22 +39,14 @@ export function timeCourseChart(input: TimeCourseChartInput): ChartSpec {
   const all = [...series, ...right].filter((s) => s.points.length > 0);
   const hasRight = all.some((s) => s.axis === "y2");
   // each axis names only the signals drawn on it (a file without VCO2, or without work rate)
-  const named = (names: [string, string][]) =>
-    names
-      .filter(([n]) => all.some((s) => s.name === n))
-      .map(([, label]) => label)
-      .join(" and ");
-  const leftLabel = named([
-    ["VO2", "VO2"],
-    ["VCO2", "VCO2"],
-  ]);
-  const rightLabel = named([
-    ["Heart rate", "Heart rate"],
-    ["Work rate", "work rate"],
-  ]);
-  const rightUnit = [all.some((s) => s.name === "Heart rate") ? "bpm" : "", all.some((s) => s.name === "Work rate") ? "W" : ""]
-    .filter(Boolean)
-    .join(", ");
+  const drawn = new Set(all.map((s) => s.name));
+  const leftLabel = ["VO2", "VCO2"].filter((n) => drawn.has(n)).join(" and ");
+  const onRight = [
+    ["Heart rate", "bpm"],
+    ["Work rate", "W"],
+  ].filter(([n]) => drawn.has(n));
+  const rightLabel = onRight.map(([n], i) => (i === 0 ? n : n.toLowerCase())).join(" and ");
+  const rightUnit = onRight.map(([, unit]) => unit).join(", ");
   const bands: ChartBand[] = [
     ...(input.spans ?? []).map((s) => ({ from: s.startS * min, to: s.endS * min, label: s.label })),
     ...(input.setAside ?? []).map((s): ChartBand => ({
@@ -69,7 +61,7 @@ export function timeCourseChart(input: TimeCourseChartInput): ChartSpec {
     title: "Time course",
     x: { label: "Time", unit: "min" },
     y: { label: leftLabel || "VO2", unit: "mL/min" },
-    ...(hasRight ? { y2: { label: rightLabel.charAt(0).toUpperCase() + rightLabel.slice(1), unit: rightUnit, min: 0 } } : {}),
+    ...(hasRight ? { y2: { label: rightLabel, unit: rightUnit, min: 0 } } : {}),
     series: all,
     markers: thresholdMarkers(input.vt1TimeS, input.vt2TimeS, min, input.setByReviewer),
     bands,
