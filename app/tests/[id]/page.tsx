@@ -238,16 +238,7 @@ export default async function TestPage({ params }: { params: Promise<{ id: strin
                   ) : null}
                 </td>
                 <td className="num">
-                  {c.percentPredicted !== null
-                    ? keyValueNotRead(result, c.key)
-                      ? `(${c.percentPredicted.toFixed(0)} %)`
-                      : `${c.percentPredicted.toFixed(0)} %`
-                    : "—"}
-                  {keyValueNotRead(result, c.key) ? (
-                    <div className="how" data-testid={`not-read-${c.key}`}>
-                      not read: {keyValueNotRead(result, c.key)}
-                    </div>
-                  ) : null}
+                  <PctPredicted pct={c.percentPredicted} notRead={keyValueNotRead(result, c.key)} testId={`not-read-${c.key}`} />
                   {c.key === "peakHr" && heartRateNotes(record.patient).length > 0 ? (
                     <div className="how" data-testid="beta-blocker-hr-note">
                       {heartRateNotes(record.patient).join("; ")}
@@ -943,10 +934,25 @@ function NotDeterminable({ reason }: { reason: string }) {
 
 /**
  * "3 breath value(s) set aside by artefact rejection and 25 by review": the automatic screens and the reviewer's spans
- * counted apart (the reviewer's carry the reason "set aside by review …").
+ * (marked `byReview`) counted apart.
  */
-function setAsideCounts(removed: readonly { reason: string }[]): string {
-  const byReview = removed.filter((r) => r.reason.startsWith("set aside by review")).length;
+function setAsideCounts(removed: readonly { byReview?: boolean }[]): string {
+  const byReview = removed.filter((r) => r.byReview).length;
   const automatic = removed.length - byReview;
   return `${automatic} breath value(s) set aside by artefact rejection${byReview ? ` and ${byReview} by review` : ""}`;
+}
+
+/** A % predicted, in brackets with the reason beside it when the interpretation does not read it. */
+function PctPredicted({ pct, notRead, testId }: { pct: number | null; notRead?: string; testId: string }) {
+  const shown = pct === null ? "—" : notRead ? `(${pct.toFixed(0)} %)` : `${pct.toFixed(0)} %`;
+  return (
+    <>
+      {shown}
+      {notRead ? (
+        <div className="how" data-testid={testId}>
+          not read: {notRead}
+        </div>
+      ) : null}
+    </>
+  );
 }
