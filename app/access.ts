@@ -1,4 +1,5 @@
 import "server-only";
+import { cache } from "react";
 import { cookies } from "next/headers";
 import { redirect } from "next/navigation";
 import { accountsEnabled, sessionAccount, type Account } from "@/lib/store/accounts";
@@ -31,14 +32,18 @@ export function sessionCookieSecure(
 export const SESSION_NEEDED =
   "Your session has ended or you are not signed in. Nothing was saved: keep this page open, sign in again in another tab, then repeat the step here.";
 
-/** The access of this request, or null when log-in is required and there is no valid session. */
-export async function currentAccess(): Promise<Access | null> {
+/**
+ * The access of this request, or null when log-in is required and there is no valid session. Read once per page
+ * request (React `cache`): the masthead's account bar, the audit-trail banner and the page each ask, and each reading
+ * of a session also records its use.
+ */
+export const currentAccess = cache(async (): Promise<Access | null> => {
   // the cookie is read first: it marks the render as per-request, so a build never opens the database here
   const token = (await cookies()).get(SESSION_COOKIE)?.value;
   if (!accountsEnabled()) return { mode: "open", actor: "local user" };
   const account = sessionAccount(token);
   return account ? { mode: "account", actor: account.username, account } : null;
-}
+});
 
 /**
  * A path inside the app to come back to after signing in; anything else goes to the register. Control characters and
